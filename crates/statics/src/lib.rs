@@ -1,0 +1,30 @@
+//! Springline's statics engine: the stiffness solver for plane frames and trusses, and
+//! (built on it) funicular form finding, structure generation and force diagrams for
+//! deck arches. Pure Rust, no IO; compiles to native and wasm32.
+//!
+//! Units: m, kN, kN/m, kN/m2 (also E and stresses), rad. Axes x right, y up.
+//! Axial force tension positive; bending moment positive when the right-hand fibre
+//! (looking from a member's start to its end) is in tension (sagging for members drawn
+//! left to right).
+#![warn(missing_docs)]
+
+pub mod banded;
+pub mod determinacy;
+pub mod element;
+pub mod error;
+pub mod model;
+pub mod solver;
+
+pub use determinacy::{truss_determinacy, Determinacy, DeterminacyReport};
+pub use error::{Problem, StaticsError};
+pub use model::{
+    frame, truss, Dof, LoadCase, LoadDirection, Member, MemberKind, MemberLoad, Model, NodalLoad, Node,
+    PrescribedDisplacement, Support, TemperatureLoad,
+};
+pub use solver::{solve, validate, CaseResult, EquilibriumCheck, MemberForces, Reaction, SectionForces, Solution};
+
+// Deck-arch layer (built on the solver): owned by the form-finding work.
+pub mod analysis;
+pub mod design;
+pub mod funicular;
+pub mod generate;

@@ -1,0 +1,1 @@
+//! Cross-crate checks live in tests/*.rs.
