@@ -19,9 +19,10 @@ How each plane model is built in the 3D library
   there transmit no moment and no nodal moment is applied), and the script asserts that
   its reaction is negligible. Springline instead omits that freedom.
 * Members: same E, A; Iz = I (the in-plane bending inertia; about local z, which the
-  library keeps normal to the X-Y plane for these members). Truss members get a small
-  nominal Iz and are released in Rz at both ends (axial stiffness only, exactly like
-  Springline's truss element). Frame members with release_start / release_end get Rz
+  library keeps normal to the X-Y plane for these members). Truss members, and frame
+  members released at both ends, get a nominal Iz and are released in Rz at both ends:
+  axial stiffness only, exactly like Springline's truss element (their Iz then only
+  enters the condensed fixed-end actions, which do not depend on it). Frame members with release_start / release_end get Rz
   released at that end. Out-of-plane properties (Iy, J, G) are nominal; they carry
   nothing because the out-of-plane freedoms are restrained at every node.
 * Loads: nodal FX, FY, MZ as given. Member loads are converted to GLOBAL components

@@ -8,10 +8,12 @@
 
 /// Relative size below which a pivot counts as zero: d_i < PIVOT_TOLERANCE * K_ii.
 ///
-/// Well-conditioned structures keep pivots near their diagonal; a member with EA 1e5
-/// times its bending stiffness scale still gives ratios around 1e-8, while a true
-/// mechanism leaves only rounding (about 1e-15 of the diagonal).
-pub const PIVOT_TOLERANCE: f64 = 1e-11;
+/// Measured here: bare ribs whose EA is 1e5 times realistic (the stiffest models in the
+/// tests) keep every pivot above 4e-6 of its diagonal; a true mechanism leaves rounding,
+/// which stays near 1e-16 of the diagonal but, after a nearly parallel pair of bars, was
+/// seen at 1e-11. 1e-9 separates the two with margin both ways; a structure that stiff
+/// in one mode and that soft in another is a mechanism for any practical purpose.
+pub const PIVOT_TOLERANCE: f64 = 1e-9;
 
 /// A symmetric matrix stored by its lower band.
 #[derive(Debug, Clone)]
