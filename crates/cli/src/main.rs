@@ -1,1 +1,34 @@
-fn main() {}
+//! `springline`: the command-line front end. Each subcommand lives in its own file and
+//! only translates between files / terminal and the statics engine.
+
+mod commands;
+
+use std::process::ExitCode;
+
+const USAGE: &str = "\
+springline: concept design of deck-arch bridges (results are for concept design only;
+local codes and a licensed engineer govern)
+
+usage:
+  springline solve MODEL.json            solve a neutral analysis model, print results JSON
+  springline help                        this text
+";
+
+fn main() -> ExitCode {
+    let args: Vec<String> = std::env::args().skip(1).collect();
+    let result = match args.first().map(String::as_str) {
+        Some("solve") => commands::solve::run(&args[1..]),
+        Some("help") | Some("--help") | Some("-h") | None => {
+            print!("{USAGE}");
+            Ok(())
+        }
+        Some(other) => Err(anyhow::anyhow!("unknown command '{other}'\n\n{USAGE}")),
+    };
+    match result {
+        Ok(()) => ExitCode::SUCCESS,
+        Err(e) => {
+            eprintln!("springline: {e:#}");
+            ExitCode::FAILURE
+        }
+    }
+}

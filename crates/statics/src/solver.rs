@@ -434,10 +434,36 @@ pub fn solve(model: &Model) -> Result<Solution, StaticsError> {
     validate(model)?;
     let numbering = number(model);
     let elems = elements(model);
+    let kff = assemble(model, &numbering, &elems);
+    let n = numbering.free.len();
+    let bandwidth = kff.bandwidth();
+    let factor = match LdlFactor::new(&kff) {
+        Ok(f) => f,
+        Err(singular) => return Err(mechanism_error(model, &numbering, &singular.null_vector)),
+    };
+    let mut cases = Vec::with_capacity(model.load_cases.len());
+    for lc in &model.load_cases {
+        cases.push(solve_case(model, &numbering, &elems, &factor, lc)?);
+    }
+    Ok(Solution { cases, free_dofs: n, bandwidth })
+}
+
+/// The assembled stiffness matrix of the free freedoms (banded, reverse Cuthill-McKee
+/// numbering) and, for each equation, the node and freedom it belongs to. Units kN/m,
+/// kN/rad, kNm/rad. Errors for an invalid model.
+pub fn free_stiffness(model: &Model) -> Result<(BandMatrix, Vec<(usize, Dof)>), StaticsError> {
+    validate(model)?;
+    let numbering = number(model);
+    let elems = elements(model);
+    let k = assemble(model, &numbering, &elems);
+    Ok((k, numbering.free))
+}
+
+fn assemble(model: &Model, numbering: &Numbering, elems: &[Element]) -> BandMatrix {
     let n = numbering.free.len();
     let mut bandwidth = 0;
     for k in 0..model.members.len() {
-        let free: Vec<usize> = member_eqs(model, &numbering, k)
+        let free: Vec<usize> = member_eqs(model, numbering, k)
             .iter()
             .filter_map(|e| if let Eq::Free(i) = e { Some(*i) } else { None })
             .collect();
@@ -447,7 +473,7 @@ pub fn solve(model: &Model) -> Result<Solution, StaticsError> {
     }
     let mut kff = BandMatrix::zeros(n, bandwidth);
     for (k, el) in elems.iter().enumerate() {
-        let eqs = member_eqs(model, &numbering, k);
+        let eqs = member_eqs(model, numbering, k);
         for r in 0..6 {
             let Eq::Free(i) = eqs[r] else { continue };
             for c in 0..6 {
@@ -458,15 +484,7 @@ pub fn solve(model: &Model) -> Result<Solution, StaticsError> {
             }
         }
     }
-    let factor = match LdlFactor::new(&kff) {
-        Ok(f) => f,
-        Err(singular) => return Err(mechanism_error(model, &numbering, &singular.null_vector)),
-    };
-    let mut cases = Vec::with_capacity(model.load_cases.len());
-    for lc in &model.load_cases {
-        cases.push(solve_case(model, &numbering, &elems, &factor, lc)?);
-    }
-    Ok(Solution { cases, free_dofs: n, bandwidth })
+    kff
 }
 
 fn mechanism_error(model: &Model, numbering: &Numbering, null_vector: &[f64]) -> StaticsError {
