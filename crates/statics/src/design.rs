@@ -1,1 +1,853 @@
-//! (in progress)
+//! The design model of a deck arch in a valley (what the user edits), its validation and
+//! the demo scenario.
+//!
+//! Units: m, kN, kN/m2 (loads and E), m2, m4, kN/m3 (unit weights). Axes x to the right,
+//! y up. A `Design` is plain data (serde, versioned); everything else (form, models,
+//! results) is derived from it.
+//!
+//! Section properties are given **per rib line** (one rib, its line of posts, one deck
+//! girder, one line of bracing, one pier line). The plane model carries the whole
+//! cross-section, so generated members use `ribs` times the area and second moment of
+//! area, and self-weights are `ribs` times unit weight times area.
+
+use crate::error::{Problem, StaticsError};
+use serde::{Deserialize, Serialize};
+
+/// The version of the design format written by this engine.
+pub const DESIGN_VERSION: u32 = 1;
+/// Fewest arch panels accepted (a rib needs at least one interior node).
+pub const MIN_PANELS: usize = 2;
+/// Most arch panels accepted (beyond this the panels are shorter than any real post
+/// spacing and the models grow without telling the user anything new).
+pub const MAX_PANELS: usize = 200;
+/// Most approach piers per side accepted.
+pub const MAX_APPROACH_PIERS: usize = 50;
+/// Rise / span below which a warning is given (common practice: deck arches run about
+/// 1/10 to 1/4, most often 1/5 to 1/7).
+pub const RISE_SPAN_LOW: f64 = 0.1;
+/// Rise / span above which a warning is given (common practice, see `RISE_SPAN_LOW`).
+pub const RISE_SPAN_HIGH: f64 = 1.0 / 3.0;
+/// Smallest form-finding tolerance accepted (fraction of the rise): below about 1e-14
+/// the change between iterations is round-off in the node levels and never settles.
+pub const MIN_FORM_TOLERANCE: f64 = 1e-14;
+/// Most form-finding iterations accepted.
+pub const MAX_FORM_ITERATIONS: usize = 10_000;
+
+/// A complete design: the valley, the deck, the arch and its members.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct Design {
+    /// Format version (`DESIGN_VERSION`).
+    pub version: u32,
+    /// Name of the crossing, shown in reports.
+    #[serde(default)]
+    pub name: String,
+    /// Ground profile across the valley: points with strictly increasing x, m.
+    pub valley: Vec<GroundPoint>,
+    /// The deck.
+    pub deck: Deck,
+    /// Level of the left springing (rib axis at the thrust block), m. Its x follows from
+    /// the left valley wall at this level.
+    pub springing_left_level: f64,
+    /// Level of the right springing, m (may differ from the left).
+    pub springing_right_level: f64,
+    /// Number of equal arch panels between the springing verticals.
+    pub panels: usize,
+    /// The crown: by rise above the springing chord or by level.
+    pub crown: Crown,
+    /// Shortest spandrel post, m: where a post would be shorter, rib and deck share the
+    /// node instead.
+    pub min_post_length: f64,
+    /// How the rib is supported and hinged.
+    pub rib_system: RibSystem,
+    /// Bracing of the spandrel panels.
+    pub bracing: Bracing,
+    /// Number of approach piers between the left abutment seat and the left end post.
+    pub approach_piers_left: usize,
+    /// Number of approach piers between the right end post and the right abutment seat.
+    pub approach_piers_right: usize,
+    /// Material and section of each member group (per rib line).
+    pub groups: MemberGroups,
+    /// Form-finding settings.
+    #[serde(default)]
+    pub form: FormSettings,
+}
+
+/// A point of the ground profile, m.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
+pub struct GroundPoint {
+    /// Horizontal position, m.
+    pub x: f64,
+    /// Ground level, m.
+    pub y: f64,
+}
+
+/// The deck: its level, seats, width and dead loads.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct Deck {
+    /// Level of the deck axis (centroid line), m.
+    pub level: f64,
+    /// x of the left abutment seat (on the valley rim), m.
+    pub left_seat_x: f64,
+    /// x of the right abutment seat, m.
+    pub right_seat_x: f64,
+    /// Width carried, m (the dead loads per m2 act over it).
+    pub width: f64,
+    /// Number of ribs side by side (the plane model carries them all together).
+    pub ribs: usize,
+    /// Deck dead load, kN/m2 (slab and everything fixed to it).
+    pub dead_load: f64,
+    /// Surfacing load, kN/m2.
+    pub surfacing: f64,
+}
+
+/// How the crown point is chosen.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
+#[serde(tag = "kind", rename_all = "snake_case")]
+pub enum Crown {
+    /// Rise f, m: vertical distance from the chord joining the springings to the rib axis
+    /// at the crown x (midway between the springings).
+    Rise {
+        /// Rise, m.
+        rise: f64,
+    },
+    /// Level of the rib axis at the crown, m.
+    Level {
+        /// Crown level, m.
+        level: f64,
+    },
+}
+
+/// Support and hinges of the rib.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum RibSystem {
+    /// Hinges at both springings and at the crown rib node.
+    ThreeHinged,
+    /// Hinges at both springings.
+    TwoHinged,
+    /// Rib fixed at both springings.
+    Fixed,
+}
+
+/// Bracing of the spandrel panels.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(tag = "kind", rename_all = "snake_case")]
+pub enum Bracing {
+    /// No bracing.
+    None,
+    /// One diagonal per panel. By default from the deck at the outer post down to the rib
+    /// at the next post towards the crown, mirror-symmetric; `flipped` turns them the
+    /// other way (rib at the outer post up to the deck at the next post).
+    Single {
+        /// Diagonals run from the rib at the outer post up to the deck.
+        #[serde(default)]
+        flipped: bool,
+    },
+    /// Both diagonals in every panel.
+    Crossed,
+}
+
+impl Bracing {
+    /// True when the spandrels are braced.
+    pub fn is_braced(self) -> bool {
+        !matches!(self, Bracing::None)
+    }
+}
+
+/// Material and section of one member group, per rib line.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
+pub struct Section {
+    /// Young's modulus, kN/m2.
+    pub e: f64,
+    /// Area, m2.
+    pub a: f64,
+    /// Second moment of area, m4 (may be 0 for pin-ended groups: posts, piers, bracing).
+    pub i: f64,
+    /// Section depth, m.
+    pub depth: f64,
+    /// Unit weight of the material, kN/m3 (0 leaves the group's self-weight out).
+    pub unit_weight: f64,
+}
+
+/// The member groups of a deck arch.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct MemberGroups {
+    /// The rib.
+    pub rib: Section,
+    /// The deck girder over the arch and the approach spans. Its self-weight adds to the
+    /// deck dead load (set its unit weight to 0 when the kN/m2 figure already holds it).
+    pub deck: Section,
+    /// Spandrel posts and end posts.
+    pub posts: Section,
+    /// Approach piers.
+    pub piers: Section,
+    /// Bracing diagonals.
+    pub bracing: Section,
+}
+
+/// Form-finding settings.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
+pub struct FormSettings {
+    /// Stop when the largest change of a rib node level between two iterations is at most
+    /// this fraction of the rise.
+    pub tolerance: f64,
+    /// Give up after this many iterations.
+    pub max_iterations: usize,
+}
+
+impl Default for FormSettings {
+    fn default() -> Self {
+        FormSettings { tolerance: 1e-10, max_iterations: 200 }
+    }
+}
+
+/// Something allowed but unusual, for the user to look at.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct Warning {
+    /// What the warning is about (a field or a part of the structure).
+    pub location: String,
+    /// What is unusual and what to consider.
+    pub message: String,
+}
+
+impl Design {
+    /// The demo scenario (invented): a road over Tarnvale Gorge, a braced three-hinged
+    /// steel deck arch with unequal springings. Numbers are our own and illustrative.
+    pub fn demo() -> Design {
+        let steel = |a: f64, i: f64, depth: f64| Section { e: 210e6, a, i, depth, unit_weight: 78.5 };
+        let valley = [
+            (-10.0, 101.0),
+            (0.0, 100.5),
+            (15.0, 92.0),
+            (30.0, 76.0),
+            (45.0, 66.0),
+            (60.0, 60.0),
+            (80.0, 57.0),
+            (100.0, 58.0),
+            (115.0, 63.0),
+            (130.0, 74.0),
+            (145.0, 88.0),
+            (158.0, 99.0),
+            (170.0, 100.5),
+            (180.0, 101.0),
+        ];
+        Design {
+            version: DESIGN_VERSION,
+            name: "Tarnvale Gorge road bridge (invented demo)".into(),
+            valley: valley.iter().map(|&(x, y)| GroundPoint { x, y }).collect(),
+            deck: Deck {
+                level: 100.0,
+                left_seat_x: 2.0,
+                right_seat_x: 166.0,
+                width: 11.0,
+                ribs: 2,
+                dead_load: 6.25,
+                surfacing: 2.4,
+            },
+            springing_left_level: 76.0,
+            springing_right_level: 80.0,
+            panels: 12,
+            crown: Crown::Level { level: 97.5 },
+            min_post_length: 1.0,
+            rib_system: RibSystem::ThreeHinged,
+            bracing: Bracing::Single { flipped: false },
+            approach_piers_left: 1,
+            approach_piers_right: 1,
+            groups: MemberGroups {
+                rib: steel(0.060, 0.0135, 1.2),
+                deck: steel(0.050, 0.0200, 1.0),
+                posts: steel(0.012, 0.0002, 0.3),
+                piers: steel(0.020, 0.0008, 0.4),
+                bracing: steel(0.006, 0.00005, 0.2),
+            },
+            form: FormSettings::default(),
+        }
+    }
+
+    /// Ground level at `x` by linear interpolation of the valley profile, m; `None`
+    /// outside the profile or when the profile is not usable.
+    pub fn ground_at(&self, x: f64) -> Option<f64> {
+        ground_at(&self.valley, x)
+    }
+
+    /// x of the springing on the left wall (`left` true) or right wall at `level`: the
+    /// crossing of the profile with that level nearest to the lowest ground point. `None`
+    /// when the wall does not pass through that level (below the floor or above the rim).
+    pub fn springing_x(&self, level: f64, left: bool) -> Option<f64> {
+        wall_crossing(&self.valley, level, left)
+    }
+
+    /// The crown rise f, m, from the crown input and the springing levels (the chord
+    /// level at the crown x is the mean of the springing levels, the crown x being
+    /// midway).
+    pub fn rise(&self) -> f64 {
+        match self.crown {
+            Crown::Rise { rise } => rise,
+            Crown::Level { level } => level - 0.5 * (self.springing_left_level + self.springing_right_level),
+        }
+    }
+
+    /// Level of the rib axis at the crown, m.
+    pub fn crown_level(&self) -> f64 {
+        match self.crown {
+            Crown::Rise { rise } => 0.5 * (self.springing_left_level + self.springing_right_level) + rise,
+            Crown::Level { level } => level,
+        }
+    }
+
+    /// Deck line load over the full width, kN/m (positive down): (dead + surfacing) times
+    /// width plus the deck girders' own weight.
+    pub fn deck_line_load(&self) -> f64 {
+        (self.deck.dead_load + self.deck.surfacing) * self.deck.width + self.weight_per_m(&self.groups.deck)
+    }
+
+    /// Self-weight per metre of a member group over all rib lines, kN/m.
+    pub fn weight_per_m(&self, s: &Section) -> f64 {
+        s.unit_weight * s.a * self.deck.ribs as f64
+    }
+}
+
+fn ground_at(valley: &[GroundPoint], x: f64) -> Option<f64> {
+    if !x.is_finite() {
+        return None;
+    }
+    for w in valley.windows(2) {
+        let (a, b) = (w[0], w[1]);
+        if a.x <= x && x <= b.x && b.x > a.x {
+            return Some(a.y + (b.y - a.y) * (x - a.x) / (b.x - a.x));
+        }
+    }
+    None
+}
+
+fn lowest_index(valley: &[GroundPoint], first: bool) -> Option<usize> {
+    let min = valley.iter().map(|p| p.y).fold(f64::INFINITY, f64::min);
+    if !min.is_finite() {
+        return None;
+    }
+    if first {
+        valley.iter().position(|p| p.y == min)
+    } else {
+        valley.iter().rposition(|p| p.y == min)
+    }
+}
+
+fn wall_crossing(valley: &[GroundPoint], level: f64, left: bool) -> Option<f64> {
+    if valley.len() < 2 || !level.is_finite() {
+        return None;
+    }
+    let k = lowest_index(valley, left)?;
+    if level < valley[k].y {
+        return None;
+    }
+    let segments: Vec<usize> = if left { (0..k).rev().collect() } else { (k..valley.len() - 1).collect() };
+    for s in segments {
+        let (a, b) = (valley[s], valley[s + 1]);
+        let (lo, hi) = (a.y.min(b.y), a.y.max(b.y));
+        if lo <= level && level <= hi && b.x > a.x {
+            if hi == lo {
+                return Some(if left { b.x } else { a.x });
+            }
+            return Some(a.x + (b.x - a.x) * (level - a.y) / (b.y - a.y));
+        }
+    }
+    None
+}
+
+/// Checks the inputs of a design that can be checked without finding the form, and
+/// collects warnings. Every problem found is pushed to `problems`.
+pub(crate) fn check_inputs(d: &Design, problems: &mut Vec<Problem>, warnings: &mut Vec<Warning>) {
+    let mut add = |loc: &str, msg: String| problems.push(Problem { location: loc.to_string(), message: msg });
+    let finite = |v: f64| v.is_finite();
+    if d.version != DESIGN_VERSION {
+        add(
+            "version",
+            format!(
+                "design format version {} is not known; this engine reads version {DESIGN_VERSION}",
+                d.version
+            ),
+        );
+    }
+    // valley
+    let mut valley_ok = true;
+    if d.valley.len() < 3 {
+        add(
+            "valley",
+            format!(
+                "the ground profile has {} point(s); give at least 3 (left rim, floor, right rim)",
+                d.valley.len()
+            ),
+        );
+        valley_ok = false;
+    }
+    for (i, p) in d.valley.iter().enumerate() {
+        if !finite(p.x) || !finite(p.y) {
+            add("valley", format!("ground point {} has a coordinate that is not a finite number (m)", i + 1));
+            valley_ok = false;
+        }
+    }
+    for (i, w) in d.valley.windows(2).enumerate() {
+        if finite(w[0].x) && finite(w[1].x) && w[1].x <= w[0].x {
+            add("valley", format!("ground point {} (x = {} m) is not to the right of point {} (x = {} m); list points with increasing x", i + 2, w[1].x, i + 1, w[0].x));
+            valley_ok = false;
+        }
+    }
+    // deck
+    let deck_level_ok = finite(d.deck.level);
+    if !deck_level_ok {
+        add("deck.level", "the deck level must be a finite number (m)".into());
+    }
+    if !finite(d.deck.left_seat_x) {
+        add("deck.left_seat_x", "the left abutment seat x must be a finite number (m)".into());
+    }
+    if !finite(d.deck.right_seat_x) {
+        add("deck.right_seat_x", "the right abutment seat x must be a finite number (m)".into());
+    }
+    if !(finite(d.deck.width) && d.deck.width > 0.0) {
+        add("deck.width", format!("the deck width {} m must be a positive number", d.deck.width));
+    }
+    if d.deck.ribs == 0 || d.deck.ribs > 100 {
+        add("deck.ribs", format!("the number of ribs {} must be between 1 and 100", d.deck.ribs));
+    }
+    if !(finite(d.deck.dead_load) && d.deck.dead_load >= 0.0) {
+        add(
+            "deck.dead_load",
+            format!("the deck dead load {} kN/m2 must be zero or positive", d.deck.dead_load),
+        );
+    }
+    if !(finite(d.deck.surfacing) && d.deck.surfacing >= 0.0) {
+        add(
+            "deck.surfacing",
+            format!("the surfacing load {} kN/m2 must be zero or positive", d.deck.surfacing),
+        );
+    }
+    // springings
+    let mut springs = [None, None];
+    for (k, (field, level, left)) in [
+        ("springing_left_level", d.springing_left_level, true),
+        ("springing_right_level", d.springing_right_level, false),
+    ]
+    .into_iter()
+    .enumerate()
+    {
+        let side = if left { "left" } else { "right" };
+        if !finite(level) {
+            add(field, format!("the {side} springing level must be a finite number (m)"));
+            continue;
+        }
+        if deck_level_ok && level >= d.deck.level {
+            add(field, format!("the {side} springing ({level} m) is at or above the deck ({} m); put it on the valley wall below the deck", d.deck.level));
+        } else if deck_level_ok && finite(d.min_post_length) && d.deck.level - level < d.min_post_length {
+            warnings.push(Warning {
+                location: field.into(),
+                message: format!(
+                    "the {side} end post is {:.3} m long, shorter than the minimum post length",
+                    d.deck.level - level
+                ),
+            });
+        }
+        if valley_ok {
+            match wall_crossing(&d.valley, level, left) {
+                Some(x) => springs[k] = Some(x),
+                None => add(field, format!("the {side} springing level {level} m does not meet the {side} valley wall (it is below the valley floor or above the {side} rim of the profile); choose a level the wall passes through")),
+            }
+        }
+    }
+    let (xa, xb) = match springs {
+        [Some(a), Some(b)] if b > a => (Some(a), Some(b)),
+        [Some(_), Some(_)] => {
+            add("springing_left_level", "the springings meet the walls at the same x or crossed over; lower the springings or check the valley profile".into());
+            (None, None)
+        }
+        _ => (None, None),
+    };
+    // seats
+    if let Some(xa) = xa {
+        if finite(d.deck.left_seat_x) && d.deck.left_seat_x >= xa {
+            add(
+                "deck.left_seat_x",
+                format!(
+                    "the left abutment seat (x = {} m) must be left of the left springing (x = {xa:.3} m)",
+                    d.deck.left_seat_x
+                ),
+            );
+        }
+    }
+    if let Some(xb) = xb {
+        if finite(d.deck.right_seat_x) && d.deck.right_seat_x <= xb {
+            add(
+                "deck.right_seat_x",
+                format!(
+                    "the right abutment seat (x = {} m) must be right of the right springing (x = {xb:.3} m)",
+                    d.deck.right_seat_x
+                ),
+            );
+        }
+    }
+    if valley_ok {
+        for (field, x, side) in [
+            ("deck.left_seat_x", d.deck.left_seat_x, "left"),
+            ("deck.right_seat_x", d.deck.right_seat_x, "right"),
+        ] {
+            if finite(x) && ground_at(&d.valley, x).is_none() {
+                add(field, format!("the {side} abutment seat (x = {x} m) lies outside the valley profile; extend the profile to the rim"));
+            }
+        }
+    }
+    // panels, crown
+    if d.panels < MIN_PANELS || d.panels > MAX_PANELS {
+        add("panels", format!("{} arch panels: use between {MIN_PANELS} and {MAX_PANELS}", d.panels));
+    }
+    let rise = d.rise();
+    match d.crown {
+        Crown::Rise { rise: f } if !finite(f) => {
+            add("crown.rise", "the rise must be a finite number (m)".into())
+        }
+        Crown::Level { level } if !finite(level) => {
+            add("crown.level", "the crown level must be a finite number (m)".into())
+        }
+        _ => {
+            let field = if matches!(d.crown, Crown::Rise { .. }) { "crown.rise" } else { "crown.level" };
+            if finite(rise) && rise <= 0.0 {
+                add(field, format!("the rise above the springing chord is {rise:.3} m; it must be positive (raise the crown or lower the springings)"));
+            }
+            let yc = d.crown_level();
+            if deck_level_ok && finite(yc) && yc > d.deck.level {
+                add(field, format!("the crown ({yc:.3} m) is above the deck ({} m); the rib axis must stay at or below the deck", d.deck.level));
+            }
+            if let (Some(xa), Some(xb)) = (xa, xb) {
+                let ratio = rise / (xb - xa);
+                if finite(ratio) && rise > 0.0 && !(RISE_SPAN_LOW..=RISE_SPAN_HIGH).contains(&ratio) {
+                    warnings.push(Warning {
+                        location: field.into(),
+                        message: format!("rise / span = 1/{:.1} is outside the usual 1/10 to 1/3 (common practice); thrust grows as the rise falls", 1.0 / ratio),
+                    });
+                }
+            }
+        }
+    }
+    if !(finite(d.min_post_length) && d.min_post_length >= 0.0) {
+        add(
+            "min_post_length",
+            format!("the minimum post length {} m must be zero or positive", d.min_post_length),
+        );
+    }
+    for (field, n) in
+        [("approach_piers_left", d.approach_piers_left), ("approach_piers_right", d.approach_piers_right)]
+    {
+        if n > MAX_APPROACH_PIERS {
+            add(field, format!("{n} approach piers: use at most {MAX_APPROACH_PIERS}"));
+        }
+    }
+    // approach piers on the ground, below the deck
+    if valley_ok && deck_level_ok {
+        for (left, seat, xs, n) in [
+            (true, d.deck.left_seat_x, xa, d.approach_piers_left),
+            (false, d.deck.right_seat_x, xb, d.approach_piers_right),
+        ] {
+            let (Some(xs), true) = (xs, finite(seat)) else { continue };
+            if n > MAX_APPROACH_PIERS || (left && seat >= xs) || (!left && seat <= xs) {
+                continue;
+            }
+            let side = if left { "left" } else { "right" };
+            for k in 1..=n {
+                let x = seat + (xs - seat) * k as f64 / (n + 1) as f64;
+                match ground_at(&d.valley, x) {
+                    None => add(if left { "approach_piers_left" } else { "approach_piers_right" }, format!("{side} approach pier {k} at x = {x:.3} m lies outside the valley profile")),
+                    Some(g) if g >= d.deck.level => add(if left { "approach_piers_left" } else { "approach_piers_right" }, format!("{side} approach pier {k} at x = {x:.3} m has no height: the ground ({g:.3} m) is at or above the deck; use fewer piers or move the seat")),
+                    _ => {}
+                }
+            }
+        }
+    }
+    // member groups
+    for (name, s, needs_i) in [
+        ("groups.rib", &d.groups.rib, true),
+        ("groups.deck", &d.groups.deck, true),
+        ("groups.posts", &d.groups.posts, false),
+        ("groups.piers", &d.groups.piers, false),
+        ("groups.bracing", &d.groups.bracing, false),
+    ] {
+        if !(finite(s.e) && s.e > 0.0) {
+            add(name, format!("Young's modulus E = {} kN/m2 must be a positive number", s.e));
+        }
+        if !(finite(s.a) && s.a > 0.0) {
+            add(name, format!("area A = {} m2 must be a positive number", s.a));
+        }
+        if needs_i && !(finite(s.i) && s.i > 0.0) {
+            add(
+                name,
+                format!("second moment of area I = {} m4 must be positive (this group carries bending)", s.i),
+            );
+        } else if !(needs_i || finite(s.i) && s.i >= 0.0) {
+            add(name, format!("second moment of area I = {} m4 must be zero or positive", s.i));
+        }
+        if !(finite(s.depth) && s.depth > 0.0) {
+            add(name, format!("section depth {} m must be a positive number", s.depth));
+        }
+        if !(finite(s.unit_weight) && s.unit_weight >= 0.0) {
+            add(name, format!("unit weight {} kN/m3 must be zero or positive", s.unit_weight));
+        }
+    }
+    if !(finite(d.form.tolerance) && d.form.tolerance >= MIN_FORM_TOLERANCE && d.form.tolerance < 1.0) {
+        add("form.tolerance", format!("the form-finding tolerance {} (fraction of the rise) must lie between {MIN_FORM_TOLERANCE:e} and 1", d.form.tolerance));
+    }
+    if d.form.max_iterations == 0 || d.form.max_iterations > MAX_FORM_ITERATIONS {
+        add(
+            "form.max_iterations",
+            format!("{} iterations: use between 1 and {MAX_FORM_ITERATIONS}", d.form.max_iterations),
+        );
+    }
+}
+
+/// Validates a design and lists every problem at once.
+///
+/// First the inputs are checked (numbers finite, springings below the deck and on the
+/// valley walls, rise > 0, crown not above the deck, 2 to 200 panels, seats outside the
+/// springings, sections positive, ...). When they pass, the form is found and the rib is
+/// checked against the ground (no rib node or segment, hence no post foot, below the
+/// ground) and the deck (no rib node above it).
+///
+/// Returns the warnings (allowed but unusual, e.g. rise / span outside 1/10 to 1/3,
+/// common practice) or `StaticsError::Invalid` with every problem found. Never panics.
+pub fn validate_design(design: &Design) -> Result<Vec<Warning>, StaticsError> {
+    crate::form::checked_form(design).map(|(w, _)| w)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use proptest::prelude::*;
+
+    fn problems(d: &Design) -> Vec<Problem> {
+        match validate_design(d) {
+            Err(StaticsError::Invalid(p)) => p,
+            other => panic!("expected problems, got {other:?}"),
+        }
+    }
+
+    fn has(p: &[Problem], location: &str, words: &str) -> bool {
+        p.iter().any(|q| q.location.starts_with(location) && q.message.contains(words))
+    }
+
+    #[test]
+    fn demo_is_valid_and_round_trips() {
+        let d = Design::demo();
+        assert_eq!(validate_design(&d), Ok(vec![]));
+        let json = serde_json::to_string(&d).expect("serialises");
+        let back: Design = serde_json::from_str(&json).expect("reads back");
+        assert_eq!(back, d);
+        assert_eq!(d.version, DESIGN_VERSION);
+        // unequal springings: x follows from the walls (demo profile, linear between
+        // (15, 92)-(30, 76) and (130, 74)-(145, 88))
+        assert_eq!(d.springing_x(76.0, true), Some(30.0));
+        let xb = d.springing_x(80.0, false).expect("right wall");
+        assert!((xb - (130.0 + 15.0 * 6.0 / 14.0)).abs() < 1e-12);
+    }
+
+    #[test]
+    fn validation_names_each_kind_of_problem() {
+        let mut d = Design::demo();
+        d.springing_left_level = 100.2; // above the deck at 100
+        assert!(has(&problems(&d), "springing_left_level", "above the deck"));
+        let mut d = Design::demo();
+        d.springing_right_level = 120.0; // the right wall ends at 101
+        assert!(has(&problems(&d), "springing_right_level", "does not meet the right valley wall"));
+        let mut d = Design::demo();
+        d.crown = Crown::Level { level: 70.0 }; // below the springing chord (78 m)
+        assert!(has(&problems(&d), "crown.level", "must be positive"));
+        let mut d = Design::demo();
+        d.crown = Crown::Rise { rise: 0.0 };
+        assert!(has(&problems(&d), "crown.rise", "must be positive"));
+        let mut d = Design::demo();
+        d.crown = Crown::Level { level: 101.0 };
+        assert!(has(&problems(&d), "crown.level", "above the deck"));
+        for n in [0, 1, 201] {
+            let mut d = Design::demo();
+            d.panels = n;
+            assert!(has(&problems(&d), "panels", "between 2 and 200"));
+        }
+        let mut d = Design::demo();
+        d.deck.width = f64::NAN;
+        assert!(has(&problems(&d), "deck.width", "positive number"));
+        let mut d = Design::demo();
+        d.deck.left_seat_x = 31.0; // right of the left springing (x = 30)
+        assert!(has(&problems(&d), "deck.left_seat_x", "left of the left springing"));
+    }
+
+    #[test]
+    fn rib_below_the_ground_is_reported() {
+        // a rock on the valley floor under the crown, above the rib axis
+        let mut d = Design::demo();
+        d.valley.retain(|p| !(p.x > 55.0 && p.x < 105.0));
+        let at = d.valley.iter().position(|p| p.x > 100.0).expect("right wall");
+        d.valley.splice(
+            at..at,
+            [
+                GroundPoint { x: 60.0, y: 57.0 },
+                GroundPoint { x: 80.0, y: 99.0 },
+                GroundPoint { x: 100.0, y: 57.0 },
+            ],
+        );
+        let p = problems(&d);
+        assert!(p.iter().any(|q| q.message.contains("below the ground")), "{p:?}");
+    }
+
+    #[test]
+    fn flat_arch_gives_a_warning_not_an_error() {
+        // rise / span 8 / 106.4 < 1/10: common practice says unusual, not wrong
+        let mut d = Design::demo();
+        d.crown = Crown::Level { level: 86.0 };
+        let w = validate_design(&d).expect("allowed");
+        assert!(w.iter().any(|w| w.message.contains("rise / span")), "{w:?}");
+    }
+
+    /// Independent defects, each with the location that must name it.
+    fn defect(d: &mut Design, k: usize) -> &'static str {
+        match k {
+            0 => {
+                d.deck.width = -1.0;
+                "deck.width"
+            }
+            1 => {
+                d.panels = 1;
+                "panels"
+            }
+            2 => {
+                d.groups.rib.e = f64::NAN;
+                "groups.rib"
+            }
+            3 => {
+                d.deck.surfacing = -2.0;
+                "deck.surfacing"
+            }
+            4 => {
+                d.min_post_length = f64::INFINITY;
+                "min_post_length"
+            }
+            5 => {
+                d.form.max_iterations = 0;
+                "form.max_iterations"
+            }
+            6 => {
+                d.groups.bracing.unit_weight = -1.0;
+                "groups.bracing"
+            }
+            7 => {
+                d.deck.ribs = 0;
+                "deck.ribs"
+            }
+            8 => {
+                d.version = 99;
+                "version"
+            }
+            9 => {
+                d.springing_left_level = 200.0;
+                "springing_left_level"
+            }
+            10 => {
+                d.crown = Crown::Rise { rise: -3.0 };
+                "crown.rise"
+            }
+            11 => {
+                d.deck.dead_load = f64::NAN;
+                "deck.dead_load"
+            }
+            12 => {
+                d.groups.posts.a = 0.0;
+                "groups.posts"
+            }
+            _ => {
+                d.form.tolerance = 0.0;
+                "form.tolerance"
+            }
+        }
+    }
+
+    fn wild() -> impl Strategy<Value = f64> {
+        prop_oneof![
+            Just(f64::NAN),
+            Just(f64::INFINITY),
+            Just(f64::NEG_INFINITY),
+            Just(0.0),
+            Just(-1.0),
+            -1e3f64..1e3,
+            -1e12f64..1e12,
+        ]
+    }
+
+    proptest! {
+        /// Every injected defect is listed, whatever else is wrong at the same time.
+        #[test]
+        fn validation_lists_every_problem(mask in 1u32..(1 << 14)) {
+            let mut d = Design::demo();
+            let mut expected = Vec::new();
+            for k in 0..14 {
+                if mask & (1 << k) != 0 {
+                    expected.push(defect(&mut d, k));
+                }
+            }
+            let p = problems(&d);
+            for loc in expected {
+                prop_assert!(p.iter().any(|q| q.location == loc), "{loc} missing from {p:?}");
+            }
+        }
+
+        /// Validation and analysis never panic, whatever the numbers.
+        #[test]
+        fn validation_never_panics(
+            valley in proptest::collection::vec((wild(), wild()), 0..7),
+            levels in (wild(), wild(), wild(), wild()),
+            seats in (wild(), wild()),
+            sec in (wild(), wild(), wild(), wild(), wild()),
+            loads in (wild(), wild(), wild()),
+            panels in 0usize..300,
+            crown_by_rise in proptest::bool::ANY,
+            tol in wild(),
+            piers in (0usize..60, 0usize..60),
+        ) {
+            let mut d = Design::demo();
+            d.valley = valley.into_iter().map(|(x, y)| GroundPoint { x, y }).collect();
+            d.springing_left_level = levels.0;
+            d.springing_right_level = levels.1;
+            d.deck.level = levels.2;
+            d.crown = if crown_by_rise { Crown::Rise { rise: levels.3 } } else { Crown::Level { level: levels.3 } };
+            d.deck.left_seat_x = seats.0;
+            d.deck.right_seat_x = seats.1;
+            d.groups.rib = Section { e: sec.0, a: sec.1, i: sec.2, depth: sec.3, unit_weight: sec.4 };
+            d.deck.dead_load = loads.0;
+            d.deck.width = loads.1;
+            d.min_post_length = loads.2;
+            d.panels = panels;
+            d.form.tolerance = tol;
+            d.approach_piers_left = piers.0;
+            d.approach_piers_right = piers.1;
+            let v = validate_design(&d);
+            if let Err(StaticsError::Invalid(p)) = &v {
+                prop_assert!(!p.is_empty());
+            }
+            let _ = crate::analysis::analyze(&d);
+        }
+
+    }
+
+    proptest! {
+        #![proptest_config(ProptestConfig { cases: 24, .. ProptestConfig::default() })]
+        /// Small perturbations of the demo stay analysable or give listed problems.
+        #[test]
+        fn near_demo_designs_never_panic(
+            dl in 60.0f64..99.0, dr in 60.0f64..99.0, crown in 60.0f64..101.0, panels in 2usize..30,
+        ) {
+            let mut d = Design::demo();
+            d.springing_left_level = dl;
+            d.springing_right_level = dr;
+            d.crown = Crown::Level { level: crown };
+            d.panels = panels;
+            match crate::analysis::analyze(&d) {
+                Ok(a) => prop_assert!(a.frame.solution.cases[0].equilibrium.relative < 1e-9),
+                Err(StaticsError::Invalid(p)) => prop_assert!(!p.is_empty()),
+                Err(e) => prop_assert!(false, "unexpected error {e}"),
+            }
+        }
+    }
+}

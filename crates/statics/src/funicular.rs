@@ -1,1 +1,321 @@
-//! (in progress)
+//! Funicular polygons for vertical loads: the three-point construction and the graphic
+//! pole construction (load line, pole, rays, funicular polygon).
+//!
+//! Following the classical graphic statics of any structural analysis text (e.g.
+//! Timoshenko & Young, Theory of Structures, ch. on arches and cables; from memory):
+//! for vertical loads P_i at x_i between supports A = (x_A, y_A) and B = (x_B, y_B), let
+//! M(x) be the sagging moment of a simply supported beam A-B under the same loads and
+//! c(x) the chord A-B. For a horizontal thrust H > 0 the compression-only shape is
+//!
+//! ```text
+//!     y(x) = c(x) + M(x) / H,
+//! ```
+//!
+//! and requiring the rise f above the chord at x_C fixes H = M(x_C) / f.
+//!
+//! Units: x, y in m; loads P in kN, **positive downward** (the sense in which a load line
+//! is drawn); H in kN (compression thrust of an arch, positive); moments kNm. Reactions
+//! returned here are the forces the supports apply to the arch, y up.
+
+use crate::error::StaticsError;
+use serde::{Deserialize, Serialize};
+
+/// Loads closer than this fraction of the span to a support are still "inside" (round-off
+/// in computed panel positions must not reject a load on the support vertical).
+pub const SPAN_TOLERANCE: f64 = 1e-12;
+
+/// A vertical point load: position x (m) and magnitude p (kN, positive downward).
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
+pub struct VerticalLoad {
+    /// Horizontal position, m.
+    pub x: f64,
+    /// Load, kN, positive downward.
+    pub p: f64,
+}
+
+/// A point (x, y) in m.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
+pub struct Point {
+    /// Horizontal position, m.
+    pub x: f64,
+    /// Vertical position, m.
+    pub y: f64,
+}
+
+/// Result of the three-point funicular construction.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct ThreePointFunicular {
+    /// Horizontal thrust H, kN (> 0: the arch is in compression).
+    pub thrust: f64,
+    /// Vertical reaction at A on the arch, kN, up positive.
+    pub reaction_a: f64,
+    /// Vertical reaction at B on the arch, kN, up positive.
+    pub reaction_b: f64,
+    /// Simple-beam reactions (R_A, R_B) of the same loads, kN, up positive.
+    pub beam_reactions: (f64, f64),
+    /// Level of the funicular under each load, m (in the order of the loads given).
+    pub y: Vec<f64>,
+}
+
+fn invalid(location: &str, message: String) -> StaticsError {
+    StaticsError::invalid(location, message)
+}
+
+fn check_span(a: Point, b: Point) -> Result<f64, StaticsError> {
+    if !(a.x.is_finite() && a.y.is_finite() && b.x.is_finite() && b.y.is_finite()) {
+        return Err(invalid("supports", "support coordinates must be finite numbers (m)".into()));
+    }
+    let l = b.x - a.x;
+    if l.is_nan() || l <= 0.0 {
+        return Err(invalid(
+            "supports",
+            format!("support B (x = {} m) must be to the right of A (x = {} m)", b.x, a.x),
+        ));
+    }
+    Ok(l)
+}
+
+fn check_loads(a: Point, l: f64, loads: &[VerticalLoad]) -> Result<(), StaticsError> {
+    for (k, q) in loads.iter().enumerate() {
+        if !(q.x.is_finite() && q.p.is_finite()) {
+            return Err(invalid("loads", format!("load {} is not a finite number", k + 1)));
+        }
+        let t = (q.x - a.x) / l;
+        if !(-SPAN_TOLERANCE..=1.0 + SPAN_TOLERANCE).contains(&t) {
+            return Err(invalid("loads", format!("load {} at x = {} m lies outside the span", k + 1, q.x)));
+        }
+    }
+    Ok(())
+}
+
+/// Sagging bending moment (kNm) at `x` of a beam simply supported at `xa` and `xb` under
+/// vertical loads (kN, positive down): M(x) = R_A (x - x_A) - sum over loads left of x of
+/// P_i (x - x_i). Linear between loads, zero at both supports. Returns 0 outside the span
+/// and for a zero-length span. (Any statics text.)
+pub fn simple_beam_moment(xa: f64, xb: f64, loads: &[VerticalLoad], x: f64) -> f64 {
+    let l = xb - xa;
+    if l.is_nan() || l <= 0.0 || x <= xa || x >= xb {
+        return 0.0;
+    }
+    // M(x) = sum_i P_i * influence(x, x_i), influence of a unit load at x_i on M at x
+    let mut m = 0.0;
+    for q in loads {
+        let xi = q.x.clamp(xa, xb);
+        m += q.p * if xi <= x { (xi - xa) * (xb - x) / l } else { (x - xa) * (xb - xi) / l };
+    }
+    m
+}
+
+/// Simple-beam reactions (R_A, R_B), kN up, of vertical loads (kN down) on a beam from
+/// `xa` to `xb`; (0, 0) for a zero-length span.
+pub fn simple_beam_reactions(xa: f64, xb: f64, loads: &[VerticalLoad]) -> (f64, f64) {
+    let l = xb - xa;
+    if l.is_nan() || l <= 0.0 {
+        return (0.0, 0.0);
+    }
+    let total: f64 = loads.iter().map(|q| q.p).sum();
+    let rb: f64 = loads.iter().map(|q| q.p * (q.x - xa) / l).sum();
+    (total - rb, rb)
+}
+
+/// The funicular through A, B and the crown point at `crown_x`, `rise` above the chord,
+/// for vertical loads: y_i = c(x_i) + M(x_i) / H with H = M(x_C) / f.
+///
+/// Reactions on the arch: V_A = R_A + H (y_B - y_A) / L and V_B = R_B - H (y_B - y_A) / L
+/// (moments about the other support), so the two splits of the load line differ by
+/// H (y_B - y_A) / L. Loads on a support vertical go straight into that support.
+///
+/// Errors (never NaN): non-finite input, B not right of A, a load outside the span, crown
+/// not strictly between the supports, rise not positive, or M(x_C) <= 0 (the loads do not
+/// press the crown down: no compression funicular through the three points exists, e.g.
+/// no load at all).
+pub fn three_point(
+    a: Point,
+    b: Point,
+    crown_x: f64,
+    rise: f64,
+    loads: &[VerticalLoad],
+) -> Result<ThreePointFunicular, StaticsError> {
+    let l = check_span(a, b)?;
+    check_loads(a, l, loads)?;
+    if !(crown_x.is_finite() && crown_x > a.x && crown_x < b.x) {
+        return Err(invalid(
+            "crown",
+            format!("crown x = {crown_x} m must lie strictly between the supports"),
+        ));
+    }
+    if !(rise.is_finite() && rise > 0.0) {
+        return Err(invalid("crown", format!("rise {rise} m must be a positive number")));
+    }
+    let mc = simple_beam_moment(a.x, b.x, loads, crown_x);
+    let scale: f64 = loads.iter().map(|q| q.p.abs()).sum::<f64>() * l;
+    if mc.is_nan() || mc <= scale * f64::EPSILON {
+        return Err(invalid(
+            "loads",
+            format!("the loads give a crown moment of {mc:.3e} kNm; a compression funicular needs loads that press the crown down"),
+        ));
+    }
+    let h = mc / rise;
+    let chord = |x: f64| a.y + (b.y - a.y) * (x - a.x) / l;
+    let y = loads.iter().map(|q| chord(q.x) + simple_beam_moment(a.x, b.x, loads, q.x) / h).collect();
+    let (ra, rb) = simple_beam_reactions(a.x, b.x, loads);
+    let shift = h * (b.y - a.y) / l;
+    Ok(ThreePointFunicular {
+        thrust: h,
+        reaction_a: ra + shift,
+        reaction_b: rb - shift,
+        beam_reactions: (ra, rb),
+        y,
+    })
+}
+
+/// The graphic construction for a given pole.
+///
+/// Force-diagram coordinates (kN): the load line is vertical at force-x 0, starting at
+/// force-y 0 and running down by each load in turn (left to right): point k is at
+/// -(P_1 + ... + P_k). The pole sits at (-H, -V_A): H to the left of the load line (for an
+/// arch in compression; a hanging cable would have it on the right), and V_A below its
+/// top, so the horizontal through the pole splits the load line into V_A (above) and
+/// V_B (below).
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct PoleConstruction {
+    /// Load-line points, force units kN: (0, 0), (0, -P_1), ... (n + 1 points).
+    pub load_line: Vec<Point>,
+    /// The pole, kN.
+    pub pole: Point,
+    /// Rays from the pole to each load-line point (pole, point), kN. Ray k is parallel to
+    /// polygon segment k (between load k and k + 1, segment 0 from A to load 1).
+    pub rays: Vec<(Point, Point)>,
+    /// The funicular polygon, m: the start point, a vertex on each load's vertical, and
+    /// the end point on the vertical x = `end_x`.
+    pub polygon: Vec<Point>,
+    /// Load-line level (kN) cut by the horizontal through the pole: V_A above, V_B below.
+    pub horizontal_split: f64,
+    /// Load-line level (kN) cut by the ray parallel to the closing string (start to end
+    /// of the polygon): it splits the load into the simple-beam reactions of a beam
+    /// between those two points.
+    pub closing_split: f64,
+}
+
+/// Draws the funicular polygon for the pole (thrust `h` kN > 0, vertical split `v_a` kN)
+/// starting at `start` (m) and ending on the vertical `end_x`: segment k has slope
+/// (V_A - P_1 - ... - P_k) / H.
+///
+/// The loads must lie between `start.x` and `end_x` (sorted or not: they are taken left
+/// to right). Errors: non-finite input, H <= 0 (the pole on the load line gives vertical
+/// strings), `end_x` not right of `start.x`, a load outside. Zero loads give a straight
+/// polygon with slope V_A / H.
+pub fn pole_construction(
+    loads: &[VerticalLoad],
+    h: f64,
+    v_a: f64,
+    start: Point,
+    end_x: f64,
+) -> Result<PoleConstruction, StaticsError> {
+    let end = Point { x: end_x, y: start.y };
+    let l = check_span(start, end)?;
+    check_loads(start, l, loads)?;
+    if !(h.is_finite() && h > 0.0) {
+        return Err(invalid("pole", format!("pole distance H = {h} kN must be positive and finite")));
+    }
+    if !v_a.is_finite() {
+        return Err(invalid("pole", "pole height must be finite".into()));
+    }
+    let mut sorted: Vec<VerticalLoad> = loads.to_vec();
+    sorted.sort_by(|p, q| p.x.total_cmp(&q.x));
+    let mut load_line = vec![Point { x: 0.0, y: 0.0 }];
+    let mut acc = 0.0;
+    for q in &sorted {
+        acc -= q.p;
+        load_line.push(Point { x: 0.0, y: acc });
+    }
+    let pole = Point { x: -h, y: -v_a };
+    let rays = load_line.iter().map(|&p| (pole, p)).collect();
+    let mut polygon = vec![start];
+    let (mut x, mut y, mut shear) = (start.x, start.y, v_a);
+    for q in &sorted {
+        y += shear / h * (q.x - x);
+        x = q.x;
+        polygon.push(Point { x, y });
+        shear -= q.p;
+    }
+    y += shear / h * (end_x - x);
+    polygon.push(Point { x: end_x, y });
+    // the ray parallel to the closing string: slope s = (y_end - y_start) / L from the
+    // pole meets the load line at -v_a + s * h
+    let slope = (y - start.y) / l;
+    let closing_split = -v_a + slope * h;
+    Ok(PoleConstruction { load_line, pole, rays, polygon, horizontal_split: -v_a, closing_split })
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn pt(x: f64, y: f64) -> Point {
+        Point { x, y }
+    }
+
+    #[test]
+    fn simple_beam_moment_matches_point_load_formula() {
+        // M under a point load P at a on span L: P a b / L (any statics text).
+        let loads = [VerticalLoad { x: 3.0, p: 10.0 }];
+        assert!((simple_beam_moment(0.0, 10.0, &loads, 3.0) - 10.0 * 3.0 * 7.0 / 10.0).abs() < 1e-12);
+        assert!((simple_beam_moment(0.0, 10.0, &loads, 8.0) - 10.0 * 3.0 * 2.0 / 10.0).abs() < 1e-12);
+        assert_eq!(simple_beam_moment(0.0, 10.0, &loads, 0.0), 0.0);
+    }
+
+    #[test]
+    fn three_point_equal_loads_lie_on_parabola() {
+        // Equal loads at equal spacing: vertices on the parabola through A, C, B
+        // (uniform load per horizontal metre gives a parabola; any statics text).
+        let (a, b) = (pt(0.0, 0.0), pt(40.0, 6.0));
+        let n = 8;
+        let loads: Vec<_> = (1..n).map(|i| VerticalLoad { x: 5.0 * i as f64, p: 100.0 }).collect();
+        let f = 10.0;
+        let r = three_point(a, b, 20.0, f, &loads).expect("valid");
+        for (q, y) in loads.iter().zip(&r.y) {
+            let para = 6.0 * q.x / 40.0 + 4.0 * f * q.x * (40.0 - q.x) / 1600.0;
+            assert!((y - para).abs() < 1e-12, "{y} vs {para}");
+        }
+        // H = w L^2 / (8 f) with w = 100 / 5 kN/m (parabolic arch, REFERENCES.md)
+        assert!((r.thrust - 20.0 * 1600.0 / 80.0).abs() < 1e-9);
+        // V_A - V_B = 2 H (yB - yA) / L with equal simple-beam reactions
+        assert!((r.reaction_a - r.reaction_b - 2.0 * r.thrust * 6.0 / 40.0).abs() < 1e-9);
+    }
+
+    #[test]
+    fn three_point_rejects_degenerate_input() {
+        let (a, b) = (pt(0.0, 0.0), pt(10.0, 0.0));
+        assert!(three_point(a, b, 5.0, 2.0, &[]).is_err());
+        assert!(three_point(a, b, 5.0, 0.0, &[VerticalLoad { x: 5.0, p: 1.0 }]).is_err());
+        assert!(three_point(a, b, 5.0, 2.0, &[VerticalLoad { x: 11.0, p: 1.0 }]).is_err());
+        assert!(three_point(b, a, 5.0, 2.0, &[VerticalLoad { x: 5.0, p: 1.0 }]).is_err());
+        assert!(three_point(a, b, 5.0, f64::NAN, &[VerticalLoad { x: 5.0, p: 1.0 }]).is_err());
+        assert!(three_point(a, b, 5.0, 1.0, &[VerticalLoad { x: 5.0, p: -1.0 }]).is_err());
+    }
+
+    #[test]
+    fn pole_construction_reproduces_three_point_polygon() {
+        // With the pole at (-H, -V_A) of the three-point solution the polygon passes
+        // through B, and the two splits differ by H (yB - yA) / L (DESIGN.md, funicular).
+        let (a, b) = (pt(0.0, 2.0), pt(30.0, 5.0));
+        let loads = [
+            VerticalLoad { x: 7.0, p: 40.0 },
+            VerticalLoad { x: 15.0, p: 25.0 },
+            VerticalLoad { x: 22.0, p: 60.0 },
+        ];
+        let r = three_point(a, b, 15.0, 6.0, &loads).expect("valid");
+        let c = pole_construction(&loads, r.thrust, r.reaction_a, a, b.x).expect("valid");
+        let end = c.polygon.last().copied().expect("end");
+        assert!((end.y - b.y).abs() < 1e-12);
+        for (v, y) in c.polygon[1..4].iter().zip(&r.y) {
+            assert!((v.y - y).abs() < 1e-12);
+        }
+        // closing split = -R_A (simple-beam reaction measured down the load line)
+        assert!((c.closing_split + r.beam_reactions.0).abs() < 1e-9);
+        assert!((c.closing_split - c.horizontal_split - r.thrust * 3.0 / 30.0).abs() < 1e-9);
+        assert_eq!(c.rays.len(), 4);
+        assert!((c.load_line[3].y + 125.0).abs() < 1e-12);
+    }
+}

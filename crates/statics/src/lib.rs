@@ -28,3 +28,12 @@ pub mod analysis;
 pub mod design;
 pub mod funicular;
 pub mod generate;
+
+// Form finding and the default layout (issue 3), added at the end.
+pub mod form;
+pub mod layout;
+
+pub use analysis::{analyze, Analysis};
+pub use design::{validate_design, Design, Warning};
+pub use form::{find_form, Form, LoadBasis, PanelLoads};
+pub use generate::{bare_rib_model, frame_model, truss_model};

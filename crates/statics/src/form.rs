@@ -1,0 +1,399 @@
+//! Form finding: the compression funicular of the dead load through both springings and
+//! the crown point, iterated with the self-weight that depends on the shape.
+//!
+//! Loop (DESIGN.md, "Funicular form"): start from the parabola through the three points;
+//! gather the loads at the rib nodes for the current shape (`LoadBasis`); take the
+//! three-point funicular of those loads (`funicular::three_point`); repeat until the
+//! largest change of a rib node level is at most `tolerance` times the rise. The load
+//! gathering is a trait so that a later "as built" basis (the forces the rib receives in
+//! the frame model) can replace the classical "panel loads" basis without touching the
+//! loop.
+//!
+//! Units m, kN (loads positive downward inside this module, as on a load line).
+
+use crate::design::{check_inputs, Design, Warning};
+use crate::error::{Problem, StaticsError};
+use crate::funicular::{three_point, Point, VerticalLoad};
+use crate::layout::{position, Frame, Joint, Topology};
+use serde::{Deserialize, Serialize};
+
+/// Vertical clearance (m) by which a rib may dip into the ground before it is reported:
+/// the springings sit exactly on the ground, so only round-off is forgiven.
+pub const GROUND_TOLERANCE: f64 = 1e-6;
+
+/// Loads at the rib nodes for a given rib shape: the step of form finding that a later
+/// "as built" basis replaces.
+pub trait LoadBasis {
+    /// Short name of the basis, shown with every result ("panel loads", ...).
+    fn name(&self) -> &'static str;
+    /// Loads (kN, positive down) at every rib node (springings included: they go straight
+    /// into the supports) for rib levels `rib_y` and topology `topo`.
+    fn gather(&self, frame: &Frame, topo: &Topology, rib_y: &[f64]) -> Vec<f64>;
+}
+
+/// The classical "panel loads" basis: tributary deck loads as simple-span panel
+/// reactions (drop-in and the last approach spans as their reactions) plus the
+/// self-weight of rib (by segment length), posts (by height) and bracing (by length),
+/// the deck load per horizontal metre,
+/// lumped half to each end of a member, every deck node carried down its post.
+#[derive(Debug, Clone, PartialEq)]
+pub struct PanelLoads {
+    /// Deck line load, kN/m.
+    pub deck: f64,
+    /// Rib self-weight, kN/m of rib.
+    pub rib: f64,
+    /// Post self-weight, kN/m of post.
+    pub post: f64,
+    /// Bracing self-weight, kN/m of diagonal.
+    pub bracing: f64,
+}
+
+impl PanelLoads {
+    /// The panel-load basis of a design.
+    pub fn of(d: &Design) -> PanelLoads {
+        PanelLoads {
+            deck: d.deck_line_load(),
+            rib: d.weight_per_m(&d.groups.rib),
+            post: d.weight_per_m(&d.groups.posts),
+            bracing: d.weight_per_m(&d.groups.bracing),
+        }
+    }
+
+    /// Loads at each joint without carrying deck loads down the posts: (joint, kN down).
+    /// Deck joints get the panel reactions and half of each post and diagonal; rib joints
+    /// get half of each rib segment, post and diagonal. This is the truss idealisation's
+    /// load; summed per rib node it is the form-finding load.
+    pub fn joint_loads(&self, f: &Frame, topo: &Topology, rib_y: &[f64]) -> Vec<(Joint, f64)> {
+        let mut out: Vec<(Joint, f64)> = Vec::new();
+        let mut add = |j: Joint, p: f64| {
+            if let Some(e) = out.iter_mut().find(|e| e.0 == j) {
+                e.1 += p;
+            } else {
+                out.push((j, p));
+            }
+        };
+        let len = |p: (f64, f64), q: (f64, f64)| (q.0 - p.0).hypot(q.1 - p.1);
+        // deck: simple-span reactions of every span over the arch and the two last
+        // approach spans (the other approach reactions go to piers and seats)
+        // (per horizontal metre: a deck member kinked down to a shared rib node carries
+        // the same road length)
+        for &(j, k) in topo.deck.iter().chain(topo.drop_in.iter()) {
+            let l = (position(f, rib_y, k).0 - position(f, rib_y, j).0).abs();
+            add(j, 0.5 * self.deck * l);
+            add(k, 0.5 * self.deck * l);
+        }
+        let left_last = f.piers_left.last().map(|p| p.0).unwrap_or(f.seats.0);
+        let right_first = f.piers_right.first().map(|p| p.0).unwrap_or(f.seats.1);
+        add(Joint::Deck(0), 0.5 * self.deck * (f.a.0 - left_last));
+        add(Joint::Deck(f.panels), 0.5 * self.deck * (right_first - f.b.0));
+        // rib segments
+        for r in 0..f.last_rib() {
+            let w = self.rib * len((f.rib_x[r], rib_y[r]), (f.rib_x[r + 1], rib_y[r + 1]));
+            add(Joint::Rib(r), 0.5 * w);
+            add(Joint::Rib(r + 1), 0.5 * w);
+        }
+        // posts (deck to rib, vertical)
+        for &(i, r) in &topo.posts {
+            let w = self.post * (f.deck_level - rib_y[r]).max(0.0);
+            add(Joint::Deck(i), 0.5 * w);
+            add(Joint::Rib(r), 0.5 * w);
+        }
+        for &(j, k) in &topo.diagonals {
+            let w = self.bracing * len(position(f, rib_y, j), position(f, rib_y, k));
+            add(j, 0.5 * w);
+            add(k, 0.5 * w);
+        }
+        out
+    }
+}
+
+impl LoadBasis for PanelLoads {
+    fn name(&self) -> &'static str {
+        "panel loads"
+    }
+    fn gather(&self, f: &Frame, topo: &Topology, rib_y: &[f64]) -> Vec<f64> {
+        let mut p = vec![0.0; f.rib_x.len()];
+        for (j, w) in self.joint_loads(f, topo, rib_y) {
+            p[topo.rib_of(f, j)] += w;
+        }
+        p
+    }
+}
+
+/// A rib node of the found form.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct RibNode {
+    /// Horizontal position, m.
+    pub x: f64,
+    /// Level of the rib axis, m.
+    pub y: f64,
+    /// Form-finding load at the node, kN, positive downward.
+    pub load: f64,
+    /// Panel point above (`None` for the crown node of an odd panel count).
+    pub panel: Option<usize>,
+    /// Rib and deck share this node (the post would be shorter than the minimum).
+    pub shared_with_deck: bool,
+    /// Length of the post standing on this node, m (`None` where there is no post).
+    pub post_length: Option<f64>,
+}
+
+/// A support reaction on the arch, kN (x right, y up).
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
+pub struct ArchReaction {
+    /// Horizontal component, kN (+H at the left springing, -H at the right).
+    pub fx: f64,
+    /// Vertical component, kN, up, including the loads delivered right on the springing
+    /// (end post, approach span).
+    pub fy: f64,
+}
+
+/// The found form and how it was found.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct Form {
+    /// The load basis ("panel loads").
+    pub basis: String,
+    /// Left springing, m.
+    pub springing_left: Point,
+    /// Right springing, m.
+    pub springing_right: Point,
+    /// Crown point (rib axis at the crown x), m.
+    pub crown: Point,
+    /// Span between the springings, m.
+    pub span: f64,
+    /// Rise above the springing chord at the crown, m.
+    pub rise: f64,
+    /// Rib nodes from the left springing to the right one.
+    pub rib: Vec<RibNode>,
+    /// Index of the crown node in `rib`.
+    pub crown_node: usize,
+    /// Horizontal thrust H, kN (the rib is in compression).
+    pub thrust: f64,
+    /// Reaction at the left springing, kN.
+    pub reaction_left: ArchReaction,
+    /// Reaction at the right springing, kN.
+    pub reaction_right: ArchReaction,
+    /// Number of funicular constructions made.
+    pub iterations: usize,
+    /// Largest change of a rib node level in the last iteration, m.
+    pub final_change: f64,
+    /// The tolerance used, as a fraction of the rise.
+    pub tolerance: f64,
+}
+
+impl Form {
+    /// Rib node levels, m.
+    pub fn rib_y(&self) -> Vec<f64> {
+        self.rib.iter().map(|n| n.y).collect()
+    }
+    /// Indices of rib nodes shared with the deck.
+    pub fn shared(&self) -> Vec<usize> {
+        self.rib.iter().enumerate().filter(|(_, n)| n.shared_with_deck).map(|(k, _)| k).collect()
+    }
+}
+
+/// Finds the form of a frame geometry for a load basis (no design checks: `frame` must
+/// come from a checked design). Errors: `NoConvergence` when the change does not fall to
+/// `tolerance` times the rise within `max_iterations`; `Invalid` when the loads admit no
+/// compression funicular (e.g. no load at all).
+pub fn find_form_for(
+    frame: &Frame,
+    basis: &dyn LoadBasis,
+    min_post: f64,
+    tolerance: f64,
+    max_iterations: usize,
+) -> Result<Form, StaticsError> {
+    let mut y: Vec<f64> = frame.rib_x.iter().map(|&x| frame.parabola(x)).collect();
+    let last = frame.last_rib();
+    y[0] = frame.a.1;
+    y[last] = frame.b.1;
+    let (a, b) = (Point { x: frame.a.0, y: frame.a.1 }, Point { x: frame.b.0, y: frame.b.1 });
+    let mut change = f64::INFINITY;
+    let mut iterations = 0;
+    loop {
+        if iterations >= max_iterations {
+            return Err(StaticsError::NoConvergence {
+                what: "form finding".into(),
+                iterations,
+                last_change: change,
+                hint:
+                    "raise the tolerance or the iteration limit, or lighten the self-weight of rib and posts"
+                        .into(),
+            });
+        }
+        iterations += 1;
+        let topo = Topology::new(frame, &y, min_post);
+        let p = basis.gather(frame, &topo, &y);
+        let interior: Vec<VerticalLoad> =
+            (1..last).map(|r| VerticalLoad { x: frame.rib_x[r], p: p[r] }).collect();
+        let fun = three_point(a, b, frame.xc, frame.rise, &interior).map_err(|_| {
+            StaticsError::invalid(
+                "loads",
+                "the rib between the springings carries no load that presses the crown down (for example three \
+                 hinges with 2 panels and no self-weight send all deck load into the end posts); add panels or \
+                 give the rib its weight",
+            )
+        })?;
+        let mut new_y = y.clone();
+        for (k, yk) in fun.y.iter().enumerate() {
+            new_y[k + 1] = *yk;
+        }
+        // the crown node sits exactly on the crown point (identity up to round-off)
+        new_y[frame.crown] = frame.chord(frame.xc) + frame.rise;
+        change = y.iter().zip(&new_y).map(|(u, v)| (u - v).abs()).fold(0.0, f64::max);
+        y = new_y;
+        if !change.is_finite() {
+            return Err(StaticsError::NoConvergence {
+                what: "form finding".into(),
+                iterations,
+                last_change: change,
+                hint: "the shape diverged; check loads and rise".into(),
+            });
+        }
+        if change <= tolerance * frame.rise {
+            let h = fun.thrust;
+            let shared = topo.shared.clone();
+            let post_of =
+                |r: usize| topo.posts.iter().find(|&&(_, pr)| pr == r).map(|_| frame.deck_level - y[r]);
+            let rib = (0..=last)
+                .map(|r| RibNode {
+                    x: frame.rib_x[r],
+                    y: y[r],
+                    load: p[r],
+                    panel: frame.rib_panel[r],
+                    shared_with_deck: shared.contains(&r),
+                    post_length: post_of(r),
+                })
+                .collect();
+            return Ok(Form {
+                basis: basis.name().into(),
+                springing_left: a,
+                springing_right: b,
+                crown: Point { x: frame.xc, y: y[frame.crown] },
+                span: frame.span(),
+                rise: frame.rise,
+                rib,
+                crown_node: frame.crown,
+                thrust: h,
+                reaction_left: ArchReaction { fx: h, fy: fun.reaction_a + p[0] },
+                reaction_right: ArchReaction { fx: -h, fy: fun.reaction_b + p[last] },
+                iterations,
+                final_change: change,
+                tolerance,
+            });
+        }
+    }
+}
+
+/// Finds the form of a design on the "panel loads" basis, after checking its inputs.
+///
+/// Errors: `Invalid` listing every input problem; `NoConvergence`. The rib is not checked
+/// against the ground here (use `design::validate_design` or `checked_form`).
+pub fn find_form(design: &Design) -> Result<Form, StaticsError> {
+    let mut problems = Vec::new();
+    check_inputs(design, &mut problems, &mut Vec::new());
+    if !problems.is_empty() {
+        return Err(StaticsError::Invalid(problems));
+    }
+    let frame = Frame::new(design).ok_or_else(|| {
+        StaticsError::invalid("valley", "the springings cannot be placed on the valley walls")
+    })?;
+    find_form_for(
+        &frame,
+        &PanelLoads::of(design),
+        design.min_post_length,
+        design.form.tolerance,
+        design.form.max_iterations,
+    )
+}
+
+/// Validates a design completely and returns its warnings and form: input checks, form
+/// finding, then the rib against the ground and the deck. Every problem is listed.
+pub fn checked_form(design: &Design) -> Result<(Vec<Warning>, Form), StaticsError> {
+    let mut problems = Vec::new();
+    let mut warnings = Vec::new();
+    check_inputs(design, &mut problems, &mut warnings);
+    if !problems.is_empty() {
+        return Err(StaticsError::Invalid(problems));
+    }
+    let form = match find_form(design) {
+        Ok(f) => f,
+        Err(StaticsError::Invalid(p)) => return Err(StaticsError::Invalid(p)),
+        Err(StaticsError::NoConvergence { iterations, last_change, .. }) => {
+            return Err(StaticsError::Invalid(vec![Problem {
+                location: "form".into(),
+                message: format!("form finding did not converge in {iterations} iterations (last change {last_change:.3e} m); raise form.tolerance or form.max_iterations"),
+            }]))
+        }
+        Err(e) => return Err(e),
+    };
+    check_clearances(design, &form, &mut problems);
+    if problems.is_empty() {
+        Ok((warnings, form))
+    } else {
+        Err(StaticsError::Invalid(problems))
+    }
+}
+
+fn check_clearances(d: &Design, form: &Form, problems: &mut Vec<Problem>) {
+    let last = form.rib.len() - 1;
+    for (r, n) in form.rib.iter().enumerate() {
+        if r > 0 && r < last && n.y > d.deck.level + GROUND_TOLERANCE {
+            problems.push(Problem {
+                location: format!("rib node at x = {:.3} m", n.x),
+                message: format!(
+                    "the rib rises {:.3} m above the deck; lower the crown or raise the deck",
+                    n.y - d.deck.level
+                ),
+            });
+        }
+    }
+    // rib segment against ground: both piecewise linear, so compare at the segment ends
+    // and at every ground vertex in between
+    for r in 0..last {
+        let (p, q) = (&form.rib[r], &form.rib[r + 1]);
+        let mut xs = vec![p.x, q.x];
+        xs.extend(d.valley.iter().map(|g| g.x).filter(|&x| x > p.x && x < q.x));
+        let mut worst: Option<(f64, f64)> = None;
+        for x in xs {
+            let Some(g) = d.ground_at(x) else { continue };
+            let y = p.y + (q.y - p.y) * (x - p.x) / (q.x - p.x);
+            let depth = g - y;
+            if depth > GROUND_TOLERANCE && worst.is_none_or(|w| depth > w.1) {
+                worst = Some((x, depth));
+            }
+        }
+        if let Some((x, depth)) = worst {
+            let what = if r + 1 < last && q.post_length.is_some() {
+                " (and the foot of the post above it)"
+            } else {
+                ""
+            };
+            problems.push(Problem {
+                location: format!("rib between x = {:.3} m and {:.3} m", p.x, q.x),
+                message: format!("the rib{what} runs {depth:.3} m below the ground at x = {x:.3} m; raise the springings, lower the deck or change the rise"),
+            });
+        }
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn demo_form_passes_through_three_points() {
+        let d = Design::demo();
+        let (_, form) = checked_form(&d).expect("demo is valid");
+        let (a, b) = (form.springing_left, form.springing_right);
+        assert_eq!(form.rib[0].y, a.y);
+        assert_eq!(form.rib.last().map(|n| n.y), Some(b.y));
+        // crown point: chord level at mid-span plus the rise (DESIGN.md definition)
+        let c = &form.rib[form.crown_node];
+        assert!((c.x - 0.5 * (a.x + b.x)).abs() < 1e-12);
+        assert!((c.y - (0.5 * (a.y + b.y) + form.rise)).abs() < 1e-9);
+        assert!(form.thrust > 0.0);
+        // overall vertical equilibrium: reactions carry every load
+        let total: f64 = form.rib.iter().map(|n| n.load).sum();
+        assert!((form.reaction_left.fy + form.reaction_right.fy - total).abs() < 1e-9 * total);
+    }
+}
