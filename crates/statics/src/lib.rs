@@ -13,7 +13,9 @@ pub mod determinacy;
 pub mod element;
 pub mod error;
 pub mod model;
+pub mod reciprocal;
 pub mod solver;
+pub mod thrust_line;
 
 pub use determinacy::{truss_determinacy, Determinacy, DeterminacyReport};
 pub use error::{Problem, StaticsError};
