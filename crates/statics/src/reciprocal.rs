@@ -181,14 +181,16 @@ pub fn force_diagram(model: &Model, case: &CaseResult) -> Result<ForceDiagram, S
     }
     for r in &case.reactions {
         if r.fx != 0.0 || r.fy != 0.0 {
-            externals.push(External { node: r.node, fx: r.fx, fy: r.fy, of: SegmentOf::Reaction { node: r.node } });
+            externals.push(External {
+                node: r.node,
+                fx: r.fx,
+                fy: r.fy,
+                of: SegmentOf::Reaction { node: r.node },
+            });
         }
     }
-    let largest = forces
-        .iter()
-        .map(|f| f.abs())
-        .chain(externals.iter().map(|e| e.fx.hypot(e.fy)))
-        .fold(0.0, f64::max);
+    let largest =
+        forces.iter().map(|f| f.abs()).chain(externals.iter().map(|e| e.fx.hypot(e.fy))).fold(0.0, f64::max);
     let tiny = ZERO_FORCE * largest.max(f64::MIN_POSITIVE);
     // drop vanishing external forces (rounding of a zero reaction)
     externals.retain(|e| e.fx.hypot(e.fy) > tiny);
@@ -389,7 +391,8 @@ pub fn force_diagram(model: &Model, case: &CaseResult) -> Result<ForceDiagram, S
     let extent = crate::solver::characteristic_length(model);
     for s in 0..n_outside {
         // label between the two external forces bounding it, pushed outwards
-        let bounding: Vec<usize> = (0..externals.len()).filter(|&k| ext_left[k] == s || ext_right[k] == s).collect();
+        let bounding: Vec<usize> =
+            (0..externals.len()).filter(|&k| ext_left[k] == s || ext_right[k] == s).collect();
         let label_at = if bounding.is_empty() {
             (pos[0].0, pos[0].1 + 0.1 * extent)
         } else {
@@ -426,7 +429,13 @@ pub fn force_diagram(model: &Model, case: &CaseResult) -> Result<ForceDiagram, S
         });
     }
     for (k, e) in externals.iter().enumerate() {
-        segments.push(Segment { of: e.of, left: ext_left[k], right: ext_right[k], force: e.fx.hypot(e.fy), zero: false });
+        segments.push(Segment {
+            of: e.of,
+            left: ext_left[k],
+            right: ext_right[k],
+            force: e.fx.hypot(e.fy),
+            zero: false,
+        });
     }
     Ok(ForceDiagram {
         case: case.name.clone(),
@@ -573,7 +582,10 @@ mod tests {
             let l = (b.x - a.x).hypot(b.y - a.y);
             let n = s.cases[0].members[k].end.n;
             let (vx, vy) = fd.vector(seg);
-            assert!((vx - n * (b.x - a.x) / l).hypot(vy - n * (b.y - a.y) / l) <= 1e-9 * largest, "member {k}");
+            assert!(
+                (vx - n * (b.x - a.x) / l).hypot(vy - n * (b.y - a.y) / l) <= 1e-9 * largest,
+                "member {k}"
+            );
         }
         assert!(fd.closure_error <= 1e-9 * largest);
         fd
@@ -591,7 +603,11 @@ mod tests {
         m.add_member(truss("", "", 1, 2, 2e8, 0.01));
         m.add_member(truss("", "", 0, 2, 2e8, 0.01));
         m.supports = vec![Support::pinned(0), Support::roller_along_x(2)];
-        m.load_cases = vec![LoadCase { name: "p".into(), nodal: vec![NodalLoad { node: 1, fx: 0.0, fy: -60.0, mz: 0.0 }], ..Default::default() }];
+        m.load_cases = vec![LoadCase {
+            name: "p".into(),
+            nodal: vec![NodalLoad { node: 1, fx: 0.0, fy: -60.0, mz: 0.0 }],
+            ..Default::default()
+        }];
         let fd = check(&m);
         // three external forces: three outside spaces; one inside face
         let outside = fd.spaces.iter().filter(|s| s.kind == SpaceKind::Outside).count();
@@ -613,7 +629,11 @@ mod tests {
             m.add_member(truss("", "", a, b, 2e8, 0.01));
         }
         m.supports = vec![Support::pinned(0), Support::roller_along_x(1)];
-        m.load_cases = vec![LoadCase { name: "p".into(), nodal: vec![NodalLoad { node: 2, fx: 10.0, fy: -30.0, mz: 0.0 }], ..Default::default() }];
+        m.load_cases = vec![LoadCase {
+            name: "p".into(),
+            nodal: vec![NodalLoad { node: 2, fx: 10.0, fy: -30.0, mz: 0.0 }],
+            ..Default::default()
+        }];
         let fd = check(&m);
         assert!(fd.pass_through);
         assert_eq!(fd.crossings.len(), 1);

@@ -81,11 +81,9 @@ pub fn rib_chain(model: &Model) -> Result<Vec<(usize, bool)>, StaticsError> {
     let mut chain = Vec::new();
     let mut used = vec![false; model.members.len()];
     let mut at = start;
-    loop {
-        let Some(&k) = rib.iter().find(|&&k| !used[k] && (model.members[k].start == at || model.members[k].end == at))
-        else {
-            break;
-        };
+    while let Some(&k) =
+        rib.iter().find(|&&k| !used[k] && (model.members[k].start == at || model.members[k].end == at))
+    {
         used[k] = true;
         let forward = model.members[k].start == at;
         chain.push((k, forward));
@@ -247,8 +245,11 @@ pub fn thrust_line(
             }
         }
     }
-    let (worst, max_offset) =
-        sections.iter().enumerate().map(|(i, s)| (i, s.offset.abs())).fold((0, 0.0), |a, b| if b.1 > a.1 { b } else { a });
+    let (worst, max_offset) = sections
+        .iter()
+        .enumerate()
+        .map(|(i, s)| (i, s.offset.abs()))
+        .fold((0, 0.0), |a, b| if b.1 > a.1 { b } else { a });
     Ok(ThrustLine {
         case: case.name.clone(),
         depth,
@@ -295,11 +296,19 @@ mod tests {
                 let m = if i < chain.len() {
                     let (k, fwd) = chain[i];
                     let mf = &case.members[k];
-                    if fwd { mf.start.m } else { -mf.end.m }
+                    if fwd {
+                        mf.start.m
+                    } else {
+                        -mf.end.m
+                    }
                 } else {
                     let (k, fwd) = chain[i - 1];
                     let mf = &case.members[k];
-                    if fwd { mf.end.m } else { -mf.start.m }
+                    if fwd {
+                        mf.end.m
+                    } else {
+                        -mf.start.m
+                    }
                 };
                 mmax = mmax.max(m.abs());
                 solver_m.push((m, sec.moment));
