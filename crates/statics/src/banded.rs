@@ -89,7 +89,7 @@ impl LdlFactor {
                 dj -= ljk * ljk * d[k];
             }
             let diag = a.get(j, j).abs();
-            if !(dj > PIVOT_TOLERANCE * diag) || !dj.is_finite() {
+            if dj.is_nan() || dj <= PIVOT_TOLERANCE * diag || !dj.is_finite() {
                 return Err(SingularPivot { index: j, null_vector: null_vector(&l, &d, j) });
             }
             d[j] = dj;

@@ -64,10 +64,9 @@ impl DeterminacyReport {
         match &self.determinacy {
             Determinacy::Determinate => "statically determinate".into(),
             Determinacy::Indeterminate { degree } => format!("statically indeterminate by {degree}"),
-            Determinacy::Mechanism { modes, node_label, direction, .. } => format!(
-                "a mechanism with {modes} mode(s): node {node_label} moves {}",
-                direction.describe()
-            ),
+            Determinacy::Mechanism { modes, node_label, direction, .. } => {
+                format!("a mechanism with {modes} mode(s): node {node_label} moves {}", direction.describe())
+            }
         }
     }
 }

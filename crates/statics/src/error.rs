@@ -66,11 +66,7 @@ pub enum StaticsError {
 }
 
 fn join(problems: &[Problem]) -> String {
-    problems
-        .iter()
-        .map(|p| p.to_string())
-        .collect::<Vec<_>>()
-        .join("; ")
+    problems.iter().map(|p| p.to_string()).collect::<Vec<_>>().join("; ")
 }
 
 impl StaticsError {

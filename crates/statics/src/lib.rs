@@ -13,7 +13,9 @@ pub mod determinacy;
 pub mod element;
 pub mod error;
 pub mod model;
+pub mod reciprocal;
 pub mod solver;
+pub mod thrust_line;
 
 pub use determinacy::{truss_determinacy, Determinacy, DeterminacyReport};
 pub use error::{Problem, StaticsError};
@@ -21,7 +23,9 @@ pub use model::{
     frame, truss, Dof, LoadCase, LoadDirection, Member, MemberKind, MemberLoad, Model, NodalLoad, Node,
     PrescribedDisplacement, Support, TemperatureLoad,
 };
-pub use solver::{solve, validate, CaseResult, EquilibriumCheck, MemberForces, Reaction, SectionForces, Solution};
+pub use solver::{
+    solve, validate, CaseResult, EquilibriumCheck, MemberForces, Reaction, SectionForces, Solution,
+};
 
 // Deck-arch layer (built on the solver): owned by the form-finding work.
 pub mod analysis;

@@ -196,8 +196,15 @@ pub fn validate(model: &Model) -> Result<(), StaticsError> {
         }
         if ends_ok {
             let l = model.member_length(k);
-            if m.start == m.end || !(l > extent * 1e-9) {
-                add(loc.clone(), format!("has zero length (nodes {} and {} coincide); remove it or move a node", model.node_label(m.start), model.node_label(m.end)));
+            if m.start == m.end || l.is_nan() || l <= extent * 1e-9 {
+                add(
+                    loc.clone(),
+                    format!(
+                        "has zero length (nodes {} and {} coincide); remove it or move a node",
+                        model.node_label(m.start),
+                        model.node_label(m.end)
+                    ),
+                );
             }
         }
         if !(m.e.is_finite() && m.e > 0.0) {
@@ -206,8 +213,15 @@ pub fn validate(model: &Model) -> Result<(), StaticsError> {
         if !(m.a.is_finite() && m.a > 0.0) {
             add(loc.clone(), format!("area A = {} m2 must be a positive finite number", m.a));
         }
-        if !crate::element::is_axial_only(m) && !(m.i.is_finite() && m.i > 0.0) {
-            add(loc.clone(), format!("second moment of area I = {} m4 must be positive for a frame member with a rigid end", m.i));
+        let bad_i = !(m.i.is_finite() && m.i > 0.0);
+        if !crate::element::is_axial_only(m) && bad_i {
+            add(
+                loc.clone(),
+                format!(
+                    "second moment of area I = {} m4 must be positive for a frame member with a rigid end",
+                    m.i
+                ),
+            );
         }
         if !m.alpha.is_finite() {
             add(loc.clone(), "thermal expansion coefficient must be finite".into());
@@ -220,16 +234,25 @@ pub fn validate(model: &Model) -> Result<(), StaticsError> {
             continue;
         }
         if supported[s.node] {
-            add(format!("node {}", model.node_label(s.node)), "has more than one support; merge them into one".into());
+            add(
+                format!("node {}", model.node_label(s.node)),
+                "has more than one support; merge them into one".into(),
+            );
         }
         supported[s.node] = true;
         if !(s.x || s.y || s.rz) {
-            add(format!("node {}", model.node_label(s.node)), "support restrains nothing; set x, y or rz".into());
+            add(
+                format!("node {}", model.node_label(s.node)),
+                "support restrains nothing; set x, y or rz".into(),
+            );
         }
     }
     for (i, c) in connected.iter().enumerate() {
         if !c {
-            add(format!("node {}", model.node_label(i)), "is not connected to any member; remove it or connect it".into());
+            add(
+                format!("node {}", model.node_label(i)),
+                "is not connected to any member; remove it or connect it".into(),
+            );
         }
     }
     let rot = rotation_active(model);
@@ -241,7 +264,13 @@ pub fn validate(model: &Model) -> Result<(), StaticsError> {
             } else if !(l.fx.is_finite() && l.fy.is_finite() && l.mz.is_finite()) {
                 add(loc.clone(), format!("nodal load on node {} is not finite", model.node_label(l.node)));
             } else if l.mz != 0.0 && !rot.get(l.node).copied().unwrap_or(false) {
-                add(loc.clone(), format!("moment applied at node {} where every member is pinned; nothing can resist it", model.node_label(l.node)));
+                add(
+                    loc.clone(),
+                    format!(
+                        "moment applied at node {} where every member is pinned; nothing can resist it",
+                        model.node_label(l.node)
+                    ),
+                );
             }
         }
         for ml in &lc.member {
@@ -260,7 +289,13 @@ pub fn validate(model: &Model) -> Result<(), StaticsError> {
             if let Some(a) = a {
                 let l = model.member_length(k);
                 if !(a.is_finite() && a >= 0.0 && a <= l * (1.0 + 1e-12)) {
-                    add(loc.clone(), format!("point load on member {} at a = {a} m lies outside the member (0 to {l:.3} m)", model.member_label(k)));
+                    add(
+                        loc.clone(),
+                        format!(
+                            "point load on member {} at a = {a} m lies outside the member (0 to {l:.3} m)",
+                            model.member_label(k)
+                        ),
+                    );
                 }
             }
         }
@@ -283,7 +318,14 @@ pub fn validate(model: &Model) -> Result<(), StaticsError> {
             if pd.node >= nn {
                 add(loc.clone(), format!("prescribed displacement at node {} which does not exist", pd.node));
             } else if !restrained {
-                add(loc.clone(), format!("prescribed displacement at node {} {} needs a support restraining that direction", model.node_label(pd.node), pd.dof.describe()));
+                add(
+                    loc.clone(),
+                    format!(
+                        "prescribed displacement at node {} {} needs a support restraining that direction",
+                        model.node_label(pd.node),
+                        pd.dof.describe()
+                    ),
+                );
             } else if !pd.value.is_finite() {
                 add(loc.clone(), "prescribed displacement must be finite".into());
             }
@@ -600,9 +642,8 @@ fn solve_case(
         }
         let start = [f_local[0], f_local[1], f_local[2]];
         let l = el.geometry.length;
-        let mut positions: Vec<f64> = (0..=STATION_INTERVALS)
-            .map(|i| l * i as f64 / STATION_INTERVALS as f64)
-            .collect();
+        let mut positions: Vec<f64> =
+            (0..=STATION_INTERVALS).map(|i| l * i as f64 / STATION_INTERVALS as f64).collect();
         for ll in &local_loads[k] {
             if let LocalLoad::Point { a, .. } = ll {
                 positions.push(*a);
@@ -696,7 +737,10 @@ fn solve_case(
         }
     }
     let (reference, basis) = if largest_load > 0.0 {
-        (largest.max(largest_load).max(largest_reaction), "largest force present (loads, reactions, member end forces)")
+        (
+            largest.max(largest_load).max(largest_reaction),
+            "largest force present (loads, reactions, member end forces)",
+        )
     } else if largest_reaction > VANISHING_REACTION * imposed_strain && largest_reaction > 0.0 {
         (largest_reaction, "largest reaction (no net applied load)")
     } else if imposed_strain > 0.0 {

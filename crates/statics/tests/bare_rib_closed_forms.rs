@@ -5,6 +5,7 @@
 //! not form-found, so H = M / f is not an identity. Sources:
 //! - [TY] Timoshenko & Young, Theory of Structures, 2nd ed., ch. 9 (arches), from memory;
 //! - [R]  Roark's Formulas for Stress and Strain, arch tables, from memory;
+//!
 //! both as collected in shared/REFERENCES.md.
 
 use springline_statics::{
@@ -178,10 +179,21 @@ fn rib_shortening_reduces_two_hinged_thrust_as_the_handbook_says() {
     // takes cos(theta) = 1, which at rise/span 1/10 overstates the reduction by a few
     // per cent, so it is checked to 10 % of the reduction; the same integrals with the
     // cos^2 term kept are checked to 2 % (24 straight segments for the curve).
-    let rib = Rib { span: 100.0, rise: 10.0, segments: 24, area: 0.1, inertia: 0.2, sec_theta: true, ends: Ends::Pinned };
+    let rib = Rib {
+        span: 100.0,
+        rise: 10.0,
+        segments: 24,
+        area: 0.1,
+        inertia: 0.2,
+        sec_theta: true,
+        ends: Ends::Pinned,
+    };
     let w = 100.0;
     let mut m = rib.model();
-    let s = solve_case(&mut m, LoadCase { name: "udl".into(), nodal: rib.udl(w, 0.0, rib.span), ..Default::default() });
+    let s = solve_case(
+        &mut m,
+        LoadCase { name: "udl".into(), nodal: rib.udl(w, 0.0, rib.span), ..Default::default() },
+    );
     let h0 = w * rib.span.powi(2) / (8.0 * rib.rise);
     let h = thrust(&s);
     let flat = h0 / (1.0 + 15.0 * rib.inertia / (8.0 * rib.area * rib.rise.powi(2)));
@@ -196,14 +208,26 @@ fn rib_shortening_reduces_two_hinged_thrust_as_the_handbook_says() {
 fn three_hinged_rib_point_load_gives_statics_reactions_and_crown_force() {
     // [TY] three-hinged arch, P at a <= L/2: V_A = P (L - a) / L, V_B = P a / L,
     // H = V_B (L / 2) / f; the crown hinge passes (H, V_B) between the halves.
-    let rib = Rib { span: 80.0, rise: 16.0, segments: 16, area: 0.15, inertia: 0.05, sec_theta: false, ends: Ends::ThreeHinged };
+    let rib = Rib {
+        span: 80.0,
+        rise: 16.0,
+        segments: 16,
+        area: 0.15,
+        inertia: 0.05,
+        sec_theta: false,
+        ends: Ends::ThreeHinged,
+    };
     let p = 500.0;
     let node = 5; // a = 25 m
     let a = rib.x(node);
     let mut m = rib.model();
     let s = solve_case(
         &mut m,
-        LoadCase { name: "point".into(), nodal: vec![NodalLoad { node, fx: 0.0, fy: -p, mz: 0.0 }], ..Default::default() },
+        LoadCase {
+            name: "point".into(),
+            nodal: vec![NodalLoad { node, fx: 0.0, fy: -p, mz: 0.0 }],
+            ..Default::default()
+        },
     );
     let va = p * (rib.span - a) / rib.span;
     let vb = p * a / rib.span;
@@ -263,7 +287,15 @@ fn temperature_and_spread_on_two_hinged_rib_match_closed_form_thrust() {
     // temperature rise dT: H_t = 15 E I_c alpha dT / (8 f^2) (more thrust);
     // springings spread apart by d: H_d = 15 E I_c d / (8 f^2 L) (less thrust).
     // 64 straight segments: the integral of y^2 is within 1e-3 of 8 f^2 L / 15.
-    let rib = Rib { span: 100.0, rise: 20.0, segments: 64, area: 0.2 * RIGID_AXIAL, inertia: 0.1, sec_theta: true, ends: Ends::Pinned };
+    let rib = Rib {
+        span: 100.0,
+        rise: 20.0,
+        segments: 64,
+        area: 0.2 * RIGID_AXIAL,
+        inertia: 0.1,
+        sec_theta: true,
+        ends: Ends::Pinned,
+    };
     let dt = 30.0;
     let spread = 0.02;
     let mut m = rib.model();
@@ -292,7 +324,15 @@ fn temperature_and_spread_on_two_hinged_rib_match_closed_form_thrust() {
 fn three_hinged_rib_takes_no_force_from_temperature_or_spread() {
     // A three-hinged arch is statically determinate: imposed strains and support
     // movements cause no forces (statics; [TY] ch. 9).
-    let rib = Rib { span: 100.0, rise: 20.0, segments: 16, area: 0.2, inertia: 0.1, sec_theta: false, ends: Ends::ThreeHinged };
+    let rib = Rib {
+        span: 100.0,
+        rise: 20.0,
+        segments: 16,
+        area: 0.2,
+        inertia: 0.1,
+        sec_theta: false,
+        ends: Ends::ThreeHinged,
+    };
     let mut m = rib.model();
     let scale = E * 0.2 * ALPHA * 30.0; // E A times the imposed strain, kN
     for case in [
@@ -310,7 +350,9 @@ fn three_hinged_rib_takes_no_force_from_temperature_or_spread() {
         let s = solve_case(&mut m, case);
         for mf in &s.cases[0].members {
             for f in [mf.start, mf.end] {
-                assert!(f.n.abs() < 1e-9 * scale && f.v.abs() < 1e-9 * scale && f.m.abs() < 1e-9 * scale * 100.0);
+                assert!(
+                    f.n.abs() < 1e-9 * scale && f.v.abs() < 1e-9 * scale && f.m.abs() < 1e-9 * scale * 100.0
+                );
             }
         }
         for r in &s.cases[0].reactions {

@@ -3,8 +3,8 @@
 use proptest::prelude::*;
 use springline_statics::element::{local_stiffness, Geometry};
 use springline_statics::{
-    frame, solve, truss, truss_determinacy, Determinacy, LoadCase, LoadDirection, MemberLoad, Model, NodalLoad,
-    StaticsError, Support,
+    frame, solve, truss, truss_determinacy, Determinacy, LoadCase, LoadDirection, MemberLoad, Model,
+    NodalLoad, StaticsError, Support,
 };
 
 const E: f64 = 2.1e8;
@@ -12,7 +12,13 @@ const E: f64 = 2.1e8;
 /// A rigid multi-bay, multi-storey frame with perturbed nodes, fixed bases, random
 /// sections and random nodal and member loads. Stable by construction.
 fn random_frame() -> impl Strategy<Value = Model> {
-    (1usize..4, 1usize..4, prop::collection::vec(-0.4f64..0.4, 64), prop::collection::vec(-100.0f64..100.0, 64), any::<bool>())
+    (
+        1usize..4,
+        1usize..4,
+        prop::collection::vec(-0.4f64..0.4, 64),
+        prop::collection::vec(-100.0f64..100.0, 64),
+        any::<bool>(),
+    )
         .prop_map(|(bays, storeys, jitter, loads, pinned_bases)| {
             let mut m = Model { title: "random frame".into(), ..Default::default() };
             let mut j = jitter.iter().cycle();
@@ -31,9 +37,20 @@ fn random_frame() -> impl Strategy<Value = Model> {
                 }
                 for b in 0..bays {
                     let k = m.add_member(frame("", "beam", id(b, s), id(b + 1, s), E, 0.008, 2e-4));
-                    let mut lc_loads = Vec::new();
-                    lc_loads.push(MemberLoad::Uniform { member: k, w: -(l.next().unwrap_or(&10.0).abs()), direction: LoadDirection::GlobalY, projected: false });
-                    lc_loads.push(MemberLoad::Point { member: k, p: *l.next().unwrap_or(&5.0), a: 2.0, direction: LoadDirection::LocalY });
+                    let lc_loads = [
+                        MemberLoad::Uniform {
+                            member: k,
+                            w: -(l.next().unwrap_or(&10.0).abs()),
+                            direction: LoadDirection::GlobalY,
+                            projected: false,
+                        },
+                        MemberLoad::Point {
+                            member: k,
+                            p: *l.next().unwrap_or(&5.0),
+                            a: 2.0,
+                            direction: LoadDirection::LocalY,
+                        },
+                    ];
                     if m.load_cases.is_empty() {
                         m.load_cases.push(LoadCase { name: "random".into(), ..Default::default() });
                     }
@@ -41,10 +58,19 @@ fn random_frame() -> impl Strategy<Value = Model> {
                 }
             }
             for b in 0..=bays {
-                m.supports.push(if pinned_bases { Support::pinned(id(b, 0)) } else { Support::fixed(id(b, 0)) });
+                m.supports.push(if pinned_bases {
+                    Support::pinned(id(b, 0))
+                } else {
+                    Support::fixed(id(b, 0))
+                });
             }
             let top = id(0, storeys);
-            m.load_cases[0].nodal.push(NodalLoad { node: top, fx: *l.next().unwrap_or(&20.0), fy: 0.0, mz: *l.next().unwrap_or(&1.0) });
+            m.load_cases[0].nodal.push(NodalLoad {
+                node: top,
+                fx: *l.next().unwrap_or(&20.0),
+                fy: 0.0,
+                mz: *l.next().unwrap_or(&1.0),
+            });
             m
         })
 }
@@ -52,7 +78,12 @@ fn random_frame() -> impl Strategy<Value = Model> {
 /// A Warren-type truss with `panels` bays, pinned at the left and on a roller at the
 /// right (determinate), plus `extra` crossing diagonals (each adds one redundant bar).
 fn random_truss() -> impl Strategy<Value = (Model, usize)> {
-    (2usize..10, prop::collection::vec(-0.3f64..0.3, 40), prop::collection::vec(-50.0f64..50.0, 40), prop::collection::vec(any::<bool>(), 10))
+    (
+        2usize..10,
+        prop::collection::vec(-0.3f64..0.3, 40),
+        prop::collection::vec(-50.0f64..50.0, 40),
+        prop::collection::vec(any::<bool>(), 10),
+    )
         .prop_map(|(panels, jitter, loads, extra)| {
             let mut m = Model { title: "random truss".into(), ..Default::default() };
             let mut j = jitter.iter().cycle();
@@ -82,7 +113,12 @@ fn random_truss() -> impl Strategy<Value = (Model, usize)> {
             m.load_cases.push(LoadCase {
                 name: "random".into(),
                 nodal: (0..m.nodes.len())
-                    .map(|node| NodalLoad { node, fx: *l.next().unwrap_or(&0.0) * 0.2, fy: -l.next().unwrap_or(&1.0).abs(), mz: 0.0 })
+                    .map(|node| NodalLoad {
+                        node,
+                        fx: *l.next().unwrap_or(&0.0) * 0.2,
+                        fy: -l.next().unwrap_or(&1.0).abs(),
+                        mz: 0.0,
+                    })
                     .collect(),
                 ..Default::default()
             });

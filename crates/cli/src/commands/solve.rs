@@ -3,7 +3,7 @@
 use super::{print_json, read_text, Conventions, CONVENTIONS};
 use anyhow::{bail, Context};
 use serde::Serialize;
-use springline_statics::{solve, truss_determinacy, DeterminacyReport, Model, MemberKind, Solution};
+use springline_statics::{solve, truss_determinacy, DeterminacyReport, MemberKind, Model, Solution};
 
 #[derive(Serialize)]
 struct Output<'a> {
@@ -17,8 +17,10 @@ struct Output<'a> {
 pub fn run(args: &[String]) -> anyhow::Result<()> {
     let [path] = args else { bail!("usage: springline solve MODEL.json") };
     let text = read_text(path)?;
-    let model: Model = serde_json::from_str(&text).with_context(|| format!("'{path}' is not a valid model file"))?;
-    let all_pinned = model.members.iter().all(|m| m.kind == MemberKind::Truss || (m.release_start && m.release_end));
+    let model: Model =
+        serde_json::from_str(&text).with_context(|| format!("'{path}' is not a valid model file"))?;
+    let all_pinned =
+        model.members.iter().all(|m| m.kind == MemberKind::Truss || (m.release_start && m.release_end));
     let determinacy = if all_pinned { Some(truss_determinacy(&model)?) } else { None };
     let solution = solve(&model)?;
     print_json(&Output { conventions: CONVENTIONS, title: &model.title, determinacy, solution })

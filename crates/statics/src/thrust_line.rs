@@ -1,0 +1,338 @@
+//! The thrust line (line of pressure) of an arch rib, built from the forces the rib
+//! actually receives, and the classic checks on it.
+//!
+//! Starting from the left springing reaction, the resultant of every force on the rib to
+//! the left of a section is carried along (the funicular polygon of the actual loads, with
+//! the actual reactions: Heyman, The Stone Skeleton, ch. 2; Timoshenko & Young, Theory of
+//! Structures, ch. 9). Where its line of action crosses a section lies the centre of
+//! pressure: its offset `e` from the rib axis gives the bending moment `M = C e`, with
+//! C the compressive thrust normal to the section. The middle-third (kern) rule keeps a
+//! rectangular section wholly in compression (|e| <= d/6), and a thrust line inside the
+//! rib depth (|e| <= d/2) is the masonry arch's safe theorem; the geometric factor of
+//! safety is the rib depth over the least depth that contains the line (Heyman).
+
+use crate::error::StaticsError;
+use crate::model::Model;
+use crate::solver::CaseResult;
+use serde::{Deserialize, Serialize};
+
+/// The centre of pressure at one rib section.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
+pub struct PressurePoint {
+    /// Rib node at the section.
+    pub node: usize,
+    /// Section centroid on the rib axis, m.
+    pub axis: (f64, f64),
+    /// Where the thrust line crosses the section, m.
+    pub point: (f64, f64),
+    /// Offset of the thrust line from the axis along the section, m, positive towards the
+    /// extrados (the left-hand side of the rib walking from the left springing: up).
+    pub offset: f64,
+    /// Compressive thrust normal to the section, kN (= -N, positive in compression).
+    pub thrust: f64,
+    /// Bending moment from the thrust line, kNm: thrust x offset (sagging positive,
+    /// the solver's sign convention for a rib drawn from left to right).
+    pub moment: f64,
+}
+
+/// The thrust line of one load case on a rib.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct ThrustLine {
+    /// Load case name.
+    pub case: String,
+    /// The section depth the checks use, m.
+    pub depth: f64,
+    /// One section per rib node, left springing to right springing (just right of each
+    /// node, and just left of the right springing).
+    pub sections: Vec<PressurePoint>,
+    /// Vertices of the line of pressure (springing, kinks where forces join, springing), m.
+    pub polygon: Vec<(f64, f64)>,
+    /// Index into `sections` of the largest |offset|.
+    pub worst: usize,
+    /// Largest |offset|, m.
+    pub max_offset: f64,
+    /// True when |offset| <= depth / 6 everywhere (middle third).
+    pub inside_middle_third: bool,
+    /// True when |offset| <= depth / 2 everywhere.
+    pub inside_depth: bool,
+    /// depth / (2 max |offset|); `None` when the line follows the axis exactly.
+    pub geometric_safety_factor: Option<f64>,
+}
+
+/// The rib's members in order from the left springing to the right one, with a flag
+/// telling whether each runs along that direction (start node nearer the left springing).
+/// Rib members are those of group "rib"; the chain starts at the leftmost rib node.
+pub fn rib_chain(model: &Model) -> Result<Vec<(usize, bool)>, StaticsError> {
+    let rib: Vec<usize> = (0..model.members.len()).filter(|&k| model.members[k].group == "rib").collect();
+    if rib.is_empty() {
+        return Err(StaticsError::invalid("thrust line", "the model has no members of group 'rib'"));
+    }
+    let mut degree = std::collections::HashMap::new();
+    for &k in &rib {
+        *degree.entry(model.members[k].start).or_insert(0) += 1;
+        *degree.entry(model.members[k].end).or_insert(0) += 1;
+    }
+    let start = degree
+        .iter()
+        .filter(|(_, d)| **d == 1)
+        .map(|(n, _)| *n)
+        .min_by(|a, b| model.nodes[*a].x.total_cmp(&model.nodes[*b].x))
+        .ok_or_else(|| StaticsError::invalid("thrust line", "the rib must be an open chain of members"))?;
+    let mut chain = Vec::new();
+    let mut used = vec![false; model.members.len()];
+    let mut at = start;
+    while let Some(&k) =
+        rib.iter().find(|&&k| !used[k] && (model.members[k].start == at || model.members[k].end == at))
+    {
+        used[k] = true;
+        let forward = model.members[k].start == at;
+        chain.push((k, forward));
+        at = if forward { model.members[k].end } else { model.members[k].start };
+    }
+    if chain.len() != rib.len() {
+        return Err(StaticsError::invalid("thrust line", "the rib members do not form one chain"));
+    }
+    Ok(chain)
+}
+
+/// Builds the thrust line of `case` on the rib `chain` (from [`rib_chain`]) of `model`,
+/// with section depth `depth` (m) for the checks.
+///
+/// Forces the rib receives at a rib node: the applied nodal load, the support reaction,
+/// and minus the end actions of every non-rib member there (posts, bracing, deck);
+/// loads along rib members enter as their resultants. Errors: no rib, a rib that is not
+/// a chain, a non-positive depth, or a section carrying no thrust (the offset is then
+/// undefined).
+pub fn thrust_line(
+    model: &Model,
+    case: &CaseResult,
+    chain: &[(usize, bool)],
+    depth: f64,
+) -> Result<ThrustLine, StaticsError> {
+    if !(depth.is_finite() && depth > 0.0) {
+        return Err(StaticsError::invalid("thrust line", format!("rib depth {depth} m must be positive")));
+    }
+    let lc = model.load_cases.iter().find(|l| l.name == case.name);
+    let is_rib = |k: usize| model.members[k].group == "rib";
+    let rib_nodes: Vec<usize> = {
+        let mut v = Vec::with_capacity(chain.len() + 1);
+        for (i, &(k, fwd)) in chain.iter().enumerate() {
+            let m = &model.members[k];
+            let (a, b) = if fwd { (m.start, m.end) } else { (m.end, m.start) };
+            if i == 0 {
+                v.push(a);
+            }
+            v.push(b);
+        }
+        v
+    };
+    let pos = |n: usize| (model.nodes[n].x, model.nodes[n].y);
+    // force and couple the rib receives at each rib node
+    let node_force = |n: usize| -> (f64, f64, f64) {
+        let (mut fx, mut fy, mut mz) = (0.0, 0.0, 0.0);
+        if let Some(lc) = lc {
+            for l in lc.nodal.iter().filter(|l| l.node == n) {
+                fx += l.fx;
+                fy += l.fy;
+                mz += l.mz;
+            }
+        }
+        if let Some(r) = case.reaction(n) {
+            fx += r.fx;
+            fy += r.fy;
+            mz += r.mz;
+        }
+        for (k, mf) in case.members.iter().enumerate() {
+            if is_rib(k) {
+                continue;
+            }
+            let m = &model.members[k];
+            let a = &mf.end_actions_global;
+            if m.start == n {
+                fx -= a[0];
+                fy -= a[1];
+                mz -= a[2];
+            }
+            if m.end == n {
+                fx -= a[3];
+                fy -= a[4];
+                mz -= a[5];
+            }
+        }
+        (fx, fy, mz)
+    };
+    // resultant of loads along rib member k: (Fx, Fy, moment about the origin)
+    let member_load = |k: usize| -> (f64, f64, f64) {
+        let Some(lc) = lc else { return (0.0, 0.0, 0.0) };
+        let m = &model.members[k];
+        let (p, q) = (pos(m.start), pos(m.end));
+        let g = crate::element::Geometry::new(p.0, p.1, q.0, q.1);
+        let (mut fx, mut fy, mut m0) = (0.0, 0.0, 0.0);
+        for ml in lc.member.iter().filter(|ml| ml.member() == k) {
+            let ll = crate::element::resolve_load(ml, &g);
+            let (gx, gy, about_start) = crate::element::load_resultant_global(&ll, &g);
+            fx += gx;
+            fy += gy;
+            m0 += about_start + p.0 * gy - p.1 * gx;
+        }
+        (fx, fy, m0)
+    };
+    // carry the resultant (Rx, Ry, moment about the origin) along the rib
+    let (mut rx, mut ry, mut m0) = (0.0, 0.0, 0.0);
+    let mut sections = Vec::with_capacity(rib_nodes.len());
+    let mut polygon = Vec::new();
+    let mut last_line: Option<((f64, f64), (f64, f64))> = None;
+    let mut push_line = |rx: f64, ry: f64, m0: f64, near: (f64, f64), polygon: &mut Vec<(f64, f64)>| {
+        // a point on the line of action: foot of the perpendicular from `near`
+        let r2 = rx * rx + ry * ry;
+        if r2 == 0.0 {
+            return;
+        }
+        let cross = near.0 * ry - near.1 * rx; // moment about the origin if applied at `near`
+        let d = (m0 - cross) / r2; // shift along the normal (-ry, rx)
+        let on = (near.0 - d * ry, near.1 + d * rx);
+        if let Some((p, r)) = last_line {
+            if let Some(x) = intersect(p, r, on, (rx, ry)) {
+                polygon.push(x);
+            }
+        } else {
+            polygon.push(on);
+        }
+        last_line = Some((on, (rx, ry)));
+    };
+    for (i, &n) in rib_nodes.iter().enumerate() {
+        let last = i + 1 == rib_nodes.len();
+        if i > 0 {
+            let (fx, fy, mm) = member_load(chain[i - 1].0);
+            rx += fx;
+            ry += fy;
+            m0 += mm;
+        }
+        // the section just left of the right springing uses the resultant so far
+        let (c, t) = if last {
+            let prev = rib_nodes[i - 1];
+            (pos(n), unit(pos(prev), pos(n)))
+        } else {
+            let (fx, fy, mz) = node_force(n);
+            let p = pos(n);
+            rx += fx;
+            ry += fy;
+            m0 += mz + p.0 * fy - p.1 * fx;
+            push_line(rx, ry, m0, p, &mut polygon);
+            (p, unit(p, pos(rib_nodes[i + 1])))
+        };
+        let thrust = rx * t.0 + ry * t.1;
+        if thrust.abs() <= f64::EPSILON * rx.hypot(ry).max(1.0) {
+            return Err(StaticsError::invalid(
+                format!("thrust line at node {}", model.node_label(n)),
+                "the rib carries no thrust there, so the centre of pressure is undefined",
+            ));
+        }
+        let m_c = m0 - (c.0 * ry - c.1 * rx);
+        let offset = -m_c / thrust;
+        let normal = (-t.1, t.0);
+        sections.push(PressurePoint {
+            node: n,
+            axis: c,
+            point: (c.0 + offset * normal.0, c.1 + offset * normal.1),
+            offset,
+            thrust,
+            moment: thrust * offset,
+        });
+        if last {
+            if let Some(s) = sections.last() {
+                polygon.push(s.point);
+            }
+        }
+    }
+    let (worst, max_offset) = sections
+        .iter()
+        .enumerate()
+        .map(|(i, s)| (i, s.offset.abs()))
+        .fold((0, 0.0), |a, b| if b.1 > a.1 { b } else { a });
+    Ok(ThrustLine {
+        case: case.name.clone(),
+        depth,
+        worst,
+        max_offset,
+        inside_middle_third: max_offset <= depth / 6.0,
+        inside_depth: max_offset <= depth / 2.0,
+        geometric_safety_factor: if max_offset > 0.0 { Some(depth / (2.0 * max_offset)) } else { None },
+        sections,
+        polygon,
+    })
+}
+
+fn unit(a: (f64, f64), b: (f64, f64)) -> (f64, f64) {
+    let (dx, dy) = (b.0 - a.0, b.1 - a.1);
+    let l = dx.hypot(dy);
+    (dx / l, dy / l)
+}
+
+/// Intersection of the lines p + s r and q + t d; `None` when (nearly) parallel.
+fn intersect(p: (f64, f64), r: (f64, f64), q: (f64, f64), d: (f64, f64)) -> Option<(f64, f64)> {
+    let den = r.0 * d.1 - r.1 * d.0;
+    if den.abs() < 1e-12 * r.0.hypot(r.1) * d.0.hypot(d.1) {
+        return None;
+    }
+    let s = ((q.0 - p.0) * d.1 - (q.1 - p.1) * d.0) / den;
+    Some((p.0 + s * r.0, p.1 + s * r.1))
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::solver::solve;
+
+    fn check_moments(model: &Model, depth: f64) -> Vec<ThrustLine> {
+        let s = solve(model).expect("stable");
+        let chain = rib_chain(model).expect("rib");
+        let mut out = Vec::new();
+        for case in &s.cases {
+            let tl = thrust_line(model, case, &chain, depth).expect("thrust line");
+            let mut mmax: f64 = 0.0;
+            let mut solver_m = Vec::new();
+            for (i, sec) in tl.sections.iter().enumerate() {
+                let m = if i < chain.len() {
+                    let (k, fwd) = chain[i];
+                    let mf = &case.members[k];
+                    if fwd {
+                        mf.start.m
+                    } else {
+                        -mf.end.m
+                    }
+                } else {
+                    let (k, fwd) = chain[i - 1];
+                    let mf = &case.members[k];
+                    if fwd {
+                        mf.end.m
+                    } else {
+                        -mf.start.m
+                    }
+                };
+                mmax = mmax.max(m.abs());
+                solver_m.push((m, sec.moment));
+            }
+            for (m, from_line) in solver_m {
+                assert!((m - from_line).abs() <= 1e-6 * mmax.max(1e-9), "{m} vs {from_line}");
+            }
+            out.push(tl);
+        }
+        out
+    }
+
+    #[test]
+    fn frame_deck_arch_of_the_reference_set_has_n_e_equal_to_m() {
+        let text = include_str!("../../../tests/reference/models/frame_deck_arch.json");
+        let m: Model = serde_json::from_str(text).expect("model");
+        let lines = check_moments(&m, 1.5);
+        assert!(!lines.is_empty());
+    }
+
+    #[test]
+    fn fixed_bare_rib_of_the_reference_set_has_n_e_equal_to_m() {
+        let text = include_str!("../../../tests/reference/models/bare_rib.json");
+        let m: Model = serde_json::from_str(text).expect("model");
+        check_moments(&m, 1.0);
+    }
+}
