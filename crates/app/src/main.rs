@@ -1,0 +1,5 @@
+//! Springline in the browser.
+fn main() {
+    console_error_panic_hook::set_once();
+    leptos::mount::mount_to_body(|| leptos::view! { <p>"Springline"</p> });
+}
