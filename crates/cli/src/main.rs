@@ -10,6 +10,10 @@ springline: concept design of deck-arch bridges (results are for concept design 
 local codes and a licensed engineer govern)
 
 usage:
+  springline demo                        print the demo design (JSON)
+  springline analyze DESIGN.json         form finding + dead-load analysis of a design (JSON)
+  springline model DESIGN.json [--truss|--rib]
+                                         export a generated model (frame by default) as neutral JSON
   springline solve MODEL.json            solve a neutral analysis model, print results JSON
   springline help                        this text
 ";
@@ -17,6 +21,9 @@ usage:
 fn main() -> ExitCode {
     let args: Vec<String> = std::env::args().skip(1).collect();
     let result = match args.first().map(String::as_str) {
+        Some("demo") => commands::demo::run(&args[1..]),
+        Some("analyze") => commands::analyze::run(&args[1..]),
+        Some("model") => commands::model::run(&args[1..]),
         Some("solve") => commands::solve::run(&args[1..]),
         Some("help") | Some("--help") | Some("-h") | None => {
             print!("{USAGE}");

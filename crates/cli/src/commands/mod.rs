@@ -1,5 +1,8 @@
 //! One file per subcommand.
 
+pub mod analyze;
+pub mod demo;
+pub mod model;
 pub mod solve;
 
 use anyhow::Context;
@@ -30,7 +33,24 @@ pub fn read_text(path: &str) -> anyhow::Result<String> {
 }
 
 /// Prints a value as pretty JSON on standard output.
+/// A closed pipe (for example `| head`) is not an error.
 pub fn print_json<T: Serialize>(value: &T) -> anyhow::Result<()> {
-    println!("{}", serde_json::to_string_pretty(value)?);
-    Ok(())
+    use std::io::Write;
+    let text = serde_json::to_string_pretty(value)?;
+    match writeln!(std::io::stdout().lock(), "{text}") {
+        Err(e) if e.kind() == std::io::ErrorKind::BrokenPipe => Ok(()),
+        other => Ok(other?),
+    }
+}
+
+/// Reads a design JSON file (`-` for standard input).
+pub fn read_design(path: &str) -> anyhow::Result<springline_statics::Design> {
+    let text = if path == "-" {
+        let mut s = String::new();
+        std::io::Read::read_to_string(&mut std::io::stdin(), &mut s)?;
+        s
+    } else {
+        read_text(path)?
+    };
+    serde_json::from_str(&text).with_context(|| format!("'{path}' is not a valid design file"))
 }
