@@ -1,0 +1,5 @@
+//! Small components, one concern each.
+
+pub mod canvases;
+pub mod controls;
+pub mod results;

@@ -1,0 +1,154 @@
+//! Numbers for people: unit systems and rounding. The engine works in SI; conversion
+//! happens here, at the screen edge, and nowhere else.
+
+/// A unit system for display and entry.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
+pub enum Units {
+    /// m, kN, kNm, kN/m2, MPa.
+    #[default]
+    Si,
+    /// ft, kip, kip-ft, ksf, ksi.
+    UsCustomary,
+}
+
+/// Kinds of quantity shown on screen.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Quantity {
+    /// m / ft.
+    Length,
+    /// kN / kip.
+    Force,
+    /// kNm / kip-ft.
+    Moment,
+    /// kN/m2 / ksf (area loads).
+    Pressure,
+    /// kN/m / kip/ft.
+    LineLoad,
+    /// kN/m2 (E) shown as GPa / ksi.
+    Modulus,
+    /// m2 / in2.
+    Area,
+    /// m4 / in4.
+    Inertia,
+    /// kN/m3 / pcf.
+    UnitWeight,
+    /// Plain number.
+    Count,
+    /// Degrees.
+    Angle,
+}
+
+/// 1 kip = 4.4482216152605 kN (exact by definition of the pound-force and the pound).
+pub const KN_PER_KIP: f64 = 4.448_221_615_260_5;
+/// 1 ft = 0.3048 m (exact).
+pub const M_PER_FT: f64 = 0.3048;
+
+impl Units {
+    /// (factor from SI, unit label): shown value = SI value * factor.
+    pub fn of(self, q: Quantity) -> (f64, &'static str) {
+        match (self, q) {
+            (Units::Si, Quantity::Length) => (1.0, "m"),
+            (Units::Si, Quantity::Force) => (1.0, "kN"),
+            (Units::Si, Quantity::Moment) => (1.0, "kNm"),
+            (Units::Si, Quantity::Pressure) => (1.0, "kN/m²"),
+            (Units::Si, Quantity::LineLoad) => (1.0, "kN/m"),
+            (Units::Si, Quantity::Modulus) => (1e-6, "GPa"),
+            (Units::Si, Quantity::Area) => (1.0, "m²"),
+            (Units::Si, Quantity::Inertia) => (1.0, "m⁴"),
+            (Units::Si, Quantity::UnitWeight) => (1.0, "kN/m³"),
+            (Units::UsCustomary, Quantity::Length) => (1.0 / M_PER_FT, "ft"),
+            (Units::UsCustomary, Quantity::Force) => (1.0 / KN_PER_KIP, "kip"),
+            (Units::UsCustomary, Quantity::Moment) => (1.0 / (KN_PER_KIP * M_PER_FT), "kip·ft"),
+            (Units::UsCustomary, Quantity::Pressure) => (M_PER_FT * M_PER_FT / KN_PER_KIP, "ksf"),
+            (Units::UsCustomary, Quantity::LineLoad) => (M_PER_FT / KN_PER_KIP, "kip/ft"),
+            (Units::UsCustomary, Quantity::Modulus) => ((0.0254 * 0.0254) / KN_PER_KIP, "ksi"),
+            (Units::UsCustomary, Quantity::Area) => (1.0 / (0.0254 * 0.0254), "in²"),
+            (Units::UsCustomary, Quantity::Inertia) => (1.0 / 0.0254f64.powi(4), "in⁴"),
+            (Units::UsCustomary, Quantity::UnitWeight) => (M_PER_FT.powi(3) / KN_PER_KIP * 1000.0, "pcf"),
+            (_, Quantity::Count) => (1.0, ""),
+            (_, Quantity::Angle) => (1.0, "°"),
+        }
+    }
+    /// The SI value shown as a number in this system.
+    pub fn to_shown(self, q: Quantity, si: f64) -> f64 {
+        si * self.of(q).0
+    }
+    /// A number typed in this system, back to SI.
+    pub fn to_si(self, q: Quantity, shown: f64) -> f64 {
+        shown / self.of(q).0
+    }
+    /// Unit label.
+    pub fn label(self, q: Quantity) -> &'static str {
+        self.of(q).1
+    }
+    /// The value with its unit, rounded for reading: `12 345 kN`, `97.50 m`.
+    pub fn show(self, q: Quantity, si: f64) -> String {
+        let v = self.to_shown(q, si);
+        let unit = self.label(q);
+        let n = round_for_display(v);
+        if unit.is_empty() {
+            n
+        } else if unit == "°" {
+            format!("{n}°")
+        } else {
+            format!("{n}\u{a0}{unit}")
+        }
+    }
+}
+
+/// Four significant figures, at most three decimals, digit groups of three separated by
+/// a thin space; "0" for exact zero; "−" (minus sign) for negatives.
+pub fn round_for_display(v: f64) -> String {
+    if !v.is_finite() {
+        return "—".into();
+    }
+    if v == 0.0 {
+        return "0".into();
+    }
+    let mag = v.abs().log10().floor() as i32;
+    let decimals = (3 - mag).clamp(0, 3) as usize;
+    let s = format!("{:.*}", decimals, v.abs());
+    let (int, frac) = match s.split_once('.') {
+        Some((i, f)) => (i.to_string(), Some(f.to_string())),
+        None => (s.clone(), None),
+    };
+    let mut grouped = String::new();
+    for (k, c) in int.chars().enumerate() {
+        if k > 0 && (int.len() - k) % 3 == 0 {
+            grouped.push('\u{2009}');
+        }
+        grouped.push(c);
+    }
+    let sign = if v < 0.0 && s.chars().any(|c| c.is_ascii_digit() && c != '0') { "−" } else { "" };
+    match frac {
+        Some(f) => format!("{sign}{grouped}.{f}"),
+        None => format!("{sign}{grouped}"),
+    }
+}
+
+/// Parses a number shown by `round_for_display` (for tests and copy-paste).
+pub fn parse_display(text: &str) -> Option<f64> {
+    let t: String = text.chars().filter(|c| !matches!(c, '\u{2009}' | '\u{a0}' | ' ')).collect();
+    t.replace('−', "-").parse().ok()
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn display_rounding_keeps_four_figures_and_groups_digits() {
+        assert_eq!(round_for_display(12345.678), "12\u{2009}346");
+        assert_eq!(round_for_display(97.5), "97.50");
+        assert_eq!(round_for_display(-0.012345), "−0.012");
+        assert_eq!(parse_display(&round_for_display(-4321.4)), Some(-4321.0));
+    }
+
+    #[test]
+    fn us_customary_factors_match_definitions() {
+        // 1 kip = 4.448 kN and 1 ft = 0.3048 m (NIST SP 811, appendix B)
+        assert!((Units::UsCustomary.to_shown(Quantity::Force, KN_PER_KIP) - 1.0).abs() < 1e-12);
+        assert!((Units::UsCustomary.to_shown(Quantity::Length, 0.3048) - 1.0).abs() < 1e-12);
+        assert!((Units::UsCustomary.to_si(Quantity::Moment, 1.0) - KN_PER_KIP * 0.3048).abs() < 1e-12);
+    }
+}

@@ -1,0 +1,82 @@
+//! The app's state: one design signal (the last good design), the analysis derived from it,
+//! and what the pointer is over. Plain data and small helpers, shared through context.
+
+use crate::format::Units;
+use leptos::prelude::*;
+use springline_statics::{analyze, Analysis, Design};
+use std::sync::Arc;
+
+/// The analysis of the current design, or why there is none.
+pub type Outcome = Result<Arc<Analysis>, String>;
+
+/// The member of the truss idealisation under the pointer, in either canvas.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub struct Hovered(pub Option<usize>);
+
+/// Everything the components share.
+#[derive(Clone, Copy)]
+pub struct AppState {
+    /// The last good design: only designs that analyse are ever stored here.
+    pub design: RwSignal<Design>,
+    /// Its analysis, memoised.
+    pub analysis: Memo<Outcome>,
+    /// The truss member under the pointer.
+    pub hovered: RwSignal<Hovered>,
+    /// Display units.
+    pub units: RwSignal<Units>,
+    /// Bumped when the window is resized, so canvases redraw.
+    pub resized: RwSignal<u32>,
+}
+
+impl AppState {
+    /// State holding `design`.
+    pub fn new(design: Design) -> Self {
+        let design = RwSignal::new(design);
+        let analysis = Memo::new(move |_| design.with(|d| analyze(d).map(Arc::new).map_err(|e| e.to_string())));
+        AppState {
+            design,
+            analysis,
+            hovered: RwSignal::new(Hovered(None)),
+            units: RwSignal::new(Units::Si),
+            resized: RwSignal::new(0),
+        }
+    }
+
+    /// Applies `edit` to a copy of the design and keeps it only if it analyses; otherwise
+    /// returns the engine's message and leaves the design (and the screen) as it was.
+    pub fn try_edit(&self, edit: impl FnOnce(&mut Design)) -> Result<(), String> {
+        let mut candidate = self.design.get_untracked();
+        edit(&mut candidate);
+        match analyze(&candidate) {
+            Ok(_) => {
+                self.design.set(candidate);
+                Ok(())
+            }
+            Err(e) => Err(e.to_string()),
+        }
+    }
+}
+
+/// Parses a number typed by a user: accepts a decimal point or comma, spaces as digit
+/// groups, and rejects anything non-finite.
+pub fn parse_number(text: &str) -> Result<f64, String> {
+    let cleaned: String = text.trim().chars().filter(|c| !c.is_whitespace() && *c != '\u{202f}').collect();
+    let cleaned = cleaned.replace(',', ".");
+    match cleaned.parse::<f64>() {
+        Ok(v) if v.is_finite() => Ok(v),
+        _ => Err(format!("'{}' is not a number", text.trim())),
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn parse_number_accepts_commas_and_rejects_text() {
+        assert_eq!(parse_number(" 12,5 "), Ok(12.5));
+        assert_eq!(parse_number("1 200"), Ok(1200.0));
+        assert!(parse_number("abc").is_err());
+        assert!(parse_number("inf").is_err());
+    }
+}
