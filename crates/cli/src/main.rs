@@ -12,6 +12,8 @@ local codes and a licensed engineer govern)
 usage:
   springline demo                        print the demo design (JSON)
   springline analyze DESIGN.json         form finding + dead-load analysis of a design (JSON)
+  springline analyze --link LINK         the same for the design in a permalink (URL or '#s1...', quoted)
+  springline link DESIGN.json            print the permalink fragment ('#s1...') of a design
   springline model DESIGN.json [--truss|--rib]
                                          export a generated model (frame by default) as neutral JSON
   springline solve MODEL.json            solve a neutral analysis model, print results JSON
@@ -23,6 +25,7 @@ fn main() -> ExitCode {
     let result = match args.first().map(String::as_str) {
         Some("demo") => commands::demo::run(&args[1..]),
         Some("analyze") => commands::analyze::run(&args[1..]),
+        Some("link") => commands::link::run(&args[1..]),
         Some("model") => commands::model::run(&args[1..]),
         Some("solve") => commands::solve::run(&args[1..]),
         Some("help") | Some("--help") | Some("-h") | None => {

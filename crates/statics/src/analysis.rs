@@ -1,15 +1,22 @@
 //! From a design to an analysed deck arch: validation, form finding, the generated models
-//! and their dead-load solutions, in one serialisable result.
+//! and their solutions for the dead load and the standard extra cases
+//! (`cases::standard_cases`), and per load case the force diagram of the truss
+//! idealisation, the pole construction of the rib and the thrust line of the frame
+//! model's rib, in one serialisable result.
 //!
 //! Results are for concept design only; local codes and a licensed engineer govern.
 
-use crate::design::{Design, Warning};
+use crate::cases::{add_cases, standard_cases};
+use crate::design::{Design, RibSystem, Warning};
 use crate::determinacy::{truss_determinacy, Determinacy, DeterminacyReport};
 use crate::error::StaticsError;
 use crate::form::{checked_form, Form};
+use crate::funicular::{rib_funicular, RibFunicular};
 use crate::generate::{bare_rib_model, frame_model, restraint, truss_model, Restraint, DEAD};
 use crate::model::Model;
+use crate::reciprocal::{force_diagram, ForceDiagram};
 use crate::solver::{solve, Solution};
+use crate::thrust_line::{rib_chain, thrust_line, ThrustLine};
 use serde::Serialize;
 
 /// Units of every number in an `Analysis`.
@@ -24,14 +31,15 @@ thrust H is the horizontal compression of the rib, positive";
 /// The caution shown with every result.
 pub const CAUTION: &str = "concept-design results; local codes and a licensed engineer govern";
 
-/// One generated model with its dead-load solution.
+/// One generated model with its solutions.
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct ModelResult {
     /// Which model this is ("frame model", "truss idealisation", "bare rib").
     pub name: String,
     /// The generated model (its title says which model it is).
     pub model: Model,
-    /// Solution of the dead load case.
+    /// Solution of every load case of `model`: "dead" first, then the standard extra
+    /// cases in the order of `Analysis::load_cases`.
     pub solution: Solution,
     /// Notes for the screen (restraint, drop-in, what is left out).
     pub notes: Vec<String>,
@@ -48,7 +56,7 @@ pub struct TrussResult {
     pub determinacy: DeterminacyReport,
     /// The determinacy in words.
     pub determinacy_text: String,
-    /// Dead-load solution (`None` when the truss is a mechanism).
+    /// Solution of every load case, "dead" first (`None` when the truss is a mechanism).
     pub solution: Option<Solution>,
     /// Largest |N| of a bracing diagonal over the largest |N| of any member under dead
     /// load (0 on the funicular of a determinate layout).
@@ -110,6 +118,29 @@ pub struct Analysis {
     pub bare_rib: ModelResult,
     /// Residual rib moments of the frame model under dead load.
     pub residual_rib_moments: RibMoments,
+    /// Per load case ("dead" first, then the standard extra cases): the force diagram,
+    /// the rib's pole construction and the thrust line.
+    pub load_cases: Vec<CaseFigures>,
+}
+
+/// The figures of one load case, each from the model it is exact for.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct CaseFigures {
+    /// Load case name (the same in every model).
+    pub case: String,
+    /// What the case is.
+    pub description: String,
+    /// Reciprocal figure of the truss idealisation (braced designs; `None` otherwise or
+    /// when it cannot be drawn, with the reason in `notes`).
+    pub force_diagram: Option<ForceDiagram>,
+    /// Pole and funicular of the bare rib under this case's loads carried down to the rib
+    /// nodes: the three-point construction for a three-hinged rib, the pole from the
+    /// solved reactions otherwise.
+    pub rib_funicular: Option<RibFunicular>,
+    /// Thrust line of the frame model's rib (checked with the rib section depth).
+    pub thrust_line: Option<ThrustLine>,
+    /// Which model each figure belongs to, and why a figure is missing.
+    pub notes: Vec<String>,
 }
 
 /// Validates the design, finds its form on the "panel loads" basis, generates the frame
@@ -121,7 +152,9 @@ pub struct Analysis {
 pub fn analyze(design: &Design) -> Result<Analysis, StaticsError> {
     let (warnings, form) = checked_form(design)?;
     let rs = restraint(design, &form);
-    let frame = frame_model(design, &form)?;
+    let specs = standard_cases(design)?;
+    let mut frame = frame_model(design, &form)?;
+    add_cases(design, &form, &mut frame, &specs)?;
     let frame_solution = solve(&frame)?;
     let mut frame_notes = vec![format!("longitudinal restraint: {}", rs.description)];
     if design.rib_system == crate::design::RibSystem::ThreeHinged {
@@ -133,10 +166,12 @@ pub fn analyze(design: &Design) -> Result<Analysis, StaticsError> {
     }
     frame_notes.push(format!("form basis: {}", form.basis));
     let residual = rib_moments(&frame, &frame_solution, &form);
-    let rib = bare_rib_model(design, &form)?;
+    let mut rib = bare_rib_model(design, &form)?;
+    add_cases(design, &form, &mut rib, &specs)?;
     let rib_solution = solve(&rib)?;
     let truss = if design.bracing.is_braced() {
-        let model = truss_model(design, &form)?;
+        let mut model = truss_model(design, &form)?;
+        add_cases(design, &form, &mut model, &specs)?;
         let determinacy = truss_determinacy(&model)?;
         let (solution, bracing_ratio) = if matches!(determinacy.determinacy, Determinacy::Mechanism { .. }) {
             (None, None)
@@ -168,6 +203,28 @@ pub fn analyze(design: &Design) -> Result<Analysis, StaticsError> {
     } else {
         None
     };
+    let mut descriptions = vec![(
+        DEAD.to_string(),
+        "dead load: deck, surfacing and self-weight (the form-finding load)".to_string(),
+    )];
+    descriptions.extend(specs.iter().map(|s| (s.name.clone(), s.description.clone())));
+    let truss_parts = truss.as_ref().and_then(|t| t.solution.as_ref().map(|s| (&t.model, s)));
+    let load_cases = descriptions
+        .into_iter()
+        .map(|(name, description)| {
+            case_figures(
+                design,
+                &form,
+                &name,
+                description,
+                &frame,
+                &frame_solution,
+                truss_parts,
+                &rib,
+                &rib_solution,
+            )
+        })
+        .collect();
     Ok(Analysis {
         design: design.name.clone(),
         units: UNITS.into(),
@@ -193,7 +250,121 @@ pub fn analyze(design: &Design) -> Result<Analysis, StaticsError> {
             ],
         },
         residual_rib_moments: residual,
+        load_cases,
     })
+}
+
+/// The figures of load case `name` from the solved models of an analysis.
+#[allow(clippy::too_many_arguments)]
+fn case_figures(
+    design: &Design,
+    form: &Form,
+    name: &str,
+    description: String,
+    frame: &Model,
+    frame_solution: &Solution,
+    truss: Option<(&Model, &Solution)>,
+    rib: &Model,
+    rib_solution: &Solution,
+) -> CaseFigures {
+    let mut notes = Vec::new();
+    let force_diagram = match truss {
+        None if !design.bracing.is_braced() => {
+            notes.push(
+                "no force diagram: the spandrels are not braced, so there is no truss idealisation".into(),
+            );
+            None
+        }
+        None => {
+            notes.push("no force diagram: the truss idealisation is a mechanism".into());
+            None
+        }
+        Some((model, solution)) => match solution.case(name).map(|c| force_diagram(model, c)) {
+            Some(Ok(fd)) => {
+                notes.push(
+                    "force diagram: reciprocal figure of the truss idealisation (every joint pinned), exact for \
+                     that model; the frame model's rib bends, so read it with the thrust line"
+                        .into(),
+                );
+                Some(fd)
+            }
+            Some(Err(e)) => {
+                notes.push(format!("no force diagram: {e}"));
+                None
+            }
+            None => None,
+        },
+    };
+    let ends = |model: &Model| -> Option<(usize, usize)> {
+        let chain = rib_chain(model).ok()?;
+        let first = chain.first()?;
+        let last = chain.last()?;
+        let node = |(k, fwd): (usize, bool), start: bool| {
+            let m = &model.members[k];
+            if fwd == start {
+                m.start
+            } else {
+                m.end
+            }
+        };
+        Some((node(*first, true), node(*last, false)))
+    };
+    let rib_funicular = match (rib_solution.case(name), ends(rib)) {
+        (Some(case), Some((left, right))) => {
+            let crown = if design.rib_system == RibSystem::ThreeHinged {
+                rib.nodes.iter().position(|n| {
+                    (n.x - form.crown.x).abs() <= 1e-9 * form.span
+                        && (n.y - form.crown.y).abs() <= 1e-9 * form.span
+                })
+            } else {
+                None
+            };
+            match rib_funicular(rib, case, left, right, crown) {
+                Ok(f) => {
+                    notes.push(if crown.is_some() {
+                        "rib funicular: three-point construction through both springings and the crown hinge \
+                     (statics alone), bare rib loads"
+                            .into()
+                    } else {
+                        "rib funicular: pole from the bare rib's solved springing reactions (the rib is not \
+                     three-hinged, so no three-point construction holds)"
+                            .into()
+                    });
+                    Some(f)
+                }
+                Err(e) => {
+                    notes.push(format!("no rib funicular: {e}"));
+                    None
+                }
+            }
+        }
+        _ => None,
+    };
+    let thrust = match (frame_solution.case(name), rib_chain(frame)) {
+        (Some(case), Ok(chain)) => match thrust_line(frame, case, &chain, design.groups.rib.depth) {
+            Ok(t) => {
+                notes.push(format!(
+                    "thrust line: from the forces the frame model's rib receives and its springing reactions; \
+                     checked at the rib nodes with the rib depth {} m",
+                    design.groups.rib.depth
+                ));
+                Some(t)
+            }
+            Err(e) => {
+                notes.push(format!("no thrust line: {e}"));
+                None
+            }
+        },
+        _ => None,
+    };
+    CaseFigures {
+        case: name.to_string(),
+        description,
+        force_diagram,
+        rib_funicular,
+        thrust_line: thrust,
+        notes,
+    }
 }
 
 /// Largest |N| of the "bracing" members over the largest |N| of any member, first load

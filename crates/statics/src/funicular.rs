@@ -18,6 +18,8 @@
 //! returned here are the forces the supports apply to the arch, y up.
 
 use crate::error::StaticsError;
+use crate::model::Model;
+use crate::solver::CaseResult;
 use serde::{Deserialize, Serialize};
 
 /// Loads closer than this fraction of the span to a support are still "inside" (round-off
@@ -248,6 +250,178 @@ pub fn pole_construction(
     Ok(PoleConstruction { load_line, pole, rays, polygon, horizontal_split: -v_a, closing_split })
 }
 
+/// How the pole of a rib's funicular was placed.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum FunicularMethod {
+    /// The three-point construction through both springings and the crown point, from
+    /// the loads alone (statics; exact for a three-hinged arch or truss).
+    ThreePoint,
+    /// The pole placed from the springing reactions of a stiffness solution (H, V_A and,
+    /// for a fixed springing, M_A): the line of pressure of that solution.
+    SolvedReactions,
+}
+
+/// Springing reactions of a stiffness solution, kN (forces the supports apply, y up).
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
+pub struct SolvedReactions {
+    /// Horizontal reaction at the left springing, kN (the thrust H when positive).
+    pub h: f64,
+    /// Vertical reaction at the left springing, kN.
+    pub v_a: f64,
+    /// Vertical reaction at the right springing, kN.
+    pub v_b: f64,
+}
+
+/// Pole and funicular of one load case on a rib (or on a structure acting as an arch):
+/// load line, pole, rays, polygon and both split points.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct RibFunicular {
+    /// Load case name.
+    pub case: String,
+    /// Title of the model whose loads were used.
+    pub model: String,
+    /// How the pole was placed.
+    pub method: FunicularMethod,
+    /// Left springing, m.
+    pub springing_left: Point,
+    /// Right springing, m.
+    pub springing_right: Point,
+    /// The crown point the three-point construction passes through, m.
+    pub crown: Option<Point>,
+    /// The vertical loads, left to right (x m, p kN positive down): the load line.
+    pub loads: Vec<VerticalLoad>,
+    /// Load line, pole, rays and funicular polygon (force-diagram coordinates as
+    /// `PoleConstruction` says: load line down from 0, pole at (-H, -V_A)).
+    pub construction: PoleConstruction,
+    /// The pole distance H, kN.
+    pub thrust: f64,
+    /// (V_A, V_B), kN up: the load line split by the horizontal through the pole.
+    pub vertical_reactions: (f64, f64),
+    /// (R_A, R_B), kN up: the load line split by the ray parallel to the closing string
+    /// (the springing chord for hinged springings): the simple-beam reactions.
+    pub beam_reactions: (f64, f64),
+    /// The stiffness solution's springing reactions for the same model and case, for
+    /// comparison (`None` when the springings carry no reaction in the results).
+    pub solver: Option<SolvedReactions>,
+}
+
+/// The vertical loads of load case `case_name` of `model` (kN positive down, at the x of
+/// their nodes), left to right. Errors: the case does not exist, or it has horizontal
+/// loads, couples or loads along members (the pole construction here is for vertical
+/// point loads).
+pub fn vertical_loads(model: &Model, case_name: &str) -> Result<Vec<VerticalLoad>, StaticsError> {
+    let lc = model
+        .load_cases
+        .iter()
+        .find(|l| l.name == case_name)
+        .ok_or_else(|| invalid("load case", format!("the model has no load case '{case_name}'")))?;
+    if !lc.member.is_empty() || !lc.temperature.is_empty() || !lc.prescribed.is_empty() {
+        return Err(invalid(
+            "load case",
+            format!("'{case_name}' has member, temperature or displacement loads; the pole construction needs vertical loads at nodes"),
+        ));
+    }
+    let mut loads = Vec::with_capacity(lc.nodal.len());
+    for l in &lc.nodal {
+        let n = model.nodes.get(l.node).ok_or_else(|| {
+            invalid("load case", format!("a load acts on node {} which does not exist", l.node))
+        })?;
+        if l.fx != 0.0 || l.mz != 0.0 {
+            return Err(invalid(
+                "load case",
+                format!("'{case_name}' has a horizontal load or a couple at node {}; the pole construction needs vertical loads", model.node_label(l.node)),
+            ));
+        }
+        if l.fy != 0.0 {
+            loads.push(VerticalLoad { x: n.x, p: -l.fy });
+        }
+    }
+    loads.sort_by(|p, q| p.x.total_cmp(&q.x));
+    Ok(loads)
+}
+
+/// Pole and funicular of load case `case` (solved on `model`) for an arch springing from
+/// nodes `left` and `right`.
+///
+/// With `crown = Some(node)`: the three-point construction (`three_point`) through both
+/// springings and that node, from the loads alone: H = M(x_C) / f; the pole at
+/// (-H, -V_A). This is exact for a three-hinged rib, or a determinate three-hinged truss,
+/// whose hinge is at that node. With `crown = None`: the pole from the solved reactions
+/// (H = horizontal reaction at `left`, V_A its vertical one), the polygon starting at the
+/// level y_A - M_A / H where the reaction's line of action crosses the springing vertical.
+///
+/// Both split points are reported as reactions: the horizontal through the pole gives
+/// (V_A, V_B); the ray parallel to the closing string gives the simple-beam reactions
+/// (R_A, R_B); for hinged springings at different levels they differ by
+/// H (y_B - y_A) / L (DESIGN.md, "Funicular form"). The stiffness solution's reactions are
+/// attached for comparison. Units m, kN.
+///
+/// Errors: nodes that do not exist, `right` not to the right of `left`, loads that are not
+/// vertical point loads at nodes or lie outside the span, a crown that admits no
+/// compression funicular, or (solved reactions) a springing without a positive thrust.
+pub fn rib_funicular(
+    model: &Model,
+    case: &CaseResult,
+    left: usize,
+    right: usize,
+    crown: Option<usize>,
+) -> Result<RibFunicular, StaticsError> {
+    let node = |k: usize| -> Result<Point, StaticsError> {
+        model
+            .nodes
+            .get(k)
+            .map(|n| Point { x: n.x, y: n.y })
+            .ok_or_else(|| invalid("funicular", format!("node {k} does not exist")))
+    };
+    let (a, b) = (node(left)?, node(right)?);
+    let l = check_span(a, b)?;
+    let loads = vertical_loads(model, &case.name)?;
+    check_loads(a, l, &loads)?;
+    let solver = match (case.reaction(left), case.reaction(right)) {
+        (Some(ra), Some(rb)) => Some(SolvedReactions { h: ra.fx, v_a: ra.fy, v_b: rb.fy }),
+        _ => None,
+    };
+    let total: f64 = loads.iter().map(|q| q.p).sum();
+    let (method, crown_point, h, v_a, start) = match crown {
+        Some(c) => {
+            let cp = node(c)?;
+            let rise = cp.y - (a.y + (b.y - a.y) * (cp.x - a.x) / l);
+            let tp = three_point(a, b, cp.x, rise, &loads)?;
+            (FunicularMethod::ThreePoint, Some(cp), tp.thrust, tp.reaction_a, a)
+        }
+        None => {
+            let r = case.reaction(left).ok_or_else(|| {
+                invalid("funicular", "the left springing has no reaction in the results".into())
+            })?;
+            if !(r.fx.is_finite() && r.fx > 0.0) {
+                return Err(invalid(
+                    "funicular",
+                    format!("the left springing thrust is {:.3e} kN; a pole needs a positive thrust", r.fx),
+                ));
+            }
+            let start = Point { x: a.x, y: a.y - r.mz / r.fx };
+            (FunicularMethod::SolvedReactions, None, r.fx, r.fy, start)
+        }
+    };
+    let construction = pole_construction(&loads, h, v_a, start, b.x)?;
+    let r_a = -construction.closing_split;
+    Ok(RibFunicular {
+        case: case.name.clone(),
+        model: model.title.clone(),
+        method,
+        springing_left: a,
+        springing_right: b,
+        crown: crown_point,
+        loads,
+        thrust: h,
+        vertical_reactions: (v_a, total - v_a),
+        beam_reactions: (r_a, total - r_a),
+        solver,
+        construction,
+    })
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -293,6 +467,36 @@ mod tests {
         assert!(three_point(b, a, 5.0, 2.0, &[VerticalLoad { x: 5.0, p: 1.0 }]).is_err());
         assert!(three_point(a, b, 5.0, f64::NAN, &[VerticalLoad { x: 5.0, p: 1.0 }]).is_err());
         assert!(three_point(a, b, 5.0, 1.0, &[VerticalLoad { x: 5.0, p: -1.0 }]).is_err());
+    }
+
+    #[test]
+    fn rib_funicular_rejects_loads_it_cannot_draw() {
+        // a horizontal load, a missing node, a springing pair in the wrong order
+        use crate::model::{frame, LoadCase, NodalLoad, Support};
+        let mut m = Model::default();
+        for (x, y) in [(0.0, 0.0), (5.0, 4.0), (10.0, 0.0)] {
+            m.add_node("", x, y);
+        }
+        let mut left = frame("", "rib", 0, 1, 2e8, 0.1, 0.01);
+        left.release_end = true;
+        m.add_member(left);
+        m.add_member(frame("", "rib", 1, 2, 2e8, 0.1, 0.01));
+        m.supports = vec![Support::pinned(0), Support::pinned(2)];
+        m.load_cases = vec![LoadCase {
+            name: "p".into(),
+            nodal: vec![NodalLoad { node: 1, fx: 0.0, fy: -10.0, mz: 0.0 }],
+            ..Default::default()
+        }];
+        let s = crate::solver::solve(&m).expect("stable");
+        let f = rib_funicular(&m, &s.cases[0], 0, 2, Some(1)).expect("three-hinged triangle");
+        // crown load P on a three-hinged arch: H = P L / (4 f) (statics: moments about the
+        // crown of the right half, V_B = P / 2)
+        assert!((f.thrust - 10.0 * 10.0 / 16.0).abs() < 1e-12);
+        assert!(rib_funicular(&m, &s.cases[0], 2, 0, Some(1)).is_err());
+        assert!(rib_funicular(&m, &s.cases[0], 0, 9, Some(1)).is_err());
+        m.load_cases[0].nodal[0].fx = 1.0;
+        let s = crate::solver::solve(&m).expect("stable");
+        assert!(rib_funicular(&m, &s.cases[0], 0, 2, Some(1)).is_err());
     }
 
     #[test]

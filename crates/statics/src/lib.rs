@@ -41,3 +41,15 @@ pub use analysis::{analyze, Analysis};
 pub use design::{validate_design, Design, Warning};
 pub use form::{find_form, Form, LoadBasis, PanelLoads};
 pub use generate::{bare_rib_model, frame_model, truss_model};
+
+// The permalink codec (issue 6): a whole design in a URL fragment.
+pub mod permalink;
+
+pub use permalink::{decode as decode_link, encode as encode_link};
+
+// Force diagram and thrust line (issue 4): extra load cases for generated models.
+pub mod cases;
+pub use cases::{add_cases, build_case, standard_cases, CaseSpec, DeckLoad, Half};
+pub use funicular::{rib_funicular, FunicularMethod, RibFunicular};
+pub use reciprocal::{force_diagram, AxialSense, ForceDiagram, Segment, SegmentOf, Space, SpaceKind};
+pub use thrust_line::{rib_chain, thrust_line, PressurePoint, ThrustLine};

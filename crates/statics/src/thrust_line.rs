@@ -17,6 +17,11 @@ use crate::solver::CaseResult;
 use serde::{Deserialize, Serialize};
 
 /// The centre of pressure at one rib section.
+///
+/// Sign convention: `thrust` = -N (compression positive); `offset` e positive towards the
+/// extrados (up for a rib drawn left to right); `moment` = thrust x e, which equals the
+/// solver's bending moment M (sagging positive): a thrust line above the axis sags the
+/// rib, M = -N e.
 #[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
 pub struct PressurePoint {
     /// Rib node at the section.
@@ -40,6 +45,8 @@ pub struct PressurePoint {
 pub struct ThrustLine {
     /// Load case name.
     pub case: String,
+    /// Title of the model whose rib forces built the line (it belongs to that model).
+    pub model: String,
     /// The section depth the checks use, m.
     pub depth: f64,
     /// One section per rib node, left springing to right springing (just right of each
@@ -51,11 +58,15 @@ pub struct ThrustLine {
     pub worst: usize,
     /// Largest |offset|, m.
     pub max_offset: f64,
+    /// The least rib depth (symmetric about the axis) that contains the thrust line at
+    /// every section: 2 max |offset|, m.
+    pub least_depth: f64,
     /// True when |offset| <= depth / 6 everywhere (middle third).
     pub inside_middle_third: bool,
     /// True when |offset| <= depth / 2 everywhere.
     pub inside_depth: bool,
-    /// depth / (2 max |offset|); `None` when the line follows the axis exactly.
+    /// Geometric factor of safety: depth / least depth = depth / (2 max |offset|);
+    /// `None` when the line follows the axis exactly.
     pub geometric_safety_factor: Option<f64>,
 }
 
@@ -112,8 +123,26 @@ pub fn thrust_line(
     if !(depth.is_finite() && depth > 0.0) {
         return Err(StaticsError::invalid("thrust line", format!("rib depth {depth} m must be positive")));
     }
+    crate::solver::validate(model)?;
+    let nm = model.members.len();
+    if case.members.len() != nm || case.reactions.iter().any(|r| r.node >= model.nodes.len()) {
+        return Err(StaticsError::invalid(
+            "thrust line",
+            format!("the results of load case '{}' do not belong to this model", case.name),
+        ));
+    }
+    if chain.is_empty() || chain.iter().any(|&(k, _)| k >= nm) {
+        return Err(StaticsError::invalid(
+            "thrust line",
+            "the rib chain is empty or names a member that does not exist",
+        ));
+    }
+    let mut in_chain = vec![false; nm];
+    for &(k, _) in chain {
+        in_chain[k] = true;
+    }
     let lc = model.load_cases.iter().find(|l| l.name == case.name);
-    let is_rib = |k: usize| model.members[k].group == "rib";
+    let is_rib = |k: usize| in_chain[k];
     let rib_nodes: Vec<usize> = {
         let mut v = Vec::with_capacity(chain.len() + 1);
         for (i, &(k, fwd)) in chain.iter().enumerate() {
@@ -126,7 +155,11 @@ pub fn thrust_line(
         }
         v
     };
-    let pos = |n: usize| (model.nodes[n].x, model.nodes[n].y);
+    // moments are taken about the left springing (coordinates relative to it keep the
+    // sums small, so the difference that gives M loses no digits)
+    let origin = (model.nodes[rib_nodes[0]].x, model.nodes[rib_nodes[0]].y);
+    let pos = |n: usize| (model.nodes[n].x - origin.0, model.nodes[n].y - origin.1);
+    let abs = |p: (f64, f64)| (p.0 + origin.0, p.1 + origin.1);
     // force and couple the rib receives at each rib node
     let node_force = |n: usize| -> (f64, f64, f64) {
         let (mut fx, mut fy, mut mz) = (0.0, 0.0, 0.0);
@@ -180,12 +213,13 @@ pub fn thrust_line(
     // carry the resultant (Rx, Ry, moment about the origin) along the rib
     let (mut rx, mut ry, mut m0) = (0.0, 0.0, 0.0);
     let mut sections = Vec::with_capacity(rib_nodes.len());
-    let mut polygon = Vec::new();
+    // kinks of the line of pressure: where consecutive lines of action meet
+    let mut kinks = Vec::new();
     let mut last_line: Option<((f64, f64), (f64, f64))> = None;
-    let mut push_line = |rx: f64, ry: f64, m0: f64, near: (f64, f64), polygon: &mut Vec<(f64, f64)>| {
+    let mut push_line = |rx: f64, ry: f64, m0: f64, near: (f64, f64)| {
         // a point on the line of action: foot of the perpendicular from `near`
         let r2 = rx * rx + ry * ry;
-        if r2 == 0.0 {
+        if r2 == 0.0 || !r2.is_finite() {
             return;
         }
         let cross = near.0 * ry - near.1 * rx; // moment about the origin if applied at `near`
@@ -193,10 +227,8 @@ pub fn thrust_line(
         let on = (near.0 - d * ry, near.1 + d * rx);
         if let Some((p, r)) = last_line {
             if let Some(x) = intersect(p, r, on, (rx, ry)) {
-                polygon.push(x);
+                kinks.push(abs(x));
             }
-        } else {
-            polygon.push(on);
         }
         last_line = Some((on, (rx, ry)));
     };
@@ -218,7 +250,7 @@ pub fn thrust_line(
             rx += fx;
             ry += fy;
             m0 += mz + p.0 * fy - p.1 * fx;
-            push_line(rx, ry, m0, p, &mut polygon);
+            push_line(rx, ry, m0, p);
             (p, unit(p, pos(rib_nodes[i + 1])))
         };
         let thrust = rx * t.0 + ry * t.1;
@@ -233,17 +265,22 @@ pub fn thrust_line(
         let normal = (-t.1, t.0);
         sections.push(PressurePoint {
             node: n,
-            axis: c,
-            point: (c.0 + offset * normal.0, c.1 + offset * normal.1),
+            axis: abs(c),
+            point: abs((c.0 + offset * normal.0, c.1 + offset * normal.1)),
             offset,
             thrust,
             moment: thrust * offset,
         });
-        if last {
-            if let Some(s) = sections.last() {
-                polygon.push(s.point);
-            }
-        }
+    }
+    // the line of pressure: from the left springing section through the kinks to the
+    // right springing section
+    let mut polygon = Vec::with_capacity(kinks.len() + 2);
+    if let Some(s) = sections.first() {
+        polygon.push(s.point);
+    }
+    polygon.extend(kinks);
+    if let Some(s) = sections.last() {
+        polygon.push(s.point);
     }
     let (worst, max_offset) = sections
         .iter()
@@ -252,7 +289,9 @@ pub fn thrust_line(
         .fold((0, 0.0), |a, b| if b.1 > a.1 { b } else { a });
     Ok(ThrustLine {
         case: case.name.clone(),
+        model: model.title.clone(),
         depth,
+        least_depth: 2.0 * max_offset,
         worst,
         max_offset,
         inside_middle_third: max_offset <= depth / 6.0,
@@ -327,6 +366,38 @@ mod tests {
         let m: Model = serde_json::from_str(text).expect("model");
         let lines = check_moments(&m, 1.5);
         assert!(!lines.is_empty());
+    }
+
+    /// Regression: the line of pressure used to start at the foot of the perpendicular
+    /// from the left springing onto the first line of action, which for a fixed rib is
+    /// not on the springing section; it now starts and ends where the line crosses the
+    /// springing sections.
+    #[test]
+    fn polygon_starts_and_ends_on_the_springing_sections() {
+        let text = include_str!("../../../tests/reference/models/bare_rib.json");
+        let m: Model = serde_json::from_str(text).expect("model");
+        for tl in check_moments(&m, 1.0) {
+            assert_eq!(tl.polygon.first(), tl.sections.first().map(|s| &s.point));
+            assert_eq!(tl.polygon.last(), tl.sections.last().map(|s| &s.point));
+            // a fixed rib carries end moments: the line leaves the springing off the axis
+            assert!(tl.sections[0].offset.abs() > 0.0);
+        }
+    }
+
+    /// Regression: results of a different model (more members than the model) used to
+    /// index past the model's members and panic; now they are an error.
+    #[test]
+    fn results_of_another_model_are_an_error() {
+        let text = include_str!("../../../tests/reference/models/frame_deck_arch.json");
+        let m: Model = serde_json::from_str(text).expect("model");
+        let s = solve(&m).expect("stable");
+        let chain = rib_chain(&m).expect("rib");
+        let mut fewer = m.clone();
+        let last = fewer.members.len() - 1;
+        if chain.iter().all(|&(k, _)| k != last) {
+            fewer.members.pop();
+            assert!(thrust_line(&fewer, &s.cases[0], &chain, 1.0).is_err());
+        }
     }
 
     #[test]

@@ -2,6 +2,7 @@
 
 pub mod analyze;
 pub mod demo;
+pub mod link;
 pub mod model;
 pub mod solve;
 

@@ -1,0 +1,354 @@
+//! Extra load cases for the generated models of a design: a deck load on part of the
+//! span (half-span live load) and a heavier panel, added alongside the dead load.
+//!
+//! Generated models carry one case, "dead". The force diagram and the thrust line show
+//! what happens when the load departs from the funicular of the dead load, so they need
+//! cases that do. This module builds them the same way for the three models of a design:
+//!
+//! - deck loads reach the deck joints as **simple-span panel reactions** of the deck spans
+//!   over the arch (the classical panel-point idealisation; the drop-in span over a
+//!   three-hinged crown delivers its reactions to its end joints);
+//! - the truss idealisation and the frame model receive these joint loads at their deck
+//!   joints (a joint shared by rib and deck is the rib node); the bare rib receives them
+//!   at the rib node under each deck joint (carried down its post).
+//!
+//! So the three models of one design carry the same vertical loads at the same x, which
+//! is what lets the graphic constructions and the stiffness solutions be compared.
+//!
+//! Units: kN, m; load intensities and loads are **positive downward** here (as on a load
+//! line) and enter the models as negative `fy` (y up). Loads are limited to the arch span
+//! (between the springing verticals); the approach spans are not loaded.
+
+use crate::design::{check_inputs, Design};
+use crate::error::StaticsError;
+use crate::form::Form;
+use crate::generate::DEAD;
+use crate::layout::{position, Frame, Joint, Topology};
+use crate::model::{LoadCase, Model, NodalLoad};
+use serde::{Deserialize, Serialize};
+
+/// Live load (kN/m2 over the deck width) used by the standard cases of `analyze`: an
+/// illustrative pattern load to show how the arch reacts to load on part of the span,
+/// not a code load model (it is of the order of a crowd load: EN 1991-2 5.3.2.1 gives
+/// q_fk = 5.0 kN/m2 for footbridges, recommended value, from memory). The live-load
+/// models of a later issue replace it; local codes and a licensed engineer govern.
+pub const PATTERN_LIVE_LOAD: f64 = 5.0;
+
+/// Name of the standard half-span case.
+pub const HALF_SPAN: &str = "dead + half-span live (left)";
+/// Name of the standard heavier-panel case.
+pub const DOUBLED_PANEL: &str = "dead + doubled panel load";
+
+/// Node positions are matched to layout joints within this fraction of the span.
+const SAME_POINT: f64 = 1e-9;
+
+/// One extra load on the deck over the arch (kN, m; positive downward).
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
+#[serde(tag = "kind", rename_all = "snake_case")]
+pub enum DeckLoad {
+    /// A line load `w` (kN per horizontal metre of deck, the whole width) from `x0` to
+    /// `x1` (m), clipped to the arch span.
+    Strip {
+        /// Intensity, kN/m, positive downward.
+        w: f64,
+        /// Start, m.
+        x0: f64,
+        /// End, m (greater than `x0`).
+        x1: f64,
+    },
+    /// A point load `p` (kN, positive downward) on the deck at panel point `panel`
+    /// (0 = over the left springing).
+    PanelPoint {
+        /// Panel point index, 0..=panels.
+        panel: usize,
+        /// Load, kN, positive downward.
+        p: f64,
+    },
+}
+
+/// A load case to add to the models of a design.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct CaseSpec {
+    /// Name of the case.
+    pub name: String,
+    /// What the case is, in words for the screen.
+    pub description: String,
+    /// Include the model's own dead load case ("dead") in this case.
+    pub with_dead: bool,
+    /// The deck loads of the case.
+    pub loads: Vec<DeckLoad>,
+}
+
+/// Left or right half of the arch span.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum Half {
+    /// From the left springing vertical to the crown.
+    Left,
+    /// From the crown to the right springing vertical.
+    Right,
+}
+
+fn frame_of(design: &Design) -> Result<Frame, StaticsError> {
+    let mut problems = Vec::new();
+    check_inputs(design, &mut problems, &mut Vec::new());
+    if !problems.is_empty() {
+        return Err(StaticsError::Invalid(problems));
+    }
+    Frame::new(design)
+        .ok_or_else(|| StaticsError::invalid("valley", "the springings cannot be placed on the valley walls"))
+}
+
+/// A case with the dead load plus `w` kN/m2 (positive down) over the deck width on one
+/// half of the arch span (springing vertical to crown x). The classic unsymmetric load of
+/// an arch: for a parabolic rib it gives the largest rib moments near the quarter points
+/// (Timoshenko & Young, Theory of Structures, ch. 9, from memory). Errors: an invalid
+/// design, or `w` not finite.
+pub fn half_span(design: &Design, half: Half, w: f64) -> Result<CaseSpec, StaticsError> {
+    let f = frame_of(design)?;
+    if !w.is_finite() {
+        return Err(StaticsError::invalid("half-span load", format!("intensity {w} kN/m2 must be finite")));
+    }
+    let line = w * design.deck.width;
+    let (x0, x1, side) = match half {
+        Half::Left => (f.a.0, f.xc, "left"),
+        Half::Right => (f.xc, f.b.0, "right"),
+    };
+    Ok(CaseSpec {
+        name: if half == Half::Left { HALF_SPAN.into() } else { "dead + half-span live (right)".into() },
+        description: format!(
+            "dead load plus {w} kN/m2 over the deck width ({line:.2} kN/m) on the {side} half of the arch span \
+             (x = {x0:.3} to {x1:.3} m), reaching the deck joints as panel reactions"
+        ),
+        with_dead: true,
+        loads: vec![DeckLoad::Strip { w: line, x0, x1 }],
+    })
+}
+
+/// A case with the dead load plus the deck's panel load added again at panel point
+/// `panel`: the deck line load (`Design::deck_line_load`, kN/m) times the panel length,
+/// so the deck load of that panel point is doubled. Errors: an invalid design, or a panel
+/// point that is not inside the arch (1 to panels - 1).
+pub fn doubled_panel(design: &Design, panel: usize) -> Result<CaseSpec, StaticsError> {
+    let f = frame_of(design)?;
+    if panel == 0 || panel >= f.panels {
+        return Err(StaticsError::invalid(
+            "doubled panel load",
+            format!("panel point {panel} must lie inside the arch (1 to {})", f.panels - 1),
+        ));
+    }
+    let p = design.deck_line_load() * f.span() / f.panels as f64;
+    Ok(CaseSpec {
+        name: DOUBLED_PANEL.into(),
+        description: format!(
+            "dead load plus the deck panel load again ({p:.2} kN) at panel point {panel} (x = {:.3} m): that panel \
+             load doubled",
+            f.panel_x[panel]
+        ),
+        with_dead: true,
+        loads: vec![DeckLoad::PanelPoint { panel, p }],
+    })
+}
+
+/// The standard extra cases `analyze` adds to every model: dead + `PATTERN_LIVE_LOAD` on
+/// the left half of the span, and dead + a doubled panel load at the panel point nearest
+/// the left quarter point (at least 1). Errors: an invalid design.
+pub fn standard_cases(design: &Design) -> Result<Vec<CaseSpec>, StaticsError> {
+    let f = frame_of(design)?;
+    let quarter = ((f.panels as f64) / 4.0).round().max(1.0) as usize;
+    Ok(vec![
+        half_span(design, Half::Left, PATTERN_LIVE_LOAD)?,
+        doubled_panel(design, quarter.min(f.panels - 1))?,
+    ])
+}
+
+/// The joint loads (joint, kN down) of one deck load: panel reactions of the deck spans.
+fn joint_loads(f: &Frame, topo: &Topology, rib_y: &[f64], load: &DeckLoad) -> Vec<(Joint, f64)> {
+    let mut spans: Vec<(Joint, Joint)> = topo.deck.iter().chain(topo.drop_in.iter()).copied().collect();
+    spans.sort_by(|p, q| position(f, rib_y, p.0).0.total_cmp(&position(f, rib_y, q.0).0));
+    let mut out = Vec::new();
+    match *load {
+        DeckLoad::Strip { w, x0, x1 } => {
+            for &(j, k) in &spans {
+                let (xj, xk) = (position(f, rib_y, j).0, position(f, rib_y, k).0);
+                let (lo, hi) = (x0.max(xj), x1.min(xk));
+                let len = xk - xj;
+                if hi <= lo || len <= 0.0 {
+                    continue;
+                }
+                let (resultant, centre) = (w * (hi - lo), 0.5 * (lo + hi));
+                out.push((j, resultant * (xk - centre) / len));
+                out.push((k, resultant * (centre - xj) / len));
+            }
+        }
+        DeckLoad::PanelPoint { panel, p } => {
+            let x = f.panel_x.get(panel).copied().unwrap_or(f64::NAN);
+            // the first span holding x (a joint at x takes it all)
+            if let Some(&(j, k)) = spans.iter().find(|&&(j, k)| {
+                let (xj, xk) = (position(f, rib_y, j).0, position(f, rib_y, k).0);
+                xj <= x && x <= xk
+            }) {
+                let (xj, xk) = (position(f, rib_y, j).0, position(f, rib_y, k).0);
+                let len = xk - xj;
+                if len > 0.0 {
+                    out.push((j, p * (xk - x) / len));
+                    out.push((k, p * (x - xj) / len));
+                }
+            }
+        }
+    }
+    out.retain(|(_, p)| *p != 0.0);
+    out
+}
+
+/// The node of `model` at a point, m (within `SAME_POINT` of the span).
+fn node_at(model: &Model, at: (f64, f64), tol: f64) -> Option<usize> {
+    model.nodes.iter().position(|n| (n.x - at.0).abs() <= tol && (n.y - at.1).abs() <= tol)
+}
+
+/// Builds the load case `spec` for `model`, a model generated from `design` and `form`
+/// (frame model, truss idealisation or bare rib): its dead case (when `with_dead`) plus
+/// the deck loads as nodal loads at the deck joints, or, where the model has no node at a
+/// deck joint (the bare rib), at the rib node under it.
+///
+/// Errors: an invalid design, a form that does not belong to it, a model without a "dead"
+/// case when one is asked for, a non-finite load, or a model with no node where a load
+/// must go (not generated from this design).
+pub fn build_case(
+    design: &Design,
+    form: &Form,
+    model: &Model,
+    spec: &CaseSpec,
+) -> Result<LoadCase, StaticsError> {
+    let f = frame_of(design)?;
+    if form.rib.len() != f.rib_x.len() {
+        return Err(StaticsError::invalid(
+            "form",
+            "the form does not belong to this design; find the form again",
+        ));
+    }
+    let rib_y = form.rib_y();
+    let topo = Topology::with_shared(&f, form.shared());
+    let mut lc = if spec.with_dead {
+        let dead = model.load_cases.iter().find(|c| c.name == DEAD).ok_or_else(|| {
+            StaticsError::invalid(
+                format!("load case '{}'", spec.name),
+                "the model has no dead load case to include",
+            )
+        })?;
+        LoadCase { name: spec.name.clone(), ..dead.clone() }
+    } else {
+        LoadCase { name: spec.name.clone(), ..LoadCase::default() }
+    };
+    let tol = SAME_POINT * f.span().max(1.0);
+    for load in &spec.loads {
+        let finite = match *load {
+            DeckLoad::Strip { w, x0, x1 } => w.is_finite() && x0.is_finite() && x1.is_finite(),
+            DeckLoad::PanelPoint { p, .. } => p.is_finite(),
+        };
+        if !finite {
+            return Err(StaticsError::invalid(
+                format!("load case '{}'", spec.name),
+                "a deck load is not finite",
+            ));
+        }
+        if let DeckLoad::PanelPoint { panel, .. } = *load {
+            if panel > f.panels {
+                return Err(StaticsError::invalid(
+                    format!("load case '{}'", spec.name),
+                    format!("panel point {panel} does not exist (the arch has {} panels)", f.panels),
+                ));
+            }
+        }
+        for (j, p) in joint_loads(&f, &topo, &rib_y, load) {
+            let node = node_at(model, position(&f, &rib_y, j), tol)
+                .or_else(|| {
+                    let r = topo.rib_of(&f, j);
+                    node_at(model, position(&f, &rib_y, Joint::Rib(r)), tol)
+                })
+                .ok_or_else(|| {
+                    StaticsError::invalid(
+                        format!("load case '{}'", spec.name),
+                        "the model has no node at a loaded deck joint or the rib node under it; build the case \
+                         for a model generated from this design",
+                    )
+                })?;
+            if let Some(l) = lc.nodal.iter_mut().find(|l| l.node == node) {
+                l.fy -= p;
+            } else {
+                lc.nodal.push(NodalLoad { node, fx: 0.0, fy: -p, mz: 0.0 });
+            }
+        }
+    }
+    Ok(lc)
+}
+
+/// Adds every case of `specs` to `model` (see `build_case`), after its existing cases.
+/// Errors as `build_case`; on error the model is left unchanged.
+pub fn add_cases(
+    design: &Design,
+    form: &Form,
+    model: &mut Model,
+    specs: &[CaseSpec],
+) -> Result<(), StaticsError> {
+    let built: Result<Vec<LoadCase>, StaticsError> =
+        specs.iter().map(|s| build_case(design, form, model, s)).collect();
+    model.load_cases.extend(built?);
+    Ok(())
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::design::{Bracing, RibSystem};
+    use crate::form::find_form;
+    use crate::generate::{bare_rib_model, frame_model, truss_model};
+
+    fn total_fy(lc: &LoadCase) -> f64 {
+        lc.nodal.iter().map(|l| l.fy).sum()
+    }
+
+    #[test]
+    fn half_span_load_reaches_every_model_in_full() {
+        // the strip's resultant w * (x_C - x_A) reaches each model, whichever joints take
+        // it (statics of simple spans)
+        for (n, system) in
+            [(12, RibSystem::ThreeHinged), (7, RibSystem::ThreeHinged), (8, RibSystem::TwoHinged)]
+        {
+            let mut d = Design::demo();
+            d.panels = n;
+            d.rib_system = system;
+            d.bracing = Bracing::Single { flipped: false };
+            let form = find_form(&d).expect("form");
+            let spec = CaseSpec { with_dead: false, ..half_span(&d, Half::Left, 4.0).expect("spec") };
+            let expected = -4.0 * d.deck.width * 0.5 * form.span;
+            for model in [
+                frame_model(&d, &form).expect("frame"),
+                truss_model(&d, &form).expect("truss"),
+                bare_rib_model(&d, &form).expect("rib"),
+            ] {
+                let lc = build_case(&d, &form, &model, &spec).expect("case");
+                assert!((total_fy(&lc) - expected).abs() < 1e-9 * expected.abs(), "{n}: {}", model.title);
+                // nothing right of the crown panel
+                let xc = form.crown.x;
+                let panel = form.span / n as f64;
+                assert!(lc.nodal.iter().all(|l| model.nodes[l.node].x <= xc + panel + 1e-9));
+            }
+        }
+    }
+
+    #[test]
+    fn doubled_panel_adds_one_deck_panel_load() {
+        let d = Design::demo();
+        let form = find_form(&d).expect("form");
+        let model = truss_model(&d, &form).expect("truss");
+        let spec = doubled_panel(&d, 3).expect("spec");
+        let lc = build_case(&d, &form, &model, &spec).expect("case");
+        let dead = total_fy(&model.load_cases[0]);
+        let extra = d.deck_line_load() * form.span / d.panels as f64;
+        assert!((total_fy(&lc) - dead + extra).abs() < 1e-9 * extra);
+        assert!(doubled_panel(&d, 0).is_err() && doubled_panel(&d, d.panels).is_err());
+        let bad = CaseSpec { loads: vec![DeckLoad::PanelPoint { panel: 99, p: 1.0 }], ..spec };
+        assert!(build_case(&d, &form, &model, &bad).is_err());
+    }
+}
