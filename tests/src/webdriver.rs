@@ -221,13 +221,43 @@ fn http(port: u16, method: &str, path: &str, body: Option<&Value>) -> Result<Val
         body.len()
     );
     stream.write_all(req.as_bytes()).map_err(|e| e.to_string())?;
+    // read the head, then exactly Content-Length bytes (the driver may keep the
+    // connection open), or to the end for chunked / unsized replies
     let mut raw = Vec::new();
-    stream.read_to_end(&mut raw).map_err(|e| e.to_string())?;
-    let split = raw.windows(4).position(|w| w == b"\r\n\r\n").ok_or("no header end")?;
+    let mut buf = [0u8; 16384];
+    let split = loop {
+        if let Some(p) = raw.windows(4).position(|w| w == b"\r\n\r\n") {
+            break p;
+        }
+        let n = stream.read(&mut buf).map_err(|e| e.to_string())?;
+        if n == 0 {
+            return Err("connection closed before the reply head".into());
+        }
+        raw.extend_from_slice(&buf[..n]);
+    };
     let head = String::from_utf8_lossy(&raw[..split]).to_string();
+    let lower = head.to_ascii_lowercase();
+    let length: Option<usize> = lower
+        .lines()
+        .find_map(|l| l.strip_prefix("content-length:"))
+        .and_then(|v| v.trim().parse().ok());
     let mut content = raw[split + 4..].to_vec();
-    if head.to_ascii_lowercase().contains("transfer-encoding: chunked") {
-        content = dechunk(&content);
+    match length {
+        Some(len) => {
+            while content.len() < len {
+                let n = stream.read(&mut buf).map_err(|e| e.to_string())?;
+                if n == 0 {
+                    break;
+                }
+                content.extend_from_slice(&buf[..n]);
+            }
+        }
+        None => {
+            stream.read_to_end(&mut content).map_err(|e| e.to_string())?;
+            if lower.contains("transfer-encoding: chunked") {
+                content = dechunk(&content);
+            }
+        }
     }
     let status: u16 = head.split_whitespace().nth(1).and_then(|s| s.parse().ok()).unwrap_or(0);
     let v: Value = serde_json::from_slice(&content).map_err(|e| format!("bad JSON ({e}) in reply to {path}"))?;

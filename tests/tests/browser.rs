@@ -1,0 +1,333 @@
+//! End-to-end tests of the browser app in Debian's headless Chromium, driven over
+//! WebDriver. They need the release build in `dist/` (scripts/test runs
+//! `trunk build --release` first) and fail, never skip, when the browser is missing.
+//!
+//! Expected values come from the engine itself (`springline_statics::analyze`, the same
+//! function `springline analyze` prints), mapped to pixels through the drawing transform
+//! each canvas publishes in its data attributes.
+
+use serde_json::{json, Value};
+use springline_statics::reciprocal::{force_diagram, SegmentOf};
+use springline_statics::{analyze, Design};
+use springline_tests::serve::StaticServer;
+use springline_tests::webdriver::{Driver, Session};
+use springline_tests::workspace_root;
+use std::time::Duration;
+
+const WAIT: Duration = Duration::from_secs(30);
+
+fn dist() -> std::path::PathBuf {
+    workspace_root().join("dist")
+}
+
+/// Opens the app and waits until the results are shown.
+fn open(session: &Session, server: &StaticServer) {
+    session.goto(&server.url());
+    session.wait_for("the results panel", "return document.getElementById('result-thrust') !== null", WAIT);
+    // let the canvases draw after layout
+    session.wait_for(
+        "both canvases drawn",
+        "return ['elevation','forces'].every(id => { const c = document.getElementById(id); return c && c.dataset.scale; })",
+        WAIT,
+    );
+}
+
+/// The transform a canvas publishes: (scale, origin x, origin y).
+fn transform(session: &Session, id: &str) -> (f64, f64, f64) {
+    let v = session.exec(
+        "const c = document.getElementById(arguments[0]); return [+c.dataset.scale, +c.dataset.originX, +c.dataset.originY];",
+        vec![json!(id)],
+    );
+    let n = |i: usize| v[i].as_f64().unwrap_or(f64::NAN);
+    (n(0), n(1), n(2))
+}
+
+fn to_px(t: (f64, f64, f64), x: f64, y: f64) -> (f64, f64) {
+    (t.1 + t.0 * x, t.2 - t.0 * y)
+}
+
+/// RGBA of the backing-store pixel under CSS pixel (x, y) of a canvas.
+fn pixel(session: &Session, id: &str, at: (f64, f64)) -> [u8; 4] {
+    let v = session.exec(
+        "const c = document.getElementById(arguments[0]); const r = window.devicePixelRatio;
+         const d = c.getContext('2d').getImageData(Math.round(arguments[1] * r), Math.round(arguments[2] * r), 1, 1).data;
+         return [d[0], d[1], d[2], d[3]];",
+        vec![json!(id), json!(at.0), json!(at.1)],
+    );
+    let c = |i: usize| v[i].as_u64().unwrap_or(0) as u8;
+    [c(0), c(1), c(2), c(3)]
+}
+
+/// True when some pixel within `r` CSS pixels of `at` differs from the background.
+fn drawn_near(session: &Session, id: &str, at: (f64, f64), r: f64) -> bool {
+    let v = session.exec(
+        "const c = document.getElementById(arguments[0]); const k = window.devicePixelRatio;
+         const x = Math.round((arguments[1] - arguments[3]) * k), y = Math.round((arguments[2] - arguments[3]) * k);
+         const n = Math.max(1, Math.round(2 * arguments[3] * k));
+         const d = c.getContext('2d').getImageData(x, y, n, n).data;
+         for (let i = 0; i < d.length; i += 4) {
+           const bg = d[i] > 240 && d[i+1] > 240 && d[i+2] > 235;
+           if (d[i+3] > 0 && !bg) return true;
+         }
+         return false;",
+        vec![json!(id), json!(at.0), json!(at.1), json!(r)],
+    );
+    v == Value::Bool(true)
+}
+
+fn canvas_data_url(session: &Session, id: &str) -> String {
+    session.exec("return document.getElementById(arguments[0]).toDataURL();", vec![json!(id)]).as_str().unwrap_or("").to_string()
+}
+
+/// Types `value` into the field `id` and commits it (the change event).
+fn set_field(session: &Session, id: &str, value: &str) {
+    session.exec(
+        "const e = document.getElementById(arguments[0]); e.value = arguments[1];
+         e.dispatchEvent(new Event('change', { bubbles: true }));",
+        vec![json!(id), json!(value)],
+    );
+}
+
+fn text_of(session: &Session, id: &str) -> String {
+    session
+        .exec("const e = document.getElementById(arguments[0]); return e ? e.textContent : null;", vec![json!(id)])
+        .as_str()
+        .unwrap_or("")
+        .to_string()
+}
+
+fn shown_number(text: &str) -> f64 {
+    let t: String = text.split_whitespace().next().unwrap_or("").chars().filter(|c| !matches!(c, '\u{2009}' | '\u{a0}')).collect();
+    let first: String = text
+        .replace(['\u{2009}', '\u{a0}'], "")
+        .replace('−', "-")
+        .chars()
+        .take_while(|c| c.is_ascii_digit() || *c == '.' || *c == '-')
+        .collect();
+    first.parse().unwrap_or_else(|_| panic!("no number in '{text}' ({t})"))
+}
+
+fn severe(session: &Session) -> Vec<String> {
+    session.console().into_iter().filter(|(level, _)| level == "SEVERE").map(|(_, m)| m).collect()
+}
+
+fn screenshots_dir() -> std::path::PathBuf {
+    let d = workspace_root().join("tests").join("screenshots");
+    let _ = std::fs::create_dir_all(&d);
+    d
+}
+
+#[test]
+fn loads_without_errors_and_draws_rib_and_load_line() {
+    let server = StaticServer::start(&dist());
+    let driver = Driver::start();
+    let s = driver.session(1500, 1000, 1.0);
+    open(&s, &server);
+    let errors = severe(&s);
+    assert!(errors.is_empty(), "console errors on load: {errors:?}");
+
+    let a = analyze(&Design::demo()).expect("demo analyses");
+    // the rib: midpoints of rib members of the frame model, through the elevation transform
+    let t = transform(&s, "elevation");
+    let m = &a.frame.model;
+    let mut rib_hits = 0;
+    for mem in m.members.iter().filter(|mm| mm.group == "rib") {
+        let (p, q) = (&m.nodes[mem.start], &m.nodes[mem.end]);
+        let mid = to_px(t, (p.x + q.x) / 2.0, (p.y + q.y) / 2.0);
+        if drawn_near(&s, "elevation", mid, 1.5) {
+            rib_hits += 1;
+        }
+    }
+    assert_eq!(rib_hits, m.members.iter().filter(|mm| mm.group == "rib").count(), "every rib member drawn");
+
+    // the load line: each external load segment of the reciprocal figure of the truss
+    let truss = a.truss.as_ref().expect("demo is braced");
+    let fd = force_diagram(&truss.model, &truss.solution.as_ref().expect("solved").cases[0]).expect("figure");
+    let tf = transform(&s, "forces");
+    let mut loads = 0;
+    for seg in fd.segments.iter().filter(|g| matches!(g.of, SegmentOf::Load { .. })) {
+        let (l, r) = (fd.spaces[seg.left].point, fd.spaces[seg.right].point);
+        let mid = to_px(tf, (l.x + r.x) / 2.0, (l.y + r.y) / 2.0);
+        assert!(drawn_near(&s, "forces", mid, 1.5), "load segment drawn at {mid:?}");
+        loads += 1;
+    }
+    assert!(loads >= 10, "the demo has a load at every deck panel point");
+    std::fs::write(screenshots_dir().join("default-view.png"), s.screenshot()).expect("screenshot");
+}
+
+#[test]
+fn panel_count_changes_the_thrust_to_the_engine_value() {
+    let server = StaticServer::start(&dist());
+    let driver = Driver::start();
+    let s = driver.session(1500, 1000, 1.0);
+    open(&s, &server);
+    let before = text_of(&s, "result-thrust");
+    set_field(&s, "panels", "16");
+    s.wait_for(
+        "the thrust to change",
+        &format!("return document.getElementById('result-thrust').textContent !== {}", json!(before)),
+        WAIT,
+    );
+    let mut d = Design::demo();
+    d.panels = 16;
+    let expected = analyze(&d).expect("16 panels analyse").form.thrust;
+    let shown = shown_number(&text_of(&s, "result-thrust"));
+    // four significant figures on screen
+    assert!((shown - expected).abs() <= 0.5 * 10f64.powi(expected.abs().log10().floor() as i32 - 3), "{shown} vs {expected}");
+    let raw: f64 = s
+        .exec("return +document.getElementById('result-thrust').dataset.value", vec![])
+        .as_f64()
+        .unwrap_or(f64::NAN);
+    assert!((raw - expected).abs() <= 1e-9 * expected.abs(), "data-value {raw} vs {expected}");
+}
+
+#[test]
+fn invalid_value_shows_its_message_and_leaves_the_drawing_unchanged() {
+    let server = StaticServer::start(&dist());
+    let driver = Driver::start();
+    let s = driver.session(1500, 1000, 1.0);
+    open(&s, &server);
+    let elevation = canvas_data_url(&s, "elevation");
+    let forces = canvas_data_url(&s, "forces");
+    let thrust = text_of(&s, "result-thrust");
+    // a deck below the springings cannot carry an arch
+    set_field(&s, "deck-level", "60");
+    let msg = s.wait_for(
+        "the message beside the field",
+        "const e = document.getElementById('deck-level-error'); return e && e.textContent.length > 0 ? e.textContent : null;",
+        WAIT,
+    );
+    assert!(msg.as_str().unwrap_or("").len() > 10, "a message a user can act on: {msg}");
+    assert_eq!(canvas_data_url(&s, "elevation"), elevation, "elevation pixel-identical");
+    assert_eq!(canvas_data_url(&s, "forces"), forces, "force diagram pixel-identical");
+    assert_eq!(text_of(&s, "result-thrust"), thrust);
+    // not a number at all
+    set_field(&s, "panels", "twelve");
+    s.wait_for("the panels message", "return document.getElementById('panels-error').textContent.includes('not a number')", WAIT);
+    assert_eq!(canvas_data_url(&s, "elevation"), elevation);
+    assert!(severe(&s).is_empty(), "no panic or console error");
+}
+
+#[test]
+fn hovering_a_member_highlights_its_segment_in_the_force_diagram() {
+    let server = StaticServer::start(&dist());
+    let driver = Driver::start();
+    let s = driver.session(1500, 1000, 1.0);
+    open(&s, &server);
+    let a = analyze(&Design::demo()).expect("demo");
+    let truss = a.truss.as_ref().expect("braced");
+    let fd = force_diagram(&truss.model, &truss.solution.as_ref().expect("solved").cases[0]).expect("figure");
+    // a rib member with a long segment in the figure, away from other segments' ends
+    let (k, seg) = fd
+        .segments
+        .iter()
+        .filter_map(|g| match g.of {
+            SegmentOf::Member { member } if truss.model.members[member].group == "rib" => Some((member, g)),
+            _ => None,
+        })
+        .max_by(|x, y| x.1.force.abs().total_cmp(&y.1.force.abs()))
+        .expect("rib segments");
+    let tf = transform(&s, "forces");
+    let (l, r) = (fd.spaces[seg.left].point, fd.spaces[seg.right].point);
+    let probe = to_px(tf, l.x + 0.3 * (r.x - l.x), l.y + 0.3 * (r.y - l.y));
+    let before = pixel(&s, "forces", probe);
+    let te = transform(&s, "elevation");
+    let mem = &truss.model.members[k];
+    let (p, q) = (&truss.model.nodes[mem.start], &truss.model.nodes[mem.end]);
+    let r_el = s.exec("const r = document.getElementById('elevation').getBoundingClientRect(); return [r.left, r.top];", vec![]);
+    let mid = to_px(te, (p.x + q.x) / 2.0, (p.y + q.y) / 2.0);
+    let at = (mid.0 + r_el[0].as_f64().unwrap_or(0.0), mid.1 + r_el[1].as_f64().unwrap_or(0.0));
+    s.hover(at);
+    s.wait_for(
+        "the highlight",
+        &format!(
+            "const c = document.getElementById('forces'); const k = window.devicePixelRatio;
+             const d = c.getContext('2d').getImageData(Math.round({} * k), Math.round({} * k), 1, 1).data;
+             return d[0] !== {} || d[1] !== {} || d[2] !== {};",
+            probe.0, probe.1, before[0], before[1], before[2]
+        ),
+        WAIT,
+    );
+    let after = pixel(&s, "forces", probe);
+    assert_ne!(before, after, "segment pixels change on hover");
+}
+
+#[test]
+fn canvases_are_sharp_at_device_pixel_ratio_two_and_follow_resizes() {
+    let server = StaticServer::start(&dist());
+    let driver = Driver::start();
+    let s = driver.session(1400, 900, 2.0);
+    open(&s, &server);
+    let sizes = |s: &Session| {
+        s.exec(
+            "const c = document.getElementById('elevation'); return [c.width, c.height, c.clientWidth, c.clientHeight, window.devicePixelRatio];",
+            vec![],
+        )
+    };
+    let v = sizes(&s);
+    assert_eq!(v[4].as_f64(), Some(2.0));
+    assert_eq!(v[0].as_f64(), v[2].as_f64().map(|w| 2.0 * w), "backing store twice the CSS width: {v}");
+    assert_eq!(v[1].as_f64(), v[3].as_f64().map(|h| 2.0 * h), "backing store twice the CSS height: {v}");
+    let old_width = v[0].as_f64().unwrap_or(0.0);
+    s.set_window(1000, 900);
+    s.wait_for(
+        "the redraw at the new size",
+        &format!("const c = document.getElementById('elevation'); return c.width !== {old_width} && c.width === 2 * c.clientWidth;"),
+        WAIT,
+    );
+    let after = sizes(&s);
+    // at 1000 px the layout stacks, so the canvas changes width (wider here)
+    assert_ne!(after[0].as_f64().unwrap_or(0.0), old_width, "canvas follows the window: {after}");
+    // redrawn with a new transform: the crown of the rib is where the new one puts it
+    let a = analyze(&Design::demo()).expect("demo");
+    let t = transform(&s, "elevation");
+    let crown = a.form.crown;
+    assert!(drawn_near(&s, "elevation", to_px(t, crown.x, crown.y), 2.0), "rib redrawn after resize");
+}
+
+#[test]
+fn the_page_requests_nothing_from_other_origins() {
+    let server = StaticServer::start(&dist());
+    let driver = Driver::start();
+    let s = driver.session(1400, 900, 1.0);
+    open(&s, &server);
+    let entries = s.exec("return performance.getEntriesByType('resource').map(e => e.name).concat([location.href]);", vec![]);
+    let origin = server.url();
+    for e in entries.as_array().cloned().unwrap_or_default() {
+        let url = e.as_str().unwrap_or("");
+        assert!(url.starts_with(&origin) || url.starts_with("data:"), "request to another origin: {url}");
+    }
+    assert!(!server.requests().is_empty());
+}
+
+#[test]
+fn second_design_unequal_springings_braced_renders_and_is_captured() {
+    let server = StaticServer::start(&dist());
+    let driver = Driver::start();
+    let s = driver.session(1500, 1000, 1.0);
+    open(&s, &server);
+    for (id, v) in [("springing-right", "86"), ("panels", "10")] {
+        let before = text_of(&s, "result-thrust");
+        set_field(&s, id, v);
+        s.wait_for(
+            "the change",
+            &format!("return document.getElementById('result-thrust').textContent !== {}", json!(before)),
+            WAIT,
+        );
+    }
+    s.exec(
+        "const e = document.getElementById('bracing'); e.value = 'crossed'; e.dispatchEvent(new Event('change', { bubbles: true }));",
+        vec![],
+    );
+    s.exec(
+        "const e = document.getElementById('rib-system'); e.value = 'two'; e.dispatchEvent(new Event('change', { bubbles: true }));",
+        vec![],
+    );
+    s.wait_for(
+        "the crossed-bracing figure",
+        "return document.getElementById('result-determinacy').textContent.includes('indeterminate')",
+        WAIT,
+    );
+    assert!(severe(&s).is_empty());
+    std::fs::write(screenshots_dir().join("second-design.png"), s.screenshot()).expect("screenshot");
+}
