@@ -84,7 +84,8 @@ impl Driver {
             }}
         });
         let v = http(self.port, "POST", "/session", Some(&caps)).expect("new session");
-        let id = v["value"]["sessionId"].as_str().unwrap_or_else(|| panic!("no session id in {v}")).to_string();
+        let id =
+            v["value"]["sessionId"].as_str().unwrap_or_else(|| panic!("no session id in {v}")).to_string();
         let s = Session { port: self.port, id, profile };
         s.set_window(width, height);
         s
@@ -155,7 +156,9 @@ impl Session {
         for i in 1..=steps {
             let t = i as f64 / steps as f64;
             let (x, y) = (from.0 + t * (to.0 - from.0), from.1 + t * (to.1 - from.1));
-            actions.push(json!({"type": "pointerMove", "duration": 10, "x": x.round() as i64, "y": y.round() as i64}));
+            actions.push(
+                json!({"type": "pointerMove", "duration": 10, "x": x.round() as i64, "y": y.round() as i64}),
+            );
         }
         actions.push(json!({"type": "pointerUp", "button": 0}));
         self.pointer("mouse", actions);
@@ -207,7 +210,10 @@ fn rand_seed() -> u128 {
 
 /// A free TCP port on the loopback interface.
 pub fn free_port() -> u16 {
-    std::net::TcpListener::bind("127.0.0.1:0").and_then(|l| l.local_addr()).map(|a| a.port()).expect("free port")
+    std::net::TcpListener::bind("127.0.0.1:0")
+        .and_then(|l| l.local_addr())
+        .map(|a| a.port())
+        .expect("free port")
 }
 
 /// One HTTP/1.1 request with a JSON body to 127.0.0.1:`port`; returns the JSON reply.
@@ -237,10 +243,8 @@ fn http(port: u16, method: &str, path: &str, body: Option<&Value>) -> Result<Val
     };
     let head = String::from_utf8_lossy(&raw[..split]).to_string();
     let lower = head.to_ascii_lowercase();
-    let length: Option<usize> = lower
-        .lines()
-        .find_map(|l| l.strip_prefix("content-length:"))
-        .and_then(|v| v.trim().parse().ok());
+    let length: Option<usize> =
+        lower.lines().find_map(|l| l.strip_prefix("content-length:")).and_then(|v| v.trim().parse().ok());
     let mut content = raw[split + 4..].to_vec();
     match length {
         Some(len) => {
@@ -260,7 +264,8 @@ fn http(port: u16, method: &str, path: &str, body: Option<&Value>) -> Result<Val
         }
     }
     let status: u16 = head.split_whitespace().nth(1).and_then(|s| s.parse().ok()).unwrap_or(0);
-    let v: Value = serde_json::from_slice(&content).map_err(|e| format!("bad JSON ({e}) in reply to {path}"))?;
+    let v: Value =
+        serde_json::from_slice(&content).map_err(|e| format!("bad JSON ({e}) in reply to {path}"))?;
     if status >= 400 {
         return Err(format!("HTTP {status}: {}", v["value"]["message"].as_str().unwrap_or(&v.to_string())));
     }

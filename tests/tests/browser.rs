@@ -76,7 +76,11 @@ fn drawn_near(session: &Session, id: &str, at: (f64, f64), r: f64) -> bool {
 }
 
 fn canvas_data_url(session: &Session, id: &str) -> String {
-    session.exec("return document.getElementById(arguments[0]).toDataURL();", vec![json!(id)]).as_str().unwrap_or("").to_string()
+    session
+        .exec("return document.getElementById(arguments[0]).toDataURL();", vec![json!(id)])
+        .as_str()
+        .unwrap_or("")
+        .to_string()
 }
 
 /// Types `value` into the field `id` and commits it (the change event).
@@ -90,14 +94,23 @@ fn set_field(session: &Session, id: &str, value: &str) {
 
 fn text_of(session: &Session, id: &str) -> String {
     session
-        .exec("const e = document.getElementById(arguments[0]); return e ? e.textContent : null;", vec![json!(id)])
+        .exec(
+            "const e = document.getElementById(arguments[0]); return e ? e.textContent : null;",
+            vec![json!(id)],
+        )
         .as_str()
         .unwrap_or("")
         .to_string()
 }
 
 fn shown_number(text: &str) -> f64 {
-    let t: String = text.split_whitespace().next().unwrap_or("").chars().filter(|c| !matches!(c, '\u{2009}' | '\u{a0}')).collect();
+    let t: String = text
+        .split_whitespace()
+        .next()
+        .unwrap_or("")
+        .chars()
+        .filter(|c| !matches!(c, '\u{2009}' | '\u{a0}'))
+        .collect();
     let first: String = text
         .replace(['\u{2009}', '\u{a0}'], "")
         .replace('−', "-")
@@ -173,7 +186,10 @@ fn panel_count_changes_the_thrust_to_the_engine_value() {
     let expected = analyze(&d).expect("16 panels analyse").form.thrust;
     let shown = shown_number(&text_of(&s, "result-thrust"));
     // four significant figures on screen
-    assert!((shown - expected).abs() <= 0.5 * 10f64.powi(expected.abs().log10().floor() as i32 - 3), "{shown} vs {expected}");
+    assert!(
+        (shown - expected).abs() <= 0.5 * 10f64.powi(expected.abs().log10().floor() as i32 - 3),
+        "{shown} vs {expected}"
+    );
     let raw: f64 = s
         .exec("return +document.getElementById('result-thrust').dataset.value", vec![])
         .as_f64()
@@ -203,7 +219,11 @@ fn invalid_value_shows_its_message_and_leaves_the_drawing_unchanged() {
     assert_eq!(text_of(&s, "result-thrust"), thrust);
     // not a number at all
     set_field(&s, "panels", "twelve");
-    s.wait_for("the panels message", "return document.getElementById('panels-error').textContent.includes('not a number')", WAIT);
+    s.wait_for(
+        "the panels message",
+        "return document.getElementById('panels-error').textContent.includes('not a number')",
+        WAIT,
+    );
     assert_eq!(canvas_data_url(&s, "elevation"), elevation);
     assert!(severe(&s).is_empty(), "no panic or console error");
 }
@@ -234,7 +254,10 @@ fn hovering_a_member_highlights_its_segment_in_the_force_diagram() {
     let te = transform(&s, "elevation");
     let mem = &truss.model.members[k];
     let (p, q) = (&truss.model.nodes[mem.start], &truss.model.nodes[mem.end]);
-    let r_el = s.exec("const r = document.getElementById('elevation').getBoundingClientRect(); return [r.left, r.top];", vec![]);
+    let r_el = s.exec(
+        "const r = document.getElementById('elevation').getBoundingClientRect(); return [r.left, r.top];",
+        vec![],
+    );
     let mid = to_px(te, (p.x + q.x) / 2.0, (p.y + q.y) / 2.0);
     let at = (mid.0 + r_el[0].as_f64().unwrap_or(0.0), mid.1 + r_el[1].as_f64().unwrap_or(0.0));
     s.hover(at);
@@ -291,7 +314,10 @@ fn the_page_requests_nothing_from_other_origins() {
     let driver = Driver::start();
     let s = driver.session(1400, 900, 1.0);
     open(&s, &server);
-    let entries = s.exec("return performance.getEntriesByType('resource').map(e => e.name).concat([location.href]);", vec![]);
+    let entries = s.exec(
+        "return performance.getEntriesByType('resource').map(e => e.name).concat([location.href]);",
+        vec![],
+    );
     let origin = server.url();
     for e in entries.as_array().cloned().unwrap_or_default() {
         let url = e.as_str().unwrap_or("");

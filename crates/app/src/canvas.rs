@@ -92,7 +92,14 @@ pub fn line(ctx: &CanvasRenderingContext2d, a: (f64, f64), b: (f64, f64), color:
 }
 
 /// A dashed line.
-pub fn dashed(ctx: &CanvasRenderingContext2d, a: (f64, f64), b: (f64, f64), color: &str, width: f64, dash: f64) {
+pub fn dashed(
+    ctx: &CanvasRenderingContext2d,
+    a: (f64, f64),
+    b: (f64, f64),
+    color: &str,
+    width: f64,
+    dash: f64,
+) {
     let pattern = js_sys::Array::of2(&dash.into(), &(dash * 0.8).into());
     let _ = ctx.set_line_dash(&pattern);
     line(ctx, a, b, color, width);
@@ -149,7 +156,14 @@ pub fn ring(ctx: &CanvasRenderingContext2d, c: (f64, f64), r: f64, color: &str, 
 }
 
 /// An arrow from `tail` to `head` with a filled head of `size` pixels.
-pub fn arrow(ctx: &CanvasRenderingContext2d, tail: (f64, f64), head: (f64, f64), color: &str, width: f64, size: f64) {
+pub fn arrow(
+    ctx: &CanvasRenderingContext2d,
+    tail: (f64, f64),
+    head: (f64, f64),
+    color: &str,
+    width: f64,
+    size: f64,
+) {
     let (dx, dy) = (head.0 - tail.0, head.1 - tail.1);
     let l = dx.hypot(dy);
     if l < 1e-6 {
@@ -160,7 +174,11 @@ pub fn arrow(ctx: &CanvasRenderingContext2d, tail: (f64, f64), head: (f64, f64),
     line(ctx, tail, base, color, width);
     fill_polygon(
         ctx,
-        &[head, (base.0 - uy * size * 0.45, base.1 + ux * size * 0.45), (base.0 + uy * size * 0.45, base.1 - ux * size * 0.45)],
+        &[
+            head,
+            (base.0 - uy * size * 0.45, base.1 + ux * size * 0.45),
+            (base.0 + uy * size * 0.45, base.1 - ux * size * 0.45),
+        ],
         color,
     );
 }

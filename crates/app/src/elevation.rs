@@ -16,6 +16,8 @@ pub struct ElevationInput<'a> {
     pub hovered: Option<usize>,
     /// Display units.
     pub units: Units,
+    /// Load case shown (index into the models' load cases; 0 is dead load).
+    pub case: usize,
 }
 
 /// World bounds of the elevation: the valley's extent and everything built on it.
@@ -67,13 +69,19 @@ pub fn draw(s: &Surface, input: &ElevationInput) -> View {
     }
     for x in [d.deck.left_seat_x, d.deck.right_seat_x] {
         let top = d.deck.level - 0.02 * block * 10.0;
-        let pts = [p(x - block * 0.5, top), p(x + block * 0.5, top), p(x + block * 0.5, top - block), p(x - block * 0.5, top - block)];
+        let pts = [
+            p(x - block * 0.5, top),
+            p(x + block * 0.5, top),
+            p(x + block * 0.5, top - block),
+            p(x - block * 0.5, top - block),
+        ];
         canvas::fill_polygon(ctx, &pts, CONCRETE);
     }
 
     // members of the frame model, coloured by the sign of the dead-load axial force
     let model = &a.frame.model;
-    let case = &a.frame.solution.cases[0];
+    let case_index = input.case.min(a.frame.solution.cases.len().saturating_sub(1));
+    let case = &a.frame.solution.cases[case_index];
     let nmax = case.members.iter().map(|m| m.start.n.abs().max(m.end.n.abs())).fold(0.0, f64::max).max(1e-9);
     for (k, mem) in model.members.iter().enumerate() {
         let (na, nb) = (&model.nodes[mem.start], &model.nodes[mem.end]);
@@ -98,7 +106,8 @@ pub fn draw(s: &Surface, input: &ElevationInput) -> View {
     }
     // joints: deck panel points dark, hinges open
     for (i, node) in model.nodes.iter().enumerate() {
-        let on_deck = (node.y - d.deck.level).abs() < 0.5 && model.members.iter().any(|m| (m.start == i || m.end == i) && m.group == "deck");
+        let on_deck = (node.y - d.deck.level).abs() < 0.5
+            && model.members.iter().any(|m| (m.start == i || m.end == i) && m.group == "deck");
         if on_deck {
             canvas::dot(ctx, p(node.x, node.y), 2.6, INK);
         }
@@ -133,7 +142,7 @@ pub fn draw(s: &Surface, input: &ElevationInput) -> View {
         }
     }
     // dead load on the deck: small arrows at the panel points
-    if let Some(lc) = model.load_cases.first() {
+    if let Some(lc) = model.load_cases.get(case_index) {
         let fmax = lc.nodal.iter().map(|l| l.fy.abs()).fold(0.0, f64::max).max(1e-9);
         for l in &lc.nodal {
             let node = &model.nodes[l.node];
@@ -149,7 +158,11 @@ pub fn draw(s: &Surface, input: &ElevationInput) -> View {
     // reactions at the springings from the frame model: components and resultant angle
     let u = input.units;
     for (node_pos, right) in [(f.springing_left, false), (f.springing_right, true)] {
-        let Some(idx) = model.nodes.iter().position(|n| (n.x - node_pos.x).abs() < 1e-9 && (n.y - node_pos.y).abs() < 1e-9) else {
+        let Some(idx) = model
+            .nodes
+            .iter()
+            .position(|n| (n.x - node_pos.x).abs() < 1e-9 && (n.y - node_pos.y).abs() < 1e-9)
+        else {
             continue;
         };
         let Some(r) = case.reaction(idx) else { continue };
@@ -166,7 +179,14 @@ pub fn draw(s: &Surface, input: &ElevationInput) -> View {
         ];
         let (ax, align) = if right { (c.0 + 12.0, "left") } else { (c.0 - 12.0, "right") };
         for (i, l) in lines.iter().enumerate() {
-            canvas::label(ctx, l, (ax, c.1 + 26.0 + 16.0 * i as f64), "12px system-ui, sans-serif", REACTION, align);
+            canvas::label(
+                ctx,
+                l,
+                (ax, c.1 + 26.0 + 16.0 * i as f64),
+                "12px system-ui, sans-serif",
+                REACTION,
+                align,
+            );
         }
     }
 
@@ -178,18 +198,54 @@ pub fn draw(s: &Surface, input: &ElevationInput) -> View {
     for x in [l0, l1] {
         canvas::line(ctx, (x, dim_y - 5.0), (x, dim_y + 5.0), DIM, 1.0);
     }
-    canvas::label(ctx, &format!("span {}", u.show(Quantity::Length, f.span)), ((l0 + l1) / 2.0, dim_y), "12px system-ui, sans-serif", DIM, "center");
-    let chord_y = f.springing_left.y + (f.springing_right.y - f.springing_left.y) * (f.crown.x - f.springing_left.x) / (f.span.max(1e-9));
+    canvas::label(
+        ctx,
+        &format!("span {}", u.show(Quantity::Length, f.span)),
+        ((l0 + l1) / 2.0, dim_y),
+        "12px system-ui, sans-serif",
+        DIM,
+        "center",
+    );
+    let chord_y = f.springing_left.y
+        + (f.springing_right.y - f.springing_left.y) * (f.crown.x - f.springing_left.x) / (f.span.max(1e-9));
     let (cx, cy_top) = p(f.crown.x, f.crown.y);
     let cy_chord = p(f.crown.x, chord_y).1;
-    canvas::dashed(ctx, p(f.springing_left.x, f.springing_left.y), p(f.springing_right.x, f.springing_right.y), DIM, 1.0, 4.0);
+    canvas::dashed(
+        ctx,
+        p(f.springing_left.x, f.springing_left.y),
+        p(f.springing_right.x, f.springing_right.y),
+        DIM,
+        1.0,
+        4.0,
+    );
     canvas::line(ctx, (cx, cy_top), (cx, cy_chord), DIM, 1.0);
-    canvas::label(ctx, &format!("rise {}", u.show(Quantity::Length, f.rise)), (cx + 6.0, (cy_top + cy_chord) / 2.0), "12px system-ui, sans-serif", DIM, "left");
+    canvas::label(
+        ctx,
+        &format!("rise {}", u.show(Quantity::Length, f.rise)),
+        (cx + 6.0, (cy_top + cy_chord) / 2.0),
+        "12px system-ui, sans-serif",
+        DIM,
+        "left",
+    );
     let deck_left = p(d.deck.left_seat_x, d.deck.level);
-    canvas::label(ctx, &format!("deck {}", u.show(Quantity::Length, d.deck.level)), (deck_left.0 + 4.0, deck_left.1 - 14.0), "12px system-ui, sans-serif", DIM, "left");
+    canvas::label(
+        ctx,
+        &format!("deck {}", u.show(Quantity::Length, d.deck.level)),
+        (deck_left.0 + 4.0, deck_left.1 - 14.0),
+        "12px system-ui, sans-serif",
+        DIM,
+        "left",
+    );
 
     // title and legend
-    canvas::text(ctx, "Elevation · frame model · dead load", (12.0, 14.0), "600 13px system-ui, sans-serif", INK, "left");
+    canvas::text(
+        ctx,
+        "Elevation · frame model · dead load",
+        (12.0, 14.0),
+        "600 13px system-ui, sans-serif",
+        INK,
+        "left",
+    );
     legend(ctx, s.width - 12.0, 14.0);
     view
 }

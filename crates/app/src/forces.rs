@@ -5,10 +5,10 @@
 use crate::canvas::{self, Surface, View};
 use crate::format::{Quantity, Units};
 use crate::palette::*;
-use springline_statics::funicular::{pole_construction, PoleConstruction, VerticalLoad};
-use springline_statics::reciprocal::{force_diagram, ForceDiagram, SegmentOf, SpaceKind};
-use springline_statics::thrust_line::{rib_chain, thrust_line, ThrustLine};
-use springline_statics::{Analysis, Design};
+use springline_statics::funicular::PoleConstruction;
+use springline_statics::reciprocal::{ForceDiagram, SegmentOf, SpaceKind};
+use springline_statics::thrust_line::ThrustLine;
+use springline_statics::Analysis;
 
 /// What the force canvas shows, computed once per analysis.
 #[derive(Debug, Clone, PartialEq)]
@@ -26,54 +26,115 @@ pub enum ForcePicture {
     Unavailable(String),
 }
 
-/// Builds the picture for a design's analysis.
-pub fn picture(design: &Design, a: &Analysis) -> ForcePicture {
-    if let Some(t) = &a.truss {
-        let Some(sol) = &t.solution else {
-            return ForcePicture::Unavailable(format!("truss idealisation is {}", t.determinacy_text));
-        };
-        let figure = match force_diagram(&t.model, &sol.cases[0]) {
-            Ok(f) => f,
-            Err(e) => return ForcePicture::Unavailable(e.to_string()),
-        };
-        let f = &a.form;
-        let last = f.rib.len().saturating_sub(1);
-        let loads: Vec<VerticalLoad> =
-            f.rib.iter().enumerate().filter(|(i, _)| *i != 0 && *i != last).map(|(_, n)| VerticalLoad { x: n.x, p: n.load }).collect();
-        let pole = pole_construction(&loads, f.thrust, f.reaction_left.fy, f.springing_left, f.springing_right.x).ok();
-        ForcePicture::Reciprocal { figure, pole }
+/// The picture of load case `case` (index into `Analysis::load_cases`), as the engine
+/// computed it.
+pub fn picture(a: &Analysis, case: usize) -> ForcePicture {
+    let Some(figs) = a.load_cases.get(case) else {
+        return ForcePicture::Unavailable("no such load case".into());
+    };
+    let why = || figs.notes.join("; ");
+    if a.truss.is_some() {
+        match &figs.force_diagram {
+            Some(figure) => ForcePicture::Reciprocal {
+                figure: figure.clone(),
+                pole: figs.rib_funicular.as_ref().map(|r| r.construction.clone()),
+            },
+            None => ForcePicture::Unavailable(why()),
+        }
     } else {
-        let case = &a.frame.solution.cases[0];
-        match rib_chain(&a.frame.model).and_then(|c| thrust_line(&a.frame.model, case, &c, design.groups.rib.depth)) {
-            Ok(tl) => ForcePicture::Thrust(tl),
-            Err(e) => ForcePicture::Unavailable(e.to_string()),
+        match &figs.thrust_line {
+            Some(tl) => ForcePicture::Thrust(tl.clone()),
+            None => ForcePicture::Unavailable(why()),
         }
     }
 }
 
 /// Draws the picture; returns the view (world unit: kN for the figure, m for the thrust
 /// line) so pointer positions can be mapped back.
-pub fn draw(s: &Surface, pic: &ForcePicture, a: &Analysis, hovered: Option<usize>, units: Units) -> Option<View> {
+pub fn draw(
+    s: &Surface,
+    pic: &ForcePicture,
+    a: &Analysis,
+    hovered: Option<usize>,
+    units: Units,
+) -> Option<View> {
     let ctx = &s.ctx;
     ctx.set_fill_style_str(SKY);
     ctx.fill_rect(0.0, 0.0, s.width, s.height);
     match pic {
-        ForcePicture::Reciprocal { figure, pole } => Some(draw_reciprocal(s, figure, pole.as_ref(), a, hovered, units)),
+        ForcePicture::Reciprocal { figure, pole } => {
+            Some(draw_reciprocal(s, figure, pole.as_ref(), a, hovered, units))
+        }
         ForcePicture::Thrust(tl) => Some(draw_thrust(s, tl, units)),
         ForcePicture::Unavailable(why) => {
-            canvas::text(ctx, "Force diagram not available", (12.0, 14.0), "600 13px system-ui, sans-serif", INK, "left");
+            canvas::text(
+                ctx,
+                "Force diagram not available",
+                (12.0, 14.0),
+                "600 13px system-ui, sans-serif",
+                INK,
+                "left",
+            );
             canvas::text(ctx, why, (12.0, 36.0), "12px system-ui, sans-serif", DIM, "left");
             None
         }
     }
 }
 
-/// Offset (kN) of the pole construction to the right of the reciprocal figure.
-fn pole_offset(figure: &ForceDiagram) -> f64 {
+/// Offset (kN) that puts the pole construction clear to the right of the figure.
+fn pole_offset(figure: &ForceDiagram, pole: Option<&PoleConstruction>) -> f64 {
     let xs = figure.spaces.iter().map(|s| s.point.x);
     let x1 = xs.clone().fold(f64::NEG_INFINITY, f64::max);
     let x0 = xs.fold(f64::INFINITY, f64::min);
-    x1 + 0.25 * (x1 - x0).max(figure.largest_force * 0.2)
+    let left = pole.map(|p| p.pole.x.min(0.0)).unwrap_or(0.0);
+    x1 - left + 0.35 * (x1 - x0).max(figure.largest_force * 0.1)
+}
+
+/// Labels of spaces that share a point, joined ("B, C" or "3–7"), with the point.
+fn grouped_labels(figure: &ForceDiagram) -> Vec<(String, (f64, f64), bool)> {
+    let tol = 1e-6 * figure.largest_force.max(1e-9);
+    let mut groups: Vec<(Vec<&str>, Vec<usize>, (f64, f64), bool)> = Vec::new();
+    for sp in &figure.spaces {
+        let p = (sp.point.x, sp.point.y);
+        let outside = sp.kind == SpaceKind::Outside;
+        let found = groups.iter_mut().find(|g| (g.2 .0 - p.0).abs() <= tol && (g.2 .1 - p.1).abs() <= tol);
+        let g = match found {
+            Some(g) => g,
+            None => {
+                groups.push((Vec::new(), Vec::new(), p, false));
+                groups.last_mut().expect("just pushed")
+            }
+        };
+        if outside {
+            g.0.push(&sp.label);
+            g.3 = true;
+        } else if let Ok(n) = sp.label.parse::<usize>() {
+            g.1.push(n);
+        }
+    }
+    groups
+        .into_iter()
+        .map(|(letters, mut numbers, p, outside)| {
+            numbers.sort_unstable();
+            let mut parts: Vec<String> = letters.iter().map(|l| l.to_string()).collect();
+            let mut i = 0;
+            while i < numbers.len() {
+                let mut j = i;
+                while j + 1 < numbers.len() && numbers[j + 1] == numbers[j] + 1 {
+                    j += 1;
+                }
+                parts.push(if j > i + 1 {
+                    format!("{}–{}", numbers[i], numbers[j])
+                } else if j == i + 1 {
+                    format!("{}, {}", numbers[i], numbers[j])
+                } else {
+                    numbers[i].to_string()
+                });
+                i = j + 1;
+            }
+            (parts.join(", "), p, outside)
+        })
+        .collect()
 }
 
 fn draw_reciprocal(
@@ -86,14 +147,15 @@ fn draw_reciprocal(
 ) -> View {
     let ctx = &s.ctx;
     let mut pts: Vec<(f64, f64)> = figure.spaces.iter().map(|sp| (sp.point.x, sp.point.y)).collect();
-    let shift = pole_offset(figure);
+    let shift = pole_offset(figure, pole);
     if let Some(pc) = pole {
         pts.push((shift + pc.pole.x, pc.pole.y));
         pts.extend(pc.load_line.iter().map(|q| (shift + q.x, q.y)));
     }
-    let bounds = pts.iter().fold((f64::INFINITY, f64::NEG_INFINITY, f64::INFINITY, f64::NEG_INFINITY), |b, p| {
-        (b.0.min(p.0), b.1.max(p.0), b.2.min(p.1), b.3.max(p.1))
-    });
+    let bounds =
+        pts.iter().fold((f64::INFINITY, f64::NEG_INFINITY, f64::INFINITY, f64::NEG_INFINITY), |b, p| {
+            (b.0.min(p.0), b.1.max(p.0), b.2.min(p.1), b.3.max(p.1))
+        });
     let view = View::fit(bounds, s.width, s.height, 30.0, 40.0);
     let p = |q: (f64, f64)| view.px(q.0, q.1);
     // pole construction first, underneath
@@ -105,15 +167,15 @@ fn draw_reciprocal(
         let ll: Vec<(f64, f64)> = pc.load_line.iter().map(|q| p((shift + q.x, q.y))).collect();
         canvas::polyline(ctx, &ll, LOAD, 2.0);
         canvas::dot(ctx, pp, 3.5, INK);
-        canvas::label(ctx, "pole O", (pp.0 - 6.0, pp.1 + 14.0), "11px system-ui, sans-serif", INK, "center");
+        canvas::label(ctx, "pole O", (pp.0, pp.1 + 14.0), "11px system-ui, sans-serif", INK, "center");
         if let Some(top) = ll.first() {
             canvas::label(
                 ctx,
                 &format!("rib loads · H = {}", units.show(Quantity::Force, a.form.thrust)),
-                (top.0, top.1 - 14.0),
+                (top.0 + 4.0, top.1 - 14.0),
                 "11px system-ui, sans-serif",
                 DIM,
-                "center",
+                "right",
             );
         }
     }
@@ -149,11 +211,11 @@ fn draw_reciprocal(
             canvas::ring(ctx, p((l.x, l.y)), 3.0, ZERO, SKY);
         }
     }
-    // space labels (Bow's notation) at their points
-    for sp in &figure.spaces {
-        let at = p((sp.point.x, sp.point.y));
-        let color = if sp.kind == SpaceKind::Outside { INK } else { DIM };
-        canvas::text(ctx, &sp.label, (at.0 + 7.0, at.1 - 7.0), "11px system-ui, sans-serif", color, "left");
+    // space labels (Bow's notation) at their points; spaces sharing a point share a label
+    for (text, q, outside) in grouped_labels(figure) {
+        let at = p(q);
+        let color = if outside { INK } else { DIM };
+        canvas::label(ctx, &text, (at.0 + 8.0, at.1 - 8.0), "11px system-ui, sans-serif", color, "left");
     }
     let mut title = "Force diagram · truss idealisation · dead load".to_string();
     if figure.pass_through {
@@ -161,16 +223,24 @@ fn draw_reciprocal(
     }
     canvas::text(ctx, &title, (12.0, 14.0), "600 13px system-ui, sans-serif", INK, "left");
     let scale_kn = units.show(Quantity::Force, 50.0 / view.scale);
-    canvas::text(ctx, &format!("50 px = {scale_kn} · letters: spaces between external forces, numbers: panels"), (12.0, 30.0), "11px system-ui, sans-serif", DIM, "left");
+    canvas::text(
+        ctx,
+        &format!("50 px = {scale_kn} · letters: spaces between external forces, numbers: panels"),
+        (12.0, 30.0),
+        "11px system-ui, sans-serif",
+        DIM,
+        "left",
+    );
     view
 }
 
 fn draw_thrust(s: &Surface, tl: &ThrustLine, units: Units) -> View {
     let ctx = &s.ctx;
     let axis: Vec<(f64, f64)> = tl.sections.iter().map(|sec| sec.axis).collect();
-    let bounds = axis.iter().fold((f64::INFINITY, f64::NEG_INFINITY, f64::INFINITY, f64::NEG_INFINITY), |b, p| {
-        (b.0.min(p.0), b.1.max(p.0), b.2.min(p.1), b.3.max(p.1))
-    });
+    let bounds =
+        axis.iter().fold((f64::INFINITY, f64::NEG_INFINITY, f64::INFINITY, f64::NEG_INFINITY), |b, p| {
+            (b.0.min(p.0), b.1.max(p.0), b.2.min(p.1), b.3.max(p.1))
+        });
     let view = View::fit(bounds, s.width, s.height, 40.0, 46.0);
     // exaggerate offsets so that the rib depth shows as about 24 px
     let exaggeration = (24.0 / (tl.depth * view.scale)).max(1.0);
@@ -188,10 +258,17 @@ fn draw_thrust(s: &Surface, tl: &ThrustLine, units: Units) -> View {
         })
         .collect();
     let band = |k: f64| -> Vec<(f64, f64)> {
-        let mut v: Vec<(f64, f64)> =
-            axis.iter().zip(&normals).map(|(a, n)| view.px(a.0 + n.0 * k * exaggeration, a.1 + n.1 * k * exaggeration)).collect();
-        let back: Vec<(f64, f64)> =
-            axis.iter().zip(&normals).rev().map(|(a, n)| view.px(a.0 - n.0 * k * exaggeration, a.1 - n.1 * k * exaggeration)).collect();
+        let mut v: Vec<(f64, f64)> = axis
+            .iter()
+            .zip(&normals)
+            .map(|(a, n)| view.px(a.0 + n.0 * k * exaggeration, a.1 + n.1 * k * exaggeration))
+            .collect();
+        let back: Vec<(f64, f64)> = axis
+            .iter()
+            .zip(&normals)
+            .rev()
+            .map(|(a, n)| view.px(a.0 - n.0 * k * exaggeration, a.1 - n.1 * k * exaggeration))
+            .collect();
         v.extend(back);
         v
     };
@@ -203,13 +280,25 @@ fn draw_thrust(s: &Surface, tl: &ThrustLine, units: Units) -> View {
         .sections
         .iter()
         .zip(&normals)
-        .map(|(sec, n)| view.px(sec.axis.0 + n.0 * sec.offset * exaggeration, sec.axis.1 + n.1 * sec.offset * exaggeration))
+        .map(|(sec, n)| {
+            view.px(
+                sec.axis.0 + n.0 * sec.offset * exaggeration,
+                sec.axis.1 + n.1 * sec.offset * exaggeration,
+            )
+        })
         .collect();
     canvas::polyline(ctx, &line, THRUST_LINE, 2.2);
     if let Some(w) = line.get(tl.worst) {
         canvas::ring(ctx, *w, 5.0, THRUST_LINE, SKY);
     }
-    canvas::text(ctx, "Thrust line · frame model rib · dead load", (12.0, 14.0), "600 13px system-ui, sans-serif", INK, "left");
+    canvas::text(
+        ctx,
+        "Thrust line · frame model rib · dead load",
+        (12.0, 14.0),
+        "600 13px system-ui, sans-serif",
+        INK,
+        "left",
+    );
     let gsf = tl.geometric_safety_factor.map(|g| format!("{g:.1}")).unwrap_or_else(|| "∞".into());
     let note = format!(
         "offsets ×{:.0} · band: rib depth {} · dark: middle third · worst offset {} · geometric safety factor {gsf}",
@@ -236,4 +325,3 @@ pub fn member_at(pic: &ForcePicture, view: &View, pointer: (f64, f64), tolerance
     }
     best.map(|b| b.0)
 }
-

@@ -22,8 +22,6 @@ pub enum Quantity {
     Moment,
     /// kN/m2 / ksf (area loads).
     Pressure,
-    /// kN/m / kip/ft.
-    LineLoad,
     /// kN/m2 (E) shown as GPa / ksi.
     Modulus,
     /// m2 / in2.
@@ -51,7 +49,6 @@ impl Units {
             (Units::Si, Quantity::Force) => (1.0, "kN"),
             (Units::Si, Quantity::Moment) => (1.0, "kNm"),
             (Units::Si, Quantity::Pressure) => (1.0, "kN/m²"),
-            (Units::Si, Quantity::LineLoad) => (1.0, "kN/m"),
             (Units::Si, Quantity::Modulus) => (1e-6, "GPa"),
             (Units::Si, Quantity::Area) => (1.0, "m²"),
             (Units::Si, Quantity::Inertia) => (1.0, "m⁴"),
@@ -60,7 +57,6 @@ impl Units {
             (Units::UsCustomary, Quantity::Force) => (1.0 / KN_PER_KIP, "kip"),
             (Units::UsCustomary, Quantity::Moment) => (1.0 / (KN_PER_KIP * M_PER_FT), "kip·ft"),
             (Units::UsCustomary, Quantity::Pressure) => (M_PER_FT * M_PER_FT / KN_PER_KIP, "ksf"),
-            (Units::UsCustomary, Quantity::LineLoad) => (M_PER_FT / KN_PER_KIP, "kip/ft"),
             (Units::UsCustomary, Quantity::Modulus) => ((0.0254 * 0.0254) / KN_PER_KIP, "ksi"),
             (Units::UsCustomary, Quantity::Area) => (1.0 / (0.0254 * 0.0254), "in²"),
             (Units::UsCustomary, Quantity::Inertia) => (1.0 / 0.0254f64.powi(4), "in⁴"),
@@ -126,8 +122,9 @@ pub fn round_for_display(v: f64) -> String {
     }
 }
 
-/// Parses a number shown by `round_for_display` (for tests and copy-paste).
-pub fn parse_display(text: &str) -> Option<f64> {
+/// Parses a number shown by `round_for_display`.
+#[cfg(test)]
+fn parse_display(text: &str) -> Option<f64> {
     let t: String = text.chars().filter(|c| !matches!(c, '\u{2009}' | '\u{a0}' | ' ')).collect();
     t.replace('−', "-").parse().ok()
 }

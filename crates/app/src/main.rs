@@ -4,10 +4,12 @@
 mod app;
 mod canvas;
 mod components;
+mod drag;
 mod elevation;
 mod forces;
 mod format;
 mod palette;
+mod permalink_sync;
 mod state;
 
 fn main() {

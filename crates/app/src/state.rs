@@ -26,19 +26,35 @@ pub struct AppState {
     pub units: RwSignal<Units>,
     /// Bumped when the window is resized, so canvases redraw.
     pub resized: RwSignal<u32>,
+    /// Designs before the current one (undo), oldest first.
+    pub past: RwSignal<Vec<Design>>,
+    /// Designs undone (redo), most recent last.
+    pub future: RwSignal<Vec<Design>>,
+    /// A page-level message (a link that could not be opened, a refused drag).
+    pub notice: RwSignal<Option<String>>,
+    /// The load case shown in the drawings (index into `Analysis::load_cases`).
+    pub case: RwSignal<usize>,
 }
+
+/// How many steps undo keeps.
+pub const HISTORY_LIMIT: usize = 200;
 
 impl AppState {
     /// State holding `design`.
     pub fn new(design: Design) -> Self {
         let design = RwSignal::new(design);
-        let analysis = Memo::new(move |_| design.with(|d| analyze(d).map(Arc::new).map_err(|e| e.to_string())));
+        let analysis =
+            Memo::new(move |_| design.with(|d| analyze(d).map(Arc::new).map_err(|e| e.to_string())));
         AppState {
             design,
             analysis,
             hovered: RwSignal::new(Hovered(None)),
             units: RwSignal::new(Units::Si),
             resized: RwSignal::new(0),
+            past: RwSignal::new(Vec::new()),
+            future: RwSignal::new(Vec::new()),
+            notice: RwSignal::new(None),
+            case: RwSignal::new(0),
         }
     }
 
@@ -49,11 +65,62 @@ impl AppState {
         edit(&mut candidate);
         match analyze(&candidate) {
             Ok(_) => {
-                self.design.set(candidate);
+                self.commit(candidate);
                 Ok(())
             }
             Err(e) => Err(e.to_string()),
         }
+    }
+
+    /// Makes `design` current as one undo step (the caller has checked it analyses).
+    pub fn commit(&self, design: Design) {
+        let previous = self.design.get_untracked();
+        if previous == design {
+            return;
+        }
+        self.remember(previous);
+        self.design.set(design);
+    }
+
+    /// Records `previous` as the state undo returns to, and forgets what was undone.
+    pub fn remember(&self, previous: Design) {
+        self.past.update(|p| {
+            p.push(previous);
+            if p.len() > HISTORY_LIMIT {
+                p.remove(0);
+            }
+        });
+        self.future.update(|f| f.clear());
+    }
+
+    /// Shows `design` without recording a step (during a drag: the drag as a whole is
+    /// recorded once, when it ends). Returns false, changing nothing, when it does not
+    /// analyse.
+    pub fn preview(&self, design: Design) -> bool {
+        if analyze(&design).is_ok() {
+            self.design.set(design);
+            true
+        } else {
+            false
+        }
+    }
+
+    /// Steps back one design; false when there is none.
+    pub fn undo(&self) -> bool {
+        let Some(prev) = self.past.try_update(|p| p.pop()).flatten() else { return false };
+        let current = self.design.get_untracked();
+        self.future.update(|f| f.push(current));
+        self.design.set(prev);
+        true
+    }
+
+    /// Re-applies the last undone design; false when there is none.
+    pub fn redo(&self) -> bool {
+        let Some(next) = self.future.try_update(|f| f.pop()).flatten() else { return false };
+        let current = self.design.get_untracked();
+        self.past.update(|p| p.push(current));
+        self.design.set(next);
+        true
     }
 }
 

@@ -3,6 +3,7 @@
 //! pointer back to a member so hovering one highlights its partner in the other.
 
 use crate::canvas::{self, View};
+use crate::drag::{self, Handle};
 use crate::elevation::{self, ElevationInput};
 use crate::forces::{self, ForcePicture};
 use crate::state::{AppState, Hovered};
@@ -32,14 +33,55 @@ pub fn ElevationCanvas() -> impl IntoView {
         let outcome = state.analysis.get();
         let design = state.design.get();
         if let Ok(a) = outcome {
-            let v = elevation::draw(&s, &ElevationInput { design: &design, analysis: &a, hovered, units });
+            let case = state.case.get();
+            let v = elevation::draw(&s, &ElevationInput { design: &design, analysis: &a, hovered, units, case });
             v.publish(&el, "m");
             view.set_value(Some(v));
         }
     });
+    // a drag: the handle, the design before it, and the view it started in (kept fixed so
+    // the mapping does not shift while the drawing refits)
+    let dragging = StoredValue::new(None::<(Handle, springline_statics::Design, View)>);
+    let on_down = move |ev: web_sys::PointerEvent| {
+        let (Some(el), Some(v)) = (node.get(), view.get_value()) else { return };
+        let at = pointer_in(&el, &ev);
+        let design = state.design.get_untracked();
+        let handle = state.analysis.with_untracked(|o| o.as_ref().ok().and_then(|a| drag::handle_at(&design, a, &v, at)));
+        if let Some(h) = handle {
+            let _ = el.set_pointer_capture(ev.pointer_id());
+            ev.prevent_default();
+            dragging.set_value(Some((h, design, v)));
+        }
+    };
+    let on_up = move |ev: web_sys::PointerEvent| {
+        if let Some((_, before, _)) = dragging.get_value() {
+            dragging.set_value(None);
+            if let Some(el) = node.get() {
+                let _ = el.release_pointer_capture(ev.pointer_id());
+            }
+            if state.design.with_untracked(|d| *d != before) {
+                state.remember(before);
+            }
+        }
+    };
     let on_move = move |ev: web_sys::PointerEvent| {
         let (Some(el), Some(v)) = (node.get(), view.get_value()) else { return };
         let at = pointer_in(&el, &ev);
+        if let Some((h, _, start_view)) = dragging.get_value() {
+            let (x, y) = start_view.world(at.0, at.1);
+            let candidate = state.design.with_untracked(|d| drag::moved(d, h, x, y));
+            if state.preview(candidate) {
+                state.notice.set(None);
+            } else {
+                state.notice.set(Some("That position is not a valid design; the last valid one is kept.".into()));
+            }
+            return;
+        }
+        let grabbable = {
+            let design = state.design.get_untracked();
+            state.analysis.with_untracked(|o| o.as_ref().ok().and_then(|a| drag::handle_at(&design, a, &v, at))).is_some()
+        };
+        let _ = web_sys::HtmlElement::style(&el).set_property("cursor", if grabbable { "grab" } else { "default" });
         let hit = state.analysis.with_untracked(|o| {
             let a = o.as_ref().ok()?;
             let t = a.truss.as_ref()?;
@@ -62,7 +104,10 @@ pub fn ElevationCanvas() -> impl IntoView {
             id="elevation"
             class="drawing"
             node_ref=node
-            aria-label="Elevation of the deck arch with member forces"
+            aria-label="Elevation of the deck arch with member forces; drag the crown, springings, deck or ground points"
+            on:pointerdown=on_down
+            on:pointerup=on_up
+            on:pointercancel=on_up
             on:pointermove=on_move
             on:pointerleave=move |_| state.hovered.set(Hovered(None))
         ></canvas>
@@ -76,7 +121,7 @@ pub fn ForceCanvas() -> impl IntoView {
     let node: NodeRef<Canvas> = NodeRef::new();
     let view = StoredValue::new(None::<View>);
     let picture = Memo::new(move |_| match state.analysis.get() {
-        Ok(a) => state.design.with(|d| forces::picture(d, &a)),
+        Ok(a) => forces::picture(&a, state.case.get()),
         Err(e) => ForcePicture::Unavailable(e),
     });
     Effect::new(move |_| {
@@ -88,7 +133,8 @@ pub fn ForceCanvas() -> impl IntoView {
         let Ok(a) = state.analysis.get() else { return };
         let v = picture.with(|p| forces::draw(&s, p, &a, hovered, units));
         if let Some(v) = v {
-            let unit = picture.with_untracked(|p| if matches!(p, ForcePicture::Thrust(_)) { "m" } else { "kN" });
+            let unit =
+                picture.with_untracked(|p| if matches!(p, ForcePicture::Thrust(_)) { "m" } else { "kN" });
             v.publish(&el, unit);
         }
         view.set_value(v);

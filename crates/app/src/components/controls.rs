@@ -167,7 +167,9 @@ pub fn GroundPanel() -> impl IntoView {
         message.set(
             state
                 .try_edit(|d| {
-                    if let (Some(a), Some(b)) = (d.valley.get(d.valley.len().saturating_sub(2)).copied(), d.valley.last().copied()) {
+                    if let (Some(a), Some(b)) =
+                        (d.valley.get(d.valley.len().saturating_sub(2)).copied(), d.valley.last().copied())
+                    {
                         d.valley.push(GroundPoint { x: b.x + (b.x - a.x).abs().max(5.0), y: b.y });
                     }
                 })
@@ -205,11 +207,35 @@ pub fn presets() -> Vec<(&'static str, Vec<GroundPoint>)> {
         ("Tarnvale Gorge (demo)", Design::demo().valley),
         (
             "Steep gorge",
-            mk(&[(-10.0, 101.0), (0.0, 100.5), (20.0, 90.0), (35.0, 70.0), (55.0, 55.0), (83.0, 50.0), (110.0, 55.0), (130.0, 70.0), (148.0, 88.0), (168.0, 100.5), (180.0, 101.0)]),
+            mk(&[
+                (-10.0, 101.0),
+                (0.0, 100.5),
+                (20.0, 90.0),
+                (35.0, 70.0),
+                (55.0, 55.0),
+                (83.0, 50.0),
+                (110.0, 55.0),
+                (130.0, 70.0),
+                (148.0, 88.0),
+                (168.0, 100.5),
+                (180.0, 101.0),
+            ]),
         ),
         (
             "Broad valley",
-            mk(&[(-10.0, 101.0), (0.0, 100.5), (20.0, 86.0), (40.0, 76.0), (60.0, 72.0), (83.0, 70.0), (105.0, 72.0), (125.0, 77.0), (145.0, 87.0), (166.0, 100.5), (180.0, 101.0)]),
+            mk(&[
+                (-10.0, 101.0),
+                (0.0, 100.5),
+                (20.0, 86.0),
+                (40.0, 76.0),
+                (60.0, 72.0),
+                (83.0, 70.0),
+                (105.0, 72.0),
+                (125.0, 77.0),
+                (145.0, 87.0),
+                (166.0, 100.5),
+                (180.0, 101.0),
+            ]),
         ),
     ]
 }
@@ -237,11 +263,13 @@ pub fn RoadwayPanel() -> impl IntoView {
 pub fn ArchPanel() -> impl IntoView {
     let state = expect_context::<AppState>();
     let message = RwSignal::new(None::<String>);
-    let rib = move || state.design.with(|d| match d.rib_system {
-        RibSystem::ThreeHinged => "three",
-        RibSystem::TwoHinged => "two",
-        RibSystem::Fixed => "fixed",
-    });
+    let rib = move || {
+        state.design.with(|d| match d.rib_system {
+            RibSystem::ThreeHinged => "three",
+            RibSystem::TwoHinged => "two",
+            RibSystem::Fixed => "fixed",
+        })
+    };
     let set_rib = move |ev: leptos::ev::Event| {
         let v = event_target_value(&ev);
         let sys = match v.as_str() {
@@ -251,12 +279,14 @@ pub fn ArchPanel() -> impl IntoView {
         };
         message.set(state.try_edit(|d| d.rib_system = sys).err());
     };
-    let bracing = move || state.design.with(|d| match d.bracing {
-        Bracing::None => "none",
-        Bracing::Single { flipped: false } => "single",
-        Bracing::Single { flipped: true } => "flipped",
-        Bracing::Crossed => "crossed",
-    });
+    let bracing = move || {
+        state.design.with(|d| match d.bracing {
+            Bracing::None => "none",
+            Bracing::Single { flipped: false } => "single",
+            Bracing::Single { flipped: true } => "flipped",
+            Bracing::Crossed => "crossed",
+        })
+    };
     let set_bracing = move |ev: leptos::ev::Event| {
         let b = match event_target_value(&ev).as_str() {
             "none" => Bracing::None,
@@ -272,7 +302,9 @@ pub fn ArchPanel() -> impl IntoView {
             // keep the user's choice of how the crown is given
             d.crown = match d.crown {
                 Crown::Rise { .. } => Crown::Rise { rise: v },
-                Crown::Level { .. } => Crown::Level { level: 0.5 * (d.springing_left_level + d.springing_right_level) + v },
+                Crown::Level { .. } => {
+                    Crown::Level { level: 0.5 * (d.springing_left_level + d.springing_right_level) + v }
+                }
             }
         })
     });
@@ -333,7 +365,8 @@ pub fn SectionsPanel() -> impl IntoView {
         ("Piers", "piers", |d| &d.groups.piers, |d| &mut d.groups.piers),
         ("Bracing", "bracing", |d| &d.groups.bracing, |d| &mut d.groups.bracing),
     ];
-    type Prop = (&'static str, &'static str, Quantity, fn(&Section) -> f64, fn(&mut Section, f64), (f64, f64));
+    type Prop =
+        (&'static str, &'static str, Quantity, fn(&Section) -> f64, fn(&mut Section, f64), (f64, f64));
     let props: [Prop; 5] = [
         ("E", "e", Quantity::Modulus, |s| s.e, |s, v| s.e = v, (1e5, 1e9)),
         ("A", "a", Quantity::Area, |s| s.a, |s, v| s.a = v, (1e-5, 100.0)),

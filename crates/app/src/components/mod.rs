@@ -3,3 +3,4 @@
 pub mod canvases;
 pub mod controls;
 pub mod results;
+pub mod toolbar;

@@ -52,7 +52,12 @@ fn rows(a: &Analysis) -> Vec<Row> {
         if let Some(rc) = idx.and_then(|i| case.reaction(i)) {
             r.push(row(id_h, &format!("Springing {name}: horizontal"), Quantity::Force, rc.fx));
             r.push(row(id_v, &format!("Springing {name}: vertical"), Quantity::Force, rc.fy));
-            r.push(row(id_a, &format!("Springing {name}: angle from horizontal"), Quantity::Angle, rc.fy.atan2(rc.fx.abs()).to_degrees()));
+            r.push(row(
+                id_a,
+                &format!("Springing {name}: angle from horizontal"),
+                Quantity::Angle,
+                rc.fy.atan2(rc.fx.abs()).to_degrees(),
+            ));
         }
     }
     for (id, label, group) in [
@@ -65,7 +70,12 @@ fn rows(a: &Analysis) -> Vec<Row> {
             r.push(row(id, label, Quantity::Force, n));
         }
     }
-    r.push(row("result-rib-m", "Residual rib moment, largest |M|", Quantity::Moment, a.residual_rib_moments.max_abs));
+    r.push(row(
+        "result-rib-m",
+        "Residual rib moment, largest |M|",
+        Quantity::Moment,
+        a.residual_rib_moments.max_abs,
+    ));
     r.push(text_row(
         "result-form",
         "Form finding",
@@ -93,7 +103,11 @@ pub fn ResultsPanel() -> impl IntoView {
         let units: Units = state.units.get();
         match state.analysis.get() {
             Ok(a) => {
-                let warnings = a.warnings.iter().map(|w| view! { <li>{format!("{}: {}", w.location, w.message)}</li> }).collect_view();
+                let warnings = a
+                    .warnings
+                    .iter()
+                    .map(|w| view! { <li>{format!("{}: {}", w.location, w.message)}</li> })
+                    .collect_view();
                 let table = rows(&a)
                     .into_iter()
                     .map(|r| {

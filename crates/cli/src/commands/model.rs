@@ -17,7 +17,10 @@ pub fn run(args: &[String]) -> anyhow::Result<()> {
     let form = find_form(&design)?;
     let model = match which {
         "truss" => {
-            anyhow::ensure!(design.bracing.is_braced(), "the design has no bracing, so it has no truss idealisation");
+            anyhow::ensure!(
+                design.bracing.is_braced(),
+                "the design has no bracing, so it has no truss idealisation"
+            );
             truss_model(&design, &form)?
         }
         "rib" => bare_rib_model(&design, &form)?,

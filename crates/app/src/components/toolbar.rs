@@ -1,0 +1,67 @@
+//! The header's tools: undo / redo (with the usual shortcuts), units, and copy link.
+
+use crate::format::Units;
+use crate::state::AppState;
+use leptos::prelude::*;
+
+/// Undo, redo, unit system and the copy-link button.
+#[component]
+pub fn Toolbar() -> impl IntoView {
+    let state = expect_context::<AppState>();
+    let copied = RwSignal::new(false);
+    // Ctrl/Cmd+Z undo; Ctrl/Cmd+Shift+Z or Ctrl+Y redo (not while typing in a field)
+    let keys = window_event_listener(leptos::ev::keydown, move |ev: web_sys::KeyboardEvent| {
+        if !(ev.ctrl_key() || ev.meta_key()) {
+            return;
+        }
+        let typing = ev
+            .target()
+            .and_then(|t| wasm_bindgen::JsCast::dyn_into::<web_sys::HtmlElement>(t).ok())
+            .map(|e| e.tag_name() == "INPUT")
+            .unwrap_or(false);
+        if typing {
+            return;
+        }
+        let key = ev.key().to_lowercase();
+        let done = match (key.as_str(), ev.shift_key()) {
+            ("z", false) => state.undo(),
+            ("z", true) | ("y", _) => state.redo(),
+            _ => return,
+        };
+        if done {
+            ev.prevent_default();
+        }
+    });
+    on_cleanup(move || keys.remove());
+    let copy = move |_| {
+        let Some(w) = web_sys::window() else { return };
+        let href = w.location().href().unwrap_or_default();
+        let _ = w.navigator().clipboard().write_text(&href);
+        copied.set(true);
+        set_timeout(move || copied.set(false), std::time::Duration::from_millis(1500));
+    };
+    let units_label = move || match state.units.get() {
+        Units::Si => "units: SI",
+        Units::UsCustomary => "units: US",
+    };
+    let toggle_units = move |_| {
+        state.units.update(|u| {
+            *u = match u {
+                Units::Si => Units::UsCustomary,
+                Units::UsCustomary => Units::Si,
+            }
+        })
+    };
+    view! {
+        <div class="toolbar">
+            <button id="undo" title="Undo (Ctrl+Z)" on:click=move |_| { state.undo(); }
+                prop:disabled=move || state.past.with(|p| p.is_empty())>"↶ undo"</button>
+            <button id="redo" title="Redo (Ctrl+Shift+Z)" on:click=move |_| { state.redo(); }
+                prop:disabled=move || state.future.with(|f| f.is_empty())>"↷ redo"</button>
+            <button id="units" title="Switch SI / US customary" on:click=toggle_units>{units_label}</button>
+            <button id="copy-link" title="Copy a link that opens this design" on:click=copy>
+                {move || if copied.get() { "link copied" } else { "copy link" }}
+            </button>
+        </div>
+    }
+}

@@ -1,0 +1,72 @@
+//! Keeps the URL fragment and the design in step: the design is read from the link on
+//! load and when a link is pasted (hashchange); the fragment follows the design after a
+//! short pause, replacing the history entry so the back button is not flooded.
+
+use crate::state::AppState;
+use leptos::prelude::*;
+use springline_statics::permalink;
+use springline_statics::Design;
+use std::time::Duration;
+
+/// Pause before the address bar follows an edit.
+const URL_DEBOUNCE: Duration = Duration::from_millis(300);
+
+/// The design to open first: the link's, or the demo with a notice when the link is bad.
+pub fn initial_design() -> (Design, Option<String>) {
+    let hash = web_sys::window().and_then(|w| w.location().hash().ok()).unwrap_or_default();
+    if hash.trim_start_matches('#').is_empty() {
+        return (Design::demo(), None);
+    }
+    match permalink::decode(&hash) {
+        Ok(d) => (d, None),
+        Err(e) => (Design::demo(), Some(format!("This link could not be opened ({e}). Showing the demo design instead."))),
+    }
+}
+
+/// Installs the two-way sync.
+pub fn install(state: AppState) {
+    // design -> fragment, debounced
+    let generation = StoredValue::new(0u64);
+    Effect::new(move |_| {
+        let fragment = state.design.with(|d| format!("#{}", permalink::encode(d)));
+        generation.update_value(|g| *g += 1);
+        let mine = generation.get_value();
+        set_timeout(
+            move || {
+                if generation.get_value() != mine {
+                    return;
+                }
+                let Some(w) = web_sys::window() else { return };
+                if w.location().hash().ok().as_deref() == Some(fragment.as_str()) {
+                    return;
+                }
+                if let Ok(h) = w.history() {
+                    let _ = h.replace_state_with_url(&wasm_bindgen::JsValue::NULL, "", Some(&fragment));
+                }
+            },
+            URL_DEBOUNCE,
+        );
+    });
+    // pasted link -> design (one undo step); a bad link leaves the open design as it is
+    let handle = window_event_listener(leptos::ev::hashchange, move |_| {
+        let hash = web_sys::window().and_then(|w| w.location().hash().ok()).unwrap_or_default();
+        let current = state.design.with_untracked(|d| format!("#{}", permalink::encode(d)));
+        if hash == current {
+            return;
+        }
+        match permalink::decode(&hash) {
+            Ok(d) => {
+                state.notice.set(None);
+                state.commit(d);
+            }
+            Err(e) => {
+                state.notice.set(Some(format!("This link could not be opened ({e}). The open design is unchanged.")));
+                // the address bar goes back to the open design's link
+                if let Some(h) = web_sys::window().and_then(|w| w.history().ok()) {
+                    let _ = h.replace_state_with_url(&wasm_bindgen::JsValue::NULL, "", Some(&current));
+                }
+            }
+        }
+    });
+    on_cleanup(move || handle.remove());
+}
