@@ -90,10 +90,13 @@ fn pole_offset(figure: &ForceDiagram, pole: Option<&PoleConstruction>) -> f64 {
     x1 - left + 0.35 * (x1 - x0).max(figure.largest_force * 0.1)
 }
 
+/// Spaces found at one point: letters, numbers, the point, whether any is outside.
+type PointGroup<'a> = (Vec<&'a str>, Vec<usize>, (f64, f64), bool);
+
 /// Labels of spaces that share a point, joined ("B, C" or "3–7"), with the point.
 fn grouped_labels(figure: &ForceDiagram) -> Vec<(String, (f64, f64), bool)> {
     let tol = 1e-6 * figure.largest_force.max(1e-9);
-    let mut groups: Vec<(Vec<&str>, Vec<usize>, (f64, f64), bool)> = Vec::new();
+    let mut groups: Vec<PointGroup> = Vec::new();
     for sp in &figure.spaces {
         let p = (sp.point.x, sp.point.y);
         let outside = sp.kind == SpaceKind::Outside;

@@ -41,6 +41,24 @@ pub const KN_PER_KIP: f64 = 4.448_221_615_260_5;
 /// 1 ft = 0.3048 m (exact).
 pub const M_PER_FT: f64 = 0.3048;
 
+impl Quantity {
+    /// A short name for data attributes ("force", "length", ...).
+    pub fn key(self) -> &'static str {
+        match self {
+            Quantity::Length => "length",
+            Quantity::Force => "force",
+            Quantity::Moment => "moment",
+            Quantity::Pressure => "pressure",
+            Quantity::Modulus => "modulus",
+            Quantity::Area => "area",
+            Quantity::Inertia => "inertia",
+            Quantity::UnitWeight => "unit-weight",
+            Quantity::Count => "count",
+            Quantity::Angle => "angle",
+        }
+    }
+}
+
 impl Units {
     /// (factor from SI, unit label): shown value = SI value * factor.
     pub fn of(self, q: Quantity) -> (f64, &'static str) {

@@ -19,7 +19,10 @@ pub fn initial_design() -> (Design, Option<String>) {
     }
     match permalink::decode(&hash) {
         Ok(d) => (d, None),
-        Err(e) => (Design::demo(), Some(format!("This link could not be opened ({e}). Showing the demo design instead."))),
+        Err(e) => (
+            Design::demo(),
+            Some(format!("This link could not be opened ({e}). Showing the demo design instead.")),
+        ),
     }
 }
 
@@ -60,7 +63,9 @@ pub fn install(state: AppState) {
                 state.commit(d);
             }
             Err(e) => {
-                state.notice.set(Some(format!("This link could not be opened ({e}). The open design is unchanged.")));
+                state
+                    .notice
+                    .set(Some(format!("This link could not be opened ({e}). The open design is unchanged.")));
                 // the address bar goes back to the open design's link
                 if let Some(h) = web_sys::window().and_then(|w| w.history().ok()) {
                     let _ = h.replace_state_with_url(&wasm_bindgen::JsValue::NULL, "", Some(&current));

@@ -65,7 +65,7 @@ pub struct LdlFactor {
 }
 
 /// Why a factorisation failed: the pivot of freedom `index` collapsed; `null_vector` is
-/// a vector v (length n, zero beyond `index`, v[index] = 1) with A v = 0 up to rounding.
+/// a vector v (length n, zero beyond `index`, `v[index] = 1`) with A v = 0 up to rounding.
 #[derive(Debug, Clone)]
 pub struct SingularPivot {
     /// The equation whose pivot vanished.

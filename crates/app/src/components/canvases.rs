@@ -34,7 +34,8 @@ pub fn ElevationCanvas() -> impl IntoView {
         let design = state.design.get();
         if let Ok(a) = outcome {
             let case = state.case.get();
-            let v = elevation::draw(&s, &ElevationInput { design: &design, analysis: &a, hovered, units, case });
+            let v =
+                elevation::draw(&s, &ElevationInput { design: &design, analysis: &a, hovered, units, case });
             v.publish(&el, "m");
             view.set_value(Some(v));
         }
@@ -46,7 +47,9 @@ pub fn ElevationCanvas() -> impl IntoView {
         let (Some(el), Some(v)) = (node.get(), view.get_value()) else { return };
         let at = pointer_in(&el, &ev);
         let design = state.design.get_untracked();
-        let handle = state.analysis.with_untracked(|o| o.as_ref().ok().and_then(|a| drag::handle_at(&design, a, &v, at)));
+        let handle = state
+            .analysis
+            .with_untracked(|o| o.as_ref().ok().and_then(|a| drag::handle_at(&design, a, &v, at)));
         if let Some(h) = handle {
             let _ = el.set_pointer_capture(ev.pointer_id());
             ev.prevent_default();
@@ -73,15 +76,21 @@ pub fn ElevationCanvas() -> impl IntoView {
             if state.preview(candidate) {
                 state.notice.set(None);
             } else {
-                state.notice.set(Some("That position is not a valid design; the last valid one is kept.".into()));
+                state
+                    .notice
+                    .set(Some("That position is not a valid design; the last valid one is kept.".into()));
             }
             return;
         }
         let grabbable = {
             let design = state.design.get_untracked();
-            state.analysis.with_untracked(|o| o.as_ref().ok().and_then(|a| drag::handle_at(&design, a, &v, at))).is_some()
+            state
+                .analysis
+                .with_untracked(|o| o.as_ref().ok().and_then(|a| drag::handle_at(&design, a, &v, at)))
+                .is_some()
         };
-        let _ = web_sys::HtmlElement::style(&el).set_property("cursor", if grabbable { "grab" } else { "default" });
+        let _ = web_sys::HtmlElement::style(&el)
+            .set_property("cursor", if grabbable { "grab" } else { "default" });
         let hit = state.analysis.with_untracked(|o| {
             let a = o.as_ref().ok()?;
             let t = a.truss.as_ref()?;

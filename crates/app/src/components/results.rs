@@ -113,10 +113,11 @@ pub fn ResultsPanel() -> impl IntoView {
                     .map(|r| {
                         let shown = r.text.clone().unwrap_or_else(|| units.show(r.quantity, r.si));
                         let data = if r.text.is_some() { String::new() } else { format!("{}", r.si) };
+                        let kind = if r.text.is_some() { "text" } else { r.quantity.key() };
                         view! {
                             <tr>
                                 <th scope="row">{r.label}</th>
-                                <td id=r.id data-value=data>{shown}</td>
+                                <td id=r.id data-value=data data-quantity=kind>{shown}</td>
                             </tr>
                         }
                     })
