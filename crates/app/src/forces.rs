@@ -220,10 +220,7 @@ fn draw_reciprocal(
         let color = if outside { INK } else { DIM };
         canvas::label(ctx, &text, (at.0 + 8.0, at.1 - 8.0), "11px system-ui, sans-serif", color, "left");
     }
-    let mut title = "Force diagram · truss idealisation · dead load".to_string();
-    if figure.pass_through {
-        title.push_str(" · crossed bracing drawn through pass-through joints");
-    }
+    let title = format!("Force diagram · truss idealisation · case '{}'", figure.case);
     canvas::text(ctx, &title, (12.0, 14.0), "600 13px system-ui, sans-serif", INK, "left");
     let scale_kn = units.show(Quantity::Force, 50.0 / view.scale);
     canvas::text(
@@ -234,6 +231,10 @@ fn draw_reciprocal(
         DIM,
         "left",
     );
+    if figure.pass_through {
+        let note = "crossed bracing: drawn through pass-through joints at the crossings";
+        canvas::text(ctx, note, (12.0, 44.0), "11px system-ui, sans-serif", DIM, "left");
+    }
     view
 }
 
