@@ -297,7 +297,7 @@ fn draw_thrust(s: &Surface, tl: &ThrustLine, units: Units) -> View {
     }
     canvas::text(
         ctx,
-        "Thrust line · frame model rib · dead load",
+        &format!("Thrust line · frame model rib · case '{}'", tl.case),
         (12.0, 14.0),
         "600 13px system-ui, sans-serif",
         INK,
