@@ -305,12 +305,23 @@ fn draw_thrust(s: &Surface, tl: &ThrustLine, units: Units) -> View {
     );
     let gsf = tl.geometric_safety_factor.map(|g| format!("{g:.1}")).unwrap_or_else(|| "∞".into());
     let note = format!(
-        "offsets ×{:.0} · band: rib depth {} · dark: middle third · worst offset {} · geometric safety factor {gsf}",
+        "offsets drawn ×{:.0} · light band: rib depth {} · dark band: middle third",
         exaggeration,
-        units.show(Quantity::Length, tl.depth),
-        units.show(Quantity::Length, tl.max_offset)
+        units.show(Quantity::Length, tl.depth)
     );
     canvas::text(ctx, &note, (12.0, 30.0), "11px system-ui, sans-serif", DIM, "left");
+    let verdict = if tl.inside_middle_third {
+        "inside the middle third"
+    } else if tl.inside_depth {
+        "outside the middle third, inside the depth"
+    } else {
+        "outside the rib depth"
+    };
+    let check = format!(
+        "worst offset {} (circle) · {verdict} · geometric safety factor {gsf}",
+        units.show(Quantity::Length, tl.max_offset)
+    );
+    canvas::text(ctx, &check, (12.0, 44.0), "11px system-ui, sans-serif", DIM, "left");
     view
 }
 
