@@ -77,7 +77,7 @@ fn dragging_the_crown_changes_the_rise_by_the_dragged_distance_and_undo_redo_res
 fn a_permalink_opened_in_a_fresh_profile_reproduces_the_results() {
     let server = StaticServer::start(&dist());
     let driver = Driver::start();
-    let url;
+    let mut url;
     let text;
     {
         let s = driver.session(1500, 1000, 1.0);
@@ -90,15 +90,23 @@ fn a_permalink_opened_in_a_fresh_profile_reproduces_the_results() {
         text = results_text(&s);
         // the fragment follows the design after a short pause, without new history entries
         let history_before = s.exec("return history.length", vec![]);
-        let href = s.wait_for(
-            "the address to carry the design",
-            "return location.hash.length > 10 && location.hash.startsWith('#s1.') ? location.href : null",
-            WAIT,
-        );
-        url = href.as_str().unwrap_or("").to_string();
-        let decoded = permalink::decode(&url).expect("the link decodes");
-        assert_eq!(decoded.panels, 14);
-        assert_eq!(decoded.springing_left_level, 74.5);
+        // poll until the (debounced) address carries both edits
+        let deadline = std::time::Instant::now() + WAIT;
+        let decoded = loop {
+            let href = s.exec("return location.href", vec![]);
+            url = href.as_str().unwrap_or("").to_string();
+            if let Ok(d) = permalink::decode(&url) {
+                if d.panels == 14 && d.springing_left_level == 74.5 {
+                    break d;
+                }
+            }
+            assert!(
+                std::time::Instant::now() < deadline,
+                "the address never carried the edited design: {url}"
+            );
+            std::thread::sleep(std::time::Duration::from_millis(50));
+        };
+        assert_eq!(decoded.deck, Design::demo().deck, "the rest of the design travels unchanged");
         assert_eq!(s.exec("return history.length", vec![]), history_before, "no history entries added");
         assert!(url.len() < 2000, "link under 2,000 characters: {}", url.len());
     }

@@ -237,10 +237,21 @@ pub fn draw(s: &Surface, input: &ElevationInput) -> View {
         "left",
     );
 
-    // title and legend
+    // draggable points: crown and springings
+    for q in [f.crown, f.springing_left, f.springing_right] {
+        let c = p(q.x, q.y);
+        ctx.set_fill_style_str("#ffffff");
+        ctx.fill_rect(c.0 - 4.0, c.1 - 4.0, 8.0, 8.0);
+        ctx.set_stroke_style_str(INK);
+        ctx.set_line_width(1.2);
+        ctx.stroke_rect(c.0 - 4.0, c.1 - 4.0, 8.0, 8.0);
+    }
+
+    // title (naming the model and the load case shown) and legend
+    let case_name = a.load_cases.get(case_index).map(|c| c.case.clone()).unwrap_or_else(|| "dead".into());
     canvas::text(
         ctx,
-        "Elevation · frame model · dead load",
+        &format!("Elevation · frame model · case '{case_name}'"),
         (12.0, 14.0),
         "600 13px system-ui, sans-serif",
         INK,

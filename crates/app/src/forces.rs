@@ -15,9 +15,9 @@ use springline_statics::Analysis;
 pub enum ForcePicture {
     /// Braced: the truss's reciprocal figure and the rib's pole construction.
     Reciprocal {
-        /// The figure of the dead load.
+        /// The figure of the case shown.
         figure: ForceDiagram,
-        /// Load line, pole and rays of the form-finding loads on the rib.
+        /// Load line, pole and rays of the same case's loads on the bare rib.
         pole: Option<PoleConstruction>,
     },
     /// Unbraced: the thrust line of the frame model's rib.
@@ -51,19 +51,13 @@ pub fn picture(a: &Analysis, case: usize) -> ForcePicture {
 
 /// Draws the picture; returns the view (world unit: kN for the figure, m for the thrust
 /// line) so pointer positions can be mapped back.
-pub fn draw(
-    s: &Surface,
-    pic: &ForcePicture,
-    a: &Analysis,
-    hovered: Option<usize>,
-    units: Units,
-) -> Option<View> {
+pub fn draw(s: &Surface, pic: &ForcePicture, hovered: Option<usize>, units: Units) -> Option<View> {
     let ctx = &s.ctx;
     ctx.set_fill_style_str(SKY);
     ctx.fill_rect(0.0, 0.0, s.width, s.height);
     match pic {
         ForcePicture::Reciprocal { figure, pole } => {
-            Some(draw_reciprocal(s, figure, pole.as_ref(), a, hovered, units))
+            Some(draw_reciprocal(s, figure, pole.as_ref(), hovered, units))
         }
         ForcePicture::Thrust(tl) => Some(draw_thrust(s, tl, units)),
         ForcePicture::Unavailable(why) => {
@@ -144,7 +138,6 @@ fn draw_reciprocal(
     s: &Surface,
     figure: &ForceDiagram,
     pole: Option<&PoleConstruction>,
-    a: &Analysis,
     hovered: Option<usize>,
     units: Units,
 ) -> View {
@@ -174,7 +167,8 @@ fn draw_reciprocal(
         if let Some(top) = ll.first() {
             canvas::label(
                 ctx,
-                &format!("rib loads · H = {}", units.show(Quantity::Force, a.form.thrust)),
+                // the pole sits H to the left of the load line
+                &format!("rib loads · pole distance H = {}", units.show(Quantity::Force, -pc.pole.x)),
                 (top.0 + 4.0, top.1 - 14.0),
                 "11px system-ui, sans-serif",
                 DIM,
@@ -248,14 +242,19 @@ fn draw_thrust(s: &Surface, tl: &ThrustLine, units: Units) -> View {
     let view = View::fit(bounds, s.width, s.height, 40.0, 46.0);
     // exaggerate offsets so that the rib depth shows as about 24 px
     let exaggeration = (24.0 / (tl.depth * view.scale)).max(1.0);
-    let normals: Vec<(f64, f64)> = tl
-        .sections
-        .iter()
-        .map(|sec| {
-            let (dx, dy) = (sec.point.0 - sec.axis.0, sec.point.1 - sec.axis.1);
-            let e = sec.offset;
-            if e.abs() > 1e-12 {
-                (dx / e, dy / e)
+    // section normals from the rib's own direction (left-hand normal, towards the
+    // extrados): the offset is measured along them
+    let normals: Vec<(f64, f64)> = (0..axis.len())
+        .map(|i| {
+            let (a, b) = if i + 1 < axis.len() {
+                (axis[i], axis[i + 1])
+            } else {
+                (axis[i.saturating_sub(1)], axis[i])
+            };
+            let (dx, dy) = (b.0 - a.0, b.1 - a.1);
+            let l = dx.hypot(dy);
+            if l > 0.0 {
+                (-dy / l, dx / l)
             } else {
                 (0.0, 1.0)
             }

@@ -119,6 +119,10 @@ pub fn round_for_display(v: f64) -> String {
     if v == 0.0 {
         return "0".into();
     }
+    if v.abs() < 1e-3 {
+        // small areas and second moments: four figures in scientific notation
+        return format!("{v:.3e}").replace('-', "−");
+    }
     let mag = v.abs().log10().floor() as i32;
     let decimals = (3 - mag).clamp(0, 3) as usize;
     let s = format!("{:.*}", decimals, v.abs());
@@ -157,6 +161,7 @@ mod tests {
         assert_eq!(round_for_display(97.5), "97.50");
         assert_eq!(round_for_display(-0.012345), "−0.012");
         assert_eq!(parse_display(&round_for_display(-4321.4)), Some(-4321.0));
+        assert_eq!(round_for_display(1e-10), "1.000e−10");
     }
 
     #[test]

@@ -5,7 +5,7 @@
 use crate::state::AppState;
 use leptos::prelude::*;
 use springline_statics::permalink;
-use springline_statics::Design;
+use springline_statics::{analyze, Design};
 use std::time::Duration;
 
 /// Pause before the address bar follows an edit.
@@ -17,7 +17,12 @@ pub fn initial_design() -> (Design, Option<String>) {
     if hash.trim_start_matches('#').is_empty() {
         return (Design::demo(), None);
     }
-    match permalink::decode(&hash) {
+    // a link must hold a design that analyses, not only one that validates
+    let opened = permalink::decode(&hash).map_err(|e| e.to_string()).and_then(|d| match analyze(&d) {
+        Ok(_) => Ok(d),
+        Err(e) => Err(format!("its design cannot be analysed: {e}")),
+    });
+    match opened {
         Ok(d) => (d, None),
         Err(e) => (
             Design::demo(),
@@ -57,7 +62,11 @@ pub fn install(state: AppState) {
         if hash == current {
             return;
         }
-        match permalink::decode(&hash) {
+        let opened = permalink::decode(&hash).map_err(|e| e.to_string()).and_then(|d| {
+            state.check(&d).map_err(|e| format!("its design cannot be analysed: {e}"))?;
+            Ok(d)
+        });
+        match opened {
             Ok(d) => {
                 state.notice.set(None);
                 state.commit(d);

@@ -34,6 +34,9 @@ pub struct AppState {
     pub notice: RwSignal<Option<String>>,
     /// The load case shown in the drawings (index into `Analysis::load_cases`).
     pub case: RwSignal<usize>,
+    /// The analysis just computed for a design about to be set, so the memo does not
+    /// compute it a second time.
+    checked: StoredValue<Option<(Design, Arc<Analysis>)>>,
 }
 
 /// How many steps undo keeps.
@@ -43,8 +46,17 @@ impl AppState {
     /// State holding `design`.
     pub fn new(design: Design) -> Self {
         let design = RwSignal::new(design);
-        let analysis =
-            Memo::new(move |_| design.with(|d| analyze(d).map(Arc::new).map_err(|e| e.to_string())));
+        let checked = StoredValue::new(None::<(Design, Arc<Analysis>)>);
+        let analysis = Memo::new(move |_| {
+            design.with(|d| {
+                let cached =
+                    checked.with_value(|c| c.as_ref().filter(|(cd, _)| cd == d).map(|(_, a)| a.clone()));
+                match cached {
+                    Some(a) => Ok(a),
+                    None => analyze(d).map(Arc::new).map_err(|e| e.to_string()),
+                }
+            })
+        });
         AppState {
             design,
             analysis,
@@ -55,6 +67,7 @@ impl AppState {
             future: RwSignal::new(Vec::new()),
             notice: RwSignal::new(None),
             case: RwSignal::new(0),
+            checked,
         }
     }
 
@@ -63,16 +76,24 @@ impl AppState {
     pub fn try_edit(&self, edit: impl FnOnce(&mut Design)) -> Result<(), String> {
         let mut candidate = self.design.get_untracked();
         edit(&mut candidate);
-        match analyze(&candidate) {
-            Ok(_) => {
-                self.commit(candidate);
+        self.check(&candidate)?;
+        self.commit(candidate);
+        Ok(())
+    }
+
+    /// Analyses `design`, keeping the result for the memo; the engine's message if it
+    /// does not analyse.
+    pub fn check(&self, design: &Design) -> Result<(), String> {
+        match analyze(design) {
+            Ok(a) => {
+                self.checked.set_value(Some((design.clone(), Arc::new(a))));
                 Ok(())
             }
             Err(e) => Err(e.to_string()),
         }
     }
 
-    /// Makes `design` current as one undo step (the caller has checked it analyses).
+    /// Makes `design` current as one undo step (the caller has checked that it analyses).
     pub fn commit(&self, design: Design) {
         let previous = self.design.get_untracked();
         if previous == design {
@@ -97,7 +118,7 @@ impl AppState {
     /// recorded once, when it ends). Returns false, changing nothing, when it does not
     /// analyse.
     pub fn preview(&self, design: Design) -> bool {
-        if analyze(&design).is_ok() {
+        if self.check(&design).is_ok() {
             self.design.set(design);
             true
         } else {

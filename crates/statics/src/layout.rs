@@ -11,6 +11,10 @@ use crate::design::{Bracing, Design, RibSystem};
 
 use serde::{Deserialize, Serialize};
 
+/// Posts shorter than this fraction of the span are never made: rib and deck share the
+/// node instead (a zero-length member cannot be analysed; 1e-6 of a 100 m span is 0.1 mm).
+pub const SHARED_NODE_GAP: f64 = 1e-6;
+
 /// A node of the arch layout, before numbering in a model.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
 #[serde(tag = "kind", content = "index", rename_all = "snake_case")]
@@ -173,7 +177,10 @@ impl Topology {
                 if f.system == RibSystem::ThreeHinged && is_crown {
                     return false; // nothing crosses the three-hinged crown
                 }
-                f.deck_level - rib_y[r] < min_post
+                // a post of (nearly) zero length is no post: share the node even when the
+                // user's minimum is zero
+                let gap = f.deck_level - rib_y[r];
+                gap < min_post || gap <= SHARED_NODE_GAP * (f.b.0 - f.a.0).abs()
             })
             .collect();
         Topology::with_shared(f, shared)

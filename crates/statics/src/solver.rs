@@ -317,6 +317,14 @@ pub fn validate(model: &Model) -> Result<(), StaticsError> {
             });
             if pd.node >= nn {
                 add(loc.clone(), format!("prescribed displacement at node {} which does not exist", pd.node));
+            } else if pd.dof == Dof::Rz && !rot[pd.node] {
+                add(
+                    loc.clone(),
+                    format!(
+                        "prescribed rotation at node {}: every member there is pinned, so the node has no rotation to impose",
+                        model.node_label(pd.node)
+                    ),
+                );
             } else if !restrained {
                 add(
                     loc.clone(),

@@ -28,11 +28,12 @@ pub fn ElevationCanvas() -> impl IntoView {
         let _ = state.resized.get();
         let hovered = state.hovered.get().0;
         let units = state.units.get();
-        let Some(el) = node.get() else { return };
-        let Some(s) = canvas::prepare(&el) else { return };
+        // an analysis error leaves the last drawing on screen
         let outcome = state.analysis.get();
         let design = state.design.get();
         if let Ok(a) = outcome {
+            let Some(el) = node.get() else { return };
+            let Some(s) = canvas::prepare(&el) else { return };
             let case = state.case.get();
             let v =
                 elevation::draw(&s, &ElevationInput { design: &design, analysis: &a, hovered, units, case });
@@ -137,10 +138,13 @@ pub fn ForceCanvas() -> impl IntoView {
         let _ = state.resized.get();
         let hovered = state.hovered.get().0;
         let units = state.units.get();
+        // an analysis error leaves the last drawing on screen
+        if state.analysis.with(|o| o.is_err()) {
+            return;
+        }
         let Some(el) = node.get() else { return };
         let Some(s) = canvas::prepare(&el) else { return };
-        let Ok(a) = state.analysis.get() else { return };
-        let v = picture.with(|p| forces::draw(&s, p, &a, hovered, units));
+        let v = picture.with(|p| forces::draw(&s, p, hovered, units));
         if let Some(v) = v {
             let unit =
                 picture.with_untracked(|p| if matches!(p, ForcePicture::Thrust(_)) { "m" } else { "kN" });

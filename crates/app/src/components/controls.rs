@@ -250,7 +250,7 @@ pub fn RoadwayPanel() -> impl IntoView {
             {design_field("Left seat x", "seat-left", Quantity::Length, |d| d.deck.left_seat_x, |d, v| d.deck.left_seat_x = v, (-1e5, 1e5), false)}
             {design_field("Right seat x", "seat-right", Quantity::Length, |d| d.deck.right_seat_x, |d, v| d.deck.right_seat_x = v, (-1e5, 1e5), false)}
             {design_field("Deck width", "deck-width", Quantity::Length, |d| d.deck.width, |d, v| d.deck.width = v, (1.0, 60.0), false)}
-            {design_field("Ribs", "ribs", Quantity::Count, |d| d.deck.ribs as f64, |d, v| d.deck.ribs = v as usize, (1.0, 8.0), true)}
+            {design_field("Ribs", "ribs", Quantity::Count, |d| d.deck.ribs as f64, |d, v| d.deck.ribs = v as usize, (1.0, 100.0), true)}
             {design_field("Arch panels", "panels", Quantity::Count, |d| d.panels as f64, |d, v| d.panels = v as usize, (2.0, 200.0), true)}
             {design_field("Approach piers, left", "piers-left", Quantity::Count, |d| d.approach_piers_left as f64, |d, v| d.approach_piers_left = v as usize, (0.0, 50.0), true)}
             {design_field("Approach piers, right", "piers-right", Quantity::Count, |d| d.approach_piers_right as f64, |d, v| d.approach_piers_right = v as usize, (0.0, 50.0), true)}
