@@ -81,55 +81,65 @@ fn pole_offset(figure: &ForceDiagram, pole: Option<&PoleConstruction>) -> f64 {
     let x1 = xs.clone().fold(f64::NEG_INFINITY, f64::max);
     let x0 = xs.fold(f64::INFINITY, f64::min);
     let left = pole.map(|p| p.pole.x.min(0.0)).unwrap_or(0.0);
-    x1 - left + 0.35 * (x1 - x0).max(figure.largest_force * 0.1)
+    x1 - left + 0.6 * (x1 - x0).max(figure.largest_force * 0.1)
 }
 
-/// Spaces found at one point: letters, numbers, the point, whether any is outside.
-type PointGroup<'a> = (Vec<&'a str>, Vec<usize>, (f64, f64), bool);
+/// Spaces found at one point: (order, label) of outside and of inside spaces, the point.
+type PointGroup = (Vec<(usize, String)>, Vec<(usize, String)>, (f64, f64));
 
-/// Labels of spaces that share a point, joined ("B, C" or "3–7"), with the point.
+/// Runs of consecutive keys written as "first–last": A, B, C, D -> "A–D"; 3, 4 -> "3, 4".
+fn runs(mut items: Vec<(usize, String)>) -> Vec<String> {
+    items.sort_by_key(|i| i.0);
+    let mut out = Vec::new();
+    let mut i = 0;
+    while i < items.len() {
+        let mut j = i;
+        while j + 1 < items.len() && items[j + 1].0 == items[j].0 + 1 {
+            j += 1;
+        }
+        out.push(match j - i {
+            0 => items[i].1.clone(),
+            1 => format!("{}, {}", items[i].1, items[j].1),
+            _ => format!("{}–{}", items[i].1, items[j].1),
+        });
+        i = j + 1;
+    }
+    out
+}
+
+/// Labels of spaces that share a point, joined ("B, 1, 2" or "O–AA"), with the point
+/// and whether an outside space is among them.
 fn grouped_labels(figure: &ForceDiagram) -> Vec<(String, (f64, f64), bool)> {
     let tol = 1e-6 * figure.largest_force.max(1e-9);
     let mut groups: Vec<PointGroup> = Vec::new();
+    let (mut n_out, mut n_in) = (0usize, 0usize);
     for sp in &figure.spaces {
         let p = (sp.point.x, sp.point.y);
-        let outside = sp.kind == SpaceKind::Outside;
         let found = groups.iter_mut().find(|g| (g.2 .0 - p.0).abs() <= tol && (g.2 .1 - p.1).abs() <= tol);
         let g = match found {
             Some(g) => g,
             None => {
-                groups.push((Vec::new(), Vec::new(), p, false));
+                groups.push((Vec::new(), Vec::new(), p));
                 groups.last_mut().expect("just pushed")
             }
         };
-        if outside {
-            g.0.push(&sp.label);
-            g.3 = true;
-        } else if let Ok(n) = sp.label.parse::<usize>() {
-            g.1.push(n);
+        if sp.kind == SpaceKind::Outside {
+            g.0.push((n_out, sp.label.clone()));
+            n_out += 1;
+        } else {
+            // inside faces are numbered in order, so the number is the key
+            let key = sp.label.parse::<usize>().unwrap_or(n_in);
+            g.1.push((key, sp.label.clone()));
+            n_in += 1;
         }
     }
     groups
         .into_iter()
-        .map(|(letters, mut numbers, p, outside)| {
-            numbers.sort_unstable();
-            let mut parts: Vec<String> = letters.iter().map(|l| l.to_string()).collect();
-            let mut i = 0;
-            while i < numbers.len() {
-                let mut j = i;
-                while j + 1 < numbers.len() && numbers[j + 1] == numbers[j] + 1 {
-                    j += 1;
-                }
-                parts.push(if j > i + 1 {
-                    format!("{}–{}", numbers[i], numbers[j])
-                } else if j == i + 1 {
-                    format!("{}, {}", numbers[i], numbers[j])
-                } else {
-                    numbers[i].to_string()
-                });
-                i = j + 1;
-            }
-            (parts.join(", "), p, outside)
+        .map(|(outside, inside, p)| {
+            let any_outside = !outside.is_empty();
+            let mut parts = runs(outside);
+            parts.extend(runs(inside));
+            (parts.join(", "), p, any_outside)
         })
         .collect()
 }
@@ -163,7 +173,7 @@ fn draw_reciprocal(
         let ll: Vec<(f64, f64)> = pc.load_line.iter().map(|q| p((shift + q.x, q.y))).collect();
         canvas::polyline(ctx, &ll, LOAD, 2.0);
         canvas::dot(ctx, pp, 3.5, INK);
-        canvas::label(ctx, "pole O", (pp.0, pp.1 + 14.0), "11px system-ui, sans-serif", INK, "center");
+        canvas::label(ctx, "pole O", (pp.0 - 6.0, pp.1 + 14.0), "11px system-ui, sans-serif", INK, "right");
         if let Some(top) = ll.first() {
             canvas::label(
                 ctx,
@@ -338,4 +348,17 @@ pub fn member_at(pic: &ForcePicture, view: &View, pointer: (f64, f64), tolerance
         }
     }
     best.map(|b| b.0)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::runs;
+
+    #[test]
+    fn consecutive_labels_collapse_into_ranges() {
+        let items = |v: &[(usize, &str)]| v.iter().map(|(k, s)| (*k, s.to_string())).collect::<Vec<_>>();
+        assert_eq!(runs(items(&[(14, "O"), (15, "P"), (16, "Q"), (26, "AA")])), vec!["O–Q", "AA"]);
+        assert_eq!(runs(items(&[(3, "3"), (4, "4")])), vec!["3, 4"]);
+        assert_eq!(runs(items(&[(7, "7")])), vec!["7"]);
+    }
 }
