@@ -122,6 +122,11 @@ impl Session {
     pub fn exec(&self, script: &str, args: Vec<Value>) -> Value {
         self.cmd("POST", "/execute/sync", Some(&json!({ "script": script, "args": args })))
     }
+    /// Runs an asynchronous `script`: it must call `arguments[arguments.length - 1]` with
+    /// its result.
+    pub fn exec_async(&self, script: &str, args: Vec<Value>) -> Value {
+        self.cmd("POST", "/execute/async", Some(&json!({ "script": script, "args": args })))
+    }
     /// Polls `script` until it returns something other than null / false, or panics
     /// with `what` after `timeout`.
     pub fn wait_for(&self, what: &str, script: &str, timeout: Duration) -> Value {

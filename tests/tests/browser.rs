@@ -44,7 +44,11 @@ fn loads_without_errors_and_draws_rib_and_load_line() {
     for seg in fd.segments.iter().filter(|g| matches!(g.of, SegmentOf::Load { .. })) {
         let (l, r) = (fd.spaces[seg.left].point, fd.spaces[seg.right].point);
         let mid = to_px(tf, (l.x + r.x) / 2.0, (l.y + r.y) / 2.0);
-        assert!(drawn_near(&s, "forces", mid, 1.5), "load segment drawn at {mid:?}");
+        assert!(
+            drawn_near(&s, "forces", mid, 1.5),
+            "load segment drawn at {mid:?}: pixel {:?}",
+            pixel(&s, "forces", mid)
+        );
         loads += 1;
     }
     assert!(loads >= 10, "the demo has a load at every deck panel point");

@@ -186,15 +186,6 @@ fn draw_reciprocal(
             );
         }
     }
-    // external forces: the load line
-    for seg in &figure.segments {
-        let (l, r) = (figure.spaces[seg.left].point, figure.spaces[seg.right].point);
-        match seg.of {
-            SegmentOf::Load { .. } => canvas::line(ctx, p((r.x, r.y)), p((l.x, l.y)), LOAD, 3.0),
-            SegmentOf::Reaction { .. } => canvas::line(ctx, p((r.x, r.y)), p((l.x, l.y)), REACTION, 3.0),
-            SegmentOf::Member { .. } => {}
-        }
-    }
     // members by sign
     let largest = figure.largest_force.max(1e-9);
     for seg in &figure.segments {
@@ -215,7 +206,17 @@ fn draw_reciprocal(
             canvas::line(ctx, p((r.x, r.y)), p((l.x, l.y)), color, w);
         }
         if seg.zero {
-            canvas::ring(ctx, p((l.x, l.y)), 3.0, ZERO, SKY);
+            // a zero-force member is a point of the figure: an open ring marks it
+            canvas::ring(ctx, p((l.x, l.y)), 3.0, ZERO, "rgba(0,0,0,0)");
+        }
+    }
+    // external forces on top: the load line must stay visible however short
+    for seg in &figure.segments {
+        let (l, r) = (figure.spaces[seg.left].point, figure.spaces[seg.right].point);
+        match seg.of {
+            SegmentOf::Load { .. } => canvas::line(ctx, p((r.x, r.y)), p((l.x, l.y)), LOAD, 3.0),
+            SegmentOf::Reaction { .. } => canvas::line(ctx, p((r.x, r.y)), p((l.x, l.y)), REACTION, 3.0),
+            SegmentOf::Member { .. } => {}
         }
     }
     // space labels (Bow's notation) at their points; spaces sharing a point share a label
