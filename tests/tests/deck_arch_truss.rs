@@ -341,6 +341,9 @@ proptest! {
         prop_assume!(!(system == 0 && panels == 2 && !weights));
         let mut d = random_design(span, 0.0, rise_ratio, clearance, panels, system, bracing, (piers, piers), weights);
         d.min_post_length = 0.05 * rise_ratio * span + 0.5;
+        // with the deck at the crown the found rib can rise through the deck next to it;
+        // validation refuses that, and this property is about valid designs
+        prop_assume!(springline_statics::validate_design(&d).is_ok());
         let a = analyze(&d).expect("a valid design analyses");
         prop_assert!(!a.restraint.left_seat_fixed || a.restraint.right_seat_fixed, "{}", a.restraint.description);
         assert_mirror_symmetric(&a.frame.model, &a.frame.solution, 0.5 * span);
