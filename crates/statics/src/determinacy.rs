@@ -124,7 +124,9 @@ pub fn truss_determinacy(model: &Model) -> Result<DeterminacyReport, StaticsErro
     let modes = rows - rank;
     let determinacy = if modes > 0 {
         // a left singular vector with zero singular value is a mechanism mode
-        let u = svd.u.as_ref().expect("requested U");
+        let Some(u) = svd.u.as_ref() else {
+            return Err(StaticsError::invalid("determinacy", "the rank computation gave no mode shapes"));
+        };
         let idx = svd
             .singular_values
             .iter()
