@@ -1,6 +1,9 @@
 # Shared helpers of the set-up scripts: say what is happening, install what is missing,
 # skip what is already there. Versions measured to work together (shared toolchain notes).
 
+# CI may start with a sparse environment: make sure HOME is known
+HOME="${HOME:-$(getent passwd "$(id -u)" | cut -d: -f6)}"
+export HOME
 TRUNK_VERSION="0.21.14"
 BINARYEN_VERSION="132.0.0"
 TOOLS_DIR="${SPRINGLINE_TOOLS:-$HOME/.cache/springline-tools}"
