@@ -6,6 +6,10 @@
 //! component) has rank r. Then s = columns - r independent states of self-stress
 //! (statically indeterminate by s) and m = rows - r mechanism modes. Maxwell's count
 //! bars + reactions - 2 nodes equals s - m, so it only gives s when m = 0.
+//!
+//! Most models have no mechanism; that is decided first, in O(n b^2), by factorising
+//! A A^T (banded in the solver's node order): if it is positive definite, r = 2 n. Only
+//! otherwise is the SVD of A computed (rank, and the mode that names a moving node).
 
 use crate::error::StaticsError;
 use crate::model::{Dof, Model};
@@ -74,6 +78,11 @@ impl DeterminacyReport {
 /// Determinacy of `model` treated as pin-jointed (every member a bar, rotation
 /// restraints ignored). Errors only for an invalid model.
 pub fn truss_determinacy(model: &Model) -> Result<DeterminacyReport, StaticsError> {
+    determinacy_with(model, true)
+}
+
+/// `truss_determinacy`, optionally without the fast path (the tests compare the two).
+fn determinacy_with(model: &Model, fast: bool) -> Result<DeterminacyReport, StaticsError> {
     validate(model)?;
     let nn = model.nodes.len();
     let rows = 2 * nn;
@@ -98,6 +107,18 @@ pub fn truss_determinacy(model: &Model) -> Result<DeterminacyReport, StaticsErro
         }
     }
     let ncols = ncols_bar + reactions;
+    // Fast path: with no mechanism, rank A = 2 n. That holds exactly when A A^T (the
+    // stiffness of the same bars with unit EA/L and unit support springs: banded in the
+    // solver's node order) is positive definite, which the banded factorisation with its
+    // pivot test decides in O(n b^2). Anything it doubts goes to the SVD below.
+    if fast && rows > 0 && without_mechanism(model) {
+        let determinacy = if ncols == rows {
+            Determinacy::Determinate
+        } else {
+            Determinacy::Indeterminate { degree: ncols - rows }
+        };
+        return Ok(DeterminacyReport { bars: ncols_bar, reactions, nodes: nn, rank: rows, determinacy });
+    }
     // square-padded so the SVD returns the whole left singular basis
     let width = ncols.max(rows);
     let mut a = DMatrix::<f64>::zeros(rows, width);
@@ -157,4 +178,125 @@ pub fn truss_determinacy(model: &Model) -> Result<DeterminacyReport, StaticsErro
         Determinacy::Indeterminate { degree: redundant }
     };
     Ok(DeterminacyReport { bars: ncols_bar, reactions, nodes: nn, rank, determinacy })
+}
+
+/// True when A A^T of the pin-jointed model factorises with every pivot clearly positive
+/// (see [`crate::banded::PIVOT_TOLERANCE`]): the bars and supports then hold every node
+/// and the model has no mechanism. False means "not sure": the caller does the SVD.
+fn without_mechanism(model: &Model) -> bool {
+    let nn = model.nodes.len();
+    let order = crate::solver::node_order(model);
+    let mut eq = vec![0usize; nn];
+    for (k, &node) in order.iter().enumerate() {
+        eq[node] = k;
+    }
+    let mut bandwidth = 1;
+    for m in &model.members {
+        let (i, j) = (eq[m.start], eq[m.end]);
+        bandwidth = bandwidth.max(2 * i.abs_diff(j) + 1);
+    }
+    let mut k = crate::banded::BandMatrix::zeros(2 * nn, bandwidth);
+    for (idx, m) in model.members.iter().enumerate() {
+        let (a, b) = (&model.nodes[m.start], &model.nodes[m.end]);
+        let l = model.member_length(idx);
+        let e = [(b.x - a.x) / l, (b.y - a.y) / l];
+        let (i, j) = (2 * eq[m.start], 2 * eq[m.end]);
+        for r in 0..2 {
+            for c in 0..2 {
+                let v = e[r] * e[c];
+                if i + r >= i + c {
+                    k.add(i + r, i + c, v);
+                }
+                if j + r >= j + c {
+                    k.add(j + r, j + c, v);
+                }
+                // the off-diagonal block, stored once (lower triangle)
+                let (p, q) = (i + r, j + c);
+                if p > q {
+                    k.add(p, q, -v);
+                } else if q > p {
+                    k.add(q, p, -v);
+                }
+            }
+        }
+    }
+    for s in &model.supports {
+        if s.x {
+            k.add(2 * eq[s.node], 2 * eq[s.node], 1.0);
+        }
+        if s.y {
+            k.add(2 * eq[s.node] + 1, 2 * eq[s.node] + 1, 1.0);
+        }
+    }
+    crate::banded::LdlFactor::new(&k).is_ok()
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::model::{truss, Support};
+    use proptest::prelude::*;
+
+    /// A jittered grid of nodes joined by a random subset of neighbour bars, on a pin and
+    /// a roller: stable, redundant or a mechanism, as chance has it.
+    fn random_frameworks() -> impl Strategy<Value = Model> {
+        (2usize..7, prop::collection::vec(-0.3f64..0.3, 60), prop::collection::vec(0.0f64..1.0, 120))
+            .prop_map(|(cols, jitter, keep)| {
+                let mut m = Model::default();
+                let mut j = jitter.iter().cycle();
+                for r in 0..2 {
+                    for c in 0..=cols {
+                        m.add_node(
+                            "",
+                            c as f64 * 3.0 + j.next().unwrap_or(&0.0),
+                            r as f64 * 2.5 + j.next().unwrap_or(&0.0),
+                        );
+                    }
+                }
+                let id = |r: usize, c: usize| r * (cols + 1) + c;
+                let mut k = keep.iter().cycle();
+                let mut candidates = Vec::new();
+                for c in 0..cols {
+                    candidates.extend([
+                        (id(0, c), id(0, c + 1)),
+                        (id(1, c), id(1, c + 1)),
+                        (id(0, c), id(1, c + 1)),
+                        (id(1, c), id(0, c + 1)),
+                    ]);
+                }
+                for c in 0..=cols {
+                    candidates.push((id(0, c), id(1, c)));
+                }
+                for (a, b) in candidates {
+                    // most bars kept, so stable, redundant and mechanism cases all occur
+                    if *k.next().unwrap_or(&0.0) < 0.88 {
+                        m.add_member(truss("", "", a, b, 2e8, 0.01));
+                    }
+                }
+                // every node needs a bar to be a valid model
+                for n in 0..m.nodes.len() {
+                    if !m.members.iter().any(|b| b.start == n || b.end == n) {
+                        let other = if n % (cols + 1) == 0 { n + 1 } else { n - 1 };
+                        m.add_member(truss("", "", n, other, 2e8, 0.01));
+                    }
+                }
+                m.supports = vec![Support::pinned(id(0, 0)), Support::roller_along_x(id(0, cols))];
+                m
+            })
+    }
+
+    proptest! {
+        #![proptest_config(ProptestConfig::with_cases(200))]
+
+        #[test]
+        fn fast_path_agrees_with_the_svd(model in random_frameworks()) {
+            let fast = determinacy_with(&model, true).expect("valid");
+            let svd = determinacy_with(&model, false).expect("valid");
+            prop_assert_eq!(fast.rank, svd.rank);
+            match (&fast.determinacy, &svd.determinacy) {
+                (Determinacy::Mechanism { modes: a, .. }, Determinacy::Mechanism { modes: b, .. }) => prop_assert_eq!(a, b),
+                (a, b) => prop_assert_eq!(a, b),
+            }
+        }
+    }
 }

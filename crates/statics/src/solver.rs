@@ -382,7 +382,7 @@ fn rotation_active(model: &Model) -> Vec<bool> {
 
 /// Reverse Cuthill-McKee order of the nodes (keeps the band narrow whatever the input
 /// numbering; George & Liu, Computer Solution of Large Sparse Positive Definite Systems).
-fn node_order(model: &Model) -> Vec<usize> {
+pub(crate) fn node_order(model: &Model) -> Vec<usize> {
     let nn = model.nodes.len();
     let mut adj = vec![Vec::new(); nn];
     for m in &model.members {
