@@ -228,15 +228,7 @@ fn random_design(
     d.approach_piers_left = piers.0;
     d.approach_piers_right = piers.1;
     if !weights {
-        for s in [
-            &mut d.groups.rib,
-            &mut d.groups.deck,
-            &mut d.groups.posts,
-            &mut d.groups.piers,
-            &mut d.groups.bracing,
-        ] {
-            s.unit_weight = 0.0;
-        }
+        springline_tests::without_self_weight(&mut d);
     }
     d
 }

@@ -32,15 +32,7 @@ fn design(xa: f64, ya: f64, xb: f64, yb: f64, deck: f64, rise: f64, panels: usiz
     d.min_post_length = 0.5;
     d.rib_system = RibSystem::TwoHinged;
     d.bracing = Bracing::None;
-    for s in [
-        &mut d.groups.rib,
-        &mut d.groups.deck,
-        &mut d.groups.posts,
-        &mut d.groups.piers,
-        &mut d.groups.bracing,
-    ] {
-        s.unit_weight = 0.0;
-    }
+    springline_tests::without_self_weight(&mut d);
     d
 }
 

@@ -83,12 +83,7 @@ pub fn prepare(canvas: &HtmlCanvasElement) -> Option<Surface> {
 
 /// Stroke style and width, then a straight line between two CSS pixel points.
 pub fn line(ctx: &CanvasRenderingContext2d, a: (f64, f64), b: (f64, f64), color: &str, width: f64) {
-    ctx.set_stroke_style_str(color);
-    ctx.set_line_width(width);
-    ctx.begin_path();
-    ctx.move_to(a.0, a.1);
-    ctx.line_to(b.0, b.1);
-    ctx.stroke();
+    polyline(ctx, &[a, b], color, width);
 }
 
 /// A dashed line.
@@ -113,11 +108,7 @@ pub fn polyline(ctx: &CanvasRenderingContext2d, pts: &[(f64, f64)], color: &str,
     }
     ctx.set_stroke_style_str(color);
     ctx.set_line_width(width);
-    ctx.begin_path();
-    ctx.move_to(pts[0].0, pts[0].1);
-    for p in &pts[1..] {
-        ctx.line_to(p.0, p.1);
-    }
+    trace(ctx, pts);
     ctx.stroke();
 }
 
@@ -127,21 +118,31 @@ pub fn fill_polygon(ctx: &CanvasRenderingContext2d, pts: &[(f64, f64)], color: &
         return;
     }
     ctx.set_fill_style_str(color);
+    trace(ctx, pts);
+    ctx.close_path();
+    ctx.fill();
+}
+
+/// Starts a new path through `pts` (at least one point).
+fn trace(ctx: &CanvasRenderingContext2d, pts: &[(f64, f64)]) {
     ctx.begin_path();
     ctx.move_to(pts[0].0, pts[0].1);
     for p in &pts[1..] {
         ctx.line_to(p.0, p.1);
     }
-    ctx.close_path();
-    ctx.fill();
 }
 
 /// A filled circle.
 pub fn dot(ctx: &CanvasRenderingContext2d, c: (f64, f64), r: f64, color: &str) {
     ctx.set_fill_style_str(color);
+    circle(ctx, c, r);
+    ctx.fill();
+}
+
+/// Starts a new path with a full circle.
+fn circle(ctx: &CanvasRenderingContext2d, c: (f64, f64), r: f64) {
     ctx.begin_path();
     let _ = ctx.arc(c.0, c.1, r, 0.0, std::f64::consts::TAU);
-    ctx.fill();
 }
 
 /// An open circle (hinge).
@@ -149,8 +150,7 @@ pub fn ring(ctx: &CanvasRenderingContext2d, c: (f64, f64), r: f64, color: &str, 
     ctx.set_fill_style_str(fill);
     ctx.set_stroke_style_str(color);
     ctx.set_line_width(1.5);
-    ctx.begin_path();
-    let _ = ctx.arc(c.0, c.1, r, 0.0, std::f64::consts::TAU);
+    circle(ctx, c, r);
     ctx.fill();
     ctx.stroke();
 }
@@ -204,6 +204,21 @@ pub fn label(ctx: &CanvasRenderingContext2d, s: &str, at: (f64, f64), font: &str
     ctx.set_fill_style_str("rgba(255,255,255,0.85)");
     ctx.fill_rect(x0 - 3.0, at.1 - 8.0, w + 6.0, 16.0);
     text(ctx, s, at, font, color, align);
+}
+
+/// The key of the segment nearest to `pointer` (CSS pixels) among `segments` (key, end,
+/// end), if it lies within `tolerance` pixels.
+pub fn nearest_segment<K>(
+    pointer: (f64, f64),
+    segments: impl IntoIterator<Item = (K, (f64, f64), (f64, f64))>,
+    tolerance: f64,
+) -> Option<K> {
+    segments
+        .into_iter()
+        .map(|(key, a, b)| (key, distance_to_segment(pointer, a, b)))
+        .filter(|(_, d)| *d <= tolerance)
+        .min_by(|x, y| x.1.total_cmp(&y.1))
+        .map(|(key, _)| key)
 }
 
 /// Distance from point p to the segment a-b, in the same units.

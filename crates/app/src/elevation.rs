@@ -37,7 +37,8 @@ pub fn draw(s: &Surface, input: &ElevationInput) -> View {
     let ctx = &s.ctx;
     let d = input.design;
     let a = input.analysis;
-    let view = View::fit(bounds(d), s.width, s.height, 28.0, 34.0);
+    let world = bounds(d);
+    let view = View::fit(world, s.width, s.height, 28.0, 34.0);
     let p = |x: f64, y: f64| view.px(x, y);
     ctx.set_fill_style_str(SKY);
     ctx.fill_rect(0.0, 0.0, s.width, s.height);
@@ -57,7 +58,7 @@ pub fn draw(s: &Surface, input: &ElevationInput) -> View {
 
     // thrust blocks at the springings and abutment seats at the rim
     let f = &a.form;
-    let block = 0.035 * (bounds(d).1 - bounds(d).0);
+    let block = 0.035 * (world.1 - world.0);
     for (sp, dir) in [(f.springing_left, -1.0), (f.springing_right, 1.0)] {
         let pts = [
             p(sp.x - dir * block * 0.3, sp.y + block * 0.25),
@@ -105,12 +106,15 @@ pub fn draw(s: &Surface, input: &ElevationInput) -> View {
         }
     }
     // joints: deck panel points dark, hinges open
-    for (i, node) in model.nodes.iter().enumerate() {
-        let on_deck = (node.y - d.deck.level).abs() < 0.5
-            && model.members.iter().any(|m| (m.start == i || m.end == i) && m.group == "deck");
-        if on_deck {
-            canvas::dot(ctx, p(node.x, node.y), 2.6, INK);
-        }
+    let mut on_deck = vec![false; model.nodes.len()];
+    for m in model.members.iter().filter(|m| m.group == "deck") {
+        on_deck[m.start] = true;
+        on_deck[m.end] = true;
+    }
+    for (node, _) in
+        model.nodes.iter().zip(&on_deck).filter(|(n, deck)| **deck && (n.y - d.deck.level).abs() < 0.5)
+    {
+        canvas::dot(ctx, p(node.x, node.y), 2.6, INK);
     }
     let hinge_nodes: Vec<usize> = model
         .members

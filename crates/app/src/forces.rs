@@ -339,16 +339,12 @@ fn draw_thrust(s: &Surface, tl: &ThrustLine, units: Units) -> View {
 /// pointer, nearest first.
 pub fn member_at(pic: &ForcePicture, view: &View, pointer: (f64, f64), tolerance: f64) -> Option<usize> {
     let ForcePicture::Reciprocal { figure, .. } = pic else { return None };
-    let mut best: Option<(usize, f64)> = None;
-    for seg in &figure.segments {
-        let SegmentOf::Member { member } = seg.of else { continue };
+    let segments = figure.segments.iter().filter_map(|seg| {
+        let SegmentOf::Member { member } = seg.of else { return None };
         let (l, r) = (figure.spaces[seg.left].point, figure.spaces[seg.right].point);
-        let d = canvas::distance_to_segment(pointer, view.px(l.x, l.y), view.px(r.x, r.y));
-        if d <= tolerance && best.is_none_or(|b| d < b.1) {
-            best = Some((member, d));
-        }
-    }
-    best.map(|b| b.0)
+        Some((member, view.px(l.x, l.y), view.px(r.x, r.y)))
+    });
+    canvas::nearest_segment(pointer, segments, tolerance)
 }
 
 #[cfg(test)]

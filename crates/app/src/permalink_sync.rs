@@ -36,7 +36,7 @@ pub fn install(state: AppState) {
     // design -> fragment, debounced
     let generation = StoredValue::new(0u64);
     Effect::new(move |_| {
-        let fragment = state.design.with(|d| format!("#{}", permalink::encode(d)));
+        state.design.track();
         generation.update_value(|g| *g += 1);
         let mine = generation.get_value();
         set_timeout(
@@ -44,6 +44,8 @@ pub fn install(state: AppState) {
                 if generation.get_value() != mine {
                     return;
                 }
+                // encoded once the edits pause, not on every pointer move of a drag
+                let fragment = current_fragment(state);
                 let Some(w) = web_sys::window() else { return };
                 if w.location().hash().ok().as_deref() == Some(fragment.as_str()) {
                     return;
@@ -58,7 +60,7 @@ pub fn install(state: AppState) {
     // pasted link -> design (one undo step); a bad link leaves the open design as it is
     let handle = window_event_listener(leptos::ev::hashchange, move |_| {
         let hash = web_sys::window().and_then(|w| w.location().hash().ok()).unwrap_or_default();
-        let current = state.design.with_untracked(|d| format!("#{}", permalink::encode(d)));
+        let current = current_fragment(state);
         if hash == current {
             return;
         }
@@ -83,4 +85,9 @@ pub fn install(state: AppState) {
         }
     });
     on_cleanup(move || handle.remove());
+}
+
+/// The URL fragment of the open design.
+fn current_fragment(state: AppState) -> String {
+    state.design.with_untracked(|d| format!("#{}", permalink::encode(d)))
 }

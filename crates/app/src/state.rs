@@ -126,6 +126,14 @@ impl AppState {
         }
     }
 
+    /// Sets the truss member under the pointer (only when it changes, so canvases redraw
+    /// once per change, not per pointer move).
+    pub fn hover(&self, member: Option<usize>) {
+        if self.hovered.get_untracked().0 != member {
+            self.hovered.set(Hovered(member));
+        }
+    }
+
     /// Steps back one design; false when there is none.
     pub fn undo(&self) -> bool {
         let Some(prev) = self.past.try_update(|p| p.pop()).flatten() else { return false };

@@ -21,6 +21,12 @@ use crate::layout::{position, Frame, Joint, Topology};
 use crate::model::{frame, truss, LoadCase, LoadDirection, MemberLoad, Model, NodalLoad, Support};
 use serde::{Deserialize, Serialize};
 
+/// A downward uniform load of `w` kN/m on `member`, per metre of member length or, when
+/// `per_horizontal_metre`, per horizontal metre.
+fn gravity(member: usize, w: f64, per_horizontal_metre: bool) -> MemberLoad {
+    MemberLoad::Uniform { member, w: -w, direction: LoadDirection::GlobalY, projected: per_horizontal_metre }
+}
+
 /// Name of the dead load case in every generated model.
 pub const DEAD: &str = "dead";
 /// Title of the frame model.
@@ -218,12 +224,7 @@ pub fn frame_model(design: &Design, form: &Form) -> Result<Model, StaticsError> 
     let w_rib = design.weight_per_m(&g.rib);
     for k in add_rib(&mut b, design) {
         if w_rib > 0.0 {
-            lc.member.push(MemberLoad::Uniform {
-                member: k,
-                w: -w_rib,
-                direction: LoadDirection::GlobalY,
-                projected: false,
-            });
+            lc.member.push(gravity(k, w_rib, false));
         }
     }
     // deck over the arch
@@ -233,12 +234,7 @@ pub fn frame_model(design: &Design, form: &Form) -> Result<Model, StaticsError> 
         let k = b.frame_member(name, "deck", np, nq, &g.deck);
         if w_deck > 0.0 {
             // per horizontal metre of road (a deck member kinked to a shared node)
-            lc.member.push(MemberLoad::Uniform {
-                member: k,
-                w: -w_deck,
-                direction: LoadDirection::GlobalY,
-                projected: true,
-            });
+            lc.member.push(gravity(k, w_deck, true));
         }
     }
     if let Some((p, q)) = topo.drop_in {
@@ -302,12 +298,7 @@ pub fn frame_model(design: &Design, form: &Form) -> Result<Model, StaticsError> 
             b.model.members[m].release_start = true;
             b.model.members[m].release_end = true;
             if w_deck > 0.0 {
-                lc.member.push(MemberLoad::Uniform {
-                    member: m,
-                    w: -w_deck,
-                    direction: LoadDirection::GlobalY,
-                    projected: false,
-                });
+                lc.member.push(gravity(m, w_deck, false));
             }
         }
         let fixed = if left { rs.left_seat_fixed } else { rs.right_seat_fixed };

@@ -811,10 +811,8 @@ mod tests {
         fd
     }
 
-    #[test]
-    fn triangle_under_apex_load_has_textbook_forces_and_labels() {
-        // Symmetric triangle, apex load P, pin and roller: rafters carry P / (2 sin a)
-        // compression, the tie P / (2 tan a) tension (statics of a joint).
+    /// A 3-4-5 triangle (L, T, R) on a pin and a roller with 60 kN down at the apex T.
+    fn apex_triangle() -> Model {
         let mut m = Model::default();
         m.add_node("L", 0.0, 0.0);
         m.add_node("T", 4.0, 3.0);
@@ -828,6 +826,14 @@ mod tests {
             nodal: vec![NodalLoad { node: 1, fx: 0.0, fy: -60.0, mz: 0.0 }],
             ..Default::default()
         }];
+        m
+    }
+
+    #[test]
+    fn triangle_under_apex_load_has_textbook_forces_and_labels() {
+        // Symmetric triangle, apex load P, pin and roller: rafters carry P / (2 sin a)
+        // compression, the tie P / (2 tan a) tension (statics of a joint).
+        let m = apex_triangle();
         let fd = check(&m);
         // three external forces: three outside spaces; one inside face
         let outside = fd.spaces.iter().filter(|s| s.kind == SpaceKind::Outside).count();
@@ -880,19 +886,7 @@ mod tests {
     /// (up for gravity loads). Read clockwise, a downward deck load goes down.
     #[test]
     fn load_line_runs_with_the_loads_read_clockwise() {
-        let mut m = Model::default();
-        m.add_node("L", 0.0, 0.0);
-        m.add_node("T", 4.0, 3.0);
-        m.add_node("R", 8.0, 0.0);
-        m.add_member(truss("", "", 0, 1, 2e8, 0.01));
-        m.add_member(truss("", "", 1, 2, 2e8, 0.01));
-        m.add_member(truss("", "", 0, 2, 2e8, 0.01));
-        m.supports = vec![Support::pinned(0), Support::roller_along_x(2)];
-        m.load_cases = vec![LoadCase {
-            name: "p".into(),
-            nodal: vec![NodalLoad { node: 1, fx: 0.0, fy: -60.0, mz: 0.0 }],
-            ..Default::default()
-        }];
+        let m = apex_triangle();
         let fd = check(&m);
         let load = fd.segments.iter().find(|s| s.of == SegmentOf::Load { node: 1 }).expect("load");
         // the top-left loaded joint is L (its reaction): A lies left of it, so reading

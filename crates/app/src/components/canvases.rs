@@ -6,7 +6,7 @@ use crate::canvas::{self, View};
 use crate::drag::{self, Handle};
 use crate::elevation::{self, ElevationInput};
 use crate::forces::{self, ForcePicture};
-use crate::state::{AppState, Hovered};
+use crate::state::AppState;
 use leptos::html::Canvas;
 use leptos::prelude::*;
 
@@ -71,9 +71,14 @@ pub fn ElevationCanvas() -> impl IntoView {
     let on_move = move |ev: web_sys::PointerEvent| {
         let (Some(el), Some(v)) = (node.get(), view.get_value()) else { return };
         let at = pointer_in(&el, &ev);
-        if let Some((h, _, start_view)) = dragging.get_value() {
-            let (x, y) = start_view.world(at.0, at.1);
-            let candidate = state.design.with_untracked(|d| drag::moved(d, h, x, y));
+        // dragging: map with the view the drag started in (no copy of the stored design)
+        let candidate = dragging.with_value(|d| {
+            d.as_ref().map(|(h, _, start_view)| {
+                let (x, y) = start_view.world(at.0, at.1);
+                state.design.with_untracked(|design| drag::moved(design, *h, x, y))
+            })
+        });
+        if let Some(candidate) = candidate {
             if state.preview(candidate) {
                 state.notice.set(None);
             } else {
@@ -83,31 +88,24 @@ pub fn ElevationCanvas() -> impl IntoView {
             }
             return;
         }
-        let grabbable = {
-            let design = state.design.get_untracked();
-            state
-                .analysis
-                .with_untracked(|o| o.as_ref().ok().and_then(|a| drag::handle_at(&design, a, &v, at)))
-                .is_some()
-        };
+        // hovering: a grab cursor over handles, and the truss member under the pointer
+        let (grabbable, hit) = state.design.with_untracked(|design| {
+            state.analysis.with_untracked(|o| {
+                let Ok(a) = o.as_ref() else { return (false, None) };
+                let grabbable = drag::handle_at(design, a, &v, at).is_some();
+                let hit = a.truss.as_ref().and_then(|t| {
+                    let segments = t.model.members.iter().enumerate().map(|(k, m)| {
+                        let (p, q) = (&t.model.nodes[m.start], &t.model.nodes[m.end]);
+                        (k, v.px(p.x, p.y), v.px(q.x, q.y))
+                    });
+                    canvas::nearest_segment(at, segments, PICK_TOLERANCE)
+                });
+                (grabbable, hit)
+            })
+        });
         let _ = web_sys::HtmlElement::style(&el)
             .set_property("cursor", if grabbable { "grab" } else { "default" });
-        let hit = state.analysis.with_untracked(|o| {
-            let a = o.as_ref().ok()?;
-            let t = a.truss.as_ref()?;
-            let mut best: Option<(usize, f64)> = None;
-            for (k, m) in t.model.members.iter().enumerate() {
-                let (p, q) = (&t.model.nodes[m.start], &t.model.nodes[m.end]);
-                let d = canvas::distance_to_segment(at, v.px(p.x, p.y), v.px(q.x, q.y));
-                if d <= PICK_TOLERANCE && best.is_none_or(|b| d < b.1) {
-                    best = Some((k, d));
-                }
-            }
-            best.map(|b| b.0)
-        });
-        if state.hovered.get_untracked().0 != hit {
-            state.hovered.set(Hovered(hit));
-        }
+        state.hover(hit);
     };
     view! {
         <canvas
@@ -119,7 +117,7 @@ pub fn ElevationCanvas() -> impl IntoView {
             on:pointerup=on_up
             on:pointercancel=on_up
             on:pointermove=on_move
-            on:pointerleave=move |_| state.hovered.set(Hovered(None))
+            on:pointerleave=move |_| state.hover(None)
         ></canvas>
     }
 }
@@ -155,10 +153,7 @@ pub fn ForceCanvas() -> impl IntoView {
     let on_move = move |ev: web_sys::PointerEvent| {
         let (Some(el), Some(v)) = (node.get(), view.get_value()) else { return };
         let at = pointer_in(&el, &ev);
-        let hit = picture.with_untracked(|p| forces::member_at(p, &v, at, PICK_TOLERANCE));
-        if state.hovered.get_untracked().0 != hit {
-            state.hovered.set(Hovered(hit));
-        }
+        state.hover(picture.with_untracked(|p| forces::member_at(p, &v, at, PICK_TOLERANCE)));
     };
     view! {
         <canvas
@@ -167,7 +162,7 @@ pub fn ForceCanvas() -> impl IntoView {
             node_ref=node
             aria-label="Force diagram"
             on:pointermove=on_move
-            on:pointerleave=move |_| state.hovered.set(Hovered(None))
+            on:pointerleave=move |_| state.hover(None)
         ></canvas>
     }
 }
