@@ -7,7 +7,7 @@
 //! each canvas publishes in its data attributes.
 
 use serde_json::json;
-use springline_statics::reciprocal::{force_diagram, SegmentOf};
+use springline_statics::graphic::reciprocal::{force_diagram, SegmentOf};
 use springline_statics::{analyze, Design};
 use springline_tests::page::*;
 use springline_tests::serve::StaticServer;

@@ -3,7 +3,8 @@
 
 use base64::Engine;
 use serde_json::json;
-use springline_statics::{analyze, permalink, Design};
+use springline_statics::link::permalink;
+use springline_statics::{analyze, Design};
 use springline_tests::page::*;
 use springline_tests::serve::StaticServer;
 use springline_tests::webdriver::{Driver, Session};

@@ -5,9 +5,9 @@
 //! (equilibrium, mirror symmetry).
 
 use proptest::prelude::*;
-use springline_statics::analysis::bracing_ratio;
-use springline_statics::design::{Bracing, Crown, Design, GroundPoint, RibSystem};
-use springline_statics::form::find_form;
+use springline_statics::arch::analysis::bracing_ratio;
+use springline_statics::arch::design::{Bracing, Crown, Design, GroundPoint, RibSystem};
+use springline_statics::arch::form::find_form;
 use springline_statics::{
     analyze, frame_model, solve, truss_determinacy, truss_model, Determinacy, Model, Solution,
 };

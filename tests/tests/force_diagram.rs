@@ -10,10 +10,10 @@
 //!   ch. 9, as collected in shared/REFERENCES.md; from memory).
 
 use proptest::prelude::*;
-use springline_statics::cases::{doubled_panel, half_span, standard_cases, CaseSpec, Half};
-use springline_statics::design::{Bracing, Crown, Design, RibSystem};
-use springline_statics::form::{find_form, Form};
-use springline_statics::funicular::FunicularMethod;
+use springline_statics::arch::cases::{doubled_panel, half_span, standard_cases, CaseSpec, Half};
+use springline_statics::arch::design::{Bracing, Crown, Design, RibSystem};
+use springline_statics::arch::form::{find_form, Form};
+use springline_statics::graphic::funicular::FunicularMethod;
 use springline_statics::{
     add_cases, analyze, bare_rib_model, force_diagram, frame, rib_funicular, solve, truss_determinacy,
     truss_model, AxialSense, CaseResult, Determinacy, ForceDiagram, LoadCase, Model, NodalLoad, SegmentOf,

@@ -3,8 +3,8 @@
 //! solver. Check values are computed here from textbook formulas, never copied from the
 //! engine's output.
 
-use springline_statics::design::{Bracing, Crown, Design, GroundPoint, RibSystem, Section};
-use springline_statics::form::find_form;
+use springline_statics::arch::design::{Bracing, Crown, Design, GroundPoint, RibSystem, Section};
+use springline_statics::arch::form::find_form;
 use springline_statics::{bare_rib_model, solve, validate_design};
 
 /// A V-shaped valley whose walls pass through the springings (xa, ya) and (xb, yb), with a

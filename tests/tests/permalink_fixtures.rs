@@ -20,8 +20,9 @@
 //! deliberate engine change). Without the variable it changes nothing.
 
 use serde::{Deserialize, Serialize};
-use springline_statics::design::{Bracing, Crown, Design, RibSystem};
-use springline_statics::{analyze, permalink};
+use springline_statics::analyze;
+use springline_statics::arch::design::{Bracing, Crown, Design, RibSystem};
+use springline_statics::link::permalink;
 use std::path::{Path, PathBuf};
 
 /// Relative tolerance on stored numbers (the analysis is deterministic; this allows only

@@ -8,9 +8,9 @@
 //!   (Timoshenko & Young, Theory of Structures, 2nd ed., ch. 9, from memory, as collected
 //!   in shared/REFERENCES.md).
 
-use springline_statics::cases::{doubled_panel, half_span, Half};
-use springline_statics::design::{Bracing, Design, RibSystem};
-use springline_statics::form::find_form;
+use springline_statics::arch::cases::{doubled_panel, half_span, Half};
+use springline_statics::arch::design::{Bracing, Design, RibSystem};
+use springline_statics::arch::form::find_form;
 use springline_statics::{
     add_cases, frame, frame_model, rib_chain, solve, thrust_line, CaseResult, LoadCase, Model, NodalLoad,
     Support, ThrustLine,
@@ -195,8 +195,8 @@ fn pole_from_solved_reactions_ends_on_the_right_reaction_line() {
     // solved (H, V_A), starting where the left reaction crosses the springing vertical,
     // must end where the right reaction crosses its vertical (y_B + M_B / H, statics of
     // the whole rib), and pass through both springings when they are hinged.
-    use springline_statics::cases::standard_cases;
-    use springline_statics::funicular::FunicularMethod;
+    use springline_statics::arch::cases::standard_cases;
+    use springline_statics::graphic::funicular::FunicularMethod;
     use springline_statics::{bare_rib_model, rib_funicular};
     for system in [RibSystem::TwoHinged, RibSystem::Fixed] {
         let mut d = Design::demo();

@@ -2,7 +2,7 @@
 //! Pure functions of the design; the canvas component wires them to pointer events.
 
 use crate::canvas::{distance_to_segment, View};
-use springline_statics::design::Crown;
+use springline_statics::arch::design::Crown;
 use springline_statics::{Analysis, Design};
 
 /// Something on the elevation that a drag moves.

@@ -5,9 +5,9 @@
 use crate::canvas::{self, Surface, View};
 use crate::format::{Quantity, Units};
 use crate::palette::*;
-use springline_statics::funicular::PoleConstruction;
-use springline_statics::reciprocal::{ForceDiagram, SegmentOf, SpaceKind};
-use springline_statics::thrust_line::ThrustLine;
+use springline_statics::graphic::funicular::PoleConstruction;
+use springline_statics::graphic::reciprocal::{ForceDiagram, SegmentOf, SpaceKind};
+use springline_statics::graphic::thrust_line::ThrustLine;
 use springline_statics::Analysis;
 
 /// What the force canvas shows, computed once per analysis.

@@ -4,7 +4,7 @@
 
 use crate::state::AppState;
 use leptos::prelude::*;
-use springline_statics::permalink;
+use springline_statics::link::permalink;
 use springline_statics::{analyze, Design};
 use std::time::Duration;
 

@@ -2,8 +2,8 @@
 //! (the demo design otherwise).
 
 use criterion::{criterion_group, criterion_main, BenchmarkId, Criterion};
-use springline_statics::design::Design;
-use springline_statics::form::find_form;
+use springline_statics::arch::design::Design;
+use springline_statics::arch::form::find_form;
 use springline_statics::{frame_model, solve};
 
 fn form_and_dead_load(c: &mut Criterion) {

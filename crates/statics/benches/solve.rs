@@ -5,8 +5,8 @@
 
 use criterion::{criterion_group, criterion_main, BenchmarkId, Criterion};
 use nalgebra::DMatrix;
-use springline_statics::banded::LdlFactor;
-use springline_statics::solver::free_stiffness;
+use springline_statics::frame::banded::LdlFactor;
+use springline_statics::frame::solver::free_stiffness;
 use springline_statics::{frame, solve, truss, LoadCase, Member, Model, NodalLoad, Support};
 use std::hint::black_box;
 

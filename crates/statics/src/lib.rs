@@ -2,54 +2,54 @@
 //! (built on it) funicular form finding, structure generation and force diagrams for
 //! deck arches. Pure Rust, no IO; compiles to native and wasm32.
 //!
+//! Layers, each using only those listed after it:
+//!
+//! | folder | what |
+//! | --- | --- |
+//! | `link` | the permalink codec |
+//! | `arch` | the deck arch: design, layout, form, generation, cases, analysis |
+//! | `graphic` | reciprocal figure, funicular, thrust line |
+//! | `frame` | model, element, banded factorisation, solver, determinacy |
+//!
+//! and `error`, `geom` and `tolerance`, shared by all.
+//!
 //! Units: m, kN, kN/m, kN/m2 (also E and stresses), rad. Axes x right, y up.
 //! Axial force tension positive; bending moment positive when the right-hand fibre
 //! (looking from a member's start to its end) is in tension (sagging for members drawn
 //! left to right).
 #![warn(missing_docs)]
 
-pub mod banded;
-pub mod determinacy;
-pub mod element;
 pub mod error;
-pub mod model;
-pub mod reciprocal;
-pub mod solver;
-pub mod thrust_line;
+pub mod geom;
+pub mod tolerance;
 
-pub use determinacy::{truss_determinacy, Determinacy, DeterminacyReport};
+pub mod frame;
+pub mod graphic;
+
+pub mod arch;
+pub mod link;
+
 pub use error::{Problem, StaticsError};
-pub use model::{
+pub use frame::determinacy::{truss_determinacy, Determinacy, DeterminacyReport};
+pub use frame::model::{
     frame, truss, Dof, LoadCase, LoadDirection, Member, MemberKind, MemberLoad, Model, NodalLoad, Node,
     PrescribedDisplacement, Support, TemperatureLoad,
 };
-pub use solver::{
+pub use frame::solver::{
     solve, validate, CaseResult, EquilibriumCheck, MemberForces, Reaction, SectionForces, Solution,
 };
+pub use geom::{Point, Vector};
 
-// Deck-arch layer (built on the solver): owned by the form-finding work.
-pub mod analysis;
-pub mod design;
-pub mod funicular;
-pub mod generate;
+pub use graphic::funicular::{rib_funicular, FunicularMethod, RibFunicular};
+pub use graphic::reciprocal::{
+    force_diagram, AxialSense, ForceDiagram, Segment, SegmentOf, Space, SpaceKind,
+};
+pub use graphic::thrust_line::{rib_chain, thrust_line, PressurePoint, ThrustLine};
 
-// Form finding and the default layout (issue 3), added at the end.
-pub mod form;
-pub mod layout;
+pub use arch::analysis::{analyze, Analysis};
+pub use arch::cases::{add_cases, build_case, standard_cases, CaseSpec, DeckLoad, Half};
+pub use arch::design::{validate_design, Design, Warning};
+pub use arch::form::{find_form, Form, LoadBasis, PanelLoads};
+pub use arch::generate::{bare_rib_model, frame_model, truss_model};
 
-pub use analysis::{analyze, Analysis};
-pub use design::{validate_design, Design, Warning};
-pub use form::{find_form, Form, LoadBasis, PanelLoads};
-pub use generate::{bare_rib_model, frame_model, truss_model};
-
-// The permalink codec (issue 6): a whole design in a URL fragment.
-pub mod permalink;
-
-pub use permalink::{decode as decode_link, encode as encode_link};
-
-// Force diagram and thrust line (issue 4): extra load cases for generated models.
-pub mod cases;
-pub use cases::{add_cases, build_case, standard_cases, CaseSpec, DeckLoad, Half};
-pub use funicular::{rib_funicular, FunicularMethod, RibFunicular};
-pub use reciprocal::{force_diagram, AxialSense, ForceDiagram, Segment, SegmentOf, Space, SpaceKind};
-pub use thrust_line::{rib_chain, thrust_line, PressurePoint, ThrustLine};
+pub use link::permalink::{decode as decode_link, encode as encode_link};

@@ -1,6 +1,6 @@
 //! One test per fixed bug; each doc comment says what broke.
 
-use springline_statics::design::{Crown, RibSystem};
+use springline_statics::arch::design::{Crown, RibSystem};
 use springline_statics::{
     analyze, solve, truss, validate_design, Design, Dof, LoadCase, Model, PrescribedDisplacement,
     StaticsError, Support,

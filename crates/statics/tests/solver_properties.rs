@@ -1,7 +1,7 @@
 //! Property tests of the stiffness solver over random stable frames and trusses.
 
 use proptest::prelude::*;
-use springline_statics::element::{local_stiffness, Geometry};
+use springline_statics::frame::element::{local_stiffness, Geometry};
 use springline_statics::{
     frame, solve, truss, truss_determinacy, Determinacy, LoadCase, LoadDirection, MemberLoad, Model,
     NodalLoad, StaticsError, Support,

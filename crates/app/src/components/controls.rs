@@ -5,7 +5,7 @@
 use crate::format::{Quantity, Units};
 use crate::state::{parse_number, AppState};
 use leptos::prelude::*;
-use springline_statics::design::{Bracing, Crown, GroundPoint, RibSystem, Section};
+use springline_statics::arch::design::{Bracing, Crown, GroundPoint, RibSystem, Section};
 use springline_statics::Design;
 
 /// Formats an SI value for an input box in the chosen units (no digit grouping).

@@ -2,7 +2,8 @@
 //! dead-load analysis of a design, read from a file or from a permalink.
 
 use super::{print_json, read_design};
-use springline_statics::{analyze, permalink};
+use springline_statics::analyze;
+use springline_statics::link::permalink;
 
 pub fn run(args: &[String]) -> anyhow::Result<()> {
     let design = match args {

@@ -2,7 +2,8 @@
 
 use super::read_design;
 use anyhow::Context;
-use springline_statics::{permalink, validate_design};
+use springline_statics::link::permalink;
+use springline_statics::validate_design;
 
 pub fn run(args: &[String]) -> anyhow::Result<()> {
     let [path] = args else { anyhow::bail!("usage: springline link DESIGN.json   (- reads standard input)") };

@@ -14,11 +14,11 @@
 //! negative); section properties are the design's per-rib-line values times the number of
 //! ribs. One load case, "dead".
 
-use crate::design::{check_inputs, Design, RibSystem, Section};
+use crate::arch::design::{check_inputs, Design, RibSystem, Section};
+use crate::arch::form::{Form, PanelLoads};
+use crate::arch::layout::{position, Frame, Joint, Topology};
 use crate::error::StaticsError;
-use crate::form::{Form, PanelLoads};
-use crate::layout::{position, Frame, Joint, Topology};
-use crate::model::{frame, truss, LoadCase, LoadDirection, MemberLoad, Model, NodalLoad, Support};
+use crate::frame::model::{frame, truss, LoadCase, LoadDirection, MemberLoad, Model, NodalLoad, Support};
 use serde::{Deserialize, Serialize};
 
 /// A downward uniform load of `w` kN/m on `member`, per metre of member length or, when

@@ -19,12 +19,12 @@
 //! line) and enter the models as negative `fy` (y up). Loads are limited to the arch span
 //! (between the springing verticals); the approach spans are not loaded.
 
-use crate::design::{check_inputs, Design};
+use crate::arch::design::{check_inputs, Design};
+use crate::arch::form::Form;
+use crate::arch::generate::DEAD;
+use crate::arch::layout::{position, Frame, Joint, Topology};
 use crate::error::StaticsError;
-use crate::form::Form;
-use crate::generate::DEAD;
-use crate::layout::{position, Frame, Joint, Topology};
-use crate::model::{LoadCase, Model, NodalLoad};
+use crate::frame::model::{LoadCase, Model, NodalLoad};
 use serde::{Deserialize, Serialize};
 
 /// Live load (kN/m2 over the deck width) used by the standard cases of `analyze`: an
@@ -300,9 +300,9 @@ pub fn add_cases(
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::design::{Bracing, RibSystem};
-    use crate::form::find_form;
-    use crate::generate::{bare_rib_model, frame_model, truss_model};
+    use crate::arch::design::{Bracing, RibSystem};
+    use crate::arch::form::find_form;
+    use crate::arch::generate::{bare_rib_model, frame_model, truss_model};
 
     fn total_fy(lc: &LoadCase) -> f64 {
         lc.nodal.iter().map(|l| l.fy).sum()

@@ -18,13 +18,10 @@
 //! returned here are the forces the supports apply to the arch, y up.
 
 use crate::error::StaticsError;
-use crate::model::Model;
-use crate::solver::CaseResult;
+use crate::frame::model::Model;
+use crate::frame::solver::CaseResult;
+use crate::tolerance::SPAN_TOLERANCE;
 use serde::{Deserialize, Serialize};
-
-/// Loads closer than this fraction of the span to a support are still "inside" (round-off
-/// in computed panel positions must not reject a load on the support vertical).
-pub const SPAN_TOLERANCE: f64 = 1e-12;
 
 /// A vertical point load: position x (m) and magnitude p (kN, positive downward).
 #[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
@@ -35,14 +32,7 @@ pub struct VerticalLoad {
     pub p: f64,
 }
 
-/// A point (x, y) in m.
-#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
-pub struct Point {
-    /// Horizontal position, m.
-    pub x: f64,
-    /// Vertical position, m.
-    pub y: f64,
-}
+pub use crate::geom::Point;
 
 /// Result of the three-point funicular construction.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
@@ -472,7 +462,7 @@ mod tests {
     #[test]
     fn rib_funicular_rejects_loads_it_cannot_draw() {
         // a horizontal load, a missing node, a springing pair in the wrong order
-        use crate::model::{frame, LoadCase, NodalLoad, Support};
+        use crate::frame::model::{frame, LoadCase, NodalLoad, Support};
         let mut m = Model::default();
         for (x, y) in [(0.0, 0.0), (5.0, 4.0), (10.0, 0.0)] {
             m.add_node("", x, y);
@@ -487,7 +477,7 @@ mod tests {
             nodal: vec![NodalLoad { node: 1, fx: 0.0, fy: -10.0, mz: 0.0 }],
             ..Default::default()
         }];
-        let s = crate::solver::solve(&m).expect("stable");
+        let s = crate::frame::solver::solve(&m).expect("stable");
         let f = rib_funicular(&m, &s.cases[0], 0, 2, Some(1)).expect("three-hinged triangle");
         // crown load P on a three-hinged arch: H = P L / (4 f) (statics: moments about the
         // crown of the right half, V_B = P / 2)
@@ -495,7 +485,7 @@ mod tests {
         assert!(rib_funicular(&m, &s.cases[0], 2, 0, Some(1)).is_err());
         assert!(rib_funicular(&m, &s.cases[0], 0, 9, Some(1)).is_err());
         m.load_cases[0].nodal[0].fx = 1.0;
-        let s = crate::solver::solve(&m).expect("stable");
+        let s = crate::frame::solver::solve(&m).expect("stable");
         assert!(rib_funicular(&m, &s.cases[0], 0, 2, Some(1)).is_err());
     }
 

@@ -6,23 +6,7 @@
 //! matching null vector of the leading block is returned so the caller can name what
 //! moves.
 
-/// Relative size below which a pivot counts as zero: d_i < PIVOT_TOLERANCE * K_ii.
-///
-/// Measured here: bare ribs whose EA is 1e5 times realistic (the stiffest models in the
-/// tests) keep every pivot above 4e-6 of its diagonal; a true mechanism leaves rounding,
-/// which stays near 1e-16 of the diagonal but, after a nearly parallel pair of bars, was
-/// seen at 1e-11. 1e-9 separates the two with margin both ways; a structure that stiff
-/// in one mode and that soft in another is a mechanism for any practical purpose.
-pub const PIVOT_TOLERANCE: f64 = 1e-9;
-
-/// A pivot within this many times its own rounding estimate, eps * (K_jj + sum of
-/// L_jk^2 K_kk), is rounding noise: the structure is a mechanism. After a nearly
-/// singular earlier pivot the noise of a true mechanism was seen above
-/// `PIVOT_TOLERANCE` of the diagonal (a random frame of the property tests, kept as a
-/// regression seed); the estimate grows with K_kk / d_k of the earlier pivots, so it
-/// follows that amplification, while sound structures keep pivots many orders above it
-/// (every solve in the test suite passes with this margin).
-pub const ROUNDING_MARGIN: f64 = 1e3;
+use crate::tolerance::{PIVOT_TOLERANCE, ROUNDING_MARGIN};
 
 /// A symmetric matrix stored by its lower band.
 #[derive(Debug, Clone)]

@@ -11,13 +11,14 @@
 //! node) in tension, sagging for members drawn left to right; shear V = dM/ds. Reactions
 //! and displacements in global axes (x right, y up, anticlockwise positive).
 
-use crate::banded::{BandMatrix, LdlFactor};
-use crate::element::{
+use crate::error::{Problem, StaticsError};
+use crate::frame::banded::{BandMatrix, LdlFactor};
+use crate::frame::element::{
     fixed_end_actions, internal_forces, load_resultant_global, local_stiffness, resolve_load,
     temperature_end_actions, Geometry, LocalLoad,
 };
-use crate::error::{Problem, StaticsError};
-use crate::model::{Dof, LoadCase, Model};
+use crate::frame::model::{Dof, LoadCase, Model};
+use crate::tolerance::VANISHING_REACTION;
 use nalgebra::{Matrix6, Vector6};
 use serde::{Deserialize, Serialize};
 
@@ -26,10 +27,6 @@ pub const STATION_INTERVALS: usize = 10;
 
 /// Steps of iterative refinement after the first solve (each costs one back-substitution).
 pub const REFINEMENT_STEPS: usize = 2;
-
-/// Reactions of a case without net load count as vanished below this fraction of
-/// E A times the largest imposed strain (they are then rounding noise).
-pub const VANISHING_REACTION: f64 = 1e-6;
 
 /// Results of every load case of a model.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
@@ -171,7 +168,7 @@ const DOFS: [Dof; 3] = [Dof::X, Dof::Y, Dof::Rz];
 /// Checks a model and lists every problem found (indices, lengths, properties, loads).
 pub fn validate(model: &Model) -> Result<(), StaticsError> {
     let mut p = Vec::new();
-    let mut add = |loc: String, msg: String| p.push(Problem { location: loc, message: msg });
+    let mut add = |loc: String, msg: String| p.push(Problem::new(loc, msg));
     if model.nodes.is_empty() {
         add("model".into(), "has no nodes; add at least two nodes and a member".into());
     }
@@ -214,7 +211,7 @@ pub fn validate(model: &Model) -> Result<(), StaticsError> {
             add(loc.clone(), format!("area A = {} m2 must be a positive finite number", m.a));
         }
         let bad_i = !(m.i.is_finite() && m.i > 0.0);
-        if !crate::element::is_axial_only(m) && bad_i {
+        if !crate::frame::element::is_axial_only(m) && bad_i {
             add(
                 loc.clone(),
                 format!(
@@ -280,8 +277,8 @@ pub fn validate(model: &Model) -> Result<(), StaticsError> {
                 continue;
             }
             let (val, a) = match *ml {
-                crate::model::MemberLoad::Uniform { w, .. } => (w, None),
-                crate::model::MemberLoad::Point { p, a, .. } => (p, Some(a)),
+                crate::frame::model::MemberLoad::Uniform { w, .. } => (w, None),
+                crate::frame::model::MemberLoad::Point { p, a, .. } => (p, Some(a)),
             };
             if !val.is_finite() {
                 add(loc.clone(), format!("load on member {} is not finite", model.member_label(k)));

@@ -7,13 +7,10 @@
 //! crown rib node without a post at the crown x when n is odd. Rib node 0 and the last
 //! are the springings; the end posts stand on them. Units m.
 
-use crate::design::{Bracing, Design, RibSystem};
+use crate::arch::design::{Bracing, Design, RibSystem};
+use crate::tolerance::SHARED_NODE_GAP;
 
 use serde::{Deserialize, Serialize};
-
-/// Posts shorter than this fraction of the span are never made: rib and deck share the
-/// node instead (a zero-length member cannot be analysed; 1e-6 of a 100 m span is 0.1 mm).
-pub const SHARED_NODE_GAP: f64 = 1e-6;
 
 /// A node of the arch layout, before numbering in a model.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]

@@ -11,15 +11,12 @@
 //!
 //! Units m, kN (loads positive downward inside this module, as on a load line).
 
-use crate::design::{check_inputs, Design, Warning};
-use crate::error::{Problem, StaticsError};
-use crate::funicular::{three_point, Point, VerticalLoad};
-use crate::layout::{position, Frame, Joint, Topology};
+use crate::arch::design::{check_inputs, Design, Warning};
+use crate::arch::layout::{position, Frame, Joint, Topology};
+use crate::error::{Iteration, Problem, StaticsError};
+use crate::graphic::funicular::{three_point, Point, VerticalLoad};
+use crate::tolerance::GROUND_TOLERANCE;
 use serde::{Deserialize, Serialize};
-
-/// Vertical clearance (m) by which a rib may dip into the ground before it is reported:
-/// the springings sit exactly on the ground, so only round-off is forgiven.
-pub const GROUND_TOLERANCE: f64 = 1e-6;
 
 /// Loads at the rib nodes for a given rib shape: the step of form finding that a later
 /// "as built" basis replaces.
@@ -212,7 +209,7 @@ pub fn find_form_for(
     loop {
         if iterations >= max_iterations {
             return Err(StaticsError::NoConvergence {
-                what: "form finding".into(),
+                what: Iteration::FormFinding,
                 iterations,
                 last_change: change,
                 hint:
@@ -243,7 +240,7 @@ pub fn find_form_for(
         y = new_y;
         if !change.is_finite() {
             return Err(StaticsError::NoConvergence {
-                what: "form finding".into(),
+                what: Iteration::FormFinding,
                 iterations,
                 last_change: change,
                 hint: "the shape diverged; check loads and rise".into(),
@@ -319,10 +316,7 @@ pub fn checked_form(design: &Design) -> Result<(Vec<Warning>, Form), StaticsErro
         Ok(f) => f,
         Err(StaticsError::Invalid(p)) => return Err(StaticsError::Invalid(p)),
         Err(StaticsError::NoConvergence { iterations, last_change, .. }) => {
-            return Err(StaticsError::Invalid(vec![Problem {
-                location: "form".into(),
-                message: format!("form finding did not converge in {iterations} iterations (last change {last_change:.3e} m); raise form.tolerance or form.max_iterations"),
-            }]))
+            return Err(StaticsError::Invalid(vec![Problem::new(crate::error::Field::FormMaxIterations, format!("form finding did not converge in {iterations} iterations (last change {last_change:.3e} m); raise form.tolerance or form.max_iterations"))]))
         }
         Err(e) => return Err(e),
     };
@@ -338,13 +332,13 @@ fn check_clearances(d: &Design, form: &Form, problems: &mut Vec<Problem>) {
     let last = form.rib.len() - 1;
     for (r, n) in form.rib.iter().enumerate() {
         if r > 0 && r < last && n.y > d.deck.level + GROUND_TOLERANCE {
-            problems.push(Problem {
-                location: format!("rib node at x = {:.3} m", n.x),
-                message: format!(
+            problems.push(Problem::new(
+                format!("rib node at x = {:.3} m", n.x),
+                format!(
                     "the rib rises {:.3} m above the deck; lower the crown or raise the deck",
                     n.y - d.deck.level
                 ),
-            });
+            ));
         }
     }
     // rib segment against ground: both piecewise linear, so compare at the segment ends
@@ -368,10 +362,7 @@ fn check_clearances(d: &Design, form: &Form, problems: &mut Vec<Problem>) {
             } else {
                 ""
             };
-            problems.push(Problem {
-                location: format!("rib between x = {:.3} m and {:.3} m", p.x, q.x),
-                message: format!("the rib{what} runs {depth:.3} m below the ground at x = {x:.3} m; raise the springings, lower the deck or change the rise"),
-            });
+            problems.push(Problem::new(format!("rib between x = {:.3} m and {:.3} m", p.x, q.x), format!("the rib{what} runs {depth:.3} m below the ground at x = {x:.3} m; raise the springings, lower the deck or change the rise")));
         }
     }
 }

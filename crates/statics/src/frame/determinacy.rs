@@ -12,14 +12,11 @@
 //! otherwise is the SVD of A computed (rank, and the mode that names a moving node).
 
 use crate::error::StaticsError;
-use crate::model::{Dof, Model};
-use crate::solver::validate;
+use crate::frame::model::{Dof, Model};
+use crate::frame::solver::validate;
+use crate::tolerance::RANK_TOLERANCE;
 use nalgebra::DMatrix;
 use serde::{Deserialize, Serialize};
-
-/// Singular values below this fraction of the largest count as zero. The matrix holds
-/// direction cosines and unit entries, so rank gaps are sharp.
-pub const RANK_TOLERANCE: f64 = 1e-9;
 
 /// How a pin-jointed model stands.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
@@ -181,11 +178,11 @@ fn determinacy_with(model: &Model, fast: bool) -> Result<DeterminacyReport, Stat
 }
 
 /// True when A A^T of the pin-jointed model factorises with every pivot clearly positive
-/// (see [`crate::banded::PIVOT_TOLERANCE`]): the bars and supports then hold every node
+/// (see [`crate::frame::banded::PIVOT_TOLERANCE`]): the bars and supports then hold every node
 /// and the model has no mechanism. False means "not sure": the caller does the SVD.
 fn without_mechanism(model: &Model) -> bool {
     let nn = model.nodes.len();
-    let order = crate::solver::node_order(model);
+    let order = crate::frame::solver::node_order(model);
     let mut eq = vec![0usize; nn];
     for (k, &node) in order.iter().enumerate() {
         eq[node] = k;
@@ -195,7 +192,7 @@ fn without_mechanism(model: &Model) -> bool {
         let (i, j) = (eq[m.start], eq[m.end]);
         bandwidth = bandwidth.max(2 * i.abs_diff(j) + 1);
     }
-    let mut k = crate::banded::BandMatrix::zeros(2 * nn, bandwidth);
+    let mut k = crate::frame::banded::BandMatrix::zeros(2 * nn, bandwidth);
     for (idx, m) in model.members.iter().enumerate() {
         let (a, b) = (&model.nodes[m.start], &model.nodes[m.end]);
         let l = model.member_length(idx);
@@ -228,13 +225,13 @@ fn without_mechanism(model: &Model) -> bool {
             k.add(2 * eq[s.node] + 1, 2 * eq[s.node] + 1, 1.0);
         }
     }
-    crate::banded::LdlFactor::new(&k).is_ok()
+    crate::frame::banded::LdlFactor::new(&k).is_ok()
 }
 
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::model::{truss, Support};
+    use crate::frame::model::{truss, Support};
     use proptest::prelude::*;
 
     /// A jittered grid of nodes joined by a random subset of neighbour bars, on a pin and

@@ -6,17 +6,17 @@
 //!
 //! Results are for concept design only; local codes and a licensed engineer govern.
 
-use crate::cases::{add_cases, standard_cases};
-use crate::design::{Design, RibSystem, Warning};
-use crate::determinacy::{truss_determinacy, Determinacy, DeterminacyReport};
+use crate::arch::cases::{add_cases, standard_cases};
+use crate::arch::design::{Design, RibSystem, Warning};
+use crate::arch::form::{checked_form, Form};
+use crate::arch::generate::{bare_rib_model, frame_model, restraint, truss_model, Restraint, DEAD};
 use crate::error::StaticsError;
-use crate::form::{checked_form, Form};
-use crate::funicular::{rib_funicular, RibFunicular};
-use crate::generate::{bare_rib_model, frame_model, restraint, truss_model, Restraint, DEAD};
-use crate::model::Model;
-use crate::reciprocal::{force_diagram, ForceDiagram};
-use crate::solver::{solve, Solution};
-use crate::thrust_line::{rib_chain, thrust_line, ThrustLine};
+use crate::frame::determinacy::{truss_determinacy, Determinacy, DeterminacyReport};
+use crate::frame::model::Model;
+use crate::frame::solver::{solve, Solution};
+use crate::graphic::funicular::{rib_funicular, RibFunicular};
+use crate::graphic::reciprocal::{force_diagram, ForceDiagram};
+use crate::graphic::thrust_line::{rib_chain, thrust_line, ThrustLine};
 use serde::Serialize;
 
 /// Units of every number in an `Analysis`.
@@ -157,7 +157,7 @@ pub fn analyze(design: &Design) -> Result<Analysis, StaticsError> {
     add_cases(design, &form, &mut frame, &specs)?;
     let frame_solution = solve(&frame)?;
     let mut frame_notes = vec![format!("longitudinal restraint: {}", rs.description)];
-    if design.rib_system == crate::design::RibSystem::ThreeHinged {
+    if design.rib_system == crate::arch::design::RibSystem::ThreeHinged {
         frame_notes.push(
             "three-hinged: the halves meet only at the crown rib node; the drop-in deck span over the crown \
              ties nothing and its reactions are loads on the neighbouring deck nodes"
@@ -420,7 +420,7 @@ pub fn rib_moments(model: &Model, solution: &Solution, form: &Form) -> RibMoment
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::design::RibSystem;
+    use crate::arch::design::RibSystem;
 
     #[test]
     fn demo_analysis_reports_every_model() {
@@ -445,11 +445,11 @@ mod tests {
     fn two_hinged_crown_shared_frees_both_seats() {
         let mut d = Design::demo();
         d.rib_system = RibSystem::TwoHinged;
-        d.crown = crate::design::Crown::Level { level: 99.5 }; // 0.5 m under the deck: shared
+        d.crown = crate::arch::design::Crown::Level { level: 99.5 }; // 0.5 m under the deck: shared
         let a = analyze(&d).expect("valid");
         assert!(a.form.rib[a.form.crown_node].shared_with_deck);
         assert!(!a.restraint.left_seat_fixed && !a.restraint.right_seat_fixed);
-        d.crown = crate::design::Crown::Level { level: 96.0 };
+        d.crown = crate::arch::design::Crown::Level { level: 96.0 };
         let a = analyze(&d).expect("valid");
         assert!(a.restraint.left_seat_fixed && !a.restraint.right_seat_fixed);
     }

@@ -27,7 +27,7 @@
 //! * trailing data after the compressed stream or after the design is refused;
 //! * the decoded design must pass `validate_design`.
 
-use crate::design::{
+use crate::arch::design::{
     validate_design, Bracing, Crown, Deck, Design, FormSettings, GroundPoint, MemberGroups, RibSystem,
     Section,
 };
@@ -293,7 +293,9 @@ mod v1 {
             groups,
             form,
         } = d;
-        let Deck { level, left_seat_x, right_seat_x, width, ribs, dead_load, surfacing } = *deck;
+        // TODO(link format 2): the abutment height is not on the v1 wire yet
+        let Deck { level, left_seat_x, right_seat_x, width, ribs, dead_load, surfacing, abutment_height: _ } =
+            *deck;
         let MemberGroups { rib, deck: deck_group, posts, piers, bracing: bracing_group } = groups;
         let FormSettings { tolerance, max_iterations } = *form;
         let wire = Wire {
@@ -367,6 +369,7 @@ mod v1 {
                 ribs: narrow(w.deck.ribs, "number of ribs")?,
                 dead_load: w.deck.dead_load,
                 surfacing: w.deck.surfacing,
+                abutment_height: crate::arch::design::DEFAULT_ABUTMENT_HEIGHT,
             },
             springing_left_level: w.springing_left_level,
             springing_right_level: w.springing_right_level,

@@ -38,23 +38,11 @@
 //! a couple, or a member carrying shear or bending is an error, never a wrong picture.
 
 use crate::error::StaticsError;
-use crate::model::Model;
-use crate::solver::{characteristic_length, validate, CaseResult};
+use crate::frame::model::Model;
+use crate::frame::solver::{characteristic_length, validate, CaseResult};
+use crate::tolerance::{CROSSING_END, PARALLEL, ZERO_FORCE};
 use serde::{Deserialize, Serialize};
 use std::collections::VecDeque;
-
-/// Relative size below which a force counts as zero (its segment is a point), as a
-/// fraction of the largest force of the case: the solver's equilibrium holds to about
-/// 1e-12 of it, so anything below 1e-9 is rounding, not force.
-pub const ZERO_FORCE: f64 = 1e-9;
-
-/// Two members whose direction vectors' cross product is below this fraction of the
-/// product of their lengths are parallel and cannot cross.
-const PARALLEL: f64 = 1e-12;
-
-/// A crossing closer to a member end than this fraction of its length is a joint, not a
-/// crossing (members meeting at a node are never cut).
-const CROSSING_END: f64 = 1e-9;
 
 /// Distance of label and arrow positions from their joint, as a fraction of the model's
 /// larger extent.
@@ -788,8 +776,8 @@ fn cut_crossings(model: &Model, pos: &mut Vec<(f64, f64)>) -> (Vec<(usize, usize
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::model::{truss, LoadCase, NodalLoad, Support};
-    use crate::solver::solve;
+    use crate::frame::model::{truss, LoadCase, NodalLoad, Support};
+    use crate::frame::solver::solve;
 
     fn check(model: &Model) -> ForceDiagram {
         let s = solve(model).expect("stable");
@@ -867,7 +855,7 @@ mod tests {
 
     #[test]
     fn braced_arch_truss_of_the_reference_set_closes() {
-        let text = include_str!("../../../tests/reference/models/braced_truss.json");
+        let text = include_str!("../../../../tests/reference/models/braced_truss.json");
         let m: Model = serde_json::from_str(text).expect("model");
         for case in 0..m.load_cases.len() {
             let mut one = m.clone();
@@ -928,13 +916,13 @@ mod tests {
 
     #[test]
     fn mismatched_results_and_member_loads_are_errors_not_panics() {
-        let text = include_str!("../../../tests/reference/models/braced_truss.json");
+        let text = include_str!("../../../../tests/reference/models/braced_truss.json");
         let m: Model = serde_json::from_str(text).expect("model");
         let s = solve(&m).expect("stable");
         let mut fewer = m.clone();
         fewer.members.pop();
         assert!(force_diagram(&fewer, &s.cases[0]).is_err());
-        let frame_text = include_str!("../../../tests/reference/models/frame_deck_arch.json");
+        let frame_text = include_str!("../../../../tests/reference/models/frame_deck_arch.json");
         let f: Model = serde_json::from_str(frame_text).expect("model");
         let fs = solve(&f).expect("stable");
         assert!(force_diagram(&f, &fs.cases[0]).is_err());

@@ -8,7 +8,7 @@
 //! 2nd ed., ch. 4-5). Moment releases are applied by static condensation of the released
 //! end rotation (McGuire et al. 2nd ed., sec. 13.2).
 
-use crate::model::{LoadDirection, Member, MemberKind, MemberLoad};
+use crate::frame::model::{LoadDirection, Member, MemberKind, MemberLoad};
 use nalgebra::{Matrix3, Matrix6, Vector2, Vector6};
 
 /// Direction cosines and length of a member from its end coordinates.
@@ -285,7 +285,7 @@ pub fn is_axial_only(member: &Member) -> bool {
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::model::frame;
+    use crate::frame::model::frame;
 
     #[test]
     fn propped_cantilever_fixed_end_moment_matches_table() {

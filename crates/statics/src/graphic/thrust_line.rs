@@ -12,8 +12,8 @@
 //! safety is the rib depth over the least depth that contains the line (Heyman).
 
 use crate::error::StaticsError;
-use crate::model::Model;
-use crate::solver::CaseResult;
+use crate::frame::model::Model;
+use crate::frame::solver::CaseResult;
 use serde::{Deserialize, Serialize};
 
 /// The centre of pressure at one rib section.
@@ -123,7 +123,7 @@ pub fn thrust_line(
     if !(depth.is_finite() && depth > 0.0) {
         return Err(StaticsError::invalid("thrust line", format!("rib depth {depth} m must be positive")));
     }
-    crate::solver::validate(model)?;
+    crate::frame::solver::validate(model)?;
     let nm = model.members.len();
     if case.members.len() != nm || case.reactions.iter().any(|r| r.node >= model.nodes.len()) {
         return Err(StaticsError::invalid(
@@ -199,11 +199,11 @@ pub fn thrust_line(
         let Some(lc) = lc else { return (0.0, 0.0, 0.0) };
         let m = &model.members[k];
         let (p, q) = (pos(m.start), pos(m.end));
-        let g = crate::element::Geometry::new(p.0, p.1, q.0, q.1);
+        let g = crate::frame::element::Geometry::new(p.0, p.1, q.0, q.1);
         let (mut fx, mut fy, mut m0) = (0.0, 0.0, 0.0);
         for ml in lc.member.iter().filter(|ml| ml.member() == k) {
-            let ll = crate::element::resolve_load(ml, &g);
-            let (gx, gy, about_start) = crate::element::load_resultant_global(&ll, &g);
+            let ll = crate::frame::element::resolve_load(ml, &g);
+            let (gx, gy, about_start) = crate::frame::element::load_resultant_global(&ll, &g);
             fx += gx;
             fy += gy;
             m0 += about_start + p.0 * gy - p.1 * gx;
@@ -321,7 +321,7 @@ fn intersect(p: (f64, f64), r: (f64, f64), q: (f64, f64), d: (f64, f64)) -> Opti
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::solver::solve;
+    use crate::frame::solver::solve;
 
     fn check_moments(model: &Model, depth: f64) -> Vec<ThrustLine> {
         let s = solve(model).expect("stable");
@@ -362,7 +362,7 @@ mod tests {
 
     #[test]
     fn frame_deck_arch_of_the_reference_set_has_n_e_equal_to_m() {
-        let text = include_str!("../../../tests/reference/models/frame_deck_arch.json");
+        let text = include_str!("../../../../tests/reference/models/frame_deck_arch.json");
         let m: Model = serde_json::from_str(text).expect("model");
         let lines = check_moments(&m, 1.5);
         assert!(!lines.is_empty());
@@ -374,7 +374,7 @@ mod tests {
     /// springing sections.
     #[test]
     fn polygon_starts_and_ends_on_the_springing_sections() {
-        let text = include_str!("../../../tests/reference/models/bare_rib.json");
+        let text = include_str!("../../../../tests/reference/models/bare_rib.json");
         let m: Model = serde_json::from_str(text).expect("model");
         for tl in check_moments(&m, 1.0) {
             assert_eq!(tl.polygon.first(), tl.sections.first().map(|s| &s.point));
@@ -388,7 +388,7 @@ mod tests {
     /// index past the model's members and panic; now they are an error.
     #[test]
     fn results_of_another_model_are_an_error() {
-        let text = include_str!("../../../tests/reference/models/frame_deck_arch.json");
+        let text = include_str!("../../../../tests/reference/models/frame_deck_arch.json");
         let m: Model = serde_json::from_str(text).expect("model");
         let s = solve(&m).expect("stable");
         let chain = rib_chain(&m).expect("rib");
@@ -402,7 +402,7 @@ mod tests {
 
     #[test]
     fn fixed_bare_rib_of_the_reference_set_has_n_e_equal_to_m() {
-        let text = include_str!("../../../tests/reference/models/bare_rib.json");
+        let text = include_str!("../../../../tests/reference/models/bare_rib.json");
         let m: Model = serde_json::from_str(text).expect("model");
         check_moments(&m, 1.0);
     }

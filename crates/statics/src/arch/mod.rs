@@ -1,0 +1,10 @@
+//! The deck arch: the design a user edits and its validation, the default layout, form
+//! finding, generation of the analysis models, load cases and the whole analysis. Uses
+//! the graphic and frame layers.
+
+pub mod analysis;
+pub mod cases;
+pub mod design;
+pub mod form;
+pub mod generate;
+pub mod layout;

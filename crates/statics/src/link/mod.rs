@@ -1,0 +1,4 @@
+//! The permalink codec: a whole design in the fragment of a URL, versioned, with caps.
+//! Uses the arch layer (the design it carries).
+
+pub mod permalink;

@@ -1,0 +1,61 @@
+//! Named tolerances, one place for all: each says what it compares, in which unit or
+//! relative to what, and why its value. A bare small number in the middle of a function
+//! is a defect; name it here.
+
+// frame layer: banded
+/// Relative size below which a pivot counts as zero: d_i < PIVOT_TOLERANCE * K_ii.
+///
+/// Measured here: bare ribs whose EA is 1e5 times realistic (the stiffest models in the
+/// tests) keep every pivot above 4e-6 of its diagonal; a true mechanism leaves rounding,
+/// which stays near 1e-16 of the diagonal but, after a nearly parallel pair of bars, was
+/// seen at 1e-11. 1e-9 separates the two with margin both ways; a structure that stiff
+/// in one mode and that soft in another is a mechanism for any practical purpose.
+pub const PIVOT_TOLERANCE: f64 = 1e-9;
+
+/// A pivot within this many times its own rounding estimate, eps * (K_jj + sum of
+/// L_jk^2 K_kk), is rounding noise: the structure is a mechanism. After a nearly
+/// singular earlier pivot the noise of a true mechanism was seen above
+/// `PIVOT_TOLERANCE` of the diagonal (a random frame of the property tests, kept as a
+/// regression seed); the estimate grows with K_kk / d_k of the earlier pivots, so it
+/// follows that amplification, while sound structures keep pivots many orders above it
+/// (every solve in the test suite passes with this margin).
+pub const ROUNDING_MARGIN: f64 = 1e3;
+
+// frame layer: determinacy
+/// Singular values below this fraction of the largest count as zero. The matrix holds
+/// direction cosines and unit entries, so rank gaps are sharp.
+pub const RANK_TOLERANCE: f64 = 1e-9;
+
+// frame layer: solver
+/// Reactions of a case without net load count as vanished below this fraction of
+/// E A times the largest imposed strain (they are then rounding noise).
+pub const VANISHING_REACTION: f64 = 1e-6;
+
+// graphic layer: reciprocal
+/// Relative size below which a force counts as zero (its segment is a point), as a
+/// fraction of the largest force of the case: the solver's equilibrium holds to about
+/// 1e-12 of it, so anything below 1e-9 is rounding, not force.
+pub const ZERO_FORCE: f64 = 1e-9;
+
+/// Two members whose direction vectors' cross product is below this fraction of the
+/// product of their lengths are parallel and cannot cross.
+pub const PARALLEL: f64 = 1e-12;
+
+/// A crossing closer to a member end than this fraction of its length is a joint, not a
+/// crossing (members meeting at a node are never cut).
+pub const CROSSING_END: f64 = 1e-9;
+
+// graphic layer: funicular
+/// Loads closer than this fraction of the span to a support are still "inside" (round-off
+/// in computed panel positions must not reject a load on the support vertical).
+pub const SPAN_TOLERANCE: f64 = 1e-12;
+
+// arch layer: layout
+/// Posts shorter than this fraction of the span are never made: rib and deck share the
+/// node instead (a zero-length member cannot be analysed; 1e-6 of a 100 m span is 0.1 mm).
+pub const SHARED_NODE_GAP: f64 = 1e-6;
+
+// arch layer: form
+/// Vertical clearance (m) by which a rib may dip into the ground before it is reported:
+/// the springings sit exactly on the ground, so only round-off is forgiven.
+pub const GROUND_TOLERANCE: f64 = 1e-6;
