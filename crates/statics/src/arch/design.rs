@@ -20,6 +20,9 @@ pub const MIN_PANELS: usize = 2;
 /// Most arch panels accepted (beyond this the panels are shorter than any real post
 /// spacing and the models grow without telling the user anything new).
 pub const MAX_PANELS: usize = 200;
+/// Most ribs side by side accepted (a plane model of more ribs than this says nothing a
+/// wider deck of fewer ribs would not).
+pub const MAX_RIBS: usize = 100;
 /// Most approach piers per side accepted.
 pub const MAX_APPROACH_PIERS: usize = 50;
 /// Rise / span below which a warning is given (common practice: deck arches run about
@@ -418,8 +421,8 @@ pub(crate) fn check_inputs(d: &Design, problems: &mut Vec<Problem>, warnings: &m
     if !(finite(d.deck.width) && d.deck.width > 0.0) {
         add(Field::DeckWidth, format!("the deck width {} m must be a positive number", d.deck.width));
     }
-    if d.deck.ribs == 0 || d.deck.ribs > 100 {
-        add(Field::Ribs, format!("the number of ribs {} must be between 1 and 100", d.deck.ribs));
+    if d.deck.ribs == 0 || d.deck.ribs > MAX_RIBS {
+        add(Field::Ribs, format!("the number of ribs {} must be between 1 and {MAX_RIBS}", d.deck.ribs));
     }
     if !(finite(d.deck.dead_load) && d.deck.dead_load >= 0.0) {
         add(
