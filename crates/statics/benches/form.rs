@@ -1,10 +1,9 @@
-//! Form finding plus dead-load analysis of the frame model, at 8, 16 and 32 panels
-//! (the demo design otherwise).
+//! Validation with form finding, plus dead-load analysis of the frame model, at 8, 16
+//! and 32 panels (the demo design otherwise).
 
 use criterion::{criterion_group, criterion_main, BenchmarkId, Criterion};
 use springline_statics::arch::design::Design;
-use springline_statics::arch::form::find_form;
-use springline_statics::{frame_model, solve};
+use springline_statics::{frame_model, solve, ValidDesign};
 
 fn form_and_dead_load(c: &mut Criterion) {
     let mut group = c.benchmark_group("form_and_dead_load");
@@ -13,9 +12,8 @@ fn form_and_dead_load(c: &mut Criterion) {
         d.panels = panels;
         group.bench_with_input(BenchmarkId::from_parameter(panels), &d, |b, d| {
             b.iter(|| {
-                let form = find_form(d).expect("demo form");
-                let model = frame_model(d, &form).expect("frame model");
-                solve(&model).expect("solves")
+                let valid = ValidDesign::new(d).expect("demo is valid");
+                solve(&frame_model(&valid).model).expect("solves")
             })
         });
     }

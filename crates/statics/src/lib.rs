@@ -46,10 +46,14 @@ pub use graphic::reciprocal::{
 };
 pub use graphic::thrust_line::{rib_chain, thrust_line, PressurePoint, ThrustLine};
 
-pub use arch::analysis::{analyze, Analysis};
-pub use arch::cases::{add_cases, build_case, standard_cases, CaseSpec, DeckLoad, Half};
-pub use arch::design::{validate_design, Design, Warning};
-pub use arch::form::{find_form, Form, LoadBasis, PanelLoads};
-pub use arch::generate::{bare_rib_model, frame_model, truss_model};
+pub use arch::analysis::{analyze, analyze_valid, Analysis};
+pub use arch::cases::{add_cases, build_case, standard_cases, CaseKind, CaseSpec, DeckLoad, Half};
+pub use arch::design::{Design, Warning};
+pub use arch::form::{Form, LoadBasis, PanelLoads};
+pub use arch::generate::{
+    bare_rib_model, frame_model, truss_model, Generated, MemberRole, ModelKind, ModelMap,
+};
+pub use arch::summary::Summary;
+pub use arch::validate::{validate_design, ValidDesign};
 
 pub use link::permalink::{decode as decode_link, encode as encode_link};

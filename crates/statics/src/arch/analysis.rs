@@ -1,23 +1,29 @@
-//! From a design to an analysed deck arch: validation, form finding, the generated models
-//! and their solutions for the dead load and the standard extra cases
+//! From a design to an analysed deck arch: validation (once), the generated models and
+//! their solutions for the dead load and the standard extra cases
 //! (`cases::standard_cases`), and per load case the force diagram of the truss
 //! idealisation, the pole construction of the rib and the thrust line of the frame
-//! model's rib, in one serialisable result.
+//! model's rib, in one serialisable result with its [`Summary`].
 //!
 //! Results are for concept design only; local codes and a licensed engineer govern.
 
-use crate::arch::cases::{add_cases, standard_cases};
+use crate::arch::cases::{add_cases, standard_cases, CaseKind};
 use crate::arch::design::{Design, RibSystem, Warning};
-use crate::arch::form::{checked_form, Form};
-use crate::arch::generate::{bare_rib_model, frame_model, restraint, truss_model, Restraint, DEAD};
+use crate::arch::form::Form;
+use crate::arch::generate::{
+    bare_rib_model, frame_model, restraint, truss_model, DeckHold, Generated, MemberRole, ModelKind,
+    ModelMap, Restraint, DEAD,
+};
+use crate::arch::summary::Summary;
+use crate::arch::validate::ValidDesign;
 use crate::error::StaticsError;
 use crate::frame::determinacy::{truss_determinacy, Determinacy, DeterminacyReport};
 use crate::frame::model::Model;
 use crate::frame::solver::{solve, Solution};
 use crate::graphic::funicular::{rib_funicular, RibFunicular};
 use crate::graphic::reciprocal::{force_diagram, ForceDiagram};
-use crate::graphic::thrust_line::{rib_chain, thrust_line, ThrustLine};
+use crate::graphic::thrust_line::{thrust_line, ThrustLine};
 use serde::Serialize;
+use std::fmt;
 
 /// Units of every number in an `Analysis`.
 pub const UNITS: &str = "SI: lengths m, forces kN, moments kNm, loads kN/m and kN/m2, E kN/m2, areas m2, \
@@ -27,52 +33,183 @@ pub const SIGN_CONVENTION: &str = "axes x right, y up; loads and reactions as fo
 negative); axial force N tension positive, compression negative; bending moment M positive when it puts \
 the right-hand fibre (looking from a member's start node to its end node) in tension, i.e. sagging for \
 rib and deck members, which run left to right; form-finding loads on rib nodes are positive downward; \
-thrust H is the horizontal compression of the rib, positive";
+form thrust and springing thrust are horizontal compressions of the rib, positive";
 /// The caution shown with every result.
 pub const CAUTION: &str = "concept-design results; local codes and a licensed engineer govern";
+
+/// A note on a generated model, for the screen.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+#[serde(tag = "note", rename_all = "snake_case")]
+pub enum ModelNote {
+    /// Who holds the deck longitudinally.
+    Restraint {
+        /// Who.
+        held_by: DeckHold,
+    },
+    /// Three-hinged: the halves meet only at the crown node; the drop-in span ties nothing.
+    DropIn,
+    /// The load basis of the form.
+    FormBasis {
+        /// Its name.
+        basis: &'static str,
+    },
+    /// The truss idealisation leaves out the approach and drop-in spans.
+    SpansLeftOut,
+    /// The truss idealisation is determinate: no bracing force on the funicular.
+    Determinate,
+    /// The truss idealisation is indeterminate: rib shortening loads deck and bracing.
+    Indeterminate,
+    /// The truss idealisation is a mechanism and is not solved.
+    Mechanism,
+    /// What the bare rib is for.
+    BareRib,
+}
+
+impl fmt::Display for ModelNote {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        match self {
+            ModelNote::Restraint { held_by } => write!(f, "longitudinal restraint: {held_by}"),
+            ModelNote::DropIn => f.write_str(
+                "three-hinged: the halves meet only at the crown rib node; the drop-in deck span over the crown \
+                 ties nothing and its reactions are loads on the neighbouring deck nodes",
+            ),
+            ModelNote::FormBasis { basis } => write!(f, "form basis: {basis}"),
+            ModelNote::SpansLeftOut => {
+                f.write_str("approach spans and drop-in spans left out; their reactions are loads")
+            }
+            ModelNote::Determinate => {
+                f.write_str("determinate: on the dead-load funicular the bracing carries nothing")
+            }
+            ModelNote::Indeterminate => {
+                f.write_str("indeterminate: rib shortening sends some dead load into deck and bracing")
+            }
+            ModelNote::Mechanism => f.write_str("a mechanism: not solved"),
+            ModelNote::BareRib => f.write_str(
+                "the rib alone, form-finding loads at its nodes (erection stage and closed-form checks)",
+            ),
+        }
+    }
+}
+
+/// A note on the figures of a load case: which model each belongs to, or why one is
+/// missing.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+#[serde(tag = "note", rename_all = "snake_case")]
+pub enum FigureNote {
+    /// No force diagram: the spandrels are not braced.
+    NotBraced,
+    /// No force diagram: the truss idealisation is a mechanism.
+    TrussIsMechanism,
+    /// The force diagram is the reciprocal figure of the truss idealisation.
+    ForceDiagram,
+    /// The force diagram could not be drawn.
+    NoForceDiagram {
+        /// Why.
+        reason: String,
+    },
+    /// The rib funicular is the three-point construction (three-hinged rib).
+    ThreePoint,
+    /// The rib funicular's pole comes from the solved reactions.
+    PoleFromReactions,
+    /// The rib funicular could not be drawn.
+    NoRibFunicular {
+        /// Why.
+        reason: String,
+    },
+    /// The thrust line of the frame model's rib, checked with the rib depth.
+    ThrustLine {
+        /// Rib depth, m.
+        depth: f64,
+    },
+    /// The thrust line could not be drawn.
+    NoThrustLine {
+        /// Why.
+        reason: String,
+    },
+}
+
+impl fmt::Display for FigureNote {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        match self {
+            FigureNote::NotBraced => {
+                f.write_str("no force diagram: the spandrels are not braced, so there is no truss idealisation")
+            }
+            FigureNote::TrussIsMechanism => f.write_str("no force diagram: the truss idealisation is a mechanism"),
+            FigureNote::ForceDiagram => f.write_str(
+                "force diagram: reciprocal figure of the truss idealisation (every joint pinned), exact for that \
+                 model; the frame model's rib bends, so read it with the thrust line",
+            ),
+            FigureNote::NoForceDiagram { reason } => write!(f, "no force diagram: {reason}"),
+            FigureNote::ThreePoint => f.write_str(
+                "rib funicular: three-point construction through both springings and the crown hinge (statics \
+                 alone), bare rib loads",
+            ),
+            FigureNote::PoleFromReactions => f.write_str(
+                "rib funicular: pole from the bare rib's solved springing reactions (the rib is not three-hinged, \
+                 so no three-point construction holds)",
+            ),
+            FigureNote::NoRibFunicular { reason } => write!(f, "no rib funicular: {reason}"),
+            FigureNote::ThrustLine { depth } => write!(
+                f,
+                "thrust line: from the forces the frame model's rib receives and its springing reactions; checked \
+                 at the rib nodes with the rib depth {depth} m"
+            ),
+            FigureNote::NoThrustLine { reason } => write!(f, "no thrust line: {reason}"),
+        }
+    }
+}
 
 /// One generated model with its solutions.
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct ModelResult {
-    /// Which model this is ("frame model", "truss idealisation", "bare rib").
-    pub name: String,
+    /// Which model this is.
+    pub kind: ModelKind,
     /// The generated model (its title says which model it is).
     pub model: Model,
+    /// Roles of its members and the nodes of the layout's joints.
+    pub map: ModelMap,
     /// Solution of every load case of `model`: "dead" first, then the standard extra
     /// cases in the order of `Analysis::load_cases`.
     pub solution: Solution,
     /// Notes for the screen (restraint, drop-in, what is left out).
-    pub notes: Vec<String>,
+    pub notes: Vec<ModelNote>,
 }
 
 /// The truss idealisation with its degree of indeterminacy.
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct TrussResult {
-    /// "truss idealisation".
-    pub name: String,
     /// The generated model.
     pub model: Model,
+    /// Roles of its members and the nodes of the layout's joints.
+    pub map: ModelMap,
     /// Degree of static indeterminacy from the rank of the equilibrium matrix.
     pub determinacy: DeterminacyReport,
-    /// The determinacy in words.
-    pub determinacy_text: String,
     /// Solution of every load case, "dead" first (`None` when the truss is a mechanism).
     pub solution: Option<Solution>,
     /// Largest |N| of a bracing diagonal over the largest |N| of any member under dead
     /// load (0 on the funicular of a determinate layout).
     pub bracing_ratio: Option<f64>,
     /// Notes for the screen.
-    pub notes: Vec<String>,
+    pub notes: Vec<ModelNote>,
 }
 
 /// Bending moment of the rib at one rib node, frame model, dead load.
+///
+/// Where a member joins the rib with a moment (the deck at a node rib and deck share) the
+/// moment jumps: `left` and `right` are the moments just left and just right of the node,
+/// and `m` is the one of larger magnitude. Every output that reports one moment per rib
+/// node (residual moments, thrust-line checks, the summary) uses `m`.
 #[derive(Debug, Clone, Copy, PartialEq, Serialize)]
 pub struct RibMoment {
     /// Position, m.
     pub x: f64,
     /// Position, m.
     pub y: f64,
-    /// Bending moment, kNm (sagging positive).
+    /// Moment just left of the node, kNm (sagging positive; `None` at the left springing).
+    pub left: Option<f64>,
+    /// Moment just right of the node, kNm (`None` at the right springing).
+    pub right: Option<f64>,
+    /// The side of larger magnitude, kNm.
     pub m: f64,
 }
 
@@ -80,14 +217,14 @@ pub struct RibMoment {
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct RibMoments {
     /// The model they come from.
-    pub model: String,
+    pub model: ModelKind,
     /// The load case.
     pub case: String,
     /// Moment at every rib node, left to right.
     pub nodes: Vec<RibMoment>,
     /// Largest |M| anywhere along the rib (nodes and member stations), kNm.
     pub max_abs: f64,
-    /// H times the rise, kNm (the scale of the arch action).
+    /// Form thrust times the rise, kNm (the scale of the arch action).
     pub thrust_times_rise: f64,
     /// `max_abs` / `thrust_times_rise`.
     pub relative: f64,
@@ -104,9 +241,12 @@ pub struct Analysis {
     pub sign_convention: String,
     /// Caution.
     pub caution: String,
+    /// The key numbers: what the CLI prints first, the app's results table shows and the
+    /// link fixtures store.
+    pub summary: Summary,
     /// Warnings from validation.
     pub warnings: Vec<Warning>,
-    /// The form (basis, rib nodes, thrust, reactions, iterations, final change).
+    /// The form (basis, rib nodes, form thrust, reactions, iterations, final change).
     pub form: Form,
     /// Longitudinal restraint of the deck in the frame model.
     pub restraint: Restraint,
@@ -129,7 +269,7 @@ pub struct CaseFigures {
     /// Load case name (the same in every model).
     pub case: String,
     /// What the case is.
-    pub description: String,
+    pub description: CaseKind,
     /// Reciprocal figure of the truss idealisation (braced designs; `None` otherwise or
     /// when it cannot be drawn, with the reason in `notes`).
     pub force_diagram: Option<ForceDiagram>,
@@ -140,226 +280,192 @@ pub struct CaseFigures {
     /// Thrust line of the frame model's rib (checked with the rib section depth).
     pub thrust_line: Option<ThrustLine>,
     /// Which model each figure belongs to, and why a figure is missing.
-    pub notes: Vec<String>,
+    pub notes: Vec<FigureNote>,
 }
 
-/// Validates the design, finds its form on the "panel loads" basis, generates the frame
-/// model, the truss idealisation (when braced) and the bare rib, and solves each for the
-/// dead load.
+/// Validates the design (once) and analyses it: see [`analyze_valid`].
 ///
-/// Errors: `Invalid` with every problem of the design; `Mechanism` if a generated frame
-/// or rib model cannot stand (a bug or an extreme design: the message names the node).
+/// Errors: `Invalid` with every problem of the design; `NoConvergence` when form finding
+/// does not settle; `Mechanism` if a generated frame or rib model cannot stand (a bug or
+/// an extreme design: the message names the node).
 pub fn analyze(design: &Design) -> Result<Analysis, StaticsError> {
-    let (warnings, form) = checked_form(design)?;
-    let rs = restraint(design, &form);
-    let specs = standard_cases(design)?;
-    let mut frame = frame_model(design, &form)?;
-    add_cases(design, &form, &mut frame, &specs)?;
-    let frame_solution = solve(&frame)?;
-    let mut frame_notes = vec![format!("longitudinal restraint: {}", rs.description)];
-    if design.rib_system == crate::arch::design::RibSystem::ThreeHinged {
-        frame_notes.push(
-            "three-hinged: the halves meet only at the crown rib node; the drop-in deck span over the crown \
-             ties nothing and its reactions are loads on the neighbouring deck nodes"
-                .into(),
-        );
+    analyze_valid(&ValidDesign::new(design)?)
+}
+
+/// The generated models of a validated design with the standard cases added and solved.
+struct Solved {
+    frame: Generated,
+    frame_solution: Solution,
+    rib: Generated,
+    rib_solution: Solution,
+    truss: Option<(Generated, DeterminacyReport, Option<Solution>)>,
+}
+
+fn solve_models(valid: &ValidDesign) -> Result<Solved, StaticsError> {
+    let specs = standard_cases(valid);
+    let mut frame = frame_model(valid);
+    add_cases(valid, &mut frame, &specs)?;
+    let frame_solution = solve(&frame.model)?;
+    let mut rib = bare_rib_model(valid);
+    add_cases(valid, &mut rib, &specs)?;
+    let rib_solution = solve(&rib.model)?;
+    let truss = match truss_model(valid) {
+        Some(mut truss) => {
+            add_cases(valid, &mut truss, &specs)?;
+            let determinacy = truss_determinacy(&truss.model)?;
+            let solution = match determinacy.determinacy {
+                Determinacy::Mechanism { .. } => None,
+                _ => Some(solve(&truss.model)?),
+            };
+            Some((truss, determinacy, solution))
+        }
+        None => None,
+    };
+    Ok(Solved { frame, frame_solution, rib, rib_solution, truss })
+}
+
+/// Generates the frame model, the truss idealisation (when braced) and the bare rib of a
+/// validated design, solves each for the dead load and the standard extra cases, and draws
+/// the figures of every case.
+///
+/// Errors: `Mechanism` if a generated frame or rib model cannot stand (the message names
+/// the node); `OutOfRange` for numbers beyond floating point.
+pub fn analyze_valid(valid: &ValidDesign) -> Result<Analysis, StaticsError> {
+    let design = valid.design();
+    let form = valid.form();
+    let rs = restraint(valid);
+    let Solved { frame, frame_solution, rib, rib_solution, truss } = solve_models(valid)?;
+    let mut frame_notes = vec![ModelNote::Restraint { held_by: rs.held_by }];
+    if design.rib_system == RibSystem::ThreeHinged {
+        frame_notes.push(ModelNote::DropIn);
     }
-    frame_notes.push(format!("form basis: {}", form.basis));
-    let residual = rib_moments(&frame, &frame_solution, &form);
-    let mut rib = bare_rib_model(design, &form)?;
-    add_cases(design, &form, &mut rib, &specs)?;
-    let rib_solution = solve(&rib)?;
-    let truss = if design.bracing.is_braced() {
-        let mut model = truss_model(design, &form)?;
-        add_cases(design, &form, &mut model, &specs)?;
-        let determinacy = truss_determinacy(&model)?;
-        let (solution, bracing_ratio) = if matches!(determinacy.determinacy, Determinacy::Mechanism { .. }) {
-            (None, None)
-        } else {
-            let s = solve(&model)?;
-            let ratio = bracing_ratio(&model, &s);
-            (Some(s), ratio)
+    frame_notes.push(ModelNote::FormBasis { basis: form.basis_name() });
+    let residual = rib_moments(&frame.model, &frame.map, &frame_solution, form);
+    let truss = truss.map(|(generated, determinacy, solution)| {
+        let bracing_ratio = solution.as_ref().and_then(|s| bracing_ratio(&generated.map, s));
+        let verdict = match determinacy.determinacy {
+            Determinacy::Determinate => ModelNote::Determinate,
+            Determinacy::Indeterminate { .. } => ModelNote::Indeterminate,
+            Determinacy::Mechanism { .. } => ModelNote::Mechanism,
         };
-        let mut notes =
-            vec!["approach spans and drop-in spans left out; their reactions are loads".to_string()];
-        notes.push(match determinacy.determinacy {
-            Determinacy::Determinate => {
-                "determinate: on the dead-load funicular the bracing carries nothing".to_string()
-            }
-            Determinacy::Indeterminate { .. } => {
-                "indeterminate: rib shortening sends some dead load into deck and bracing".to_string()
-            }
-            Determinacy::Mechanism { .. } => "a mechanism: not solved".to_string(),
-        });
-        Some(TrussResult {
-            name: "truss idealisation".into(),
-            model,
-            determinacy_text: determinacy.describe(),
+        TrussResult {
+            model: generated.model,
+            map: generated.map,
             determinacy,
             solution,
             bracing_ratio,
-            notes,
-        })
-    } else {
-        None
-    };
-    let mut descriptions = vec![(
-        DEAD.to_string(),
-        "dead load: deck, surfacing and self-weight (the form-finding load)".to_string(),
-    )];
-    descriptions.extend(specs.iter().map(|s| (s.name.clone(), s.description.clone())));
-    let truss_parts = truss.as_ref().and_then(|t| t.solution.as_ref().map(|s| (&t.model, s)));
-    let load_cases = descriptions
+            notes: vec![ModelNote::SpansLeftOut, verdict],
+        }
+    });
+    let mut cases = vec![(DEAD.to_string(), CaseKind::Dead)];
+    cases.extend(standard_cases(valid).into_iter().map(|s| (s.name, s.kind)));
+    let load_cases = cases
         .into_iter()
-        .map(|(name, description)| {
-            case_figures(
-                design,
-                &form,
-                &name,
-                description,
-                &frame,
-                &frame_solution,
-                truss_parts,
-                &rib,
-                &rib_solution,
-            )
+        .map(|(name, kind)| {
+            let figures = Figures {
+                frame: (&frame.model, &frame.map, &frame_solution),
+                truss: truss.as_ref().map(|t| (&t.model, t.solution.as_ref())),
+                rib: (&rib.model, &rib.map, &rib_solution),
+            };
+            case_figures(design, &figures, &name, kind)
         })
         .collect();
+    let frame = ModelResult {
+        kind: ModelKind::Frame,
+        model: frame.model,
+        map: frame.map,
+        solution: frame_solution,
+        notes: frame_notes,
+    };
+    let bare_rib = ModelResult {
+        kind: ModelKind::BareRib,
+        model: rib.model,
+        map: rib.map,
+        solution: rib_solution,
+        notes: vec![ModelNote::BareRib],
+    };
+    let summary = Summary::new(design, form, &rs, &frame, truss.as_ref(), &residual);
     Ok(Analysis {
         design: design.name.clone(),
         units: UNITS.into(),
         sign_convention: SIGN_CONVENTION.into(),
         caution: CAUTION.into(),
-        warnings,
-        form,
+        summary,
+        warnings: valid.warnings().to_vec(),
+        form: form.clone(),
         restraint: rs,
-        frame: ModelResult {
-            name: "frame model".into(),
-            model: frame,
-            solution: frame_solution,
-            notes: frame_notes,
-        },
+        frame,
         truss,
-        bare_rib: ModelResult {
-            name: "bare rib".into(),
-            model: rib,
-            solution: rib_solution,
-            notes: vec![
-                "the rib alone, form-finding loads at its nodes (erection stage and closed-form checks)"
-                    .into(),
-            ],
-        },
+        bare_rib,
         residual_rib_moments: residual,
         load_cases,
     })
 }
 
+/// The solved models a case's figures are drawn from.
+struct Figures<'a> {
+    frame: (&'a Model, &'a ModelMap, &'a Solution),
+    truss: Option<(&'a Model, Option<&'a Solution>)>,
+    rib: (&'a Model, &'a ModelMap, &'a Solution),
+}
+
 /// The figures of load case `name` from the solved models of an analysis.
-#[allow(clippy::too_many_arguments)]
-fn case_figures(
-    design: &Design,
-    form: &Form,
-    name: &str,
-    description: String,
-    frame: &Model,
-    frame_solution: &Solution,
-    truss: Option<(&Model, &Solution)>,
-    rib: &Model,
-    rib_solution: &Solution,
-) -> CaseFigures {
+fn case_figures(design: &Design, models: &Figures, name: &str, kind: CaseKind) -> CaseFigures {
     let mut notes = Vec::new();
-    let force_diagram = match truss {
-        None if !design.bracing.is_braced() => {
-            notes.push(
-                "no force diagram: the spandrels are not braced, so there is no truss idealisation".into(),
-            );
-            None
-        }
+    let force_diagram = match models.truss {
         None => {
-            notes.push("no force diagram: the truss idealisation is a mechanism".into());
+            notes.push(FigureNote::NotBraced);
             None
         }
-        Some((model, solution)) => match solution.case(name).map(|c| force_diagram(model, c)) {
+        Some((_, None)) => {
+            notes.push(FigureNote::TrussIsMechanism);
+            None
+        }
+        Some((model, Some(solution))) => match solution.case(name).map(|c| force_diagram(model, c)) {
             Some(Ok(fd)) => {
-                notes.push(
-                    "force diagram: reciprocal figure of the truss idealisation (every joint pinned), exact for \
-                     that model; the frame model's rib bends, so read it with the thrust line"
-                        .into(),
-                );
+                notes.push(FigureNote::ForceDiagram);
                 Some(fd)
             }
             Some(Err(e)) => {
-                notes.push(format!("no force diagram: {e}"));
+                notes.push(FigureNote::NoForceDiagram { reason: e.to_string() });
                 None
             }
             None => None,
         },
     };
-    let ends = |model: &Model| -> Option<(usize, usize)> {
-        let chain = rib_chain(model).ok()?;
-        let first = chain.first()?;
-        let last = chain.last()?;
-        let node = |(k, fwd): (usize, bool), start: bool| {
-            let m = &model.members[k];
-            if fwd == start {
-                m.start
-            } else {
-                m.end
+    let (rib, rib_map, rib_solution) = models.rib;
+    let three_hinged = design.rib_system == RibSystem::ThreeHinged;
+    let rib_funicular = rib_solution.case(name).and_then(|case| {
+        let [left, right] = rib_map.springings;
+        let crown = three_hinged.then_some(rib_map.crown);
+        match rib_funicular(rib, case, left, right, crown) {
+            Ok(f) => {
+                notes.push(if three_hinged { FigureNote::ThreePoint } else { FigureNote::PoleFromReactions });
+                Some(f)
             }
-        };
-        Some((node(*first, true), node(*last, false)))
-    };
-    let rib_funicular = match (rib_solution.case(name), ends(rib)) {
-        (Some(case), Some((left, right))) => {
-            let crown = if design.rib_system == RibSystem::ThreeHinged {
-                rib.nodes.iter().position(|n| {
-                    (n.x - form.crown.x).abs() <= 1e-9 * form.span
-                        && (n.y - form.crown.y).abs() <= 1e-9 * form.span
-                })
-            } else {
+            Err(e) => {
+                notes.push(FigureNote::NoRibFunicular { reason: e.to_string() });
                 None
-            };
-            match rib_funicular(rib, case, left, right, crown) {
-                Ok(f) => {
-                    notes.push(if crown.is_some() {
-                        "rib funicular: three-point construction through both springings and the crown hinge \
-                     (statics alone), bare rib loads"
-                            .into()
-                    } else {
-                        "rib funicular: pole from the bare rib's solved springing reactions (the rib is not \
-                     three-hinged, so no three-point construction holds)"
-                            .into()
-                    });
-                    Some(f)
-                }
-                Err(e) => {
-                    notes.push(format!("no rib funicular: {e}"));
-                    None
-                }
             }
         }
-        _ => None,
-    };
-    let thrust = match (frame_solution.case(name), rib_chain(frame)) {
-        (Some(case), Ok(chain)) => match thrust_line(frame, case, &chain, design.groups.rib.depth) {
+    });
+    let (frame, frame_map, frame_solution) = models.frame;
+    let depth = design.groups.rib.depth;
+    let thrust = frame_solution.case(name).and_then(|case| {
+        match thrust_line(frame, case, &frame_map.rib_chain(), depth) {
             Ok(t) => {
-                notes.push(format!(
-                    "thrust line: from the forces the frame model's rib receives and its springing reactions; \
-                     checked at the rib nodes with the rib depth {} m",
-                    design.groups.rib.depth
-                ));
+                notes.push(FigureNote::ThrustLine { depth });
                 Some(t)
             }
             Err(e) => {
-                notes.push(format!("no thrust line: {e}"));
+                notes.push(FigureNote::NoThrustLine { reason: e.to_string() });
                 None
             }
-        },
-        _ => None,
-    };
+        }
+    });
     CaseFigures {
         case: name.to_string(),
-        description,
+        description: kind,
         force_diagram,
         rib_funicular,
         thrust_line: thrust,
@@ -367,16 +473,16 @@ fn case_figures(
     }
 }
 
-/// Largest |N| of the "bracing" members over the largest |N| of any member, first load
+/// Largest |N| of the bracing members over the largest |N| of any member, first load
 /// case; `None` without bracing members or forces.
-pub fn bracing_ratio(model: &Model, solution: &Solution) -> Option<f64> {
+pub fn bracing_ratio(map: &ModelMap, solution: &Solution) -> Option<f64> {
     let case = solution.cases.first()?;
     let mut largest: f64 = 0.0;
     let mut brace: Option<f64> = None;
     for mf in &case.members {
         let n = mf.start.n.abs().max(mf.end.n.abs());
         largest = largest.max(n);
-        if model.members.get(mf.member).is_some_and(|m| m.group == "bracing") {
+        if map.roles.get(mf.member) == Some(&MemberRole::Bracing) {
             brace = Some(brace.unwrap_or(0.0).max(n));
         }
     }
@@ -386,29 +492,40 @@ pub fn bracing_ratio(model: &Model, solution: &Solution) -> Option<f64> {
     }
 }
 
-/// Residual rib moments of a solved frame model: the moment at every rib node (left to
-/// right, from the "rib" members, which run left to right) and the largest along the rib.
-pub fn rib_moments(model: &Model, solution: &Solution, form: &Form) -> RibMoments {
+/// The larger in magnitude of two moments (the first on a tie).
+fn governing(a: f64, b: f64) -> f64 {
+    if b.abs() > a.abs() {
+        b
+    } else {
+        a
+    }
+}
+
+/// Residual rib moments of a solved frame model under dead load: the moment on both sides
+/// of every rib node (left to right, from the rib members of `map`, which run left to
+/// right) and the largest along the rib.
+pub fn rib_moments(model: &Model, map: &ModelMap, solution: &Solution, form: &Form) -> RibMoments {
     let mut nodes = Vec::new();
     let mut max_abs: f64 = 0.0;
     let case = solution.case(DEAD).or(solution.cases.first());
     if let Some(case) = case {
-        let rib: Vec<usize> = (0..model.members.len()).filter(|&k| model.members[k].group == "rib").collect();
-        for (n, &k) in rib.iter().enumerate() {
+        let rib = &map.rib_members;
+        for (r, &node) in map.rib_nodes.iter().enumerate() {
+            // member r - 1 ends at rib node r, member r starts there
+            let left = r.checked_sub(1).and_then(|k| rib.get(k)).map(|&k| case.members[k].end.m);
+            let right = rib.get(r).map(|&k| case.members[k].start.m);
+            let p = &model.nodes[node];
+            let m = governing(left.unwrap_or(0.0), right.unwrap_or(0.0));
+            nodes.push(RibMoment { x: p.x, y: p.y, left, right, m });
+        }
+        for &k in rib {
             let mf = &case.members[k];
-            let m = &model.members[k];
-            if n == 0 {
-                let p = &model.nodes[m.start];
-                nodes.push(RibMoment { x: p.x, y: p.y, m: mf.start.m });
-            }
-            let q = &model.nodes[m.end];
-            nodes.push(RibMoment { x: q.x, y: q.y, m: mf.end.m });
             max_abs = max_abs.max(mf.max_abs_moment()).max(mf.start.m.abs()).max(mf.end.m.abs());
         }
     }
     let hf = form.thrust * form.rise;
     RibMoments {
-        model: "frame model".into(),
+        model: ModelKind::Frame,
         case: DEAD.into(),
         nodes,
         max_abs,
@@ -420,12 +537,13 @@ pub fn rib_moments(model: &Model, solution: &Solution, form: &Form) -> RibMoment
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::arch::design::RibSystem;
+    use crate::arch::design::{Bracing, Crown, RibSystem};
+    use crate::arch::validate::VALIDATIONS;
 
     #[test]
     fn demo_analysis_reports_every_model() {
         let a = analyze(&Design::demo()).expect("demo");
-        assert_eq!(a.form.basis, "panel loads");
+        assert_eq!(a.form.basis_name(), "panel loads");
         assert!(a.form.iterations >= 2 && a.form.final_change <= a.form.tolerance * a.form.rise);
         let t = a.truss.as_ref().expect("braced");
         assert_eq!(t.determinacy.determinacy, Determinacy::Determinate);
@@ -442,15 +560,61 @@ mod tests {
     }
 
     #[test]
+    fn analyze_validates_once() {
+        VALIDATIONS.with(|v| v.set(0));
+        let mut d = Design::demo();
+        analyze(&d).expect("demo");
+        d.bracing = Bracing::Crossed;
+        d.rib_system = RibSystem::TwoHinged;
+        analyze(&d).expect("crossed");
+        assert_eq!(VALIDATIONS.with(|v| v.get()), 2);
+    }
+
+    #[test]
     fn two_hinged_crown_shared_frees_both_seats() {
         let mut d = Design::demo();
         d.rib_system = RibSystem::TwoHinged;
-        d.crown = crate::arch::design::Crown::Level { level: 99.5 }; // 0.5 m under the deck: shared
+        d.crown = Crown::Level { level: 99.5 }; // 0.5 m under the deck: shared
         let a = analyze(&d).expect("valid");
         assert!(a.form.rib[a.form.crown_node].shared_with_deck);
         assert!(!a.restraint.left_seat_fixed && !a.restraint.right_seat_fixed);
-        d.crown = crate::arch::design::Crown::Level { level: 96.0 };
+        assert_eq!(a.restraint.held_by, DeckHold::SharedCrownNode);
+        d.crown = Crown::Level { level: 96.0 };
         let a = analyze(&d).expect("valid");
         assert!(a.restraint.left_seat_fixed && !a.restraint.right_seat_fixed);
+    }
+
+    /// Regression: at a rib node shared with the deck the rib moment jumps; the residual
+    /// moments reported the left side and the thrust line the right (a symmetric
+    /// two-hinged unbraced design with 7 panels and unequal approach piers showed
+    /// -592.5 kNm against -36.4 kNm at one node). Both sides are now reported and the
+    /// larger governs.
+    #[test]
+    fn shared_node_moments_report_both_sides() {
+        let mut d = Design::demo();
+        d.rib_system = RibSystem::TwoHinged;
+        d.bracing = Bracing::None;
+        d.panels = 7;
+        d.springing_right_level = 76.0;
+        d.crown = Crown::Level { level: 99.5 };
+        d.approach_piers_left = 0;
+        d.approach_piers_right = 2;
+        let a = analyze(&d).expect("valid");
+        let shared: Vec<&RibMoment> = a
+            .form
+            .rib
+            .iter()
+            .zip(&a.residual_rib_moments.nodes)
+            .filter(|(n, _)| n.shared_with_deck)
+            .map(|(_, m)| m)
+            .collect();
+        assert!(!shared.is_empty(), "the crown node is shared");
+        let jump =
+            shared.iter().map(|m| (m.left.unwrap_or(0.0) - m.right.unwrap_or(0.0)).abs()).fold(0.0, f64::max);
+        assert!(jump > 1.0, "the deck joins with a moment: jump {jump} kNm");
+        for m in &shared {
+            let (l, r) = (m.left.unwrap_or(0.0), m.right.unwrap_or(0.0));
+            assert_eq!(m.m.abs(), l.abs().max(r.abs()));
+        }
     }
 }

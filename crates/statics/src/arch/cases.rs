@@ -19,13 +19,13 @@
 //! line) and enter the models as negative `fy` (y up). Loads are limited to the arch span
 //! (between the springing verticals); the approach spans are not loaded.
 
-use crate::arch::design::{check_inputs, Design};
-use crate::arch::form::Form;
-use crate::arch::generate::DEAD;
-use crate::arch::layout::{position, Frame, Joint, Topology};
-use crate::error::StaticsError;
-use crate::frame::model::{LoadCase, Model, NodalLoad};
+use crate::arch::generate::{Generated, DEAD};
+use crate::arch::layout::{position, Joint, Layout, Topology};
+use crate::arch::validate::ValidDesign;
+use crate::error::{Location, StaticsError};
+use crate::frame::model::{LoadCase, NodalLoad};
 use serde::{Deserialize, Serialize};
+use std::fmt;
 
 /// Live load (kN/m2 over the deck width) used by the standard cases of `analyze`: an
 /// illustrative pattern load to show how the arch reacts to load on part of the span,
@@ -38,9 +38,6 @@ pub const PATTERN_LIVE_LOAD: f64 = 5.0;
 pub const HALF_SPAN: &str = "dead + half-span live (left)";
 /// Name of the standard heavier-panel case.
 pub const DOUBLED_PANEL: &str = "dead + doubled panel load";
-
-/// Node positions are matched to layout joints within this fraction of the span.
-const SAME_POINT: f64 = 1e-9;
 
 /// One extra load on the deck over the arch (kN, m; positive downward).
 #[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
@@ -71,8 +68,8 @@ pub enum DeckLoad {
 pub struct CaseSpec {
     /// Name of the case.
     pub name: String,
-    /// What the case is, in words for the screen.
-    pub description: String,
+    /// What the case is (its `Display` says it in words for the screen).
+    pub kind: CaseKind,
     /// Include the model's own dead load case ("dead") in this case.
     pub with_dead: bool,
     /// The deck loads of the case.
@@ -89,81 +86,133 @@ pub enum Half {
     Right,
 }
 
-fn frame_of(design: &Design) -> Result<Frame, StaticsError> {
-    let mut problems = Vec::new();
-    check_inputs(design, &mut problems, &mut Vec::new());
-    if !problems.is_empty() {
-        return Err(StaticsError::Invalid(problems));
+/// What a load case is, with the numbers that say it.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
+#[serde(tag = "kind", rename_all = "snake_case")]
+pub enum CaseKind {
+    /// The dead load, which is also the form-finding load.
+    Dead,
+    /// Dead load plus a live load on one half of the arch span.
+    HalfSpan {
+        /// Which half.
+        half: Half,
+        /// Intensity, kN/m2 over the deck width.
+        intensity: f64,
+        /// The same as a line load, kN/m.
+        line_load: f64,
+        /// Loaded from, m.
+        x0: f64,
+        /// Loaded to, m.
+        x1: f64,
+    },
+    /// Dead load plus the deck panel load again at one panel point.
+    DoubledPanel {
+        /// Panel point index.
+        panel: usize,
+        /// The extra load, kN.
+        load: f64,
+        /// Its x, m.
+        x: f64,
+    },
+    /// Any other case, built from deck loads.
+    Other,
+}
+
+impl fmt::Display for CaseKind {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        match *self {
+            CaseKind::Dead => f.write_str("dead load: deck, surfacing and self-weight (the form-finding load)"),
+            CaseKind::HalfSpan { half, intensity, line_load, x0, x1 } => write!(
+                f,
+                "dead load plus {intensity} kN/m2 over the deck width ({line_load:.2} kN/m) on the {half} half of the \
+                 arch span (x = {x0:.3} to {x1:.3} m), reaching the deck joints as panel reactions"
+            ),
+            CaseKind::DoubledPanel { panel, load, x } => write!(
+                f,
+                "dead load plus the deck panel load again ({load:.2} kN) at panel point {panel} (x = {x:.3} m): \
+                 that panel load doubled"
+            ),
+            CaseKind::Other => f.write_str("deck loads"),
+        }
     }
-    Frame::new(design)
-        .ok_or_else(|| StaticsError::invalid("valley", "the springings cannot be placed on the valley walls"))
+}
+
+impl fmt::Display for Half {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        f.write_str(match self {
+            Half::Left => "left",
+            Half::Right => "right",
+        })
+    }
 }
 
 /// A case with the dead load plus `w` kN/m2 (positive down) over the deck width on one
 /// half of the arch span (springing vertical to crown x). The classic unsymmetric load of
 /// an arch: for a parabolic rib it gives the largest rib moments near the quarter points
-/// (Timoshenko & Young, Theory of Structures, ch. 9, from memory). Errors: an invalid
-/// design, or `w` not finite.
-pub fn half_span(design: &Design, half: Half, w: f64) -> Result<CaseSpec, StaticsError> {
-    let f = frame_of(design)?;
+/// (Timoshenko & Young, Theory of Structures, ch. 9, from memory). Errors: `w` not
+/// finite.
+pub fn half_span(valid: &ValidDesign, half: Half, w: f64) -> Result<CaseSpec, StaticsError> {
     if !w.is_finite() {
         return Err(StaticsError::invalid("half-span load", format!("intensity {w} kN/m2 must be finite")));
     }
-    let line = w * design.deck.width;
-    let (x0, x1, side) = match half {
-        Half::Left => (f.a.0, f.xc, "left"),
-        Half::Right => (f.xc, f.b.0, "right"),
+    Ok(half_span_spec(valid, half, w))
+}
+
+fn half_span_spec(valid: &ValidDesign, half: Half, w: f64) -> CaseSpec {
+    let f = valid.layout();
+    let line = w * valid.design().deck.width;
+    let (x0, x1) = match half {
+        Half::Left => (f.a.0, f.xc),
+        Half::Right => (f.xc, f.b.0),
     };
-    Ok(CaseSpec {
+    CaseSpec {
         name: if half == Half::Left { HALF_SPAN.into() } else { "dead + half-span live (right)".into() },
-        description: format!(
-            "dead load plus {w} kN/m2 over the deck width ({line:.2} kN/m) on the {side} half of the arch span \
-             (x = {x0:.3} to {x1:.3} m), reaching the deck joints as panel reactions"
-        ),
+        kind: CaseKind::HalfSpan { half, intensity: w, line_load: line, x0, x1 },
         with_dead: true,
         loads: vec![DeckLoad::Strip { w: line, x0, x1 }],
-    })
+    }
 }
 
 /// A case with the dead load plus the deck's panel load added again at panel point
 /// `panel`: the deck line load (`Design::deck_line_load`, kN/m) times the panel length,
-/// so the deck load of that panel point is doubled. Errors: an invalid design, or a panel
-/// point that is not inside the arch (1 to panels - 1).
-pub fn doubled_panel(design: &Design, panel: usize) -> Result<CaseSpec, StaticsError> {
-    let f = frame_of(design)?;
+/// so the deck load of that panel point is doubled. Errors: a panel point that is not
+/// inside the arch (1 to panels - 1).
+pub fn doubled_panel(valid: &ValidDesign, panel: usize) -> Result<CaseSpec, StaticsError> {
+    let f = valid.layout();
     if panel == 0 || panel >= f.panels {
         return Err(StaticsError::invalid(
             "doubled panel load",
             format!("panel point {panel} must lie inside the arch (1 to {})", f.panels - 1),
         ));
     }
-    let p = design.deck_line_load() * f.span() / f.panels as f64;
-    Ok(CaseSpec {
+    Ok(doubled_panel_spec(valid, panel))
+}
+
+fn doubled_panel_spec(valid: &ValidDesign, panel: usize) -> CaseSpec {
+    let f = valid.layout();
+    let p = valid.design().deck_line_load() * f.span() / f.panels as f64;
+    CaseSpec {
         name: DOUBLED_PANEL.into(),
-        description: format!(
-            "dead load plus the deck panel load again ({p:.2} kN) at panel point {panel} (x = {:.3} m): that panel \
-             load doubled",
-            f.panel_x[panel]
-        ),
+        kind: CaseKind::DoubledPanel { panel, load: p, x: f.panel_x[panel] },
         with_dead: true,
         loads: vec![DeckLoad::PanelPoint { panel, p }],
-    })
+    }
 }
 
 /// The standard extra cases `analyze` adds to every model: dead + `PATTERN_LIVE_LOAD` on
 /// the left half of the span, and dead + a doubled panel load at the panel point nearest
-/// the left quarter point (at least 1). Errors: an invalid design.
-pub fn standard_cases(design: &Design) -> Result<Vec<CaseSpec>, StaticsError> {
-    let f = frame_of(design)?;
-    let quarter = ((f.panels as f64) / 4.0).round().max(1.0) as usize;
-    Ok(vec![
-        half_span(design, Half::Left, PATTERN_LIVE_LOAD)?,
-        doubled_panel(design, quarter.min(f.panels - 1))?,
-    ])
+/// the left quarter point (at least 1, at most panels - 1). Total on a validated design.
+pub fn standard_cases(valid: &ValidDesign) -> Vec<CaseSpec> {
+    let panels = valid.layout().panels;
+    let quarter = ((panels as f64) / 4.0).round().max(1.0) as usize;
+    vec![
+        half_span_spec(valid, Half::Left, PATTERN_LIVE_LOAD),
+        doubled_panel_spec(valid, quarter.min(panels - 1)),
+    ]
 }
 
 /// The joint loads (joint, kN down) of one deck load: panel reactions of the deck spans.
-fn joint_loads(f: &Frame, topo: &Topology, rib_y: &[f64], load: &DeckLoad) -> Vec<(Joint, f64)> {
+fn joint_loads(f: &Layout, topo: &Topology, rib_y: &[f64], load: &DeckLoad) -> Vec<(Joint, f64)> {
     let mut spans: Vec<(Joint, Joint)> = topo.deck.iter().chain(topo.drop_in.iter()).copied().collect();
     spans.sort_by(|p, q| position(f, rib_y, p.0).0.total_cmp(&position(f, rib_y, q.0).0));
     let mut out = Vec::new();
@@ -201,74 +250,57 @@ fn joint_loads(f: &Frame, topo: &Topology, rib_y: &[f64], load: &DeckLoad) -> Ve
     out
 }
 
-/// The node of `model` at a point, m (within `SAME_POINT` of the span).
-fn node_at(model: &Model, at: (f64, f64), tol: f64) -> Option<usize> {
-    model.nodes.iter().position(|n| (n.x - at.0).abs() <= tol && (n.y - at.1).abs() <= tol)
-}
-
-/// Builds the load case `spec` for `model`, a model generated from `design` and `form`
-/// (frame model, truss idealisation or bare rib): its dead case (when `with_dead`) plus
-/// the deck loads as nodal loads at the deck joints, or, where the model has no node at a
-/// deck joint (the bare rib), at the rib node under it.
+/// Builds the load case `spec` for `generated`, a model generated from `valid` (frame
+/// model, truss idealisation or bare rib): its dead case (when `with_dead`) plus the deck
+/// loads as nodal loads at the deck joints, or, where the model has no node at a deck
+/// joint (the bare rib), at the rib node under it.
 ///
-/// Errors: an invalid design, a form that does not belong to it, a model without a "dead"
-/// case when one is asked for, a non-finite load, or a model with no node where a load
-/// must go (not generated from this design).
+/// Errors: a model without a "dead" case when one is asked for, a non-finite load, a
+/// panel point that does not exist.
 pub fn build_case(
-    design: &Design,
-    form: &Form,
-    model: &Model,
+    valid: &ValidDesign,
+    generated: &Generated,
     spec: &CaseSpec,
 ) -> Result<LoadCase, StaticsError> {
-    let f = frame_of(design)?;
-    if form.rib.len() != f.rib_x.len() {
-        return Err(StaticsError::invalid(
-            "form",
-            "the form does not belong to this design; find the form again",
-        ));
-    }
-    let rib_y = form.rib_y();
-    let topo = Topology::with_shared(&f, form.shared());
+    let f = valid.layout();
+    let rib_y = valid.form().rib_y();
+    let topo = valid.topology();
+    let model = &generated.model;
+    let at_case = || Location::LoadCase(spec.name.clone());
     let mut lc = if spec.with_dead {
-        let dead = model.load_cases.iter().find(|c| c.name == DEAD).ok_or_else(|| {
-            StaticsError::invalid(
-                format!("load case '{}'", spec.name),
-                "the model has no dead load case to include",
-            )
-        })?;
+        let dead =
+            model.load_cases.iter().find(|c| c.name == DEAD).ok_or_else(|| {
+                StaticsError::invalid(at_case(), "the model has no dead load case to include")
+            })?;
         LoadCase { name: spec.name.clone(), ..dead.clone() }
     } else {
         LoadCase { name: spec.name.clone(), ..LoadCase::default() }
     };
-    let tol = SAME_POINT * f.span().max(1.0);
     for load in &spec.loads {
         let finite = match *load {
             DeckLoad::Strip { w, x0, x1 } => w.is_finite() && x0.is_finite() && x1.is_finite(),
             DeckLoad::PanelPoint { p, .. } => p.is_finite(),
         };
         if !finite {
-            return Err(StaticsError::invalid(
-                format!("load case '{}'", spec.name),
-                "a deck load is not finite",
-            ));
+            return Err(StaticsError::invalid(at_case(), "a deck load is not finite"));
         }
         if let DeckLoad::PanelPoint { panel, .. } = *load {
             if panel > f.panels {
                 return Err(StaticsError::invalid(
-                    format!("load case '{}'", spec.name),
+                    at_case(),
                     format!("panel point {panel} does not exist (the arch has {} panels)", f.panels),
                 ));
             }
         }
-        for (j, p) in joint_loads(&f, &topo, &rib_y, load) {
-            let node = node_at(model, position(&f, &rib_y, j), tol)
-                .or_else(|| {
-                    let r = topo.rib_of(&f, j);
-                    node_at(model, position(&f, &rib_y, Joint::Rib(r)), tol)
-                })
+        for (j, p) in joint_loads(f, topo, &rib_y, load) {
+            // a deck joint the model lacks (the bare rib) passes its load down its post
+            let node = generated
+                .map
+                .node_of(j)
+                .or_else(|| generated.map.node_of(Joint::Rib(topo.rib_of(f, j))))
                 .ok_or_else(|| {
                     StaticsError::invalid(
-                        format!("load case '{}'", spec.name),
+                        at_case(),
                         "the model has no node at a loaded deck joint or the rib node under it; build the case \
                          for a model generated from this design",
                     )
@@ -283,25 +315,23 @@ pub fn build_case(
     Ok(lc)
 }
 
-/// Adds every case of `specs` to `model` (see `build_case`), after its existing cases.
-/// Errors as `build_case`; on error the model is left unchanged.
+/// Adds every case of `specs` to `generated` (see [`build_case`]), after its existing
+/// cases. Errors as `build_case`; on error the model is left unchanged.
 pub fn add_cases(
-    design: &Design,
-    form: &Form,
-    model: &mut Model,
+    valid: &ValidDesign,
+    generated: &mut Generated,
     specs: &[CaseSpec],
 ) -> Result<(), StaticsError> {
     let built: Result<Vec<LoadCase>, StaticsError> =
-        specs.iter().map(|s| build_case(design, form, model, s)).collect();
-    model.load_cases.extend(built?);
+        specs.iter().map(|s| build_case(valid, generated, s)).collect();
+    generated.model.load_cases.extend(built?);
     Ok(())
 }
 
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::arch::design::{Bracing, RibSystem};
-    use crate::arch::form::find_form;
+    use crate::arch::design::{Bracing, Design, RibSystem};
     use crate::arch::generate::{bare_rib_model, frame_model, truss_model};
 
     fn total_fy(lc: &LoadCase) -> f64 {
@@ -310,8 +340,9 @@ mod tests {
 
     #[test]
     fn half_span_load_reaches_every_model_in_full() {
-        // the strip's resultant w * (x_C - x_A) reaches each model, whichever joints take
-        // it (statics of simple spans)
+        // the strip's resultant reaches each model, whichever joints take it (statics of
+        // simple spans): 4 kN/m2 x 11 m deck width x half the demo span (106.428571 m
+        // between the springings at x = 30 m and 136.428571 m) = 2,341.428571 kN
         for (n, system) in
             [(12, RibSystem::ThreeHinged), (7, RibSystem::ThreeHinged), (8, RibSystem::TwoHinged)]
         {
@@ -319,20 +350,16 @@ mod tests {
             d.panels = n;
             d.rib_system = system;
             d.bracing = Bracing::Single { flipped: false };
-            let form = find_form(&d).expect("form");
-            let spec = CaseSpec { with_dead: false, ..half_span(&d, Half::Left, 4.0).expect("spec") };
-            let expected = -4.0 * d.deck.width * 0.5 * form.span;
-            for model in [
-                frame_model(&d, &form).expect("frame"),
-                truss_model(&d, &form).expect("truss"),
-                bare_rib_model(&d, &form).expect("rib"),
-            ] {
-                let lc = build_case(&d, &form, &model, &spec).expect("case");
-                assert!((total_fy(&lc) - expected).abs() < 1e-9 * expected.abs(), "{n}: {}", model.title);
-                // nothing right of the crown panel
-                let xc = form.crown.x;
-                let panel = form.span / n as f64;
-                assert!(lc.nodal.iter().all(|l| model.nodes[l.node].x <= xc + panel + 1e-9));
+            let v = ValidDesign::new(&d).expect("valid");
+            let spec = CaseSpec { with_dead: false, ..half_span(&v, Half::Left, 4.0).expect("spec") };
+            let expected = -2_341.428_571_428_571;
+            let truss = truss_model(&v).expect("braced");
+            for model in [frame_model(&v), truss, bare_rib_model(&v)] {
+                let lc = build_case(&v, &model, &spec).expect("case");
+                assert!((total_fy(&lc) - expected).abs() < 1e-9 * expected.abs(), "{n}: {}", model.kind);
+                // nothing right of the crown panel (crown at x = 83.214 m)
+                let panel = v.form().span / n as f64;
+                assert!(lc.nodal.iter().all(|l| model.model.nodes[l.node].x <= 83.214_285_8 + panel));
             }
         }
     }
@@ -340,15 +367,18 @@ mod tests {
     #[test]
     fn doubled_panel_adds_one_deck_panel_load() {
         let d = Design::demo();
-        let form = find_form(&d).expect("form");
-        let model = truss_model(&d, &form).expect("truss");
-        let spec = doubled_panel(&d, 3).expect("spec");
-        let lc = build_case(&d, &form, &model, &spec).expect("case");
-        let dead = total_fy(&model.load_cases[0]);
-        let extra = d.deck_line_load() * form.span / d.panels as f64;
-        assert!((total_fy(&lc) - dead + extra).abs() < 1e-9 * extra);
-        assert!(doubled_panel(&d, 0).is_err() && doubled_panel(&d, d.panels).is_err());
+        let v = ValidDesign::new(&d).expect("valid");
+        let model = truss_model(&v).expect("braced");
+        let spec = doubled_panel(&v, 3).expect("spec");
+        let lc = build_case(&v, &model, &spec).expect("case");
+        let dead = total_fy(&model.model.load_cases[0]);
+        // worked by hand from the demo: deck line load (6.25 + 2.4) kN/m2 x 11 m + 2 ribs x
+        // 78.5 kN/m3 x 0.05 m2 = 103.0 kN/m; panel 106.428571 m / 12 = 8.869048 m;
+        // 103.0 x 8.869048 = 913.511905 kN
+        let extra = 913.511_904_761_9;
+        assert!((total_fy(&lc) - dead + extra).abs() < 1e-9 * extra, "{}", dead - total_fy(&lc));
+        assert!(doubled_panel(&v, 0).is_err() && doubled_panel(&v, d.panels).is_err());
         let bad = CaseSpec { loads: vec![DeckLoad::PanelPoint { panel: 99, p: 1.0 }], ..spec };
-        assert!(build_case(&d, &form, &model, &bad).is_err());
+        assert!(build_case(&v, &model, &bad).is_err());
     }
 }

@@ -10,7 +10,8 @@
 //! cross-section, so generated members use `ribs` times the area and second moment of
 //! area, and self-weights are `ribs` times unit weight times area.
 
-use crate::error::{Field, GroupName, Problem, SectionProperty, StaticsError};
+use crate::error::{Field, GroupName, Problem, SectionProperty};
+use crate::tolerance::GROUND_TOLERANCE;
 use serde::{Deserialize, Serialize};
 
 /// The version of the design format written by this engine.
@@ -369,11 +370,14 @@ fn wall_crossing(valley: &[GroundPoint], level: f64, left: bool) -> Option<f64> 
 /// Checks the inputs of a design that can be checked without finding the form, and
 /// collects warnings. Every problem found is pushed to `problems`.
 pub(crate) fn check_inputs(d: &Design, problems: &mut Vec<Problem>, warnings: &mut Vec<Warning>) {
-    let mut add = |field: Field, msg: String| problems.push(Problem::new(field, msg));
+    // the first field is where the problem is; the others are involved too
+    let mut add = |fields: &[Field], msg: String| {
+        problems.push(Problem::new(fields[0], msg).involving(fields[1..].iter().copied()))
+    };
     let finite = |v: f64| v.is_finite();
     if d.version != DESIGN_VERSION {
         add(
-            Field::Version,
+            &[Field::Version],
             format!(
                 "design format version {} is not known; this engine reads version {DESIGN_VERSION}",
                 d.version
@@ -384,7 +388,7 @@ pub(crate) fn check_inputs(d: &Design, problems: &mut Vec<Problem>, warnings: &m
     let mut valley_ok = true;
     if d.valley.len() < 3 {
         add(
-            Field::Valley,
+            &[Field::Valley],
             format!(
                 "the ground profile has {} point(s); give at least 3 (left rim, floor, right rim)",
                 d.valley.len()
@@ -395,7 +399,7 @@ pub(crate) fn check_inputs(d: &Design, problems: &mut Vec<Problem>, warnings: &m
     for (i, p) in d.valley.iter().enumerate() {
         if !finite(p.x) || !finite(p.y) {
             add(
-                Field::Valley,
+                &[Field::Valley],
                 format!("ground point {} has a coordinate that is not a finite number (m)", i + 1),
             );
             valley_ok = false;
@@ -403,36 +407,36 @@ pub(crate) fn check_inputs(d: &Design, problems: &mut Vec<Problem>, warnings: &m
     }
     for (i, w) in d.valley.windows(2).enumerate() {
         if finite(w[0].x) && finite(w[1].x) && w[1].x <= w[0].x {
-            add(Field::Valley, format!("ground point {} (x = {} m) is not to the right of point {} (x = {} m); list points with increasing x", i + 2, w[1].x, i + 1, w[0].x));
+            add(&[Field::Valley], format!("ground point {} (x = {} m) is not to the right of point {} (x = {} m); list points with increasing x", i + 2, w[1].x, i + 1, w[0].x));
             valley_ok = false;
         }
     }
     // deck
     let deck_level_ok = finite(d.deck.level);
     if !deck_level_ok {
-        add(Field::DeckLevel, "the deck level must be a finite number (m)".into());
+        add(&[Field::DeckLevel], "the deck level must be a finite number (m)".into());
     }
     if !finite(d.deck.left_seat_x) {
-        add(Field::LeftSeatX, "the left abutment seat x must be a finite number (m)".into());
+        add(&[Field::LeftSeatX], "the left abutment seat x must be a finite number (m)".into());
     }
     if !finite(d.deck.right_seat_x) {
-        add(Field::RightSeatX, "the right abutment seat x must be a finite number (m)".into());
+        add(&[Field::RightSeatX], "the right abutment seat x must be a finite number (m)".into());
     }
     if !(finite(d.deck.width) && d.deck.width > 0.0) {
-        add(Field::DeckWidth, format!("the deck width {} m must be a positive number", d.deck.width));
+        add(&[Field::DeckWidth], format!("the deck width {} m must be a positive number", d.deck.width));
     }
     if d.deck.ribs == 0 || d.deck.ribs > MAX_RIBS {
-        add(Field::Ribs, format!("the number of ribs {} must be between 1 and {MAX_RIBS}", d.deck.ribs));
+        add(&[Field::Ribs], format!("the number of ribs {} must be between 1 and {MAX_RIBS}", d.deck.ribs));
     }
     if !(finite(d.deck.dead_load) && d.deck.dead_load >= 0.0) {
         add(
-            Field::DeadLoad,
+            &[Field::DeadLoad],
             format!("the deck dead load {} kN/m2 must be zero or positive", d.deck.dead_load),
         );
     }
     if !(finite(d.deck.surfacing) && d.deck.surfacing >= 0.0) {
         add(
-            Field::Surfacing,
+            &[Field::Surfacing],
             format!("the surfacing load {} kN/m2 must be zero or positive", d.deck.surfacing),
         );
     }
@@ -447,11 +451,11 @@ pub(crate) fn check_inputs(d: &Design, problems: &mut Vec<Problem>, warnings: &m
     {
         let side = if left { "left" } else { "right" };
         if !finite(level) {
-            add(field, format!("the {side} springing level must be a finite number (m)"));
+            add(&[field], format!("the {side} springing level must be a finite number (m)"));
             continue;
         }
         if deck_level_ok && level >= d.deck.level {
-            add(field, format!("the {side} springing ({level} m) is at or above the deck ({} m); put it on the valley wall below the deck", d.deck.level));
+            add(&[field, Field::DeckLevel], format!("the {side} springing ({level} m) is at or above the deck ({} m); put it on the valley wall below the deck", d.deck.level));
         } else if deck_level_ok && finite(d.min_post_length) && d.deck.level - level < d.min_post_length {
             warnings.push(
                 Warning::new(
@@ -467,14 +471,14 @@ pub(crate) fn check_inputs(d: &Design, problems: &mut Vec<Problem>, warnings: &m
         if valley_ok {
             match wall_crossing(&d.valley, level, left) {
                 Some(x) => springs[k] = Some(x),
-                None => add(field, format!("the {side} springing level {level} m does not meet the {side} valley wall (it is below the valley floor or above the {side} rim of the profile); choose a level the wall passes through")),
+                None => add(&[field, Field::Valley], format!("the {side} springing level {level} m does not meet the {side} valley wall (it is below the valley floor or above the {side} rim of the profile); choose a level the wall passes through")),
             }
         }
     }
     let (xa, xb) = match springs {
         [Some(a), Some(b)] if b > a => (Some(a), Some(b)),
         [Some(_), Some(_)] => {
-            add(Field::SpringingLeftLevel, "the springings meet the walls at the same x or crossed over; lower the springings or check the valley profile".into());
+            add(&[Field::SpringingLeftLevel, Field::SpringingRightLevel, Field::Valley], "the springings meet the walls at the same x or crossed over; lower the springings or check the valley profile".into());
             (None, None)
         }
         _ => (None, None),
@@ -483,7 +487,7 @@ pub(crate) fn check_inputs(d: &Design, problems: &mut Vec<Problem>, warnings: &m
     if let Some(xa) = xa {
         if finite(d.deck.left_seat_x) && d.deck.left_seat_x >= xa {
             add(
-                Field::LeftSeatX,
+                &[Field::LeftSeatX, Field::SpringingLeftLevel],
                 format!(
                     "the left abutment seat (x = {} m) must be left of the left springing (x = {xa:.3} m)",
                     d.deck.left_seat_x
@@ -494,7 +498,7 @@ pub(crate) fn check_inputs(d: &Design, problems: &mut Vec<Problem>, warnings: &m
     if let Some(xb) = xb {
         if finite(d.deck.right_seat_x) && d.deck.right_seat_x <= xb {
             add(
-                Field::RightSeatX,
+                &[Field::RightSeatX, Field::SpringingRightLevel],
                 format!(
                     "the right abutment seat (x = {} m) must be right of the right springing (x = {xb:.3} m)",
                     d.deck.right_seat_x
@@ -508,31 +512,40 @@ pub(crate) fn check_inputs(d: &Design, problems: &mut Vec<Problem>, warnings: &m
             (Field::RightSeatX, d.deck.right_seat_x, "right"),
         ] {
             if finite(x) && ground_at(&d.valley, x).is_none() {
-                add(field, format!("the {side} abutment seat (x = {x} m) lies outside the valley profile; extend the profile to the rim"));
+                add(&[field, Field::Valley], format!("the {side} abutment seat (x = {x} m) lies outside the valley profile; extend the profile to the rim"));
             }
         }
     }
+    if !(finite(d.deck.abutment_height) && d.deck.abutment_height >= 0.0) {
+        add(
+            &[Field::AbutmentHeight],
+            format!("the abutment height {} m must be zero or positive", d.deck.abutment_height),
+        );
+    }
+    if valley_ok && deck_level_ok && finite(d.deck.abutment_height) {
+        check_deck_on_ground(d, &mut add);
+    }
     // panels, crown
     if d.panels < MIN_PANELS || d.panels > MAX_PANELS {
-        add(Field::Panels, format!("{} arch panels: use between {MIN_PANELS} and {MAX_PANELS}", d.panels));
+        add(&[Field::Panels], format!("{} arch panels: use between {MIN_PANELS} and {MAX_PANELS}", d.panels));
     }
     let rise = d.rise();
     match d.crown {
         Crown::Rise { rise: f } if !finite(f) => {
-            add(Field::CrownRise, "the rise must be a finite number (m)".into())
+            add(&[Field::CrownRise], "the rise must be a finite number (m)".into())
         }
         Crown::Level { level } if !finite(level) => {
-            add(Field::CrownLevel, "the crown level must be a finite number (m)".into())
+            add(&[Field::CrownLevel], "the crown level must be a finite number (m)".into())
         }
         _ => {
             let field =
                 if matches!(d.crown, Crown::Rise { .. }) { Field::CrownRise } else { Field::CrownLevel };
             if finite(rise) && rise <= 0.0 {
-                add(field, format!("the rise above the springing chord is {rise:.3} m; it must be positive (raise the crown or lower the springings)"));
+                add(&[field, Field::SpringingLeftLevel, Field::SpringingRightLevel], format!("the rise above the springing chord is {rise:.3} m; it must be positive (raise the crown or lower the springings)"));
             }
             let yc = d.crown_level();
             if deck_level_ok && finite(yc) && yc > d.deck.level {
-                add(field, format!("the crown ({yc:.3} m) is above the deck ({} m); the rib axis must stay at or below the deck", d.deck.level));
+                add(&[field, Field::DeckLevel], format!("the crown ({yc:.3} m) is above the deck ({} m); the rib axis must stay at or below the deck", d.deck.level));
             }
             if let (Some(xa), Some(xb)) = (xa, xb) {
                 let ratio = rise / (xb - xa);
@@ -544,7 +557,7 @@ pub(crate) fn check_inputs(d: &Design, problems: &mut Vec<Problem>, warnings: &m
     }
     if !(finite(d.min_post_length) && d.min_post_length >= 0.0) {
         add(
-            Field::MinPostLength,
+            &[Field::MinPostLength],
             format!("the minimum post length {} m must be zero or positive", d.min_post_length),
         );
     }
@@ -553,7 +566,7 @@ pub(crate) fn check_inputs(d: &Design, problems: &mut Vec<Problem>, warnings: &m
         (Field::ApproachPiersRight, d.approach_piers_right),
     ] {
         if n > MAX_APPROACH_PIERS {
-            add(field, format!("{n} approach piers: use at most {MAX_APPROACH_PIERS}"));
+            add(&[field], format!("{n} approach piers: use at most {MAX_APPROACH_PIERS}"));
         }
     }
     // approach piers on the ground, below the deck
@@ -567,11 +580,12 @@ pub(crate) fn check_inputs(d: &Design, problems: &mut Vec<Problem>, warnings: &m
                 continue;
             }
             let side = if left { "left" } else { "right" };
+            let pier_field = if left { Field::ApproachPiersLeft } else { Field::ApproachPiersRight };
             for k in 1..=n {
                 let x = seat + (xs - seat) * k as f64 / (n + 1) as f64;
                 match ground_at(&d.valley, x) {
-                    None => add(if left { Field::ApproachPiersLeft } else { Field::ApproachPiersRight }, format!("{side} approach pier {k} at x = {x:.3} m lies outside the valley profile")),
-                    Some(g) if g >= d.deck.level => add(if left { Field::ApproachPiersLeft } else { Field::ApproachPiersRight }, format!("{side} approach pier {k} at x = {x:.3} m has no height: the ground ({g:.3} m) is at or above the deck; use fewer piers or move the seat")),
+                    None => add(&[pier_field, Field::Valley], format!("{side} approach pier {k} at x = {x:.3} m lies outside the valley profile")),
+                    Some(g) if g >= d.deck.level => add(&[pier_field, Field::Valley, Field::DeckLevel], format!("{side} approach pier {k} at x = {x:.3} m has no height: the ground ({g:.3} m) is at or above the deck; use fewer piers or move the seat")),
                     _ => {}
                 }
             }
@@ -588,65 +602,82 @@ pub(crate) fn check_inputs(d: &Design, problems: &mut Vec<Problem>, warnings: &m
         let name = |p: SectionProperty| Field::Section(group, p);
         if !(finite(s.e) && s.e > 0.0) {
             add(
-                name(SectionProperty::E),
+                &[name(SectionProperty::E)],
                 format!("Young's modulus E = {} kN/m2 must be a positive number", s.e),
             );
         }
         if !(finite(s.a) && s.a > 0.0) {
-            add(name(SectionProperty::A), format!("area A = {} m2 must be a positive number", s.a));
+            add(&[name(SectionProperty::A)], format!("area A = {} m2 must be a positive number", s.a));
         }
         if needs_i && !(finite(s.i) && s.i > 0.0) {
             add(
-                name(SectionProperty::I),
+                &[name(SectionProperty::I)],
                 format!("second moment of area I = {} m4 must be positive (this group carries bending)", s.i),
             );
         } else if !(needs_i || finite(s.i) && s.i >= 0.0) {
             add(
-                name(SectionProperty::I),
+                &[name(SectionProperty::I)],
                 format!("second moment of area I = {} m4 must be zero or positive", s.i),
             );
         }
         if !(finite(s.depth) && s.depth > 0.0) {
             add(
-                name(SectionProperty::Depth),
+                &[name(SectionProperty::Depth)],
                 format!("section depth {} m must be a positive number", s.depth),
             );
         }
         if !(finite(s.unit_weight) && s.unit_weight >= 0.0) {
             add(
-                name(SectionProperty::UnitWeight),
+                &[name(SectionProperty::UnitWeight)],
                 format!("unit weight {} kN/m3 must be zero or positive", s.unit_weight),
             );
         }
     }
     if !(finite(d.form.tolerance) && d.form.tolerance >= MIN_FORM_TOLERANCE && d.form.tolerance < 1.0) {
-        add(Field::FormTolerance, format!("the form-finding tolerance {} (fraction of the rise) must lie between {MIN_FORM_TOLERANCE:e} and 1", d.form.tolerance));
+        add(&[Field::FormTolerance], format!("the form-finding tolerance {} (fraction of the rise) must lie between {MIN_FORM_TOLERANCE:e} and 1", d.form.tolerance));
     }
     if d.form.max_iterations == 0 || d.form.max_iterations > MAX_FORM_ITERATIONS {
         add(
-            Field::FormMaxIterations,
+            &[Field::FormMaxIterations],
             format!("{} iterations: use between 1 and {MAX_FORM_ITERATIONS}", d.form.max_iterations),
         );
     }
 }
 
-/// Validates a design and lists every problem at once.
-///
-/// First the inputs are checked (numbers finite, springings below the deck and on the
-/// valley walls, rise > 0, crown not above the deck, 2 to 200 panels, seats outside the
-/// springings, sections positive, ...). When they pass, the form is found and the rib is
-/// checked against the ground (no rib node or segment, hence no post foot, below the
-/// ground) and the deck (no rib node above it).
-///
-/// Returns the warnings (allowed but unusual, e.g. rise / span outside 1/10 to 1/3,
-/// common practice) or `StaticsError::Invalid` with every problem found. Never panics.
-pub fn validate_design(design: &Design) -> Result<Vec<Warning>, StaticsError> {
-    crate::arch::form::checked_form(design).map(|(w, _)| w)
+/// The deck axis against the ground between the abutment seats: at each seat the ground
+/// lies at most `abutment_height` below the deck axis and never above it (an abutment
+/// seat stands on the ground; deeper ground would leave the deck ending in the air); in
+/// between, the ground never rises above the deck axis (the deck would run through the
+/// hillside). Both lines are piecewise linear, so comparing at the seats and at every
+/// ground vertex between them is exact.
+fn check_deck_on_ground(d: &Design, add: &mut impl FnMut(&[Field], String)) {
+    let level = d.deck.level;
+    for (field, x, side) in
+        [(Field::LeftSeatX, d.deck.left_seat_x, "left"), (Field::RightSeatX, d.deck.right_seat_x, "right")]
+    {
+        let Some(g) = ground_at(&d.valley, x) else { continue };
+        if g > level + GROUND_TOLERANCE {
+            add(&[field, Field::DeckLevel, Field::Valley], format!("the ground at the {side} abutment seat ({g:.3} m) is above the deck axis ({level} m); move the seat or raise the deck"));
+        } else if level - g > d.deck.abutment_height + GROUND_TOLERANCE {
+            add(&[field, Field::DeckLevel, Field::AbutmentHeight], format!("the ground at the {side} abutment seat ({g:.3} m) lies {:.3} m below the deck axis, more than the abutment height ({} m): the deck would end in the air; move the seat onto the rim, lower the deck or raise the abutment height", level - g, d.deck.abutment_height));
+        }
+    }
+    let (lo, hi) = (d.deck.left_seat_x.min(d.deck.right_seat_x), d.deck.left_seat_x.max(d.deck.right_seat_x));
+    let worst = d
+        .valley
+        .iter()
+        .filter(|p| p.x > lo && p.x < hi && p.y > level + GROUND_TOLERANCE)
+        .max_by(|p, q| p.y.total_cmp(&q.y));
+    if let Some(p) = worst {
+        add(&[Field::DeckLevel, Field::Valley], format!("the ground at x = {} m ({} m) rises {:.3} m above the deck axis between the abutment seats: the deck would run through the hillside; raise the deck, move the seats or change the valley profile", p.x, p.y, p.y - level));
+    }
 }
 
 #[cfg(test)]
 mod tests {
     use super::*;
+    use crate::error::StaticsError;
+    use crate::arch::validate::validate_design;
     use proptest::prelude::*;
 
     fn problems(d: &Design) -> Vec<Problem> {

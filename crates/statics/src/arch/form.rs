@@ -11,21 +11,43 @@
 //!
 //! Units m, kN (loads positive downward inside this module, as on a load line).
 
-use crate::arch::design::{check_inputs, Design, Warning};
-use crate::arch::layout::{position, Frame, Joint, Topology};
-use crate::error::{Iteration, Problem, StaticsError};
+use crate::arch::design::Design;
+use crate::arch::layout::{position, Joint, Layout, Topology};
+use crate::error::{Iteration, StaticsError};
 use crate::graphic::funicular::{three_point, Point, VerticalLoad};
-use crate::tolerance::GROUND_TOLERANCE;
 use serde::{Deserialize, Serialize};
 
 /// Loads at the rib nodes for a given rib shape: the step of form finding that a later
 /// "as built" basis replaces.
 pub trait LoadBasis {
-    /// Short name of the basis, shown with every result ("panel loads", ...).
-    fn name(&self) -> &'static str;
+    /// Which basis this is, shown with every result.
+    fn basis(&self) -> Basis;
     /// Loads (kN, positive down) at every rib node (springings included: they go straight
     /// into the supports) for rib levels `rib_y` and topology `topo`.
-    fn gather(&self, frame: &Frame, topo: &Topology, rib_y: &[f64]) -> Vec<f64>;
+    fn gather(&self, frame: &Layout, topo: &Topology, rib_y: &[f64]) -> Vec<f64>;
+}
+
+/// What the form was found for.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum Basis {
+    /// Tributary deck panel loads plus lumped self-weight (the classical hand method).
+    PanelLoads,
+}
+
+impl Basis {
+    /// Short name for the screen ("panel loads").
+    pub fn name(self) -> &'static str {
+        match self {
+            Basis::PanelLoads => "panel loads",
+        }
+    }
+}
+
+impl std::fmt::Display for Basis {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        f.write_str(self.name())
+    }
 }
 
 /// The classical "panel loads" basis: tributary deck loads as simple-span panel
@@ -60,7 +82,7 @@ impl PanelLoads {
     /// Deck joints get the panel reactions and half of each post and diagonal; rib joints
     /// get half of each rib segment, post and diagonal. This is the truss idealisation's
     /// load; summed per rib node it is the form-finding load.
-    pub fn joint_loads(&self, f: &Frame, topo: &Topology, rib_y: &[f64]) -> Vec<(Joint, f64)> {
+    pub fn joint_loads(&self, f: &Layout, topo: &Topology, rib_y: &[f64]) -> Vec<(Joint, f64)> {
         let mut out: Vec<(Joint, f64)> = Vec::new();
         let mut add = |j: Joint, p: f64| {
             if let Some(e) = out.iter_mut().find(|e| e.0 == j) {
@@ -105,10 +127,10 @@ impl PanelLoads {
 }
 
 impl LoadBasis for PanelLoads {
-    fn name(&self) -> &'static str {
-        "panel loads"
+    fn basis(&self) -> Basis {
+        Basis::PanelLoads
     }
-    fn gather(&self, f: &Frame, topo: &Topology, rib_y: &[f64]) -> Vec<f64> {
+    fn gather(&self, f: &Layout, topo: &Topology, rib_y: &[f64]) -> Vec<f64> {
         let mut p = vec![0.0; f.rib_x.len()];
         for (j, w) in self.joint_loads(f, topo, rib_y) {
             p[topo.rib_of(f, j)] += w;
@@ -147,8 +169,8 @@ pub struct ArchReaction {
 /// The found form and how it was found.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct Form {
-    /// The load basis ("panel loads").
-    pub basis: String,
+    /// The load basis.
+    pub basis: Basis,
     /// Left springing, m.
     pub springing_left: Point,
     /// Right springing, m.
@@ -178,6 +200,10 @@ pub struct Form {
 }
 
 impl Form {
+    /// Short name of the load basis ("panel loads").
+    pub fn basis_name(&self) -> &'static str {
+        self.basis.name()
+    }
     /// Rib node levels, m.
     pub fn rib_y(&self) -> Vec<f64> {
         self.rib.iter().map(|n| n.y).collect()
@@ -193,7 +219,7 @@ impl Form {
 /// `tolerance` times the rise within `max_iterations`; `Invalid` when the loads admit no
 /// compression funicular (e.g. no load at all).
 pub fn find_form_for(
-    frame: &Frame,
+    frame: &Layout,
     basis: &dyn LoadBasis,
     min_post: f64,
     tolerance: f64,
@@ -262,7 +288,7 @@ pub fn find_form_for(
                 })
                 .collect();
             return Ok(Form {
-                basis: basis.name().into(),
+                basis: basis.basis(),
                 springing_left: a,
                 springing_right: b,
                 crown: Point { x: frame.xc, y: y[frame.crown] },
@@ -281,92 +307,6 @@ pub fn find_form_for(
     }
 }
 
-/// Finds the form of a design on the "panel loads" basis, after checking its inputs.
-///
-/// Errors: `Invalid` listing every input problem; `NoConvergence`. The rib is not checked
-/// against the ground here (use `design::validate_design` or `checked_form`).
-pub fn find_form(design: &Design) -> Result<Form, StaticsError> {
-    let mut problems = Vec::new();
-    check_inputs(design, &mut problems, &mut Vec::new());
-    if !problems.is_empty() {
-        return Err(StaticsError::Invalid(problems));
-    }
-    let frame = Frame::new(design).ok_or_else(|| {
-        StaticsError::invalid("valley", "the springings cannot be placed on the valley walls")
-    })?;
-    find_form_for(
-        &frame,
-        &PanelLoads::of(design),
-        design.min_post_length,
-        design.form.tolerance,
-        design.form.max_iterations,
-    )
-}
-
-/// Validates a design completely and returns its warnings and form: input checks, form
-/// finding, then the rib against the ground and the deck. Every problem is listed.
-pub fn checked_form(design: &Design) -> Result<(Vec<Warning>, Form), StaticsError> {
-    let mut problems = Vec::new();
-    let mut warnings = Vec::new();
-    check_inputs(design, &mut problems, &mut warnings);
-    if !problems.is_empty() {
-        return Err(StaticsError::Invalid(problems));
-    }
-    let form = match find_form(design) {
-        Ok(f) => f,
-        Err(StaticsError::Invalid(p)) => return Err(StaticsError::Invalid(p)),
-        Err(StaticsError::NoConvergence { iterations, last_change, .. }) => {
-            return Err(StaticsError::Invalid(vec![Problem::new(crate::error::Field::FormMaxIterations, format!("form finding did not converge in {iterations} iterations (last change {last_change:.3e} m); raise form.tolerance or form.max_iterations"))]))
-        }
-        Err(e) => return Err(e),
-    };
-    check_clearances(design, &form, &mut problems);
-    if problems.is_empty() {
-        Ok((warnings, form))
-    } else {
-        Err(StaticsError::Invalid(problems))
-    }
-}
-
-fn check_clearances(d: &Design, form: &Form, problems: &mut Vec<Problem>) {
-    let last = form.rib.len() - 1;
-    for (r, n) in form.rib.iter().enumerate() {
-        if r > 0 && r < last && n.y > d.deck.level + GROUND_TOLERANCE {
-            problems.push(Problem::new(
-                format!("rib node at x = {:.3} m", n.x),
-                format!(
-                    "the rib rises {:.3} m above the deck; lower the crown or raise the deck",
-                    n.y - d.deck.level
-                ),
-            ));
-        }
-    }
-    // rib segment against ground: both piecewise linear, so compare at the segment ends
-    // and at every ground vertex in between
-    for r in 0..last {
-        let (p, q) = (&form.rib[r], &form.rib[r + 1]);
-        let mut xs = vec![p.x, q.x];
-        xs.extend(d.valley.iter().map(|g| g.x).filter(|&x| x > p.x && x < q.x));
-        let mut worst: Option<(f64, f64)> = None;
-        for x in xs {
-            let Some(g) = d.ground_at(x) else { continue };
-            let y = p.y + (q.y - p.y) * (x - p.x) / (q.x - p.x);
-            let depth = g - y;
-            if depth > GROUND_TOLERANCE && worst.is_none_or(|w| depth > w.1) {
-                worst = Some((x, depth));
-            }
-        }
-        if let Some((x, depth)) = worst {
-            let what = if r + 1 < last && q.post_length.is_some() {
-                " (and the foot of the post above it)"
-            } else {
-                ""
-            };
-            problems.push(Problem::new(format!("rib between x = {:.3} m and {:.3} m", p.x, q.x), format!("the rib{what} runs {depth:.3} m below the ground at x = {x:.3} m; raise the springings, lower the deck or change the rise")));
-        }
-    }
-}
-
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -374,7 +314,8 @@ mod tests {
     #[test]
     fn demo_form_passes_through_three_points() {
         let d = Design::demo();
-        let (_, form) = checked_form(&d).expect("demo is valid");
+        let valid = crate::arch::validate::ValidDesign::new(&d).expect("demo is valid");
+        let form = valid.form();
         let (a, b) = (form.springing_left, form.springing_right);
         assert_eq!(form.rib[0].y, a.y);
         assert_eq!(form.rib.last().map(|n| n.y), Some(b.y));

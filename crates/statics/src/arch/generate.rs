@@ -1,25 +1,32 @@
-//! Structure generation: from a design and its form to the analysis models of the default
-//! layout (DESIGN.md section 4).
+//! Structure generation: from a validated design to the analysis models of the default
+//! layout (see the README, "The layout as built").
 //!
-//! - `frame_model`: deck frame, pin-ended posts, rib, approach spans on pin-ended piers,
-//!   bracing, with the longitudinal restraint of the deck as DESIGN.md says; the dead load
-//!   as member loads (deck, rib) and lumped self-weight of the pin-ended members.
-//! - `truss_model`: the truss idealisation of braced spandrels (every joint pinned, loads
+//! - [`frame_model`]: deck frame, pin-ended posts, rib, approach spans on pin-ended piers,
+//!   bracing, with the longitudinal restraint of the deck of [`restraint`]; the dead load as
+//!   member loads (deck, rib) and lumped self-weight of the pin-ended members.
+//! - [`truss_model`]: the truss idealisation of braced spandrels (every joint pinned, loads
 //!   at the joints as simple-span reactions, drop-in and approach spans left out).
-//! - `bare_rib_model`: the rib alone on its springings with the form-finding loads at its
+//! - [`bare_rib_model`]: the rib alone on its springings with the form-finding loads at its
 //!   nodes.
 //!
-//! Every generated `Model` has a title naming the model; member groups are "rib", "deck",
-//! "post", "pier", "bracing", "approach". Units m, kN, kN/m2; loads y up (gravity
-//! negative); section properties are the design's per-rib-line values times the number of
-//! ribs. One load case, "dead".
+//! Each comes as a [`Generated`]: the `Model` and its [`ModelMap`], which keeps the
+//! identities generation knows: the role of every member ([`MemberRole`]), the model node of
+//! every layout joint, the rib members from left to right, the springing and crown nodes.
+//! Later stages look parts up there, never by coordinates or group names. A member's
+//! `group` in the model is its role's name ("rib", "deck", "post", "pier", "bracing",
+//! "approach"), so model files read as before.
+//!
+//! Units m, kN, kN/m2; loads y up (gravity negative); section properties are the design's
+//! per-rib-line values times the number of ribs. One load case, "dead".
 
-use crate::arch::design::{check_inputs, Design, RibSystem, Section};
-use crate::arch::form::{Form, PanelLoads};
-use crate::arch::layout::{position, Frame, Joint, Topology};
-use crate::error::StaticsError;
+use crate::arch::design::{RibSystem, Section};
+use crate::arch::form::PanelLoads;
+use crate::arch::layout::{position, Joint, Layout};
+use crate::arch::validate::ValidDesign;
+use crate::error::GroupName;
 use crate::frame::model::{frame, truss, LoadCase, LoadDirection, MemberLoad, Model, NodalLoad, Support};
 use serde::{Deserialize, Serialize};
+use std::fmt;
 
 /// A downward uniform load of `w` kN/m on `member`, per metre of member length or, when
 /// `per_horizontal_metre`, per horizontal metre.
@@ -29,72 +36,248 @@ fn gravity(member: usize, w: f64, per_horizontal_metre: bool) -> MemberLoad {
 
 /// Name of the dead load case in every generated model.
 pub const DEAD: &str = "dead";
+
+/// The part a member plays in a deck arch.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum MemberRole {
+    /// A rib segment between two rib nodes.
+    Rib,
+    /// A deck member over the arch.
+    Deck,
+    /// A spandrel post or an end post (deck to rib).
+    Post,
+    /// An approach pier (deck to ground).
+    Pier,
+    /// A bracing diagonal of a spandrel panel.
+    Bracing,
+    /// An approach span (simple span between seat, piers and end post).
+    Approach,
+}
+
+impl MemberRole {
+    /// Every role.
+    pub const ALL: [MemberRole; 6] = [
+        MemberRole::Rib,
+        MemberRole::Deck,
+        MemberRole::Post,
+        MemberRole::Pier,
+        MemberRole::Bracing,
+        MemberRole::Approach,
+    ];
+
+    /// The role's name, also the member `group` in a generated model.
+    pub fn key(self) -> &'static str {
+        match self {
+            MemberRole::Rib => "rib",
+            MemberRole::Deck => "deck",
+            MemberRole::Post => "post",
+            MemberRole::Pier => "pier",
+            MemberRole::Bracing => "bracing",
+            MemberRole::Approach => "approach",
+        }
+    }
+
+    /// The design's member group whose section the member has (approach spans are deck
+    /// girders).
+    pub fn section_group(self) -> GroupName {
+        match self {
+            MemberRole::Rib => GroupName::Rib,
+            MemberRole::Deck | MemberRole::Approach => GroupName::Deck,
+            MemberRole::Post => GroupName::Posts,
+            MemberRole::Pier => GroupName::Piers,
+            MemberRole::Bracing => GroupName::Bracing,
+        }
+    }
+}
+
+impl fmt::Display for MemberRole {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        f.write_str(self.key())
+    }
+}
+
+/// Which of the generated models a model is.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum ModelKind {
+    /// Deck frame, posts, rib, approach spans on piers.
+    Frame,
+    /// Braced spandrels, every joint pinned.
+    Truss,
+    /// The rib alone on its springings.
+    BareRib,
+}
+
+impl ModelKind {
+    /// The model's short name ("frame model", "truss idealisation", "bare rib").
+    pub fn name(self) -> &'static str {
+        match self {
+            ModelKind::Frame => "frame model",
+            ModelKind::Truss => "truss idealisation",
+            ModelKind::BareRib => "bare rib",
+        }
+    }
+
+    /// The model's title, saying what it is.
+    pub const fn title(self) -> &'static str {
+        match self {
+            ModelKind::Frame => "frame model: deck frame, posts, rib, approach spans on piers",
+            ModelKind::Truss => "truss idealisation: braced spandrels, every joint pinned",
+            ModelKind::BareRib => "bare rib: rib alone on its springings, form-finding loads at its nodes",
+        }
+    }
+}
+
+impl fmt::Display for ModelKind {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        f.write_str(self.name())
+    }
+}
+
 /// Title of the frame model.
-pub const FRAME_TITLE: &str = "frame model: deck frame, posts, rib, approach spans on piers";
+pub const FRAME_TITLE: &str = ModelKind::Frame.title();
 /// Title of the truss idealisation.
-pub const TRUSS_TITLE: &str = "truss idealisation: braced spandrels, every joint pinned";
+pub const TRUSS_TITLE: &str = ModelKind::Truss.title();
 /// Title of the bare rib model.
-pub const RIB_TITLE: &str = "bare rib: rib alone on its springings, form-finding loads at its nodes";
+pub const RIB_TITLE: &str = ModelKind::BareRib.title();
+
+/// What generation knows about the parts of a model (indices into the model).
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct ModelMap {
+    /// The role of every member, in member order.
+    pub roles: Vec<MemberRole>,
+    /// The model node of every rib node, from the left springing to the right one.
+    pub rib_nodes: Vec<usize>,
+    /// The model node of the deck joint over each panel point (`None` where the model has
+    /// none: a node shared with the rib, the three-hinged crown, the bare rib).
+    pub deck_nodes: Vec<Option<usize>>,
+    /// The rib members from left to right; member k runs from rib node k to k + 1.
+    pub rib_members: Vec<usize>,
+    /// Left and right springing nodes.
+    pub springings: [usize; 2],
+    /// The rib's crown node.
+    pub crown: usize,
+    /// Left and right abutment seat nodes (frame model only).
+    pub seats: Option<[usize; 2]>,
+}
+
+impl ModelMap {
+    /// The model node of layout joint `j`, if the model has one there.
+    pub fn node_of(&self, j: Joint) -> Option<usize> {
+        match j {
+            Joint::Rib(r) => self.rib_nodes.get(r).copied(),
+            Joint::Deck(i) => self.deck_nodes.get(i).copied().flatten(),
+        }
+    }
+
+    /// The members with role `role`, in member order.
+    pub fn members_with(&self, role: MemberRole) -> impl Iterator<Item = usize> + '_ {
+        self.roles.iter().enumerate().filter(move |(_, r)| **r == role).map(|(k, _)| k)
+    }
+
+    /// The rib chain as the graphic layer takes it: (member, runs left to right).
+    pub fn rib_chain(&self) -> Vec<(usize, bool)> {
+        self.rib_members.iter().map(|&k| (k, true)).collect()
+    }
+}
+
+/// A generated model with what generation knows about its parts.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Generated {
+    /// Which model this is.
+    pub kind: ModelKind,
+    /// The analysis model.
+    pub model: Model,
+    /// Roles and joint identities.
+    pub map: ModelMap,
+}
+
+/// Who holds the deck longitudinally in the frame model.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum DeckHold {
+    /// Three-hinged and braced: both seats slide, each half held by its bracing.
+    EachHalfByItsBracing,
+    /// Three-hinged, unbraced: each half held by its own fixed seat.
+    EachHalfByItsSeat,
+    /// Rib and deck share the crown node, which holds the deck; both seats slide.
+    SharedCrownNode,
+    /// The left seat holds the deck; the right seat slides.
+    LeftSeat,
+}
+
+impl fmt::Display for DeckHold {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        f.write_str(match self {
+            DeckHold::EachHalfByItsBracing => {
+                "both abutment seats slide; each half of the deck is held longitudinally by its bracing"
+            }
+            DeckHold::EachHalfByItsSeat => {
+                "each half of the deck is held longitudinally by its own fixed abutment seat"
+            }
+            DeckHold::SharedCrownNode => {
+                "rib and deck share the crown node, which holds the deck; both abutment seats slide (symmetric)"
+            }
+            DeckHold::LeftSeat => {
+                "the left abutment seat holds the deck longitudinally (fixed); the right seat slides"
+            }
+        })
+    }
+}
 
 /// How the deck is held longitudinally in the frame model.
-#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
 pub struct Restraint {
     /// The left abutment seat holds the deck horizontally.
     pub left_seat_fixed: bool,
     /// The right abutment seat holds the deck horizontally.
     pub right_seat_fixed: bool,
-    /// Words for the screen.
-    pub description: String,
+    /// Who holds the deck.
+    pub held_by: DeckHold,
 }
 
-/// The longitudinal restraint of the deck (DESIGN.md, "Longitudinal restraint"):
-/// three-hinged braced: both seats free (each half held by its bracing); three-hinged
-/// unbraced: both seats fixed (each half by its own seat); two-hinged and fixed: both
-/// seats free when rib and deck share the crown node (symmetric), otherwise the left
-/// seat is fixed.
-pub fn restraint(design: &Design, form: &Form) -> Restraint {
+/// The longitudinal restraint of the deck: three-hinged braced: both seats free (each half
+/// held by its bracing); three-hinged unbraced: both seats fixed (each half by its own
+/// seat); two-hinged and fixed: both seats free when rib and deck share the crown node
+/// (symmetric), otherwise the left seat is fixed.
+pub fn restraint(valid: &ValidDesign) -> Restraint {
+    let design = valid.design();
+    let form = valid.form();
     let crown_shared = form.rib.get(form.crown_node).is_some_and(|n| n.shared_with_deck);
-    let (l, r, description) = match (design.rib_system, design.bracing.is_braced(), crown_shared) {
-        (RibSystem::ThreeHinged, true, _) => (
-            false,
-            false,
-            "both abutment seats slide; each half of the deck is held longitudinally by its bracing",
-        ),
-        (RibSystem::ThreeHinged, false, _) => {
-            (true, true, "each half of the deck is held longitudinally by its own fixed abutment seat")
-        }
-        (_, _, true) => (
-            false,
-            false,
-            "rib and deck share the crown node, which holds the deck; both abutment seats slide (symmetric)",
-        ),
-        (_, _, false) => (
-            true,
-            false,
-            "the left abutment seat holds the deck longitudinally (fixed); the right seat slides",
-        ),
-    };
-    Restraint { left_seat_fixed: l, right_seat_fixed: r, description: description.into() }
+    let (left_seat_fixed, right_seat_fixed, held_by) =
+        match (design.rib_system, design.bracing.is_braced(), crown_shared) {
+            (RibSystem::ThreeHinged, true, _) => (false, false, DeckHold::EachHalfByItsBracing),
+            (RibSystem::ThreeHinged, false, _) => (true, true, DeckHold::EachHalfByItsSeat),
+            (_, _, true) => (false, false, DeckHold::SharedCrownNode),
+            (_, _, false) => (true, false, DeckHold::LeftSeat),
+        };
+    Restraint { left_seat_fixed, right_seat_fixed, held_by }
 }
 
 struct Builder<'a> {
-    f: &'a Frame,
+    f: &'a Layout,
     y: Vec<f64>,
     model: Model,
+    roles: Vec<MemberRole>,
     deck: Vec<Option<usize>>,
     rib: Vec<Option<usize>>,
+    rib_members: Vec<usize>,
     ribs: f64,
 }
 
 impl<'a> Builder<'a> {
-    fn new(f: &'a Frame, form: &Form, ribs: usize, title: &str) -> Self {
+    fn new(valid: &'a ValidDesign, kind: ModelKind) -> Self {
+        let f = valid.layout();
         Builder {
             f,
-            y: form.rib_y(),
-            model: Model { title: title.into(), ..Model::default() },
+            y: valid.form().rib_y(),
+            model: Model { title: kind.title().into(), ..Model::default() },
+            roles: Vec::new(),
             deck: vec![None; f.panels + 1],
             rib: vec![None; f.rib_x.len()],
-            ribs: ribs as f64,
+            rib_members: Vec::new(),
+            ribs: valid.design().deck.ribs as f64,
         }
     }
     fn joint(&mut self, j: Joint) -> usize {
@@ -134,35 +317,31 @@ impl<'a> Builder<'a> {
             Joint::Deck(i) => format!("d{i}"),
         }
     }
-    fn frame_member(&mut self, name: String, group: &str, a: usize, b: usize, s: &Section) -> usize {
-        self.model.add_member(frame(&name, group, a, b, s.e, s.a * self.ribs, s.i * self.ribs))
+    fn frame_member(&mut self, name: String, role: MemberRole, a: usize, b: usize, s: &Section) -> usize {
+        self.roles.push(role);
+        self.model.add_member(frame(&name, role.key(), a, b, s.e, s.a * self.ribs, s.i * self.ribs))
     }
-    fn truss_member(&mut self, name: String, group: &str, a: usize, b: usize, s: &Section) -> usize {
-        let mut m = truss(&name, group, a, b, s.e, s.a * self.ribs);
+    fn truss_member(&mut self, name: String, role: MemberRole, a: usize, b: usize, s: &Section) -> usize {
+        let mut m = truss(&name, role.key(), a, b, s.e, s.a * self.ribs);
         m.i = s.i * self.ribs;
+        self.roles.push(role);
         self.model.add_member(m)
     }
-}
-
-fn prepare(design: &Design, form: &Form) -> Result<(Frame, Topology), StaticsError> {
-    let mut problems = Vec::new();
-    check_inputs(design, &mut problems, &mut Vec::new());
-    if !problems.is_empty() {
-        return Err(StaticsError::Invalid(problems));
+    fn finish(self, kind: ModelKind, seats: Option<[usize; 2]>) -> Generated {
+        let last = self.f.last_rib();
+        // every rib node is made by the rib members, which every model has
+        let rib_nodes: Vec<usize> = self.rib.iter().map(|k| k.unwrap_or(usize::MAX)).collect();
+        let map = ModelMap {
+            roles: self.roles,
+            springings: [rib_nodes[0], rib_nodes[last]],
+            crown: rib_nodes[self.f.crown],
+            rib_nodes,
+            deck_nodes: self.deck,
+            rib_members: self.rib_members,
+            seats,
+        };
+        Generated { kind, model: self.model, map }
     }
-    let f = Frame::new(design).ok_or_else(|| {
-        StaticsError::invalid("valley", "the springings cannot be placed on the valley walls")
-    })?;
-    if form.rib.len() != f.rib_x.len()
-        || form.rib.iter().zip(&f.rib_x).any(|(n, x)| (n.x - x).abs() > 1e-9 * f.span() || !n.y.is_finite())
-    {
-        return Err(StaticsError::invalid(
-            "form",
-            "the form does not belong to this design (rib nodes differ); find the form again",
-        ));
-    }
-    let topo = Topology::with_shared(&f, form.shared());
-    Ok((f, topo))
 }
 
 fn add_load(lc: &mut LoadCase, node: usize, fy: f64) {
@@ -177,19 +356,19 @@ fn add_load(lc: &mut LoadCase, node: usize, fy: f64) {
 }
 
 /// Adds the rib members (left to right, hinged at the crown when three-hinged) and the
-/// springing supports; returns the rib member indices.
-fn add_rib(b: &mut Builder, design: &Design) -> Vec<usize> {
+/// springing supports.
+fn add_rib(b: &mut Builder, valid: &ValidDesign) {
+    let design = valid.design();
     let f = b.f;
     let last = f.last_rib();
-    let mut members = Vec::new();
     for r in 0..last {
         let (p, q) = (b.joint(Joint::Rib(r)), b.joint(Joint::Rib(r + 1)));
-        let k = b.frame_member(format!("rib {}-{}", r, r + 1), "rib", p, q, &design.groups.rib);
+        let k = b.frame_member(format!("rib {}-{}", r, r + 1), MemberRole::Rib, p, q, &design.groups.rib);
         if design.rib_system == RibSystem::ThreeHinged {
             b.model.members[k].release_start = r == f.crown;
             b.model.members[k].release_end = r + 1 == f.crown;
         }
-        members.push(k);
+        b.rib_members.push(k);
     }
     for r in [0, last] {
         let node = b.joint(Joint::Rib(r));
@@ -199,46 +378,45 @@ fn add_rib(b: &mut Builder, design: &Design) -> Vec<usize> {
             Support::pinned(node)
         });
     }
-    members
 }
 
-/// The frame model of the default layout (title `FRAME_TITLE`).
+/// The frame model of the default layout (title [`FRAME_TITLE`]).
 ///
 /// Rib and deck are frame members (the rib hinged at the crown node when three-hinged,
 /// where the halves meet only at that node); posts, piers and bracing are pin-ended
 /// bars; the three-hinged drop-in span is not a member (it ties nothing) and its
 /// simple-span reactions are loads on its neighbouring deck nodes; approach spans are
 /// simple spans (frame members released at both ends) on pin-ended piers founded on the
-/// ground. Springings pinned (fixed for a fixed rib); seats per `restraint`.
+/// ground. Springings pinned (fixed for a fixed rib); seats per [`restraint`].
 ///
-/// Dead load case "dead": deck line load (kN per horizontal m) on deck and approach members, rib
-/// self-weight per metre of rib, posts / piers / bracing self-weight lumped half at each
-/// end. Errors: `Invalid` for a design that fails its input checks or a form that does
-/// not belong to it.
-pub fn frame_model(design: &Design, form: &Form) -> Result<Model, StaticsError> {
-    let (f, topo) = prepare(design, form)?;
-    let mut b = Builder::new(&f, form, design.deck.ribs, FRAME_TITLE);
+/// Dead load case "dead": deck line load (kN per horizontal m) on deck and approach
+/// members, rib self-weight per metre of rib, posts / piers / bracing self-weight lumped
+/// half at each end.
+pub fn frame_model(valid: &ValidDesign) -> Generated {
+    let design = valid.design();
+    let topo = valid.topology();
+    let mut b = Builder::new(valid, ModelKind::Frame);
+    let f = b.f;
     let g = &design.groups;
     let mut lc = LoadCase { name: DEAD.into(), ..LoadCase::default() };
     let w_deck = design.deck_line_load();
     let w_rib = design.weight_per_m(&g.rib);
-    for k in add_rib(&mut b, design) {
-        if w_rib > 0.0 {
-            lc.member.push(gravity(k, w_rib, false));
-        }
+    add_rib(&mut b, valid);
+    if w_rib > 0.0 {
+        lc.member.extend(b.rib_members.iter().map(|&k| gravity(k, w_rib, false)));
     }
     // deck over the arch
     for &(p, q) in &topo.deck {
         let name = format!("deck {}-{}", b.label(p), b.label(q));
         let (np, nq) = (b.joint(p), b.joint(q));
-        let k = b.frame_member(name, "deck", np, nq, &g.deck);
+        let k = b.frame_member(name, MemberRole::Deck, np, nq, &g.deck);
         if w_deck > 0.0 {
             // per horizontal metre of road (a deck member kinked to a shared node)
             lc.member.push(gravity(k, w_deck, true));
         }
     }
     if let Some((p, q)) = topo.drop_in {
-        let (pp, pq) = (position(&f, &b.y, p), position(&f, &b.y, q));
+        let (pp, pq) = (position(f, &b.y, p), position(f, &b.y, q));
         let half = 0.5 * w_deck * (pq.0 - pp.0);
         let (np, nq) = (b.joint(p), b.joint(q));
         add_load(&mut lc, np, -half);
@@ -258,24 +436,26 @@ pub fn frame_model(design: &Design, form: &Form) -> Result<Model, StaticsError> 
         } else {
             format!("post {i}")
         };
-        b.truss_member(name, "post", np, nq, &g.posts);
+        b.truss_member(name, MemberRole::Post, np, nq, &g.posts);
         lumped(&mut b, &mut lc, &g.posts, np, nq);
     }
     for (k, &(p, q)) in topo.diagonals.iter().enumerate() {
         let (np, nq) = (b.joint(p), b.joint(q));
         let name = format!("brace {} {}-{}", k + 1, b.label(p), b.label(q));
-        b.truss_member(name, "bracing", np, nq, &g.bracing);
+        b.truss_member(name, MemberRole::Bracing, np, nq, &g.bracing);
         lumped(&mut b, &mut lc, &g.bracing, np, nq);
     }
     // approach spans on piers: left from the seat to d0, right from dn to the seat
-    let rs = restraint(design, form);
-    for left in [true, false] {
+    let rs = restraint(valid);
+    let mut seats = [0; 2];
+    for (side_index, left) in [true, false].into_iter().enumerate() {
         let (seat_x, piers, arch_end, side) = if left {
             (f.seats.0, &f.piers_left, Joint::Deck(0), "L")
         } else {
             (f.seats.1, &f.piers_right, Joint::Deck(f.panels), "R")
         };
         let seat = b.model.add_node(format!("seat {side}"), seat_x, f.deck_level);
+        seats[side_index] = seat;
         let mut chain = vec![seat];
         // piers from the seat towards the arch (`piers_right` runs from the arch outwards)
         let from_seat: Vec<(f64, f64)> =
@@ -283,7 +463,7 @@ pub fn frame_model(design: &Design, form: &Form) -> Result<Model, StaticsError> 
         for (k, &(x, ground)) in from_seat.iter().enumerate() {
             let top = b.model.add_node(format!("pier {side}{} top", k + 1), x, f.deck_level);
             let foot = b.model.add_node(format!("pier {side}{} foot", k + 1), x, ground);
-            b.truss_member(format!("pier {side}{}", k + 1), "pier", top, foot, &g.piers);
+            b.truss_member(format!("pier {side}{}", k + 1), MemberRole::Pier, top, foot, &g.piers);
             lumped(&mut b, &mut lc, &g.piers, top, foot);
             b.model.supports.push(Support::pinned(foot));
             chain.push(top);
@@ -294,7 +474,13 @@ pub fn frame_model(design: &Design, form: &Form) -> Result<Model, StaticsError> 
             chain.reverse();
         }
         for (k, w) in chain.windows(2).enumerate() {
-            let m = b.frame_member(format!("approach {side}{}", k + 1), "approach", w[0], w[1], &g.deck);
+            let m = b.frame_member(
+                format!("approach {side}{}", k + 1),
+                MemberRole::Approach,
+                w[0],
+                w[1],
+                &g.deck,
+            );
             b.model.members[m].release_start = true;
             b.model.members[m].release_end = true;
             if w_deck > 0.0 {
@@ -305,46 +491,46 @@ pub fn frame_model(design: &Design, form: &Form) -> Result<Model, StaticsError> 
         b.model.supports.push(if fixed { Support::pinned(seat) } else { Support::roller_along_x(seat) });
     }
     b.model.load_cases.push(lc);
-    Ok(b.model)
+    b.finish(ModelKind::Frame, Some(seats))
 }
 
-/// The truss idealisation of braced spandrels (title `TRUSS_TITLE`): every joint pinned,
+/// The truss idealisation of braced spandrels (title [`TRUSS_TITLE`]): every joint pinned,
 /// rib and deck as chords, posts and diagonals as the web, end posts on the pinned
 /// springings, approach and drop-in spans left out (their reactions are loads). Loads
 /// (case "dead") at the joints as `PanelLoads::joint_loads`: deck panel reactions and
 /// half of each member's self-weight at each of its ends.
 ///
 /// Its degree of indeterminacy is not assumed: compute it with `truss_determinacy`.
-/// Errors: `Invalid` when the spandrels are not braced (an unbraced pin-jointed arch is a
-/// mechanism), or as `frame_model`.
-pub fn truss_model(design: &Design, form: &Form) -> Result<Model, StaticsError> {
+/// `None` when the spandrels are not braced (an unbraced pin-jointed arch is a
+/// mechanism).
+pub fn truss_model(valid: &ValidDesign) -> Option<Generated> {
+    let design = valid.design();
     if !design.bracing.is_braced() {
-        return Err(StaticsError::invalid(
-            "bracing",
-            "the truss idealisation needs braced spandrels: an unbraced pin-jointed arch is a mechanism",
-        ));
+        return None;
     }
-    let (f, topo) = prepare(design, form)?;
-    let mut b = Builder::new(&f, form, design.deck.ribs, TRUSS_TITLE);
+    let topo = valid.topology();
+    let mut b = Builder::new(valid, ModelKind::Truss);
+    let f = b.f;
     let g = &design.groups;
     let last = f.last_rib();
     for r in 0..last {
         let (p, q) = (b.joint(Joint::Rib(r)), b.joint(Joint::Rib(r + 1)));
-        b.truss_member(format!("rib {}-{}", r, r + 1), "rib", p, q, &g.rib);
+        let k = b.truss_member(format!("rib {}-{}", r, r + 1), MemberRole::Rib, p, q, &g.rib);
+        b.rib_members.push(k);
     }
     for &(p, q) in &topo.deck {
         let name = format!("deck {}-{}", b.label(p), b.label(q));
         let (np, nq) = (b.joint(p), b.joint(q));
-        b.truss_member(name, "deck", np, nq, &g.deck);
+        b.truss_member(name, MemberRole::Deck, np, nq, &g.deck);
     }
     for &(i, r) in &topo.posts {
         let (np, nq) = (b.joint(Joint::Deck(i)), b.joint(Joint::Rib(r)));
-        b.truss_member(format!("post {i}"), "post", np, nq, &g.posts);
+        b.truss_member(format!("post {i}"), MemberRole::Post, np, nq, &g.posts);
     }
     for (k, &(p, q)) in topo.diagonals.iter().enumerate() {
         let name = format!("brace {} {}-{}", k + 1, b.label(p), b.label(q));
         let (np, nq) = (b.joint(p), b.joint(q));
-        b.truss_member(name, "bracing", np, nq, &g.bracing);
+        b.truss_member(name, MemberRole::Bracing, np, nq, &g.bracing);
     }
     for r in [0, last] {
         let node = b.joint(Joint::Rib(r));
@@ -352,30 +538,26 @@ pub fn truss_model(design: &Design, form: &Form) -> Result<Model, StaticsError> 
     }
     let mut lc = LoadCase { name: DEAD.into(), ..LoadCase::default() };
     let y = b.y.clone();
-    for (j, p) in PanelLoads::of(design).joint_loads(&f, &topo, &y) {
+    for (j, p) in PanelLoads::of(design).joint_loads(f, topo, &y) {
         let node = b.joint(j);
         add_load(&mut lc, node, -p);
     }
     b.model.load_cases.push(lc);
-    Ok(b.model)
+    Some(b.finish(ModelKind::Truss, None))
 }
 
-/// The bare rib (title `RIB_TITLE`): rib frame members between the rib nodes (hinged at
+/// The bare rib (title [`RIB_TITLE`]): rib frame members between the rib nodes (hinged at
 /// the crown node when three-hinged), springings pinned (fixed for a fixed rib), and the
-/// form-finding loads of `form` at every rib node (those at the springings go straight
-/// into the supports). Errors as `frame_model`.
-pub fn bare_rib_model(design: &Design, form: &Form) -> Result<Model, StaticsError> {
-    let (f, _) = prepare(design, form)?;
-    let mut b = Builder::new(&f, form, design.deck.ribs, RIB_TITLE);
-    add_rib(&mut b, design);
+/// form-finding loads at every rib node (those at the springings go straight into the
+/// supports).
+pub fn bare_rib_model(valid: &ValidDesign) -> Generated {
+    let mut b = Builder::new(valid, ModelKind::BareRib);
+    add_rib(&mut b, valid);
     let mut lc = LoadCase { name: DEAD.into(), ..LoadCase::default() };
-    for (r, n) in form.rib.iter().enumerate() {
+    for (r, n) in valid.form().rib.iter().enumerate() {
         let node = b.joint(Joint::Rib(r));
-        if !n.load.is_finite() {
-            return Err(StaticsError::invalid("form", "a rib node load is not finite"));
-        }
         add_load(&mut lc, node, -n.load);
     }
     b.model.load_cases.push(lc);
-    Ok(b.model)
+    b.finish(ModelKind::BareRib, None)
 }

@@ -24,7 +24,7 @@ pub enum Joint {
 
 /// Fixed geometry of a design (does not depend on the rib shape).
 #[derive(Debug, Clone, PartialEq)]
-pub struct Frame {
+pub struct Layout {
     /// Left springing (x, y), m.
     pub a: (f64, f64),
     /// Right springing (x, y), m.
@@ -57,10 +57,10 @@ pub struct Frame {
     pub bracing: Bracing,
 }
 
-impl Frame {
+impl Layout {
     /// The layout geometry of a design whose inputs passed `check_inputs`; `None` if the
     /// springings cannot be placed.
-    pub fn new(d: &Design) -> Option<Frame> {
+    pub fn new(d: &Design) -> Option<Layout> {
         let xa = d.springing_x(d.springing_left_level, true)?;
         let xb = d.springing_x(d.springing_right_level, false)?;
         let n = d.panels;
@@ -97,7 +97,7 @@ impl Frame {
         let piers_left = piers(d.deck.left_seat_x, xa, d.approach_piers_left)?;
         let mut piers_right = piers(d.deck.right_seat_x, xb, d.approach_piers_right)?;
         piers_right.reverse();
-        Some(Frame {
+        Some(Layout {
             a: (xa, d.springing_left_level),
             b: (xb, d.springing_right_level),
             xc,
@@ -167,7 +167,7 @@ pub struct Topology {
 impl Topology {
     /// Topology for rib levels `rib_y` (one per rib node), deciding shared nodes where the
     /// post would be shorter than `min_post`.
-    pub fn new(f: &Frame, rib_y: &[f64], min_post: f64) -> Topology {
+    pub fn new(f: &Layout, rib_y: &[f64], min_post: f64) -> Topology {
         let shared: Vec<usize> = (1..f.last_rib())
             .filter(|&r| {
                 let is_crown = r == f.crown;
@@ -184,7 +184,7 @@ impl Topology {
     }
 
     /// Topology with the given shared rib nodes.
-    pub fn with_shared(f: &Frame, shared: Vec<usize>) -> Topology {
+    pub fn with_shared(f: &Layout, shared: Vec<usize>) -> Topology {
         let n = f.panels;
         let three = f.system == RibSystem::ThreeHinged;
         let is_shared = |r: usize| shared.contains(&r);
@@ -286,7 +286,7 @@ impl Topology {
     }
 
     /// Rib node carrying joint `j` down to the rib (a deck node goes down its post).
-    pub fn rib_of(&self, f: &Frame, j: Joint) -> usize {
+    pub fn rib_of(&self, f: &Layout, j: Joint) -> usize {
         match j {
             Joint::Rib(r) => r,
             Joint::Deck(i) => f.rib_under(i),
@@ -295,7 +295,7 @@ impl Topology {
 }
 
 /// Position of a joint, m.
-pub fn position(f: &Frame, rib_y: &[f64], j: Joint) -> (f64, f64) {
+pub fn position(f: &Layout, rib_y: &[f64], j: Joint) -> (f64, f64) {
     match j {
         Joint::Rib(r) => (f.rib_x[r], rib_y[r]),
         Joint::Deck(i) => (f.panel_x[i], f.deck_level),
@@ -306,12 +306,12 @@ pub fn position(f: &Frame, rib_y: &[f64], j: Joint) -> (f64, f64) {
 mod tests {
     use super::*;
 
-    fn topo(n: usize, system: RibSystem, bracing: Bracing) -> (Frame, Topology) {
+    fn topo(n: usize, system: RibSystem, bracing: Bracing) -> (Layout, Topology) {
         let mut d = Design::demo();
         d.panels = n;
         d.rib_system = system;
         d.bracing = bracing;
-        let f = Frame::new(&d).expect("demo frame");
+        let f = Layout::new(&d).expect("demo frame");
         let y: Vec<f64> = f.rib_x.iter().map(|&x| f.parabola(x)).collect();
         let t = Topology::new(&f, &y, d.min_post_length);
         (f, t)

@@ -8,3 +8,5 @@ pub mod design;
 pub mod form;
 pub mod generate;
 pub mod layout;
+pub mod summary;
+pub mod validate;

@@ -28,9 +28,9 @@
 //! * the decoded design must pass `validate_design`.
 
 use crate::arch::design::{
-    validate_design, Bracing, Crown, Deck, Design, FormSettings, GroundPoint, MemberGroups, RibSystem,
-    Section,
+    Bracing, Crown, Deck, Design, FormSettings, GroundPoint, MemberGroups, RibSystem, Section,
 };
+use crate::arch::validate::validate_design;
 use crate::error::StaticsError;
 use base64::Engine as _;
 

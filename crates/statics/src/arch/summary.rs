@@ -1,0 +1,210 @@
+//! The key numbers of an analysed design, in one place: what `springline analyze` prints
+//! first, what the app's results table shows and what the link fixtures store, so the
+//! three cannot drift apart.
+//!
+//! # Words for thrust (used the same way everywhere)
+//!
+//! - **form thrust** H_form: the horizontal thrust of the funicular found for the dead
+//!   load (form finding); the pole distance of the dead-load force diagram. kN.
+//! - **springing thrust** H: the horizontal force a springing takes from the rib in one
+//!   load case of the frame model, per side (left, right); positive when the rib pushes
+//!   outward on its abutment (compression). kN.
+//! - **thrust range**: the least and greatest springing thrust over every load case and
+//!   side reported. kN. (A traffic envelope will widen it.)
+//!
+//! Units kN, m, kNm, degrees (angles only here, at the edge of the engine).
+
+use crate::arch::analysis::{ModelResult, RibMoments, TrussResult};
+use crate::arch::design::Design;
+use crate::arch::form::{ArchReaction, Basis, Form};
+use crate::arch::generate::{DeckHold, MemberRole, Restraint, DEAD};
+use crate::frame::determinacy::Determinacy;
+use serde::Serialize;
+
+/// The force a springing takes from the rib in one load case.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+pub struct SpringingForce {
+    /// Springing thrust H: horizontal, kN, positive when the rib pushes outward.
+    pub thrust: f64,
+    /// Vertical, kN, positive when the rib pushes down.
+    pub vertical: f64,
+    /// Angle of the resultant below the horizontal, degrees (atan2(vertical, thrust)).
+    pub angle_deg: f64,
+}
+
+impl SpringingForce {
+    /// From the support reaction on the rib (fx, fy, kN; x right, y up) at the left
+    /// (`left` true) or right springing: the rib pushes on the abutment with the opposite
+    /// force, so the outward horizontal push is fx at the left and -fx at the right.
+    pub fn from_reaction(fx: f64, fy: f64, left: bool) -> SpringingForce {
+        let thrust = if left { fx } else { -fx };
+        SpringingForce { thrust, vertical: fy, angle_deg: fy.atan2(thrust).to_degrees() }
+    }
+}
+
+/// The springing forces of one load case of the frame model.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct CaseSpringings {
+    /// Load case name.
+    pub case: String,
+    /// Left springing.
+    pub left: SpringingForce,
+    /// Right springing.
+    pub right: SpringingForce,
+}
+
+/// The largest axial force of the members of one role, frame model, dead load.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+pub struct RoleForce {
+    /// The members' role.
+    pub role: MemberRole,
+    /// The axial force of largest magnitude, kN (tension positive).
+    pub n: f64,
+}
+
+/// The key numbers of an analysed design.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Summary {
+    /// Name of the design.
+    pub design: String,
+    /// Span between the springings, m.
+    pub span: f64,
+    /// Rise above the springing chord at the crown, m.
+    pub rise: f64,
+    /// Rise over span.
+    pub rise_over_span: f64,
+    /// Load basis of the form.
+    pub form_basis: Basis,
+    /// Funicular constructions made in form finding.
+    pub form_iterations: usize,
+    /// Largest change of a rib node level in the last iteration, m.
+    pub form_final_change: f64,
+    /// Form thrust H_form, kN.
+    pub form_thrust: f64,
+    /// Reactions of the form at the left and right springing, kN.
+    pub form_reactions: [ArchReaction; 2],
+    /// Springing forces of the frame model, per load case ("dead" first).
+    pub springings: Vec<CaseSpringings>,
+    /// Least and greatest springing thrust over the cases and sides, kN.
+    pub thrust_range: [f64; 2],
+    /// Largest axial force per member role, frame model, dead load (roles the model has).
+    pub largest_axial: Vec<RoleForce>,
+    /// Largest |M| along the rib of the frame model, dead load, kNm.
+    pub residual_rib_moment: f64,
+    /// Who holds the deck longitudinally.
+    pub deck_held_by: DeckHold,
+    /// Determinacy of the truss idealisation (`None` when unbraced).
+    pub truss: Option<Determinacy>,
+    /// Equilibrium residual of the frame model's dead load, relative to the largest force.
+    pub equilibrium: f64,
+    /// Frame model support reactions under dead load: (node, fx kN, fy kN, mz kNm).
+    pub frame_reactions: Vec<(usize, f64, f64, f64)>,
+}
+
+impl Summary {
+    /// The summary of an analysis's parts (see `analysis::analyze_valid`).
+    pub fn new(
+        design: &Design,
+        form: &Form,
+        restraint: &Restraint,
+        frame: &ModelResult,
+        truss: Option<&TrussResult>,
+        rib_moments: &RibMoments,
+    ) -> Summary {
+        let [left, right] = frame.map.springings;
+        let springings: Vec<CaseSpringings> = frame
+            .solution
+            .cases
+            .iter()
+            .filter_map(|c| {
+                let (l, r) = (c.reaction(left)?, c.reaction(right)?);
+                Some(CaseSpringings {
+                    case: c.name.clone(),
+                    left: SpringingForce::from_reaction(l.fx, l.fy, true),
+                    right: SpringingForce::from_reaction(r.fx, r.fy, false),
+                })
+            })
+            .collect();
+        let thrusts = springings.iter().flat_map(|s| [s.left.thrust, s.right.thrust]);
+        let thrust_range =
+            thrusts.fold([f64::INFINITY, f64::NEG_INFINITY], |[lo, hi], h| [lo.min(h), hi.max(h)]);
+        let dead = frame.solution.case(DEAD).or(frame.solution.cases.first());
+        let largest_axial = [MemberRole::Rib, MemberRole::Post, MemberRole::Bracing, MemberRole::Deck]
+            .into_iter()
+            .filter_map(|role| {
+                let case = dead?;
+                let n = frame
+                    .map
+                    .members_with(role)
+                    .flat_map(|k| [case.members[k].start.n, case.members[k].end.n])
+                    .max_by(|x, y| x.abs().total_cmp(&y.abs()))?;
+                Some(RoleForce { role, n })
+            })
+            .collect();
+        Summary {
+            design: design.name.clone(),
+            span: form.span,
+            rise: form.rise,
+            rise_over_span: form.rise / form.span,
+            form_basis: form.basis,
+            form_iterations: form.iterations,
+            form_final_change: form.final_change,
+            form_thrust: form.thrust,
+            form_reactions: [form.reaction_left, form.reaction_right],
+            springings,
+            thrust_range,
+            largest_axial,
+            residual_rib_moment: rib_moments.max_abs,
+            deck_held_by: restraint.held_by,
+            truss: truss.map(|t| t.determinacy.determinacy.clone()),
+            equilibrium: dead.map_or(f64::NAN, |c| c.equilibrium.relative),
+            frame_reactions: dead
+                .map(|c| c.reactions.iter().map(|r| (r.node, r.fx, r.fy, r.mz)).collect())
+                .unwrap_or_default(),
+        }
+    }
+
+    /// The largest axial force of the members of `role`, kN, if the frame model has any.
+    pub fn largest_axial(&self, role: MemberRole) -> Option<f64> {
+        self.largest_axial.iter().find(|r| r.role == role).map(|r| r.n)
+    }
+
+    /// The springing forces of load case `case`.
+    pub fn springings_of(&self, case: &str) -> Option<&CaseSpringings> {
+        self.springings.iter().find(|s| s.case == case)
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::arch::analysis::analyze;
+
+    #[test]
+    fn springing_force_points_outward_and_down_for_an_arch() {
+        // reactions on an arch in compression: left pushes right and up, right pushes
+        // left and up; the rib pushes its abutments outward and down
+        let l = SpringingForce::from_reaction(100.0, 100.0, true);
+        let r = SpringingForce::from_reaction(-100.0, 50.0, false);
+        assert_eq!((l.thrust, r.thrust), (100.0, 100.0));
+        assert!((l.angle_deg - 45.0).abs() < 1e-12);
+        assert!((r.angle_deg - 26.565_051_177_077_99).abs() < 1e-9, "atan(0.5) in degrees");
+    }
+
+    #[test]
+    fn demo_summary_agrees_with_the_analysis_it_summarises() {
+        let a = analyze(&Design::demo()).expect("demo");
+        let s = &a.summary;
+        // three-hinged and determinate: the frame's dead-load springing thrust is the
+        // form thrust (the frame carries the same loads as the funicular up to the deck's
+        // member loads, which a three-hinged rib cannot redistribute)
+        let dead = s.springings_of("dead").expect("dead case");
+        assert!((dead.left.thrust - s.form_thrust).abs() < 1e-6 * s.form_thrust, "{dead:?}");
+        assert!(s.thrust_range[0] <= dead.left.thrust && dead.left.thrust <= s.thrust_range[1]);
+        assert_eq!(s.springings.len(), 3);
+        assert!(s.largest_axial(MemberRole::Rib).is_some_and(|n| n < 0.0), "rib in compression");
+        assert!(s.largest_axial(MemberRole::Post).is_some_and(|n| n < 0.0), "posts in compression");
+        assert_eq!(s.truss, Some(Determinacy::Determinate));
+        assert!(s.equilibrium < 1e-9);
+    }
+}

@@ -1,0 +1,303 @@
+//! Validation, once. A [`ValidDesign`] can only be made by validating a [`Design`]: the
+//! input checks, the layout the design implies, form finding on the "panel loads" basis,
+//! and the checks that need the form (the rib against the ground and the deck, the
+//! spandrel the shortest post leaves). Every later stage (generation, load cases,
+//! analysis) takes a `ValidDesign` and cannot fail on validation.
+
+use crate::arch::design::{check_inputs, Design, Warning};
+use crate::arch::form::{find_form_for, Form, PanelLoads};
+use crate::arch::layout::{Layout, Topology};
+use crate::error::{Field, Problem, StaticsError};
+use crate::tolerance::GROUND_TOLERANCE;
+
+/// A design that passed validation, with the layout, form and topology it implies.
+///
+/// Made only by [`ValidDesign::new`]; immutable (edit the `Design` and validate again).
+#[derive(Debug, Clone, PartialEq)]
+pub struct ValidDesign {
+    design: Design,
+    layout: Layout,
+    form: Form,
+    topology: Topology,
+    warnings: Vec<Warning>,
+}
+
+#[cfg(test)]
+thread_local! {
+    /// How many validations ran on this thread (tests count them).
+    pub(crate) static VALIDATIONS: std::cell::Cell<usize> = const { std::cell::Cell::new(0) };
+}
+
+impl ValidDesign {
+    /// Validates `design` and lists every problem at once.
+    ///
+    /// First the inputs are checked (numbers finite, springings below the deck and on the
+    /// valley walls, rise > 0, crown not above the deck, 2 to 200 panels, seats outside
+    /// the springings and on the ground within the abutment height, the deck axis clear
+    /// of the ground, sections positive, ...). When they pass, the form is found and the
+    /// rib is checked against the ground (no rib node or segment, hence no post foot,
+    /// below it) and the deck (no rib node above it), and the shortest post must leave at
+    /// least one spandrel post.
+    ///
+    /// Errors: `Invalid` with every problem found; `NoConvergence` when form finding does
+    /// not settle within the design's tolerance and iteration limit. Never panics.
+    pub fn new(design: &Design) -> Result<ValidDesign, StaticsError> {
+        #[cfg(test)]
+        VALIDATIONS.with(|v| v.set(v.get() + 1));
+        let mut problems = Vec::new();
+        let mut warnings = Vec::new();
+        check_inputs(design, &mut problems, &mut warnings);
+        if !problems.is_empty() {
+            return Err(StaticsError::Invalid(problems));
+        }
+        let layout = Layout::new(design).ok_or_else(|| {
+            StaticsError::Invalid(vec![Problem::new(
+                Field::Valley,
+                "the springings cannot be placed on the valley walls",
+            )
+            .involving([Field::SpringingLeftLevel, Field::SpringingRightLevel])])
+        })?;
+        let form = find_form_for(
+            &layout,
+            &PanelLoads::of(design),
+            design.min_post_length,
+            design.form.tolerance,
+            design.form.max_iterations,
+        )?;
+        check_clearances(design, &form, &mut problems);
+        check_spandrel(design, &form, &mut problems, &mut warnings);
+        if !problems.is_empty() {
+            return Err(StaticsError::Invalid(problems));
+        }
+        let topology = Topology::with_shared(&layout, form.shared());
+        Ok(ValidDesign { design: design.clone(), layout, form, topology, warnings })
+    }
+
+    /// The design as the user gave it.
+    pub fn design(&self) -> &Design {
+        &self.design
+    }
+    /// Where the springings, panel points, rib nodes and piers are.
+    pub fn layout(&self) -> &Layout {
+        &self.layout
+    }
+    /// The form found for the dead load ("panel loads" basis).
+    pub fn form(&self) -> &Form {
+        &self.form
+    }
+    /// Which posts, deck spans and diagonals exist for the found form.
+    pub fn topology(&self) -> &Topology {
+        &self.topology
+    }
+    /// Allowed but unusual things to look at.
+    pub fn warnings(&self) -> &[Warning] {
+        &self.warnings
+    }
+}
+
+/// Validates a design and returns its warnings (see [`ValidDesign::new`]).
+pub fn validate_design(design: &Design) -> Result<Vec<Warning>, StaticsError> {
+    ValidDesign::new(design).map(|v| v.warnings)
+}
+
+/// Fields that move the rib: each problem of the rib's position involves them all.
+const RIB_FIELDS: [Field; 5] = [
+    Field::SpringingLeftLevel,
+    Field::SpringingRightLevel,
+    Field::CrownRise,
+    Field::CrownLevel,
+    Field::DeckLevel,
+];
+
+fn check_clearances(d: &Design, form: &Form, problems: &mut Vec<Problem>) {
+    let last = form.rib.len() - 1;
+    for (r, n) in form.rib.iter().enumerate() {
+        if r > 0 && r < last && n.y > d.deck.level + GROUND_TOLERANCE {
+            problems.push(
+                Problem::new(
+                    format!("rib node at x = {:.3} m", n.x),
+                    format!(
+                        "the rib rises {:.3} m above the deck; lower the crown or raise the deck",
+                        n.y - d.deck.level
+                    ),
+                )
+                .involving(RIB_FIELDS),
+            );
+        }
+    }
+    // rib segment against ground: both piecewise linear, so compare at the segment ends
+    // and at every ground vertex in between
+    for r in 0..last {
+        let (p, q) = (&form.rib[r], &form.rib[r + 1]);
+        let mut xs = vec![p.x, q.x];
+        xs.extend(d.valley.iter().map(|g| g.x).filter(|&x| x > p.x && x < q.x));
+        let mut worst: Option<(f64, f64)> = None;
+        for x in xs {
+            let Some(g) = d.ground_at(x) else { continue };
+            let y = p.y + (q.y - p.y) * (x - p.x) / (q.x - p.x);
+            let depth = g - y;
+            if depth > GROUND_TOLERANCE && worst.is_none_or(|w| depth > w.1) {
+                worst = Some((x, depth));
+            }
+        }
+        if let Some((x, depth)) = worst {
+            let what = if r + 1 < last && q.post_length.is_some() {
+                " (and the foot of the post above it)"
+            } else {
+                ""
+            };
+            problems.push(
+                Problem::new(
+                    format!("rib between x = {:.3} m and {:.3} m", p.x, q.x),
+                    format!(
+                        "the rib{what} runs {depth:.3} m below the ground at x = {x:.3} m; raise the springings, \
+                         lower the deck or change the rise"
+                    ),
+                )
+                .involving(RIB_FIELDS)
+                .involving([Field::Valley]),
+            );
+        }
+    }
+}
+
+/// The shortest post must leave a spandrel: where every interior post would be shorter
+/// than it, rib and deck would merge at every panel point, the deck would follow the rib
+/// metres below the road and the truss idealisation would be a mechanism. Refused. Where
+/// some nodes merge although the post there would be longer than the deck is deep, the
+/// deck leaves the road level there: said plainly as a warning.
+fn check_spandrel(d: &Design, form: &Form, problems: &mut Vec<Problem>, warnings: &mut Vec<Warning>) {
+    let last = form.rib.len() - 1;
+    let interior = || form.rib[1..last].iter();
+    let gap = |y: f64| d.deck.level - y;
+    let has_post = interior().any(|n| n.post_length.is_some());
+    let longest = interior().map(|n| gap(n.y)).fold(0.0, f64::max);
+    if !has_post && longest > d.min_post_length.min(d.groups.deck.depth) {
+        problems.push(
+            Problem::new(
+                Field::MinPostLength,
+                format!(
+                    "the shortest post ({} m) is longer than every spandrel post (the longest would be {longest:.3} m): \
+                     rib and deck would merge at every panel point, leaving no spandrel; use a shortest post below \
+                     {longest:.3} m",
+                    d.min_post_length
+                ),
+            )
+            .involving([Field::DeckLevel, Field::CrownRise, Field::CrownLevel]),
+        );
+        return;
+    }
+    let pulled: Vec<f64> = interior()
+        .filter(|n| n.shared_with_deck)
+        .map(|n| gap(n.y))
+        .filter(|&g| g > d.groups.deck.depth)
+        .collect();
+    if let Some(deepest) = pulled.iter().copied().reduce(f64::max) {
+        warnings.push(
+            Warning::new(
+                Field::MinPostLength,
+                format!(
+                    "rib and deck share {} node(s) where a post would be up to {deepest:.3} m long: there the deck \
+                     follows the rib, up to {deepest:.3} m below the road; lower the shortest post to keep the deck \
+                     level",
+                    pulled.len()
+                ),
+            )
+            .involving([Field::DeckLevel]),
+        );
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::arch::design::GroundPoint;
+
+    fn problems(d: &Design) -> Vec<Problem> {
+        match ValidDesign::new(d) {
+            Err(StaticsError::Invalid(p)) => p,
+            other => panic!("expected problems, got {other:?}"),
+        }
+    }
+
+    /// Regression: a valley lowered 20 m with its arch was accepted with both abutment
+    /// seats 20 m in the air.
+    #[test]
+    fn seat_over_deep_ground_is_refused() {
+        let mut d = Design::demo();
+        for p in &mut d.valley {
+            p.y -= 20.0;
+        }
+        d.springing_left_level -= 20.0;
+        d.springing_right_level -= 20.0;
+        d.crown = crate::arch::design::Crown::Level { level: 77.5 };
+        let p = problems(&d);
+        let seat = |f: Field| p.iter().any(|q| q.location == f.into() && q.message.contains("in the air"));
+        assert!(seat(Field::LeftSeatX) && seat(Field::RightSeatX), "{p:?}");
+        assert!(p.iter().all(|q| q.involves(Field::DeckLevel)), "{p:?}");
+        // a taller abutment allowed: 20.63 m of ground below the deck at the left seat
+        // (demo profile, linear between (0, 80.5) and (15, 72))
+        d.deck.abutment_height = 21.0;
+        assert!(ValidDesign::new(&d).is_ok());
+    }
+
+    /// Regression: ground raised above the deck under the right approach span was
+    /// accepted; the approach span ran through the hillside.
+    #[test]
+    fn ground_above_the_deck_between_the_seats_is_refused() {
+        let mut d = Design::demo();
+        d.approach_piers_right = 0;
+        // the ground point at x = 158 m (99 m) raised to 103 m, under the right approach
+        let k = d.valley.iter().position(|p| p.x == 158.0).expect("demo point");
+        d.valley[k].y = 103.0;
+        let p = problems(&d);
+        assert!(
+            p.iter().any(|q| q.location == Field::DeckLevel.into() && q.message.contains("x = 158 m")),
+            "{p:?}"
+        );
+        // ground above the deck at a seat
+        let mut d = Design::demo();
+        d.deck.right_seat_x = 169.0; // ground 100.375 m, deck 100 m
+        let p = problems(&d);
+        assert!(
+            p.iter().any(|q| q.location == Field::RightSeatX.into() && q.message.contains("above")),
+            "{p:?}"
+        );
+    }
+
+    /// Regression: a shortest post of 30 m merged rib and deck at every interior node
+    /// (the deck lay on the rib 3-24 m below the road) with only two warnings.
+    #[test]
+    fn a_shortest_post_that_removes_the_spandrel_is_refused() {
+        let mut d = Design::demo();
+        d.min_post_length = 30.0;
+        let p = problems(&d);
+        assert!(p
+            .iter()
+            .any(|q| q.location == Field::MinPostLength.into() && q.message.contains("no spandrel")));
+        // a shortest post that merges some nodes well below the road is said plainly
+        d.min_post_length = 5.0;
+        let w = validate_design(&d).expect("allowed");
+        assert!(w.iter().any(|w| w.message.contains("below the road")), "{w:?}");
+    }
+
+    #[test]
+    fn rib_problems_involve_the_fields_that_move_the_rib() {
+        let mut d = Design::demo();
+        d.valley.retain(|p| !(p.x > 55.0 && p.x < 105.0));
+        let at = d.valley.iter().position(|p| p.x > 100.0).expect("right wall");
+        d.valley.splice(
+            at..at,
+            [
+                GroundPoint { x: 60.0, y: 57.0 },
+                GroundPoint { x: 80.0, y: 99.0 },
+                GroundPoint { x: 100.0, y: 57.0 },
+            ],
+        );
+        let p = problems(&d);
+        let below = p.iter().find(|q| q.message.contains("below the ground")).expect("rib in rock");
+        for f in RIB_FIELDS {
+            assert!(below.involves(f), "{f}");
+        }
+    }
+}
