@@ -41,7 +41,7 @@ fn demo_link() -> String {
 fn refused(link: &str) -> String {
     let out = run(&["analyze", "--link", link], "");
     let err = text(&out.stderr);
-    assert!(!out.status.success(), "'{link}' was accepted");
+    assert_eq!(out.status.code(), Some(1), "'{link}': {err}");
     assert!(out.stdout.is_empty(), "'{link}' printed {}", text(&out.stdout));
     assert!(err.starts_with("springline: cannot read link: "), "{err}");
     err
@@ -85,17 +85,18 @@ fn bad_links_fail_with_a_clear_message() {
 
 #[test]
 fn usage_errors_and_invalid_designs_fail() {
+    // usage errors are clap's (exit 2), worded by clap
     let out = run(&["analyze", "--link"], "");
-    assert!(!out.status.success());
-    assert!(text(&out.stderr).contains("usage: springline analyze"), "{}", text(&out.stderr));
+    assert_eq!(out.status.code(), Some(2));
+    assert!(text(&out.stderr).contains("a value is required for '--link <LINK>'"), "{}", text(&out.stderr));
     let out = run(&["link"], "");
-    assert!(!out.status.success());
-    assert!(text(&out.stderr).contains("usage: springline link"));
+    assert_eq!(out.status.code(), Some(2));
+    assert!(text(&out.stderr).contains("Usage: springline link"), "{}", text(&out.stderr));
     // a design with a defect is not linked (its link would not open)
     let bad = demo_json().replace("\"panels\": 12", "\"panels\": 1");
     assert_ne!(bad, demo_json());
     let out = run(&["link", "-"], &bad);
     let err = text(&out.stderr);
-    assert!(!out.status.success() && out.stdout.is_empty());
+    assert!(out.status.code() == Some(1) && out.stdout.is_empty());
     assert!(err.contains("cannot be linked") && err.contains("panels"), "{err}");
 }
