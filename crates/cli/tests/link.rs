@@ -1,35 +1,10 @@
 //! `springline link` and `springline analyze --link`, run as the built binary: a link
 //! opens to the same analysis as its design file, and every bad link gives a clear
-//! message on standard error and a non-zero exit.
+//! message on standard error and exit code 1.
 
-use std::io::Write;
-use std::process::{Command, Output, Stdio};
+mod common;
 
-/// Runs the binary with `args`, feeding `stdin`.
-fn run(args: &[&str], stdin: &str) -> Output {
-    let mut child = Command::new(env!("CARGO_BIN_EXE_springline"))
-        .args(args)
-        .stdin(Stdio::piped())
-        .stdout(Stdio::piped())
-        .stderr(Stdio::piped())
-        .spawn()
-        .expect("the springline binary starts");
-    if let Some(mut input) = child.stdin.take() {
-        // a command that does not read stdin may close it early: not an error here
-        let _ = input.write_all(stdin.as_bytes());
-    }
-    child.wait_with_output().expect("the springline binary finishes")
-}
-
-fn text(bytes: &[u8]) -> String {
-    String::from_utf8_lossy(bytes).into_owned()
-}
-
-fn demo_json() -> String {
-    let out = run(&["demo"], "");
-    assert!(out.status.success());
-    text(&out.stdout)
-}
+use common::{demo_json, run, text};
 
 fn demo_link() -> String {
     let out = run(&["link", "-"], &demo_json());
@@ -37,7 +12,7 @@ fn demo_link() -> String {
     text(&out.stdout).trim().to_string()
 }
 
-/// A bad link: non-zero exit, nothing on stdout, the reason on stderr.
+/// A bad link: exit 1 (refused input), nothing on stdout, the reason on stderr.
 fn refused(link: &str) -> String {
     let out = run(&["analyze", "--link", link], "");
     let err = text(&out.stderr);
