@@ -32,6 +32,8 @@ pub struct Args {
     link: Option<String>,
 }
 
+/// Reads the design (file, standard input or permalink), analyses it and prints the
+/// analysis as pretty JSON. A refused design or link is exit 1, an unreadable file exit 3.
 pub fn run(args: Args) -> Result<(), Failure> {
     let design = match (args.design, args.link) {
         (_, Some(link)) => design_from_link(&link)?,

@@ -12,6 +12,7 @@ use springline_statics::Design;
 #[command(after_help = "Example:\n  springline demo > design.json")]
 pub struct Args {}
 
+/// Prints the demo design as pretty JSON on standard output.
 pub fn run(Args {}: Args) -> Result<(), Failure> {
     print_json(&demo_design())
 }

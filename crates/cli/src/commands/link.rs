@@ -22,6 +22,8 @@ pub struct Args {
     design: PathBuf,
 }
 
+/// Reads and validates a design and prints its permalink fragment (`#s1...`) as one
+/// line. A design that fails validation is refused (exit 1): its link would not open.
 pub fn run(args: Args) -> Result<(), Failure> {
     let design = read_design(&args.design)?;
     let fragment = link_of(&design).map_err(|e| {

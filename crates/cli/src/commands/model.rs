@@ -39,6 +39,8 @@ enum Which {
     BareRib,
 }
 
+/// Reads a design, finds its form and prints the chosen generated model in the neutral
+/// format. `--truss` on an unbraced design is refused (exit 1).
 pub fn run(args: Args) -> Result<(), Failure> {
     let which = match (args.truss, args.rib) {
         (true, _) => Which::Truss,

@@ -34,6 +34,8 @@ struct Output<'a> {
     solution: Solution,
 }
 
+/// Reads a neutral model, solves it and prints conventions, title, determinacy (all-bar
+/// models only) and the solution as pretty JSON. A mechanism is refused (exit 1).
 pub fn run(args: Args) -> Result<(), Failure> {
     let text = read_text(&args.model)?;
     let model = model_from_json(&text).map_err(|e| {
