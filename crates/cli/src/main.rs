@@ -1,44 +1,53 @@
-//! `springline`: the command-line front end. Each subcommand lives in its own file and
-//! only translates between files / terminal and the statics engine.
+//! `springline`: the command-line front end. Each subcommand lives in its own file under
+//! `commands/` and only translates between files / terminal and the statics engine.
 
 mod commands;
+mod failure;
 
+use clap::Parser;
+use failure::{EXIT_SUCCESS, EXIT_USAGE};
 use std::process::ExitCode;
 
-const USAGE: &str = "\
-springline: concept design of deck-arch bridges (results are for concept design only;
-local codes and a licensed engineer govern)
+/// Concept design of deck-arch bridges: form finding, analysis, models and permalinks.
+#[derive(Parser)]
+#[command(
+    name = "springline",
+    version,
+    about = "Concept design of deck-arch bridges: form finding, analysis, models and permalinks.\n\
+             Results are for concept design only; local codes and a licensed engineer govern.",
+    after_help = "\
+A path given as `-` reads standard input. Output is JSON (a link for `link`) on standard output;
+messages go to standard error as `springline: <message>`.
 
-usage:
-  springline demo                        print the demo design (JSON)
-  springline analyze DESIGN.json         form finding + dead-load analysis of a design (JSON)
-  springline analyze --link LINK         the same for the design in a permalink (URL or '#s1...', quoted)
-  springline link DESIGN.json            print the permalink fragment ('#s1...') of a design
-  springline model DESIGN.json [--truss|--rib]
-                                         export a generated model (frame by default) as neutral JSON
-  springline solve MODEL.json            solve a neutral analysis model, print results JSON
-  springline help                        this text
-";
+Exit codes:
+  0  success
+  1  the engine refused the input: an invalid design or model, a mechanism, an unreadable
+     link, or file content that is not a design or model
+  2  usage error: unknown command, missing, unknown or conflicting arguments
+  3  a file, standard input or standard output could not be read or written",
+    max_term_width = 100,
+    subcommand_required = true,
+    arg_required_else_help = true
+)]
+struct Cli {
+    #[command(subcommand)]
+    command: commands::Command,
+}
 
 fn main() -> ExitCode {
-    let args: Vec<String> = std::env::args().skip(1).collect();
-    let result = match args.first().map(String::as_str) {
-        Some("demo") => commands::demo::run(&args[1..]),
-        Some("analyze") => commands::analyze::run(&args[1..]),
-        Some("link") => commands::link::run(&args[1..]),
-        Some("model") => commands::model::run(&args[1..]),
-        Some("solve") => commands::solve::run(&args[1..]),
-        Some("help") | Some("--help") | Some("-h") | None => {
-            print!("{USAGE}");
-            Ok(())
-        }
-        Some(other) => Err(anyhow::anyhow!("unknown command '{other}'\n\n{USAGE}")),
-    };
-    match result {
-        Ok(()) => ExitCode::SUCCESS,
+    let cli = match Cli::try_parse() {
+        Ok(cli) => cli,
+        // help and version go to stdout and succeed; every other clap error is a usage error
         Err(e) => {
-            eprintln!("springline: {e:#}");
-            ExitCode::FAILURE
+            let _ = e.print();
+            return ExitCode::from(if e.use_stderr() { EXIT_USAGE } else { EXIT_SUCCESS });
+        }
+    };
+    match cli.command.run() {
+        Ok(()) => ExitCode::SUCCESS,
+        Err(failure) => {
+            eprintln!("springline: {failure}");
+            failure.exit_code()
         }
     }
 }

@@ -1,35 +1,10 @@
 //! `springline link` and `springline analyze --link`, run as the built binary: a link
 //! opens to the same analysis as its design file, and every bad link gives a clear
-//! message on standard error and a non-zero exit.
+//! message on standard error and exit code 1.
 
-use std::io::Write;
-use std::process::{Command, Output, Stdio};
+mod common;
 
-/// Runs the binary with `args`, feeding `stdin`.
-fn run(args: &[&str], stdin: &str) -> Output {
-    let mut child = Command::new(env!("CARGO_BIN_EXE_springline"))
-        .args(args)
-        .stdin(Stdio::piped())
-        .stdout(Stdio::piped())
-        .stderr(Stdio::piped())
-        .spawn()
-        .expect("the springline binary starts");
-    if let Some(mut input) = child.stdin.take() {
-        // a command that does not read stdin may close it early: not an error here
-        let _ = input.write_all(stdin.as_bytes());
-    }
-    child.wait_with_output().expect("the springline binary finishes")
-}
-
-fn text(bytes: &[u8]) -> String {
-    String::from_utf8_lossy(bytes).into_owned()
-}
-
-fn demo_json() -> String {
-    let out = run(&["demo"], "");
-    assert!(out.status.success());
-    text(&out.stdout)
-}
+use common::{demo_json, run, text};
 
 fn demo_link() -> String {
     let out = run(&["link", "-"], &demo_json());
@@ -37,11 +12,11 @@ fn demo_link() -> String {
     text(&out.stdout).trim().to_string()
 }
 
-/// A bad link: non-zero exit, nothing on stdout, the reason on stderr.
+/// A bad link: exit 1 (refused input), nothing on stdout, the reason on stderr.
 fn refused(link: &str) -> String {
     let out = run(&["analyze", "--link", link], "");
     let err = text(&out.stderr);
-    assert!(!out.status.success(), "'{link}' was accepted");
+    assert_eq!(out.status.code(), Some(1), "'{link}': {err}");
     assert!(out.stdout.is_empty(), "'{link}' printed {}", text(&out.stdout));
     assert!(err.starts_with("springline: cannot read link: "), "{err}");
     err
@@ -85,17 +60,18 @@ fn bad_links_fail_with_a_clear_message() {
 
 #[test]
 fn usage_errors_and_invalid_designs_fail() {
+    // usage errors are clap's (exit 2), worded by clap
     let out = run(&["analyze", "--link"], "");
-    assert!(!out.status.success());
-    assert!(text(&out.stderr).contains("usage: springline analyze"), "{}", text(&out.stderr));
+    assert_eq!(out.status.code(), Some(2));
+    assert!(text(&out.stderr).contains("a value is required for '--link <LINK>'"), "{}", text(&out.stderr));
     let out = run(&["link"], "");
-    assert!(!out.status.success());
-    assert!(text(&out.stderr).contains("usage: springline link"));
+    assert_eq!(out.status.code(), Some(2));
+    assert!(text(&out.stderr).contains("Usage: springline link"), "{}", text(&out.stderr));
     // a design with a defect is not linked (its link would not open)
     let bad = demo_json().replace("\"panels\": 12", "\"panels\": 1");
     assert_ne!(bad, demo_json());
     let out = run(&["link", "-"], &bad);
     let err = text(&out.stderr);
-    assert!(!out.status.success() && out.stdout.is_empty());
+    assert!(out.status.code() == Some(1) && out.stdout.is_empty());
     assert!(err.contains("cannot be linked") && err.contains("panels"), "{err}");
 }

@@ -1,4 +1,5 @@
-//! One file per subcommand.
+//! One file per subcommand, each with its arguments (clap derive) and its `run`; the
+//! helpers they share for reading input and printing JSON.
 
 pub mod analyze;
 pub mod demo;
@@ -6,8 +7,35 @@ pub mod link;
 pub mod model;
 pub mod solve;
 
-use anyhow::Context;
+use crate::failure::Failure;
+use anyhow::anyhow;
 use serde::Serialize;
+use springline_statics::Design;
+use std::io::{Read, Write};
+use std::path::Path;
+
+/// The subcommands of `springline`.
+#[derive(clap::Subcommand)]
+pub enum Command {
+    Demo(demo::Args),
+    Analyze(analyze::Args),
+    Link(link::Args),
+    Model(model::Args),
+    Solve(solve::Args),
+}
+
+impl Command {
+    /// Runs the chosen subcommand.
+    pub fn run(self) -> Result<(), Failure> {
+        match self {
+            Command::Demo(args) => demo::run(args),
+            Command::Analyze(args) => analyze::run(args),
+            Command::Link(args) => link::run(args),
+            Command::Model(args) => model::run(args),
+            Command::Solve(args) => solve::run(args),
+        }
+    }
+}
 
 /// Units and sign conventions, stated in every JSON the CLI prints.
 #[derive(Serialize)]
@@ -28,30 +56,66 @@ pub const CONVENTIONS: Conventions = Conventions {
     caution: "results are for concept design; local codes and a licensed engineer govern",
 };
 
-/// Reads a whole file as text, naming it in the error.
-pub fn read_text(path: &str) -> anyhow::Result<String> {
-    std::fs::read_to_string(path).with_context(|| format!("cannot read '{path}'"))
+/// Whether a path argument means standard input.
+fn is_stdin(path: &Path) -> bool {
+    path.as_os_str() == "-"
 }
 
-/// Prints a value as pretty JSON on standard output.
-/// A closed pipe (for example `| head`) is not an error.
-pub fn print_json<T: Serialize>(value: &T) -> anyhow::Result<()> {
-    use std::io::Write;
-    let text = serde_json::to_string_pretty(value)?;
-    match writeln!(std::io::stdout().lock(), "{text}") {
-        Err(e) if e.kind() == std::io::ErrorKind::BrokenPipe => Ok(()),
-        other => Ok(other?),
+/// How a path argument is named in messages: `standard input` for `-`, else the
+/// path in quotes.
+pub fn source_name(path: &Path) -> String {
+    if is_stdin(path) {
+        "standard input".to_string()
+    } else {
+        format!("'{}'", path.display())
     }
 }
 
-/// Reads a design JSON file (`-` for standard input).
-pub fn read_design(path: &str) -> anyhow::Result<springline_statics::Design> {
-    let text = if path == "-" {
-        let mut s = String::new();
-        std::io::Read::read_to_string(&mut std::io::stdin(), &mut s)?;
-        s
+/// Reads a whole file (`-`: standard input) as UTF-8 text.
+///
+/// A file that cannot be opened or read is an IO failure (exit 3) naming the path;
+/// bytes that are not UTF-8 are content the command cannot use (exit 1).
+pub fn read_text(path: &Path) -> Result<String, Failure> {
+    let name = source_name(path);
+    let bytes = if is_stdin(path) {
+        let mut bytes = Vec::new();
+        std::io::stdin()
+            .read_to_end(&mut bytes)
+            .map_err(|e| Failure::Io(anyhow!(e).context(format!("cannot read {name}"))))?;
+        bytes
     } else {
-        read_text(path)?
+        std::fs::read(path).map_err(|e| Failure::Io(anyhow!(e).context(format!("cannot read {name}"))))?
     };
-    serde_json::from_str(&text).with_context(|| format!("'{path}' is not a valid design file"))
+    String::from_utf8(bytes)
+        .map_err(|e| Failure::Refused(anyhow!(e).context(format!("{name} is not UTF-8 text"))))
+}
+
+/// Reads a design JSON file (`-`: standard input).
+pub fn read_design(path: &Path) -> Result<Design, Failure> {
+    let text = read_text(path)?;
+    design_from_json(&text)
+        .map_err(|e| Failure::Refused(e.context(format!("{} is not a valid design file", source_name(path)))))
+}
+
+/// The engine's reading of a design file's text. Kept in one place so that a reader
+/// with format migration can replace it.
+fn design_from_json(text: &str) -> anyhow::Result<Design> {
+    Ok(serde_json::from_str::<Design>(text)?)
+}
+
+/// Prints a value as pretty JSON on standard output.
+pub fn print_json<T: Serialize>(value: &T) -> Result<(), Failure> {
+    let text = serde_json::to_string_pretty(value)
+        .map_err(|e| Failure::Refused(anyhow!(e).context("the result cannot be written as JSON")))?;
+    print_line(&text)
+}
+
+/// Prints one line on standard output. A closed pipe (for example `| head`) is not an
+/// error; any other write failure is an IO failure (exit 3).
+pub fn print_line(text: &str) -> Result<(), Failure> {
+    let mut out = std::io::stdout().lock();
+    match writeln!(out, "{text}").and_then(|()| out.flush()) {
+        Err(e) if e.kind() == std::io::ErrorKind::BrokenPipe => Ok(()),
+        other => other.map_err(|e| Failure::Io(anyhow!(e).context("cannot write to standard output"))),
+    }
 }

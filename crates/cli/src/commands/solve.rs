@@ -1,9 +1,29 @@
 //! `springline solve MODEL.json`: solve a neutral analysis model.
 
-use super::{print_json, read_text, Conventions, CONVENTIONS};
-use anyhow::{bail, Context};
+use super::{print_json, read_text, source_name, Conventions, CONVENTIONS};
+use crate::failure::Failure;
 use serde::Serialize;
-use springline_statics::{solve, truss_determinacy, DeterminacyReport, MemberKind, Model, Solution};
+use springline_statics::{
+    solve, truss_determinacy, DeterminacyReport, MemberKind, Model, Solution, StaticsError,
+};
+use std::path::PathBuf;
+
+/// Solve a model in the neutral model format (JSON).
+///
+/// Prints, per load case, displacements, member forces, reactions and the equilibrium
+/// check made independently of the solve; for models whose members are all pin-ended,
+/// also the degree of static indeterminacy. A mechanism is refused, naming a node that
+/// moves.
+#[derive(clap::Args)]
+#[command(after_help = "\
+Examples:
+  springline solve frame.json
+  springline model design.json | springline solve -")]
+pub struct Args {
+    /// The model file (JSON, the neutral model format); `-` reads standard input.
+    #[arg(value_name = "MODEL.json")]
+    model: PathBuf,
+}
 
 #[derive(Serialize)]
 struct Output<'a> {
@@ -14,14 +34,29 @@ struct Output<'a> {
     solution: Solution,
 }
 
-pub fn run(args: &[String]) -> anyhow::Result<()> {
-    let [path] = args else { bail!("usage: springline solve MODEL.json") };
-    let text = read_text(path)?;
-    let model: Model =
-        serde_json::from_str(&text).with_context(|| format!("'{path}' is not a valid model file"))?;
+/// Reads a neutral model, solves it and prints conventions, title, determinacy (all-bar
+/// models only) and the solution as pretty JSON. A mechanism is refused (exit 1).
+pub fn run(args: Args) -> Result<(), Failure> {
+    let text = read_text(&args.model)?;
+    let model = model_from_json(&text).map_err(|e| {
+        Failure::Refused(
+            anyhow::Error::new(e).context(format!("{} is not a valid model file", source_name(&args.model))),
+        )
+    })?;
+    let (determinacy, solution) = solution_of(&model)?;
+    print_json(&Output { conventions: CONVENTIONS, title: &model.title, determinacy, solution })
+}
+
+/// The engine's reading of a neutral model file.
+fn model_from_json(text: &str) -> serde_json::Result<Model> {
+    serde_json::from_str::<Model>(text)
+}
+
+/// The engine's solution of a model, with its degree of static indeterminacy when every
+/// member is pin-ended.
+fn solution_of(model: &Model) -> Result<(Option<DeterminacyReport>, Solution), StaticsError> {
     let all_pinned =
         model.members.iter().all(|m| m.kind == MemberKind::Truss || (m.release_start && m.release_end));
-    let determinacy = if all_pinned { Some(truss_determinacy(&model)?) } else { None };
-    let solution = solve(&model)?;
-    print_json(&Output { conventions: CONVENTIONS, title: &model.title, determinacy, solution })
+    let determinacy = if all_pinned { Some(truss_determinacy(model)?) } else { None };
+    Ok((determinacy, solve(model)?))
 }

@@ -1,0 +1,261 @@
+//! Every subcommand run as the built binary: help, usage errors and the exit codes that
+//! `springline --help` documents (0 success, 1 refused input, 2 usage, 3 IO), and
+//! standard input as `-`. The expected codes and texts are this tool's own contract
+//! (README, "Command-line tool"); clap's wording is checked only where a test needs it.
+
+mod common;
+
+use common::{demo_json, empty_dir, run, run_in, run_with, text};
+use std::process::{Command, Output};
+
+/// A usage error: exit 2, nothing on stdout, clap's message on stderr (returned).
+fn usage_error(args: &[&str]) -> String {
+    let out = run(args, "");
+    let err = text(&out.stderr);
+    assert_eq!(out.status.code(), Some(2), "{args:?}: {err}");
+    assert!(out.stdout.is_empty(), "{args:?} printed {}", text(&out.stdout));
+    assert!(err.starts_with("error: "), "{args:?}: {err}");
+    err
+}
+
+/// A failed run with the given exit code, nothing on stdout and `springline: ...` on
+/// stderr (returned).
+fn failed(out: &Output, code: i32) -> String {
+    let err = text(&out.stderr);
+    assert_eq!(out.status.code(), Some(code), "{err}");
+    assert!(out.stdout.is_empty(), "printed {}", text(&out.stdout));
+    assert!(err.starts_with("springline: "), "{err}");
+    err
+}
+
+/// Names of the entries of a directory, sorted.
+fn listing(dir: &std::path::Path) -> Vec<String> {
+    let mut names: Vec<String> = std::fs::read_dir(dir)
+        .expect("the directory can be listed")
+        .map(|entry| entry.expect("a directory entry").file_name().to_string_lossy().into_owned())
+        .collect();
+    names.sort();
+    names
+}
+
+/// Regression: `springline analyze --help` used to read a file named `--help`. Now it
+/// prints the help and exits 0, even with such a file in the working directory, and
+/// touches no file.
+#[test]
+fn analyze_help_prints_help_and_reads_no_file() {
+    let dir = empty_dir("analyze_help");
+    std::fs::write(dir.join("--help"), "not a design").expect("write");
+    let out = run_in(&dir, &["analyze", "--help"]);
+    let help = text(&out.stdout);
+    assert_eq!(out.status.code(), Some(0), "{}", text(&out.stderr));
+    assert!(out.stderr.is_empty(), "{}", text(&out.stderr));
+    assert!(help.contains("Usage: springline analyze <DESIGN.json|--link <LINK>>"), "{help}");
+    assert!(help.contains("`-` reads standard input"), "{help}");
+    assert!(help.contains("springline demo | springline analyze -"), "{help}");
+    assert_eq!(listing(&dir), ["--help"]);
+    assert_eq!(std::fs::read_to_string(dir.join("--help")).expect("read"), "not a design");
+}
+
+/// Every subcommand has a one-line description, its arguments and an example in its
+/// own help, with `-h` as with `--help`, and `springline help CMD` says the same.
+#[test]
+fn every_subcommand_has_its_own_help() {
+    let cases: [(&str, &str, &str); 5] = [
+        ("demo", "Print the demo design as JSON", "springline demo > design.json"),
+        ("analyze", "Analyse a design", "springline analyze design.json"),
+        ("link", "Print the permalink fragment of a design", "springline link design.json"),
+        ("model", "Export a generated model", "springline model --truss design.json"),
+        ("solve", "Solve a model in the neutral model format", "springline solve frame.json"),
+    ];
+    for (command, description, example) in cases {
+        for flag in ["--help", "-h"] {
+            let out = run(&[command, flag], "");
+            let help = text(&out.stdout);
+            assert_eq!(out.status.code(), Some(0), "{command} {flag}");
+            assert!(help.starts_with(description), "{command} {flag}: {help}");
+            assert!(help.contains(&format!("Usage: springline {command}")), "{command} {flag}: {help}");
+            assert!(help.contains(example), "{command} {flag}: {help}");
+        }
+        let out = run(&["help", command], "");
+        assert_eq!(out.status.code(), Some(0));
+        assert!(text(&out.stdout).contains(example), "help {command}");
+    }
+}
+
+/// The top-level help names every subcommand and carries the caution and the exit
+/// codes.
+#[test]
+fn top_level_help_has_the_caution_and_the_exit_codes() {
+    let out = run(&["--help"], "");
+    let help = text(&out.stdout);
+    assert_eq!(out.status.code(), Some(0));
+    assert!(
+        help.contains("Results are for concept design only; local codes and a licensed engineer govern."),
+        "{help}"
+    );
+    for command in ["demo", "analyze", "link", "model", "solve"] {
+        assert!(help.contains(&format!("\n  {command} ")), "{command}: {help}");
+    }
+    for code in ["0  success", "1  the engine refused the input", "2  usage error", "3  a file"] {
+        assert!(help.contains(code), "{code}: {help}");
+    }
+}
+
+/// No subcommand, or an unknown one, is a usage error.
+#[test]
+fn missing_or_unknown_subcommand_is_a_usage_error() {
+    let out = run(&[], "");
+    assert_eq!(out.status.code(), Some(2));
+    assert!(text(&out.stderr).contains("Usage: springline <COMMAND>"), "{}", text(&out.stderr));
+    assert!(usage_error(&["analyse"]).contains("unrecognized subcommand 'analyse'"));
+    assert!(usage_error(&["demo", "extra"]).contains("unexpected argument 'extra'"));
+}
+
+/// Regression: `model --rib --truss` used to read `--rib` as the design path. Now the
+/// two flags conflict: exit 2, naming both, before any file is read.
+#[test]
+fn model_truss_and_rib_conflict() {
+    let dir = empty_dir("model_conflict");
+    // the old reading would have opened this file as the design and succeeded
+    std::fs::write(dir.join("--rib"), demo_json()).expect("write");
+    for args in [
+        &["model", "--rib", "--truss", "d.json"][..],
+        &["model", "--rib", "--truss"],
+        &["model", "d.json", "--truss", "--rib"],
+    ] {
+        let out = run_in(&dir, args);
+        let err = text(&out.stderr);
+        assert_eq!(out.status.code(), Some(2), "{args:?}: {err}");
+        assert!(out.stdout.is_empty(), "{args:?}");
+        assert!(err.contains("cannot be used with"), "{args:?}: {err}");
+        assert!(err.contains("'--rib'") && err.contains("'--truss'"), "{args:?}: {err}");
+    }
+}
+
+/// `analyze` takes exactly one of a design path and `--link`.
+#[test]
+fn analyze_takes_a_path_or_a_link_not_both() {
+    let both = usage_error(&["analyze", "d.json", "--link", "#s1.AAAA"]);
+    assert!(both.contains("'[DESIGN.json]' cannot be used with '--link <LINK>'"), "{both}");
+    let neither = usage_error(&["analyze"]);
+    assert!(neither.contains("required arguments were not provided"), "{neither}");
+    assert!(neither.contains("<DESIGN.json|--link <LINK>>"), "{neither}");
+    usage_error(&["analyze", "a.json", "b.json"]);
+}
+
+/// A file that cannot be read is exit 3, naming the path, for every command that reads
+/// one.
+#[test]
+fn missing_file_is_an_io_error_naming_the_path() {
+    let dir = empty_dir("missing_file");
+    let missing = dir.join("no-such-design.json");
+    let path = missing.to_str().expect("a UTF-8 scratch path");
+    for command in ["analyze", "link", "model", "solve"] {
+        let err = failed(&run(&[command, path], ""), 3);
+        assert!(err.contains(&format!("cannot read '{path}'")), "{command}: {err}");
+    }
+    // a directory is not a readable file either
+    let dir_path = dir.to_str().expect("a UTF-8 scratch path");
+    let err = failed(&run(&["analyze", dir_path], ""), 3);
+    assert!(err.contains(dir_path), "{err}");
+}
+
+/// Output that cannot be written is exit 3 (`/dev/full` refuses every write).
+#[cfg(target_os = "linux")]
+#[test]
+fn unwritable_output_is_an_io_error() {
+    let full = std::fs::File::create("/dev/full").expect("/dev/full opens");
+    let out = run_with(Command::new(env!("CARGO_BIN_EXE_springline")).arg("demo").stdout(full), "");
+    let err = text(&out.stderr);
+    assert_eq!(out.status.code(), Some(3), "{err}");
+    assert!(err.starts_with("springline: cannot write to standard output"), "{err}");
+}
+
+/// Content the engine cannot use is exit 1: not JSON, JSON that is not a design, not
+/// UTF-8, a design that fails validation, a model that is a mechanism.
+#[test]
+fn refused_input_is_exit_1() {
+    let dir = empty_dir("refused_input");
+    let not_a_design = dir.join("not-a-design.json");
+    std::fs::write(&not_a_design, r#"{"bridge": "not a design"}"#).expect("write");
+    let path = not_a_design.to_str().expect("a UTF-8 scratch path");
+    for command in ["analyze", "link", "model"] {
+        let err = failed(&run(&[command, path], ""), 1);
+        assert!(err.contains(&format!("'{path}' is not a valid design file")), "{command}: {err}");
+    }
+    let err = failed(&run(&["solve", path], ""), 1);
+    assert!(err.contains(&format!("'{path}' is not a valid model file")), "{err}");
+
+    let err = failed(&run(&["analyze", "-"], "not JSON"), 1);
+    assert!(err.contains("standard input is not a valid design file"), "{err}");
+    let not_utf8 = dir.join("latin1.json");
+    std::fs::write(&not_utf8, b"{\"name\": \"Tarnvale \xe9\"}").expect("write");
+    let err = failed(&run(&["analyze", not_utf8.to_str().expect("UTF-8 path")], ""), 1);
+    assert!(err.contains("is not UTF-8 text"), "{err}");
+
+    // one panel is fewer than the engine accepts: it says which field
+    let one_panel = demo_json().replace("\"panels\": 12", "\"panels\": 1");
+    assert_ne!(one_panel, demo_json());
+    for command in ["analyze", "model"] {
+        let err = failed(&run(&[command, "-"], &one_panel), 1);
+        assert!(err.contains("panels"), "{command}: {err}");
+    }
+
+    // a bar pinned at one end only: node B swings freely (a mechanism)
+    let loose_bar = r#"{"title": "loose bar",
+        "nodes": [{"name": "A", "x": 0, "y": 0}, {"name": "B", "x": 4, "y": 0}],
+        "members": [{"name": "AB", "kind": "truss", "start": 0, "end": 1, "e": 2.1e8, "a": 0.01}],
+        "supports": [{"node": 0, "x": true, "y": true}],
+        "load_cases": [{"name": "dead", "nodal": [{"node": 1, "fx": 0, "fy": -10, "mz": 0}]}]}"#;
+    let err = failed(&run(&["solve", "-"], loose_bar), 1);
+    assert!(err.contains("mechanism") && err.contains("node B"), "{err}");
+}
+
+/// An unbraced design has no truss idealisation: `model --truss` refuses it (exit 1).
+#[test]
+fn truss_of_an_unbraced_design_is_refused() {
+    let braced = "\"bracing\": {\n    \"kind\": \"single\",\n    \"flipped\": false\n  }";
+    assert!(demo_json().contains(braced), "the demo is braced with single diagonals");
+    let unbraced = demo_json().replace(braced, "\"bracing\": {\"kind\": \"none\"}");
+    let err = failed(&run(&["model", "--truss", "-"], &unbraced), 1);
+    assert!(err.contains("no truss idealisation"), "{err}");
+    let out = run(&["model", "-"], &unbraced);
+    assert_eq!(out.status.code(), Some(0), "{}", text(&out.stderr));
+}
+
+/// `-` reads standard input: `demo | analyze -` and `demo | model - | solve -` work and
+/// agree with each other.
+#[test]
+fn standard_input_pipelines_work() {
+    let analysis = run(&["analyze", "-"], &demo_json());
+    assert_eq!(analysis.status.code(), Some(0), "{}", text(&analysis.stderr));
+    let analysis: serde_json::Value = serde_json::from_slice(&analysis.stdout).expect("analysis JSON");
+    let thrust = analysis["form"]["thrust"].as_f64().expect("form.thrust");
+    assert!(thrust > 0.0, "{thrust}");
+
+    for (flag, pinned) in [("--truss", true), ("--rib", false), ("", false)] {
+        let args: Vec<&str> = ["model", "-"].into_iter().chain((!flag.is_empty()).then_some(flag)).collect();
+        let model = run(&args, &demo_json());
+        assert_eq!(model.status.code(), Some(0), "{flag}: {}", text(&model.stderr));
+        let solved = run(&["solve", "-"], &text(&model.stdout));
+        assert_eq!(solved.status.code(), Some(0), "{flag}: {}", text(&solved.stderr));
+        let solved: serde_json::Value = serde_json::from_slice(&solved.stdout).expect("solution JSON");
+        assert_eq!(solved["determinacy"].is_object(), pinned, "{flag}: determinacy only for all-bar models");
+        assert!(solved["conventions"]["caution"].as_str().is_some_and(|c| c.contains("licensed engineer")));
+    }
+}
+
+/// A closed pipe (`springline analyze - | head -1`) is not an error.
+#[test]
+fn closed_output_pipe_is_not_an_error() {
+    let mut child = Command::new(env!("CARGO_BIN_EXE_springline"))
+        .arg("demo")
+        .stdout(std::process::Stdio::piped())
+        .stderr(std::process::Stdio::piped())
+        .spawn()
+        .expect("the springline binary starts");
+    // close the reading end before the binary writes
+    drop(child.stdout.take());
+    let out = child.wait_with_output().expect("the springline binary finishes");
+    assert_eq!(out.status.code(), Some(0), "{}", text(&out.stderr));
+}
