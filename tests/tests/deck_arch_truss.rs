@@ -7,9 +7,9 @@
 use proptest::prelude::*;
 use springline_statics::arch::analysis::bracing_ratio;
 use springline_statics::arch::design::{Bracing, Crown, Design, GroundPoint, RibSystem};
-use springline_statics::arch::form::find_form;
 use springline_statics::{
-    analyze, frame_model, solve, truss_determinacy, truss_model, Determinacy, Model, Solution,
+    analyze, frame_model, solve, truss_determinacy, truss_model, Determinacy, Generated, MemberRole, Model,
+    Solution, ValidDesign,
 };
 
 /// The demo valley and deck with the given panel count, system and bracing.
@@ -22,11 +22,14 @@ fn demo_with(panels: usize, system: RibSystem, bracing: Bracing) -> Design {
     d
 }
 
-fn truss_of(d: &Design) -> (Model, Solution) {
-    let form = find_form(d).expect("form");
-    let model = truss_model(d, &form).expect("truss");
-    let sol = solve(&model).expect("solves");
-    (model, sol)
+fn valid(d: &Design) -> ValidDesign {
+    ValidDesign::new(d).expect("valid design")
+}
+
+fn truss_of(d: &Design) -> (Generated, Solution) {
+    let truss = truss_model(&valid(d)).expect("braced");
+    let sol = solve(&truss.model).expect("solves");
+    (truss, sol)
 }
 
 #[test]
@@ -38,8 +41,7 @@ fn three_hinged_braced_truss_is_determinate_for_4_to_40_panels() {
     for flipped in [false, true] {
         for n in 4..=40 {
             let d = demo_with(n, RibSystem::ThreeHinged, Bracing::Single { flipped });
-            let form = find_form(&d).expect("form");
-            let model = truss_model(&d, &form).expect("truss");
+            let model = truss_model(&valid(&d)).expect("braced").model;
             assert!(model.title.contains("truss idealisation"));
             let rep = truss_determinacy(&model).expect("valid model");
             assert_eq!(
@@ -69,8 +71,8 @@ fn bracing_carries_nothing_on_the_dead_load_funicular() {
                     s.unit_weight = 0.0;
                 }
             }
-            let (model, sol) = truss_of(&d);
-            let ratio = bracing_ratio(&model, &sol).expect("has bracing");
+            let (truss, sol) = truss_of(&d);
+            let ratio = bracing_ratio(&truss.map, &sol).expect("has bracing");
             assert!(ratio < 1e-9, "{n} panels, weightless {weightless}: bracing / largest = {ratio:.3e}");
             assert!(sol.cases[0].equilibrium.relative < 1e-9);
         }
@@ -83,13 +85,12 @@ fn a_heavier_panel_loads_the_bracing() {
     // (here one panel load doubled) is carried partly by the bracing.
     for n in [6, 9, 16] {
         let d = demo_with(n, RibSystem::ThreeHinged, Bracing::Single { flipped: false });
-        let form = find_form(&d).expect("form");
-        let mut model = truss_model(&d, &form).expect("truss");
-        let node = model.nodes.iter().position(|p| p.name == "d2").expect("deck node d2");
-        let load = model.load_cases[0].nodal.iter_mut().find(|l| l.node == node).expect("d2 is loaded");
+        let mut truss = truss_model(&valid(&d)).expect("braced");
+        let node = truss.map.deck_nodes[2].expect("deck node over panel point 2");
+        let load = truss.model.load_cases[0].nodal.iter_mut().find(|l| l.node == node).expect("d2 is loaded");
         load.fy *= 2.0;
-        let sol = solve(&model).expect("solves");
-        let ratio = bracing_ratio(&model, &sol).expect("has bracing");
+        let sol = solve(&truss.model).expect("solves");
+        let ratio = bracing_ratio(&truss.map, &sol).expect("has bracing");
         assert!(ratio > 1e-3, "{n} panels: bracing / largest = {ratio:.3e}");
     }
 }
@@ -106,13 +107,13 @@ fn two_hinged_braced_bracing_forces_fall_as_rib_and_post_ea_grow() {
             d.crown = Crown::Level { level: 96.0 }; // a crown post of 4 m: deck runs over it
             d.groups.rib.e *= k;
             d.groups.posts.e *= k;
-            let form = find_form(&d).expect("form");
-            assert!(!form.rib[form.crown_node].shared_with_deck);
-            let model = truss_model(&d, &form).expect("truss");
-            let rep = truss_determinacy(&model).expect("valid");
+            let v = valid(&d);
+            assert!(!v.form().rib[v.form().crown_node].shared_with_deck);
+            let truss = truss_model(&v).expect("braced");
+            let rep = truss_determinacy(&truss.model).expect("valid");
             assert!(matches!(rep.determinacy, Determinacy::Indeterminate { .. }), "{}", rep.describe());
-            let sol = solve(&model).expect("solves");
-            ratios.push(bracing_ratio(&model, &sol).expect("bracing"));
+            let sol = solve(&truss.model).expect("solves");
+            ratios.push(bracing_ratio(&truss.map, &sol).expect("bracing"));
         }
         assert!(ratios[0] > 1e-6, "{n} panels: not zero: {ratios:?}");
         assert!(ratios[1] < 0.5 * ratios[0] && ratios[2] < 0.5 * ratios[1], "{n} panels: {ratios:?}");
@@ -126,13 +127,11 @@ fn two_hinged_braced_bracing_forces_fall_as_rib_and_post_ea_grow() {
 #[test]
 fn crossed_pairs_are_indeterminate_and_unbraced_has_no_truss() {
     let d = demo_with(10, RibSystem::ThreeHinged, Bracing::Crossed);
-    let form = find_form(&d).expect("form");
-    let rep = truss_determinacy(&truss_model(&d, &form).expect("truss")).expect("valid");
+    let rep = truss_determinacy(&truss_model(&valid(&d)).expect("braced").model).expect("valid");
     // one extra diagonal in each of the 8 ordinary panels: indeterminate by 8 (count)
     assert_eq!(rep.determinacy, Determinacy::Indeterminate { degree: 8 });
     let d = demo_with(10, RibSystem::ThreeHinged, Bracing::None);
-    let form = find_form(&d).expect("form");
-    assert!(truss_model(&d, &form).is_err());
+    assert!(truss_model(&valid(&d)).is_none());
     assert!(analyze(&d).expect("analyses").truss.is_none());
 }
 
@@ -143,8 +142,8 @@ fn demo_analysis_names_its_models_and_balances() {
     assert!(a.bare_rib.model.title.contains("bare rib"));
     let t = a.truss.as_ref().expect("demo is braced");
     assert_eq!(t.determinacy.determinacy, Determinacy::Determinate);
-    for g in ["rib", "deck", "post", "pier", "bracing", "approach"] {
-        assert!(a.frame.model.members.iter().any(|m| m.group == g), "group {g} missing");
+    for role in MemberRole::ALL {
+        assert!(a.frame.map.members_with(role).next().is_some(), "role {role} missing");
     }
     for s in [&a.frame.solution, &a.bare_rib.solution] {
         assert!(s.cases[0].equilibrium.relative < 1e-9);
@@ -155,20 +154,20 @@ fn demo_analysis_names_its_models_and_balances() {
     let sum_r: f64 = a.frame.solution.cases[0].reactions.iter().map(|r| r.fy).sum();
     let deck = d.deck_line_load() * (d.deck.right_seat_x - d.deck.left_seat_x);
     let mut self_weight = 0.0;
-    for (k, m) in a.frame.model.members.iter().enumerate() {
-        let s = match m.group.as_str() {
-            "rib" => &d.groups.rib,
-            "post" => &d.groups.posts,
-            "pier" => &d.groups.piers,
-            "bracing" => &d.groups.bracing,
-            _ => continue,
+    for (k, role) in a.frame.map.roles.iter().enumerate() {
+        let s = match role {
+            MemberRole::Rib => &d.groups.rib,
+            MemberRole::Post => &d.groups.posts,
+            MemberRole::Pier => &d.groups.piers,
+            MemberRole::Bracing => &d.groups.bracing,
+            MemberRole::Deck | MemberRole::Approach => continue,
         };
         self_weight += d.weight_per_m(s) * a.frame.model.member_length(k);
     }
     assert!((sum_r - deck - self_weight).abs() < 1e-9 * sum_r, "{sum_r} vs {}", deck + self_weight);
     // deck and approach members run left to right, each with positive length
-    for (k, m) in a.frame.model.members.iter().enumerate() {
-        if m.group == "deck" || m.group == "approach" || m.group == "rib" {
+    for (k, (m, role)) in a.frame.model.members.iter().zip(&a.frame.map.roles).enumerate() {
+        if matches!(role, MemberRole::Deck | MemberRole::Approach | MemberRole::Rib) {
             assert!(
                 a.frame.model.nodes[m.end].x > a.frame.model.nodes[m.start].x,
                 "{}",
@@ -337,7 +336,7 @@ proptest! {
         // validation refuses that, and this property is about valid designs
         prop_assume!(springline_statics::validate_design(&d).is_ok());
         let a = analyze(&d).expect("a valid design analyses");
-        prop_assert!(!a.restraint.left_seat_fixed || a.restraint.right_seat_fixed, "{}", a.restraint.description);
+        prop_assert!(!a.restraint.left_seat_fixed || a.restraint.right_seat_fixed, "{}", a.restraint.held_by);
         assert_mirror_symmetric(&a.frame.model, &a.frame.solution, 0.5 * span);
         assert_mirror_symmetric(&a.bare_rib.model, &a.bare_rib.solution, 0.5 * span);
     }
@@ -354,10 +353,19 @@ fn frame_model_of_demo_is_not_a_mechanism_for_any_option() {
         ] {
             for n in [2, 3, 4, 7, 12] {
                 let d = demo_with(n, system, bracing);
-                let form = find_form(&d).expect("form");
-                let model = frame_model(&d, &form).expect("model");
-                let sol = solve(&model);
-                assert!(sol.is_ok(), "{system:?} {bracing:?} {n}: {:?}", sol.err());
+                let model = frame_model(&valid(&d)).model;
+                let sol = solve(&model).unwrap_or_else(|e| panic!("{system:?} {bracing:?} {n}: {e}"));
+                // the solution balances node by node and overall (the solver's independent
+                // check), and the reactions carry every applied load
+                let case = &sol.cases[0];
+                assert!(
+                    case.equilibrium.relative < 1e-9,
+                    "{system:?} {bracing:?} {n}: {:?}",
+                    case.equilibrium
+                );
+                let reactions: f64 = case.reactions.iter().map(|r| r.fy).sum();
+                let applied = springline_tests::total_vertical_load(&model, 0);
+                assert!((reactions + applied).abs() < 1e-9 * reactions.abs(), "{reactions} vs {applied}");
             }
         }
     }

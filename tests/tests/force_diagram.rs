@@ -7,17 +7,16 @@
 //! - the three-point construction (statics of the loads alone) against the stiffness
 //!   solution of the same three-hinged rib or determinate truss;
 //! - closed forms for three-hinged arches (Timoshenko & Young, Theory of Structures,
-//!   ch. 9, as collected in shared/REFERENCES.md; from memory).
+//!   ch. 9; from memory).
 
 use proptest::prelude::*;
 use springline_statics::arch::cases::{doubled_panel, half_span, standard_cases, CaseSpec, Half};
 use springline_statics::arch::design::{Bracing, Crown, Design, RibSystem};
-use springline_statics::arch::form::{find_form, Form};
 use springline_statics::graphic::funicular::FunicularMethod;
 use springline_statics::{
     add_cases, analyze, bare_rib_model, force_diagram, frame, rib_funicular, solve, truss_determinacy,
-    truss_model, AxialSense, CaseResult, Determinacy, ForceDiagram, LoadCase, Model, NodalLoad, SegmentOf,
-    SpaceKind, Support,
+    truss_model, AxialSense, CaseResult, Determinacy, ForceDiagram, Generated, LoadCase, MemberRole, Model,
+    NodalLoad, SegmentOf, SpaceKind, Support, ValidDesign,
 };
 
 /// Tolerance of the figure against the solver, as a fraction of the largest force: the
@@ -36,22 +35,22 @@ fn design(panels: usize, system: RibSystem, bracing: Bracing, springings: (f64, 
 }
 
 /// The design's truss idealisation with dead, half-span and doubled-panel cases.
-fn truss_with_cases(d: &Design) -> (Form, Model) {
-    let form = find_form(d).expect("form");
-    let mut model = truss_model(d, &form).expect("truss");
+fn truss_with_cases(d: &Design) -> Generated {
+    let v = ValidDesign::new(d).expect("valid");
+    let mut truss = truss_model(&v).expect("braced");
     let specs = vec![
-        half_span(d, Half::Left, 5.0).expect("half"),
-        half_span(d, Half::Right, 3.0).expect("half right"),
-        doubled_panel(d, (d.panels / 3).max(1)).expect("doubled"),
-        CaseSpec { with_dead: false, ..half_span(d, Half::Left, 5.0).expect("half") },
+        half_span(&v, Half::Left, 5.0).expect("half"),
+        half_span(&v, Half::Right, 3.0).expect("half right"),
+        doubled_panel(&v, (d.panels / 3).max(1)).expect("doubled"),
+        CaseSpec { with_dead: false, ..half_span(&v, Half::Left, 5.0).expect("half") },
     ];
     let specs: Vec<CaseSpec> = specs
         .into_iter()
         .enumerate()
         .map(|(k, s)| CaseSpec { name: format!("{} #{k}", s.name), ..s })
         .collect();
-    add_cases(d, &form, &mut model, &specs).expect("cases");
-    (form, model)
+    add_cases(&v, &mut truss, &specs).expect("cases");
+    truss
 }
 
 /// Checks one figure against the solver's results for the same model and case: every
@@ -144,7 +143,7 @@ fn figure_equals_solver_forces_on_determinate_three_hinged_trusses() {
     for (i, n) in [5, 6, 7, 8, 9, 12, 15, 20, 25, 31, 40].into_iter().enumerate() {
         let springings = [(76.0, 80.0), (78.0, 78.0), (72.0, 86.0)][i % 3];
         let d = design(n, RibSystem::ThreeHinged, Bracing::Single { flipped: i % 2 == 1 }, springings);
-        let (_, model) = truss_with_cases(&d);
+        let Generated { model, map, .. } = truss_with_cases(&d);
         assert_eq!(truss_determinacy(&model).expect("valid").determinacy, Determinacy::Determinate);
         let sol = solve(&model).expect("solves");
         for case in &sol.cases {
@@ -153,21 +152,16 @@ fn figure_equals_solver_forces_on_determinate_three_hinged_trusses() {
             worst = worst.max(check_figure(&model, case, &fd));
         }
         // dead load on the funicular of the determinate layout: bracing carries nothing
-        // (REFERENCES.md, "Braced spandrels"), so its segments are points
+        // (a determinate truss carries the funicular load in its chords alone), so its
+        // segments are points
         let dead = force_diagram(&model, &sol.cases[0]).expect("dead figure");
-        for (k, m) in model.members.iter().enumerate() {
-            if m.group == "bracing" {
-                assert!(dead.zero_force_members.contains(&k), "{n} panels: brace {k}");
-                assert!(dead.member_segments(k).all(|s| s.zero && s.sense == Some(AxialSense::Zero)));
-            }
+        for k in map.members_with(MemberRole::Bracing) {
+            assert!(dead.zero_force_members.contains(&k), "{n} panels: brace {k}");
+            assert!(dead.member_segments(k).all(|s| s.zero && s.sense == Some(AxialSense::Zero)));
         }
         // under the half-span load the bracing works
         let half = force_diagram(&model, &sol.cases[1]).expect("half figure");
-        assert!(model
-            .members
-            .iter()
-            .enumerate()
-            .any(|(k, m)| m.group == "bracing" && !half.zero_force_members.contains(&k)));
+        assert!(map.members_with(MemberRole::Bracing).any(|k| !half.zero_force_members.contains(&k)));
     }
     println!("largest figure error over largest force: {worst:.2e}");
 }
@@ -183,7 +177,7 @@ fn crossed_bracing_is_drawn_with_pass_through_nodes_and_still_exact() {
         (11, RibSystem::Fixed),
     ] {
         let d = design(n, system, Bracing::Crossed, (76.0, 80.0));
-        let (_, model) = truss_with_cases(&d);
+        let Generated { model, .. } = truss_with_cases(&d);
         assert!(matches!(
             truss_determinacy(&model).expect("valid").determinacy,
             Determinacy::Indeterminate { .. }
@@ -321,37 +315,28 @@ fn check_pole(model: &Model, case: &CaseResult, left: usize, right: usize, crown
     assert_eq!(f.construction.rays.len(), f.loads.len() + 1);
 }
 
-fn node_at(model: &Model, x: f64, y: f64) -> usize {
-    model.nodes.iter().position(|n| (n.x - x).abs() < 1e-9 && (n.y - y).abs() < 1e-9).expect("node")
-}
-
 #[test]
 fn pole_construction_equals_stiffness_solution_of_three_hinged_ribs_and_trusses() {
     for (i, n) in [4, 5, 8, 11, 16, 23, 40].into_iter().enumerate() {
         let springings = [(76.0, 80.0), (72.0, 86.0), (78.0, 78.0)][i % 3];
         let d = design(n, RibSystem::ThreeHinged, Bracing::Single { flipped: false }, springings);
-        let form = find_form(&d).expect("form");
-        let specs = standard_cases(&d).expect("specs");
-        let (a, b, c) = (form.springing_left, form.springing_right, form.crown);
+        let v = ValidDesign::new(&d).expect("valid");
+        let specs = standard_cases(&v);
         // the bare three-hinged rib
-        let mut rib = bare_rib_model(&d, &form).expect("rib");
-        add_cases(&d, &form, &mut rib, &specs).expect("cases");
-        let sol = solve(&rib).expect("rib solves");
+        let mut rib = bare_rib_model(&v);
+        add_cases(&v, &mut rib, &specs).expect("cases");
+        let sol = solve(&rib.model).expect("rib solves");
+        let [left, right] = rib.map.springings;
         for case in &sol.cases {
-            check_pole(&rib, case, node_at(&rib, a.x, a.y), node_at(&rib, b.x, b.y), node_at(&rib, c.x, c.y));
+            check_pole(&rib.model, case, left, right, rib.map.crown);
         }
         // the determinate truss idealisation: two rigid halves hinged at the crown rib
         // node, so the same construction with all its joint loads holds
-        let (_, truss) = truss_with_cases(&d);
-        let sol = solve(&truss).expect("truss solves");
+        let truss = truss_with_cases(&d);
+        let sol = solve(&truss.model).expect("truss solves");
+        let [left, right] = truss.map.springings;
         for case in &sol.cases {
-            check_pole(
-                &truss,
-                case,
-                node_at(&truss, a.x, a.y),
-                node_at(&truss, b.x, b.y),
-                node_at(&truss, c.x, c.y),
-            );
+            check_pole(&truss.model, case, left, right, truss.map.crown);
         }
     }
 }
@@ -433,7 +418,7 @@ fn analysis_reports_every_figure_per_load_case() {
     assert!(a
         .load_cases
         .iter()
-        .all(|c| c.force_diagram.is_none() && c.notes.iter().any(|n| n.contains("not braced"))));
+        .all(|c| c.force_diagram.is_none() && c.notes.iter().any(|n| n.to_string().contains("not braced"))));
     // two-hinged: the rib funicular comes from the solved reactions
     let mut d = Design::demo();
     d.rib_system = RibSystem::TwoHinged;

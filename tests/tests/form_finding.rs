@@ -4,8 +4,13 @@
 //! engine's output.
 
 use springline_statics::arch::design::{Bracing, Crown, Design, GroundPoint, RibSystem, Section};
-use springline_statics::arch::form::find_form;
-use springline_statics::{bare_rib_model, solve, validate_design};
+use springline_statics::arch::form::Form;
+use springline_statics::{bare_rib_model, solve, validate_design, StaticsError, ValidDesign};
+
+/// The form a design validates to (validation finds it).
+fn find_form(d: &Design) -> Result<Form, StaticsError> {
+    ValidDesign::new(d).map(|v| v.form().clone())
+}
 
 /// A V-shaped valley whose walls pass through the springings (xa, ya) and (xb, yb), with a
 /// deck at `deck` and weightless members except as set by the caller.
@@ -23,6 +28,9 @@ fn design(xa: f64, ya: f64, xb: f64, yb: f64, deck: f64, rise: f64, panels: usiz
     d.deck.level = deck;
     d.deck.left_seat_x = xa - 20.0;
     d.deck.right_seat_x = xb + 20.0;
+    // the seats stand halfway up the straight walls: tall abutments (these valleys are
+    // about the rib, not the seats)
+    d.deck.abutment_height = 50.0;
     d.approach_piers_left = 0;
     d.approach_piers_right = 0;
     d.springing_left_level = ya;
@@ -178,8 +186,9 @@ fn three_hinged_bare_rib_of_the_found_shape_has_no_moment() {
         d.bracing = Bracing::Single { flipped: false };
         d.groups = Design::demo().groups.clone();
         d.form.tolerance = 1e-12;
-        let form = find_form(&d).expect("form");
-        let model = bare_rib_model(&d, &form).expect("model");
+        let valid = ValidDesign::new(&d).expect("valid");
+        let form = valid.form();
+        let model = bare_rib_model(&valid).model;
         assert!(model.title.contains("bare rib"));
         let sol = solve(&model).expect("solves");
         let case = &sol.cases[0];
@@ -214,8 +223,12 @@ fn tighter_tolerance_takes_more_iterations() {
 }
 
 #[test]
-fn unused_section_helper_compiles() {
-    // keeps the Section import honest: a weightless section has no self-weight
-    let s = Section { e: 1.0, a: 1.0, i: 1.0, depth: 1.0, unit_weight: 0.0 };
-    assert_eq!(Design::demo().weight_per_m(&s), 0.0);
+fn self_weight_per_metre_counts_every_rib_line() {
+    // worked by hand: a steel section of 0.06 m2 at 78.5 kN/m3 (EN 1991-1-1 Table A.4,
+    // structural steel, from memory) on each of the demo's 2 rib lines:
+    // 2 x 0.06 x 78.5 = 9.42 kN/m; a weightless section has none
+    let steel = Section { e: 210e6, a: 0.06, i: 0.0135, depth: 1.2, unit_weight: 78.5 };
+    assert!((Design::demo().weight_per_m(&steel) - 9.42).abs() < 1e-12);
+    let weightless = Section { unit_weight: 0.0, ..steel };
+    assert_eq!(Design::demo().weight_per_m(&weightless), 0.0);
 }

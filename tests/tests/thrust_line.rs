@@ -5,15 +5,13 @@
 //!   e from the line), for the frame model of every rib system under dead load, a
 //!   half-span load and a doubled panel load;
 //! - handbook closed forms for bare parabolic ribs under load on half the span
-//!   (Timoshenko & Young, Theory of Structures, 2nd ed., ch. 9, from memory, as collected
-//!   in shared/REFERENCES.md).
+//!   (Timoshenko & Young, Theory of Structures, 2nd ed., ch. 9, from memory).
 
 use springline_statics::arch::cases::{doubled_panel, half_span, Half};
 use springline_statics::arch::design::{Bracing, Design, RibSystem};
-use springline_statics::arch::form::find_form;
 use springline_statics::{
     add_cases, frame, frame_model, rib_chain, solve, thrust_line, CaseResult, LoadCase, Model, NodalLoad,
-    Support, ThrustLine,
+    Support, ThrustLine, ValidDesign,
 };
 
 /// Rib moments of the solver at the sections of a thrust line (just right of every rib
@@ -75,13 +73,17 @@ fn n_e_equals_the_solver_moment_on_the_frame_model_of_every_rib_system() {
             d.rib_system = system;
             d.panels = n;
             d.bracing = bracing;
-            let form = find_form(&d).expect("form");
-            let mut model = frame_model(&d, &form).expect("frame");
-            let specs =
-                vec![half_span(&d, Half::Left, 5.0).expect("half"), doubled_panel(&d, 2).expect("panel")];
-            add_cases(&d, &form, &mut model, &specs).expect("cases");
+            let valid = ValidDesign::new(&d).expect("valid");
+            let form = valid.form();
+            let mut frame = frame_model(&valid);
+            let specs = vec![
+                half_span(&valid, Half::Left, 5.0).expect("half"),
+                doubled_panel(&valid, 2).expect("panel"),
+            ];
+            add_cases(&valid, &mut frame, &specs).expect("cases");
+            let model = frame.model;
             let sol = solve(&model).expect("solves");
-            let chain = rib_chain(&model).expect("rib");
+            let chain = frame.map.rib_chain();
             for case in &sol.cases {
                 let t = thrust_line(&model, case, &chain, d.groups.rib.depth).expect("line");
                 check_line(&t, case, &chain);
@@ -201,14 +203,13 @@ fn pole_from_solved_reactions_ends_on_the_right_reaction_line() {
     for system in [RibSystem::TwoHinged, RibSystem::Fixed] {
         let mut d = Design::demo();
         d.rib_system = system;
-        let form = find_form(&d).expect("form");
-        let mut rib = bare_rib_model(&d, &form).expect("rib");
-        add_cases(&d, &form, &mut rib, &standard_cases(&d).expect("specs")).expect("cases");
+        let valid = ValidDesign::new(&d).expect("valid");
+        let form = valid.form();
+        let mut generated = bare_rib_model(&valid);
+        add_cases(&valid, &mut generated, &standard_cases(&valid)).expect("cases");
+        let [left, right] = generated.map.springings;
+        let rib = generated.model;
         let sol = solve(&rib).expect("solves");
-        let chain = rib_chain(&rib).expect("rib");
-        let (first, last) = (chain[0], chain[chain.len() - 1]);
-        let left = if first.1 { rib.members[first.0].start } else { rib.members[first.0].end };
-        let right = if last.1 { rib.members[last.0].end } else { rib.members[last.0].start };
         for case in &sol.cases {
             let f = rib_funicular(&rib, case, left, right, None).expect("construction");
             assert_eq!(f.method, FunicularMethod::SolvedReactions);

@@ -68,7 +68,7 @@ fn CaseSelector() -> impl IntoView {
                 a.load_cases
                     .iter()
                     .enumerate()
-                    .map(|(i, c)| view! { <option value=i.to_string() selected=move || state.case.get() == i>{c.description.clone()}</option> })
+                    .map(|(i, c)| view! { <option value=i.to_string() selected=move || state.case.get() == i>{c.description.to_string()}</option> })
                     .collect_view()
             })
             .ok()

@@ -32,7 +32,7 @@ pub fn picture(a: &Analysis, case: usize) -> ForcePicture {
     let Some(figs) = a.load_cases.get(case) else {
         return ForcePicture::Unavailable("no such load case".into());
     };
-    let why = || figs.notes.join("; ");
+    let why = || figs.notes.iter().map(|n| n.to_string()).collect::<Vec<_>>().join("; ");
     if a.truss.is_some() {
         match &figs.force_diagram {
             Some(figure) => ForcePicture::Reciprocal {

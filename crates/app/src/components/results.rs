@@ -4,7 +4,8 @@
 use crate::format::{Quantity, Units};
 use crate::state::AppState;
 use leptos::prelude::*;
-use springline_statics::Analysis;
+use springline_statics::arch::generate::DEAD;
+use springline_statics::{Analysis, MemberRole};
 
 /// One result row.
 struct Row {
@@ -23,74 +24,69 @@ fn text_row(id: &'static str, label: &str, text: String) -> Row {
     Row { id, label: label.into(), quantity: Quantity::Count, si: f64::NAN, text: Some(text) }
 }
 
-/// Largest |N| of the members of `group` in the frame model, kN, with its sign.
-fn extreme(a: &Analysis, group: &str) -> Option<f64> {
-    let m = &a.frame.model;
-    let c = &a.frame.solution.cases[0];
-    m.members
-        .iter()
-        .zip(&c.members)
-        .filter(|(mm, _)| mm.group == group)
-        .flat_map(|(_, f)| [f.start.n, f.end.n])
-        .max_by(|x, y| x.abs().total_cmp(&y.abs()))
-}
-
 fn rows(a: &Analysis) -> Vec<Row> {
-    let f = &a.form;
+    let s = &a.summary;
     let mut r = vec![
-        row("result-thrust", "Thrust H (form finding)", Quantity::Force, f.thrust),
-        row("result-span", "Span", Quantity::Length, f.span),
-        row("result-rise", "Rise", Quantity::Length, f.rise),
+        row("result-thrust", "Form thrust H (form finding)", Quantity::Force, s.form_thrust),
+        row("result-span", "Span", Quantity::Length, s.span),
+        row("result-rise", "Rise", Quantity::Length, s.rise),
     ];
-    let model = &a.frame.model;
-    let case = &a.frame.solution.cases[0];
-    for (id_h, id_v, id_a, name, p) in [
-        ("result-left-h", "result-left-v", "result-left-angle", "left", f.springing_left),
-        ("result-right-h", "result-right-v", "result-right-angle", "right", f.springing_right),
-    ] {
-        let idx = model.nodes.iter().position(|n| (n.x - p.x).abs() < 1e-9 && (n.y - p.y).abs() < 1e-9);
-        if let Some(rc) = idx.and_then(|i| case.reaction(i)) {
-            r.push(row(id_h, &format!("Springing {name}: horizontal"), Quantity::Force, rc.fx));
-            r.push(row(id_v, &format!("Springing {name}: vertical"), Quantity::Force, rc.fy));
+    if let Some(dead) = s.springings_of(DEAD) {
+        for (id_h, id_v, id_a, name, f) in [
+            ("result-left-h", "result-left-v", "result-left-angle", "left", dead.left),
+            ("result-right-h", "result-right-v", "result-right-angle", "right", dead.right),
+        ] {
+            r.push(row(id_h, &format!("Springing {name}: thrust H"), Quantity::Force, f.thrust));
+            r.push(row(id_v, &format!("Springing {name}: vertical"), Quantity::Force, f.vertical));
             r.push(row(
                 id_a,
-                &format!("Springing {name}: angle from horizontal"),
+                &format!("Springing {name}: angle below horizontal"),
                 Quantity::Angle,
-                rc.fy.atan2(rc.fx.abs()).to_degrees(),
+                f.angle_deg,
             ));
         }
     }
-    for (id, label, group) in [
-        ("result-rib-n", "Rib, largest axial force", "rib"),
-        ("result-post-n", "Posts, largest axial force", "post"),
-        ("result-bracing-n", "Bracing, largest axial force", "bracing"),
-        ("result-deck-n", "Deck, largest axial force", "deck"),
+    r.push(row(
+        "result-thrust-min",
+        "Springing thrust, least over the cases",
+        Quantity::Force,
+        s.thrust_range[0],
+    ));
+    r.push(row(
+        "result-thrust-max",
+        "Springing thrust, greatest over the cases",
+        Quantity::Force,
+        s.thrust_range[1],
+    ));
+    for (id, label, role) in [
+        ("result-rib-n", "Rib, largest axial force", MemberRole::Rib),
+        ("result-post-n", "Posts, largest axial force", MemberRole::Post),
+        ("result-bracing-n", "Bracing, largest axial force", MemberRole::Bracing),
+        ("result-deck-n", "Deck, largest axial force", MemberRole::Deck),
     ] {
-        if let Some(n) = extreme(a, group) {
+        if let Some(n) = s.largest_axial(role) {
             r.push(row(id, label, Quantity::Force, n));
         }
     }
-    r.push(row(
-        "result-rib-m",
-        "Residual rib moment, largest |M|",
-        Quantity::Moment,
-        a.residual_rib_moments.max_abs,
-    ));
+    r.push(row("result-rib-m", "Residual rib moment, largest |M|", Quantity::Moment, s.residual_rib_moment));
     r.push(text_row(
         "result-form",
         "Form finding",
-        format!("{} · {} iterations · last change {:.1e} m", f.basis, f.iterations, f.final_change),
+        format!(
+            "{} · {} iterations · last change {:.1e} m",
+            s.form_basis, s.form_iterations, s.form_final_change
+        ),
     ));
-    r.push(text_row("result-restraint", "Deck restraint", a.restraint.description.clone()));
-    if let Some(t) = &a.truss {
-        r.push(text_row("result-determinacy", "Truss idealisation", t.determinacy_text.clone()));
-    } else {
-        r.push(text_row("result-determinacy", "Truss idealisation", "none (no bracing)".into()));
-    }
+    r.push(text_row("result-restraint", "Deck restraint", s.deck_held_by.to_string()));
+    let truss = match &a.truss {
+        Some(t) => t.determinacy.describe(),
+        None => "none (no bracing)".into(),
+    };
+    r.push(text_row("result-determinacy", "Truss idealisation", truss));
     r.push(text_row(
         "result-equilibrium",
         "Equilibrium check (frame model)",
-        format!("residual {:.1e} of the largest force", case.equilibrium.relative),
+        format!("residual {:.1e} of the largest force", s.equilibrium),
     ));
     r
 }

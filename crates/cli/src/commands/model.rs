@@ -3,8 +3,9 @@
 
 use super::{print_json, read_design};
 use crate::failure::Failure;
+use springline_statics::arch::generate::ModelKind;
 use springline_statics::{
-    bare_rib_model, find_form, frame_model, truss_model, validate_design, Design, Model, StaticsError,
+    bare_rib_model, frame_model, truss_model, Design, Model, StaticsError, ValidDesign,
 };
 use std::path::PathBuf;
 
@@ -31,37 +32,28 @@ pub struct Args {
     rib: bool,
 }
 
-/// Which generated model to export.
-#[derive(Clone, Copy)]
-enum Which {
-    Frame,
-    Truss,
-    BareRib,
-}
-
-/// Reads a design, finds its form and prints the chosen generated model in the neutral
-/// format. `--truss` on an unbraced design is refused (exit 1).
+/// Reads a design, validates it (finding its form) and prints the chosen generated model
+/// in the neutral format. `--truss` on an unbraced design is refused (exit 1).
 pub fn run(args: Args) -> Result<(), Failure> {
     let which = match (args.truss, args.rib) {
-        (true, _) => Which::Truss,
-        (false, true) => Which::BareRib,
-        (false, false) => Which::Frame,
+        (true, _) => ModelKind::Truss,
+        (false, true) => ModelKind::BareRib,
+        (false, false) => ModelKind::Frame,
     };
     let design = read_design(&args.design)?;
-    if matches!(which, Which::Truss) && !design.bracing.is_braced() {
-        return Err(Failure::refused("the design has no bracing, so it has no truss idealisation"));
+    match generated_model(&design, which)? {
+        Some(model) => print_json(&model),
+        None => Err(Failure::refused("the design has no bracing, so it has no truss idealisation")),
     }
-    print_json(&generated_model(&design, which)?)
 }
 
-/// The engine's generation of one model from a design: validation, form finding, then
-/// the model.
-fn generated_model(design: &Design, which: Which) -> Result<Model, StaticsError> {
-    validate_design(design)?;
-    let form = find_form(design)?;
-    match which {
-        Which::Frame => frame_model(design, &form),
-        Which::Truss => truss_model(design, &form),
-        Which::BareRib => bare_rib_model(design, &form),
-    }
+/// The engine's generation of one model from a design: validation (with form finding),
+/// then the model; `None` for the truss idealisation of an unbraced design.
+fn generated_model(design: &Design, which: ModelKind) -> Result<Option<Model>, StaticsError> {
+    let valid = ValidDesign::new(design)?;
+    Ok(match which {
+        ModelKind::Frame => Some(frame_model(&valid).model),
+        ModelKind::Truss => truss_model(&valid).map(|g| g.model),
+        ModelKind::BareRib => Some(bare_rib_model(&valid).model),
+    })
 }

@@ -676,8 +676,8 @@ fn check_deck_on_ground(d: &Design, add: &mut impl FnMut(&[Field], String)) {
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::error::StaticsError;
     use crate::arch::validate::validate_design;
+    use crate::error::StaticsError;
     use proptest::prelude::*;
 
     fn problems(d: &Design) -> Vec<Problem> {

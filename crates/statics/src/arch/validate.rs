@@ -4,8 +4,8 @@
 //! spandrel the shortest post leaves). Every later stage (generation, load cases,
 //! analysis) takes a `ValidDesign` and cannot fail on validation.
 
-use crate::arch::design::{check_inputs, Design, Warning};
-use crate::arch::form::{find_form_for, Form, PanelLoads};
+use crate::arch::design::{check_inputs, Design, RibSystem, Warning};
+use crate::arch::form::{find_form_for, Form, PanelLoads, RibNode};
 use crate::arch::layout::{Layout, Topology};
 use crate::error::{Field, Problem, StaticsError};
 use crate::tolerance::GROUND_TOLERANCE;
@@ -161,38 +161,46 @@ fn check_clearances(d: &Design, form: &Form, problems: &mut Vec<Problem>) {
     }
 }
 
-/// The shortest post must leave a spandrel: where every interior post would be shorter
-/// than it, rib and deck would merge at every panel point, the deck would follow the rib
-/// metres below the road and the truss idealisation would be a mechanism. Refused. Where
-/// some nodes merge although the post there would be longer than the deck is deep, the
-/// deck leaves the road level there: said plainly as a warning.
+/// The shortest post must leave a spandrel: where rib and deck would merge at every panel
+/// point that may carry a post, and the deck would so follow the rib further below the
+/// road than the deck is deep, there is no spandrel left (and the truss idealisation is a
+/// mechanism): refused. Where only some nodes merge that far below the road, the deck
+/// leaves the road level there: said plainly as a warning. Merging within the deck depth
+/// (a crown just under the deck) is the intended shared node and passes silently.
 fn check_spandrel(d: &Design, form: &Form, problems: &mut Vec<Problem>, warnings: &mut Vec<Warning>) {
     let last = form.rib.len() - 1;
-    let interior = || form.rib[1..last].iter();
-    let gap = |y: f64| d.deck.level - y;
-    let has_post = interior().any(|n| n.post_length.is_some());
-    let longest = interior().map(|n| gap(n.y)).fold(0.0, f64::max);
-    if !has_post && longest > d.min_post_length.min(d.groups.deck.depth) {
+    let three_hinged = d.rib_system == RibSystem::ThreeHinged;
+    // interior rib nodes under a panel point that may carry a post (not a three-hinged
+    // crown, which never has one)
+    let candidates: Vec<&RibNode> = form.rib[1..last]
+        .iter()
+        .enumerate()
+        .filter(|&(k, n)| n.panel.is_some() && !(three_hinged && k + 1 == form.crown_node))
+        .map(|(_, n)| n)
+        .collect();
+    let gap = |n: &RibNode| d.deck.level - n.y;
+    // merged nodes where the deck leaves the road level by more than its own depth
+    let pulled: Vec<f64> = candidates
+        .iter()
+        .filter(|n| n.shared_with_deck)
+        .map(|n| gap(n))
+        .filter(|&g| g > d.groups.deck.depth)
+        .collect();
+    let Some(deepest) = pulled.iter().copied().reduce(f64::max) else { return };
+    if candidates.iter().all(|n| n.shared_with_deck) {
         problems.push(
             Problem::new(
                 Field::MinPostLength,
                 format!(
-                    "the shortest post ({} m) is longer than every spandrel post (the longest would be {longest:.3} m): \
-                     rib and deck would merge at every panel point, leaving no spandrel; use a shortest post below \
-                     {longest:.3} m",
+                    "the shortest post ({} m) is longer than every spandrel post (the longest would be \
+                     {deepest:.3} m): rib and deck would merge at every panel point, leaving no spandrel and the \
+                     deck up to {deepest:.3} m below the road; use a shortest post below {deepest:.3} m",
                     d.min_post_length
                 ),
             )
             .involving([Field::DeckLevel, Field::CrownRise, Field::CrownLevel]),
         );
-        return;
-    }
-    let pulled: Vec<f64> = interior()
-        .filter(|n| n.shared_with_deck)
-        .map(|n| gap(n.y))
-        .filter(|&g| g > d.groups.deck.depth)
-        .collect();
-    if let Some(deepest) = pulled.iter().copied().reduce(f64::max) {
+    } else {
         warnings.push(
             Warning::new(
                 Field::MinPostLength,
