@@ -34,7 +34,7 @@ fn truss_of(d: &Design) -> (Generated, Solution) {
 
 #[test]
 fn three_hinged_braced_truss_is_determinate_for_4_to_40_panels() {
-    // DESIGN.md: the three-hinged layout (no crown post, drop-in deck span over the crown
+    // the three-hinged layout (no crown post, drop-in deck span over the crown
     // panel(s), diagonals toward the crown) is statically determinate. Maxwell's count
     // bars + reactions = 2 nodes holds for it (8m + 2 for n = 2m, 8m + 10 for n = 2m + 1,
     // counted by hand from the layout), and the rank test rules out mechanisms.
@@ -60,7 +60,7 @@ fn three_hinged_braced_truss_is_determinate_for_4_to_40_panels() {
 
 #[test]
 fn bracing_carries_nothing_on_the_dead_load_funicular() {
-    // REFERENCES.md "Braced spandrels": on the dead-load funicular of a determinate layout
+    // a determinate truss carries a load that matches its funicular in the chords alone: on the dead-load funicular of a determinate layout
     // the diagonals carry exactly zero (here: to 1e-9 of the largest member force), with
     // self-weight (form iterated to 1e-12) and without.
     for n in [4, 5, 8, 13, 24, 40] {
@@ -97,7 +97,7 @@ fn a_heavier_panel_loads_the_bracing() {
 
 #[test]
 fn two_hinged_braced_bracing_forces_fall_as_rib_and_post_ea_grow() {
-    // REFERENCES.md "Braced spandrels": a two-hinged rib with a continuous deck chord is
+    // a two-hinged rib with a continuous deck chord is
     // indeterminate; rib shortening sends some dead load into deck and bracing, forces
     // that vanish in the limit of axially rigid rib and posts. Test the trend.
     for n in [8, 12] {

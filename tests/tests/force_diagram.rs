@@ -297,7 +297,7 @@ fn check_pole(model: &Model, case: &CaseResult, left: usize, right: usize, crown
     let r_b: f64 = f.loads.iter().map(|q| q.p * (q.x - a.x) / l).sum();
     assert!((f.beam_reactions.1 - r_b).abs() <= 1e-9 * total, "{}: R_B", case.name);
     assert!((f.beam_reactions.0 - (total - r_b)).abs() <= 1e-9 * total, "{}: R_A", case.name);
-    // the two splits differ by H (y_B - y_A) / L (DESIGN.md, "Funicular form")
+    // the two splits differ by H (y_B - y_A) / L (the pole construction: the ray parallel to the chord splits the load line into the beam reactions)
     let shift = f.thrust * (b.y - a.y) / l;
     assert!((f.vertical_reactions.0 - f.beam_reactions.0 - shift).abs() <= 1e-9 * total);
     // the polygon runs through both springings and the crown point
@@ -344,7 +344,7 @@ fn pole_construction_equals_stiffness_solution_of_three_hinged_ribs_and_trusses(
 #[test]
 fn three_hinged_rib_point_load_matches_the_handbook_closed_form() {
     // Three-hinged parabolic arch, level supports, point load P at a (Timoshenko & Young,
-    // Theory of Structures, ch. 9, from memory; REFERENCES.md): V_A = P (L - a) / L,
+    // Theory of Structures, ch. 9, from memory): V_A = P (L - a) / L,
     // V_B = P a / L, H = V_B (L / 2) / f for a <= L / 2.
     let (span, rise, segs, p) = (60.0, 12.0, 12, 300.0);
     let mut m = Model::default();

@@ -55,7 +55,7 @@ fn equal_panel_loads_give_the_parabola() {
     // Uniform load per horizontal metre: the funicular is the parabola through the three
     // points, and equal loads at equal spacing put the polygon's vertices on it exactly
     // (Timoshenko & Young, Theory of Structures, arches and cables; from memory).
-    // H = w L^2 / (8 f) (REFERENCES.md, any parabolic arch under full-span UDL).
+    // H = w L^2 / (8 f) (any parabolic arch under full-span UDL: Timoshenko & Young, Theory of Structures, ch. 9, from memory).
     for (panels, ya, yb) in
         [(2, 50.0, 50.0), (8, 50.0, 50.0), (12, 50.0, 56.0), (40, 58.0, 51.0), (200, 50.0, 50.0)]
     {
@@ -85,7 +85,7 @@ fn equal_panel_loads_give_the_parabola() {
 
 /// The catenary (uniform load per arch length), a hanging chain turned upside down,
 /// through (xa, y0), crown (xc, y0 + f), (xb, y0): y = y0 + f - a (cosh((x - xc)/a) - 1)
-/// with f = a (cosh(L / 2a) - 1) (REFERENCES.md, catenary; any statics text).
+/// with f = a (cosh(L / 2a) - 1) (the hanging chain turned upside down; any statics text).
 fn catenary_parameter(l: f64, f: f64) -> f64 {
     // f(a) = a (cosh(L/2a) - 1) falls monotonically with a: bisection
     let (mut lo, mut hi) = (1e-3 * l, 1e6 * l);
@@ -139,7 +139,7 @@ fn uniform_load_per_arch_length_converges_to_the_catenary() {
 
 #[test]
 fn unequal_springings_pass_through_the_three_points() {
-    // DESIGN.md: unequal springing levels are normal in a valley and must work. Loads:
+    // unequal springing levels are normal in a valley and must work. Loads:
     // deck plus rib, post and bracing self-weight, so the form is iterated.
     for (panels, system, bracing) in [
         (10, RibSystem::ThreeHinged, Bracing::Single { flipped: false }),

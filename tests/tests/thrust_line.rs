@@ -133,7 +133,7 @@ fn parabolic_rib(span: f64, rise: f64, segs: usize, hinges: usize, w: f64) -> Mo
 
 #[test]
 fn two_hinged_parabolic_rib_half_span_gives_the_handbook_quarter_point_moment() {
-    // Timoshenko & Young, Theory of Structures, ch. 9 (from memory; REFERENCES.md):
+    // Timoshenko & Young, Theory of Structures, ch. 9 (from memory):
     // two-hinged parabolic arch, I = I_c sec(theta), rib shortening neglected, UDL w on
     // the left half: H = w L^2 / (16 f), M(L/4) = +w L^2 / 64, M(3L/4) = -w L^2 / 64.
     // The thrust line gives M = thrust x e at the quarter points. The polygonal rib and the
@@ -157,7 +157,7 @@ fn two_hinged_parabolic_rib_half_span_gives_the_handbook_quarter_point_moment() 
 
 #[test]
 fn three_hinged_parabolic_rib_half_span_quarter_point_moment_is_exact() {
-    // Three-hinged parabolic arch, UDL w on the left half (REFERENCES.md, Timoshenko &
+    // Three-hinged parabolic arch, UDL w on the left half (Timoshenko &
     // Young ch. 9, from memory): M(L/4) = +w L^2 / 64, M(3L/4) = -w L^2 / 64; statics
     // alone, and panel-point loads give the UDL's moments exactly at the nodes.
     let (span, rise, segs, w) = (48.0, 9.0, 16, 30.0);

@@ -49,7 +49,7 @@ fn analyze_help_prints_help_and_reads_no_file() {
     let help = text(&out.stdout);
     assert_eq!(out.status.code(), Some(0), "{}", text(&out.stderr));
     assert!(out.stderr.is_empty(), "{}", text(&out.stderr));
-    assert!(help.contains("Usage: springline analyze <DESIGN.json|--link <LINK>>"), "{help}");
+    assert!(help.contains("Usage: springline analyze [OPTIONS] <DESIGN.json|--link <LINK>>"), "{help}");
     assert!(help.contains("`-` reads standard input"), "{help}");
     assert!(help.contains("springline demo | springline analyze -"), "{help}");
     assert_eq!(listing(&dir), ["--help"]);

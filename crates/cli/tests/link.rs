@@ -75,3 +75,16 @@ fn usage_errors_and_invalid_designs_fail() {
     assert!(out.status.code() == Some(1) && out.stdout.is_empty());
     assert!(err.contains("cannot be linked") && err.contains("panels"), "{err}");
 }
+
+#[test]
+fn analyze_summary_prints_the_summary_of_the_full_analysis() {
+    let full = run(&["analyze", "-"], &demo_json());
+    let summary = run(&["analyze", "--summary", "-"], &demo_json());
+    assert!(full.status.success() && summary.status.success(), "{}", text(&summary.stderr));
+    let full: serde_json::Value = serde_json::from_slice(&full.stdout).expect("JSON");
+    let summary: serde_json::Value = serde_json::from_slice(&summary.stdout).expect("JSON");
+    assert_eq!(full["summary"], summary);
+    // the form thrust is the form's pole distance: one number, one name
+    assert_eq!(summary["form_thrust"], full["form"]["thrust"]);
+    assert_eq!(summary["springings"][0]["case"], "dead");
+}

@@ -15,12 +15,13 @@ use std::path::PathBuf;
 /// half-span live load and a doubled panel load. The design comes from a file or from a
 /// permalink (`--link`), exactly one of the two.
 #[derive(clap::Args)]
-#[group(id = "source", required = true, multiple = false)]
+#[command(group(clap::ArgGroup::new("source").required(true).multiple(false).args(["design", "link"])))]
 #[command(after_help = "\
 Examples:
   springline analyze design.json
   springline demo | springline analyze -
-  springline analyze --link '#s1.eNp1...'")]
+  springline analyze --link '#s1.eNp1...'
+  springline analyze --summary design.json")]
 pub struct Args {
     /// The design file (JSON); `-` reads standard input.
     #[arg(value_name = "DESIGN.json")]
@@ -30,6 +31,12 @@ pub struct Args {
     /// the payload alone (quote it in the shell).
     #[arg(long, value_name = "LINK")]
     link: Option<String>,
+
+    /// Print only the summary: the key numbers (span, rise, form thrust, springing thrust
+    /// per case and side, thrust range, largest member forces, ...) that the app's results
+    /// table shows.
+    #[arg(long)]
+    summary: bool,
 }
 
 /// Reads the design (file, standard input or permalink), analyses it and prints the
@@ -42,7 +49,12 @@ pub fn run(args: Args) -> Result<(), Failure> {
         // the match total
         (None, None) => return Err(Failure::refused("give a design file or --link")),
     };
-    print_json(&analysis_of(&design)?)
+    let analysis = analysis_of(&design)?;
+    if args.summary {
+        print_json(&analysis.summary)
+    } else {
+        print_json(&analysis)
+    }
 }
 
 /// The engine's reading of a permalink.

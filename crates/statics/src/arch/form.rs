@@ -1,7 +1,7 @@
 //! Form finding: the compression funicular of the dead load through both springings and
 //! the crown point, iterated with the self-weight that depends on the shape.
 //!
-//! Loop (DESIGN.md, "Funicular form"): start from the parabola through the three points;
+//! Loop (the classical graphic method, y = c(x) + M(x) / H; see `graphic::funicular`): start from the parabola through the three points;
 //! gather the loads at the rib nodes for the current shape (`LoadBasis`); take the
 //! three-point funicular of those loads (`funicular::three_point`); repeat until the
 //! largest change of a rib node level is at most `tolerance` times the rise. The load
@@ -319,7 +319,7 @@ mod tests {
         let (a, b) = (form.springing_left, form.springing_right);
         assert_eq!(form.rib[0].y, a.y);
         assert_eq!(form.rib.last().map(|n| n.y), Some(b.y));
-        // crown point: chord level at mid-span plus the rise (DESIGN.md definition)
+        // crown point: chord level at mid-span plus the rise (the definition of the rise, README "Conventions")
         let c = &form.rib[form.crown_node];
         assert!((c.x - 0.5 * (a.x + b.x)).abs() < 1e-12);
         assert!((c.y - (0.5 * (a.y + b.y) + form.rise)).abs() < 1e-9);

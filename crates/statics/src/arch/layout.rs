@@ -1,4 +1,4 @@
-//! The default layout of a deck arch (DESIGN.md section 4, "Default layout"): where the
+//! The default layout of a deck arch (README, "The deck arch as built"): where the
 //! springings, panel points, rib nodes, posts, diagonals, drop-in span and approach piers
 //! are, derived from a validated `Design` and (for which posts are too short) the rib
 //! levels.
@@ -319,7 +319,7 @@ mod tests {
 
     #[test]
     fn three_hinged_even_layout_matches_the_description() {
-        // DESIGN.md: no crown post, no deck node over the crown, a drop-in over the two
+        // the three-hinged rule: no crown post, no deck node over the crown, a drop-in over the two
         // crown panels, diagonals in the panels next to the crown to the crown rib node.
         let (f, t) = topo(6, RibSystem::ThreeHinged, Bracing::Single { flipped: false });
         assert_eq!(f.rib_x.len(), 7);
