@@ -561,3 +561,52 @@ pub fn bare_rib_model(valid: &ValidDesign) -> Generated {
     b.model.load_cases.push(lc);
     b.finish(ModelKind::BareRib, None)
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::arch::design::{Bracing, Design};
+
+    /// Every identity the map keeps points at the part it names, for every rib system,
+    /// bracing and an odd and even panel count.
+    #[test]
+    fn the_map_names_what_generation_built() {
+        for system in [RibSystem::ThreeHinged, RibSystem::TwoHinged, RibSystem::Fixed] {
+            for bracing in [Bracing::None, Bracing::Single { flipped: true }, Bracing::Crossed] {
+                for panels in [7, 12] {
+                    let mut d = Design::demo();
+                    (d.rib_system, d.bracing, d.panels) = (system, bracing, panels);
+                    let v = ValidDesign::new(&d).expect("valid");
+                    let (form, layout) = (v.form(), v.layout());
+                    let models = [Some(frame_model(&v)), truss_model(&v), Some(bare_rib_model(&v))];
+                    for g in models.into_iter().flatten() {
+                        let (m, map) = (&g.model, &g.map);
+                        assert_eq!(map.roles.len(), m.members.len());
+                        for (member, role) in m.members.iter().zip(&map.roles) {
+                            assert_eq!(member.group, role.key());
+                        }
+                        for (r, &node) in map.rib_nodes.iter().enumerate() {
+                            assert_eq!((m.nodes[node].x, m.nodes[node].y), (form.rib[r].x, form.rib[r].y));
+                        }
+                        for (i, node) in map.deck_nodes.iter().enumerate() {
+                            if let Some(node) = *node {
+                                let n = &m.nodes[node];
+                                assert_eq!((n.x, n.y), (layout.panel_x[i], d.deck.level), "{}", g.kind);
+                            }
+                        }
+                        // the rib chain runs left to right, member k from rib node k to k + 1
+                        for (k, &member) in map.rib_members.iter().enumerate() {
+                            assert_eq!(map.roles[member], MemberRole::Rib);
+                            let mm = &m.members[member];
+                            assert_eq!((mm.start, mm.end), (map.rib_nodes[k], map.rib_nodes[k + 1]));
+                        }
+                        assert_eq!(map.members_with(MemberRole::Rib).count(), map.rib_members.len());
+                        assert_eq!(map.springings, [map.rib_nodes[0], map.rib_nodes[form.rib.len() - 1]]);
+                        assert_eq!(map.crown, map.rib_nodes[form.crown_node]);
+                        assert_eq!(map.seats.is_some(), g.kind == ModelKind::Frame);
+                    }
+                }
+            }
+        }
+    }
+}
