@@ -339,14 +339,6 @@ pub enum StaticsError {
     /// A design file could not be read; the kind says why.
     #[error("cannot read design file: {0}")]
     DesignFile(DesignFileError),
-    /// A permalink could not be read.
-    #[error("cannot read {what}: {reason}")]
-    Unreadable {
-        /// What was being read.
-        what: String,
-        /// Why it failed.
-        reason: String,
-    },
 }
 
 /// The design format versions a reader takes, oldest to newest (both included).

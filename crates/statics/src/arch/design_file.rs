@@ -192,7 +192,8 @@ mod tests {
 
     #[test]
     fn newer_unknown_and_missing_versions_are_refused_with_reasons() {
-        let with_version = |v: &str| demo_v1_text().replacen("\"version\": 1", &format!("\"version\": {v}"), 1);
+        let with_version =
+            |v: &str| demo_v1_text().replacen("\"version\": 1", &format!("\"version\": {v}"), 1);
         let e = file_error(read_design_json(&with_version("7")));
         assert_eq!(e, DesignFileError::NewerVersion { version: 7, readable: READABLE_DESIGN_VERSIONS });
         let message = StaticsError::DesignFile(e).to_string();
