@@ -1,13 +1,21 @@
-//! Every committed permalink fixture still opens to its stored design and results.
+//! Every committed permalink and design-file fixture still opens to its stored design
+//! and results.
 //!
 //! `tests/fixtures/links/` holds, for each fixture `NAME` (prefix `vN-`: link format `sN`):
 //!
 //! * `NAME.link`: the fragment as `springline link` printed it. Never rewritten: links of
 //!   every format ever shipped are out in the world and must keep opening.
-//! * `NAME.design.json`: the design the link must open to (pretty JSON, compared as text,
-//!   so every number is compared bit for bit).
+//! * `NAME.design.json`: the design the link must open to, as a design file of the design
+//!   format current when the fixture was made. It is read through the design-file reader
+//!   (so an older one is updated exactly as the link is) and compared bit for bit.
 //! * `NAME.results.json`: key analysis numbers of that design (thrust, springing
 //!   reactions, form-finding iterations, largest rib moment, frame support reactions).
+//!
+//! `tests/fixtures/designs/` holds design files `vN-NAME.json` (`vN`: design format N),
+//! each the twin of the link fixture of the same name (or, when a later design format
+//! keeps the link format, of the newest link fixture with the same `NAME`): it must read
+//! to the same design and analyse to that fixture's stored results. Every design format
+//! from the oldest to the current one keeps at least one file there.
 //!
 //! Refreshing is explicit and shows up in the diff for review:
 //!
@@ -15,13 +23,15 @@
 //! SPRINGLINE_REFRESH_LINK_FIXTURES=1 cargo test -p springline-tests --test permalink_fixtures -- --ignored refresh
 //! ```
 //!
-//! It writes the `.link` of a current-format fixture only when that file does not exist
-//! yet, and rewrites `.design.json` / `.results.json` from the committed links (after a
-//! deliberate engine change). Without the variable it changes nothing.
+//! It writes the `.link`, `.design.json` and design file of a current-format fixture only
+//! when that file does not exist yet (what a link or file opens to never changes), and
+//! rewrites every `.results.json` from the committed links (after a deliberate engine
+//! change). Without the variable it changes nothing.
 
 use serde::{Deserialize, Serialize};
 use springline_statics::analyze;
-use springline_statics::arch::design::{Bracing, Crown, Design, RibSystem};
+use springline_statics::arch::design::{Bracing, Crown, Design, RibSystem, DESIGN_VERSION};
+use springline_statics::arch::design_file::{read_design_json, write_design_json, OLDEST_DESIGN_VERSION};
 use springline_statics::link::permalink;
 use std::path::{Path, PathBuf};
 
@@ -41,7 +51,7 @@ struct KeyResults {
     /// Span and rise, m.
     span_m: f64,
     rise_m: f64,
-    /// Horizontal thrust H, kN.
+    /// Form thrust H_form, kN.
     thrust_kn: f64,
     /// Springing reactions (fx, fy), kN.
     reaction_left_kn: [f64; 2],
@@ -52,23 +62,22 @@ struct KeyResults {
     frame_reactions: Vec<(usize, f64, f64, f64)>,
 }
 
+/// The stored numbers, taken from the engine's summary (the same numbers the CLI's
+/// `analyze --summary` prints and the app's results table shows, so they cannot drift).
 fn key_results(design: &Design) -> KeyResults {
     let a = analyze(design).unwrap_or_else(|e| panic!("{}: {e}", design.name));
-    let f = &a.form;
+    let s = &a.summary;
+    let [left, right] = s.form_reactions;
     KeyResults {
-        design: design.name.clone(),
-        form_iterations: f.iterations,
-        span_m: f.span,
-        rise_m: f.rise,
-        thrust_kn: f.thrust,
-        reaction_left_kn: [f.reaction_left.fx, f.reaction_left.fy],
-        reaction_right_kn: [f.reaction_right.fx, f.reaction_right.fy],
-        max_abs_rib_moment_knm: a.residual_rib_moments.max_abs,
-        frame_reactions: a.frame.solution.cases[0]
-            .reactions
-            .iter()
-            .map(|r| (r.node, r.fx, r.fy, r.mz))
-            .collect(),
+        design: s.design.clone(),
+        form_iterations: s.form_iterations,
+        span_m: s.span,
+        rise_m: s.rise,
+        thrust_kn: s.form_thrust,
+        reaction_left_kn: [left.fx, left.fy],
+        reaction_right_kn: [right.fx, right.fy],
+        max_abs_rib_moment_knm: s.residual_rib_moment,
+        frame_reactions: s.frame_reactions.clone(),
     }
 }
 
@@ -76,15 +85,34 @@ fn folder() -> PathBuf {
     springline_tests::workspace_root().join("tests/fixtures/links")
 }
 
-/// Names of the committed fixtures (`NAME` of every `NAME.link`), sorted.
-fn fixture_names() -> Vec<String> {
-    let mut names: Vec<String> = std::fs::read_dir(folder())
-        .expect("tests/fixtures/links exists")
+fn designs_folder() -> PathBuf {
+    springline_tests::workspace_root().join("tests/fixtures/designs")
+}
+
+/// Names of the files in `folder` ending in `suffix`, without it, sorted.
+fn names_in(folder: &Path, suffix: &str) -> Vec<String> {
+    let mut names: Vec<String> = std::fs::read_dir(folder)
+        .unwrap_or_else(|e| panic!("{}: {e}", folder.display()))
         .filter_map(|e| e.ok())
-        .filter_map(|e| e.file_name().to_str()?.strip_suffix(".link").map(str::to_string))
+        .filter_map(|e| e.file_name().to_str()?.strip_suffix(suffix).map(str::to_string))
         .collect();
     names.sort();
     names
+}
+
+/// Names of the committed link fixtures (`NAME` of every `NAME.link`), sorted.
+fn fixture_names() -> Vec<String> {
+    names_in(&folder(), ".link")
+}
+
+/// Names of the committed design-file fixtures (`NAME` of every `NAME.json`), sorted.
+fn design_file_names() -> Vec<String> {
+    names_in(&designs_folder(), ".json")
+}
+
+/// The design a design file holds (updated to the current version).
+fn read_design_file(path: &Path) -> Design {
+    read_design_json(&read(path)).unwrap_or_else(|e| panic!("{}: {e}", path.display()))
 }
 
 fn read(path: &Path) -> String {
@@ -102,6 +130,44 @@ fn close(what: &str, got: f64, want: f64, scale: f64) {
     assert!((got - want).abs() <= tol, "{what}: got {got:e}, stored {want:e} (tolerance {tol:e})");
 }
 
+/// The results of `design` agree with the stored results of fixture `name`.
+fn check_results(name: &str, design: &Design) {
+    let want: KeyResults = serde_json::from_str(&read(&folder().join(name).with_extension("results.json")))
+        .expect("stored results read");
+    let got = key_results(design);
+    let h = want.thrust_kn;
+    assert_eq!(got.design, want.design, "{name}");
+    assert_eq!(got.form_iterations, want.form_iterations, "{name}: form-finding iterations");
+    close(&format!("{name}: span"), got.span_m, want.span_m, want.span_m);
+    close(&format!("{name}: rise"), got.rise_m, want.rise_m, want.rise_m);
+    close(&format!("{name}: thrust"), got.thrust_kn, h, h);
+    for k in 0..2 {
+        close(&format!("{name}: left reaction {k}"), got.reaction_left_kn[k], want.reaction_left_kn[k], h);
+        close(&format!("{name}: right reaction {k}"), got.reaction_right_kn[k], want.reaction_right_kn[k], h);
+    }
+    let moment_scale = h * want.rise_m;
+    close(
+        &format!("{name}: max rib moment"),
+        got.max_abs_rib_moment_knm,
+        want.max_abs_rib_moment_knm,
+        moment_scale,
+    );
+    assert_eq!(got.frame_reactions.len(), want.frame_reactions.len(), "{name}: frame supports");
+    for (g, w) in got.frame_reactions.iter().zip(&want.frame_reactions) {
+        assert_eq!(g.0, w.0, "{name}: frame support node");
+        close(&format!("{name}: frame fx at {}", w.0), g.1, w.1, h);
+        close(&format!("{name}: frame fy at {}", w.0), g.2, w.2, h);
+        close(&format!("{name}: frame mz at {}", w.0), g.3, w.3, moment_scale);
+    }
+}
+
+/// The same design, bit for bit: equal as data and as written (every f64 by its shortest
+/// round-trip form, so -0 and 0 differ).
+fn same_design(what: &str, got: &Design, want: &Design) {
+    assert_eq!(got, want, "{what}");
+    assert_eq!(write_design_json(got), write_design_json(want), "{what}");
+}
+
 #[test]
 fn every_link_fixture_opens_to_its_stored_results() {
     let names = fixture_names();
@@ -110,49 +176,63 @@ fn every_link_fixture_opens_to_its_stored_results() {
         let base = folder().join(&name);
         let link = read(&base.with_extension("link"));
         let design = permalink::decode(&link).unwrap_or_else(|e| panic!("{name}: {e}"));
-        // the design, exactly: as text (every f64 by its shortest round-trip form) and as data
-        let stored_text = read(&base.with_extension("design.json"));
-        assert_eq!(pretty(&design), stored_text, "{name}: the link opens to another design");
-        let stored: Design = serde_json::from_str(&stored_text).expect("stored design reads");
-        assert_eq!(design, stored, "{name}");
-        // the results
-        let want: KeyResults =
-            serde_json::from_str(&read(&base.with_extension("results.json"))).expect("stored results read");
-        let got = key_results(&design);
-        let h = want.thrust_kn;
-        assert_eq!(got.design, want.design, "{name}");
-        assert_eq!(got.form_iterations, want.form_iterations, "{name}: form-finding iterations");
-        close(&format!("{name}: span"), got.span_m, want.span_m, want.span_m);
-        close(&format!("{name}: rise"), got.rise_m, want.rise_m, want.rise_m);
-        close(&format!("{name}: thrust"), got.thrust_kn, h, h);
-        for k in 0..2 {
-            close(
-                &format!("{name}: left reaction {k}"),
-                got.reaction_left_kn[k],
-                want.reaction_left_kn[k],
-                h,
-            );
-            close(
-                &format!("{name}: right reaction {k}"),
-                got.reaction_right_kn[k],
-                want.reaction_right_kn[k],
-                h,
-            );
+        assert_eq!(design.version, DESIGN_VERSION, "{name}: opened as the current design format");
+        // the design, exactly: the stored file is read (and updated) like any design file
+        let stored_path = base.with_extension("design.json");
+        let stored = read_design_file(&stored_path);
+        same_design(&format!("{name}: the link opens to another design"), &design, &stored);
+        if read(&stored_path).contains(&format!("\"version\": {DESIGN_VERSION},")) {
+            assert_eq!(write_design_json(&design), read(&stored_path), "{name}: stored as written");
         }
-        let moment_scale = h * want.rise_m;
-        close(
-            &format!("{name}: max rib moment"),
-            got.max_abs_rib_moment_knm,
-            want.max_abs_rib_moment_knm,
-            moment_scale,
+        check_results(&name, &design);
+    }
+}
+
+/// The part of a fixture name after its version prefix (`demo` of `v2-demo`).
+fn rest(name: &str) -> &str {
+    name.split_once('-').map(|(_, rest)| rest).unwrap_or(name)
+}
+
+/// The link fixture a design file `vD-REST` is compared with: the link fixture of the same
+/// name, or else the one of the newest link format with the same `REST` (link and design
+/// formats need not advance together).
+fn link_twin(file: &str) -> String {
+    let links = fixture_names();
+    if links.iter().any(|n| n == file) {
+        return file.to_string();
+    }
+    let newest = links
+        .into_iter()
+        .filter(|n| rest(n) == rest(file))
+        .max_by_key(|n| n.trim_start_matches('v').split('-').next().and_then(|v| v.parse::<u32>().ok()));
+    newest.unwrap_or_else(|| {
+        panic!("design file {file} has no link twin (a link fixture named *-{})", rest(file))
+    })
+}
+
+#[test]
+fn every_design_file_fixture_reads_to_its_link_twin() {
+    let names = design_file_names();
+    for version in OLDEST_DESIGN_VERSION..=DESIGN_VERSION {
+        assert!(
+            names.iter().any(|n| n.starts_with(&format!("v{version}-"))),
+            "design format {version} has no file fixture (tests/fixtures/designs/v{version}-*.json)"
         );
-        assert_eq!(got.frame_reactions.len(), want.frame_reactions.len(), "{name}: frame supports");
-        for (g, w) in got.frame_reactions.iter().zip(&want.frame_reactions) {
-            assert_eq!(g.0, w.0, "{name}: frame support node");
-            close(&format!("{name}: frame fx at {}", w.0), g.1, w.1, h);
-            close(&format!("{name}: frame fy at {}", w.0), g.2, w.2, h);
-            close(&format!("{name}: frame mz at {}", w.0), g.3, w.3, moment_scale);
-        }
+    }
+    assert!(names.iter().any(|n| n == "v1-demo"), "the demo's version-1 file is kept");
+    for name in names {
+        let path = designs_folder().join(format!("{name}.json"));
+        let version = name.strip_prefix('v').and_then(|v| v.split('-').next()).unwrap_or_default();
+        assert!(
+            read(&path).contains(&format!("\"version\": {version},")),
+            "{name}: a v{version}- file is of design format {version}"
+        );
+        let design = read_design_file(&path);
+        let twin = link_twin(&name);
+        let from_link = permalink::decode(&read(&folder().join(&twin).with_extension("link")))
+            .unwrap_or_else(|e| panic!("{twin}: {e}"));
+        same_design(&format!("{name}: file and link {twin} differ"), &design, &from_link);
+        check_results(&twin, &design);
     }
 }
 
@@ -170,11 +250,20 @@ fn every_readable_format_has_a_fixture() {
         }
     }
     assert!(names.iter().any(|n| n == "v1-demo"), "the demo design's link is kept");
+    let current = format!("v{}-", &permalink::CURRENT_FORMAT[1..]);
+    assert!(names.iter().any(|n| n == &format!("{current}demo")), "the demo has a current-format link");
+    // the field of design format 2 travels in its section: one fixture sets it
+    let set = names.iter().filter(|n| n.starts_with(&current)).any(|n| {
+        let design = read_design_file(&folder().join(n).with_extension("design.json"));
+        design.deck.abutment_height != Design::demo().deck.abutment_height
+    });
+    assert!(set, "no current-format fixture has a non-default abutment height");
 }
 
 /// The designs of the current format's fixtures: the demo, a two-hinged unbraced arch
-/// with unequal springings and its crown set by rise, and a fixed arch with crossed
-/// bracing and piers on one side only (all invented).
+/// with unequal springings and its crown set by rise, a fixed arch with crossed bracing
+/// and piers on one side only (the three designs of the v1 fixtures), and the demo with
+/// its left seat moved in on 6.5 m abutments (all invented).
 fn current_fixture_designs() -> Vec<(&'static str, Design)> {
     let demo = Design::demo();
     let mut two_hinged = Design::demo();
@@ -200,7 +289,24 @@ fn current_fixture_designs() -> Vec<(&'static str, Design)> {
     fixed.approach_piers_right = 0;
     fixed.deck.ribs = 3;
     fixed.groups.rib.a = 0.075;
-    vec![("v1-demo", demo), ("v1-two-hinged-unbraced", two_hinged), ("v1-fixed-crossed", fixed)]
+    let mut abutments = Design::demo();
+    abutments.name = "left seat moved in, 6.5 m abutments (invented fixture)".into();
+    abutments.deck.left_seat_x = 6.0;
+    abutments.deck.abutment_height = 6.5;
+    vec![
+        ("v2-demo", demo),
+        ("v2-two-hinged-unbraced", two_hinged),
+        ("v2-fixed-crossed", fixed),
+        ("v2-abutment-height", abutments),
+    ]
+}
+
+/// Writes `text` to `path` unless the file exists (a link, or the design it opens to, is
+/// fixed once committed).
+fn write_new(path: &Path, text: &str) {
+    if !path.exists() {
+        std::fs::write(path, text).unwrap_or_else(|e| panic!("{}: {e}", path.display()));
+    }
 }
 
 /// The refresh (see the top of this file). Ignored, and inert without `REFRESH_VAR`.
@@ -212,18 +318,17 @@ fn refresh_link_fixtures() {
         return;
     }
     for (name, design) in current_fixture_designs() {
-        let path = folder().join(name).with_extension("link");
         assert!(name.starts_with(&format!("v{}-", &permalink::CURRENT_FORMAT[1..])), "{name}");
-        if !path.exists() {
-            springline_statics::validate_design(&design).unwrap_or_else(|e| panic!("{name}: {e}"));
-            std::fs::write(&path, format!("#{}\n", permalink::encode(&design))).expect("writes the link");
-        }
+        springline_statics::validate_design(&design).unwrap_or_else(|e| panic!("{name}: {e}"));
+        write_new(&folder().join(name).with_extension("link"), &format!("#{}\n", permalink::encode(&design)));
+        write_new(&folder().join(name).with_extension("design.json"), &write_design_json(&design));
+        let file = format!("v{DESIGN_VERSION}-{}.json", rest(name));
+        write_new(&designs_folder().join(file), &write_design_json(&design));
     }
     for name in fixture_names() {
         let base = folder().join(&name);
         let design =
             permalink::decode(&read(&base.with_extension("link"))).unwrap_or_else(|e| panic!("{name}: {e}"));
-        std::fs::write(base.with_extension("design.json"), pretty(&design)).expect("writes the design");
         std::fs::write(base.with_extension("results.json"), pretty(&key_results(&design)))
             .expect("writes results");
     }

@@ -333,14 +333,239 @@ pub enum StaticsError {
         /// What is too large or too small, and what to do.
         message: String,
     },
-    /// A permalink or file could not be read.
-    #[error("cannot read {what}: {reason}")]
-    Unreadable {
-        /// What was being read.
-        what: String,
-        /// Why it failed.
-        reason: String,
+    /// A permalink could not be opened; the kind says why.
+    #[error("cannot read link: {0}")]
+    Link(LinkError),
+    /// A design file could not be read; the kind says why.
+    #[error("cannot read design file: {0}")]
+    DesignFile(DesignFileError),
+}
+
+/// The design format versions a reader takes, oldest to newest (both included).
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+pub struct VersionRange {
+    /// Oldest version read (older ones are updated step by step when read).
+    pub oldest: u32,
+    /// Newest version read: the one this engine writes.
+    pub newest: u32,
+}
+
+impl fmt::Display for VersionRange {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        if self.oldest == self.newest {
+            write!(f, "{}", self.oldest)
+        } else {
+            write!(f, "{} to {}", self.oldest, self.newest)
+        }
+    }
+}
+
+/// Why a permalink could not be opened. Each message says what the user can do; it reads
+/// after "cannot read link: ".
+#[derive(Debug, Clone, PartialEq, Error, Serialize)]
+pub enum LinkError {
+    /// Longer than the reader looks at (refused before any work).
+    #[error(
+        "it is {length} characters long; links longer than {limit} are refused \
+         (a design link is usually under 2,000)"
+    )]
+    TooLong {
+        /// Length of the input, bytes.
+        length: usize,
+        /// Longest input read, bytes.
+        limit: usize,
     },
+    /// Nothing after the `#` (or nothing at all).
+    #[error(
+        "it holds no design: a design link ends in '#s', a format number, a dot and then \
+         letters, digits, '-' and '_'; copy the whole link"
+    )]
+    Empty,
+    /// Text that is not a Springline link.
+    #[error(
+        "it is not a Springline design link: after the '#' it should start with a format tag \
+         ('s', a number and a dot)"
+    )]
+    NotALink,
+    /// A link format this reader does not know (a newer one).
+    #[error(
+        "it uses link format '{tag}', which this version of Springline does not know \
+         (it reads {}); open it with a newer version",
+        .readable.join(", ")
+    )]
+    UnknownFormat {
+        /// The format tag of the link.
+        tag: String,
+        /// The tags this reader knows.
+        readable: &'static [&'static str],
+    },
+    /// A character outside base64url in the data.
+    #[error(
+        "character {position} of its data ('{character}') is not allowed there (only letters, \
+         digits, '-' and '_'); was the link changed when copied?"
+    )]
+    BadCharacter {
+        /// 1-based position in the data (after the format tag and its dot), in characters.
+        position: usize,
+        /// The character found.
+        character: char,
+    },
+    /// The data stops before the compressed design ends.
+    #[error("its data is cut short; copy the whole link")]
+    CutShort,
+    /// The data ends where no link can end (its length, or the spare bits of its last
+    /// character): a cut, or characters added or changed at the end.
+    #[error(
+        "its data ends where no link can end: it was cut short or characters were added at \
+         the end; copy the whole link"
+    )]
+    BrokenEnd,
+    /// The checksum of the inflated design does not match.
+    #[error("its data is damaged (checksum mismatch); copy the link again")]
+    ChecksumMismatch,
+    /// The compressed stream is not valid deflate.
+    #[error("its data is damaged (not a valid compressed stream); copy the link again")]
+    DamagedStream,
+    /// Inflating would pass the cap (a deflate bomb, or not a design).
+    #[error("it would expand beyond {limit} bytes, far more than any design needs; refused")]
+    TooLargeInflated {
+        /// Largest inflated payload accepted, bytes.
+        limit: usize,
+    },
+    /// Data after the end of the compressed stream.
+    #[error("it has extra data after the design; copy the link again without additions")]
+    TrailingData,
+    /// The inflated bytes are not a design of the link's format.
+    #[error("its design data is damaged ({detail})")]
+    DamagedDesign {
+        /// What the binary reader found.
+        detail: String,
+    },
+    /// Bytes left over after the design.
+    #[error("its design data has {count} unexpected bytes at the end")]
+    ExtraDesignBytes {
+        /// How many.
+        count: usize,
+    },
+    /// One tagged section of the design is damaged (unreadable, repeated, out of order or
+    /// with bytes left over).
+    #[error("its section {tag} is damaged ({detail}); copy the link again")]
+    DamagedSection {
+        /// The section's tag.
+        tag: u32,
+        /// What is wrong with it.
+        detail: String,
+    },
+    /// A count too large for a usize of this machine (32-bit targets).
+    #[error("its {what} ({value}) is too large for this machine")]
+    TooLargeCount {
+        /// Which count.
+        what: &'static str,
+        /// Its value.
+        value: u64,
+    },
+    /// A section this reader does not know: a later version of Springline wrote it.
+    #[error(
+        "it was made by a newer version of Springline (it holds section {tag}, which this \
+         one does not know); open it with a newer version"
+    )]
+    NewerSection {
+        /// The section's tag.
+        tag: u32,
+    },
+    /// A design format newer than this reader.
+    #[error(
+        "it was made by a newer version of Springline (design format {version}; this one \
+         reads {readable}); open it with a newer version"
+    )]
+    NewerVersion {
+        /// The design format version in the link.
+        version: u64,
+        /// The versions this reader takes.
+        readable: VersionRange,
+    },
+    /// The design it holds fails validation; every problem is listed.
+    #[error("the design it holds is not valid ({})", join(.0))]
+    Invalid(Vec<Problem>),
+    /// The design it holds cannot be used for another reason (for example form finding
+    /// does not converge).
+    #[error("the design it holds cannot be used: {0}")]
+    Unusable(Box<StaticsError>),
+}
+
+/// Why a design file could not be read. Each message says what the user can do; it
+/// reads after "cannot read design file: ".
+#[derive(Debug, Clone, PartialEq, Error, Serialize)]
+pub enum DesignFileError {
+    /// Not JSON at all (or cut short); the position is where the JSON reader stopped.
+    #[error("it is not valid JSON at line {line}, column {column}: {detail}")]
+    Malformed {
+        /// 1-based line.
+        line: usize,
+        /// 1-based column.
+        column: usize,
+        /// What the JSON reader found.
+        detail: String,
+    },
+    /// JSON without a usable `version` (not an object, no `version`, or not a whole
+    /// number).
+    #[error(
+        "it has no design format version: a design file is a JSON object whose \"version\" \
+         is a whole number (this version of Springline reads {readable})"
+    )]
+    NoVersion {
+        /// The versions this reader takes.
+        readable: VersionRange,
+    },
+    /// A design format newer than this reader.
+    #[error(
+        "it was made by a newer version of Springline (format {version}; this one reads \
+         {readable}); open it with a newer version"
+    )]
+    NewerVersion {
+        /// The version in the file.
+        version: u64,
+        /// The versions this reader takes.
+        readable: VersionRange,
+    },
+    /// A version below the oldest one ever written.
+    #[error(
+        "its design format version {version} was never written by Springline (this one reads \
+         {readable}); check the \"version\" field"
+    )]
+    UnknownVersion {
+        /// The version in the file.
+        version: u64,
+        /// The versions this reader takes.
+        readable: VersionRange,
+    },
+    /// Valid JSON of a known version that is not a design of that version (a field
+    /// missing, of the wrong type, an unknown variant ...).
+    #[error(
+        "it is not a design of format {version}{}: {detail}",
+        .at.map(|(line, column)| format!(" (line {line}, column {column})")).unwrap_or_default()
+    )]
+    NotADesign {
+        /// The version the file declares.
+        version: u64,
+        /// 1-based line and column, when known (a file of an older version is read after
+        /// it was updated, so its positions are lost).
+        at: Option<(usize, usize)>,
+        /// What is wrong.
+        detail: String,
+    },
+}
+
+impl From<LinkError> for StaticsError {
+    fn from(kind: LinkError) -> StaticsError {
+        StaticsError::Link(kind)
+    }
+}
+
+impl From<DesignFileError> for StaticsError {
+    fn from(kind: DesignFileError) -> StaticsError {
+        StaticsError::DesignFile(kind)
+    }
 }
 
 fn join(problems: &[Problem]) -> String {

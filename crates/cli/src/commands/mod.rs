@@ -97,10 +97,10 @@ pub fn read_design(path: &Path) -> Result<Design, Failure> {
         .map_err(|e| Failure::Refused(e.context(format!("{} is not a valid design file", source_name(path)))))
 }
 
-/// The engine's reading of a design file's text. Kept in one place so that a reader
-/// with format migration can replace it.
+/// The engine's reading of a design file's text: every earlier format version is
+/// migrated to the current one.
 fn design_from_json(text: &str) -> anyhow::Result<Design> {
-    Ok(serde_json::from_str::<Design>(text)?)
+    Ok(springline_statics::arch::design_file::read_design_json(text)?)
 }
 
 /// Prints a value as pretty JSON on standard output.

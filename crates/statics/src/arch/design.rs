@@ -15,7 +15,7 @@ use crate::tolerance::GROUND_TOLERANCE;
 use serde::{Deserialize, Serialize};
 
 /// The version of the design format written by this engine.
-pub const DESIGN_VERSION: u32 = 1;
+pub const DESIGN_VERSION: u32 = 2;
 /// Fewest arch panels accepted (a rib needs at least one interior node).
 pub const MIN_PANELS: usize = 2;
 /// Most arch panels accepted (beyond this the panels are shorter than any real post
@@ -375,11 +375,14 @@ pub(crate) fn check_inputs(d: &Design, problems: &mut Vec<Problem>, warnings: &m
         problems.push(Problem::new(fields[0], msg).involving(fields[1..].iter().copied()))
     };
     let finite = |v: f64| v.is_finite();
+    // a design in memory is always of the current version: only the design-file and
+    // link readers meet older ones, and they update them
     if d.version != DESIGN_VERSION {
         add(
             &[Field::Version],
             format!(
-                "design format version {} is not known; this engine reads version {DESIGN_VERSION}",
+                "design format version {} is not this engine's ({DESIGN_VERSION}); read design \
+                 files and links through their readers, which update older versions",
                 d.version
             ),
         );

@@ -1,0 +1,290 @@
+//! Design files: a `Design` as JSON, read from every format version ever written.
+//!
+//! # Format (our own)
+//!
+//! A design file is one JSON object: the serde form of [`Design`] (field names and units
+//! as documented there), whose `"version"` is the design format version it was written
+//! in. The versions so far:
+//!
+//! | version | what changed |
+//! | --- | --- |
+//! | 1 | the first format |
+//! | 2 | `deck.abutment_height` (m) added; a version-1 design has 10 m (`DEFAULT_ABUTMENT_HEIGHT`) |
+//!
+//! # Reading ([`read_design_json`])
+//!
+//! 1. The text is parsed as JSON; a syntax error is refused with the line and column the
+//!    JSON reader gives.
+//! 2. The `version` is read first: a version newer than [`DESIGN_VERSION`] is refused
+//!    ("made by a newer version of Springline"), so is one older than
+//!    [`OLDEST_DESIGN_VERSION`] or a missing one.
+//! 3. A file of an older version is updated step by step on its JSON, one migration
+//!    step per version (1 to 2, then 2 to 3, ...), each step adding the fields of the
+//!    next version with the value a design without them had. Only then is it read as a
+//!    `Design`. A design in memory is therefore always of the current version, and only
+//!    this reader (and the link reader) deals with older ones.
+//!
+//! # Adding a field (a later version N + 1)
+//!
+//! 1. Add the field to `Design`.
+//! 2. Set `DESIGN_VERSION` to N + 1 and append one step to `STEPS` that inserts the
+//!    field's default into a version-N object (the value designs of version N behaved as
+//!    having). The build fails until the step is there (a compile-time check below).
+//! 3. Keep the committed `tests/fixtures/designs/vN-*.json` files as they are; they
+//!    must keep reading. The link side has its own rule (`link::sections`).
+
+use crate::arch::design::{Design, DEFAULT_ABUTMENT_HEIGHT, DESIGN_VERSION};
+use crate::error::{DesignFileError, StaticsError, VersionRange};
+use serde_json::{Map, Value};
+
+/// The oldest design format version ever written (and still read).
+pub const OLDEST_DESIGN_VERSION: u32 = 1;
+
+/// The design format versions this engine reads: oldest to current.
+pub const READABLE_DESIGN_VERSIONS: VersionRange =
+    VersionRange { oldest: OLDEST_DESIGN_VERSION, newest: DESIGN_VERSION };
+
+/// One migration step: takes the JSON object of a design of version k to version k + 1
+/// (the caller then sets `"version"`). It only adds what version k + 1 has and k lacks;
+/// whatever else is wrong is left for the final read to report.
+type Step = fn(&mut Map<String, Value>);
+
+/// The migration steps, oldest first: `STEPS[i]` takes version `OLDEST_DESIGN_VERSION + i`
+/// to the next.
+const STEPS: &[Step] = &[version_1_to_2];
+
+// One step per version: a new DESIGN_VERSION without its step stops the build here.
+const _: () = assert!(OLDEST_DESIGN_VERSION + STEPS.len() as u32 == DESIGN_VERSION);
+
+/// Version 1 to 2: the abutment height, `DEFAULT_ABUTMENT_HEIGHT` (10 m). A version-1
+/// file that already names one (written while the field was being added) keeps it.
+fn version_1_to_2(design: &mut Map<String, Value>) {
+    if let Some(Value::Object(deck)) = design.get_mut("deck") {
+        deck.entry("abutment_height").or_insert(Value::from(DEFAULT_ABUTMENT_HEIGHT));
+    }
+}
+
+/// Reads a design file (JSON text) of any version from [`OLDEST_DESIGN_VERSION`] to
+/// [`DESIGN_VERSION`], updating an older one to the current version (see the module doc).
+///
+/// The design is not validated here (an invalid design can still be opened to be
+/// mended); `validate_design` does that. Numbers come back exactly as written (serde's
+/// shortest round-trip form of each f64).
+///
+/// Errors (never a panic): `StaticsError::DesignFile` with
+/// * `Malformed` (line, column and what the JSON reader found) for text that is not JSON;
+/// * `NoVersion` when it is not an object with a whole-number `"version"`;
+/// * `NewerVersion` for a version after [`DESIGN_VERSION`] ("made by a newer version of
+///   Springline (format 7; this one reads 1 to 2)");
+/// * `UnknownVersion` for a version before [`OLDEST_DESIGN_VERSION`];
+/// * `NotADesign` when a field is missing or of the wrong type for its version (with
+///   line and column for a file of the current version; an older one is read after its
+///   update, so its positions are lost).
+pub fn read_design_json(text: &str) -> Result<Design, StaticsError> {
+    let (declared, updated) = updated_json(text, STEPS)?;
+    let read = if declared == u64::from(DESIGN_VERSION) {
+        // read from the text itself, so that errors carry their line and column
+        serde_json::from_str::<Design>(text)
+    } else {
+        serde_json::from_value::<Design>(updated)
+    };
+    read.map_err(|e| {
+        let at = (e.line() > 0).then(|| (e.line(), e.column()));
+        StaticsError::DesignFile(DesignFileError::NotADesign { version: declared, at, detail: reason(&e) })
+    })
+}
+
+/// A design as a design file: pretty JSON of the current version ([`DESIGN_VERSION`],
+/// whatever `design.version` says: a `Design` holds exactly the current fields), ending
+/// in a newline. Every finite number reads back bit for bit; a non-finite one (which no
+/// valid design has) is written as `null` and does not read back. Never panics.
+pub fn write_design_json(design: &Design) -> String {
+    let current = Design { version: DESIGN_VERSION, ..design.clone() };
+    // Serialising plain data with string keys into a string cannot fail.
+    serde_json::to_string_pretty(&current).map(|text| text + "\n").unwrap_or_default()
+}
+
+/// Parses `text`, reads its version and applies the migration steps from it to the last
+/// version `steps` lead to. Returns the declared version and the updated JSON.
+fn updated_json(text: &str, steps: &[Step]) -> Result<(u64, Value), DesignFileError> {
+    let readable =
+        VersionRange { oldest: OLDEST_DESIGN_VERSION, newest: OLDEST_DESIGN_VERSION + steps.len() as u32 };
+    let mut value: Value = serde_json::from_str(text).map_err(|e| DesignFileError::Malformed {
+        line: e.line(),
+        column: e.column(),
+        detail: reason(&e),
+    })?;
+    let Value::Object(object) = &mut value else { return Err(DesignFileError::NoVersion { readable }) };
+    let Some(declared) = object.get("version").and_then(Value::as_u64) else {
+        return Err(DesignFileError::NoVersion { readable });
+    };
+    if declared > u64::from(readable.newest) {
+        return Err(DesignFileError::NewerVersion { version: declared, readable });
+    }
+    if declared < u64::from(readable.oldest) {
+        return Err(DesignFileError::UnknownVersion { version: declared, readable });
+    }
+    for (version, step) in (OLDEST_DESIGN_VERSION..).zip(steps) {
+        if u64::from(version) >= declared {
+            step(object);
+            object.insert("version".into(), Value::from(version + 1));
+        }
+    }
+    Ok((declared, value))
+}
+
+/// What the JSON reader says, without the position it appends (given separately).
+fn reason(e: &serde_json::Error) -> String {
+    let text = e.to_string();
+    let position = format!(" at line {} column {}", e.line(), e.column());
+    text.strip_suffix(&position).map(str::to_string).unwrap_or(text)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::arch::design::Crown;
+
+    /// The demo as a version-1 file: no abutment height (as the version-1 engine wrote it).
+    fn demo_v1_text() -> String {
+        let mut value = serde_json::to_value(Design::demo()).expect("serialises");
+        value["version"] = Value::from(1);
+        value["deck"].as_object_mut().expect("deck object").remove("abutment_height");
+        serde_json::to_string_pretty(&value).expect("serialises")
+    }
+
+    fn file_error(r: Result<Design, StaticsError>) -> DesignFileError {
+        match r {
+            Err(StaticsError::DesignFile(kind)) => kind,
+            other => panic!("expected a design-file error, got {other:?}"),
+        }
+    }
+
+    #[test]
+    fn current_files_round_trip_exactly() {
+        let mut d = Design::demo();
+        d.deck.abutment_height = 6.5;
+        d.crown = Crown::Rise { rise: 0.1 + 0.2 };
+        let text = write_design_json(&d);
+        assert!(text.starts_with("{\n  \"version\": 2,\n"), "{text}");
+        assert!(text.ends_with("}\n"));
+        assert_eq!(read_design_json(&text), Ok(d));
+        // a design of an older version number in memory is written as the current one
+        let mut old = Design::demo();
+        old.version = 1;
+        assert_eq!(read_design_json(&write_design_json(&old)), Ok(Design::demo()));
+    }
+
+    #[test]
+    fn version_1_files_are_updated_with_the_default_abutment_height() {
+        let text = demo_v1_text();
+        assert!(!text.contains("abutment_height") && text.contains("\"version\": 1"), "{text}");
+        let d = read_design_json(&text).expect("reads");
+        assert_eq!(d.version, DESIGN_VERSION);
+        assert_eq!(d.deck.abutment_height, 10.0);
+        assert_eq!(d, Design::demo());
+        // a version-1 file that already names the height keeps it
+        let mut value: Value = serde_json::from_str(&text).expect("JSON");
+        value["deck"]["abutment_height"] = Value::from(7.25);
+        let d = read_design_json(&value.to_string()).expect("reads");
+        assert_eq!(d.deck.abutment_height, 7.25);
+    }
+
+    #[test]
+    fn newer_unknown_and_missing_versions_are_refused_with_reasons() {
+        let with_version =
+            |v: &str| demo_v1_text().replacen("\"version\": 1", &format!("\"version\": {v}"), 1);
+        let e = file_error(read_design_json(&with_version("7")));
+        assert_eq!(e, DesignFileError::NewerVersion { version: 7, readable: READABLE_DESIGN_VERSIONS });
+        let message = StaticsError::DesignFile(e).to_string();
+        assert!(
+            message.contains("made by a newer version of Springline (format 7; this one reads 1 to 2)"),
+            "{message}"
+        );
+        assert!(matches!(
+            file_error(read_design_json(&with_version("0"))),
+            DesignFileError::UnknownVersion { version: 0, .. }
+        ));
+        for not_a_version in ["\"2\"", "1.5", "-1", "null"] {
+            let e = file_error(read_design_json(&with_version(not_a_version)));
+            assert!(matches!(e, DesignFileError::NoVersion { .. }), "{not_a_version}: {e:?}");
+        }
+        for not_an_object in ["[1, 2]", "2", "\"design\"", "{}"] {
+            let e = file_error(read_design_json(not_an_object));
+            assert!(e.to_string().contains("no design format version"), "{not_an_object}: {e}");
+        }
+    }
+
+    #[test]
+    fn malformed_json_is_refused_with_its_line_and_column() {
+        // line 3 lacks the comma after it; the JSON reader stops at the start of line 4
+        let text = "{\n  \"version\": 2,\n  \"name\": \"x\"\n  \"panels\": 12\n}";
+        let e = file_error(read_design_json(text));
+        assert!(matches!(&e, DesignFileError::Malformed { line: 4, column: 3, .. }), "{e:?}");
+        let message = e.to_string();
+        assert!(message.starts_with("it is not valid JSON at line 4, column 3: expected"), "{message}");
+        assert!(!message.contains("at line 4 column 3"), "position given twice: {message}");
+        // cut short
+        let full = write_design_json(&Design::demo());
+        let e = file_error(read_design_json(&full[..full.len() / 2]));
+        assert!(matches!(e, DesignFileError::Malformed { .. }), "{e:?}");
+    }
+
+    #[test]
+    fn a_wrong_field_is_named_with_its_position_in_a_current_file() {
+        let text = write_design_json(&Design::demo()).replace("\"panels\": 12", "\"panels\": \"twelve\"");
+        let line = text.lines().position(|l| l.contains("twelve")).expect("the line") + 1;
+        match file_error(read_design_json(&text)) {
+            DesignFileError::NotADesign { version: 2, at: Some((l, _)), detail } => {
+                assert_eq!(l, line);
+                assert!(detail.contains("invalid type"), "{detail}");
+            }
+            other => panic!("{other:?}"),
+        }
+        // an older file is read after its update: the field is named, its position not
+        let text = demo_v1_text().replace("\"panels\": 12", "\"panels\": \"twelve\"");
+        let e = file_error(read_design_json(&text));
+        assert!(matches!(&e, DesignFileError::NotADesign { version: 1, at: None, .. }), "{e:?}");
+        let text = demo_v1_text().replace("\"deck\"", "\"desk\"");
+        let message = file_error(read_design_json(&text)).to_string();
+        assert!(message.contains("not a design of format 1") && message.contains("deck"), "{message}");
+    }
+
+    /// The field a hypothetical version 3 adds, and its default (test only).
+    const FIELD_OF_VERSION_3: &str = "field_of_version_3";
+    const DEFAULT_OF_VERSION_3: f64 = 0.25;
+
+    fn version_2_to_3(design: &mut Map<String, Value>) {
+        design.entry(FIELD_OF_VERSION_3).or_insert(Value::from(DEFAULT_OF_VERSION_3));
+    }
+
+    /// How a later version adds a field without breaking older files: one more step.
+    /// Files of versions 1 and 2 reach version 3 through the whole chain with the
+    /// defaults of both steps; a version-3 file keeps its value; and today's reader,
+    /// which knows no version 3, refuses such a file as made by a newer version.
+    #[test]
+    fn a_later_version_adds_a_field_by_one_more_step() {
+        let steps: &[Step] = &[version_1_to_2, version_2_to_3];
+        let v1 = demo_v1_text();
+        let v2 = write_design_json(&Design::demo());
+        for (text, declared) in [(&v1, 1), (&v2, 2)] {
+            let (version, value) = updated_json(text, steps).expect("reads");
+            assert_eq!(version, declared);
+            assert_eq!(value["version"], Value::from(3));
+            assert_eq!(value["deck"]["abutment_height"], Value::from(DEFAULT_ABUTMENT_HEIGHT));
+            assert_eq!(value[FIELD_OF_VERSION_3], Value::from(DEFAULT_OF_VERSION_3));
+        }
+        let mut v3: Value = serde_json::from_str(&v2).expect("JSON");
+        v3["version"] = Value::from(3);
+        v3[FIELD_OF_VERSION_3] = Value::from(0.5);
+        let v3 = serde_json::to_string_pretty(&v3).expect("serialises");
+        let (_, value) = updated_json(&v3, steps).expect("reads");
+        assert_eq!(value[FIELD_OF_VERSION_3], Value::from(0.5));
+        // today's reader
+        let message = read_design_json(&v3).map_err(|e| e.to_string()).expect_err("refused");
+        assert!(
+            message.contains("made by a newer version of Springline (format 3; this one reads 1 to 2)"),
+            "{message}"
+        );
+    }
+}
