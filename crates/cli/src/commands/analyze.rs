@@ -20,14 +20,14 @@ use std::path::PathBuf;
 Examples:
   springline analyze design.json
   springline demo | springline analyze -
-  springline analyze --link '#s1.eNp1...'
+  springline analyze --link '#s2.eNp1...'
   springline analyze --summary design.json")]
 pub struct Args {
     /// The design file (JSON); `-` reads standard input.
     #[arg(value_name = "DESIGN.json")]
     design: Option<PathBuf>,
 
-    /// Read the design from a permalink instead: a whole URL, its `#s1...` fragment or
+    /// Read the design from a permalink instead: a whole URL, its `#s2...` fragment or
     /// the payload alone (quote it in the shell).
     #[arg(long, value_name = "LINK")]
     link: Option<String>,

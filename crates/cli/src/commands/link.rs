@@ -8,7 +8,7 @@ use std::path::PathBuf;
 
 /// Print the permalink fragment of a design.
 ///
-/// The fragment (`#s1...`) holds the whole design: `analyze --link` and the app open it
+/// The fragment (`#s2...`) holds the whole design: `analyze --link` and the app open it
 /// to the same numbers. A design that fails validation is refused, since its link would
 /// not open.
 #[derive(clap::Args)]
@@ -22,7 +22,7 @@ pub struct Args {
     design: PathBuf,
 }
 
-/// Reads and validates a design and prints its permalink fragment (`#s1...`) as one
+/// Reads and validates a design and prints its permalink fragment (`#s2...`) as one
 /// line. A design that fails validation is refused (exit 1): its link would not open.
 pub fn run(args: Args) -> Result<(), Failure> {
     let design = read_design(&args.design)?;
