@@ -4,7 +4,8 @@
 use crate::canvas::{self, Surface, View};
 use crate::format::{Quantity, Units};
 use crate::palette::*;
-use springline_statics::{Analysis, Design};
+use springline_statics::arch::summary::SpringingForce;
+use springline_statics::{Analysis, Design, MemberRole};
 
 /// What the elevation needs besides the analysis.
 pub struct ElevationInput<'a> {
@@ -105,21 +106,17 @@ pub fn draw(s: &Surface, input: &ElevationInput) -> View {
             canvas::line(ctx, p(na.x, na.y), p(nb.x, nb.y), HIGHLIGHT, 3.0);
         }
     }
-    // joints: deck panel points dark, hinges open
+    // joints: deck panel points dark, hinges open (parts found by their roles)
+    let map = &a.frame.map;
     let mut on_deck = vec![false; model.nodes.len()];
-    for m in model.members.iter().filter(|m| m.group == "deck") {
-        on_deck[m.start] = true;
-        on_deck[m.end] = true;
+    for &node in map.deck_nodes.iter().flatten() {
+        on_deck[node] = true;
+        canvas::dot(ctx, p(model.nodes[node].x, model.nodes[node].y), 2.6, INK);
     }
-    for (node, _) in
-        model.nodes.iter().zip(&on_deck).filter(|(n, deck)| **deck && (n.y - d.deck.level).abs() < 0.5)
-    {
-        canvas::dot(ctx, p(node.x, node.y), 2.6, INK);
-    }
-    let hinge_nodes: Vec<usize> = model
-        .members
+    let hinge_nodes: Vec<usize> = map
+        .rib_members
         .iter()
-        .filter(|m| m.group == "rib")
+        .map(|&k| &model.members[k])
         .flat_map(|m| {
             let mut v = Vec::new();
             if m.release_start {
@@ -150,7 +147,7 @@ pub fn draw(s: &Surface, input: &ElevationInput) -> View {
         let fmax = lc.nodal.iter().map(|l| l.fy.abs()).fold(0.0, f64::max).max(1e-9);
         for l in &lc.nodal {
             let node = &model.nodes[l.node];
-            if (node.y - d.deck.level).abs() > 0.5 || l.fy >= 0.0 {
+            if !on_deck[l.node] || l.fy >= 0.0 {
                 continue;
             }
             let head = p(node.x, node.y);
@@ -161,25 +158,19 @@ pub fn draw(s: &Surface, input: &ElevationInput) -> View {
 
     // reactions at the springings from the frame model: components and resultant angle
     let u = input.units;
-    for (node_pos, right) in [(f.springing_left, false), (f.springing_right, true)] {
-        let Some(idx) = model
-            .nodes
-            .iter()
-            .position(|n| (n.x - node_pos.x).abs() < 1e-9 && (n.y - node_pos.y).abs() < 1e-9)
-        else {
-            continue;
-        };
+    for (idx, right) in [(map.springings[0], false), (map.springings[1], true)] {
         let Some(r) = case.reaction(idx) else { continue };
+        let node_pos = &model.nodes[idx];
         let c = p(node_pos.x, node_pos.y);
         let mag = r.fx.hypot(r.fy).max(1e-9);
         let len = 46.0;
         let tail = (c.0 - len * r.fx / mag, c.1 + len * r.fy / mag);
         canvas::arrow(ctx, tail, c, REACTION, 2.2, 9.0);
-        let angle = r.fy.atan2(r.fx.abs()).to_degrees();
+        let thrust = SpringingForce::from_reaction(r.fx, r.fy, !right);
         let lines = [
-            format!("H = {}", u.show(Quantity::Force, r.fx.abs())),
-            format!("V = {}", u.show(Quantity::Force, r.fy)),
-            format!("{} from horizontal", u.show(Quantity::Angle, angle)),
+            format!("H = {}", u.show(Quantity::Force, thrust.thrust)),
+            format!("V = {}", u.show(Quantity::Force, thrust.vertical)),
+            format!("{} below horizontal", u.show(Quantity::Angle, thrust.angle_deg)),
         ];
         let (ax, align) = if right { (c.0 + 12.0, "left") } else { (c.0 - 12.0, "right") };
         for (i, l) in lines.iter().enumerate() {
