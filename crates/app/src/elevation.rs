@@ -5,7 +5,7 @@ use crate::canvas::{self, Surface, View};
 use crate::format::{Quantity, Units};
 use crate::palette::*;
 use springline_statics::arch::summary::SpringingForce;
-use springline_statics::{Analysis, Design, MemberRole};
+use springline_statics::{Analysis, Design};
 
 /// What the elevation needs besides the analysis.
 pub struct ElevationInput<'a> {
