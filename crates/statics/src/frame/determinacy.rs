@@ -182,7 +182,7 @@ fn determinacy_with(model: &Model, fast: bool) -> Result<DeterminacyReport, Stat
 /// and the model has no mechanism. False means "not sure": the caller does the SVD.
 fn without_mechanism(model: &Model) -> bool {
     let nn = model.nodes.len();
-    let order = crate::frame::solver::node_order(model);
+    let order = crate::frame::numbering::node_order(model);
     let mut eq = vec![0usize; nn];
     for (k, &node) in order.iter().enumerate() {
         eq[node] = k;

@@ -38,8 +38,9 @@
 //! a couple, or a member carrying shear or bending is an error, never a wrong picture.
 
 use crate::error::StaticsError;
+use crate::frame::equilibrium::characteristic_length;
 use crate::frame::model::Model;
-use crate::frame::solver::{characteristic_length, validate, CaseResult};
+use crate::frame::solver::{validate, CaseResult};
 use crate::tolerance::{CROSSING_END, PARALLEL, ZERO_FORCE};
 use serde::{Deserialize, Serialize};
 use std::collections::VecDeque;
