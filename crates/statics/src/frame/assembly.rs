@@ -7,14 +7,12 @@
 //! right-hand side is always formed element by element as the out-of-balance force
 //! `free_residual`, which iterative refinement reuses.
 
-use crate::error::StaticsError;
 use crate::frame::banded::BandMatrix;
 use crate::frame::element::{
     fixed_end_actions, local_stiffness, resolve_load, temperature_end_actions, Geometry, LocalLoad,
 };
-use crate::frame::model::{Dof, LoadCase, Model};
-use crate::frame::numbering::{number, Equation, Numbering};
-use crate::frame::solver::validate;
+use crate::frame::model::{LoadCase, Model};
+use crate::frame::numbering::{Equation, Numbering};
 use nalgebra::{Matrix6, Vector6};
 
 /// Per-member data reused between assembly and recovery.
@@ -43,17 +41,6 @@ pub(crate) fn elements(model: &Model) -> Vec<Element> {
             Element { geometry, k_local, t, k_global }
         })
         .collect()
-}
-
-/// The assembled stiffness matrix of the free freedoms (banded, reverse Cuthill-McKee
-/// numbering) and, for each equation, the node and freedom it belongs to. Units kN/m,
-/// kN/rad, kNm/rad. Errors for an invalid model.
-pub fn free_stiffness(model: &Model) -> Result<(BandMatrix, Vec<(usize, Dof)>), StaticsError> {
-    validate(model)?;
-    let numbering = number(model);
-    let elems = elements(model);
-    let k = assemble(model, &numbering, &elems);
-    Ok((k, numbering.free))
 }
 
 /// Adds every element's global stiffness into the banded matrix of the free freedoms.
@@ -177,4 +164,46 @@ pub(crate) fn free_residual(
         }
     }
     r
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::error::StaticsError;
+    use crate::frame::model::{truss, Dof, Support};
+    use crate::frame::numbering::number;
+    use crate::frame::solver::validate;
+
+    /// The assembled stiffness matrix of the free freedoms (banded, reverse Cuthill-McKee
+    /// numbering) and, for each equation, the node and freedom it belongs to. Units kN/m,
+    /// kN/rad, kNm/rad. Errors for an invalid model.
+    fn free_stiffness(model: &Model) -> Result<(BandMatrix, Vec<(usize, Dof)>), StaticsError> {
+        validate(model)?;
+        let numbering = number(model);
+        let elems = elements(model);
+        let k = assemble(model, &numbering, &elems);
+        Ok((k, numbering.free))
+    }
+
+    /// Two bars meeting at a free apex (a 3-4-5 triangle's rafters on two pins): the
+    /// apex stiffness is the sum of EA/L [c^2 cs; cs s^2] over the bars (direct stiffness
+    /// method, McGuire, Gallagher & Ziemian, Matrix Structural Analysis, 2nd ed., ch. 3).
+    #[test]
+    fn apex_of_two_bars_has_the_hand_stiffness() {
+        let ea = 2e8 * 0.01;
+        let mut m = Model::default();
+        for (x, y) in [(0.0, 0.0), (4.0, 3.0), (8.0, 0.0)] {
+            m.add_node("", x, y);
+        }
+        m.add_member(truss("", "", 0, 1, 2e8, 0.01));
+        m.add_member(truss("", "", 1, 2, 2e8, 0.01));
+        m.supports = vec![Support::pinned(0), Support::pinned(2)];
+        let (k, free) = free_stiffness(&m).expect("valid");
+        assert_eq!(free, vec![(1, Dof::X), (1, Dof::Y)]);
+        assert_eq!(k.bandwidth(), 1);
+        let close = |a: f64, b: f64| (a - b).abs() <= 1e-9 * ea;
+        assert!(close(k.get(0, 0), 2.0 * ea / 5.0 * 0.64), "{}", k.get(0, 0));
+        assert!(close(k.get(1, 1), 2.0 * ea / 5.0 * 0.36), "{}", k.get(1, 1));
+        assert!(close(k.get(1, 0), 0.0) && close(k.get(0, 1), 0.0));
+    }
 }

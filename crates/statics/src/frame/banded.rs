@@ -10,7 +10,7 @@ use crate::tolerance::{PIVOT_TOLERANCE, ROUNDING_MARGIN};
 
 /// A symmetric matrix stored by its lower band.
 #[derive(Debug, Clone)]
-pub struct BandMatrix {
+pub(crate) struct BandMatrix {
     n: usize,
     bandwidth: usize,
     data: Vec<f64>,
@@ -18,15 +18,11 @@ pub struct BandMatrix {
 
 impl BandMatrix {
     /// A zero n x n matrix whose entries (i, j) vanish for |i - j| > bandwidth.
-    pub fn zeros(n: usize, bandwidth: usize) -> Self {
+    pub(crate) fn zeros(n: usize, bandwidth: usize) -> Self {
         BandMatrix { n, bandwidth, data: vec![0.0; n * (bandwidth + 1)] }
     }
-    /// Order of the matrix.
-    pub fn order(&self) -> usize {
-        self.n
-    }
     /// Half bandwidth.
-    pub fn bandwidth(&self) -> usize {
+    pub(crate) fn bandwidth(&self) -> usize {
         self.bandwidth
     }
     fn idx(&self, i: usize, j: usize) -> usize {
@@ -34,13 +30,13 @@ impl BandMatrix {
         i * (self.bandwidth + 1) + (i - j)
     }
     /// Adds `value` to entry (i, j) (and so to (j, i)); entries outside the band must be 0.
-    pub fn add(&mut self, i: usize, j: usize, value: f64) {
+    pub(crate) fn add(&mut self, i: usize, j: usize, value: f64) {
         let (i, j) = if i >= j { (i, j) } else { (j, i) };
         let k = self.idx(i, j);
         self.data[k] += value;
     }
     /// Entry (i, j).
-    pub fn get(&self, i: usize, j: usize) -> f64 {
+    pub(crate) fn get(&self, i: usize, j: usize) -> f64 {
         let (i, j) = if i >= j { (i, j) } else { (j, i) };
         if i - j > self.bandwidth {
             0.0
@@ -52,24 +48,23 @@ impl BandMatrix {
 
 /// The factors L (unit lower, banded) and D of A = L D L^T.
 #[derive(Debug, Clone)]
-pub struct LdlFactor {
+pub(crate) struct LdlFactor {
     l: BandMatrix,
     d: Vec<f64>,
 }
 
-/// Why a factorisation failed: the pivot of freedom `index` collapsed; `null_vector` is
-/// a vector v (length n, zero beyond `index`, `v[index] = 1`) with A v = 0 up to rounding.
+/// Why a factorisation failed: the pivot of some equation j collapsed; `null_vector` is a
+/// vector v (length n, zero beyond j, `v[j] = 1`) with A v = 0 up to rounding.
 #[derive(Debug, Clone)]
-pub struct SingularPivot {
-    /// The equation whose pivot vanished.
-    pub index: usize,
-    /// A null vector of A (A positive semi-definite).
-    pub null_vector: Vec<f64>,
+pub(crate) struct SingularPivot {
+    /// A null vector of A (A positive semi-definite); its last non-zero entry, 1, is at
+    /// the equation whose pivot vanished.
+    pub(crate) null_vector: Vec<f64>,
 }
 
 impl LdlFactor {
     /// Factorises `a`. Fails at the first pivot below `PIVOT_TOLERANCE` times its diagonal.
-    pub fn new(a: &BandMatrix) -> Result<Self, SingularPivot> {
+    pub(crate) fn new(a: &BandMatrix) -> Result<Self, SingularPivot> {
         let n = a.n;
         let bw = a.bandwidth;
         let mut l = a.clone();
@@ -88,7 +83,7 @@ impl LdlFactor {
             let diag = a.get(j, j).abs();
             let noise = ROUNDING_MARGIN * f64::EPSILON * carried;
             if dj.is_nan() || dj <= PIVOT_TOLERANCE * diag || dj <= noise || !dj.is_finite() {
-                return Err(SingularPivot { index: j, null_vector: null_vector(&l, &d, j) });
+                return Err(SingularPivot { null_vector: null_vector(&l, &d, j) });
             }
             d[j] = dj;
             let idx = l.idx(j, j);
@@ -108,7 +103,7 @@ impl LdlFactor {
     }
 
     /// Solves A x = b in place.
-    pub fn solve_in_place(&self, b: &mut [f64]) {
+    pub(crate) fn solve_in_place(&self, b: &mut [f64]) {
         let n = self.l.n;
         let bw = self.l.bandwidth;
         for i in 0..n {
@@ -180,7 +175,8 @@ mod tests {
         a.add(1, 1, 1.0);
         a.add(1, 0, -1.0);
         let e = LdlFactor::new(&a).expect_err("singular");
-        assert_eq!(e.index, 1);
-        assert!((e.null_vector[0] - 1.0).abs() < 1e-14);
+        // the second pivot collapses: v = [1, 1]
+        assert_eq!(e.null_vector.len(), 2);
+        assert!((e.null_vector[0] - 1.0).abs() < 1e-14 && e.null_vector[1] == 1.0);
     }
 }

@@ -178,7 +178,7 @@ fn determinacy_with(model: &Model, fast: bool) -> Result<DeterminacyReport, Stat
 }
 
 /// True when A A^T of the pin-jointed model factorises with every pivot clearly positive
-/// (see [`crate::frame::banded::PIVOT_TOLERANCE`]): the bars and supports then hold every node
+/// (see [`crate::tolerance::PIVOT_TOLERANCE`]): the bars and supports then hold every node
 /// and the model has no mechanism. False means "not sure": the caller does the SVD.
 fn without_mechanism(model: &Model) -> bool {
     let nn = model.nodes.len();

@@ -1,5 +1,5 @@
 //! The general plane-frame layer: the analysis model, member stiffness, the banded
-//! factorisation, the direct stiffness solver and the determinacy of pin-jointed models.
+//! factorisation (internal), the direct stiffness solver and the determinacy of pin-jointed models.
 //! It knows nothing of arches: members carry a free-text `group`, never a role.
 //!
 //! The solver by concept: `solver` (validation and the solve), `numbering` (reverse
@@ -7,7 +7,6 @@
 //! vectors), `recovery` (member end forces, stations, reactions), `equilibrium` (the
 //! independent check) and `results` (what a solve returns).
 
-pub mod banded;
 pub mod determinacy;
 pub mod element;
 pub mod equilibrium;
@@ -16,5 +15,6 @@ pub mod results;
 pub mod solver;
 
 mod assembly;
+mod banded;
 mod numbering;
 mod recovery;

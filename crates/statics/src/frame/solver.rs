@@ -22,7 +22,6 @@ use crate::frame::model::{Dof, LoadCase, Model};
 use crate::frame::numbering::{number, rotation_active, Numbering};
 use crate::frame::recovery::{displacement_results, member_forces, node_displacements, reactions};
 
-pub use crate::frame::assembly::free_stiffness;
 pub use crate::frame::recovery::STATION_INTERVALS;
 pub use crate::frame::results::{
     CaseResult, EquilibriumCheck, MemberForces, NodeDisplacement, Reaction, SectionForces, Solution, Station,
