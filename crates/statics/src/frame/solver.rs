@@ -14,7 +14,7 @@
 //! V = dM/ds. Reactions and displacements in global axes (x right, y up, anticlockwise
 //! positive).
 
-use crate::error::{Problem, StaticsError};
+use crate::error::{Location, Problem, StaticsError};
 use crate::frame::assembly::{assemble, case_loads, elements, free_residual, Element};
 use crate::frame::banded::LdlFactor;
 use crate::frame::equilibrium::{characteristic_length, equilibrium_check, RecoveredTotals};
@@ -31,22 +31,26 @@ pub use crate::frame::results::{
 pub const REFINEMENT_STEPS: usize = 2;
 
 /// Checks a model and lists every problem found (indices, lengths, properties, loads).
+///
+/// Each problem names where it is: `Location::Node` or `Location::Member` (index and
+/// display name), `Location::LoadCase` (its name), or `Location::Part` for the model as a
+/// whole (`model`) and supports on missing nodes (`support`).
 pub fn validate(model: &Model) -> Result<(), StaticsError> {
     let mut p = Vec::new();
-    let mut add = |loc: String, msg: String| p.push(Problem::new(loc, msg));
+    let mut add = |loc: Location, msg: String| p.push(Problem::new(loc, msg));
     if model.nodes.is_empty() {
-        add("model".into(), "has no nodes; add at least two nodes and a member".into());
+        add(Location::Part("model".into()), "has no nodes; add at least two nodes and a member".into());
     }
     let nn = model.nodes.len();
     for (i, n) in model.nodes.iter().enumerate() {
         if !n.x.is_finite() || !n.y.is_finite() {
-            add(format!("node {}", model.node_label(i)), "coordinates must be finite numbers (m)".into());
+            add(model.node_location(i), "coordinates must be finite numbers (m)".into());
         }
     }
     let extent = characteristic_length(model);
     let mut connected = vec![false; nn];
     for (k, m) in model.members.iter().enumerate() {
-        let loc = format!("member {}", model.member_label(k));
+        let loc = model.member_location(k);
         let mut ends_ok = true;
         for (end, idx) in [("start", m.start), ("end", m.end)] {
             if idx >= nn {
@@ -92,34 +96,28 @@ pub fn validate(model: &Model) -> Result<(), StaticsError> {
     let mut supported = vec![false; nn];
     for s in &model.supports {
         if s.node >= nn {
-            add("support".into(), format!("node {} does not exist (the model has {nn} nodes)", s.node));
+            add(
+                Location::Part("support".into()),
+                format!("node {} does not exist (the model has {nn} nodes)", s.node),
+            );
             continue;
         }
         if supported[s.node] {
-            add(
-                format!("node {}", model.node_label(s.node)),
-                "has more than one support; merge them into one".into(),
-            );
+            add(model.node_location(s.node), "has more than one support; merge them into one".into());
         }
         supported[s.node] = true;
         if !(s.x || s.y || s.rz) {
-            add(
-                format!("node {}", model.node_label(s.node)),
-                "support restrains nothing; set x, y or rz".into(),
-            );
+            add(model.node_location(s.node), "support restrains nothing; set x, y or rz".into());
         }
     }
     for (i, c) in connected.iter().enumerate() {
         if !c {
-            add(
-                format!("node {}", model.node_label(i)),
-                "is not connected to any member; remove it or connect it".into(),
-            );
+            add(model.node_location(i), "is not connected to any member; remove it or connect it".into());
         }
     }
     let rot = rotation_active(model);
     for lc in &model.load_cases {
-        let loc = format!("load case '{}'", lc.name);
+        let loc = Location::LoadCase(lc.name.clone());
         for l in &lc.nodal {
             if l.node >= nn {
                 add(loc.clone(), format!("nodal load on node {} which does not exist", l.node));
