@@ -7,6 +7,7 @@
 //! right-hand side is always formed element by element as the out-of-balance force
 //! `free_residual`, which iterative refinement reuses.
 
+use crate::error::StaticsError;
 use crate::frame::banded::BandMatrix;
 use crate::frame::element::{
     fixed_end_actions, local_stiffness, resolve_load, temperature_end_actions, Geometry, LocalLoad,
@@ -44,8 +45,14 @@ pub(crate) fn elements(model: &Model) -> Vec<Element> {
 }
 
 /// Adds every element's global stiffness into the banded matrix of the free freedoms.
-/// The half bandwidth is the largest spread of free equation numbers within a member.
-pub(crate) fn assemble(model: &Model, numbering: &Numbering, elems: &[Element]) -> BandMatrix {
+/// The half bandwidth is the largest spread of free equation numbers within a member, so
+/// every entry lies in the band; `BandMatrix::add` checks it all the same (an error would
+/// be a defect of the numbering).
+pub(crate) fn assemble(
+    model: &Model,
+    numbering: &Numbering,
+    elems: &[Element],
+) -> Result<BandMatrix, StaticsError> {
     let n = numbering.free.len();
     let mut bandwidth = 0;
     for k in 0..model.members.len() {
@@ -66,12 +73,12 @@ pub(crate) fn assemble(model: &Model, numbering: &Numbering, elems: &[Element]) 
             for c in 0..6 {
                 let Equation::Free(j) = eqs[c] else { continue };
                 if i >= j {
-                    kff.add(i, j, el.k_global[(r, c)]);
+                    kff.add(i, j, el.k_global[(r, c)])?;
                 }
             }
         }
     }
-    kff
+    Ok(kff)
 }
 
 /// The loads of one case, gathered per node and per member.
@@ -169,7 +176,6 @@ pub(crate) fn free_residual(
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::error::StaticsError;
     use crate::frame::model::{truss, Dof, Support};
     use crate::frame::numbering::number;
     use crate::frame::solver::validate;
@@ -181,7 +187,7 @@ mod tests {
         validate(model)?;
         let numbering = number(model);
         let elems = elements(model);
-        let k = assemble(model, &numbering, &elems);
+        let k = assemble(model, &numbering, &elems)?;
         Ok((k, numbering.free))
     }
 

@@ -214,7 +214,7 @@ pub fn solve(model: &Model) -> Result<Solution, StaticsError> {
     validate(model)?;
     let numbering = number(model);
     let elems = elements(model);
-    let kff = assemble(model, &numbering, &elems);
+    let kff = assemble(model, &numbering, &elems)?;
     let n = numbering.free.len();
     let bandwidth = kff.bandwidth();
     let factor = match LdlFactor::new(&kff) {
@@ -265,7 +265,7 @@ fn solve_case(
     let mut u_free = vec![0.0; numbering.free.len()];
     for _ in 0..=REFINEMENT_STEPS {
         let mut r = free_residual(model, numbering, elems, &loads, &u_free);
-        factor.solve_in_place(&mut r);
+        factor.solve_in_place(&mut r)?;
         for (u, d) in u_free.iter_mut().zip(&r) {
             *u += d;
         }
