@@ -53,6 +53,13 @@ impl BandMatrix {
         self.data[k] += value;
         Ok(())
     }
+    /// The first stored entry (i, j), by rows, that is not a finite number.
+    pub(crate) fn first_non_finite(&self) -> Option<(usize, usize)> {
+        let k = self.data.iter().position(|v| !v.is_finite())?;
+        let (i, offset) = (k / (self.bandwidth + 1), k % (self.bandwidth + 1));
+        // entries left of column 0 are never written: they stay 0
+        Some((i, i - offset))
+    }
     /// Entry (i, j).
     pub(crate) fn get(&self, i: usize, j: usize) -> f64 {
         let (i, j) = if i >= j { (i, j) } else { (j, i) };

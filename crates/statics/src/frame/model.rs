@@ -295,9 +295,9 @@ impl Model {
     pub fn member_location(&self, index: usize) -> Location {
         Location::Member { index, name: self.member_label(index) }
     }
-    /// Length of member `index` in m (0 if its nodes are missing).
+    /// Length of member `index` in m (0 if the member or its nodes are missing).
     pub fn member_length(&self, index: usize) -> f64 {
-        let m = &self.members[index];
+        let Some(m) = self.members.get(index) else { return 0.0 };
         match (self.nodes.get(m.start), self.nodes.get(m.end)) {
             (Some(a), Some(b)) => (b.x - a.x).hypot(b.y - a.y),
             _ => 0.0,

@@ -16,7 +16,8 @@
 
 use crate::error::{Location, Problem, StaticsError};
 use crate::frame::assembly::{assemble, case_loads, elements, free_residual, Element};
-use crate::frame::banded::LdlFactor;
+use crate::frame::banded::{BandMatrix, LdlFactor};
+use crate::frame::element::{local_stiffness, Geometry};
 use crate::frame::equilibrium::{characteristic_length, equilibrium_check, RecoveredTotals};
 use crate::frame::model::{Dof, LoadCase, Model};
 use crate::frame::numbering::{number, rotation_active, Numbering};
@@ -35,6 +36,10 @@ pub const REFINEMENT_STEPS: usize = 2;
 /// Each problem names where it is: `Location::Node` or `Location::Member` (index and
 /// display name), `Location::LoadCase` (its name), or `Location::Part` for the model as a
 /// whole (`model`) and supports on missing nodes (`support`).
+///
+/// Errors: `Invalid` with every problem; when there is none, `OutOfRange` at the first
+/// member whose stiffness (E A, E I or a term of its stiffness matrix) overflows or
+/// underflows floating point.
 pub fn validate(model: &Model) -> Result<(), StaticsError> {
     let mut p = Vec::new();
     let mut add = |loc: Location, msg: String| p.push(Problem::new(loc, msg));
@@ -200,21 +205,95 @@ pub fn validate(model: &Model) -> Result<(), StaticsError> {
         }
     }
     if p.is_empty() {
-        Ok(())
+        check_stiffness_range(model)
     } else {
         Err(StaticsError::Invalid(p))
     }
 }
 
+/// Checks that every member's stiffness is a finite, non-zero number in floating point:
+/// E A and (for members that bend) E I, then every term of the local stiffness matrix
+/// (E A / L, 12 E I / L^3, 6 E I / L^2, 4 E I / L, 2 E I / L, and the terms left by
+/// condensing a released end). Overflow to infinity would otherwise surface as a zero
+/// pivot, a mechanism that is not there. The model must be otherwise valid. Errors:
+/// `OutOfRange` at the first member out of range.
+fn check_stiffness_range(model: &Model) -> Result<(), StaticsError> {
+    let out_of_range =
+        |k: usize, message: String| StaticsError::OutOfRange { location: model.member_location(k), message };
+    for (k, m) in model.members.iter().enumerate() {
+        let ea = m.e * m.a;
+        if !(ea.is_finite() && ea > 0.0) {
+            return Err(out_of_range(
+                k,
+                format!(
+                    "E A = {:e} kN/m2 x {:e} m2 {} the range of floating point numbers; check the units of E (kN/m2) \
+                     and A (m2)",
+                    m.e,
+                    m.a,
+                    if ea > 0.0 { "exceeds" } else { "falls below" }
+                ),
+            ));
+        }
+        let bends = !crate::frame::element::is_axial_only(m);
+        let ei = m.e * m.i;
+        if bends && !(ei.is_finite() && ei > 0.0) {
+            return Err(out_of_range(
+                k,
+                format!(
+                    "E I = {:e} kN/m2 x {:e} m4 {} the range of floating point numbers; check the units of E (kN/m2) \
+                     and I (m4)",
+                    m.e,
+                    m.i,
+                    if ei > 0.0 { "exceeds" } else { "falls below" }
+                ),
+            ));
+        }
+        let (a, b) = (&model.nodes[m.start], &model.nodes[m.end]);
+        let geometry = Geometry::new(a.x, a.y, b.x, b.y);
+        let k_local = local_stiffness(m, &geometry);
+        if k_local.iter().any(|v| !v.is_finite()) || k_local[(0, 0)] <= 0.0 {
+            return Err(out_of_range(
+                k,
+                format!(
+                    "its stiffness terms (E A / L, 12 E I / L^3, ...) with L = {:e} m are beyond the range of \
+                     floating point numbers; check the units of E, A and I, or lengthen the member",
+                    geometry.length
+                ),
+            ));
+        }
+    }
+    Ok(())
+}
+
+/// Checks the assembled stiffness: a sum of finite member terms can still overflow where
+/// many stiff members meet. Errors: `OutOfRange` at the node of the first such entry.
+fn check_assembled_range(model: &Model, numbering: &Numbering, kff: &BandMatrix) -> Result<(), StaticsError> {
+    match kff.first_non_finite() {
+        None => Ok(()),
+        Some((i, _)) => {
+            let (node, _) = numbering.free[i];
+            Err(StaticsError::OutOfRange {
+                location: model.node_location(node),
+                message:
+                    "the stiffness of the members meeting here adds up beyond the range of floating point \
+                          numbers; check the units of E, A and I of those members"
+                        .into(),
+            })
+        }
+    }
+}
+
 /// Solves every load case of `model`.
 ///
-/// Errors: `Invalid` listing every problem of the input; `Mechanism` naming a node and
+/// Errors: `Invalid` listing every problem of the input; `OutOfRange` naming a member
+/// (or node) whose stiffness overflows floating point; `Mechanism` naming a node and
 /// direction that move without resistance (never NaN results).
 pub fn solve(model: &Model) -> Result<Solution, StaticsError> {
     validate(model)?;
     let numbering = number(model);
     let elems = elements(model);
     let kff = assemble(model, &numbering, &elems)?;
+    check_assembled_range(model, &numbering, &kff)?;
     let n = numbering.free.len();
     let bandwidth = kff.bandwidth();
     let factor = match LdlFactor::new(&kff) {
