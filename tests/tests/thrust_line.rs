@@ -5,8 +5,7 @@
 //!   e from the line), for the frame model of every rib system under dead load, a
 //!   half-span load and a doubled panel load;
 //! - handbook closed forms for bare parabolic ribs under load on half the span
-//!   (Timoshenko & Young, Theory of Structures, 2nd ed., ch. 9, from memory, as collected
-//!   in shared/REFERENCES.md).
+//!   (Timoshenko & Young, Theory of Structures, 2nd ed., ch. 9, from memory).
 
 use springline_statics::arch::cases::{doubled_panel, half_span, Half};
 use springline_statics::arch::design::{Bracing, Design, RibSystem};
@@ -15,6 +14,12 @@ use springline_statics::{
     add_cases, frame, frame_model, rib_chain, solve, thrust_line, CaseResult, LoadCase, Model, NodalLoad,
     Support, ThrustLine,
 };
+
+/// The members of group "rib": the rib of the generated models and of the ribs built
+/// here (`rib_chain` takes them from the caller).
+fn rib_members(model: &Model) -> Vec<usize> {
+    (0..model.members.len()).filter(|&k| model.members[k].group == "rib").collect()
+}
 
 /// Rib moments of the solver at the sections of a thrust line (just right of every rib
 /// node, and just left of the right springing), with the solver's axial force there:
@@ -81,7 +86,7 @@ fn n_e_equals_the_solver_moment_on_the_frame_model_of_every_rib_system() {
                 vec![half_span(&d, Half::Left, 5.0).expect("half"), doubled_panel(&d, 2).expect("panel")];
             add_cases(&d, &form, &mut model, &specs).expect("cases");
             let sol = solve(&model).expect("solves");
-            let chain = rib_chain(&model).expect("rib");
+            let chain = rib_chain(&model, &rib_members(&model)).expect("rib");
             for case in &sol.cases {
                 let t = thrust_line(&model, case, &chain, d.groups.rib.depth).expect("line");
                 check_line(&t, case, &chain);
@@ -131,7 +136,7 @@ fn parabolic_rib(span: f64, rise: f64, segs: usize, hinges: usize, w: f64) -> Mo
 
 #[test]
 fn two_hinged_parabolic_rib_half_span_gives_the_handbook_quarter_point_moment() {
-    // Timoshenko & Young, Theory of Structures, ch. 9 (from memory; REFERENCES.md):
+    // Timoshenko & Young, Theory of Structures, ch. 9 (from memory):
     // two-hinged parabolic arch, I = I_c sec(theta), rib shortening neglected, UDL w on
     // the left half: H = w L^2 / (16 f), M(L/4) = +w L^2 / 64, M(3L/4) = -w L^2 / 64.
     // The thrust line gives M = thrust x e at the quarter points. The polygonal rib and the
@@ -140,7 +145,7 @@ fn two_hinged_parabolic_rib_half_span_gives_the_handbook_quarter_point_moment() 
     let (span, rise, segs, w) = (100.0, 20.0, 64, 80.0);
     let m = parabolic_rib(span, rise, segs, 2, w);
     let sol = solve(&m).expect("stable");
-    let chain = rib_chain(&m).expect("rib");
+    let chain = rib_chain(&m, &rib_members(&m)).expect("rib");
     let t = thrust_line(&m, &sol.cases[0], &chain, 1.0).expect("line");
     check_line(&t, &sol.cases[0], &chain);
     let mq = w * span * span / 64.0;
@@ -155,13 +160,13 @@ fn two_hinged_parabolic_rib_half_span_gives_the_handbook_quarter_point_moment() 
 
 #[test]
 fn three_hinged_parabolic_rib_half_span_quarter_point_moment_is_exact() {
-    // Three-hinged parabolic arch, UDL w on the left half (REFERENCES.md, Timoshenko &
-    // Young ch. 9, from memory): M(L/4) = +w L^2 / 64, M(3L/4) = -w L^2 / 64; statics
+    // Three-hinged parabolic arch, UDL w on the left half (Timoshenko & Young, Theory of
+    // Structures, ch. 9, from memory): M(L/4) = +w L^2 / 64, M(3L/4) = -w L^2 / 64; statics
     // alone, and panel-point loads give the UDL's moments exactly at the nodes.
     let (span, rise, segs, w) = (48.0, 9.0, 16, 30.0);
     let m = parabolic_rib(span, rise, segs, 3, w);
     let sol = solve(&m).expect("stable");
-    let chain = rib_chain(&m).expect("rib");
+    let chain = rib_chain(&m, &rib_members(&m)).expect("rib");
     let t = thrust_line(&m, &sol.cases[0], &chain, 0.8).expect("line");
     check_line(&t, &sol.cases[0], &chain);
     let mq = w * span * span / 64.0;
@@ -176,7 +181,7 @@ fn three_hinged_parabolic_rib_half_span_quarter_point_moment_is_exact() {
 fn thrust_line_rejects_what_it_cannot_draw() {
     let m = parabolic_rib(40.0, 8.0, 8, 2, 10.0);
     let sol = solve(&m).expect("stable");
-    let chain = rib_chain(&m).expect("rib");
+    let chain = rib_chain(&m, &rib_members(&m)).expect("rib");
     assert!(thrust_line(&m, &sol.cases[0], &chain, 0.0).is_err());
     assert!(thrust_line(&m, &sol.cases[0], &chain, f64::NAN).is_err());
     assert!(thrust_line(&m, &sol.cases[0], &[], 1.0).is_err());
@@ -205,7 +210,7 @@ fn pole_from_solved_reactions_ends_on_the_right_reaction_line() {
         let mut rib = bare_rib_model(&d, &form).expect("rib");
         add_cases(&d, &form, &mut rib, &standard_cases(&d).expect("specs")).expect("cases");
         let sol = solve(&rib).expect("solves");
-        let chain = rib_chain(&rib).expect("rib");
+        let chain = rib_chain(&rib, &rib_members(&rib)).expect("rib");
         let (first, last) = (chain[0], chain[chain.len() - 1]);
         let left = if first.1 { rib.members[first.0].start } else { rib.members[first.0].end };
         let right = if last.1 { rib.members[last.0].end } else { rib.members[last.0].start };

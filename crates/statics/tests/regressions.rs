@@ -3,8 +3,8 @@
 use springline_statics::arch::design::{Crown, RibSystem};
 use springline_statics::error::Location;
 use springline_statics::{
-    analyze, frame, solve, truss, validate, validate_design, Design, Dof, LoadCase, Member, Model, NodalLoad,
-    PrescribedDisplacement, StaticsError, Support,
+    analyze, frame, rib_chain, solve, truss, validate, validate_design, Design, Dof, LoadCase, Member, Model,
+    NodalLoad, PrescribedDisplacement, StaticsError, Support,
 };
 
 /// A two-hinged rib with its crown exactly at deck level and a shortest post of 0 m passed
@@ -139,4 +139,29 @@ fn stiffness_adding_up_beyond_range_at_a_node_is_out_of_range() {
     let (location, message) = out_of_range(&m);
     assert_eq!(location, Location::Node { index: 1, name: "middle".into() });
     assert!(message.contains("adds up beyond the range"), "{message}");
+}
+
+/// `rib_chain` looked up the x of every rib end node without checking it exists, so a
+/// rib member naming a missing node panicked (index out of bounds). Now it is an error at
+/// that member; so is a rib member index that names no member.
+#[test]
+fn rib_member_naming_a_missing_node_is_an_error() {
+    let mut m = Model::default();
+    m.add_node("", 0.0, 0.0);
+    m.add_node("", 5.0, 2.0);
+    m.add_member(frame("r0", "", 0, 1, 2.1e8, 0.1, 0.01));
+    m.add_member(frame("r1", "", 1, 7, 2.1e8, 0.1, 0.01));
+    match rib_chain(&m, &[0, 1]) {
+        Err(StaticsError::Invalid(p)) => {
+            assert_eq!(p.len(), 1);
+            assert_eq!(p[0].location, Location::Member { index: 1, name: "r1".into() });
+            assert!(p[0].message.contains("end node 7 does not exist"), "{}", p[0].message);
+        }
+        other => panic!("expected an error, got {other:?}"),
+    }
+    assert!(matches!(rib_chain(&m, &[0, 5]), Err(StaticsError::Invalid(_))));
+    assert!(matches!(rib_chain(&m, &[0, 0]), Err(StaticsError::Invalid(_))));
+    assert!(matches!(rib_chain(&m, &[]), Err(StaticsError::Invalid(_))));
+    // the valid member alone is a chain of one, run forwards from the left end
+    assert_eq!(rib_chain(&m, &[0]), Ok(vec![(0, true)]));
 }

@@ -296,7 +296,7 @@ fn case_figures(
         },
     };
     let ends = |model: &Model| -> Option<(usize, usize)> {
-        let chain = rib_chain(model).ok()?;
+        let chain = rib_chain(model, &rib_members_by_group(model)).ok()?;
         let first = chain.first()?;
         let last = chain.last()?;
         let node = |(k, fwd): (usize, bool), start: bool| {
@@ -340,7 +340,7 @@ fn case_figures(
         }
         _ => None,
     };
-    let thrust = match (frame_solution.case(name), rib_chain(frame)) {
+    let thrust = match (frame_solution.case(name), rib_chain(frame, &rib_members_by_group(frame))) {
         (Some(case), Ok(chain)) => match thrust_line(frame, case, &chain, design.groups.rib.depth) {
             Ok(t) => {
                 notes.push(format!(
@@ -415,6 +415,12 @@ pub fn rib_moments(model: &Model, solution: &Solution, form: &Form) -> RibMoment
         thrust_times_rise: hf,
         relative: if hf > 0.0 { max_abs / hf } else { 0.0 },
     }
+}
+
+/// The members of group "rib": which members form the rib, for `rib_chain` (the graphic
+/// layer takes them from the caller and knows no groups).
+fn rib_members_by_group(model: &Model) -> Vec<usize> {
+    (0..model.members.len()).filter(|&k| model.members[k].group == "rib").collect()
 }
 
 #[cfg(test)]
