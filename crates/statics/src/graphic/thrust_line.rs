@@ -14,6 +14,7 @@
 use crate::error::StaticsError;
 use crate::frame::model::Model;
 use crate::frame::solver::CaseResult;
+use crate::geom::Point;
 use serde::{Deserialize, Serialize};
 
 /// The centre of pressure at one rib section.
@@ -27,9 +28,9 @@ pub struct PressurePoint {
     /// Rib node at the section.
     pub node: usize,
     /// Section centroid on the rib axis, m.
-    pub axis: (f64, f64),
+    pub axis: Point,
     /// Where the thrust line crosses the section, m.
-    pub point: (f64, f64),
+    pub point: Point,
     /// Offset of the thrust line from the axis along the section, m, positive towards the
     /// extrados (the left-hand side of the rib walking from the left springing: up).
     pub offset: f64,
@@ -53,7 +54,7 @@ pub struct ThrustLine {
     /// node, and just left of the right springing).
     pub sections: Vec<PressurePoint>,
     /// Vertices of the line of pressure (springing, kinks where forces join, springing), m.
-    pub polygon: Vec<(f64, f64)>,
+    pub polygon: Vec<Point>,
     /// Index into `sections` of the largest |offset|.
     pub worst: usize,
     /// Largest |offset|, m.
@@ -299,8 +300,8 @@ pub fn thrust_line(
         let normal = (-t.1, t.0);
         sections.push(PressurePoint {
             node: n,
-            axis: abs(c),
-            point: abs((c.0 + offset * normal.0, c.1 + offset * normal.1)),
+            axis: Point::from(abs(c)),
+            point: Point::from(abs((c.0 + offset * normal.0, c.1 + offset * normal.1))),
             offset,
             thrust,
             moment: thrust * offset,
@@ -312,7 +313,7 @@ pub fn thrust_line(
     if let Some(s) = sections.first() {
         polygon.push(s.point);
     }
-    polygon.extend(kinks);
+    polygon.extend(kinks.into_iter().map(Point::from));
     if let Some(s) = sections.last() {
         polygon.push(s.point);
     }

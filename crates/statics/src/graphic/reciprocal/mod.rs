@@ -45,6 +45,7 @@ use crate::error::{Location, StaticsError};
 use crate::frame::equilibrium::characteristic_length;
 use crate::frame::model::Model;
 use crate::frame::solver::{validate, CaseResult};
+use crate::geom::{Point, Vector};
 use crate::tolerance::ZERO_FORCE;
 use labels::{inside_faces, outside_spaces, space_labels};
 use planar::PlanarMap;
@@ -54,14 +55,9 @@ use std::collections::VecDeque;
 mod labels;
 mod planar;
 
-/// A point of the force diagram, kN along x and y.
-#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize, Default)]
-pub struct ForcePoint {
-    /// Horizontal force component, kN.
-    pub x: f64,
-    /// Vertical force component, kN.
-    pub y: f64,
-}
+/// A point of the force diagram: a position in force space, kN along x and y. The
+/// difference of two points is a force (`Vector`, kN).
+pub type ForcePoint = Point;
 
 /// Whether a space lies outside the structure (between external forces) or inside it.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
@@ -83,7 +79,7 @@ pub struct Space {
     /// Its point in the force diagram, kN (space A sits at the origin).
     pub point: ForcePoint,
     /// Where to write the label on the form diagram, m.
-    pub label_at: (f64, f64),
+    pub label_at: Point,
 }
 
 /// What a segment of the force diagram stands for.
@@ -152,7 +148,7 @@ pub struct Segment {
     pub zero: bool,
     /// External forces: the unit direction (from the joint) of the half-line along which
     /// the force is drawn on the form diagram, outside the structure. `None` for members.
-    pub ray: Option<(f64, f64)>,
+    pub ray: Option<Vector>,
 }
 
 /// A crossing of two members where a pass-through node was inserted.
@@ -161,7 +157,7 @@ pub struct Crossing {
     /// The two crossing members.
     pub members: (usize, usize),
     /// Where they cross, m.
-    pub at: (f64, f64),
+    pub at: Point,
 }
 
 /// The reciprocal figure of one load case on a pin-jointed truss.
@@ -197,11 +193,11 @@ pub struct ForceDiagram {
 
 impl ForceDiagram {
     /// The segment's vector `point(right) - point(left)`, kN: the force it applies to its
-    /// start joint.
-    pub fn vector(&self, segment: &Segment) -> (f64, f64) {
+    /// start joint (zero when the segment names a space the figure does not have).
+    pub fn vector(&self, segment: &Segment) -> Vector {
         match (self.spaces.get(segment.left), self.spaces.get(segment.right)) {
-            (Some(l), Some(r)) => (r.point.x - l.point.x, r.point.y - l.point.y),
-            _ => (0.0, 0.0),
+            (Some(l), Some(r)) => r.point - l.point,
+            _ => Vector::default(),
         }
     }
     /// The (first) segment of member `member`.
@@ -399,7 +395,7 @@ pub fn force_diagram(model: &Model, case: &CaseResult) -> Result<ForceDiagram, S
     let spaces: Vec<Space> = space_labels(model, &map, &externals, &ray, &outside, &inside, extent)
         .into_iter()
         .zip(&points)
-        .map(|(l, &point)| Space { label: l.label, kind: l.kind, point, label_at: l.at })
+        .map(|(l, &point)| Space { label: l.label, kind: l.kind, point, label_at: Point::from(l.at) })
         .collect();
     let name = |l: usize, r: usize| format!("{}-{}", spaces[l].label, spaces[r].label);
     // one segment per member piece, then per external force in load-line order
@@ -449,7 +445,7 @@ pub fn force_diagram(model: &Model, case: &CaseResult) -> Result<ForceDiagram, S
             force: e.fx.hypot(e.fy),
             sense: None,
             zero: false,
-            ray: Some(ray[k]),
+            ray: Some(Vector::new(ray[k].0, ray[k].1)),
         });
     }
     let zero_force_members: Vec<usize> = (0..forces.len()).filter(|&m| forces[m].abs() <= tiny).collect();
@@ -505,7 +501,7 @@ mod tests {
             let (a, b) = (&model.nodes[mem.start], &model.nodes[mem.end]);
             let l = (b.x - a.x).hypot(b.y - a.y);
             let n = s.cases[0].members[k].end.n;
-            let (vx, vy) = fd.vector(seg);
+            let Vector { x: vx, y: vy } = fd.vector(seg);
             assert!(
                 (vx - n * (b.x - a.x) / l).hypot(vy - n * (b.y - a.y) / l) <= 1e-9 * largest,
                 "member {k}"
@@ -626,7 +622,7 @@ mod tests {
             let ray = load.ray.expect("drawn");
             // drawn on the side the force comes from: above for a downward load (in the
             // notch between the triangles), below for an upward one
-            assert!(ray.1 * fy < 0.0 && ray.0.abs() < 1e-9, "fy {fy}: ray {ray:?}");
+            assert!(ray.y * fy < 0.0 && ray.x.abs() < 1e-9, "fy {fy}: ray {ray:?}");
         }
     }
 

@@ -13,6 +13,7 @@
 use super::{embed_error, figure_error, Crossing};
 use crate::frame::equilibrium::characteristic_length;
 use crate::frame::model::Model;
+use crate::geom::Point;
 use crate::tolerance::{CROSSING_END, PARALLEL};
 
 /// The plane map of a pin-jointed model's form diagram.
@@ -276,7 +277,7 @@ fn cut_crossings(model: &Model, pos: &mut Vec<(f64, f64)>) -> (Vec<(usize, usize
                 if !cuts[b].iter().any(|c| c.1 == v) {
                     cuts[b].push((u, v));
                 }
-                crossings.push(Crossing { members: (a, b), at });
+                crossings.push(Crossing { members: (a, b), at: Point::from(at) });
             }
         }
     }
