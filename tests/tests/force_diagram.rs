@@ -228,7 +228,7 @@ fn labels_are_stable_and_run_left_to_right() {
                 .spaces
                 .iter()
                 .filter(|s| s.kind == SpaceKind::Inside)
-                .map(|s| (s.label_at.0, s.label.parse().expect("number")))
+                .map(|s| (s.label_at.x, s.label.parse().expect("number")))
                 .collect();
             inside.sort_by(|p, q| p.0.total_cmp(&q.0));
             assert!(inside.windows(2).all(|w| w[0].1 < w[1].1));

@@ -14,6 +14,12 @@ use springline_statics::{
     Support, ThrustLine, ValidDesign,
 };
 
+/// The members of group "rib": the rib of the generated models and of the ribs built
+/// here (`rib_chain` takes them from the caller).
+fn rib_members(model: &Model) -> Vec<usize> {
+    (0..model.members.len()).filter(|&k| model.members[k].group == "rib").collect()
+}
+
 /// Rib moments of the solver at the sections of a thrust line (just right of every rib
 /// node, and just left of the right springing), with the solver's axial force there:
 /// (N, M) in kN and kNm, sagging positive.
@@ -142,7 +148,7 @@ fn two_hinged_parabolic_rib_half_span_gives_the_handbook_quarter_point_moment() 
     let (span, rise, segs, w) = (100.0, 20.0, 64, 80.0);
     let m = parabolic_rib(span, rise, segs, 2, w);
     let sol = solve(&m).expect("stable");
-    let chain = rib_chain(&m).expect("rib");
+    let chain = rib_chain(&m, &rib_members(&m)).expect("rib");
     let t = thrust_line(&m, &sol.cases[0], &chain, 1.0).expect("line");
     check_line(&t, &sol.cases[0], &chain);
     let mq = w * span * span / 64.0;
@@ -157,13 +163,13 @@ fn two_hinged_parabolic_rib_half_span_gives_the_handbook_quarter_point_moment() 
 
 #[test]
 fn three_hinged_parabolic_rib_half_span_quarter_point_moment_is_exact() {
-    // Three-hinged parabolic arch, UDL w on the left half (Timoshenko &
-    // Young ch. 9, from memory): M(L/4) = +w L^2 / 64, M(3L/4) = -w L^2 / 64; statics
+    // Three-hinged parabolic arch, UDL w on the left half (Timoshenko & Young, Theory of
+    // Structures, ch. 9, from memory): M(L/4) = +w L^2 / 64, M(3L/4) = -w L^2 / 64; statics
     // alone, and panel-point loads give the UDL's moments exactly at the nodes.
     let (span, rise, segs, w) = (48.0, 9.0, 16, 30.0);
     let m = parabolic_rib(span, rise, segs, 3, w);
     let sol = solve(&m).expect("stable");
-    let chain = rib_chain(&m).expect("rib");
+    let chain = rib_chain(&m, &rib_members(&m)).expect("rib");
     let t = thrust_line(&m, &sol.cases[0], &chain, 0.8).expect("line");
     check_line(&t, &sol.cases[0], &chain);
     let mq = w * span * span / 64.0;
@@ -178,7 +184,7 @@ fn three_hinged_parabolic_rib_half_span_quarter_point_moment_is_exact() {
 fn thrust_line_rejects_what_it_cannot_draw() {
     let m = parabolic_rib(40.0, 8.0, 8, 2, 10.0);
     let sol = solve(&m).expect("stable");
-    let chain = rib_chain(&m).expect("rib");
+    let chain = rib_chain(&m, &rib_members(&m)).expect("rib");
     assert!(thrust_line(&m, &sol.cases[0], &chain, 0.0).is_err());
     assert!(thrust_line(&m, &sol.cases[0], &chain, f64::NAN).is_err());
     assert!(thrust_line(&m, &sol.cases[0], &[], 1.0).is_err());

@@ -245,7 +245,7 @@ fn draw_reciprocal(
 
 fn draw_thrust(s: &Surface, tl: &ThrustLine, units: Units) -> View {
     let ctx = &s.ctx;
-    let axis: Vec<(f64, f64)> = tl.sections.iter().map(|sec| sec.axis).collect();
+    let axis: Vec<(f64, f64)> = tl.sections.iter().map(|sec| sec.axis.to_tuple()).collect();
     let bounds =
         axis.iter().fold((f64::INFINITY, f64::NEG_INFINITY, f64::INFINITY, f64::NEG_INFINITY), |b, p| {
             (b.0.min(p.0), b.1.max(p.0), b.2.min(p.1), b.3.max(p.1))
@@ -296,8 +296,8 @@ fn draw_thrust(s: &Surface, tl: &ThrustLine, units: Units) -> View {
         .zip(&normals)
         .map(|(sec, n)| {
             view.px(
-                sec.axis.0 + n.0 * sec.offset * exaggeration,
-                sec.axis.1 + n.1 * sec.offset * exaggeration,
+                sec.axis.x + n.0 * sec.offset * exaggeration,
+                sec.axis.y + n.1 * sec.offset * exaggeration,
             )
         })
         .collect();

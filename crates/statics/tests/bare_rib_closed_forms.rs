@@ -4,9 +4,7 @@
 //! curve, straight frame members between them), loads applied at the rib nodes, and is
 //! not form-found, so H = M / f is not an identity. Sources:
 //! - [TY] Timoshenko & Young, Theory of Structures, 2nd ed., ch. 9 (arches), from memory;
-//! - [R]  Roark's Formulas for Stress and Strain, arch tables, from memory;
-//!
-//! both as collected in shared/REFERENCES.md.
+//! - [R]  Roark's Formulas for Stress and Strain, arch tables, from memory.
 
 use springline_statics::{
     frame, solve, LoadCase, Model, NodalLoad, PrescribedDisplacement, Support, TemperatureLoad,
@@ -175,7 +173,7 @@ fn two_hinged_thrust_with_shortening(span: f64, rise: f64, ic: f64, ac: f64, w: 
 #[test]
 fn rib_shortening_reduces_two_hinged_thrust_as_the_handbook_says() {
     // A realistic EA: A_c = 0.1 m2, I_c = 0.2 m4 (a deep box), L = 100 m, f = 10 m.
-    // Flat-arch formula [REFERENCES.md, TY]: H = H0 / (1 + 15 I_c / (8 A_c f^2)); it
+    // Flat-arch formula [TY]: H = H0 / (1 + 15 I_c / (8 A_c f^2)); it
     // takes cos(theta) = 1, which at rise/span 1/10 overstates the reduction by a few
     // per cent, so it is checked to 10 % of the reduction; the same integrals with the
     // cos^2 term kept are checked to 2 % (24 straight segments for the curve).
@@ -246,7 +244,7 @@ fn three_hinged_rib_point_load_gives_statics_reactions_and_crown_force() {
 
 #[test]
 fn two_hinged_rib_half_span_load_matches_handbook_h_and_quarter_point_moments() {
-    // [TY], REFERENCES.md: two-hinged parabolic rib, I = I_c sec(theta), shortening
+    // [TY]: two-hinged parabolic rib, I = I_c sec(theta), shortening
     // neglected, UDL w on the left half: H = w L^2 / (16 f), M(L/4) = +w L^2 / 64,
     // M(3L/4) = -w L^2 / 64. With each straight segment given I_c sec(theta) of its own
     // chord the polygon reproduces the curve's integrals closely: measured error of the

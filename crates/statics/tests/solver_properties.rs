@@ -1,6 +1,7 @@
 //! Property tests of the stiffness solver over random stable frames and trusses.
 
 use proptest::prelude::*;
+use springline_statics::error::Location;
 use springline_statics::frame::element::{local_stiffness, Geometry};
 use springline_statics::{
     frame, solve, truss, truss_determinacy, Determinacy, LoadCase, LoadDirection, MemberLoad, Model,
@@ -246,4 +247,19 @@ fn invalid_model_lists_every_problem() {
     for needle in ["zero length", "does not exist", "Young's modulus", "area", "finite", "not connected"] {
         assert!(joined.contains(needle), "missing '{needle}' in:\n{joined}");
     }
+    // typed locations: the node and member by index and name, read the same as text
+    let at_node_c = Location::Node { index: 2, name: "C".into() };
+    let at_bad = Location::Member { index: 1, name: "bad".into() };
+    assert!(problems.iter().any(|p| p.location == at_node_c && p.message.contains("finite")), "{joined}");
+    assert!(problems.iter().any(|p| p.location == at_bad && p.message.contains("end node 7")), "{joined}");
+    assert!(joined.contains("member bad: end node 7 does not exist"), "{joined}");
+    // a load case by its name
+    m.load_cases = vec![LoadCase {
+        name: "wind".into(),
+        nodal: vec![NodalLoad { node: 9, fx: 1.0, fy: 0.0, mz: 0.0 }],
+        ..Default::default()
+    }];
+    let Err(StaticsError::Invalid(problems)) = solve(&m) else { panic!("expected invalid") };
+    assert!(problems.iter().any(|p| p.location == Location::LoadCase("wind".into())
+        && p.to_string() == "load case 'wind': nodal load on node 9 which does not exist"));
 }

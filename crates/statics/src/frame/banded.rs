@@ -6,11 +6,12 @@
 //! matching null vector of the leading block is returned so the caller can name what
 //! moves.
 
+use crate::error::{Location, StaticsError};
 use crate::tolerance::{PIVOT_TOLERANCE, ROUNDING_MARGIN};
 
 /// A symmetric matrix stored by its lower band.
 #[derive(Debug, Clone)]
-pub struct BandMatrix {
+pub(crate) struct BandMatrix {
     n: usize,
     bandwidth: usize,
     data: Vec<f64>,
@@ -18,29 +19,49 @@ pub struct BandMatrix {
 
 impl BandMatrix {
     /// A zero n x n matrix whose entries (i, j) vanish for |i - j| > bandwidth.
-    pub fn zeros(n: usize, bandwidth: usize) -> Self {
+    pub(crate) fn zeros(n: usize, bandwidth: usize) -> Self {
         BandMatrix { n, bandwidth, data: vec![0.0; n * (bandwidth + 1)] }
     }
-    /// Order of the matrix.
-    pub fn order(&self) -> usize {
-        self.n
-    }
     /// Half bandwidth.
-    pub fn bandwidth(&self) -> usize {
+    pub(crate) fn bandwidth(&self) -> usize {
         self.bandwidth
     }
+    /// Storage index of entry (i, j), j <= i <= j + bandwidth. Only for indices the
+    /// caller has proven inside the band (the factorisation's loops); `add` checks.
     fn idx(&self, i: usize, j: usize) -> usize {
         debug_assert!(j <= i && i - j <= self.bandwidth);
         i * (self.bandwidth + 1) + (i - j)
     }
-    /// Adds `value` to entry (i, j) (and so to (j, i)); entries outside the band must be 0.
-    pub fn add(&mut self, i: usize, j: usize, value: f64) {
+    /// Adds `value` to entry (i, j) (and so to (j, i)).
+    ///
+    /// Errors (`OutOfRange`, the matrix unchanged) when (i, j) lies outside the matrix or
+    /// outside its band: stored by rows of the band, such an entry would otherwise land
+    /// on another one. Checked in every build.
+    pub(crate) fn add(&mut self, i: usize, j: usize, value: f64) -> Result<(), StaticsError> {
         let (i, j) = if i >= j { (i, j) } else { (j, i) };
+        if i >= self.n || i - j > self.bandwidth {
+            return Err(StaticsError::OutOfRange {
+                location: Location::Part("banded stiffness matrix".into()),
+                message: format!(
+                    "entry ({i}, {j}) lies outside the matrix of order {} and half bandwidth {}; the \
+                     equations were numbered inconsistently, a defect of the solver: please report the model",
+                    self.n, self.bandwidth
+                ),
+            });
+        }
         let k = self.idx(i, j);
         self.data[k] += value;
+        Ok(())
+    }
+    /// The first stored entry (i, j), by rows, that is not a finite number.
+    pub(crate) fn first_non_finite(&self) -> Option<(usize, usize)> {
+        let k = self.data.iter().position(|v| !v.is_finite())?;
+        let (i, offset) = (k / (self.bandwidth + 1), k % (self.bandwidth + 1));
+        // entries left of column 0 are never written: they stay 0
+        Some((i, i - offset))
     }
     /// Entry (i, j).
-    pub fn get(&self, i: usize, j: usize) -> f64 {
+    pub(crate) fn get(&self, i: usize, j: usize) -> f64 {
         let (i, j) = if i >= j { (i, j) } else { (j, i) };
         if i - j > self.bandwidth {
             0.0
@@ -52,24 +73,23 @@ impl BandMatrix {
 
 /// The factors L (unit lower, banded) and D of A = L D L^T.
 #[derive(Debug, Clone)]
-pub struct LdlFactor {
+pub(crate) struct LdlFactor {
     l: BandMatrix,
     d: Vec<f64>,
 }
 
-/// Why a factorisation failed: the pivot of freedom `index` collapsed; `null_vector` is
-/// a vector v (length n, zero beyond `index`, `v[index] = 1`) with A v = 0 up to rounding.
+/// Why a factorisation failed: the pivot of some equation j collapsed; `null_vector` is a
+/// vector v (length n, zero beyond j, `v[j] = 1`) with A v = 0 up to rounding.
 #[derive(Debug, Clone)]
-pub struct SingularPivot {
-    /// The equation whose pivot vanished.
-    pub index: usize,
-    /// A null vector of A (A positive semi-definite).
-    pub null_vector: Vec<f64>,
+pub(crate) struct SingularPivot {
+    /// A null vector of A (A positive semi-definite); its last non-zero entry, 1, is at
+    /// the equation whose pivot vanished.
+    pub(crate) null_vector: Vec<f64>,
 }
 
 impl LdlFactor {
     /// Factorises `a`. Fails at the first pivot below `PIVOT_TOLERANCE` times its diagonal.
-    pub fn new(a: &BandMatrix) -> Result<Self, SingularPivot> {
+    pub(crate) fn new(a: &BandMatrix) -> Result<Self, SingularPivot> {
         let n = a.n;
         let bw = a.bandwidth;
         let mut l = a.clone();
@@ -88,7 +108,7 @@ impl LdlFactor {
             let diag = a.get(j, j).abs();
             let noise = ROUNDING_MARGIN * f64::EPSILON * carried;
             if dj.is_nan() || dj <= PIVOT_TOLERANCE * diag || dj <= noise || !dj.is_finite() {
-                return Err(SingularPivot { index: j, null_vector: null_vector(&l, &d, j) });
+                return Err(SingularPivot { null_vector: null_vector(&l, &d, j) });
             }
             d[j] = dj;
             let idx = l.idx(j, j);
@@ -107,9 +127,20 @@ impl LdlFactor {
         Ok(LdlFactor { l, d })
     }
 
-    /// Solves A x = b in place.
-    pub fn solve_in_place(&self, b: &mut [f64]) {
+    /// Solves A x = b in place: on entry `b` holds the right-hand side, on return x.
+    ///
+    /// Errors (`OutOfRange`, `b` unchanged) when `b` does not have one entry per equation.
+    pub(crate) fn solve_in_place(&self, b: &mut [f64]) -> Result<(), StaticsError> {
         let n = self.l.n;
+        if b.len() != n {
+            return Err(StaticsError::OutOfRange {
+                location: Location::Part("right-hand side".into()),
+                message: format!(
+                    "has {} entries but the factorised matrix has order {n}; pass one entry per equation",
+                    b.len()
+                ),
+            });
+        }
         let bw = self.l.bandwidth;
         for i in 0..n {
             let lo = i.saturating_sub(bw);
@@ -130,6 +161,7 @@ impl LdlFactor {
             }
             b[i] = s;
         }
+        Ok(())
     }
 }
 
@@ -160,13 +192,13 @@ mod tests {
         // [2 -1 0; -1 2 -1; 0 -1 2] x = [1 0 1] has x = [1 1 1]
         let mut a = BandMatrix::zeros(3, 1);
         for i in 0..3 {
-            a.add(i, i, 2.0);
+            a.add(i, i, 2.0).expect("in band");
         }
-        a.add(1, 0, -1.0);
-        a.add(2, 1, -1.0);
+        a.add(1, 0, -1.0).expect("in band");
+        a.add(2, 1, -1.0).expect("in band");
         let f = LdlFactor::new(&a).expect("positive definite");
         let mut b = vec![1.0, 0.0, 1.0];
-        f.solve_in_place(&mut b);
+        f.solve_in_place(&mut b).expect("right length");
         for x in b {
             assert!((x - 1.0).abs() < 1e-14);
         }
@@ -176,11 +208,58 @@ mod tests {
     fn singular_matrix_reports_null_vector() {
         // a free-free spring pair: [1 -1; -1 1] has null vector [1 1]
         let mut a = BandMatrix::zeros(2, 1);
-        a.add(0, 0, 1.0);
-        a.add(1, 1, 1.0);
-        a.add(1, 0, -1.0);
+        a.add(0, 0, 1.0).expect("in band");
+        a.add(1, 1, 1.0).expect("in band");
+        a.add(1, 0, -1.0).expect("in band");
         let e = LdlFactor::new(&a).expect_err("singular");
-        assert_eq!(e.index, 1);
-        assert!((e.null_vector[0] - 1.0).abs() < 1e-14);
+        // the second pivot collapses: v = [1, 1]
+        assert_eq!(e.null_vector.len(), 2);
+        assert!((e.null_vector[0] - 1.0).abs() < 1e-14 && e.null_vector[1] == 1.0);
+    }
+
+    /// Regression: `add` outside the band was only checked by a `debug_assert`; in a
+    /// release build `add(2, 0)` on a half bandwidth of 1 silently added to entry (3, 3)
+    /// instead. Now it is an error in every build and nothing is written.
+    #[test]
+    fn add_outside_the_band_is_an_error_and_writes_nothing() {
+        let mut a = BandMatrix::zeros(4, 1);
+        for (i, j) in [(2, 0), (0, 2), (3, 0), (4, 4), (4, 3)] {
+            match a.add(i, j, 5.0) {
+                Err(StaticsError::OutOfRange { location: Location::Part(what), message }) => {
+                    assert_eq!(what, "banded stiffness matrix");
+                    assert!(message.contains("order 4 and half bandwidth 1"), "{message}");
+                }
+                other => panic!("({i}, {j}): expected OutOfRange, got {other:?}"),
+            }
+        }
+        for i in 0..4 {
+            for j in 0..4 {
+                assert_eq!(a.get(i, j), 0.0, "entry ({i}, {j}) was written");
+            }
+        }
+        a.add(3, 2, 1.5).expect("in band");
+        assert_eq!((a.get(2, 3), a.get(3, 3)), (1.5, 0.0));
+    }
+
+    /// Regression: a right-hand side of the wrong length panicked on an index (too
+    /// short) or was silently half solved (too long); now it is an error and `b` is left
+    /// as it was.
+    #[test]
+    fn right_hand_side_of_the_wrong_length_is_an_error() {
+        let mut a = BandMatrix::zeros(2, 1);
+        a.add(0, 0, 2.0).expect("in band");
+        a.add(1, 1, 2.0).expect("in band");
+        let f = LdlFactor::new(&a).expect("positive definite");
+        for mut b in [vec![1.0], vec![1.0, 2.0, 3.0], vec![]] {
+            let before = b.clone();
+            match f.solve_in_place(&mut b) {
+                Err(StaticsError::OutOfRange { location: Location::Part(what), message }) => {
+                    assert_eq!(what, "right-hand side");
+                    assert!(message.contains("order 2"), "{message}");
+                }
+                other => panic!("length {}: expected OutOfRange, got {other:?}", before.len()),
+            }
+            assert_eq!(b, before);
+        }
     }
 }

@@ -178,11 +178,21 @@ fn determinacy_with(model: &Model, fast: bool) -> Result<DeterminacyReport, Stat
 }
 
 /// True when A A^T of the pin-jointed model factorises with every pivot clearly positive
-/// (see [`crate::frame::banded::PIVOT_TOLERANCE`]): the bars and supports then hold every node
+/// (see [`crate::tolerance::PIVOT_TOLERANCE`]): the bars and supports then hold every node
 /// and the model has no mechanism. False means "not sure": the caller does the SVD.
 fn without_mechanism(model: &Model) -> bool {
+    // an entry outside the band would be a defect of the bandwidth here: "not sure"
+    match normal_matrix(model) {
+        Ok(k) => crate::frame::banded::LdlFactor::new(&k).is_ok(),
+        Err(_) => false,
+    }
+}
+
+/// A A^T of the pin-jointed model (2 rows per node, in the solver's node order), banded,
+/// with a unit stiffness added for every support restraint.
+fn normal_matrix(model: &Model) -> Result<crate::frame::banded::BandMatrix, StaticsError> {
     let nn = model.nodes.len();
-    let order = crate::frame::solver::node_order(model);
+    let order = crate::frame::numbering::node_order(model);
     let mut eq = vec![0usize; nn];
     for (k, &node) in order.iter().enumerate() {
         eq[node] = k;
@@ -202,30 +212,30 @@ fn without_mechanism(model: &Model) -> bool {
             for c in 0..2 {
                 let v = e[r] * e[c];
                 if i + r >= i + c {
-                    k.add(i + r, i + c, v);
+                    k.add(i + r, i + c, v)?;
                 }
                 if j + r >= j + c {
-                    k.add(j + r, j + c, v);
+                    k.add(j + r, j + c, v)?;
                 }
                 // the off-diagonal block, stored once (lower triangle)
                 let (p, q) = (i + r, j + c);
                 if p > q {
-                    k.add(p, q, -v);
+                    k.add(p, q, -v)?;
                 } else if q > p {
-                    k.add(q, p, -v);
+                    k.add(q, p, -v)?;
                 }
             }
         }
     }
     for s in &model.supports {
         if s.x {
-            k.add(2 * eq[s.node], 2 * eq[s.node], 1.0);
+            k.add(2 * eq[s.node], 2 * eq[s.node], 1.0)?;
         }
         if s.y {
-            k.add(2 * eq[s.node] + 1, 2 * eq[s.node] + 1, 1.0);
+            k.add(2 * eq[s.node] + 1, 2 * eq[s.node] + 1, 1.0)?;
         }
     }
-    crate::frame::banded::LdlFactor::new(&k).is_ok()
+    Ok(k)
 }
 
 #[cfg(test)]

@@ -277,7 +277,8 @@ pub fn internal_forces(start_actions: [f64; 3], loads: &[LocalLoad], s: f64) -> 
     (n, v, m)
 }
 
-/// True when the member has a bending stiffness at both ends worth assembling.
+/// True when the member carries axial force only: a truss member, or a frame member
+/// released at both ends (no bending stiffness to assemble).
 pub fn is_axial_only(member: &Member) -> bool {
     member.kind == MemberKind::Truss || (member.release_start && member.release_end)
 }

@@ -1,10 +1,20 @@
 //! The general plane-frame layer: the analysis model, member stiffness, the banded
-//! factorisation, the direct stiffness solver (numbering, assembly, recovery and the
-//! independent equilibrium check) and the determinacy of pin-jointed models. It knows
-//! nothing of arches: members carry a free-text `group`, never a role.
+//! factorisation (internal), the direct stiffness solver and the determinacy of pin-jointed models.
+//! It knows nothing of arches: members carry a free-text `group`, never a role.
+//!
+//! The solver by concept: `solver` (validation and the solve), `numbering` (reverse
+//! Cuthill-McKee order and equation numbers), `assembly` (stiffness matrix and load
+//! vectors), `recovery` (member end forces, stations, reactions), `equilibrium` (the
+//! independent check) and `results` (what a solve returns).
 
-pub mod banded;
 pub mod determinacy;
 pub mod element;
+pub mod equilibrium;
 pub mod model;
+pub mod results;
 pub mod solver;
+
+mod assembly;
+mod banded;
+mod numbering;
+mod recovery;

@@ -5,6 +5,7 @@
 //! kN/m2 (E), m2 (A), m4 (I), 1/K (alpha), K (temperature change), rad (rotations).
 //! Axes: x to the right, y up; a positive moment or rotation is anticlockwise.
 
+use crate::error::Location;
 use serde::{Deserialize, Serialize};
 
 /// A complete plane model with its load cases.
@@ -286,9 +287,17 @@ impl Model {
             _ => format!("#{index}"),
         }
     }
-    /// Length of member `index` in m (0 if its nodes are missing).
+    /// Where node `index` is, for problems about it: its index and display name.
+    pub fn node_location(&self, index: usize) -> Location {
+        Location::Node { index, name: self.node_label(index) }
+    }
+    /// Where member `index` is, for problems about it: its index and display name.
+    pub fn member_location(&self, index: usize) -> Location {
+        Location::Member { index, name: self.member_label(index) }
+    }
+    /// Length of member `index` in m (0 if the member or its nodes are missing).
     pub fn member_length(&self, index: usize) -> f64 {
-        let m = &self.members[index];
+        let Some(m) = self.members.get(index) else { return 0.0 };
         match (self.nodes.get(m.start), self.nodes.get(m.end)) {
             (Some(a), Some(b)) => (b.x - a.x).hypot(b.y - a.y),
             _ => 0.0,

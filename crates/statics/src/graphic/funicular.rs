@@ -344,7 +344,7 @@ pub fn vertical_loads(model: &Model, case_name: &str) -> Result<Vec<VerticalLoad
 /// Both split points are reported as reactions: the horizontal through the pole gives
 /// (V_A, V_B); the ray parallel to the closing string gives the simple-beam reactions
 /// (R_A, R_B); for hinged springings at different levels they differ by
-/// H (y_B - y_A) / L (DESIGN.md, "Funicular form"). The stiffness solution's reactions are
+/// H (y_B - y_A) / L (moments about each support; any statics text). The stiffness solution's reactions are
 /// attached for comparison. Units m, kN.
 ///
 /// Errors: nodes that do not exist, `right` not to the right of `left`, loads that are not
@@ -442,7 +442,8 @@ mod tests {
             let para = 6.0 * q.x / 40.0 + 4.0 * f * q.x * (40.0 - q.x) / 1600.0;
             assert!((y - para).abs() < 1e-12, "{y} vs {para}");
         }
-        // H = w L^2 / (8 f) with w = 100 / 5 kN/m (parabolic arch, REFERENCES.md)
+        // H = w L^2 / (8 f) with w = 100 / 5 kN/m (parabolic arch under a uniform load;
+        // Timoshenko & Young, Theory of Structures, ch. 9, from memory)
         assert!((r.thrust - 20.0 * 1600.0 / 80.0).abs() < 1e-9);
         // V_A - V_B = 2 H (yB - yA) / L with equal simple-beam reactions
         assert!((r.reaction_a - r.reaction_b - 2.0 * r.thrust * 6.0 / 40.0).abs() < 1e-9);
@@ -492,7 +493,8 @@ mod tests {
     #[test]
     fn pole_construction_reproduces_three_point_polygon() {
         // With the pole at (-H, -V_A) of the three-point solution the polygon passes
-        // through B, and the two splits differ by H (yB - yA) / L (DESIGN.md, funicular).
+        // through B, and the two splits differ by H (yB - yA) / L (moments about each
+        // support; any statics text).
         let (a, b) = (pt(0.0, 2.0), pt(30.0, 5.0));
         let loads = [
             VerticalLoad { x: 7.0, p: 40.0 },

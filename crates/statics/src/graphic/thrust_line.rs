@@ -14,6 +14,7 @@
 use crate::error::StaticsError;
 use crate::frame::model::Model;
 use crate::frame::solver::CaseResult;
+use crate::geom::Point;
 use serde::{Deserialize, Serialize};
 
 /// The centre of pressure at one rib section.
@@ -27,9 +28,9 @@ pub struct PressurePoint {
     /// Rib node at the section.
     pub node: usize,
     /// Section centroid on the rib axis, m.
-    pub axis: (f64, f64),
+    pub axis: Point,
     /// Where the thrust line crosses the section, m.
-    pub point: (f64, f64),
+    pub point: Point,
     /// Offset of the thrust line from the axis along the section, m, positive towards the
     /// extrados (the left-hand side of the rib walking from the left springing: up).
     pub offset: f64,
@@ -53,7 +54,7 @@ pub struct ThrustLine {
     /// node, and just left of the right springing).
     pub sections: Vec<PressurePoint>,
     /// Vertices of the line of pressure (springing, kinks where forces join, springing), m.
-    pub polygon: Vec<(f64, f64)>,
+    pub polygon: Vec<Point>,
     /// Index into `sections` of the largest |offset|.
     pub worst: usize,
     /// Largest |offset|, m.
@@ -72,14 +73,43 @@ pub struct ThrustLine {
 
 /// The rib's members in order from the left springing to the right one, with a flag
 /// telling whether each runs along that direction (start node nearer the left springing).
-/// Rib members are those of group "rib"; the chain starts at the leftmost rib node.
-pub fn rib_chain(model: &Model) -> Result<Vec<(usize, bool)>, StaticsError> {
-    let rib: Vec<usize> = (0..model.members.len()).filter(|&k| model.members[k].group == "rib").collect();
-    if rib.is_empty() {
-        return Err(StaticsError::invalid("thrust line", "the model has no members of group 'rib'"));
+///
+/// `rib_members` are the indices of the members that form the rib, in any order and
+/// direction: the caller knows which members are the rib (this layer never guesses from
+/// names or groups). The chain starts at the leftmost end node (lowest x; ties: lowest
+/// index).
+///
+/// Errors (`Invalid`, never a panic): no members given; an index that names no member
+/// or is listed twice; a rib member whose start or end node does not exist; members that
+/// do not form one open chain (a loop, a branch or two pieces).
+pub fn rib_chain(model: &Model, rib_members: &[usize]) -> Result<Vec<(usize, bool)>, StaticsError> {
+    if rib_members.is_empty() {
+        return Err(StaticsError::invalid("thrust line", "no rib members were given"));
+    }
+    let (nn, nm) = (model.nodes.len(), model.members.len());
+    let mut listed = vec![false; nm];
+    for &k in rib_members {
+        let Some(m) = model.members.get(k) else {
+            return Err(StaticsError::invalid(
+                "thrust line",
+                format!("rib member {k} does not exist (the model has {nm} members)"),
+            ));
+        };
+        if listed[k] {
+            return Err(StaticsError::invalid(model.member_location(k), "is listed twice as a rib member"));
+        }
+        listed[k] = true;
+        for (end, node) in [("start", m.start), ("end", m.end)] {
+            if node >= nn {
+                return Err(StaticsError::invalid(
+                    model.member_location(k),
+                    format!("rib member's {end} node {node} does not exist (the model has {nn} nodes)"),
+                ));
+            }
+        }
     }
     let mut degree = std::collections::HashMap::new();
-    for &k in &rib {
+    for &k in rib_members {
         *degree.entry(model.members[k].start).or_insert(0) += 1;
         *degree.entry(model.members[k].end).or_insert(0) += 1;
     }
@@ -87,20 +117,21 @@ pub fn rib_chain(model: &Model) -> Result<Vec<(usize, bool)>, StaticsError> {
         .iter()
         .filter(|(_, d)| **d == 1)
         .map(|(n, _)| *n)
-        .min_by(|a, b| model.nodes[*a].x.total_cmp(&model.nodes[*b].x))
+        .min_by(|a, b| model.nodes[*a].x.total_cmp(&model.nodes[*b].x).then(a.cmp(b)))
         .ok_or_else(|| StaticsError::invalid("thrust line", "the rib must be an open chain of members"))?;
     let mut chain = Vec::new();
-    let mut used = vec![false; model.members.len()];
+    let mut used = vec![false; nm];
     let mut at = start;
-    while let Some(&k) =
-        rib.iter().find(|&&k| !used[k] && (model.members[k].start == at || model.members[k].end == at))
+    while let Some(&k) = rib_members
+        .iter()
+        .find(|&&k| !used[k] && (model.members[k].start == at || model.members[k].end == at))
     {
         used[k] = true;
         let forward = model.members[k].start == at;
         chain.push((k, forward));
         at = if forward { model.members[k].end } else { model.members[k].start };
     }
-    if chain.len() != rib.len() {
+    if chain.len() != rib_members.len() {
         return Err(StaticsError::invalid("thrust line", "the rib members do not form one chain"));
     }
     Ok(chain)
@@ -111,8 +142,9 @@ pub fn rib_chain(model: &Model) -> Result<Vec<(usize, bool)>, StaticsError> {
 ///
 /// Forces the rib receives at a rib node: the applied nodal load, the support reaction,
 /// and minus the end actions of every non-rib member there (posts, bracing, deck);
-/// loads along rib members enter as their resultants. Errors: no rib, a rib that is not
-/// a chain, a non-positive depth, or a section carrying no thrust (the offset is then
+/// loads along rib members enter as their resultants. Errors: an invalid model, results
+/// of another model (other member or node counts), an empty chain or one naming a missing
+/// member, a non-positive depth, or a section carrying no thrust (the offset is then
 /// undefined).
 pub fn thrust_line(
     model: &Model,
@@ -125,7 +157,10 @@ pub fn thrust_line(
     }
     crate::frame::solver::validate(model)?;
     let nm = model.members.len();
-    if case.members.len() != nm || case.reactions.iter().any(|r| r.node >= model.nodes.len()) {
+    if case.members.len() != nm
+        || case.displacements.len() != model.nodes.len()
+        || case.reactions.iter().any(|r| r.node >= model.nodes.len())
+    {
         return Err(StaticsError::invalid(
             "thrust line",
             format!("the results of load case '{}' do not belong to this model", case.name),
@@ -265,8 +300,8 @@ pub fn thrust_line(
         let normal = (-t.1, t.0);
         sections.push(PressurePoint {
             node: n,
-            axis: abs(c),
-            point: abs((c.0 + offset * normal.0, c.1 + offset * normal.1)),
+            axis: Point::from(abs(c)),
+            point: Point::from(abs((c.0 + offset * normal.0, c.1 + offset * normal.1))),
             offset,
             thrust,
             moment: thrust * offset,
@@ -278,7 +313,7 @@ pub fn thrust_line(
     if let Some(s) = sections.first() {
         polygon.push(s.point);
     }
-    polygon.extend(kinks);
+    polygon.extend(kinks.into_iter().map(Point::from));
     if let Some(s) = sections.last() {
         polygon.push(s.point);
     }
@@ -321,11 +356,17 @@ fn intersect(p: (f64, f64), r: (f64, f64), q: (f64, f64), d: (f64, f64)) -> Opti
 #[cfg(test)]
 mod tests {
     use super::*;
+    use crate::error::Location;
     use crate::frame::solver::solve;
+
+    /// The members of group "rib" (the reference models name their rib so).
+    fn rib_members(model: &Model) -> Vec<usize> {
+        (0..model.members.len()).filter(|&k| model.members[k].group == "rib").collect()
+    }
 
     fn check_moments(model: &Model, depth: f64) -> Vec<ThrustLine> {
         let s = solve(model).expect("stable");
-        let chain = rib_chain(model).expect("rib");
+        let chain = rib_chain(model, &rib_members(model)).expect("rib");
         let mut out = Vec::new();
         for case in &s.cases {
             let tl = thrust_line(model, case, &chain, depth).expect("thrust line");
@@ -385,19 +426,40 @@ mod tests {
     }
 
     /// Regression: results of a different model (more members than the model) used to
-    /// index past the model's members and panic; now they are an error.
+    /// index past the model's members and panic; now they are an error. Its first test
+    /// was weak: the assertion sat inside an `if`, and the error it met came from
+    /// validation (a member load on the removed member), not from the mismatch check.
+    /// Here the other model is valid (one more member, nothing loads it), so only the
+    /// mismatch check can answer, and its error is matched exactly.
     #[test]
     fn results_of_another_model_are_an_error() {
         let text = include_str!("../../../../tests/reference/models/frame_deck_arch.json");
         let m: Model = serde_json::from_str(text).expect("model");
         let s = solve(&m).expect("stable");
-        let chain = rib_chain(&m).expect("rib");
-        let mut fewer = m.clone();
-        let last = fewer.members.len() - 1;
-        if chain.iter().all(|&(k, _)| k != last) {
-            fewer.members.pop();
-            assert!(thrust_line(&fewer, &s.cases[0], &chain, 1.0).is_err());
-        }
+        let chain = rib_chain(&m, &rib_members(&m)).expect("rib");
+        let mut more = m.clone();
+        let extra = more.members[0].clone();
+        let (first, last) = (extra.start, more.members[more.members.len() - 1].end);
+        more.add_member(crate::frame::model::Member { start: first, end: last, ..extra });
+        crate::frame::solver::validate(&more).expect("the other model is valid");
+        let case = &s.cases[0];
+        let expected = StaticsError::Invalid(vec![crate::error::Problem::new(
+            Location::Part("thrust line".into()),
+            format!("the results of load case '{}' do not belong to this model", case.name),
+        )]);
+        assert_eq!(thrust_line(&more, case, &chain, 1.0), Err(expected.clone()));
+        // as many members but one node more: a member off the rib, loaded by no member
+        // load, now ends at a new node beside its old end
+        let mut other_nodes = m.clone();
+        let loaded = |k: usize| m.load_cases.iter().any(|lc| lc.member.iter().any(|l| l.member() == k));
+        let k = (0..m.members.len())
+            .find(|&k| !loaded(k) && chain.iter().all(|&(c, _)| c != k))
+            .expect("a member");
+        let old_end = &m.nodes[m.members[k].end];
+        let new_end = other_nodes.add_node("", old_end.x + 0.5, old_end.y + 0.5);
+        other_nodes.members[k].end = new_end;
+        crate::frame::solver::validate(&other_nodes).expect("the other model is valid");
+        assert_eq!(thrust_line(&other_nodes, case, &chain, 1.0), Err(expected));
     }
 
     #[test]

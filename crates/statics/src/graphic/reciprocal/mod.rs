@@ -36,26 +36,28 @@
 //!
 //! The figure exists only for pin-jointed members with loads at the joints: a member load,
 //! a couple, or a member carrying shear or bending is an error, never a wrong picture.
+//!
+//! Parts: `planar` (the plane map: pass-through nodes, half-edges, faces, the outside
+//! sectors of the joints), `labels` (Bow's letters and numbers and where they are
+//! written); this module checks the case, places the points and builds the segments.
 
-use crate::error::StaticsError;
+use crate::error::{Location, StaticsError};
+use crate::frame::equilibrium::characteristic_length;
 use crate::frame::model::Model;
-use crate::frame::solver::{characteristic_length, validate, CaseResult};
-use crate::tolerance::{CROSSING_END, PARALLEL, ZERO_FORCE};
+use crate::frame::solver::{validate, CaseResult};
+use crate::geom::{Point, Vector};
+use crate::tolerance::ZERO_FORCE;
+use labels::{inside_faces, outside_spaces, space_labels};
+use planar::PlanarMap;
 use serde::{Deserialize, Serialize};
 use std::collections::VecDeque;
 
-/// Distance of label and arrow positions from their joint, as a fraction of the model's
-/// larger extent.
-const LABEL_OFFSET: f64 = 0.06;
+mod labels;
+mod planar;
 
-/// A point of the force diagram, kN along x and y.
-#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize, Default)]
-pub struct ForcePoint {
-    /// Horizontal force component, kN.
-    pub x: f64,
-    /// Vertical force component, kN.
-    pub y: f64,
-}
+/// A point of the force diagram: a position in force space, kN along x and y. The
+/// difference of two points is a force (`Vector`, kN).
+pub type ForcePoint = Point;
 
 /// Whether a space lies outside the structure (between external forces) or inside it.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
@@ -77,7 +79,7 @@ pub struct Space {
     /// Its point in the force diagram, kN (space A sits at the origin).
     pub point: ForcePoint,
     /// Where to write the label on the form diagram, m.
-    pub label_at: (f64, f64),
+    pub label_at: Point,
 }
 
 /// What a segment of the force diagram stands for.
@@ -146,7 +148,7 @@ pub struct Segment {
     pub zero: bool,
     /// External forces: the unit direction (from the joint) of the half-line along which
     /// the force is drawn on the form diagram, outside the structure. `None` for members.
-    pub ray: Option<(f64, f64)>,
+    pub ray: Option<Vector>,
 }
 
 /// A crossing of two members where a pass-through node was inserted.
@@ -155,7 +157,7 @@ pub struct Crossing {
     /// The two crossing members.
     pub members: (usize, usize),
     /// Where they cross, m.
-    pub at: (f64, f64),
+    pub at: Point,
 }
 
 /// The reciprocal figure of one load case on a pin-jointed truss.
@@ -191,11 +193,11 @@ pub struct ForceDiagram {
 
 impl ForceDiagram {
     /// The segment's vector `point(right) - point(left)`, kN: the force it applies to its
-    /// start joint.
-    pub fn vector(&self, segment: &Segment) -> (f64, f64) {
+    /// start joint (zero when the segment names a space the figure does not have).
+    pub fn vector(&self, segment: &Segment) -> Vector {
         match (self.spaces.get(segment.left), self.spaces.get(segment.right)) {
-            (Some(l), Some(r)) => (r.point.x - l.point.x, r.point.y - l.point.y),
-            _ => (0.0, 0.0),
+            (Some(l), Some(r)) => r.point - l.point,
+            _ => Vector::default(),
         }
     }
     /// The (first) segment of member `member`.
@@ -250,7 +252,7 @@ pub fn force_diagram(model: &Model, case: &CaseResult) -> Result<ForceDiagram, S
     if let Some(lc) = lc {
         if !lc.member.is_empty() {
             return Err(StaticsError::invalid(
-                format!("load case '{}'", lc.name),
+                Location::LoadCase(lc.name.clone()),
                 "has loads along members; a force diagram needs all loads at the joints",
             ));
         }
@@ -310,192 +312,40 @@ pub fn force_diagram(model: &Model, case: &CaseResult) -> Result<ForceDiagram, S
     // drop vanishing external forces (rounding of a zero reaction)
     externals.retain(|e| e.fx.hypot(e.fy) > tiny);
 
-    // planar form diagram: nodes (+ pass-through nodes), member pieces
-    let mut pos: Vec<(f64, f64)> = model.nodes.iter().map(|n| (n.x, n.y)).collect();
-    let (pieces, crossings) = cut_crossings(model, &mut pos);
-    let nv = pos.len();
-    // half-edges: 2 per piece; h = 2 p is start->end of piece p
-    let mut around: Vec<Vec<(f64, usize)>> = vec![Vec::new(); nv];
-    for (p, piece) in pieces.iter().enumerate() {
-        let (a, b) = (piece.0, piece.1);
-        around[a].push((angle(pos[a], pos[b]), 2 * p));
-        around[b].push((angle(pos[b], pos[a]), 2 * p + 1));
-    }
-    for list in &mut around {
-        list.sort_by(|x, y| x.0.total_cmp(&y.0));
-    }
-    for list in &around {
-        if list.windows(2).any(|w| w[1].0 - w[0].0 <= PARALLEL) {
-            return Err(figure_error(
-                "two members leave a joint in the same direction (they overlap); the form diagram cannot be drawn",
-            ));
-        }
-    }
-    let head = |h: usize| if h % 2 == 0 { pieces[h / 2].1 } else { pieces[h / 2].0 };
-    let tail = |h: usize| if h % 2 == 0 { pieces[h / 2].0 } else { pieces[h / 2].1 };
-    // next(u->v) = v->w with w immediately clockwise of u around v (face on the left)
-    let nh = 2 * pieces.len();
-    let mut next = vec![usize::MAX; nh];
-    for h in 0..nh {
-        let v = head(h);
-        let twin = h ^ 1;
-        let list = &around[v];
-        let Some(i) = list.iter().position(|&(_, e)| e == twin) else { continue };
-        let j = (i + list.len() - 1) % list.len();
-        next[h] = list[j].1;
-    }
-    // faces
-    let mut face_of = vec![usize::MAX; nh];
-    let mut faces: Vec<Vec<usize>> = Vec::new();
-    for h0 in 0..nh {
-        if face_of[h0] != usize::MAX {
-            continue;
-        }
-        let id = faces.len();
-        let mut cycle = Vec::new();
-        let mut h = h0;
-        while face_of[h] == usize::MAX {
-            face_of[h] = id;
-            cycle.push(h);
-            h = next[h];
-            if h == usize::MAX {
-                return Err(embed_error());
-            }
-        }
-        faces.push(cycle);
-    }
-    let area = |cycle: &Vec<usize>| -> f64 {
-        cycle
-            .iter()
-            .map(|&h| {
-                let (a, b) = (pos[tail(h)], pos[head(h)]);
-                a.0 * b.1 - b.0 * a.1
-            })
-            .sum::<f64>()
-            / 2.0
-    };
-    // exactly one face winds clockwise (negative area) per connected structure: the outside
-    let outer: Vec<usize> = (0..faces.len()).filter(|&f| area(&faces[f]) <= 0.0).collect();
-    if outer.len() != 1 {
-        return Err(figure_error("the truss must be one connected piece drawn without overlapping members"));
-    }
-    let outer = outer[0];
-    // Euler's formula for a connected plane graph: V - E + F = 2; fails when members
-    // overlap without a proper crossing (the traced faces are then not a plane map)
-    if nv as i64 - pieces.len() as i64 + faces.len() as i64 != 2 {
-        return Err(embed_error());
-    }
-
-    // the outside boundary, walked clockwise around the structure (outside on the left)
-    let boundary = &faces[outer];
-    let bl = boundary.len();
-    // outside sector at the joint reached by boundary position i: anticlockwise from the
-    // ray to the next boundary joint (`from`) to the ray back to the previous one (`to`)
-    let sector = |i: usize| -> (f64, f64) {
-        let h = boundary[i];
-        let h_next = boundary[(i + 1) % bl];
-        let v = head(h);
-        (angle(pos[v], pos[head(h_next)]), angle(pos[v], pos[tail(h)]))
-    };
-    // each external force: the boundary visit of its joint whose outside sector holds the
-    // force's line of action (drawn on the side it comes from, else on the side it goes
-    // to), else the first visit; and the direction of the half-line it is drawn along
+    // the form diagram as a plane map: nodes (+ pass-through nodes), member pieces, faces
+    let map = PlanarMap::build(model)?;
+    let pos = &map.pos;
+    let pieces = &map.pieces;
+    // where each external force is drawn: a visit of its joint on the outside boundary
     let mut visit = vec![usize::MAX; externals.len()];
     let mut ray = vec![(0.0, 0.0); externals.len()];
     for (k, e) in externals.iter().enumerate() {
-        let from_side = (-e.fy).atan2(-e.fx);
-        let to_side = e.fy.atan2(e.fx);
-        let visits: Vec<usize> = (0..bl).filter(|&i| head(boundary[i]) == e.node).collect();
-        let Some(&first) = visits.first() else {
+        let Some((i, dir)) = map.place_external(e.node, e.fx, e.fy) else {
             return Err(figure_error(format!(
                 "an external force acts at joint {}, inside the structure; Bow's notation needs every load and \
                  reaction on the outside",
                 model.node_label(e.node)
             )));
         };
-        let mut chosen = None;
-        'search: for dir in [from_side, to_side] {
-            for &i in &visits {
-                let (a, b) = sector(i);
-                if strictly_inside(a, b, dir) {
-                    chosen = Some((i, dir));
-                    break 'search;
-                }
-            }
-        }
-        let (i, dir) = chosen.unwrap_or_else(|| {
-            let (a, b) = sector(first);
-            (first, a + 0.5 * sector_width(a, b))
-        });
         visit[k] = i;
         ray[k] = (dir.cos(), dir.sin());
     }
-    // the walk starts at the visit carrying the forces of the top-left loaded joint
-    let start_pos = (0..externals.len())
-        .min_by(|&p, &q| {
-            let (a, b) = (pos[externals[p].node], pos[externals[q].node]);
-            a.0.total_cmp(&b.0).then(b.1.total_cmp(&a.1)).then(visit[p].cmp(&visit[q]))
-        })
-        .map(|k| visit[k])
-        .unwrap_or(0);
-    // outside spaces along the boundary walk
-    let mut outside_of_half: Vec<usize> = vec![usize::MAX; nh];
-    let mut ext_left = vec![usize::MAX; externals.len()];
-    let mut ext_right = vec![usize::MAX; externals.len()];
-    let mut ext_order = Vec::with_capacity(externals.len());
-    let mut space_count = 0usize;
-    for step in 0..bl {
-        let i = (start_pos + step) % bl;
-        outside_of_half[boundary[i]] = space_count;
-        let (a_out, a_in) = sector(i);
-        let mut here: Vec<(f64, usize)> = (0..externals.len())
-            .filter(|&k| visit[k] == i)
-            .map(|k| (sector_param(a_out, a_in, ray[k].1.atan2(ray[k].0)), k))
-            .collect();
-        // clockwise from the incoming side: decreasing anticlockwise parameter
-        here.sort_by(|x, y| y.0.total_cmp(&x.0).then(x.1.cmp(&y.1)));
-        for (_, k) in here {
-            ext_left[k] = space_count;
-            space_count += 1;
-            ext_right[k] = space_count;
-            ext_order.push(k);
-        }
-    }
-    // the walk's last space is the first one (the boundary is a cycle)
-    let n_outside = space_count.max(1);
-    let wrap = |s: usize| if s == space_count { 0 } else { s };
-    for s in outside_of_half.iter_mut().filter(|s| **s != usize::MAX) {
-        *s = wrap(*s);
-    }
-    for s in ext_right.iter_mut() {
-        *s = wrap(*s);
-    }
-    // spaces: outside 0..n_outside, then inside faces
-    let centroid = |f: usize| -> (f64, f64) {
-        let c = &faces[f];
-        let n = c.len().max(1) as f64;
-        let sx: f64 = c.iter().map(|&h| pos[tail(h)].0).sum();
-        let sy: f64 = c.iter().map(|&h| pos[tail(h)].1).sum();
-        (sx / n, sy / n)
-    };
-    // inside faces numbered left to right (by centroid; ties: higher first)
-    let mut inside_faces: Vec<usize> = (0..faces.len()).filter(|&f| f != outer).collect();
-    inside_faces.sort_by(|&a, &b| {
-        let (ca, cb) = (centroid(a), centroid(b));
-        ca.0.total_cmp(&cb.0).then(cb.1.total_cmp(&ca.1)).then(a.cmp(&b))
-    });
-    let mut space_of_face = vec![usize::MAX; faces.len()];
-    for (i, &f) in inside_faces.iter().enumerate() {
+    // spaces: outside 0..n_outside (Bow's letters in walk order), then the inside faces
+    let outside = outside_spaces(&map, &externals, &visit, &ray);
+    let n_outside = outside.count;
+    let inside = inside_faces(&map);
+    let mut space_of_face = vec![usize::MAX; map.faces.len()];
+    for (i, &f) in inside.iter().enumerate() {
         space_of_face[f] = n_outside + i;
     }
     let space_of_half = |h: usize| -> usize {
-        if face_of[h] == outer {
-            outside_of_half[h]
+        if map.face_of[h] == map.outer {
+            outside.of_half[h]
         } else {
-            space_of_face[face_of[h]]
+            space_of_face[map.face_of[h]]
         }
     };
-    let total = n_outside + inside_faces.len();
+    let total = n_outside + inside.len();
     // constraints: point(right) - point(left) = force on the start joint
     let mut links: Vec<Vec<(usize, f64, f64)>> = vec![Vec::new(); total];
     let mut add_link = |left: usize, right: usize, fx: f64, fy: f64| {
@@ -516,8 +366,8 @@ pub fn force_diagram(model: &Model, case: &CaseResult) -> Result<ForceDiagram, S
         checks.push((left, right, fx, fy));
     }
     for (k, e) in externals.iter().enumerate() {
-        add_link(ext_left[k], ext_right[k], e.fx, e.fy);
-        checks.push((ext_left[k], ext_right[k], e.fx, e.fy));
+        add_link(outside.left[k], outside.right[k], e.fx, e.fy);
+        checks.push((outside.left[k], outside.right[k], e.fx, e.fy));
     }
     // the walk over the spaces: each new point is a known point plus one force vector
     let mut points = vec![None::<ForcePoint>; total];
@@ -542,36 +392,11 @@ pub fn force_diagram(model: &Model, case: &CaseResult) -> Result<ForceDiagram, S
         .fold(0.0, f64::max);
 
     // labels: outside A, B, ... in walk order; inside 1, 2, ... left to right
-    let mut spaces = Vec::with_capacity(total);
-    let tip = |k: usize| {
-        let p = pos[externals[k].node];
-        (p.0 + LABEL_OFFSET * extent * ray[k].0, p.1 + LABEL_OFFSET * extent * ray[k].1)
-    };
-    for s in 0..n_outside {
-        // label between the tips of the two external forces bounding it
-        let bounding: Vec<usize> =
-            (0..externals.len()).filter(|&k| ext_left[k] == s || ext_right[k] == s).collect();
-        let label_at = if bounding.is_empty() {
-            let (x0, y1) = model
-                .nodes
-                .iter()
-                .fold((f64::INFINITY, f64::NEG_INFINITY), |(x, y), n| (x.min(n.x), y.max(n.y)));
-            (x0, y1 + LABEL_OFFSET * extent)
-        } else {
-            let n = bounding.len() as f64;
-            let (x, y) = bounding.iter().map(|&k| tip(k)).fold((0.0, 0.0), |a, t| (a.0 + t.0, a.1 + t.1));
-            (x / n, y / n)
-        };
-        spaces.push(Space { label: letters(s), kind: SpaceKind::Outside, point: points[s], label_at });
-    }
-    for (i, &f) in inside_faces.iter().enumerate() {
-        spaces.push(Space {
-            label: (i + 1).to_string(),
-            kind: SpaceKind::Inside,
-            point: points[n_outside + i],
-            label_at: centroid(f),
-        });
-    }
+    let spaces: Vec<Space> = space_labels(model, &map, &externals, &ray, &outside, &inside, extent)
+        .into_iter()
+        .zip(&points)
+        .map(|(l, &point)| Space { label: l.label, kind: l.kind, point, label_at: Point::from(l.at) })
+        .collect();
     let name = |l: usize, r: usize| format!("{}-{}", spaces[l].label, spaces[r].label);
     // one segment per member piece, then per external force in load-line order
     let mut segments = Vec::with_capacity(pieces.len() + externals.len());
@@ -606,9 +431,9 @@ pub fn force_diagram(model: &Model, case: &CaseResult) -> Result<ForceDiagram, S
         });
         piece_no[m] += 1;
     }
-    for &k in &ext_order {
+    for &k in &outside.order {
         let e = &externals[k];
-        let (left, right) = (ext_left[k], ext_right[k]);
+        let (left, right) = (outside.left[k], outside.right[k]);
         segments.push(Segment {
             of: e.of,
             piece: 0,
@@ -620,7 +445,7 @@ pub fn force_diagram(model: &Model, case: &CaseResult) -> Result<ForceDiagram, S
             force: e.fx.hypot(e.fy),
             sense: None,
             zero: false,
-            ray: Some(ray[k]),
+            ray: Some(Vector::new(ray[k].0, ray[k].1)),
         });
     }
     let zero_force_members: Vec<usize> = (0..forces.len()).filter(|&m| forces[m].abs() <= tiny).collect();
@@ -628,11 +453,11 @@ pub fn force_diagram(model: &Model, case: &CaseResult) -> Result<ForceDiagram, S
         "reciprocal figure of '{}': exact for this pin-jointed model and load case only",
         if model.title.is_empty() { "the model" } else { model.title.as_str() }
     )];
-    if !crossings.is_empty() {
+    if !map.crossings.is_empty() {
         notes.push(format!(
             "not planar: {} crossing(s) of members drawn with a pass-through node that carries both forces; each \
              crossed member appears as two equal, parallel segments",
-            crossings.len()
+            map.crossings.len()
         ));
     }
     if !zero_force_members.is_empty() {
@@ -648,8 +473,8 @@ pub fn force_diagram(model: &Model, case: &CaseResult) -> Result<ForceDiagram, S
         segments,
         load_line: (0..n_outside).collect(),
         zero_force_members,
-        pass_through: !crossings.is_empty(),
-        crossings,
+        pass_through: !map.crossings.is_empty(),
+        crossings: map.crossings,
         closure_error,
         largest_force: largest,
         notes,
@@ -658,119 +483,6 @@ pub fn force_diagram(model: &Model, case: &CaseResult) -> Result<ForceDiagram, S
 
 fn embed_error() -> StaticsError {
     figure_error("the form diagram could not be traced as a plane figure; members may overlap")
-}
-
-fn angle(from: (f64, f64), to: (f64, f64)) -> f64 {
-    (to.1 - from.1).atan2(to.0 - from.0)
-}
-
-/// Anticlockwise width of the sector from `from` to `to`, in (0, 2 pi] (a joint with one
-/// member: the whole turn).
-fn sector_width(from: f64, to: f64) -> f64 {
-    let tau = std::f64::consts::TAU;
-    let width = (to - from).rem_euclid(tau);
-    if width == 0.0 {
-        tau
-    } else {
-        width
-    }
-}
-
-/// True when direction `a` lies strictly inside the anticlockwise sector from `from` to
-/// `to` (by more than a millionth of its width).
-fn strictly_inside(from: f64, to: f64, a: f64) -> bool {
-    let width = sector_width(from, to);
-    let t = (a - from).rem_euclid(std::f64::consts::TAU);
-    let eps = 1e-6 * width;
-    t > eps && t < width - eps
-}
-
-/// Position of direction `a` within the anticlockwise sector from `from` to `to`, as an
-/// angle in (0, width); a direction outside the sector is clamped to its nearer edge.
-fn sector_param(from: f64, to: f64, a: f64) -> f64 {
-    let tau = std::f64::consts::TAU;
-    let width = sector_width(from, to);
-    let t = (a - from).rem_euclid(tau);
-    let eps = 1e-6 * width;
-    if t > eps && t < width - eps {
-        t
-    } else if t <= eps || t > (width + tau) / 2.0 {
-        eps
-    } else {
-        width - eps
-    }
-}
-
-/// Spreadsheet-style letters: A ... Z, AA, AB ...
-fn letters(mut i: usize) -> String {
-    let mut s = Vec::new();
-    loop {
-        s.push(b'A' + (i % 26) as u8);
-        if i < 26 {
-            break;
-        }
-        i = i / 26 - 1;
-    }
-    s.reverse();
-    String::from_utf8(s).unwrap_or_default()
-}
-
-/// Member pieces (start vertex, end vertex, member) with every proper crossing of two
-/// members cut by a new pass-through vertex appended to `pos`. Three or more members
-/// crossing at one point share one pass-through vertex.
-fn cut_crossings(model: &Model, pos: &mut Vec<(f64, f64)>) -> (Vec<(usize, usize, usize)>, Vec<Crossing>) {
-    let nm = model.members.len();
-    let extent = characteristic_length(model);
-    let mut cuts: Vec<Vec<(f64, usize)>> = vec![Vec::new(); nm];
-    let mut crossings = Vec::new();
-    let first_new = pos.len();
-    for a in 0..nm {
-        for b in (a + 1)..nm {
-            let (ma, mb) = (&model.members[a], &model.members[b]);
-            if ma.start == mb.start || ma.start == mb.end || ma.end == mb.start || ma.end == mb.end {
-                continue;
-            }
-            let (p, p2) = (pos[ma.start], pos[ma.end]);
-            let (q, q2) = (pos[mb.start], pos[mb.end]);
-            let r = (p2.0 - p.0, p2.1 - p.1);
-            let s = (q2.0 - q.0, q2.1 - q.1);
-            let den = r.0 * s.1 - r.1 * s.0;
-            if den.abs() < PARALLEL * (r.0.hypot(r.1) * s.0.hypot(s.1)) {
-                continue;
-            }
-            let t = ((q.0 - p.0) * s.1 - (q.1 - p.1) * s.0) / den;
-            let u = ((q.0 - p.0) * r.1 - (q.1 - p.1) * r.0) / den;
-            if t > CROSSING_END && t < 1.0 - CROSSING_END && u > CROSSING_END && u < 1.0 - CROSSING_END {
-                let at = (p.0 + t * r.0, p.1 + t * r.1);
-                // reuse a pass-through vertex already at this point
-                let near = (first_new..pos.len())
-                    .find(|&v| (pos[v].0 - at.0).hypot(pos[v].1 - at.1) <= CROSSING_END * extent);
-                let v = near.unwrap_or_else(|| {
-                    pos.push(at);
-                    pos.len() - 1
-                });
-                if !cuts[a].iter().any(|c| c.1 == v) {
-                    cuts[a].push((t, v));
-                }
-                if !cuts[b].iter().any(|c| c.1 == v) {
-                    cuts[b].push((u, v));
-                }
-                crossings.push(Crossing { members: (a, b), at });
-            }
-        }
-    }
-    let mut pieces = Vec::new();
-    for (m, mem) in model.members.iter().enumerate() {
-        let mut c = cuts[m].clone();
-        c.sort_by(|x, y| x.0.total_cmp(&y.0));
-        let mut prev = mem.start;
-        for (_, v) in c {
-            pieces.push((prev, v, m));
-            prev = v;
-        }
-        pieces.push((prev, mem.end, m));
-    }
-    (pieces, crossings)
 }
 
 #[cfg(test)]
@@ -789,7 +501,7 @@ mod tests {
             let (a, b) = (&model.nodes[mem.start], &model.nodes[mem.end]);
             let l = (b.x - a.x).hypot(b.y - a.y);
             let n = s.cases[0].members[k].end.n;
-            let (vx, vy) = fd.vector(seg);
+            let Vector { x: vx, y: vy } = fd.vector(seg);
             assert!(
                 (vx - n * (b.x - a.x) / l).hypot(vy - n * (b.y - a.y) / l) <= 1e-9 * largest,
                 "member {k}"
@@ -855,7 +567,7 @@ mod tests {
 
     #[test]
     fn braced_arch_truss_of_the_reference_set_closes() {
-        let text = include_str!("../../../../tests/reference/models/braced_truss.json");
+        let text = include_str!("../../../../../tests/reference/models/braced_truss.json");
         let m: Model = serde_json::from_str(text).expect("model");
         for case in 0..m.load_cases.len() {
             let mut one = m.clone();
@@ -910,29 +622,21 @@ mod tests {
             let ray = load.ray.expect("drawn");
             // drawn on the side the force comes from: above for a downward load (in the
             // notch between the triangles), below for an upward one
-            assert!(ray.1 * fy < 0.0 && ray.0.abs() < 1e-9, "fy {fy}: ray {ray:?}");
+            assert!(ray.y * fy < 0.0 && ray.x.abs() < 1e-9, "fy {fy}: ray {ray:?}");
         }
     }
 
     #[test]
     fn mismatched_results_and_member_loads_are_errors_not_panics() {
-        let text = include_str!("../../../../tests/reference/models/braced_truss.json");
+        let text = include_str!("../../../../../tests/reference/models/braced_truss.json");
         let m: Model = serde_json::from_str(text).expect("model");
         let s = solve(&m).expect("stable");
         let mut fewer = m.clone();
         fewer.members.pop();
         assert!(force_diagram(&fewer, &s.cases[0]).is_err());
-        let frame_text = include_str!("../../../../tests/reference/models/frame_deck_arch.json");
+        let frame_text = include_str!("../../../../../tests/reference/models/frame_deck_arch.json");
         let f: Model = serde_json::from_str(frame_text).expect("model");
         let fs = solve(&f).expect("stable");
         assert!(force_diagram(&f, &fs.cases[0]).is_err());
-    }
-
-    #[test]
-    fn letters_run_past_z() {
-        assert_eq!(letters(0), "A");
-        assert_eq!(letters(25), "Z");
-        assert_eq!(letters(26), "AA");
-        assert_eq!(letters(27), "AB");
     }
 }
