@@ -369,7 +369,9 @@ fn wall_crossing(valley: &[GroundPoint], level: f64, left: bool) -> Option<f64> 
 /// Checks the inputs of a design that can be checked without finding the form, and
 /// collects warnings. Every problem found is pushed to `problems`.
 pub(crate) fn check_inputs(d: &Design, problems: &mut Vec<Problem>, warnings: &mut Vec<Warning>) {
-    let mut add = |field: Field, msg: String| problems.push(Problem::new(field, msg));
+    // shared, so a problem involving more than its own field can be pushed beside `add`
+    let problems = std::cell::RefCell::new(problems);
+    let add = |field: Field, msg: String| problems.borrow_mut().push(Problem::new(field, msg));
     let finite = |v: f64| v.is_finite();
     if d.version != DESIGN_VERSION {
         add(
@@ -451,7 +453,7 @@ pub(crate) fn check_inputs(d: &Design, problems: &mut Vec<Problem>, warnings: &m
             continue;
         }
         if deck_level_ok && level >= d.deck.level {
-            add(field, format!("the {side} springing ({level} m) is at or above the deck ({} m); put it on the valley wall below the deck", d.deck.level));
+            problems.borrow_mut().push(Problem::new(field, format!("the {side} springing ({level} m) is at or above the deck ({} m); put it on the valley wall below the deck", d.deck.level)).involving([Field::DeckLevel]));
         } else if deck_level_ok && finite(d.min_post_length) && d.deck.level - level < d.min_post_length {
             warnings.push(
                 Warning::new(
