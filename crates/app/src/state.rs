@@ -26,7 +26,12 @@ impl Refusal {
     /// edited field (those tied to no field too), elsewhere the problems that involve
     /// `field`. An error that is not a list of problems (a mechanism, no convergence) is
     /// shown whole beside the edited field; an out-of-range number also beside its field.
+    /// The valley as a whole repeats nothing when one of its points was edited: that
+    /// point already shows every problem, in the same panel.
     pub fn messages_for(&self, field: Field) -> Vec<String> {
+        if field == Field::Valley && matches!(self.edited, Field::ValleyPoint(_)) {
+            return Vec::new();
+        }
         let everything = field == self.edited;
         match &self.error {
             StaticsError::Invalid(problems) => problems
@@ -272,6 +277,23 @@ mod tests {
         assert_eq!(deck.len(), 1, "{deck:?}");
         assert!(deck[0].contains("left springing (100.5 m) is at or above the deck (100 m)"), "{deck:?}");
         assert!(r.messages_for(Field::SpringingRightLevel).is_empty());
+    }
+
+    #[test]
+    fn an_edited_ground_point_shows_the_valley_problems_and_the_valley_does_not_repeat_them() {
+        let mut d = Design::demo();
+        d.valley[3].x = 50.0; // the next point is at x = 45 m
+        let r = Refusal { edited: Field::ValleyPoint(3), error: analyze(&d).expect_err("refused") };
+        let point = r.messages_for(Field::ValleyPoint(3));
+        assert!(
+            point.iter().any(|m| m.contains("ground point 5 (x = 45 m) is not to the right of point 4")),
+            "{point:?}"
+        );
+        assert!(r.messages_for(Field::Valley).is_empty());
+        assert!(r.messages_for(Field::ValleyPoint(4)).is_empty());
+        // edited as a whole (a preset, a point removed), the valley shows them
+        let whole = Refusal { edited: Field::Valley, ..r };
+        assert_eq!(whole.messages_for(Field::Valley), point);
     }
 
     #[test]

@@ -33,15 +33,21 @@ pub fn FieldProblems(
     /// The field's own message about its input text, if any.
     #[prop(optional, into)]
     local: Option<Signal<Option<String>>>,
+    /// Only the input message: the refused edit's problems are shown once elsewhere for
+    /// every input of this design field (a ground point's x and y share one).
+    #[prop(optional)]
+    input_only: bool,
 ) -> impl IntoView {
     let state = expect_context::<AppState>();
     let messages = Memo::new(move |_| {
         let mut shown: Vec<String> = local.and_then(|l| l.get()).into_iter().collect();
-        state.refused.with(|r| {
-            if let Some(r) = r {
-                shown.extend(r.messages_for(field));
-            }
-        });
+        if !input_only {
+            state.refused.with(|r| {
+                if let Some(r) = r {
+                    shown.extend(r.messages_for(field));
+                }
+            });
+        }
         shown
     });
     view! {
@@ -99,13 +105,18 @@ pub fn NumberField(
     /// Whole numbers only.
     #[prop(optional)]
     integer: bool,
+    /// Another input edits the same design field (a ground point's x and y): the refused
+    /// edit's problems are shown once by the caller, not beside each input.
+    #[prop(optional)]
+    shared_field: bool,
 ) -> impl IntoView {
     let state = expect_context::<AppState>();
     // what is wrong with the text typed here (not a number, out of range); the engine's
     // refusals come from the state, as they may involve other fields too
     let input_error = RwSignal::new(None::<String>);
     let error_id = format!("{id}-error");
-    let local_message = move |text: &str| -> Result<f64, String> {
+    // the SI value of the typed text, or what is wrong with it
+    let parse_input = move |text: &str| -> Result<f64, String> {
         let units = state.units.get_untracked();
         let shown = parse_number(text)?;
         if integer && shown.fract() != 0.0 {
@@ -122,7 +133,7 @@ pub fn NumberField(
         }
         Ok(si)
     };
-    let commit = move |text: String| match local_message(&text) {
+    let commit = move |text: String| match parse_input(&text) {
         Ok(si) => {
             input_error.set(None);
             // a refusal is recorded in the state and shown beside every field it involves
@@ -138,20 +149,36 @@ pub fn NumberField(
         input_error.with(Option::is_some)
             || state.refused.with(|r| r.as_ref().is_some_and(|r| !r.messages_for(field).is_empty()))
     };
+    let shown_value = move || input_text(state.units.get(), quantity, value.get(), integer);
+    // When this field's refused edit is cleared (undo, redo, another good edit, a link),
+    // its box shows the design's value again instead of the refused text: the value itself
+    // did not change, so the binding below does not rewrite the box.
+    let input: NodeRef<leptos::html::Input> = NodeRef::new();
+    Effect::new(move |was_refused_here: Option<bool>| {
+        let refused_here = state.refused.with(|r| r.as_ref().is_some_and(|r| r.edited == field));
+        // a text that is not a number stays with its message until it is edited
+        if was_refused_here == Some(true) && !refused_here && input_error.with_untracked(Option::is_none) {
+            if let Some(el) = input.get_untracked() {
+                el.set_value(&untrack(shown_value));
+            }
+        }
+        refused_here
+    });
     let unit = move || if integer { String::new() } else { state.units.get().label(quantity).to_string() };
     view! {
         <div class="field" class:invalid=involved>
             <label for=id.clone()>{label}</label>
             <input
+                node_ref=input
                 id=id.clone()
                 type="text"
                 inputmode="decimal"
                 aria-describedby=error_id.clone()
-                prop:value=move || input_text(state.units.get(), quantity, value.get(), integer)
+                prop:value=shown_value
                 on:change=move |ev| commit(event_target_value(&ev))
             />
             <span class="unit">{unit}</span>
-            <FieldProblems field id=error_id local=input_error />
+            <FieldProblems field id=error_id local=input_error input_only=shared_field />
         </div>
     }
 }
@@ -208,13 +235,15 @@ pub fn GroundPanel() -> impl IntoView {
                         }
                     });
                 };
+                // x and y are one design field: its problems show once, under the row
                 view! {
                     <div class="ground-row">
                         <span class="index">{i + 1}</span>
-                        <NumberField label="x" id=format!("ground-{i}-x") field=Field::ValleyPoint(i) quantity=Quantity::Length value=x on_commit=set_x min=-1e5 max=1e5 />
-                        <NumberField label="y" id=format!("ground-{i}-y") field=Field::ValleyPoint(i) quantity=Quantity::Length value=y on_commit=set_y min=-1e4 max=1e4 />
+                        <NumberField label="x" id=format!("ground-{i}-x") field=Field::ValleyPoint(i) quantity=Quantity::Length value=x on_commit=set_x min=-1e5 max=1e5 shared_field=true />
+                        <NumberField label="y" id=format!("ground-{i}-y") field=Field::ValleyPoint(i) quantity=Quantity::Length value=y on_commit=set_y min=-1e4 max=1e4 shared_field=true />
                         <button class="small" title="remove this ground point" on:click=remove>"×"</button>
                     </div>
+                    <FieldProblems field=Field::ValleyPoint(i) id=format!("ground-{i}-error") />
                 }
             })
             .collect_view()
