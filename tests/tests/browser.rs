@@ -7,8 +7,9 @@
 //! each canvas publishes in its data attributes.
 
 use serde_json::json;
+use springline_statics::error::{Field, Location};
 use springline_statics::graphic::reciprocal::{force_diagram, SegmentOf};
-use springline_statics::{analyze, Design};
+use springline_statics::{analyze, Design, Problem};
 use springline_tests::page::*;
 use springline_tests::serve::StaticServer;
 use springline_tests::webdriver::{Driver, Session};
@@ -248,4 +249,135 @@ fn second_design_unequal_springings_braced_renders_and_is_captured() {
     );
     assert!(severe(&s).is_empty());
     std::fs::write(screenshots_dir().join("second-design.png"), s.screenshot()).expect("screenshot");
+}
+
+/// The problem messages shown in the error element of field `id`, one per paragraph.
+fn problems_beside(s: &Session, id: &str) -> Vec<String> {
+    let v = s.exec(
+        "const e = document.getElementById(arguments[0] + '-error');
+         return e ? [...e.querySelectorAll('p')].map(p => p.textContent) : null;",
+        vec![json!(id)],
+    );
+    assert!(v.is_array(), "an error element beside field {id}");
+    v.as_array().cloned().unwrap_or_default().iter().map(|m| m.as_str().unwrap_or("").to_string()).collect()
+}
+
+/// How a problem reads beside a field: a design field's message alone, any other place
+/// named first.
+fn as_shown(p: &Problem) -> String {
+    match p.location {
+        Location::Field(_) => p.message.clone(),
+        _ => format!("{}: {}", p.location, p.message),
+    }
+}
+
+/// Waits until no field shows a problem.
+fn wait_all_clear(s: &Session, after: &str) {
+    s.wait_for(
+        &format!("every field's problems to clear after {after}"),
+        "return document.querySelectorAll('.error p').length === 0",
+        WAIT,
+    );
+}
+
+/// The deck at 60 m under the demo's springings at 76 m and 80 m (README, the demo
+/// scenario): each problem beside every field it involves, all of them beside the deck
+/// level; cleared by the next good edit and by undo. Then a springing raised above the
+/// deck, whose problem the engine did not tie to the deck level before.
+#[test]
+fn a_refused_edit_shows_each_problem_beside_every_field_it_involves() {
+    let server = StaticServer::start(&dist());
+    let driver = Driver::start();
+    // tall enough that the screenshot holds the Roadway and Arch panels together
+    let s = driver.session(1400, 1100, 1.0);
+    open(&s, &server);
+    let mut d = Design::demo();
+    d.deck.level = 60.0;
+    let problems = analyze(&d).expect_err("a deck below the springings is refused").problems().to_vec();
+    set_field(&s, "deck-level", "60");
+    s.wait_for(
+        "the deck level's problems",
+        &format!("return document.querySelectorAll('#deck-level-error p').length === {}", problems.len()),
+        WAIT,
+    );
+    assert_eq!(problems_beside(&s, "deck-level"), problems.iter().map(as_shown).collect::<Vec<_>>());
+    for (id, field, side, level) in [
+        ("springing-left", Field::SpringingLeftLevel, "left", 76),
+        ("springing-right", Field::SpringingRightLevel, "right", 80),
+    ] {
+        let beside = problems_beside(&s, id);
+        let expected: Vec<String> = problems.iter().filter(|p| p.involves(field)).map(as_shown).collect();
+        assert_eq!(beside, expected, "{id}");
+        assert!(
+            beside
+                .iter()
+                .any(|m| m.contains(&format!("{side} springing ({level} m) is at or above the deck (60 m)"))),
+            "{id}: {beside:?}"
+        );
+    }
+    // the demo gives its crown by level: that field shows the crown's problem
+    let crown = problems_beside(&s, "crown-level");
+    assert!(crown.iter().any(|m| m.contains("crown (97.500 m) is above the deck (60 m)")), "{crown:?}");
+    for id in ["panels", "deck-width", "section-rib-e", "min-post"] {
+        assert!(problems_beside(&s, id).is_empty(), "{id} is not involved");
+    }
+    let invalid = s.exec(
+        "return ['deck-level', 'springing-left', 'springing-right'].every(id => document.getElementById(id).closest('.field').classList.contains('invalid'))",
+        vec![],
+    );
+    assert_eq!(invalid, json!(true), "the involved fields are marked");
+    // the Ground panel folded, so the Roadway and Arch panels show together
+    s.exec("document.querySelector('.controls .panel > summary').click();", vec![]);
+    std::fs::write(screenshots_dir().join("refused-deck-level.png"), s.screenshot()).expect("screenshot");
+
+    // the next good edit clears them
+    set_field(&s, "panels", "14");
+    wait_all_clear(&s, "a good edit");
+    // so does undo
+    set_field(&s, "deck-level", "60");
+    s.wait_for(
+        "the problems again",
+        "return document.querySelectorAll('#deck-level-error p').length > 0",
+        WAIT,
+    );
+    s.exec("document.getElementById('undo').click();", vec![]);
+    wait_all_clear(&s, "undo");
+    // and the refused text leaves the box: it shows the design's deck level again
+    s.wait_for(
+        "the deck level box to show the design's 100 m",
+        "return document.getElementById('deck-level').value === '100'",
+        WAIT,
+    );
+
+    // a springing above the deck (at 100 m) is shown beside the deck level too
+    set_field(&s, "springing-left", "100.5");
+    s.wait_for(
+        "the springing's problem",
+        "return document.querySelectorAll('#deck-level-error p').length > 0",
+        WAIT,
+    );
+    let deck = problems_beside(&s, "deck-level");
+    assert!(
+        deck.iter().any(|m| m.contains("left springing (100.5 m) is at or above the deck (100 m)")),
+        "{deck:?}"
+    );
+    assert!(problems_beside(&s, "springing-right").is_empty());
+
+    // a ground point's x and y are one design field: its problems show once, under its row
+    s.exec("document.querySelector('.controls .panel > summary').click();", vec![]);
+    set_field(&s, "ground-3-x", "50"); // the next point is at x = 45 m
+    s.wait_for(
+        "the ground point's problem",
+        "return document.querySelectorAll('#ground-3-error p').length > 0",
+        WAIT,
+    );
+    let point = problems_beside(&s, "ground-3");
+    assert!(
+        point.iter().any(|m| m.contains("ground point 5 (x = 45 m) is not to the right of point 4")),
+        "{point:?}"
+    );
+    for id in ["ground-3-x", "ground-3-y", "ground", "deck-level"] {
+        assert!(problems_beside(&s, id).is_empty(), "{id} repeats nothing");
+    }
+    assert!(severe(&s).is_empty(), "no panic or console error");
 }

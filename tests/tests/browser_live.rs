@@ -168,7 +168,7 @@ fn bad_links_show_a_message_open_the_demo_first_and_leave_an_open_design_alone()
         // the address bar follows the open design (debounced) before the link is pasted
         s.wait_for(
             "the address to follow the open design",
-            &format!("return location.hash.startsWith('#s1.') && location.hash.slice(1) !== {}", json!(link)),
+            &format!("return location.hash.startsWith('#s2.') && location.hash.slice(1) !== {}", json!(link)),
             WAIT,
         );
         s.exec("location.hash = arguments[0];", vec![json!(link)]);
@@ -220,4 +220,40 @@ fn switching_units_changes_every_force_by_the_kip_factor() {
     }
     // lengths switch too
     assert!(text_of(&s, "result-span").ends_with("ft"));
+}
+
+/// "Copy link" copied the address bar, which follows an edit only after a pause: an edit
+/// followed at once by a copy shared the design before the edit. The clipboard is stubbed
+/// in the page to capture what is copied.
+#[test]
+fn copy_link_right_after_an_edit_copies_the_edited_design() {
+    let server = StaticServer::start(&dist());
+    let driver = Driver::start();
+    let s = driver.session(1500, 1000, 1.0);
+    open(&s, &server);
+    s.exec(
+        "window.copiedLinks = [];
+         Object.defineProperty(navigator, 'clipboard', { configurable: true, value: {
+           writeText: text => { window.copiedLinks.push(text); return Promise.resolve(); } } });",
+        vec![],
+    );
+    // edit and copy in one script, so the address bar has no time to follow
+    let at_copy = s.exec(
+        "const e = document.getElementById('panels'); e.value = '14';
+         e.dispatchEvent(new Event('change', { bubbles: true }));
+         document.getElementById('copy-link').click();
+         return [location.href, window.copiedLinks];",
+        vec![],
+    );
+    let address = at_copy[0].as_str().unwrap_or("").to_string();
+    let copied = at_copy[1].as_array().cloned().unwrap_or_default();
+    assert_eq!(copied.len(), 1, "one link copied: {copied:?}");
+    let link = copied[0].as_str().unwrap_or("");
+    assert!(link.starts_with(&server.url()), "a whole link to this page: {link}");
+    let mut edited = Design::demo();
+    edited.panels = 14;
+    assert_eq!(permalink::decode(link).as_ref(), Ok(&edited), "the copied link opens the edited design");
+    // what the address bar held at that moment (the old copy's source) is not it yet
+    assert_ne!(permalink::decode(&address).ok(), Some(edited), "the address had not followed: {address}");
+    assert!(severe(&s).is_empty());
 }

@@ -91,3 +91,11 @@ pub fn install(state: AppState) {
 fn current_fragment(state: AppState) -> String {
     state.design.with_untracked(|d| format!("#{}", permalink::encode(d)))
 }
+
+/// The whole link of the design on screen: this page's address with the design encoded
+/// now, not the address bar's fragment, which follows an edit only after a pause.
+pub fn link_to_open_design(state: AppState) -> Option<String> {
+    let href = web_sys::window()?.location().href().ok()?;
+    let page = href.split('#').next().unwrap_or_default();
+    Some(format!("{page}{}", current_fragment(state)))
+}

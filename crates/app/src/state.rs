@@ -1,13 +1,63 @@
 //! The app's state: one design signal (the last good design), the analysis derived from it,
-//! and what the pointer is over. Plain data and small helpers, shared through context.
+//! the problems of the last refused edit, and what the pointer is over. Plain data and small
+//! helpers, shared through context.
 
 use crate::format::Units;
 use leptos::prelude::*;
+use springline_statics::error::{Field, Location, StaticsError};
 use springline_statics::{analyze, Analysis, Design};
 use std::sync::Arc;
 
-/// The analysis of the current design, or why there is none.
-pub type Outcome = Result<Arc<Analysis>, String>;
+/// The analysis of the current design, or the engine's error when there is none.
+pub type Outcome = Result<Arc<Analysis>, StaticsError>;
+
+/// An edit the engine refused: the field the user edited and the engine's error, kept typed
+/// so every field can pick out the problems that involve it.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Refusal {
+    /// The field the user edited.
+    pub edited: Field,
+    /// Why the engine refused the edited design.
+    pub error: StaticsError,
+}
+
+impl Refusal {
+    /// The messages to show beside `field`, in the engine's order: every problem beside the
+    /// edited field (those tied to no field too), elsewhere the problems that involve
+    /// `field`. An error that is not a list of problems (a mechanism, no convergence) is
+    /// shown whole beside the edited field; an out-of-range number also beside its field.
+    /// The valley as a whole repeats nothing when one of its points was edited: that
+    /// point already shows every problem, in the same panel.
+    pub fn messages_for(&self, field: Field) -> Vec<String> {
+        if field == Field::Valley && matches!(self.edited, Field::ValleyPoint(_)) {
+            return Vec::new();
+        }
+        let everything = field == self.edited;
+        match &self.error {
+            StaticsError::Invalid(problems) => problems
+                .iter()
+                .filter(|p| everything || p.involves(field))
+                .map(|p| shown(&p.location, &p.message))
+                .collect(),
+            StaticsError::OutOfRange { location, message }
+                if everything || *location == Location::Field(field) =>
+            {
+                vec![shown(location, message)]
+            }
+            other if everything => vec![other.to_string()],
+            _ => Vec::new(),
+        }
+    }
+}
+
+/// A problem's message as shown beside a field: a design field's message speaks for itself
+/// (its path is for files, not for people); any other place is named first.
+fn shown(location: &Location, message: &str) -> String {
+    match location {
+        Location::Field(_) => message.to_string(),
+        other => format!("{other}: {message}"),
+    }
+}
 
 /// The member of the truss idealisation under the pointer, in either canvas.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
@@ -34,6 +84,9 @@ pub struct AppState {
     pub notice: RwSignal<Option<String>>,
     /// The load case shown in the drawings (index into `Analysis::load_cases`).
     pub case: RwSignal<usize>,
+    /// The last refused edit, until the next edit succeeds, an undo or redo, or a new
+    /// design from a link; every field shows the problems that involve it.
+    pub refused: RwSignal<Option<Refusal>>,
     /// The analysis just computed for a design about to be set, so the memo does not
     /// compute it a second time.
     checked: StoredValue<Option<(Design, Arc<Analysis>)>>,
@@ -53,7 +106,7 @@ impl AppState {
                     checked.with_value(|c| c.as_ref().filter(|(cd, _)| cd == d).map(|(_, a)| a.clone()));
                 match cached {
                     Some(a) => Ok(a),
-                    None => analyze(d).map(Arc::new).map_err(|e| e.to_string()),
+                    None => analyze(d).map(Arc::new),
                 }
             })
         });
@@ -67,34 +120,46 @@ impl AppState {
             future: RwSignal::new(Vec::new()),
             notice: RwSignal::new(None),
             case: RwSignal::new(0),
+            refused: RwSignal::new(None),
             checked,
         }
     }
 
-    /// Applies `edit` to a copy of the design and keeps it only if it analyses; otherwise
-    /// returns the engine's message and leaves the design (and the screen) as it was.
-    pub fn try_edit(&self, edit: impl FnOnce(&mut Design)) -> Result<(), String> {
+    /// Applies `edit` (a change of design field `field`) to a copy of the design and keeps
+    /// it only if it analyses. Otherwise records the refusal (shown beside every field it
+    /// involves), returns the engine's error and leaves the design (and the screen) as it
+    /// was.
+    pub fn try_edit(&self, field: Field, edit: impl FnOnce(&mut Design)) -> Result<(), StaticsError> {
         let mut candidate = self.design.get_untracked();
         edit(&mut candidate);
-        self.check(&candidate)?;
+        if let Err(error) = self.check(&candidate) {
+            self.refused.set(Some(Refusal { edited: field, error: error.clone() }));
+            return Err(error);
+        }
         self.commit(candidate);
         Ok(())
     }
 
-    /// Analyses `design`, keeping the result for the memo; the engine's message if it
-    /// does not analyse.
-    pub fn check(&self, design: &Design) -> Result<(), String> {
-        match analyze(design) {
-            Ok(a) => {
-                self.checked.set_value(Some((design.clone(), Arc::new(a))));
-                Ok(())
-            }
-            Err(e) => Err(e.to_string()),
+    /// Analyses `design`, keeping the result for the memo; the engine's error if it does
+    /// not analyse.
+    pub fn check(&self, design: &Design) -> Result<(), StaticsError> {
+        let analysis = analyze(design)?;
+        self.checked.set_value(Some((design.clone(), Arc::new(analysis))));
+        Ok(())
+    }
+
+    /// Forgets the last refused edit (its messages leave the fields).
+    pub fn clear_refusal(&self) {
+        // only when there is one: a drag calls this on every pointer move
+        if self.refused.with_untracked(Option::is_some) {
+            self.refused.set(None);
         }
     }
 
-    /// Makes `design` current as one undo step (the caller has checked that it analyses).
+    /// Makes `design` current as one undo step (the caller has checked that it analyses);
+    /// the last refusal is forgotten, as an edit has now succeeded.
     pub fn commit(&self, design: Design) {
+        self.clear_refusal();
         let previous = self.design.get_untracked();
         if previous == design {
             return;
@@ -119,6 +184,7 @@ impl AppState {
     /// analyse.
     pub fn preview(&self, design: Design) -> bool {
         if self.check(&design).is_ok() {
+            self.clear_refusal();
             self.design.set(design);
             true
         } else {
@@ -137,6 +203,7 @@ impl AppState {
     /// Steps back one design; false when there is none.
     pub fn undo(&self) -> bool {
         let Some(prev) = self.past.try_update(|p| p.pop()).flatten() else { return false };
+        self.clear_refusal();
         let current = self.design.get_untracked();
         self.future.update(|f| f.push(current));
         self.design.set(prev);
@@ -146,6 +213,7 @@ impl AppState {
     /// Re-applies the last undone design; false when there is none.
     pub fn redo(&self) -> bool {
         let Some(next) = self.future.try_update(|f| f.pop()).flatten() else { return false };
+        self.clear_refusal();
         let current = self.design.get_untracked();
         self.past.update(|p| p.push(current));
         self.design.set(next);
@@ -167,6 +235,91 @@ pub fn parse_number(text: &str) -> Result<f64, String> {
 #[cfg(test)]
 mod tests {
     use super::*;
+    use springline_statics::error::{GroupName, SectionProperty};
+
+    /// The refusal of a deck at 60 m under the demo's springings at 76 m (left) and 80 m
+    /// (right) (the demo scenario; the engine's validation in `arch::design`).
+    fn deck_at_60() -> Refusal {
+        let mut d = Design::demo();
+        d.deck.level = 60.0;
+        let error = analyze(&d).expect_err("springings above the deck are refused");
+        Refusal { edited: Field::DeckLevel, error }
+    }
+
+    #[test]
+    fn a_springing_above_the_deck_is_shown_beside_both_springings_and_the_deck_level() {
+        let r = deck_at_60();
+        let left = r.messages_for(Field::SpringingLeftLevel);
+        let right = r.messages_for(Field::SpringingRightLevel);
+        assert_eq!(left.len(), 1, "{left:?}");
+        assert!(left[0].contains("left springing (76 m) is at or above the deck (60 m)"), "{left:?}");
+        assert_eq!(right.len(), 1, "{right:?}");
+        assert!(right[0].contains("right springing (80 m) is at or above the deck (60 m)"), "{right:?}");
+        // beside the edited field: every problem, the crown above the deck too
+        let deck = r.messages_for(Field::DeckLevel);
+        assert_eq!(deck.len(), r.error.problems().len());
+        assert!(deck.contains(&left[0]) && deck.contains(&right[0]));
+        assert!(deck.iter().any(|m| m.contains("crown (97.500 m) is above the deck")), "{deck:?}");
+        // a field the problems do not involve shows nothing
+        assert!(r.messages_for(Field::Panels).is_empty());
+        assert!(r.messages_for(Field::Section(GroupName::Rib, SectionProperty::E)).is_empty());
+    }
+
+    /// A springing raised above the deck was shown beside the springing alone: the engine
+    /// did not list the deck level among the fields of that problem, though raising the
+    /// deck mends it as well.
+    #[test]
+    fn a_springing_raised_above_the_deck_is_shown_beside_the_deck_level_too() {
+        let mut d = Design::demo();
+        d.springing_left_level = 100.5; // the demo deck is at 100 m
+        let r = Refusal { edited: Field::SpringingLeftLevel, error: analyze(&d).expect_err("refused") };
+        let deck = r.messages_for(Field::DeckLevel);
+        assert_eq!(deck.len(), 1, "{deck:?}");
+        assert!(deck[0].contains("left springing (100.5 m) is at or above the deck (100 m)"), "{deck:?}");
+        assert!(r.messages_for(Field::SpringingRightLevel).is_empty());
+    }
+
+    #[test]
+    fn an_edited_ground_point_shows_the_valley_problems_and_the_valley_does_not_repeat_them() {
+        let mut d = Design::demo();
+        d.valley[3].x = 50.0; // the next point is at x = 45 m
+        let r = Refusal { edited: Field::ValleyPoint(3), error: analyze(&d).expect_err("refused") };
+        let point = r.messages_for(Field::ValleyPoint(3));
+        assert!(
+            point.iter().any(|m| m.contains("ground point 5 (x = 45 m) is not to the right of point 4")),
+            "{point:?}"
+        );
+        assert!(r.messages_for(Field::Valley).is_empty());
+        assert!(r.messages_for(Field::ValleyPoint(4)).is_empty());
+        // edited as a whole (a preset, a point removed), the valley shows them
+        let whole = Refusal { edited: Field::Valley, ..r };
+        assert_eq!(whole.messages_for(Field::Valley), point);
+    }
+
+    #[test]
+    fn an_error_that_is_not_a_problem_list_is_shown_whole_beside_the_edited_field_only() {
+        let r = Refusal {
+            edited: Field::Panels,
+            error: StaticsError::Link(springline_statics::error::LinkError::Empty),
+        };
+        let whole = r.error.to_string();
+        assert!(whole.starts_with("cannot read link: it holds no design"), "{whole}");
+        assert_eq!(r.messages_for(Field::Panels), vec![whole]);
+        assert!(r.messages_for(Field::DeckLevel).is_empty());
+    }
+
+    #[test]
+    fn a_problem_of_no_field_is_named_beside_the_edited_field() {
+        let r = Refusal {
+            edited: Field::Valley,
+            error: StaticsError::invalid("rib between x = 60.000 m and 70.000 m", "below the ground"),
+        };
+        assert_eq!(
+            r.messages_for(Field::Valley),
+            vec!["rib between x = 60.000 m and 70.000 m: below the ground"]
+        );
+        assert!(r.messages_for(Field::DeckLevel).is_empty());
+    }
 
     #[test]
     fn parse_number_accepts_commas_and_rejects_text() {

@@ -130,7 +130,7 @@ pub fn ForceCanvas() -> impl IntoView {
     let view = StoredValue::new(None::<View>);
     let picture = Memo::new(move |_| match state.analysis.get() {
         Ok(a) => forces::picture(&a, state.case.get()),
-        Err(e) => ForcePicture::Unavailable(e),
+        Err(e) => ForcePicture::Unavailable(e.to_string()),
     });
     Effect::new(move |_| {
         let _ = state.resized.get();

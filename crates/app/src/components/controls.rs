@@ -1,12 +1,61 @@
-//! The control panels: Ground, Roadway, Arch, Loads and Sections. Every field has a unit
-//! and a valid range; a value the engine refuses shows why beside the field and the last
-//! good design stays on screen.
+//! The control panels: Ground, Roadway, Arch, Loads and Sections. Every field has a unit,
+//! a valid range and its design field (`Field`); when the engine refuses an edit, each of
+//! its problems is shown beside every field it involves (all of them beside the edited
+//! field) and the last good design stays on screen.
 
 use crate::format::{Quantity, Units};
 use crate::state::{parse_number, AppState};
 use leptos::prelude::*;
-use springline_statics::arch::design::{Bracing, Crown, GroundPoint, RibSystem, Section};
+use springline_statics::arch::design::{
+    Bracing, Crown, GroundPoint, RibSystem, Section, MAX_APPROACH_PIERS, MAX_PANELS, MAX_RIBS, MIN_PANELS,
+};
+use springline_statics::error::{Field, GroupName, SectionProperty, StaticsError};
 use springline_statics::Design;
+
+/// Fewest ribs the engine accepts (it refuses a deck on no ribs; `MAX_RIBS` is the most).
+const MIN_RIBS: usize = 1;
+
+/// The range of a count field, as the SI bounds a `NumberField` takes.
+fn count_range(min: usize, max: usize) -> (f64, f64) {
+    (min as f64, max as f64)
+}
+
+/// The problems of the last refused edit that involve `field` (every one beside the edited
+/// field), one paragraph each, after the field's own input message (`local`: not a number,
+/// out of range). Its element id is `id`; tests and `aria-describedby` use it.
+#[component]
+pub fn FieldProblems(
+    /// The design field the element stands beside.
+    field: Field,
+    /// Element id.
+    #[prop(into)]
+    id: String,
+    /// The field's own message about its input text, if any.
+    #[prop(optional, into)]
+    local: Option<Signal<Option<String>>>,
+    /// Only the input message: the refused edit's problems are shown once elsewhere for
+    /// every input of this design field (a ground point's x and y share one).
+    #[prop(optional)]
+    input_only: bool,
+) -> impl IntoView {
+    let state = expect_context::<AppState>();
+    let messages = Memo::new(move |_| {
+        let mut shown: Vec<String> = local.and_then(|l| l.get()).into_iter().collect();
+        if !input_only {
+            state.refused.with(|r| {
+                if let Some(r) = r {
+                    shown.extend(r.messages_for(field));
+                }
+            });
+        }
+        shown
+    });
+    view! {
+        <div class="error" id=id role="alert">
+            {move || messages.get().into_iter().map(|m| view! { <p>{m}</p> }).collect_view()}
+        </div>
+    }
+}
 
 /// Formats an SI value for an input box in the chosen units (no digit grouping).
 fn input_text(units: Units, q: Quantity, si: f64, integer: bool) -> String {
@@ -39,13 +88,16 @@ pub fn NumberField(
     /// Element id (for labels and tests).
     #[prop(into)]
     id: String,
+    /// The design field it edits (its problems are shown beside it).
+    field: Field,
     /// What kind of quantity it is (sets the unit).
     quantity: Quantity,
     /// The current SI value.
     #[prop(into)]
     value: Signal<f64>,
-    /// Applies an SI value to the design; `Err` carries the engine's message.
-    on_commit: Callback<f64, Result<(), String>>,
+    /// Applies an SI value to the design through `AppState::try_edit` (which shows a
+    /// refusal beside every field it involves); `Err` carries the engine's error.
+    on_commit: Callback<f64, Result<(), StaticsError>>,
     /// Smallest allowed SI value.
     min: f64,
     /// Largest allowed SI value.
@@ -53,22 +105,22 @@ pub fn NumberField(
     /// Whole numbers only.
     #[prop(optional)]
     integer: bool,
+    /// Another input edits the same design field (a ground point's x and y): the refused
+    /// edit's problems are shown once by the caller, not beside each input.
+    #[prop(optional)]
+    shared_field: bool,
 ) -> impl IntoView {
     let state = expect_context::<AppState>();
-    let error = RwSignal::new(None::<String>);
+    // what is wrong with the text typed here (not a number, out of range); the engine's
+    // refusals come from the state, as they may involve other fields too
+    let input_error = RwSignal::new(None::<String>);
     let error_id = format!("{id}-error");
-    let commit = move |text: String| {
+    // the SI value of the typed text, or what is wrong with it
+    let parse_input = move |text: &str| -> Result<f64, String> {
         let units = state.units.get_untracked();
-        let shown = match parse_number(&text) {
-            Ok(v) => v,
-            Err(e) => {
-                error.set(Some(e));
-                return;
-            }
-        };
+        let shown = parse_number(text)?;
         if integer && shown.fract() != 0.0 {
-            error.set(Some("must be a whole number".into()));
-            return;
+            return Err("must be a whole number".into());
         }
         let si = if integer { shown } else { units.to_si(quantity, shown) };
         if si < min || si > max {
@@ -77,33 +129,68 @@ pub fn NumberField(
             } else {
                 (units.show(quantity, min), units.show(quantity, max))
             };
-            error.set(Some(format!("must be between {lo} and {hi}")));
-            return;
+            return Err(format!("must be between {lo} and {hi}"));
         }
-        error.set(on_commit.run(si).err());
+        Ok(si)
     };
+    let commit = move |text: String| match parse_input(&text) {
+        Ok(si) => {
+            input_error.set(None);
+            // a refusal is recorded in the state and shown beside every field it involves
+            let _ = on_commit.run(si);
+        }
+        Err(e) => {
+            // this attempt replaces the last refused one: its messages would be stale
+            state.clear_refusal();
+            input_error.set(Some(e));
+        }
+    };
+    let involved = move || {
+        input_error.with(Option::is_some)
+            || state.refused.with(|r| r.as_ref().is_some_and(|r| !r.messages_for(field).is_empty()))
+    };
+    let shown_value = move || input_text(state.units.get(), quantity, value.get(), integer);
+    // When this field's refused edit is cleared (undo, redo, another good edit, a link),
+    // its box shows the design's value again instead of the refused text: the value itself
+    // did not change, so the binding below does not rewrite the box.
+    let input: NodeRef<leptos::html::Input> = NodeRef::new();
+    Effect::new(move |was_refused_here: Option<bool>| {
+        let refused_here = state.refused.with(|r| r.as_ref().is_some_and(|r| r.edited == field));
+        // a text that is not a number stays with its message until it is edited
+        if was_refused_here == Some(true) && !refused_here && input_error.with_untracked(Option::is_none) {
+            if let Some(el) = input.get_untracked() {
+                el.set_value(&untrack(shown_value));
+            }
+        }
+        refused_here
+    });
     let unit = move || if integer { String::new() } else { state.units.get().label(quantity).to_string() };
     view! {
-        <div class="field" class:invalid=move || error.get().is_some()>
+        <div class="field" class:invalid=involved>
             <label for=id.clone()>{label}</label>
             <input
+                node_ref=input
                 id=id.clone()
                 type="text"
                 inputmode="decimal"
                 aria-describedby=error_id.clone()
-                prop:value=move || input_text(state.units.get(), quantity, value.get(), integer)
+                prop:value=shown_value
                 on:change=move |ev| commit(event_target_value(&ev))
             />
             <span class="unit">{unit}</span>
-            <p class="error" id=error_id role="alert">{move || error.get()}</p>
+            <FieldProblems field id=error_id local=input_error input_only=shared_field />
         </div>
     }
 }
 
-/// A field editing `get`/`set` of the design through `AppState::try_edit`.
+/// A field editing `get`/`set` of the design (design field `field`) through
+/// `AppState::try_edit`.
+// one call per row keeps each field's label, id, path, unit, accessors and range together
+#[allow(clippy::too_many_arguments)]
 fn design_field(
     label: &'static str,
     id: &'static str,
+    field: Field,
     quantity: Quantity,
     get: fn(&Design) -> f64,
     set: fn(&mut Design, f64),
@@ -112,8 +199,8 @@ fn design_field(
 ) -> impl IntoView {
     let state = expect_context::<AppState>();
     let value = Signal::derive(move || state.design.with(get));
-    let on_commit = Callback::new(move |v: f64| state.try_edit(|d| set(d, v)));
-    view! { <NumberField label id quantity value on_commit min=range.0 max=range.1 integer /> }
+    let on_commit = Callback::new(move |v: f64| state.try_edit(field, |d| set(d, v)));
+    view! { <NumberField label id field quantity value on_commit min=range.0 max=range.1 integer /> }
 }
 
 /// Ground: the valley section as a list of points, with invented presets.
@@ -121,65 +208,59 @@ fn design_field(
 pub fn GroundPanel() -> impl IntoView {
     let state = expect_context::<AppState>();
     let count = Memo::new(move |_| state.design.with(|d| d.valley.len()));
-    let message = RwSignal::new(None::<String>);
     let rows = move || {
         (0..count.get())
             .map(|i| {
                 let x = Signal::derive(move || state.design.with(|d| d.valley.get(i).map(|p| p.x).unwrap_or(0.0)));
                 let y = Signal::derive(move || state.design.with(|d| d.valley.get(i).map(|p| p.y).unwrap_or(0.0)));
                 let set_x = Callback::new(move |v: f64| {
-                    state.try_edit(|d| {
+                    state.try_edit(Field::ValleyPoint(i), |d| {
                         if let Some(p) = d.valley.get_mut(i) {
                             p.x = v;
                         }
                     })
                 });
                 let set_y = Callback::new(move |v: f64| {
-                    state.try_edit(|d| {
+                    state.try_edit(Field::ValleyPoint(i), |d| {
                         if let Some(p) = d.valley.get_mut(i) {
                             p.y = v;
                         }
                     })
                 });
+                // a refusal is shown beside the ground points (the valley as a whole)
                 let remove = move |_| {
-                    message.set(
-                        state
-                            .try_edit(|d| {
-                                if d.valley.len() > 3 {
-                                    d.valley.remove(i);
-                                }
-                            })
-                            .err(),
-                    )
+                    let _ = state.try_edit(Field::Valley, |d| {
+                        if d.valley.len() > 3 {
+                            d.valley.remove(i);
+                        }
+                    });
                 };
+                // x and y are one design field: its problems show once, under the row
                 view! {
                     <div class="ground-row">
                         <span class="index">{i + 1}</span>
-                        <NumberField label="x" id=format!("ground-{i}-x") quantity=Quantity::Length value=x on_commit=set_x min=-1e5 max=1e5 />
-                        <NumberField label="y" id=format!("ground-{i}-y") quantity=Quantity::Length value=y on_commit=set_y min=-1e4 max=1e4 />
+                        <NumberField label="x" id=format!("ground-{i}-x") field=Field::ValleyPoint(i) quantity=Quantity::Length value=x on_commit=set_x min=-1e5 max=1e5 shared_field=true />
+                        <NumberField label="y" id=format!("ground-{i}-y") field=Field::ValleyPoint(i) quantity=Quantity::Length value=y on_commit=set_y min=-1e4 max=1e4 shared_field=true />
                         <button class="small" title="remove this ground point" on:click=remove>"×"</button>
                     </div>
+                    <FieldProblems field=Field::ValleyPoint(i) id=format!("ground-{i}-error") />
                 }
             })
             .collect_view()
     };
     let add = move |_| {
-        message.set(
-            state
-                .try_edit(|d| {
-                    if let (Some(a), Some(b)) =
-                        (d.valley.get(d.valley.len().saturating_sub(2)).copied(), d.valley.last().copied())
-                    {
-                        d.valley.push(GroundPoint { x: b.x + (b.x - a.x).abs().max(5.0), y: b.y });
-                    }
-                })
-                .err(),
-        )
+        let _ = state.try_edit(Field::Valley, |d| {
+            if let (Some(a), Some(b)) =
+                (d.valley.get(d.valley.len().saturating_sub(2)).copied(), d.valley.last().copied())
+            {
+                d.valley.push(GroundPoint { x: b.x + (b.x - a.x).abs().max(5.0), y: b.y });
+            }
+        });
     };
     let preset = move |ev: leptos::ev::Event| {
         let name = event_target_value(&ev);
         if let Some(valley) = presets().into_iter().find(|(n, _)| *n == name).map(|(_, v)| v) {
-            message.set(state.try_edit(|d| d.valley = valley).err());
+            let _ = state.try_edit(Field::Valley, |d| d.valley = valley);
         }
     };
     view! {
@@ -195,7 +276,7 @@ pub fn GroundPanel() -> impl IntoView {
             </div>
             {rows}
             <button class="small" on:click=add>"add ground point"</button>
-            <p class="error" role="alert">{move || message.get()}</p>
+            <FieldProblems field=Field::Valley id="ground-error" />
         </details>
     }
 }
@@ -246,14 +327,14 @@ pub fn RoadwayPanel() -> impl IntoView {
     view! {
         <details class="panel" open>
             <summary>"Roadway"</summary>
-            {design_field("Deck level", "deck-level", Quantity::Length, |d| d.deck.level, |d, v| d.deck.level = v, (-1e4, 1e4), false)}
-            {design_field("Left seat x", "seat-left", Quantity::Length, |d| d.deck.left_seat_x, |d, v| d.deck.left_seat_x = v, (-1e5, 1e5), false)}
-            {design_field("Right seat x", "seat-right", Quantity::Length, |d| d.deck.right_seat_x, |d, v| d.deck.right_seat_x = v, (-1e5, 1e5), false)}
-            {design_field("Deck width", "deck-width", Quantity::Length, |d| d.deck.width, |d, v| d.deck.width = v, (1.0, 60.0), false)}
-            {design_field("Ribs", "ribs", Quantity::Count, |d| d.deck.ribs as f64, |d, v| d.deck.ribs = v as usize, (1.0, 100.0), true)}
-            {design_field("Arch panels", "panels", Quantity::Count, |d| d.panels as f64, |d, v| d.panels = v as usize, (2.0, 200.0), true)}
-            {design_field("Approach piers, left", "piers-left", Quantity::Count, |d| d.approach_piers_left as f64, |d, v| d.approach_piers_left = v as usize, (0.0, 50.0), true)}
-            {design_field("Approach piers, right", "piers-right", Quantity::Count, |d| d.approach_piers_right as f64, |d, v| d.approach_piers_right = v as usize, (0.0, 50.0), true)}
+            {design_field("Deck level", "deck-level", Field::DeckLevel, Quantity::Length, |d| d.deck.level, |d, v| d.deck.level = v, (-1e4, 1e4), false)}
+            {design_field("Left seat x", "seat-left", Field::LeftSeatX, Quantity::Length, |d| d.deck.left_seat_x, |d, v| d.deck.left_seat_x = v, (-1e5, 1e5), false)}
+            {design_field("Right seat x", "seat-right", Field::RightSeatX, Quantity::Length, |d| d.deck.right_seat_x, |d, v| d.deck.right_seat_x = v, (-1e5, 1e5), false)}
+            {design_field("Deck width", "deck-width", Field::DeckWidth, Quantity::Length, |d| d.deck.width, |d, v| d.deck.width = v, (1.0, 60.0), false)}
+            {design_field("Ribs", "ribs", Field::Ribs, Quantity::Count, |d| d.deck.ribs as f64, |d, v| d.deck.ribs = v as usize, count_range(MIN_RIBS, MAX_RIBS), true)}
+            {design_field("Arch panels", "panels", Field::Panels, Quantity::Count, |d| d.panels as f64, |d, v| d.panels = v as usize, count_range(MIN_PANELS, MAX_PANELS), true)}
+            {design_field("Approach piers, left", "piers-left", Field::ApproachPiersLeft, Quantity::Count, |d| d.approach_piers_left as f64, |d, v| d.approach_piers_left = v as usize, count_range(0, MAX_APPROACH_PIERS), true)}
+            {design_field("Approach piers, right", "piers-right", Field::ApproachPiersRight, Quantity::Count, |d| d.approach_piers_right as f64, |d, v| d.approach_piers_right = v as usize, count_range(0, MAX_APPROACH_PIERS), true)}
         </details>
     }
 }
@@ -262,7 +343,6 @@ pub fn RoadwayPanel() -> impl IntoView {
 #[component]
 pub fn ArchPanel() -> impl IntoView {
     let state = expect_context::<AppState>();
-    let message = RwSignal::new(None::<String>);
     let rib = move || {
         state.design.with(|d| match d.rib_system {
             RibSystem::ThreeHinged => "three",
@@ -277,7 +357,8 @@ pub fn ArchPanel() -> impl IntoView {
             "fixed" => RibSystem::Fixed,
             _ => RibSystem::ThreeHinged,
         };
-        message.set(state.try_edit(|d| d.rib_system = sys).err());
+        // a refusal is shown beside the select (and every field it involves)
+        let _ = state.try_edit(Field::RibSystem, |d| d.rib_system = sys);
     };
     let bracing = move || {
         state.design.with(|d| match d.bracing {
@@ -294,11 +375,11 @@ pub fn ArchPanel() -> impl IntoView {
             "crossed" => Bracing::Crossed,
             _ => Bracing::Single { flipped: false },
         };
-        message.set(state.try_edit(|d| d.bracing = b).err());
+        let _ = state.try_edit(Field::Bracing, |d| d.bracing = b);
     };
     let crown_value = Signal::derive(move || state.design.with(|d| d.rise()));
     let set_rise = Callback::new(move |v: f64| {
-        state.try_edit(|d| {
+        state.try_edit(Field::CrownRise, |d| {
             // keep the user's choice of how the crown is given
             d.crown = match d.crown {
                 Crown::Rise { .. } => Crown::Rise { rise: v },
@@ -311,11 +392,11 @@ pub fn ArchPanel() -> impl IntoView {
     view! {
         <details class="panel" open>
             <summary>"Arch"</summary>
-            {design_field("Left springing level", "springing-left", Quantity::Length, |d| d.springing_left_level, |d, v| d.springing_left_level = v, (-1e4, 1e4), false)}
-            {design_field("Right springing level", "springing-right", Quantity::Length, |d| d.springing_right_level, |d, v| d.springing_right_level = v, (-1e4, 1e4), false)}
-            <NumberField label="Rise" id="rise" quantity=Quantity::Length value=crown_value on_commit=set_rise min=0.0 max=1e4 />
-            {design_field("Crown level", "crown-level", Quantity::Length, |d| d.crown_level(), |d, v| d.crown = Crown::Level { level: v }, (-1e4, 1e4), false)}
-            {design_field("Shortest post", "min-post", Quantity::Length, |d| d.min_post_length, |d, v| d.min_post_length = v, (0.0, 50.0), false)}
+            {design_field("Left springing level", "springing-left", Field::SpringingLeftLevel, Quantity::Length, |d| d.springing_left_level, |d, v| d.springing_left_level = v, (-1e4, 1e4), false)}
+            {design_field("Right springing level", "springing-right", Field::SpringingRightLevel, Quantity::Length, |d| d.springing_right_level, |d, v| d.springing_right_level = v, (-1e4, 1e4), false)}
+            <NumberField label="Rise" id="rise" field=Field::CrownRise quantity=Quantity::Length value=crown_value on_commit=set_rise min=0.0 max=1e4 />
+            {design_field("Crown level", "crown-level", Field::CrownLevel, Quantity::Length, |d| d.crown_level(), |d, v| d.crown = Crown::Level { level: v }, (-1e4, 1e4), false)}
+            {design_field("Shortest post", "min-post", Field::MinPostLength, Quantity::Length, |d| d.min_post_length, |d, v| d.min_post_length = v, (0.0, 50.0), false)}
             <div class="field">
                 <label for="rib-system">"Rib"</label>
                 <select id="rib-system" on:change=set_rib prop:value=rib>
@@ -323,6 +404,7 @@ pub fn ArchPanel() -> impl IntoView {
                     <option value="two">"two-hinged"</option>
                     <option value="fixed">"fixed"</option>
                 </select>
+                <FieldProblems field=Field::RibSystem id="rib-system-error" />
             </div>
             <div class="field">
                 <label for="bracing">"Spandrel bracing"</label>
@@ -332,8 +414,8 @@ pub fn ArchPanel() -> impl IntoView {
                     <option value="flipped">"single diagonals, flipped"</option>
                     <option value="crossed">"crossed pairs"</option>
                 </select>
+                <FieldProblems field=Field::Bracing id="bracing-error" />
             </div>
-            <p class="error" role="alert">{move || message.get()}</p>
         </details>
     }
 }
@@ -344,8 +426,8 @@ pub fn LoadsPanel() -> impl IntoView {
     view! {
         <details class="panel" open>
             <summary>"Loads"</summary>
-            {design_field("Deck dead load", "dead-load", Quantity::Pressure, |d| d.deck.dead_load, |d, v| d.deck.dead_load = v, (0.0, 100.0), false)}
-            {design_field("Surfacing", "surfacing", Quantity::Pressure, |d| d.deck.surfacing, |d, v| d.deck.surfacing = v, (0.0, 50.0), false)}
+            {design_field("Deck dead load", "dead-load", Field::DeadLoad, Quantity::Pressure, |d| d.deck.dead_load, |d, v| d.deck.dead_load = v, (0.0, 100.0), false)}
+            {design_field("Surfacing", "surfacing", Field::Surfacing, Quantity::Pressure, |d| d.deck.surfacing, |d, v| d.deck.surfacing = v, (0.0, 50.0), false)}
             <p class="hint">"Self-weights of rib, posts, bracing and deck girder follow from the sections."</p>
         </details>
     }
@@ -358,32 +440,56 @@ type SectionSet = fn(&mut Design) -> &mut Section;
 #[component]
 pub fn SectionsPanel() -> impl IntoView {
     let state = expect_context::<AppState>();
-    let groups: [(&'static str, &'static str, SectionGet, SectionSet); 5] = [
-        ("Rib", "rib", |d| &d.groups.rib, |d| &mut d.groups.rib),
-        ("Deck", "deck", |d| &d.groups.deck, |d| &mut d.groups.deck),
-        ("Posts", "posts", |d| &d.groups.posts, |d| &mut d.groups.posts),
-        ("Piers", "piers", |d| &d.groups.piers, |d| &mut d.groups.piers),
-        ("Bracing", "bracing", |d| &d.groups.bracing, |d| &mut d.groups.bracing),
+    let groups: [(&'static str, &'static str, GroupName, SectionGet, SectionSet); 5] = [
+        ("Rib", "rib", GroupName::Rib, |d| &d.groups.rib, |d| &mut d.groups.rib),
+        ("Deck", "deck", GroupName::Deck, |d| &d.groups.deck, |d| &mut d.groups.deck),
+        ("Posts", "posts", GroupName::Posts, |d| &d.groups.posts, |d| &mut d.groups.posts),
+        ("Piers", "piers", GroupName::Piers, |d| &d.groups.piers, |d| &mut d.groups.piers),
+        ("Bracing", "bracing", GroupName::Bracing, |d| &d.groups.bracing, |d| &mut d.groups.bracing),
     ];
-    type Prop =
-        (&'static str, &'static str, Quantity, fn(&Section) -> f64, fn(&mut Section, f64), (f64, f64));
+    type Prop = (
+        &'static str,
+        &'static str,
+        SectionProperty,
+        Quantity,
+        fn(&Section) -> f64,
+        fn(&mut Section, f64),
+        (f64, f64),
+    );
     let props: [Prop; 5] = [
-        ("E", "e", Quantity::Modulus, |s| s.e, |s, v| s.e = v, (1e5, 1e9)),
-        ("A", "a", Quantity::Area, |s| s.a, |s, v| s.a = v, (1e-5, 100.0)),
-        ("I", "i", Quantity::Inertia, |s| s.i, |s, v| s.i = v, (1e-10, 1000.0)),
-        ("depth", "depth", Quantity::Length, |s| s.depth, |s, v| s.depth = v, (0.01, 20.0)),
-        ("weight", "w", Quantity::UnitWeight, |s| s.unit_weight, |s, v| s.unit_weight = v, (0.0, 100.0)),
+        ("E", "e", SectionProperty::E, Quantity::Modulus, |s| s.e, |s, v| s.e = v, (1e5, 1e9)),
+        ("A", "a", SectionProperty::A, Quantity::Area, |s| s.a, |s, v| s.a = v, (1e-5, 100.0)),
+        ("I", "i", SectionProperty::I, Quantity::Inertia, |s| s.i, |s, v| s.i = v, (1e-10, 1000.0)),
+        (
+            "depth",
+            "depth",
+            SectionProperty::Depth,
+            Quantity::Length,
+            |s| s.depth,
+            |s, v| s.depth = v,
+            (0.01, 20.0),
+        ),
+        (
+            "weight",
+            "w",
+            SectionProperty::UnitWeight,
+            Quantity::UnitWeight,
+            |s| s.unit_weight,
+            |s, v| s.unit_weight = v,
+            (0.0, 100.0),
+        ),
     ];
     let rows = groups
         .into_iter()
-        .map(|(name, key, get, set)| {
+        .map(|(name, key, group, get, set)| {
             let cells = props
                 .into_iter()
-                .map(|(label, pkey, q, pget, pset, range)| {
+                .map(|(label, pkey, property, q, pget, pset, range)| {
+                    let field = Field::Section(group, property);
                     let value = Signal::derive(move || state.design.with(|d| pget(get(d))));
-                    let on_commit = Callback::new(move |v: f64| state.try_edit(|d| pset(set(d), v)));
+                    let on_commit = Callback::new(move |v: f64| state.try_edit(field, |d| pset(set(d), v)));
                     view! {
-                        <NumberField label id=format!("section-{key}-{pkey}") quantity=q value on_commit min=range.0 max=range.1 />
+                        <NumberField label id=format!("section-{key}-{pkey}") field quantity=q value on_commit min=range.0 max=range.1 />
                     }
                 })
                 .collect_view();

@@ -127,7 +127,7 @@ pub fn ResultsPanel() -> impl IntoView {
                 }
                 .into_any()
             }
-            Err(e) => view! { <p class="error">{e}</p> }.into_any(),
+            Err(e) => view! { <p class="error">{e.to_string()}</p> }.into_any(),
         }
     };
     view! { <section class="results-panel" aria-label="Results"><h2>"Results"</h2>{body}</section> }

@@ -1,6 +1,7 @@
 //! The header's tools: undo / redo (with the usual shortcuts), units, and copy link.
 
 use crate::format::Units;
+use crate::permalink_sync::link_to_open_design;
 use crate::state::AppState;
 use leptos::prelude::*;
 
@@ -35,8 +36,9 @@ pub fn Toolbar() -> impl IntoView {
     on_cleanup(move || keys.remove());
     let copy = move |_| {
         let Some(w) = web_sys::window() else { return };
-        let href = w.location().href().unwrap_or_default();
-        let _ = w.navigator().clipboard().write_text(&href);
+        // the design on screen, even when the address bar has not caught up with an edit
+        let Some(link) = link_to_open_design(state) else { return };
+        let _ = w.navigator().clipboard().write_text(&link);
         copied.set(true);
         set_timeout(move || copied.set(false), std::time::Duration::from_millis(1500));
     };
