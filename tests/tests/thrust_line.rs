@@ -53,10 +53,24 @@ fn check_line(t: &ThrustLine, case: &CaseResult, chain: &[(usize, bool)]) {
         assert!((sec.thrust + n).abs() <= 1e-9 * n_max, "{}: thrust {} vs -N {}", t.case, sec.thrust, -n);
         assert!((sec.moment - m).abs() <= 1e-6 * m_max.max(1e-9 * n_max));
     }
-    // the reported checks follow from the offsets
-    let max_e = t.sections.iter().map(|s| s.offset.abs()).fold(0.0, f64::max);
+    // just left of every interior node: the solver's moment at the end of the member
+    // arriving from the left (where a deck joins with a moment it differs from the right)
+    assert_eq!(t.left_of.len(), t.sections.len());
+    assert!(t.left_of[0].is_none() && t.left_of[t.left_of.len() - 1].is_none());
+    for (i, left) in t.left_of.iter().enumerate().skip(1).take(chain.len() - 1) {
+        let left = left.as_ref().expect("interior nodes have a left side");
+        let (k, fwd) = chain[i - 1];
+        let mf = &case.members[k];
+        let (n, m) = if fwd { (mf.end.n, mf.end.m) } else { (mf.start.n, -mf.start.m) };
+        assert!((left.moment - m).abs() <= 1e-6 * m_max.max(1e-9 * n_max), "{}: left of node {i}", t.case);
+        assert!((-n * left.offset - m).abs() <= 1e-6 * m_max.max(1e-9 * n_max));
+    }
+    // the reported checks follow from the offsets on both sides
+    let max_e =
+        t.sections.iter().chain(t.left_of.iter().flatten()).map(|s| s.offset.abs()).fold(0.0, f64::max);
     assert!((t.max_offset - max_e).abs() <= 1e-15 * max_e.max(1.0));
-    assert!((t.sections[t.worst].offset.abs() - max_e).abs() <= 1e-15 * max_e.max(1.0));
+    let at_worst = t.sections[t.worst].offset.abs().max(t.left_of[t.worst].map_or(0.0, |l| l.offset.abs()));
+    assert!((at_worst - max_e).abs() <= 1e-15 * max_e.max(1.0));
     assert_eq!(t.inside_middle_third, max_e <= t.depth / 6.0);
     assert_eq!(t.inside_depth, max_e <= t.depth / 2.0);
     assert!((t.least_depth - 2.0 * max_e).abs() <= 1e-12 * max_e.max(1.0));

@@ -616,5 +616,18 @@ mod tests {
             let (l, r) = (m.left.unwrap_or(0.0), m.right.unwrap_or(0.0));
             assert_eq!(m.m.abs(), l.abs().max(r.abs()));
         }
+        // the dead-load thrust line is checked on both sides of every node: its sections
+        // give the same two moments (N e from the forces the rib receives, independent
+        // of the solver's end moments)
+        let line = a.load_cases[0].thrust_line.as_ref().expect("thrust line");
+        let scale = a.residual_rib_moments.max_abs;
+        for (k, m) in a.residual_rib_moments.nodes.iter().enumerate() {
+            if let (Some(l), Some(section)) = (m.left, line.left_of[k]) {
+                assert!((section.moment - l).abs() < 1e-6 * scale, "left of node {k}");
+            }
+            if let Some(r) = m.right {
+                assert!((line.sections[k].moment - r).abs() < 1e-6 * scale, "right of node {k}");
+            }
+        }
     }
 }

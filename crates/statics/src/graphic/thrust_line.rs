@@ -53,11 +53,16 @@ pub struct ThrustLine {
     /// One section per rib node, left springing to right springing (just right of each
     /// node, and just left of the right springing).
     pub sections: Vec<PressurePoint>,
+    /// The section just left of each interior rib node (aligned with `sections`; `None`
+    /// at both springings, where `sections` already holds the only side). Where a member
+    /// joins the rib with a moment (a deck sharing the node) the two sides differ; the
+    /// checks below take both.
+    pub left_of: Vec<Option<PressurePoint>>,
     /// Vertices of the line of pressure (springing, kinks where forces join, springing), m.
     pub polygon: Vec<Point>,
-    /// Index into `sections` of the largest |offset|.
+    /// Index into `sections` (the rib node) of the largest |offset|, either side.
     pub worst: usize,
-    /// Largest |offset|, m.
+    /// Largest |offset| over both sides of every section, m.
     pub max_offset: f64,
     /// The least rib depth (symmetric about the axis) that contains the thrust line at
     /// every section: 2 max |offset|, m.
@@ -267,6 +272,30 @@ pub fn thrust_line(
         }
         last_line = Some((on, (rx, ry)));
     };
+    // the centre of pressure on the section through `c` (relative to the origin) normal
+    // to the rib direction `t`, for the resultant (Rx, Ry, moment about the origin) of
+    // every force to its left
+    let section = |n: usize, c: (f64, f64), t: (f64, f64), (rx, ry, m0): (f64, f64, f64)| {
+        let thrust = rx * t.0 + ry * t.1;
+        if thrust.abs() <= f64::EPSILON * rx.hypot(ry).max(1.0) {
+            return Err(StaticsError::invalid(
+                format!("thrust line at node {}", model.node_label(n)),
+                "the rib carries no thrust there, so the centre of pressure is undefined",
+            ));
+        }
+        let m_c = m0 - (c.0 * ry - c.1 * rx);
+        let offset = -m_c / thrust;
+        let normal = (-t.1, t.0);
+        Ok(PressurePoint {
+            node: n,
+            axis: Point::from(abs(c)),
+            point: Point::from(abs((c.0 + offset * normal.0, c.1 + offset * normal.1))),
+            offset,
+            thrust,
+            moment: thrust * offset,
+        })
+    };
+    let mut left_of = Vec::with_capacity(rib_nodes.len());
     for (i, &n) in rib_nodes.iter().enumerate() {
         let last = i + 1 == rib_nodes.len();
         if i > 0 {
@@ -280,32 +309,26 @@ pub fn thrust_line(
             let prev = rib_nodes[i - 1];
             (pos(n), unit(pos(prev), pos(n)))
         } else {
-            let (fx, fy, mz) = node_force(n);
             let p = pos(n);
+            if i > 0 {
+                // just left of the node: the resultant before the node's own forces, on
+                // the section normal to the member arriving from the left
+                let t = unit(pos(rib_nodes[i - 1]), p);
+                left_of.push(Some(section(n, p, t, (rx, ry, m0))?));
+            } else {
+                left_of.push(None);
+            }
+            let (fx, fy, mz) = node_force(n);
             rx += fx;
             ry += fy;
             m0 += mz + p.0 * fy - p.1 * fx;
             push_line(rx, ry, m0, p);
             (p, unit(p, pos(rib_nodes[i + 1])))
         };
-        let thrust = rx * t.0 + ry * t.1;
-        if thrust.abs() <= f64::EPSILON * rx.hypot(ry).max(1.0) {
-            return Err(StaticsError::invalid(
-                format!("thrust line at node {}", model.node_label(n)),
-                "the rib carries no thrust there, so the centre of pressure is undefined",
-            ));
-        }
-        let m_c = m0 - (c.0 * ry - c.1 * rx);
-        let offset = -m_c / thrust;
-        let normal = (-t.1, t.0);
-        sections.push(PressurePoint {
-            node: n,
-            axis: Point::from(abs(c)),
-            point: Point::from(abs((c.0 + offset * normal.0, c.1 + offset * normal.1))),
-            offset,
-            thrust,
-            moment: thrust * offset,
-        });
+        sections.push(section(n, c, t, (rx, ry, m0))?);
+    }
+    if left_of.len() < sections.len() {
+        left_of.push(None); // the right springing: `sections` holds its left side
     }
     // the line of pressure: from the left springing section through the kinks to the
     // right springing section
@@ -319,8 +342,9 @@ pub fn thrust_line(
     }
     let (worst, max_offset) = sections
         .iter()
+        .zip(&left_of)
         .enumerate()
-        .map(|(i, s)| (i, s.offset.abs()))
+        .map(|(i, (s, l))| (i, s.offset.abs().max(l.map_or(0.0, |l| l.offset.abs()))))
         .fold((0, 0.0), |a, b| if b.1 > a.1 { b } else { a });
     Ok(ThrustLine {
         case: case.name.clone(),
@@ -333,6 +357,7 @@ pub fn thrust_line(
         inside_depth: max_offset <= depth / 2.0,
         geometric_safety_factor: if max_offset > 0.0 { Some(depth / (2.0 * max_offset)) } else { None },
         sections,
+        left_of,
         polygon,
     })
 }
