@@ -162,8 +162,8 @@ fn half_span_spec(valid: &ValidDesign, half: Half, w: f64) -> CaseSpec {
     let f = valid.layout();
     let line = w * valid.design().deck.width;
     let (x0, x1) = match half {
-        Half::Left => (f.a.0, f.xc),
-        Half::Right => (f.xc, f.b.0),
+        Half::Left => (f.a.x, f.xc),
+        Half::Right => (f.xc, f.b.x),
     };
     CaseSpec {
         name: if half == Half::Left { HALF_SPAN.into() } else { "dead + half-span live (right)".into() },
@@ -214,12 +214,12 @@ pub fn standard_cases(valid: &ValidDesign) -> Vec<CaseSpec> {
 /// The joint loads (joint, kN down) of one deck load: panel reactions of the deck spans.
 fn joint_loads(f: &Layout, topo: &Topology, rib_y: &[f64], load: &DeckLoad) -> Vec<(Joint, f64)> {
     let mut spans: Vec<(Joint, Joint)> = topo.deck.iter().chain(topo.drop_in.iter()).copied().collect();
-    spans.sort_by(|p, q| position(f, rib_y, p.0).0.total_cmp(&position(f, rib_y, q.0).0));
+    spans.sort_by(|p, q| position(f, rib_y, p.0).x.total_cmp(&position(f, rib_y, q.0).x));
     let mut out = Vec::new();
     match *load {
         DeckLoad::Strip { w, x0, x1 } => {
             for &(j, k) in &spans {
-                let (xj, xk) = (position(f, rib_y, j).0, position(f, rib_y, k).0);
+                let (xj, xk) = (position(f, rib_y, j).x, position(f, rib_y, k).x);
                 let (lo, hi) = (x0.max(xj), x1.min(xk));
                 let len = xk - xj;
                 if hi <= lo || len <= 0.0 {
@@ -234,10 +234,10 @@ fn joint_loads(f: &Layout, topo: &Topology, rib_y: &[f64], load: &DeckLoad) -> V
             let x = f.panel_x.get(panel).copied().unwrap_or(f64::NAN);
             // the first span holding x (a joint at x takes it all)
             if let Some(&(j, k)) = spans.iter().find(|&&(j, k)| {
-                let (xj, xk) = (position(f, rib_y, j).0, position(f, rib_y, k).0);
+                let (xj, xk) = (position(f, rib_y, j).x, position(f, rib_y, k).x);
                 xj <= x && x <= xk
             }) {
-                let (xj, xk) = (position(f, rib_y, j).0, position(f, rib_y, k).0);
+                let (xj, xk) = (position(f, rib_y, j).x, position(f, rib_y, k).x);
                 let len = xk - xj;
                 if len > 0.0 {
                     out.push((j, p * (xk - x) / len));

@@ -91,23 +91,23 @@ impl PanelLoads {
                 out.push((j, p));
             }
         };
-        let len = |p: (f64, f64), q: (f64, f64)| (q.0 - p.0).hypot(q.1 - p.1);
         // deck: simple-span reactions of every span over the arch and the two last
         // approach spans (the other approach reactions go to piers and seats)
         // (per horizontal metre: a deck member kinked down to a shared rib node carries
         // the same road length)
         for &(j, k) in topo.deck.iter().chain(topo.drop_in.iter()) {
-            let l = (position(f, rib_y, k).0 - position(f, rib_y, j).0).abs();
+            let l = (position(f, rib_y, k).x - position(f, rib_y, j).x).abs();
             add(j, 0.5 * self.deck * l);
             add(k, 0.5 * self.deck * l);
         }
-        let left_last = f.piers_left.last().map(|p| p.0).unwrap_or(f.seats.0);
-        let right_first = f.piers_right.first().map(|p| p.0).unwrap_or(f.seats.1);
-        add(Joint::Deck(0), 0.5 * self.deck * (f.a.0 - left_last));
-        add(Joint::Deck(f.panels), 0.5 * self.deck * (right_first - f.b.0));
+        let left_last = f.piers_left.last().map(|p| p.x).unwrap_or(f.seats.0);
+        let right_first = f.piers_right.first().map(|p| p.x).unwrap_or(f.seats.1);
+        add(Joint::Deck(0), 0.5 * self.deck * (f.a.x - left_last));
+        add(Joint::Deck(f.panels), 0.5 * self.deck * (right_first - f.b.x));
         // rib segments
         for r in 0..f.last_rib() {
-            let w = self.rib * len((f.rib_x[r], rib_y[r]), (f.rib_x[r + 1], rib_y[r + 1]));
+            let w =
+                self.rib * position(f, rib_y, Joint::Rib(r)).distance(position(f, rib_y, Joint::Rib(r + 1)));
             add(Joint::Rib(r), 0.5 * w);
             add(Joint::Rib(r + 1), 0.5 * w);
         }
@@ -118,7 +118,7 @@ impl PanelLoads {
             add(Joint::Rib(r), 0.5 * w);
         }
         for &(j, k) in &topo.diagonals {
-            let w = self.bracing * len(position(f, rib_y, j), position(f, rib_y, k));
+            let w = self.bracing * position(f, rib_y, j).distance(position(f, rib_y, k));
             add(j, 0.5 * w);
             add(k, 0.5 * w);
         }
@@ -227,9 +227,9 @@ pub fn find_form_for(
 ) -> Result<Form, StaticsError> {
     let mut y: Vec<f64> = frame.rib_x.iter().map(|&x| frame.parabola(x)).collect();
     let last = frame.last_rib();
-    y[0] = frame.a.1;
-    y[last] = frame.b.1;
-    let (a, b) = (Point { x: frame.a.0, y: frame.a.1 }, Point { x: frame.b.0, y: frame.b.1 });
+    y[0] = frame.a.y;
+    y[last] = frame.b.y;
+    let (a, b) = (frame.a, frame.b);
     let mut change = f64::INFINITY;
     let mut iterations = 0;
     loop {

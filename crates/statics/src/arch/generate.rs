@@ -25,6 +25,7 @@ use crate::arch::layout::{position, Joint, Layout};
 use crate::arch::validate::ValidDesign;
 use crate::error::GroupName;
 use crate::frame::model::{frame, truss, LoadCase, LoadDirection, MemberLoad, Model, NodalLoad, Support};
+use crate::geom::Point;
 use serde::{Deserialize, Serialize};
 use std::fmt;
 
@@ -304,8 +305,8 @@ impl<'a> Builder<'a> {
                 if let Some(k) = self.deck[i] {
                     return k;
                 }
-                let (x, y) = position(self.f, &self.y, j);
-                let k = self.model.add_node(format!("d{i}"), x, y);
+                let at = position(self.f, &self.y, j);
+                let k = self.model.add_node(format!("d{i}"), at.x, at.y);
                 self.deck[i] = Some(k);
                 k
             }
@@ -417,7 +418,7 @@ pub fn frame_model(valid: &ValidDesign) -> Generated {
     }
     if let Some((p, q)) = topo.drop_in {
         let (pp, pq) = (position(f, &b.y, p), position(f, &b.y, q));
-        let half = 0.5 * w_deck * (pq.0 - pp.0);
+        let half = 0.5 * w_deck * (pq.x - pp.x);
         let (np, nq) = (b.joint(p), b.joint(q));
         add_load(&mut lc, np, -half);
         add_load(&mut lc, nq, -half);
@@ -458,11 +459,10 @@ pub fn frame_model(valid: &ValidDesign) -> Generated {
         seats[side_index] = seat;
         let mut chain = vec![seat];
         // piers from the seat towards the arch (`piers_right` runs from the arch outwards)
-        let from_seat: Vec<(f64, f64)> =
-            if left { piers.clone() } else { piers.iter().rev().copied().collect() };
-        for (k, &(x, ground)) in from_seat.iter().enumerate() {
-            let top = b.model.add_node(format!("pier {side}{} top", k + 1), x, f.deck_level);
-            let foot = b.model.add_node(format!("pier {side}{} foot", k + 1), x, ground);
+        let from_seat: Vec<Point> = if left { piers.clone() } else { piers.iter().rev().copied().collect() };
+        for (k, foot) in from_seat.iter().enumerate() {
+            let top = b.model.add_node(format!("pier {side}{} top", k + 1), foot.x, f.deck_level);
+            let foot = b.model.add_node(format!("pier {side}{} foot", k + 1), foot.x, foot.y);
             b.truss_member(format!("pier {side}{}", k + 1), MemberRole::Pier, top, foot, &g.piers);
             lumped(&mut b, &mut lc, &g.piers, top, foot);
             b.model.supports.push(Support::pinned(foot));

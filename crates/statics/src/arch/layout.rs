@@ -8,6 +8,7 @@
 //! are the springings; the end posts stand on them. Units m.
 
 use crate::arch::design::{Bracing, Design, RibSystem};
+use crate::geom::Point;
 use crate::tolerance::SHARED_NODE_GAP;
 
 use serde::{Deserialize, Serialize};
@@ -25,10 +26,10 @@ pub enum Joint {
 /// Fixed geometry of a design (does not depend on the rib shape).
 #[derive(Debug, Clone, PartialEq)]
 pub struct Layout {
-    /// Left springing (x, y), m.
-    pub a: (f64, f64),
-    /// Right springing (x, y), m.
-    pub b: (f64, f64),
+    /// Left springing, m.
+    pub a: Point,
+    /// Right springing, m.
+    pub b: Point,
     /// Crown x, m (midway).
     pub xc: f64,
     /// Rise above the chord at the crown, m.
@@ -45,10 +46,10 @@ pub struct Layout {
     pub rib_panel: Vec<Option<usize>>,
     /// Index of the crown rib node.
     pub crown: usize,
-    /// Left approach: (x, ground level) of each pier, from the seat towards the arch.
-    pub piers_left: Vec<(f64, f64)>,
-    /// Right approach: (x, ground level) of each pier, from the arch towards the seat.
-    pub piers_right: Vec<(f64, f64)>,
+    /// Left approach: the foot of each pier on the ground, from the seat towards the arch.
+    pub piers_left: Vec<Point>,
+    /// Right approach: the foot of each pier on the ground, from the arch towards the seat.
+    pub piers_right: Vec<Point>,
     /// Left and right abutment seat x, m.
     pub seats: (f64, f64),
     /// Rib system.
@@ -60,7 +61,7 @@ pub struct Layout {
 impl Layout {
     /// The layout geometry of a design whose inputs passed `check_inputs`; `None` if the
     /// springings cannot be placed.
-    pub fn new(d: &Design) -> Option<Layout> {
+    pub(crate) fn new(d: &Design) -> Option<Layout> {
         let xa = d.springing_x(d.springing_left_level, true)?;
         let xb = d.springing_x(d.springing_right_level, false)?;
         let n = d.panels;
@@ -86,11 +87,11 @@ impl Layout {
             rib_x.push(x);
             rib_panel.push(Some(i));
         }
-        let piers = |seat: f64, end: f64, count: usize| -> Option<Vec<(f64, f64)>> {
+        let piers = |seat: f64, end: f64, count: usize| -> Option<Vec<Point>> {
             (1..=count)
                 .map(|k| {
                     let x = seat + (end - seat) * k as f64 / (count + 1) as f64;
-                    d.ground_at(x).map(|g| (x, g))
+                    d.ground_at(x).map(|g| Point::new(x, g))
                 })
                 .collect()
         };
@@ -98,8 +99,8 @@ impl Layout {
         let mut piers_right = piers(d.deck.right_seat_x, xb, d.approach_piers_right)?;
         piers_right.reverse();
         Some(Layout {
-            a: (xa, d.springing_left_level),
-            b: (xb, d.springing_right_level),
+            a: Point::new(xa, d.springing_left_level),
+            b: Point::new(xb, d.springing_right_level),
             xc,
             rise: d.rise(),
             deck_level: d.deck.level,
@@ -118,18 +119,18 @@ impl Layout {
 
     /// Span L = x_B - x_A, m.
     pub fn span(&self) -> f64 {
-        self.b.0 - self.a.0
+        self.b.x - self.a.x
     }
 
     /// Level of the springing chord at `x`, m.
     pub fn chord(&self, x: f64) -> f64 {
-        self.a.1 + (self.b.1 - self.a.1) * (x - self.a.0) / self.span()
+        self.a.y + (self.b.y - self.a.y) * (x - self.a.x) / self.span()
     }
 
     /// The parabola through both springings and the crown point, at `x` (start shape).
     pub fn parabola(&self, x: f64) -> f64 {
         let l = self.span();
-        self.chord(x) + 4.0 * self.rise * (x - self.a.0) * (self.b.0 - x) / (l * l)
+        self.chord(x) + 4.0 * self.rise * (x - self.a.x) * (self.b.x - x) / (l * l)
     }
 
     /// Index of the rib node under panel point `i`.
@@ -177,7 +178,7 @@ impl Topology {
                 // a post of (nearly) zero length is no post: share the node even when the
                 // user's minimum is zero
                 let gap = f.deck_level - rib_y[r];
-                gap < min_post || gap <= SHARED_NODE_GAP * (f.b.0 - f.a.0).abs()
+                gap < min_post || gap <= SHARED_NODE_GAP * (f.b.x - f.a.x).abs()
             })
             .collect();
         Topology::with_shared(f, shared)
@@ -256,19 +257,20 @@ impl Topology {
                 let (outer, inner) = (p, p + 1);
                 let last_even = n % 2 == 0 && p == half - 1;
                 let mirror = |i: usize| n - i;
-                let pairs: Vec<(usize, usize, bool)> = if last_even && three {
-                    vec![(outer, inner, true)]
+                // (deck end, rib end) panel points of each diagonal in this panel
+                let pairs: Vec<(usize, usize)> = if last_even && three {
+                    vec![(outer, inner)]
                 } else {
                     let mut v = Vec::new();
                     if crossed || !flipped {
-                        v.push((outer, inner, true));
+                        v.push((outer, inner));
                     }
                     if crossed || flipped {
-                        v.push((inner, outer, true));
+                        v.push((inner, outer));
                     }
                     v
                 };
-                for (from_deck, to_rib, _) in pairs {
+                for (from_deck, to_rib) in pairs {
                     push(deck_joint(from_deck), Joint::Rib(f.rib_under(to_rib)), &mut diagonals);
                     push(
                         deck_joint(mirror(from_deck)),
@@ -295,10 +297,10 @@ impl Topology {
 }
 
 /// Position of a joint, m.
-pub fn position(f: &Layout, rib_y: &[f64], j: Joint) -> (f64, f64) {
+pub fn position(f: &Layout, rib_y: &[f64], j: Joint) -> Point {
     match j {
-        Joint::Rib(r) => (f.rib_x[r], rib_y[r]),
-        Joint::Deck(i) => (f.panel_x[i], f.deck_level),
+        Joint::Rib(r) => Point::new(f.rib_x[r], rib_y[r]),
+        Joint::Deck(i) => Point::new(f.panel_x[i], f.deck_level),
     }
 }
 
