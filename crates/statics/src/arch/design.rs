@@ -740,24 +740,6 @@ mod tests {
     }
 
     #[test]
-    fn rib_below_the_ground_is_reported() {
-        // a rock on the valley floor under the crown, above the rib axis
-        let mut d = Design::demo();
-        d.valley.retain(|p| !(p.x > 55.0 && p.x < 105.0));
-        let at = d.valley.iter().position(|p| p.x > 100.0).expect("right wall");
-        d.valley.splice(
-            at..at,
-            [
-                GroundPoint { x: 60.0, y: 57.0 },
-                GroundPoint { x: 80.0, y: 99.0 },
-                GroundPoint { x: 100.0, y: 57.0 },
-            ],
-        );
-        let p = problems(&d);
-        assert!(p.iter().any(|q| q.message.contains("below the ground")), "{p:?}");
-    }
-
-    #[test]
     fn flat_arch_gives_a_warning_not_an_error() {
         // rise / span 8 / 106.4 < 1/10: common practice says unusual, not wrong
         let mut d = Design::demo();

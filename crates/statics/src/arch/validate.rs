@@ -290,7 +290,8 @@ mod tests {
     }
 
     #[test]
-    fn rib_problems_involve_the_fields_that_move_the_rib() {
+    fn rib_below_the_ground_is_reported_with_the_fields_that_move_the_rib() {
+        // a rock on the valley floor under the crown, above the rib axis
         let mut d = Design::demo();
         d.valley.retain(|p| !(p.x > 55.0 && p.x < 105.0));
         let at = d.valley.iter().position(|p| p.x > 100.0).expect("right wall");
