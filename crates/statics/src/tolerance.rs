@@ -26,6 +26,14 @@ pub const ROUNDING_MARGIN: f64 = 1e3;
 /// direction cosines and unit entries, so rank gaps are sharp.
 pub const RANK_TOLERANCE: f64 = 1e-9;
 
+/// The fast determinacy path trusts a factorisation of A A^T only when its rounding
+/// bound is below 1 / NONSINGULAR_MARGIN of the smallest eigenvalue's lower bound (ratio
+/// 1 already proves non-singularity to first order in eps; the margin covers the
+/// neglected higher orders and the rounding of the bound itself). Stable frameworks sit
+/// near 1e-12, true mechanisms at 1 or more: the argument is in
+/// `frame::determinacy::without_mechanism`.
+pub const NONSINGULAR_MARGIN: f64 = 1e2;
+
 // frame layer: solver
 /// Reactions of a case without net load count as vanished below this fraction of
 /// E A times the largest imposed strain (they are then rounding noise).
