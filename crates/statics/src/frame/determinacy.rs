@@ -382,9 +382,11 @@ mod tests {
             m.add_member(truss("", "", a, b, 2e8, 0.01));
         }
         m.supports = vec![Support::pinned(0), Support::roller_along_x(6)];
-        // the factorisation alone still passes: what changed is the fast path's doubt
+        // the premise: the solver's pivot test passes this matrix (its softest pivot,
+        // 2.8e-8 of its diagonal, is above PIVOT_TOLERANCE); the fast path's rounding
+        // bound is what refuses it
         let normal = normal_matrix(&m).expect("in band");
-        let factor = LdlFactor::new(&normal).expect("every pivot passes the solver's test");
+        let factor = LdlFactor::new(&normal).expect("premise: every pivot passes the solver's pivot test");
         let doubt = factor.rounding_over_smallest_eigenvalue();
         assert!(doubt >= 1.0, "a singular matrix cannot be certified regular: ratio {doubt:e}");
         assert!(!without_mechanism(&m));
