@@ -206,7 +206,8 @@ proptest! {
     }
 
     /// An independent solution: the frame with its loaded members split at mid-point
-    /// (`split_loaded_members`) and a wind load along the first column, solved again.
+    /// (`split_loaded_members`), with a wind load along the first column and a point load
+    /// on the last beam's second half added, solved again.
     /// Displacements at the original nodes, end actions at the original member ends and
     /// reactions must agree. Equilibrium alone cannot see a wrong fixed-end action that
     /// keeps the member in equilibrium (both end moments of a uniform load with their
@@ -220,6 +221,15 @@ proptest! {
             w: wind,
             direction: LoadDirection::GlobalX,
             projected: true,
+        });
+        // and a point load beyond the mid-point of the last member (the top right beam)
+        let last = model.members.len() - 1;
+        let beyond_mid = 0.75 * model.member_length(last);
+        model.load_cases[0].member.push(MemberLoad::Point {
+            member: last,
+            p: -wind * 3.0,
+            a: beyond_mid,
+            direction: LoadDirection::LocalY,
         });
         let (split, second_half) = split_loaded_members(&model);
         let whole = solve(&model).expect("stable frame");
