@@ -191,33 +191,44 @@ impl LdlFactor {
         let n = self.l.n;
         let bw = self.l.bandwidth;
         let w = bw + 1;
-        // slot j % w holds row j's inner products with the rows of the window
+        // gram[p * w + q]: inner product of the rows held in slots p and q; row k is held
+        // in slot k % w while it is in the window
         let mut gram = vec![0.0; w * w];
-        let mut with_window = vec![0.0; w];
+        // per row j, for the window rows k = lo + t: L_jk, their slot, x_j . x_k
+        let mut multipliers = vec![0.0; bw];
+        let mut slots = vec![0usize; bw];
+        let mut with_window = vec![0.0; bw];
         let mut trace = 0.0;
         for j in 0..n {
             let lo = j.saturating_sub(bw);
+            let count = j - lo;
+            for (t, k) in (lo..j).enumerate() {
+                multipliers[t] = self.l.data[self.l.idx(j, k)];
+                slots[t] = k % w;
+            }
             // x_j . x_m = -sum_k L_jk (x_k . x_m) for m < j (x_m has no entry j)
-            for m in lo..j {
+            for tm in 0..count {
+                let row = &gram[slots[tm] * w..(slots[tm] + 1) * w];
                 let mut s = 0.0;
-                for k in lo..j {
-                    s -= self.l.data[self.l.idx(j, k)] * gram[(k % w) * w + m % w];
+                for tk in 0..count {
+                    s -= multipliers[tk] * row[slots[tk]];
                 }
-                with_window[m % w] = s;
+                with_window[tm] = s;
             }
             // x_j . x_j = 1 - sum_k L_jk (x_j . x_k)
             let mut own = 1.0;
-            for k in lo..j {
-                own -= self.l.data[self.l.idx(j, k)] * with_window[k % w];
+            for t in 0..count {
+                own -= multipliers[t] * with_window[t];
             }
             // at least 1 in exact arithmetic (e_j is orthogonal to the window's rows); less
             // is cancellation among long rows, which carry the trace themselves
             let own = own.max(1.0);
-            for m in lo..j {
-                gram[(j % w) * w + m % w] = with_window[m % w];
-                gram[(m % w) * w + j % w] = with_window[m % w];
+            let slot = j % w;
+            for t in 0..count {
+                gram[slot * w + slots[t]] = with_window[t];
+                gram[slots[t] * w + slot] = with_window[t];
             }
-            gram[(j % w) * w + j % w] = own;
+            gram[slot * w + slot] = own;
             trace += own / self.d[j];
         }
         trace
