@@ -329,7 +329,9 @@ mod tests {
     /// shears) and 4 redundant bars or reactions (28 bars + 3 reactions - 27). The fast
     /// path factorised A A^T with every pivot passing its test (the mechanism's pivot
     /// at 2.8e-8 of its diagonal, after an earlier one at 1.4e-5) and reported rank 28,
-    /// "indeterminate by 3"; the SVD finds rank 27 (smallest singular value 1.5e-16).
+    /// "indeterminate by 3"; the SVD finds rank 27 (here nalgebra's smallest singular
+    /// value is 0 and the next 0.14 of 2.4 the largest; an independent rank computation
+    /// in the issue gave 1.5e-16 for the smallest).
     #[test]
     fn unbraced_panel_after_a_soft_pivot_is_a_mechanism() {
         const NODES: [(f64, f64); 14] = [
