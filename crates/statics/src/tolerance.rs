@@ -10,6 +10,8 @@
 /// which stays near 1e-16 of the diagonal but, after a nearly parallel pair of bars, was
 /// seen at 1e-11. 1e-9 separates the two with margin both ways; a structure that stiff
 /// in one mode and that soft in another is a mechanism for any practical purpose.
+/// Pinned from both sides by `tests/pivot_tolerance.rs`: a pivot ratio of 1e-11 is
+/// refused, 4e-6 and 1e-7 solve.
 pub const PIVOT_TOLERANCE: f64 = 1e-9;
 
 /// A pivot within this many times its own rounding estimate, eps * (K_jj + sum of
@@ -25,6 +27,14 @@ pub const ROUNDING_MARGIN: f64 = 1e3;
 /// Singular values below this fraction of the largest count as zero. The matrix holds
 /// direction cosines and unit entries, so rank gaps are sharp.
 pub const RANK_TOLERANCE: f64 = 1e-9;
+
+/// The fast determinacy path trusts a factorisation of A A^T only when its rounding
+/// bound is below 1 / NONSINGULAR_MARGIN of the smallest eigenvalue's lower bound (ratio
+/// 1 already proves non-singularity to first order in eps; the margin covers the
+/// neglected higher orders and the rounding of the bound itself). Stable frameworks sit
+/// near 1e-12, true mechanisms at 1 or more: the argument is in
+/// `frame::determinacy::without_mechanism`.
+pub const NONSINGULAR_MARGIN: f64 = 1e2;
 
 // frame layer: solver
 /// Reactions of a case without net load count as vanished below this fraction of

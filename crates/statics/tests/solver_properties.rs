@@ -127,6 +127,61 @@ fn random_truss() -> impl Strategy<Value = (Model, usize)> {
         })
 }
 
+/// The same frame with every member that carries a member load split at its mid-point
+/// into two members of the same section: a uniform load goes on both halves, a point
+/// load on the half that holds it (at the same place). Both models describe one
+/// structure under one loading, so they must agree at the original nodes and ends
+/// (common practice: the element is exact for these loads, so only rounding differs).
+///
+/// Returns the split model and, per original member, the index of its second half
+/// (`None` when it was not split; the first half keeps the original index, the
+/// original nodes keep theirs).
+fn split_loaded_members(model: &Model) -> (Model, Vec<Option<usize>>) {
+    let mut split = model.clone();
+    let mut second_half = vec![None; model.members.len()];
+    for (k, member) in model.members.iter().enumerate() {
+        let loaded = model.load_cases.iter().any(|lc| lc.member.iter().any(|l| l.member() == k));
+        if !loaded {
+            continue;
+        }
+        let (a, b) = (&model.nodes[member.start], &model.nodes[member.end]);
+        let mid = split.add_node("", (a.x + b.x) / 2.0, (a.y + b.y) / 2.0);
+        let mut first = member.clone();
+        first.end = mid;
+        first.release_end = false;
+        let mut second = member.clone();
+        second.start = mid;
+        second.release_start = false;
+        split.members[k] = first;
+        second_half[k] = Some(split.add_member(second));
+    }
+    for lc in &mut split.load_cases {
+        let mut moved = Vec::new();
+        for load in &mut lc.member {
+            let k = load.member();
+            let Some(second) = second_half[k] else { continue };
+            let half = model.member_length(k) / 2.0;
+            match load {
+                MemberLoad::Uniform { .. } => {
+                    let mut copy = *load;
+                    if let MemberLoad::Uniform { member, .. } = &mut copy {
+                        *member = second;
+                    }
+                    moved.push(copy);
+                }
+                MemberLoad::Point { member, a, .. } => {
+                    if *a > half {
+                        *member = second;
+                        *a -= half;
+                    }
+                }
+            }
+        }
+        lc.member.extend(moved);
+    }
+    (split, second_half)
+}
+
 proptest! {
     #![proptest_config(ProptestConfig::with_cases(64))]
 
@@ -148,6 +203,62 @@ proptest! {
         prop_assert_eq!(hand, redundant as i64);
         let expected = if redundant == 0 { Determinacy::Determinate } else { Determinacy::Indeterminate { degree: redundant } };
         prop_assert_eq!(report.determinacy, expected);
+    }
+
+    /// An independent solution: the frame with its loaded members split at mid-point
+    /// (`split_loaded_members`), with a wind load along the first column and a point load
+    /// on the last beam's second half added, solved again.
+    /// Displacements at the original nodes, end actions at the original member ends and
+    /// reactions must agree. Equilibrium alone cannot see a wrong fixed-end action that
+    /// keeps the member in equilibrium (both end moments of a uniform load with their
+    /// signs flipped): split, the wrong end moments are a quarter as large and cancel at
+    /// the new node, so the two solutions part.
+    #[test]
+    fn frames_split_at_loaded_mid_points_give_the_same_solution(model in random_frame(), wind in 1.0f64..20.0) {
+        let mut model = model;
+        model.load_cases[0].member.push(MemberLoad::Uniform {
+            member: 0,
+            w: wind,
+            direction: LoadDirection::GlobalX,
+            projected: true,
+        });
+        // and a point load beyond the mid-point of the last member (the top right beam)
+        let last = model.members.len() - 1;
+        let beyond_mid = 0.75 * model.member_length(last);
+        model.load_cases[0].member.push(MemberLoad::Point {
+            member: last,
+            p: -wind * 3.0,
+            a: beyond_mid,
+            direction: LoadDirection::LocalY,
+        });
+        let (split, second_half) = split_loaded_members(&model);
+        let whole = solve(&model).expect("stable frame");
+        let halves = solve(&split).expect("stable frame");
+        let (a, b) = (&whole.cases[0], &halves.cases[0]);
+        // scales: the equilibrium check's reference force, moments over the model's length
+        let force = a.equilibrium.reference;
+        let moment = force * a.equilibrium.characteristic_length;
+        let translation = a.displacements.iter().map(|d| d.ux.abs().max(d.uy.abs())).fold(0.0, f64::max);
+        let rotation = a.displacements.iter().filter_map(|d| d.rz).map(f64::abs).fold(0.0, f64::max);
+        for (da, db) in a.displacements.iter().zip(&b.displacements) {
+            prop_assert!((da.ux - db.ux).abs() <= 1e-9 * translation, "node {}: ux {:e} / {:e}", da.node, da.ux, db.ux);
+            prop_assert!((da.uy - db.uy).abs() <= 1e-9 * translation, "node {}: uy {:e} / {:e}", da.node, da.uy, db.uy);
+            let (ra, rb) = (da.rz.unwrap_or(0.0), db.rz.unwrap_or(0.0));
+            prop_assert!((ra - rb).abs() <= 1e-9 * rotation, "node {}: rz {:e} / {:e}", da.node, ra, rb);
+        }
+        for (k, ma) in a.members.iter().enumerate() {
+            let start = &b.members[k].end_actions_global;
+            let end = &b.members[second_half[k].unwrap_or(k)].end_actions_global;
+            let joined = [start[0], start[1], start[2], end[3], end[4], end[5]];
+            for (i, (fa, fb)) in ma.end_actions_global.iter().zip(&joined).enumerate() {
+                let scale = if i % 3 == 2 { moment } else { force };
+                prop_assert!((fa - fb).abs() <= 1e-9 * scale, "member {k} end action {i}: {fa:e} / {fb:e}");
+            }
+        }
+        for (ra, rb) in a.reactions.iter().zip(&b.reactions) {
+            prop_assert!((ra.fx - rb.fx).abs() <= 1e-9 * force && (ra.fy - rb.fy).abs() <= 1e-9 * force);
+            prop_assert!((ra.mz - rb.mz).abs() <= 1e-9 * moment, "{ra:?} / {rb:?}");
+        }
     }
 
     #[test]

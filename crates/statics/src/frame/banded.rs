@@ -127,6 +127,113 @@ impl LdlFactor {
         Ok(LdlFactor { l, d })
     }
 
+    /// An upper bound of the rounding of this factorisation over the smallest eigenvalue
+    /// of the matrix it factorised: below 1 the factorised matrix is certainly not
+    /// singular, well below 1 it is certainly not near singular. Dimensionless.
+    ///
+    /// The argument. The computed factors are the exact factors of A + dA with
+    /// |dA| <= gamma |L| |D| |L^T| entry by entry, gamma = (b + 1) eps / (1 - (b + 1) eps)
+    /// for half bandwidth b, since every inner product has at most b + 1 terms (the
+    /// backward error of Gaussian elimination with U = D L^T: Higham, Accuracy and
+    /// Stability of Numerical Algorithms, 2nd ed., Thm. 9.3, from memory). So
+    /// ||dA||_2 <= gamma || |L| |D| |L^T| ||_inf (a symmetric matrix: the 2-norm is at
+    /// most the largest row sum), computed here in O(n b).
+    ///
+    /// The smallest eigenvalue of L D L^T from the factors: its inverse is
+    /// sum_j x_j x_j^T / d_j with x_j = L^-T e_j (row j of L^-1), so
+    /// 1 / lambda_min <= trace = sum_j |x_j|^2 / d_j. The rows obey
+    /// x_j = e_j - sum_k L_jk x_k over the band, so their inner products with the b rows
+    /// before them follow from those rows' own (a window of b + 1 rows), O(n b^2) in all:
+    /// the cost of the factorisation itself. |x_j|^2 is the pivot growth: each earlier
+    /// pivot d_k much smaller than its diagonal makes the rows after it long, and every
+    /// rounding error of the factors reaches pivot j through x_j (d_j moves by
+    /// x_j^T dA x_j). A per-pivot estimate such as eps * (K_jj + sum L_jk^2 K_kk) misses
+    /// that carried growth.
+    ///
+    /// Returned: gamma * || |L| |D| |L^T| ||_inf * trace (`backward_error_norm`,
+    /// `inverse_trace`). When it is r < 1, A itself has
+    /// lambda_min(A) >= lambda_min(L D L^T) - ||dA|| >= (1/r - 1) ||dA|| > 0 (first order
+    /// in eps). Infinite when the bound cannot be formed (a non-finite entry).
+    pub(crate) fn rounding_over_smallest_eigenvalue(&self) -> f64 {
+        let unit = (self.l.bandwidth + 1) as f64 * f64::EPSILON;
+        let gamma = unit / (1.0 - unit);
+        let ratio = gamma * self.backward_error_norm() * self.inverse_trace();
+        if ratio.is_finite() {
+            ratio
+        } else {
+            f64::INFINITY
+        }
+    }
+
+    /// || |L| |D| |L^T| ||_inf, the largest row sum: row i is sum_k |L_ik| d_k c_k with
+    /// c_k the sum of column k of |L|. O(n b).
+    fn backward_error_norm(&self) -> f64 {
+        let n = self.l.n;
+        let bw = self.l.bandwidth;
+        let column_weight: Vec<f64> = (0..n)
+            .map(|k| {
+                let hi = (k + bw).min(n - 1);
+                self.d[k] * (k..=hi).map(|m| self.l.data[self.l.idx(m, k)].abs()).sum::<f64>()
+            })
+            .collect();
+        (0..n)
+            .map(|i| {
+                (i.saturating_sub(bw)..=i)
+                    .map(|k| self.l.data[self.l.idx(i, k)].abs() * column_weight[k])
+                    .sum()
+            })
+            .fold(0.0, f64::max)
+    }
+
+    /// trace((L D L^T)^-1) = sum_j |x_j|^2 / d_j, x_j row j of L^-1, from a window of the
+    /// inner products of the last b + 1 rows: x_j = e_j - sum_k L_jk x_k. O(n b^2).
+    fn inverse_trace(&self) -> f64 {
+        let n = self.l.n;
+        let bw = self.l.bandwidth;
+        let w = bw + 1;
+        // gram[p * w + q]: inner product of the rows held in slots p and q; row k is held
+        // in slot k % w while it is in the window
+        let mut gram = vec![0.0; w * w];
+        // per row j, for the window rows k = lo + t: L_jk, their slot, x_j . x_k
+        let mut multipliers = vec![0.0; bw];
+        let mut slots = vec![0usize; bw];
+        let mut with_window = vec![0.0; bw];
+        let mut trace = 0.0;
+        for j in 0..n {
+            let lo = j.saturating_sub(bw);
+            let count = j - lo;
+            for (t, k) in (lo..j).enumerate() {
+                multipliers[t] = self.l.data[self.l.idx(j, k)];
+                slots[t] = k % w;
+            }
+            // x_j . x_m = -sum_k L_jk (x_k . x_m) for m < j (x_m has no entry j)
+            for tm in 0..count {
+                let row = &gram[slots[tm] * w..(slots[tm] + 1) * w];
+                let mut s = 0.0;
+                for tk in 0..count {
+                    s -= multipliers[tk] * row[slots[tk]];
+                }
+                with_window[tm] = s;
+            }
+            // x_j . x_j = 1 - sum_k L_jk (x_j . x_k)
+            let mut own = 1.0;
+            for t in 0..count {
+                own -= multipliers[t] * with_window[t];
+            }
+            // at least 1 in exact arithmetic (e_j is orthogonal to the window's rows); less
+            // is cancellation among long rows, which carry the trace themselves
+            let own = own.max(1.0);
+            let slot = j % w;
+            for t in 0..count {
+                gram[slot * w + slots[t]] = with_window[t];
+                gram[slots[t] * w + slot] = with_window[t];
+            }
+            gram[slot * w + slot] = own;
+            trace += own / self.d[j];
+        }
+        trace
+    }
+
     /// Solves A x = b in place: on entry `b` holds the right-hand side, on return x.
     ///
     /// Errors (`OutOfRange`, `b` unchanged) when `b` does not have one entry per equation.
@@ -215,6 +322,59 @@ mod tests {
         // the second pivot collapses: v = [1, 1]
         assert_eq!(e.null_vector.len(), 2);
         assert!((e.null_vector[0] - 1.0).abs() < 1e-14 && e.null_vector[1] == 1.0);
+    }
+
+    /// The 3 x 3 second-difference matrix [2 -1 0; -1 2 -1; 0 -1 2]: its inverse is
+    /// [3 2 1; 2 4 2; 1 2 3] / 4 (worked by hand), trace 2.5; its factors have
+    /// L = [1; -1/2 1; 0 -2/3 1], D = (2, 3/2, 4/3), so |L| |D| |L^T| = |A| (worked by
+    /// hand), largest row sum 4; half bandwidth 1, so gamma = 2 eps / (1 - 2 eps).
+    #[test]
+    fn rounding_bound_of_the_second_difference_matrix_is_worked_by_hand() {
+        let mut a = BandMatrix::zeros(3, 1);
+        for i in 0..3 {
+            a.add(i, i, 2.0).expect("in band");
+        }
+        a.add(1, 0, -1.0).expect("in band");
+        a.add(2, 1, -1.0).expect("in band");
+        let f = LdlFactor::new(&a).expect("positive definite");
+        assert!((f.inverse_trace() - 2.5).abs() < 1e-14, "{}", f.inverse_trace());
+        assert!((f.backward_error_norm() - 4.0).abs() < 1e-14, "{}", f.backward_error_norm());
+        let gamma = 2.0 * f64::EPSILON / (1.0 - 2.0 * f64::EPSILON);
+        let ratio = f.rounding_over_smallest_eigenvalue();
+        assert!((ratio / (10.0 * gamma) - 1.0).abs() < 1e-12, "{ratio:e}");
+    }
+
+    /// The trace of the inverse from the window of row products against a dense inverse
+    /// (nalgebra's LU, independent code) of B^T B + 1e-6 I, B with entries on four
+    /// diagonals (half bandwidth 3 for the product) and one small diagonal entry: a pivot
+    /// below 1e-3 of its diagonal, so the rows of L^-1 after it are long.
+    #[test]
+    fn inverse_trace_matches_a_dense_inverse() {
+        let (n, bw) = (14, 3);
+        let b = nalgebra::DMatrix::<f64>::from_fn(n, n, |r, c| match c as i64 - r as i64 {
+            -1 => 1.0,
+            0 if r == 6 => 1e-3,
+            0 => 1.0 + 0.01 * (r % 3) as f64,
+            1 => 0.5,
+            2 => -0.25,
+            _ => 0.0,
+        });
+        let dense = b.transpose() * &b + nalgebra::DMatrix::<f64>::identity(n, n) * 1e-6;
+        let mut a = BandMatrix::zeros(n, bw);
+        for i in 0..n {
+            for j in 0..=i {
+                if i - j <= bw {
+                    a.add(i, j, dense[(i, j)]).expect("in band");
+                } else {
+                    assert_eq!(dense[(i, j)], 0.0, "({i}, {j}) outside the band");
+                }
+            }
+        }
+        let f = LdlFactor::new(&a).expect("positive definite");
+        let smallest_pivot_ratio = (0..n).map(|j| f.d[j] / dense[(j, j)]).fold(f64::INFINITY, f64::min);
+        let trace = dense.clone().try_inverse().expect("regular").trace();
+        assert!(smallest_pivot_ratio < 1e-3, "{smallest_pivot_ratio:e}");
+        assert!((f.inverse_trace() / trace - 1.0).abs() < 1e-8, "{} against {trace}", f.inverse_trace());
     }
 
     /// Regression: `add` outside the band was only checked by a `debug_assert`; in a
