@@ -7,6 +7,8 @@
 //! each canvas publishes in its data attributes.
 
 use serde_json::json;
+use springline_statics::arch::design::{Bracing, RibSystem};
+use springline_statics::arch::generate::DEAD;
 use springline_statics::error::{Field, Location};
 use springline_statics::graphic::reciprocal::{force_diagram, SegmentOf};
 use springline_statics::{analyze, Design, Problem};
@@ -219,6 +221,31 @@ fn the_page_requests_nothing_from_other_origins() {
     assert!(!server.requests().is_empty());
 }
 
+/// The SI value a results cell carries (`data-value`), NaN when there is none.
+fn data_value(s: &Session, id: &str) -> f64 {
+    s.exec(
+        "const e = document.getElementById(arguments[0]); return e ? +e.dataset.value : null;",
+        vec![json!(id)],
+    )
+    .as_f64()
+    .unwrap_or(f64::NAN)
+}
+
+/// Checks results cell `id` against the engine's value: its `data-value` to 1e-9 of it
+/// (the wasm build runs the same engine; only the last digits of library functions may
+/// differ), and the number on screen to the four significant figures it is shown with.
+fn assert_result(s: &Session, id: &str, expected: f64) {
+    let raw = data_value(s, id);
+    assert!((raw - expected).abs() <= 1e-9 * expected.abs(), "{id}: data-value {raw} vs engine {expected}");
+    let shown = shown_number(&text_of(s, id));
+    let half_unit = 0.5 * 10f64.powi(expected.abs().log10().floor() as i32 - 3);
+    assert!((shown - expected).abs() <= half_unit, "{id}: shown {shown} vs engine {expected}");
+}
+
+/// The second design of the README (two-hinged rib, crossed bracing, springings at 76 m
+/// and 86 m, 10 panels), entered field by field: once the page has followed every edit,
+/// the thrusts in the results table (form thrust, each springing's thrust, the range over
+/// the cases) and the truss's determinacy are those `analyze()` gives for the same design.
 #[test]
 fn second_design_unequal_springings_braced_renders_and_is_captured() {
     let server = StaticServer::start(&dist());
@@ -242,11 +269,36 @@ fn second_design_unequal_springings_braced_renders_and_is_captured() {
         "const e = document.getElementById('rib-system'); e.value = 'two'; e.dispatchEvent(new Event('change', { bubbles: true }));",
         vec![],
     );
+    let mut d = Design::demo();
+    d.springing_right_level = 86.0;
+    d.panels = 10;
+    d.bracing = Bracing::Crossed;
+    d.rib_system = RibSystem::TwoHinged;
+    let a = analyze(&d).expect("the second design analyses");
+    let determinacy = a.truss.as_ref().expect("braced").determinacy.describe();
+    assert!(determinacy.contains("indeterminate"), "crossed pairs: {determinacy}");
+    // wait for the last edit (the rib system changes the springing thrusts, not the form)
+    let left = a.summary.springings_of(DEAD).expect("dead-load springings").left.thrust;
     s.wait_for(
-        "the crossed-bracing figure",
-        "return document.getElementById('result-determinacy').textContent.includes('indeterminate')",
+        "the second design's results",
+        &format!(
+            "return document.getElementById('result-determinacy').textContent === {} &&
+                    Math.abs(+document.getElementById('result-left-h').dataset.value - {left}) <= 1e-9 * {};",
+            json!(determinacy),
+            left.abs()
+        ),
         WAIT,
     );
+    let dead = a.summary.springings_of(DEAD).expect("dead-load springings");
+    for (id, expected) in [
+        ("result-thrust", a.summary.form_thrust),
+        ("result-left-h", dead.left.thrust),
+        ("result-right-h", dead.right.thrust),
+        ("result-thrust-min", a.summary.thrust_range[0]),
+        ("result-thrust-max", a.summary.thrust_range[1]),
+    ] {
+        assert_result(&s, id, expected);
+    }
     assert!(severe(&s).is_empty());
     std::fs::write(screenshots_dir().join("second-design.png"), s.screenshot()).expect("screenshot");
 }

@@ -13,6 +13,7 @@ use proptest::prelude::*;
 use springline_statics::arch::cases::{doubled_panel, half_span, standard_cases, CaseSpec, Half};
 use springline_statics::arch::design::{Bracing, Crown, Design, RibSystem};
 use springline_statics::graphic::funicular::FunicularMethod;
+use springline_statics::tolerance::ZERO_FORCE;
 use springline_statics::{
     add_cases, analyze, bare_rib_model, force_diagram, frame, rib_funicular, solve, truss_determinacy,
     truss_model, AxialSense, CaseResult, Determinacy, ForceDiagram, Generated, LoadCase, MemberRole, Model,
@@ -131,7 +132,55 @@ fn check_figure(model: &Model, case: &CaseResult, fd: &ForceDiagram) -> f64 {
         assert_eq!(seg.right, fd.load_line[(i + 1) % ext.len()]);
     }
     assert!(fd.closure_error <= FIGURE_TOL * largest);
+    assert_bow_order_about_every_joint(model, fd);
     worst
+}
+
+/// Bow's notation read about every joint, from the geometry alone: going clockwise about
+/// a joint, each member and external force lies between the space met before it and the
+/// space met after it, so the second space of one is the first space of the next (Allen &
+/// Zalewski, Form and Forces, ch. 3-4). The clockwise order is found here from the
+/// directions of the members and of the external forces' half-lines (`ray`), not from the
+/// walk that labelled the spaces. Forces at a joint taken in the wrong order still give a
+/// closed figure whose segments equal their forces; only this check sees it.
+fn assert_bow_order_about_every_joint(model: &Model, fd: &ForceDiagram) {
+    for node in 0..model.nodes.len() {
+        let at = &model.nodes[node];
+        let dir = |x: f64, y: f64| (y - at.y).atan2(x - at.x);
+        // (direction from the joint, space before, space after, what) clockwise about it
+        let mut around: Vec<(f64, usize, usize, String)> = Vec::new();
+        for (k, mem) in model.members.iter().enumerate() {
+            let pieces: Vec<_> = fd.member_segments(k).collect();
+            let (Some(first), Some(last)) = (pieces.first(), pieces.last()) else { continue };
+            if mem.start == node {
+                // the piece leaving the start: its left space comes first clockwise
+                let far = &model.nodes[mem.end];
+                around.push((dir(far.x, far.y), first.left, first.right, format!("member {k}")));
+            }
+            if mem.end == node {
+                // about the end joint the member runs the other way: its right space first
+                let far = &model.nodes[mem.start];
+                around.push((dir(far.x, far.y), last.right, last.left, format!("member {k}")));
+            }
+        }
+        for seg in fd.external_segments() {
+            let (SegmentOf::Load { node: n } | SegmentOf::Reaction { node: n }) = seg.of else { continue };
+            if n == node {
+                let ray = seg.ray.expect("external forces are drawn along a half-line");
+                around.push((ray.y.atan2(ray.x), seg.left, seg.right, format!("{:?}", seg.of)));
+            }
+        }
+        // clockwise: decreasing direction angle
+        around.sort_by(|p, q| q.0.total_cmp(&p.0));
+        for (i, this) in around.iter().enumerate() {
+            let next = &around[(i + 1) % around.len()];
+            assert_eq!(
+                this.2, next.1,
+                "joint {node}: clockwise, {} ends in space {} but the next, {}, starts in space {}",
+                this.3, fd.spaces[this.2].label, next.3, fd.spaces[next.1].label
+            );
+        }
+    }
 }
 
 #[test]
@@ -164,6 +213,43 @@ fn figure_equals_solver_forces_on_determinate_three_hinged_trusses() {
         assert!(map.members_with(MemberRole::Bracing).any(|k| !half.zero_force_members.contains(&k)));
     }
     println!("largest figure error over largest force: {worst:.2e}");
+}
+
+/// Two external forces at one joint of a deck-arch truss: a load at the left springing
+/// (an invented erection load of (20, -50) kN, outward and down) beside the springing's
+/// reaction, in every case of the determinate and of a crossed layout. No generated model
+/// has a load at a support, so without this a figure that met the forces at a joint in
+/// the wrong clockwise order went unnoticed (its segments still equal their forces).
+/// Checked against the solver (segments = forces) and Bow's reading about every joint.
+#[test]
+fn load_at_a_springing_beside_its_reaction_is_read_clockwise() {
+    for (n, system, bracing) in [
+        (8, RibSystem::ThreeHinged, Bracing::Single { flipped: false }),
+        (9, RibSystem::ThreeHinged, Bracing::Single { flipped: true }),
+        (8, RibSystem::TwoHinged, Bracing::Crossed),
+    ] {
+        let d = design(n, system, bracing, (76.0, 80.0));
+        let Generated { mut model, map, .. } = truss_with_cases(&d);
+        let [left, _] = map.springings;
+        for lc in &mut model.load_cases {
+            lc.nodal.push(NodalLoad { node: left, fx: -20.0, fy: -50.0, mz: 0.0 });
+        }
+        let sol = solve(&model).expect("solves");
+        for case in &sol.cases {
+            let fd = force_diagram(&model, case).expect("figure");
+            // both forces at the springing are in the figure, one after the other
+            let at_left: Vec<usize> = fd
+                .external_segments()
+                .enumerate()
+                .filter(|(_, s)| {
+                    matches!(s.of, SegmentOf::Load { node } | SegmentOf::Reaction { node } if node == left)
+                })
+                .map(|(i, _)| i)
+                .collect();
+            assert_eq!(at_left.len(), 2, "{n} panels, {}: load and reaction at the springing", case.name);
+            check_figure(&model, case, &fd);
+        }
+    }
 }
 
 #[test]
@@ -431,8 +517,10 @@ fn analysis_reports_every_figure_per_load_case() {
 
 proptest! {
     #![proptest_config(ProptestConfig { cases: 24, .. ProptestConfig::default() })]
-    /// Random valid braced designs: every figure closes and every segment is parallel to
-    /// its member (cross product), scaled by the largest force.
+    /// Random valid braced designs whose truss idealisation solves: every case has a
+    /// figure, every member segment is parallel to its member (cross product) and every
+    /// external segment equals its load (from the model) or reaction (from the solver),
+    /// to `FIGURE_TOL` of the largest force.
     #[test]
     fn random_braced_designs_close_and_stay_parallel(
         panels in 4usize..26,
@@ -451,8 +539,13 @@ proptest! {
         d.bracing = [Bracing::Single { flipped: false }, Bracing::Single { flipped: true }, Bracing::Crossed][bracing];
         let Ok(a) = analyze(&d) else { return Ok(()) };
         let t = a.truss.as_ref().expect("braced");
+        let Some(sol) = t.solution.as_ref() else { return Ok(()) }; // a mechanism: no figure
         for c in &a.load_cases {
-            let Some(fd) = &c.force_diagram else { continue };
+            let fd = c.force_diagram.as_ref();
+            prop_assert!(fd.is_some(), "{}: no figure of a solved truss: {:?}", c.case, c.notes);
+            let Some(fd) = fd else { continue };
+            let case = sol.case(&c.case).expect("solved case");
+            let lc = t.model.load_cases.iter().find(|l| l.name == c.case).expect("load case");
             let tol = FIGURE_TOL * fd.largest_force;
             prop_assert!(fd.closure_error <= tol);
             for seg in &fd.segments {
@@ -465,9 +558,34 @@ proptest! {
                     prop_assert!((vx * uy - vy * ux).abs() <= tol, "member {member} not parallel");
                 }
             }
-            // the load line closes: external forces sum to zero
-            let (sx, sy) = fd.external_segments().fold((0.0, 0.0), |s, e| (s.0 + e.to.x - e.from.x, s.1 + e.to.y - e.from.y));
-            prop_assert!(sx.hypot(sy) <= tol);
+            // every external segment is its force: the loads of the case summed per node
+            // (from the model) or the solver's reaction; the sum of the segments around the
+            // closed load line would be zero whatever they were, so each is compared
+            let mut externals = 0;
+            for seg in fd.external_segments() {
+                externals += 1;
+                let (fx, fy) = match seg.of {
+                    SegmentOf::Load { node } => lc
+                        .nodal
+                        .iter()
+                        .filter(|l| l.node == node)
+                        .fold((0.0, 0.0), |a, l| (a.0 + l.fx, a.1 + l.fy)),
+                    SegmentOf::Reaction { node } => {
+                        let r = case.reaction(node).expect("reaction");
+                        (r.fx, r.fy)
+                    }
+                    SegmentOf::Member { .. } => unreachable!("external segments only"),
+                };
+                let (vx, vy) = (seg.to.x - seg.from.x, seg.to.y - seg.from.y);
+                prop_assert!((vx - fx).hypot(vy - fy) <= tol, "{:?}: ({vx}, {vy}) vs ({fx}, {fy})", seg.of);
+            }
+            // and none is left out: every loaded node and every reaction that is not
+            // vanishing has its segment
+            let mut loaded: Vec<usize> = lc.nodal.iter().filter(|l| l.fx != 0.0 || l.fy != 0.0).map(|l| l.node).collect();
+            loaded.sort_unstable();
+            loaded.dedup();
+            let reacting = case.reactions.iter().filter(|r| r.fx.hypot(r.fy) > ZERO_FORCE * fd.largest_force).count();
+            prop_assert_eq!(externals, loaded.len() + reacting);
         }
     }
 }

@@ -9,9 +9,10 @@
 
 use springline_statics::arch::cases::{doubled_panel, half_span, Half};
 use springline_statics::arch::design::{Bracing, Design, RibSystem};
+use springline_statics::error::Location;
 use springline_statics::{
     add_cases, frame, frame_model, rib_chain, solve, thrust_line, CaseResult, LoadCase, Model, NodalLoad,
-    Support, ThrustLine, ValidDesign,
+    Problem, StaticsError, Support, ThrustLine, ValidDesign,
 };
 
 /// The members of group "rib": the rib of the generated models and of the ribs built
@@ -194,21 +195,34 @@ fn three_hinged_parabolic_rib_half_span_quarter_point_moment_is_exact() {
     assert!((t.geometric_safety_factor.expect("bending") - 0.8 / (2.0 * worst.offset.abs())).abs() < 1e-12);
 }
 
+/// Each input the thrust line cannot draw is refused with its own error, matched exactly
+/// (variant, location and message), so a check that went missing or answered for another
+/// would fail here.
 #[test]
 fn thrust_line_rejects_what_it_cannot_draw() {
     let m = parabolic_rib(40.0, 8.0, 8, 2, 10.0);
     let sol = solve(&m).expect("stable");
     let chain = rib_chain(&m, &rib_members(&m)).expect("rib");
-    assert!(thrust_line(&m, &sol.cases[0], &chain, 0.0).is_err());
-    assert!(thrust_line(&m, &sol.cases[0], &chain, f64::NAN).is_err());
-    assert!(thrust_line(&m, &sol.cases[0], &[], 1.0).is_err());
-    assert!(thrust_line(&m, &sol.cases[0], &[(99, true)], 1.0).is_err());
-    // results of another model: an error, not a panic
+    let invalid = |message: &str| {
+        StaticsError::Invalid(vec![Problem::new(Location::Part("thrust line".into()), message)])
+    };
+    let case = &sol.cases[0];
+    assert_eq!(thrust_line(&m, case, &chain, 0.0), Err(invalid("rib depth 0 m must be positive")));
+    assert_eq!(thrust_line(&m, case, &chain, f64::NAN), Err(invalid("rib depth NaN m must be positive")));
+    let bad_chain = invalid("the rib chain is empty or names a member that does not exist");
+    assert_eq!(thrust_line(&m, case, &[], 1.0), Err(bad_chain.clone()));
+    assert_eq!(thrust_line(&m, case, &[(99, true)], 1.0), Err(bad_chain));
+    // results of another model (one member and one node fewer, itself valid): the
+    // mismatch check answers, not a panic and not a line drawn from foreign forces
     let mut other = m.clone();
     other.members.pop();
     other.nodes.pop();
     other.supports[1].node = other.nodes.len() - 1;
-    assert!(thrust_line(&other, &sol.cases[0], &chain[..chain.len() - 1], 1.0).is_err());
+    springline_statics::validate(&other).expect("the other model is valid");
+    assert_eq!(
+        thrust_line(&other, case, &chain[..chain.len() - 1], 1.0),
+        Err(invalid("the results of load case 'half-span' do not belong to this model"))
+    );
 }
 
 #[test]

@@ -164,11 +164,41 @@ mod tests {
         assert_eq!(round_for_display(1e-10), "1.000e−10");
     }
 
+    /// Every US customary factor against its defined value, typed here as a number (never
+    /// computed from the constants under test). The foot (0.3048 m) and the inch
+    /// (0.0254 m) are exact; the pound-force is exact from the international pound
+    /// (0.453 592 37 kg) and standard gravity (9.806 65 m/s2): 1 lbf = 4.448 221 615 260 5 N
+    /// (NIST SP 811, 2008 ed., Appendix B). The longer decimals below are these exact
+    /// values multiplied or divided out. A wrong constant (4.0 kN per kip, say) fails
+    /// the first row.
     #[test]
     fn us_customary_factors_match_definitions() {
-        // 1 kip = 4.448 kN and 1 ft = 0.3048 m (NIST SP 811, appendix B)
-        assert!((Units::UsCustomary.to_shown(Quantity::Force, KN_PER_KIP) - 1.0).abs() < 1e-12);
-        assert!((Units::UsCustomary.to_shown(Quantity::Length, 0.3048) - 1.0).abs() < 1e-12);
-        assert!((Units::UsCustomary.to_si(Quantity::Moment, 1.0) - KN_PER_KIP * 0.3048).abs() < 1e-12);
+        // (quantity, SI value of one US unit, its label): kip = 1000 lbf in kN; ft exact;
+        // kip-ft = kip x ft in kNm (exact); ksf = kip / ft2 and ksi = kip / in2 in kN/m2;
+        // in2 and in4 exact; pcf = lbf / ft3 in kN/m3. Relative tolerance 1e-14: the values
+        // are exact or carry 16 significant digits, a few ulps of f64.
+        let defined = [
+            (Quantity::Force, 4.448_221_615_260_5, "kip"),
+            (Quantity::Length, 0.3048, "ft"),
+            (Quantity::Moment, 1.355_817_948_331_400_4, "kip·ft"),
+            (Quantity::Pressure, 47.880_258_980_335_84, "ksf"),
+            (Quantity::Modulus, 6_894.757_293_168_361, "ksi"),
+            (Quantity::Area, 6.4516e-4, "in²"),
+            (Quantity::Inertia, 4.162_314_256e-7, "in⁴"),
+            (Quantity::UnitWeight, 0.157_087_463_846_246_2, "pcf"),
+        ];
+        for (q, si, label) in defined {
+            let shown = Units::UsCustomary.to_shown(q, si);
+            assert!((shown - 1.0).abs() < 1e-14, "{label}: one {label} is {si} SI but shows as {shown}");
+            let back = Units::UsCustomary.to_si(q, 1.0);
+            assert!((back - si).abs() < 1e-14 * si, "{label}: 1 {label} goes back to {back}, not {si}");
+            assert_eq!(Units::UsCustomary.label(q), label);
+        }
+        // the named constants themselves, against the definitions they stand for
+        assert!((KN_PER_KIP - 0.453_592_37 * 9.806_65).abs() < 1e-15 * KN_PER_KIP);
+        assert_eq!(M_PER_FT, 0.3048);
+        // SI shows as it is, E in GPa: 210e6 kN/m2 = 210 GPa
+        assert_eq!(Units::Si.to_shown(Quantity::Force, 123.4), 123.4);
+        assert!((Units::Si.to_shown(Quantity::Modulus, 210e6) - 210.0).abs() < 1e-12);
     }
 }

@@ -449,20 +449,60 @@ mod tests {
         assert!((r.reaction_a - r.reaction_b - 2.0 * r.thrust * 6.0 / 40.0).abs() < 1e-9);
     }
 
+    /// The error `invalid(location, message)` gives, to match a refusal exactly.
+    fn refused(location: &str, message: &str) -> Result<ThreePointFunicular, StaticsError> {
+        Err(invalid(location, message.into()))
+    }
+
+    /// Each degenerate input is refused by its own check, matched exactly (variant,
+    /// location and message): an input let through to another check, or to a NaN
+    /// answer, fails here.
     #[test]
     fn three_point_rejects_degenerate_input() {
         let (a, b) = (pt(0.0, 0.0), pt(10.0, 0.0));
-        assert!(three_point(a, b, 5.0, 2.0, &[]).is_err());
-        assert!(three_point(a, b, 5.0, 0.0, &[VerticalLoad { x: 5.0, p: 1.0 }]).is_err());
-        assert!(three_point(a, b, 5.0, 2.0, &[VerticalLoad { x: 11.0, p: 1.0 }]).is_err());
-        assert!(three_point(b, a, 5.0, 2.0, &[VerticalLoad { x: 5.0, p: 1.0 }]).is_err());
-        assert!(three_point(a, b, 5.0, f64::NAN, &[VerticalLoad { x: 5.0, p: 1.0 }]).is_err());
-        assert!(three_point(a, b, 5.0, 1.0, &[VerticalLoad { x: 5.0, p: -1.0 }]).is_err());
+        let one = [VerticalLoad { x: 5.0, p: 1.0 }];
+        let no_press = "; a compression funicular needs loads that press the crown down";
+        // no load: the crown moment is 0
+        assert_eq!(
+            three_point(a, b, 5.0, 2.0, &[]),
+            refused("loads", &format!("the loads give a crown moment of 0.000e0 kNm{no_press}"))
+        );
+        // an upward load of 1 kN at mid-span: crown moment -P L / 4 = -2.5 kNm
+        assert_eq!(
+            three_point(a, b, 5.0, 1.0, &[VerticalLoad { x: 5.0, p: -1.0 }]),
+            refused("loads", &format!("the loads give a crown moment of -2.500e0 kNm{no_press}"))
+        );
+        assert_eq!(three_point(a, b, 5.0, 0.0, &one), refused("crown", "rise 0 m must be a positive number"));
+        assert_eq!(
+            three_point(a, b, 5.0, f64::NAN, &one),
+            refused("crown", "rise NaN m must be a positive number")
+        );
+        assert_eq!(
+            three_point(a, b, 10.0, 2.0, &one),
+            refused("crown", "crown x = 10 m must lie strictly between the supports")
+        );
+        assert_eq!(
+            three_point(a, b, 5.0, 2.0, &[VerticalLoad { x: 11.0, p: 1.0 }]),
+            refused("loads", "load 1 at x = 11 m lies outside the span")
+        );
+        assert_eq!(
+            three_point(a, b, 5.0, 2.0, &[VerticalLoad { x: 5.0, p: f64::INFINITY }]),
+            refused("loads", "load 1 is not a finite number")
+        );
+        assert_eq!(
+            three_point(b, a, 5.0, 2.0, &one),
+            refused("supports", "support B (x = 0 m) must be to the right of A (x = 10 m)")
+        );
+        assert_eq!(
+            three_point(pt(f64::NAN, 0.0), b, 5.0, 2.0, &one),
+            refused("supports", "support coordinates must be finite numbers (m)")
+        );
     }
 
     #[test]
     fn rib_funicular_rejects_loads_it_cannot_draw() {
-        // a horizontal load, a missing node, a springing pair in the wrong order
+        // a horizontal load, a missing node, a springing pair in the wrong order: each
+        // refused by its own check, matched exactly
         use crate::frame::model::{frame, LoadCase, NodalLoad, Support};
         let mut m = Model::default();
         for (x, y) in [(0.0, 0.0), (5.0, 4.0), (10.0, 0.0)] {
@@ -483,11 +523,32 @@ mod tests {
         // crown load P on a three-hinged arch: H = P L / (4 f) (statics: moments about the
         // crown of the right half, V_B = P / 2)
         assert!((f.thrust - 10.0 * 10.0 / 16.0).abs() < 1e-12);
-        assert!(rib_funicular(&m, &s.cases[0], 2, 0, Some(1)).is_err());
-        assert!(rib_funicular(&m, &s.cases[0], 0, 9, Some(1)).is_err());
+        let refused = |location: &str, message: &str| Err(invalid(location, message.into()));
+        assert_eq!(
+            rib_funicular(&m, &s.cases[0], 2, 0, Some(1)),
+            refused("supports", "support B (x = 0 m) must be to the right of A (x = 10 m)")
+        );
+        assert_eq!(
+            rib_funicular(&m, &s.cases[0], 0, 9, Some(1)),
+            refused("funicular", "node 9 does not exist")
+        );
+        assert_eq!(
+            rib_funicular(&m, &s.cases[0], 0, 2, Some(7)),
+            refused("funicular", "node 7 does not exist")
+        );
+        // no crown given: the pole from the solved reactions of this (three-hinged) rib
+        // also holds, with the same thrust (statics alone)
+        let solved = rib_funicular(&m, &s.cases[0], 0, 2, None).expect("pole from reactions");
+        assert!((solved.thrust - 10.0 * 10.0 / 16.0).abs() < 1e-9);
         m.load_cases[0].nodal[0].fx = 1.0;
         let s = crate::frame::solver::solve(&m).expect("stable");
-        assert!(rib_funicular(&m, &s.cases[0], 0, 2, Some(1)).is_err());
+        assert_eq!(
+            rib_funicular(&m, &s.cases[0], 0, 2, Some(1)),
+            refused(
+                "load case",
+                "'p' has a horizontal load or a couple at node #1; the pole construction needs vertical loads"
+            )
+        );
     }
 
     #[test]

@@ -507,8 +507,77 @@ mod tests {
                 "member {k}"
             );
         }
+        // every external force: segment == the load (summed per node) or the reaction
+        let lc = &model.load_cases[0];
+        for seg in fd.external_segments() {
+            let expected = match seg.of {
+                SegmentOf::Load { node } => lc
+                    .nodal
+                    .iter()
+                    .filter(|l| l.node == node)
+                    .fold(Vector::default(), |f, l| f + Vector::new(l.fx, l.fy)),
+                SegmentOf::Reaction { node } => {
+                    let r = s.cases[0].reaction(node).expect("reaction");
+                    Vector::new(r.fx, r.fy)
+                }
+                SegmentOf::Member { .. } => unreachable!("external segments only"),
+            };
+            let v = fd.vector(seg);
+            assert!((v - expected).length() <= 1e-9 * largest, "{:?}: {v:?} vs {expected:?}", seg.of);
+        }
+        assert_bow_order_about_every_joint(model, &fd);
         assert!(fd.closure_error <= 1e-9 * largest);
         fd
+    }
+
+    /// Bow's notation read about every joint, from the geometry alone: going clockwise
+    /// about a joint, each member and external force lies between the space met before it
+    /// and the space met after it, so the second space of one is the first space of the
+    /// next (Allen & Zalewski, Form and Forces, ch. 3-4). The order is found here from the
+    /// directions of the members and of the external forces' half-lines (`ray`), not
+    /// from the walk that labelled the spaces; a figure whose forces at a joint were taken
+    /// in the wrong order still closes (every segment still equals its force), but fails
+    /// this check.
+    fn assert_bow_order_about_every_joint(model: &Model, fd: &ForceDiagram) {
+        for node in 0..model.nodes.len() {
+            let at = &model.nodes[node];
+            let dir = |x: f64, y: f64| (y - at.y).atan2(x - at.x);
+            // (direction from the joint, space before, space after) clockwise about it
+            let mut around: Vec<(f64, usize, usize, String)> = Vec::new();
+            for (k, mem) in model.members.iter().enumerate() {
+                let pieces: Vec<&Segment> = fd.member_segments(k).collect();
+                let (Some(first), Some(last)) = (pieces.first(), pieces.last()) else { continue };
+                if mem.start == node {
+                    // the piece leaving the start: its left space comes first clockwise
+                    let far = &model.nodes[mem.end];
+                    around.push((dir(far.x, far.y), first.left, first.right, format!("member {k}")));
+                }
+                if mem.end == node {
+                    // read about the end joint the member runs the other way: right first
+                    let far = &model.nodes[mem.start];
+                    around.push((dir(far.x, far.y), last.right, last.left, format!("member {k}")));
+                }
+            }
+            for seg in fd.external_segments() {
+                let (SegmentOf::Load { node: n } | SegmentOf::Reaction { node: n }) = seg.of else {
+                    continue;
+                };
+                if n == node {
+                    let ray = seg.ray.expect("external forces are drawn along a half-line");
+                    around.push((ray.y.atan2(ray.x), seg.left, seg.right, format!("{:?}", seg.of)));
+                }
+            }
+            // clockwise: decreasing direction angle
+            around.sort_by(|p, q| q.0.total_cmp(&p.0));
+            for (i, this) in around.iter().enumerate() {
+                let next = &around[(i + 1) % around.len()];
+                assert_eq!(
+                    this.2, next.1,
+                    "joint {node}: clockwise, {} ends in space {} but the next, {}, starts in space {}",
+                    this.3, fd.spaces[this.2].label, next.3, fd.spaces[next.1].label
+                );
+            }
+        }
     }
 
     /// A 3-4-5 triangle (L, T, R) on a pin and a roller with 60 kN down at the apex T.
@@ -578,6 +647,62 @@ mod tests {
             let externals = fd.segments.iter().filter(|s| !matches!(s.of, SegmentOf::Member { .. })).count();
             assert_eq!(fd.load_line.len(), externals);
             assert_eq!(fd.spaces[0].label, "A");
+        }
+    }
+
+    /// Two external forces at one joint (a load at the pinned support L beside its
+    /// reaction, and a load at the apex T). Before this test no model had two external
+    /// forces at a joint, so taking them in the wrong clockwise order went unnoticed:
+    /// every segment still equals its force and the figure still closes, only Bow's
+    /// reading about the joint is wrong.
+    ///
+    /// Check values by hand (statics of the whole truss and of each joint; any statics
+    /// text): the 3-4-5 triangle L (0, 0), T (4, 3), R (8, 0), pin at L, roller at R,
+    /// 60 kN down at T and (15, -30) kN at L. Moments about L: R_R = 60 x 4 / 8 = 30 kN
+    /// up (the load at L has no arm); the pin takes the rest: (-15, 60) kN. The load at L
+    /// goes straight into the pin, so the members carry what they carry under the apex
+    /// load alone: rafters -50 kN, tie +40 kN. Read clockwise about L from the tie (the
+    /// outside sector runs from the rafter at 36.9 degrees anticlockwise round to the tie
+    /// at 0): first the reaction, drawn on the side it comes from (below, at -76.0
+    /// degrees), then the load (above, at 116.6 degrees). Lettering starts left of the
+    /// top-left loaded joint L, so the reaction at L is A-B, the load at L B-C, the apex
+    /// load C-D and the roller's reaction D-A, and the points are A (0, 0),
+    /// B = A + (-15, 60), C = B + (15, -30) = (0, 30), D = C + (0, -60) = (0, -30).
+    #[test]
+    fn load_and_reaction_at_one_joint_are_read_clockwise() {
+        let mut m = apex_triangle();
+        m.load_cases[0].nodal.push(NodalLoad { node: 0, fx: 15.0, fy: -30.0, mz: 0.0 });
+        let fd = check(&m);
+        let seg = |of: SegmentOf| fd.segments.iter().find(|s| s.of == of).expect("segment");
+        let names: Vec<&str> = [
+            SegmentOf::Reaction { node: 0 },
+            SegmentOf::Load { node: 0 },
+            SegmentOf::Load { node: 1 },
+            SegmentOf::Reaction { node: 2 },
+        ]
+        .into_iter()
+        .map(|of| seg(of).name.as_str())
+        .collect();
+        assert_eq!(names, ["A-B", "B-C", "C-D", "D-A"]);
+        // the load line in walk order: reaction at L, load at L, apex load, roller
+        let order: Vec<SegmentOf> = fd.external_segments().map(|s| s.of).collect();
+        assert_eq!(
+            order,
+            [
+                SegmentOf::Reaction { node: 0 },
+                SegmentOf::Load { node: 0 },
+                SegmentOf::Load { node: 1 },
+                SegmentOf::Reaction { node: 2 }
+            ]
+        );
+        let expected = [(0.0, 0.0), (-15.0, 60.0), (0.0, 30.0), (0.0, -30.0)];
+        for (k, (x, y)) in expected.into_iter().enumerate() {
+            let p = fd.spaces[k].point;
+            assert!((p.x - x).abs() < 1e-9 && (p.y - y).abs() < 1e-9, "space {}: {p:?}", fd.spaces[k].label);
+        }
+        // members as by hand: rafters -50 kN, tie +40 kN
+        for (k, n) in [(0, -50.0), (1, -50.0), (2, 40.0)] {
+            assert!((fd.member_segment(k).expect("member").force - n).abs() < 1e-9, "member {k}");
         }
     }
 
