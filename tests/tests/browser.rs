@@ -11,7 +11,7 @@ use springline_statics::arch::design::{Bracing, RibSystem};
 use springline_statics::arch::generate::DEAD;
 use springline_statics::error::{Field, Location};
 use springline_statics::graphic::reciprocal::{force_diagram, SegmentOf};
-use springline_statics::{analyze, Design, Problem};
+use springline_statics::{analyze, Design, MemberRole, Problem};
 use springline_tests::page::*;
 use springline_tests::serve::StaticServer;
 use springline_tests::webdriver::{Driver, Session};
@@ -30,14 +30,14 @@ fn loads_without_errors_and_draws_rib_and_load_line() {
     let t = transform(&s, "elevation");
     let m = &a.frame.model;
     let mut rib_hits = 0;
-    for mem in m.members.iter().filter(|mm| mm.group == "rib") {
+    for mem in a.frame.map.rib_members.iter().map(|&k| &m.members[k]) {
         let (p, q) = (&m.nodes[mem.start], &m.nodes[mem.end]);
         let mid = to_px(t, (p.x + q.x) / 2.0, (p.y + q.y) / 2.0);
         if drawn_near(&s, "elevation", mid, 1.5) {
             rib_hits += 1;
         }
     }
-    assert_eq!(rib_hits, m.members.iter().filter(|mm| mm.group == "rib").count(), "every rib member drawn");
+    assert_eq!(rib_hits, a.frame.map.rib_members.len(), "every rib member drawn");
 
     // the load line: each external load segment of the reciprocal figure of the truss
     let truss = a.truss.as_ref().expect("demo is braced");
@@ -132,7 +132,7 @@ fn hovering_a_member_highlights_its_segment_in_the_force_diagram() {
         .segments
         .iter()
         .filter_map(|g| match g.of {
-            SegmentOf::Member { member } if truss.model.members[member].group == "rib" => Some((member, g)),
+            SegmentOf::Member { member } if truss.map.roles[member] == MemberRole::Rib => Some((member, g)),
             _ => None,
         })
         .max_by(|x, y| x.1.force.abs().total_cmp(&y.1.force.abs()))
@@ -196,7 +196,7 @@ fn canvases_are_sharp_at_device_pixel_ratio_two_and_follow_resizes() {
     let a = analyze(&Design::demo()).expect("demo");
     let t = transform(&s, "elevation");
     let m = &a.frame.model;
-    for mem in m.members.iter().filter(|mm| mm.group == "rib") {
+    for mem in a.frame.map.rib_members.iter().map(|&k| &m.members[k]) {
         let (p, q) = (&m.nodes[mem.start], &m.nodes[mem.end]);
         let mid = to_px(t, (p.x + q.x) / 2.0, (p.y + q.y) / 2.0);
         assert!(drawn_near(&s, "elevation", mid, 1.5), "rib redrawn after resize at {mid:?}");
