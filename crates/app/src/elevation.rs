@@ -5,6 +5,7 @@ use crate::canvas::{self, Surface, View};
 use crate::format::{Quantity, Units};
 use crate::palette::*;
 use springline_statics::arch::summary::SpringingForce;
+use springline_statics::tolerance::ZERO_FORCE;
 use springline_statics::{Analysis, Design};
 
 /// What the elevation needs besides the analysis.
@@ -89,7 +90,8 @@ pub fn draw(s: &Surface, input: &ElevationInput) -> View {
         let (na, nb) = (&model.nodes[mem.start], &model.nodes[mem.end]);
         let n = 0.5 * (case.members[k].start.n + case.members[k].end.n);
         let w = 1.2 + 6.0 * (n.abs() / nmax).sqrt();
-        let color = if n.abs() < 1e-6 * nmax {
+        // the engine's zero: below it a force is rounding (as in the force diagram)
+        let color = if n.abs() <= ZERO_FORCE * nmax {
             ZERO
         } else if n > 0.0 {
             TENSION
@@ -166,12 +168,16 @@ pub fn draw(s: &Surface, input: &ElevationInput) -> View {
         let len = 46.0;
         let tail = (c.0 - len * r.fx / mag, c.1 + len * r.fy / mag);
         canvas::arrow(ctx, tail, c, REACTION, 2.2, 9.0);
-        let thrust = SpringingForce::from_reaction(r.fx, r.fy, !right);
-        let lines = [
+        let thrust = SpringingForce::from_reaction(r.fx, r.fy, r.mz, !right);
+        let mut lines = vec![
             format!("H = {}", u.show(Quantity::Force, thrust.thrust)),
             format!("V = {}", u.show(Quantity::Force, thrust.vertical)),
             format!("{} below horizontal", u.show(Quantity::Angle, thrust.angle_deg)),
         ];
+        // a fixed springing also takes a moment from the rib
+        if thrust.moment != 0.0 {
+            lines.push(format!("M = {}", u.show(Quantity::Moment, thrust.moment)));
+        }
         let (ax, align) = if right { (c.0 + 12.0, "left") } else { (c.0 - 12.0, "right") };
         for (i, l) in lines.iter().enumerate() {
             canvas::label(

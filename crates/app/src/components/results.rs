@@ -45,6 +45,12 @@ fn rows(a: &Analysis) -> Vec<Row> {
                 f.angle_deg,
             ));
         }
+        let [left, _] = a.frame.map.springings;
+        if a.frame.model.supports.iter().any(|sup| sup.node == left && sup.rz) {
+            // a fixed rib: its springing moments (on the abutment, anticlockwise positive)
+            r.push(row("result-left-m", "Springing left: moment", Quantity::Moment, dead.left.moment));
+            r.push(row("result-right-m", "Springing right: moment", Quantity::Moment, dead.right.moment));
+        }
     }
     r.push(row(
         "result-thrust-min",

@@ -19,6 +19,7 @@ use crate::arch::design::Design;
 use crate::arch::form::{ArchReaction, Basis, Form};
 use crate::arch::generate::{DeckHold, MemberRole, Restraint, DEAD};
 use crate::frame::determinacy::Determinacy;
+use crate::tolerance::ZERO_FORCE;
 use serde::Serialize;
 
 /// The force a springing takes from the rib in one load case.
@@ -30,15 +31,19 @@ pub struct SpringingForce {
     pub vertical: f64,
     /// Angle of the resultant below the horizontal, degrees (atan2(vertical, thrust)).
     pub angle_deg: f64,
+    /// Moment the rib applies to its abutment, kNm, anticlockwise positive (0 at a
+    /// hinged springing; a fixed rib's springing moment).
+    pub moment: f64,
 }
 
 impl SpringingForce {
-    /// From the support reaction on the rib (fx, fy, kN; x right, y up) at the left
-    /// (`left` true) or right springing: the rib pushes on the abutment with the opposite
-    /// force, so the outward horizontal push is fx at the left and -fx at the right.
-    pub fn from_reaction(fx: f64, fy: f64, left: bool) -> SpringingForce {
+    /// From the support reaction on the rib (fx, fy in kN, mz in kNm; x right, y up,
+    /// anticlockwise positive) at the left (`left` true) or right springing: the rib
+    /// pushes on the abutment with the opposite force, so the outward horizontal push is
+    /// fx at the left and -fx at the right, and the moment on the abutment is -mz.
+    pub fn from_reaction(fx: f64, fy: f64, mz: f64, left: bool) -> SpringingForce {
         let thrust = if left { fx } else { -fx };
-        SpringingForce { thrust, vertical: fy, angle_deg: fy.atan2(thrust).to_degrees() }
+        SpringingForce { thrust, vertical: fy, angle_deg: fy.atan2(thrust).to_degrees(), moment: -mz }
     }
 }
 
@@ -120,8 +125,8 @@ impl Summary {
                 let (l, r) = (c.reaction(left)?, c.reaction(right)?);
                 Some(CaseSpringings {
                     case: c.name.clone(),
-                    left: SpringingForce::from_reaction(l.fx, l.fy, true),
-                    right: SpringingForce::from_reaction(r.fx, r.fy, false),
+                    left: SpringingForce::from_reaction(l.fx, l.fy, l.mz, true),
+                    right: SpringingForce::from_reaction(r.fx, r.fy, r.mz, false),
                 })
             })
             .collect();
@@ -129,6 +134,10 @@ impl Summary {
         let thrust_range =
             thrusts.fold([f64::INFINITY, f64::NEG_INFINITY], |[lo, hi], h| [lo.min(h), hi.max(h)]);
         let dead = frame.solution.case(DEAD).or(frame.solution.cases.first());
+        // forces below the solver's zero (a fraction of the largest force of the case) are
+        // rounding, shown as 0 rather than as 3.6e-15
+        let largest = dead.map_or(0.0, |c| c.equilibrium.reference);
+        let clean = |n: f64| if n.abs() <= ZERO_FORCE * largest { 0.0 } else { n };
         let largest_axial = [MemberRole::Rib, MemberRole::Post, MemberRole::Bracing, MemberRole::Deck]
             .into_iter()
             .filter_map(|role| {
@@ -138,7 +147,7 @@ impl Summary {
                     .members_with(role)
                     .flat_map(|k| [case.members[k].start.n, case.members[k].end.n])
                     .max_by(|x, y| x.abs().total_cmp(&y.abs()))?;
-                Some(RoleForce { role, n })
+                Some(RoleForce { role, n: clean(n) })
             })
             .collect();
         Summary {
@@ -184,9 +193,10 @@ mod tests {
     fn springing_force_points_outward_and_down_for_an_arch() {
         // reactions on an arch in compression: left pushes right and up, right pushes
         // left and up; the rib pushes its abutments outward and down
-        let l = SpringingForce::from_reaction(100.0, 100.0, true);
-        let r = SpringingForce::from_reaction(-100.0, 50.0, false);
+        let l = SpringingForce::from_reaction(100.0, 100.0, 0.0, true);
+        let r = SpringingForce::from_reaction(-100.0, 50.0, 30.0, false);
         assert_eq!((l.thrust, r.thrust), (100.0, 100.0));
+        assert_eq!((l.moment, r.moment), (0.0, -30.0));
         assert!((l.angle_deg - 45.0).abs() < 1e-12);
         assert!((r.angle_deg - 26.565_051_177_077_99).abs() < 1e-9, "atan(0.5) in degrees");
     }
@@ -206,5 +216,28 @@ mod tests {
         assert!(s.largest_axial(MemberRole::Post).is_some_and(|n| n < 0.0), "posts in compression");
         assert_eq!(s.truss, Some(Determinacy::Determinate));
         assert!(s.equilibrium < 1e-9);
+    }
+
+    #[test]
+    fn a_fixed_rib_reports_its_springing_moments_and_rounding_shows_as_zero() {
+        let mut d = Design::demo();
+        d.rib_system = crate::arch::design::RibSystem::Fixed;
+        let a = analyze(&d).expect("fixed");
+        let dead = a.summary.springings_of("dead").expect("dead");
+        let [left, right] = a.frame.map.springings;
+        let case = &a.frame.solution.cases[0];
+        // the moment on the abutment is the reaction moment on the rib turned round
+        assert_eq!(dead.left.moment, -case.reaction(left).expect("left").mz);
+        assert_eq!(dead.right.moment, -case.reaction(right).expect("right").mz);
+        assert!(dead.left.moment.abs() > 1.0, "a fixed rib carries moment into its abutment");
+        // hinged springings take none
+        let demo = analyze(&Design::demo()).expect("demo");
+        let hinged = demo.summary.springings_of("dead").expect("dead");
+        assert_eq!((hinged.left.moment, hinged.right.moment), (0.0, 0.0));
+        // no largest force is left as rounding noise: each is 0 or above the solver's zero
+        let reference = demo.frame.solution.cases[0].equilibrium.reference;
+        for r in &demo.summary.largest_axial {
+            assert!(r.n == 0.0 || r.n.abs() > ZERO_FORCE * reference, "{r:?}");
+        }
     }
 }
