@@ -242,6 +242,51 @@ fn assert_result(s: &Session, id: &str, expected: f64) {
     assert!((shown - expected).abs() <= half_unit, "{id}: shown {shown} vs engine {expected}");
 }
 
+/// The results table follows the load case the drawings show: choosing the half-span
+/// case shows the springing thrusts `analyze()` gives for that case (they differ from
+/// the dead case's), and going back shows the dead case's again.
+#[test]
+fn results_follow_the_load_case_the_drawings_show() {
+    let server = StaticServer::start(&dist());
+    let driver = Driver::start();
+    let s = driver.session(1500, 1000, 1.0);
+    open(&s, &server);
+    let a = analyze(&Design::demo()).expect("demo analyses");
+    let dead = a.summary.springings_of(DEAD).expect("dead").clone();
+    let half = a.summary.springings[1].clone();
+    assert!((half.left.thrust - dead.left.thrust).abs() > 1.0, "the cases differ");
+    assert_result(&s, "result-left-h", dead.left.thrust);
+    set_field(&s, "load-case", "1");
+    s.wait_for(
+        "the table to follow the case",
+        &format!(
+            "return Math.abs(+document.getElementById('result-left-h').dataset.value - {}) <= 1e-6 * {};",
+            half.left.thrust,
+            half.left.thrust.abs()
+        ),
+        WAIT,
+    );
+    for (id, value) in [
+        ("result-left-h", half.left.thrust),
+        ("result-right-h", half.right.thrust),
+        ("result-left-v", half.left.vertical),
+        ("result-right-v", half.right.vertical),
+    ] {
+        assert_result(&s, id, value);
+    }
+    set_field(&s, "load-case", "0");
+    s.wait_for(
+        "the table to return to the dead case",
+        &format!(
+            "return Math.abs(+document.getElementById('result-left-h').dataset.value - {}) <= 1e-6 * {};",
+            dead.left.thrust,
+            dead.left.thrust.abs()
+        ),
+        WAIT,
+    );
+    assert_result(&s, "result-right-h", dead.right.thrust);
+}
+
 /// The second design of the README (two-hinged rib, crossed bracing, springings at 76 m
 /// and 86 m, 10 panels), entered field by field: once the page has followed every edit,
 /// the thrusts in the results table (form thrust, each springing's thrust, the range over

@@ -24,17 +24,20 @@ fn text_row(id: &'static str, label: &str, text: String) -> Row {
     Row { id, label: label.into(), quantity: Quantity::Count, si: f64::NAN, text: Some(text) }
 }
 
-fn rows(a: &Analysis) -> Vec<Row> {
+/// The rows for analysis `a`, springing forces in load case `case` (an index into
+/// `Analysis::load_cases`, the case the drawings show).
+fn rows(a: &Analysis, case: usize) -> Vec<Row> {
     let s = &a.summary;
     let mut r = vec![
         row("result-thrust", "Form thrust H (form finding)", Quantity::Force, s.form_thrust),
         row("result-span", "Span", Quantity::Length, s.span),
         row("result-rise", "Rise", Quantity::Length, s.rise),
     ];
-    if let Some(dead) = s.springings_of(DEAD) {
+    let shown = a.load_cases.get(case).map_or(DEAD, |c| c.case.as_str());
+    if let Some(forces) = s.springings_of(shown) {
         for (id_h, id_v, id_a, name, f) in [
-            ("result-left-h", "result-left-v", "result-left-angle", "left", dead.left),
-            ("result-right-h", "result-right-v", "result-right-angle", "right", dead.right),
+            ("result-left-h", "result-left-v", "result-left-angle", "left", forces.left),
+            ("result-right-h", "result-right-v", "result-right-angle", "right", forces.right),
         ] {
             r.push(row(id_h, &format!("Springing {name}: thrust H"), Quantity::Force, f.thrust));
             r.push(row(id_v, &format!("Springing {name}: vertical"), Quantity::Force, f.vertical));
@@ -48,8 +51,8 @@ fn rows(a: &Analysis) -> Vec<Row> {
         let [left, _] = a.frame.map.springings;
         if a.frame.model.supports.iter().any(|sup| sup.node == left && sup.rz) {
             // a fixed rib: its springing moments (on the abutment, anticlockwise positive)
-            r.push(row("result-left-m", "Springing left: moment", Quantity::Moment, dead.left.moment));
-            r.push(row("result-right-m", "Springing right: moment", Quantity::Moment, dead.right.moment));
+            r.push(row("result-left-m", "Springing left: moment", Quantity::Moment, forces.left.moment));
+            r.push(row("result-right-m", "Springing right: moment", Quantity::Moment, forces.right.moment));
         }
     }
     r.push(row(
@@ -110,7 +113,7 @@ pub fn ResultsPanel() -> impl IntoView {
                     .iter()
                     .map(|w| view! { <li>{format!("{}: {}", w.location, w.message)}</li> })
                     .collect_view();
-                let table = rows(&a)
+                let table = rows(&a, state.case.get())
                     .into_iter()
                     .map(|r| {
                         let shown = r.text.clone().unwrap_or_else(|| units.show(r.quantity, r.si));
@@ -126,7 +129,7 @@ pub fn ResultsPanel() -> impl IntoView {
                     .collect_view();
                 view! {
                     <table class="results">
-                        <caption>"Dead load · frame model unless stated · N: tension +, compression −"</caption>
+                        <caption>"Frame model · springing forces for the case the drawings show, member forces under dead load · N: tension +, compression −"</caption>
                         <tbody>{table}</tbody>
                     </table>
                     <ul class="warnings">{warnings}</ul>
