@@ -69,3 +69,10 @@ pub const SHARED_NODE_GAP: f64 = 1e-6;
 /// Vertical clearance (m) by which a rib may dip into the ground before it is reported:
 /// the springings sit exactly on the ground, so only round-off is forgiven.
 pub const GROUND_TOLERANCE: f64 = 1e-6;
+
+// arch layer: design
+/// Relative allowance on the section bound I <= A d^2 / 4 (`MAX_I_OVER_AREA_DEPTH_SQUARED`)
+/// for round-off in the product A d^2 / 4: a section typed exactly at the bound (the
+/// demo's piers) is not warned about. Products of three typed decimals are off by a few
+/// eps; 1e-9 is far above that and far below any mistyped I.
+pub const SECTION_BOUND_ROUNDING: f64 = 1e-9;
