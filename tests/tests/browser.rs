@@ -287,6 +287,38 @@ fn results_follow_the_load_case_the_drawings_show() {
     assert_result(&s, "result-right-h", dead.right.thrust);
 }
 
+/// A design an engineer would question is allowed but says so beside the field: 4 panels
+/// over the demo's 106 m span (26.6 m each, over a fifth of the span, common practice)
+/// show the engine's warning beside the panel count, and 12 panels clear it.
+#[test]
+fn a_questionable_value_gets_its_warning_beside_the_field() {
+    let server = StaticServer::start(&dist());
+    let driver = Driver::start();
+    let s = driver.session(1500, 1000, 1.0);
+    open(&s, &server);
+    assert_eq!(text_of(&s, "panels-caution"), "", "the demo has no warnings");
+    set_field(&s, "panels", "4");
+    s.wait_for(
+        "the warning beside the panel count",
+        "const e = document.getElementById('panels-caution'); return !!e && e.textContent.length > 0;",
+        WAIT,
+    );
+    let mut d = Design::demo();
+    d.panels = 4;
+    let warning = springline_statics::validate_design(&d).expect("allowed");
+    let expected: Vec<&str> =
+        warning.iter().filter(|w| w.involves(Field::Panels)).map(|w| w.message.as_str()).collect();
+    assert_eq!(expected.len(), 1, "{warning:?}");
+    assert_eq!(text_of(&s, "panels-caution"), expected[0]);
+    assert_eq!(text_of(&s, "panels-error"), "", "a warning, not a refusal");
+    set_field(&s, "panels", "12");
+    s.wait_for(
+        "the warning to clear",
+        "return document.getElementById('panels-caution').textContent === '';",
+        WAIT,
+    );
+}
+
 /// The second design of the README (two-hinged rib, crossed bracing, springings at 76 m
 /// and 86 m, 10 panels), entered field by field: once the page has followed every edit,
 /// the thrusts in the results table (form thrust, each springing's thrust, the range over

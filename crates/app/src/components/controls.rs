@@ -50,9 +50,24 @@ pub fn FieldProblems(
         }
         shown
     });
+    // the analysis's warnings (allowed but unusual: common-practice limits) that involve
+    // this field, beside it, until the design changes
+    let cautions = Memo::new(move |_| {
+        if input_only {
+            return Vec::new();
+        }
+        state.analysis.with(|a| match a {
+            Ok(a) => a.warnings.iter().filter(|w| w.involves(field)).map(|w| w.message.clone()).collect(),
+            Err(_) => Vec::new(),
+        })
+    });
+    let caution_id = format!("{}-caution", id.strip_suffix("-error").unwrap_or(&id));
     view! {
         <div class="error" id=id role="alert">
             {move || messages.get().into_iter().map(|m| view! { <p>{m}</p> }).collect_view()}
+        </div>
+        <div class="caution" id=caution_id>
+            {move || cautions.get().into_iter().map(|m| view! { <p>{m}</p> }).collect_view()}
         </div>
     }
 }
