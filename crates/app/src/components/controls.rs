@@ -66,7 +66,7 @@ pub fn FieldProblems(
         <div class="error" id=id role="alert">
             {move || messages.get().into_iter().map(|m| view! { <p>{m}</p> }).collect_view()}
         </div>
-        <div class="caution" id=caution_id>
+        <div class="advice" id=caution_id>
             {move || cautions.get().into_iter().map(|m| view! { <p>{m}</p> }).collect_view()}
         </div>
     }
