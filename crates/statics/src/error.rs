@@ -663,7 +663,22 @@ fn describe_problems(problems: &[Problem]) -> String {
     match problems.len() {
         0 => format!("the {whose} has a problem that was not described"),
         1 => format!("the {whose} has a problem: {}", join(problems)),
-        n => format!("the {whose} has {n} problems: {}", join(problems)),
+        n => format!("the {whose} has {}: {}", counted(n, "problem", "problems"), join(problems)),
+    }
+}
+
+/// A count with its noun for a message, singular or plural as English wants it:
+/// `counted(1, "node", "nodes")` is "1 node", `counted(3, ...)` "3 nodes"; a `one` that
+/// starts with "a " or "an " stands for the number ("a node"). Messages never write "node(s)".
+pub fn counted(count: usize, one: &str, many: &str) -> String {
+    if count == 1 {
+        if one.starts_with("a ") || one.starts_with("an ") {
+            one.to_string()
+        } else {
+            format!("1 {one}")
+        }
+    } else {
+        format!("{count} {many}")
     }
 }
 
@@ -778,6 +793,14 @@ mod tests {
         assert_eq!(out.to_string(), "deck width: too large");
         let json = serde_json::to_string(&out).expect("serialises");
         assert!(json.contains(r#""location":"deck.width""#), "{json}");
+    }
+
+    #[test]
+    fn counts_read_singular_or_plural() {
+        assert_eq!(counted(1, "node", "nodes"), "1 node");
+        assert_eq!(counted(1, "a node", "nodes"), "a node");
+        assert_eq!(counted(0, "a node", "nodes"), "0 nodes");
+        assert_eq!(counted(3, "zero-force member", "zero-force members"), "3 zero-force members");
     }
 
     #[test]
