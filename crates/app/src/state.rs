@@ -51,7 +51,8 @@ impl Refusal {
 }
 
 /// A problem's message as shown beside a field: a design field's message speaks for itself
-/// (its path is for files, not for people); any other place is named first.
+/// (the field's label is already on screen beside it); any other place is named first, in
+/// words (`Location`'s Display, never a file path).
 fn shown(location: &Location, message: &str) -> String {
     match location {
         Location::Field(_) => message.to_string(),

@@ -73,7 +73,11 @@ fn usage_errors_and_invalid_designs_fail() {
     let out = run(&["link", "-"], &bad);
     let err = text(&out.stderr);
     assert!(out.status.code() == Some(1) && out.stdout.is_empty());
-    assert!(err.contains("cannot be linked") && err.contains("panels"), "{err}");
+    // the field as the Arch panel names it, never its file path (issue 10, "Calm interaction")
+    assert!(
+        err.contains("cannot be linked") && err.contains("the design has a problem: arch panels: "),
+        "{err}"
+    );
 }
 
 #[test]

@@ -41,6 +41,13 @@ impl GroupName {
             GroupName::Bracing => "bracing",
         }
     }
+
+    /// The group's name in words, as the Sections panel heads it (lower case): `rib`,
+    /// `deck`, `posts`, `piers`, `bracing`.
+    pub fn label(self) -> &'static str {
+        // the panel's headings are the file keys, capitalised
+        self.key()
+    }
 }
 
 /// One property of a member group's section.
@@ -67,6 +74,18 @@ impl SectionProperty {
             SectionProperty::I => "i",
             SectionProperty::Depth => "depth",
             SectionProperty::UnitWeight => "unit_weight",
+        }
+    }
+
+    /// The property's name as the Sections panel labels it: `E`, `A`, `I`, `depth`,
+    /// `weight`.
+    pub fn label(self) -> &'static str {
+        match self {
+            SectionProperty::E => "E",
+            SectionProperty::A => "A",
+            SectionProperty::I => "I",
+            SectionProperty::Depth => "depth",
+            SectionProperty::UnitWeight => "weight",
         }
     }
 }
@@ -125,12 +144,15 @@ pub enum Field {
     FormMaxIterations,
 }
 
-impl fmt::Display for Field {
-    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+impl Field {
+    /// The field's path as written in a design file and in serialised problems
+    /// (`deck.level`, `valley[3]` with a 0-based index, `groups.rib.e`). Stable: files,
+    /// JSON output and tests match on it. Source: the design file format of this crate.
+    pub fn path(&self) -> String {
         let path = match self {
             Field::Version => "version",
             Field::Valley => "valley",
-            Field::ValleyPoint(i) => return write!(f, "valley[{i}]"),
+            Field::ValleyPoint(i) => return format!("valley[{i}]"),
             Field::DeckLevel => "deck.level",
             Field::LeftSeatX => "deck.left_seat_x",
             Field::RightSeatX => "deck.right_seat_x",
@@ -149,17 +171,60 @@ impl fmt::Display for Field {
             Field::Bracing => "bracing",
             Field::ApproachPiersLeft => "approach_piers_left",
             Field::ApproachPiersRight => "approach_piers_right",
-            Field::Section(g, p) => return write!(f, "groups.{}.{}", g.key(), p.key()),
+            Field::Section(g, p) => return format!("groups.{}.{}", g.key(), p.key()),
             Field::FormTolerance => "form.tolerance",
             Field::FormMaxIterations => "form.max_iterations",
         };
-        f.write_str(path)
+        path.to_string()
+    }
+
+    /// The field's name in words, as the app's panels label it (lower case, to read inside
+    /// a sentence): `deck level`, `left springing level`, `ground point 4` (1-based, as
+    /// the Ground panel numbers its points), `rib section: E`. Fields no panel shows get a
+    /// plain description (`abutment height`, `form-finding tolerance`). For people only:
+    /// match on `path()` or on the `Field` itself, never on this text.
+    pub fn label(&self) -> String {
+        let label = match self {
+            Field::Version => "design format version",
+            Field::Valley => "ground",
+            Field::ValleyPoint(i) => return format!("ground point {}", i.saturating_add(1)),
+            Field::DeckLevel => "deck level",
+            Field::LeftSeatX => "left seat x",
+            Field::RightSeatX => "right seat x",
+            Field::DeckWidth => "deck width",
+            Field::Ribs => "ribs",
+            Field::DeadLoad => "deck dead load",
+            Field::Surfacing => "surfacing",
+            Field::AbutmentHeight => "abutment height",
+            Field::SpringingLeftLevel => "left springing level",
+            Field::SpringingRightLevel => "right springing level",
+            Field::Panels => "arch panels",
+            Field::CrownRise => "rise",
+            Field::CrownLevel => "crown level",
+            Field::MinPostLength => "shortest post",
+            Field::RibSystem => "rib",
+            Field::Bracing => "spandrel bracing",
+            Field::ApproachPiersLeft => "approach piers, left",
+            Field::ApproachPiersRight => "approach piers, right",
+            Field::Section(g, p) => return format!("{} section: {}", g.label(), p.label()),
+            Field::FormTolerance => "form-finding tolerance",
+            Field::FormMaxIterations => "form-finding iteration limit",
+        };
+        label.to_string()
     }
 }
 
+/// The field's name in words (`label()`); the path of a file is `path()`.
+impl fmt::Display for Field {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        f.write_str(&self.label())
+    }
+}
+
+/// A field serialises as its path (`"deck.level"`), so JSON output and files stay stable.
 impl Serialize for Field {
     fn serialize<S: Serializer>(&self, s: S) -> Result<S::Ok, S::Error> {
-        s.collect_str(self)
+        s.serialize_str(&self.path())
     }
 }
 
@@ -189,6 +254,21 @@ pub enum Location {
     Part(String),
 }
 
+impl Location {
+    /// Where the problem is, as written in serialised problems: a design field's path
+    /// (`deck.level`), otherwise the same words as `Display` (`node C`, `member r1`,
+    /// `load case 'wind'`, a part in words). Match on this (or on the `Location` itself),
+    /// not on the display text.
+    pub fn path(&self) -> String {
+        match self {
+            Location::Field(field) => field.path(),
+            other => other.to_string(),
+        }
+    }
+}
+
+/// Where the problem is, in words: a design field by its panel label (`deck level`), a
+/// node, member or load case by its name, a part as described.
 impl fmt::Display for Location {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
         match self {
@@ -201,9 +281,11 @@ impl fmt::Display for Location {
     }
 }
 
+/// A location serialises as its path (`"deck.level"`, `"node C"`), so JSON output stays
+/// stable whatever the display wording.
 impl Serialize for Location {
     fn serialize<S: Serializer>(&self, s: S) -> Result<S::Ok, S::Error> {
-        s.collect_str(self)
+        s.serialize_str(&self.path())
     }
 }
 
@@ -290,8 +372,9 @@ impl fmt::Display for Iteration {
 /// Everything that can go wrong in the engine, with what the user can do about it.
 #[derive(Debug, Clone, PartialEq, Error, Serialize)]
 pub enum StaticsError {
-    /// The input has problems; every problem found is listed.
-    #[error("{} problem(s) in the input: {}", .0.len(), join(.0))]
+    /// The input has problems; every problem found is listed. Reads "the design has a
+    /// problem: <label>: <message>" or "the design has 3 problems: ...; ...".
+    #[error("{}", describe_problems(.0))]
     Invalid(Vec<Problem>),
     /// The structure can move without resistance (a mechanism), so it has no unique
     /// static solution.
@@ -568,6 +651,37 @@ impl From<DesignFileError> for StaticsError {
     }
 }
 
+/// "the design has a problem: ..." or "the design has N problems: ...", each problem as
+/// "<label>: <message>", joined by "; ". Problems only of an analysis model (its nodes,
+/// members and load cases, as the frame solver reports them) are "the model"'s.
+fn describe_problems(problems: &[Problem]) -> String {
+    let of_a_model = !problems.is_empty()
+        && problems.iter().all(|p| {
+            matches!(p.location, Location::Node { .. } | Location::Member { .. } | Location::LoadCase(_))
+        });
+    let whose = if of_a_model { "model" } else { "design" };
+    match problems.len() {
+        0 => format!("the {whose} has a problem that was not described"),
+        1 => format!("the {whose} has a problem: {}", join(problems)),
+        n => format!("the {whose} has {}: {}", counted(n, "problem", "problems"), join(problems)),
+    }
+}
+
+/// A count with its noun for a message, singular or plural as English wants it:
+/// `counted(1, "node", "nodes")` is "1 node", `counted(3, ...)` "3 nodes"; a `one` that
+/// starts with "a " or "an " stands for the number ("a node"). Messages never write "node(s)".
+pub fn counted(count: usize, one: &str, many: &str) -> String {
+    if count == 1 {
+        if one.starts_with("a ") || one.starts_with("an ") {
+            one.to_string()
+        } else {
+            format!("1 {one}")
+        }
+    } else {
+        format!("{count} {many}")
+    }
+}
+
 fn join(problems: &[Problem]) -> String {
     problems.iter().map(|p| p.to_string()).collect::<Vec<_>>().join("; ")
 }
@@ -591,16 +705,130 @@ impl StaticsError {
 mod tests {
     use super::*;
 
+    // Check values: the paths are the design file format of this crate; the labels are
+    // the field names of the app's panels (crates/app/src/components/controls.rs).
+
     #[test]
     fn field_paths_read_as_in_a_design_file() {
-        assert_eq!(Field::DeckLevel.to_string(), "deck.level");
-        assert_eq!(Field::ValleyPoint(3).to_string(), "valley[3]");
-        assert_eq!(Field::Section(GroupName::Rib, SectionProperty::E).to_string(), "groups.rib.e");
+        assert_eq!(Field::DeckLevel.path(), "deck.level");
+        assert_eq!(Field::ValleyPoint(3).path(), "valley[3]");
+        assert_eq!(Field::Section(GroupName::Rib, SectionProperty::E).path(), "groups.rib.e");
+        assert_eq!(Field::SpringingLeftLevel.path(), "springing_left_level");
+        assert_eq!(Field::FormMaxIterations.path(), "form.max_iterations");
         let p = Problem::new(Field::SpringingLeftLevel, "above the deck").involving([Field::DeckLevel]);
         assert_eq!(p.fields, vec![Field::SpringingLeftLevel, Field::DeckLevel]);
         assert!(p.involves(Field::DeckLevel) && !p.involves(Field::Panels));
-        assert_eq!(p.to_string(), "springing_left_level: above the deck");
+        assert_eq!(p.location.path(), "springing_left_level");
         let json = serde_json::to_string(&p).expect("serialises");
         assert!(json.contains(r#""location":"springing_left_level""#), "{json}");
+        assert!(json.contains(r#""fields":["springing_left_level","deck.level"]"#), "{json}");
+    }
+
+    #[test]
+    fn fields_read_as_the_panels_name_them() {
+        assert_eq!(Field::DeckLevel.label(), "deck level");
+        assert_eq!(Field::SpringingLeftLevel.to_string(), "left springing level");
+        assert_eq!(Field::SpringingRightLevel.to_string(), "right springing level");
+        // 0-based in the file, 1-based as the Ground panel numbers the points
+        assert_eq!(Field::ValleyPoint(2).to_string(), "ground point 3");
+        assert_eq!(Field::Section(GroupName::Rib, SectionProperty::E).to_string(), "rib section: E");
+        assert_eq!(
+            Field::Section(GroupName::Posts, SectionProperty::UnitWeight).to_string(),
+            "posts section: weight"
+        );
+        assert_eq!(Field::CrownRise.to_string(), "rise");
+        assert_eq!(Field::MinPostLength.to_string(), "shortest post");
+        assert_eq!(Field::Bracing.to_string(), "spandrel bracing");
+        assert_eq!(Location::from(Field::Panels).to_string(), "arch panels");
+        // no label is a code name
+        let every = [
+            Field::Version,
+            Field::Valley,
+            Field::ValleyPoint(0),
+            Field::DeckLevel,
+            Field::LeftSeatX,
+            Field::RightSeatX,
+            Field::DeckWidth,
+            Field::Ribs,
+            Field::DeadLoad,
+            Field::Surfacing,
+            Field::AbutmentHeight,
+            Field::SpringingLeftLevel,
+            Field::SpringingRightLevel,
+            Field::Panels,
+            Field::CrownRise,
+            Field::CrownLevel,
+            Field::MinPostLength,
+            Field::RibSystem,
+            Field::Bracing,
+            Field::ApproachPiersLeft,
+            Field::ApproachPiersRight,
+            Field::FormTolerance,
+            Field::FormMaxIterations,
+        ];
+        let sections = GroupName::ALL.iter().flat_map(|&g| {
+            [
+                SectionProperty::E,
+                SectionProperty::A,
+                SectionProperty::I,
+                SectionProperty::Depth,
+                SectionProperty::UnitWeight,
+            ]
+            .map(|p| Field::Section(g, p))
+        });
+        for field in every.into_iter().chain(sections) {
+            let label = field.label();
+            assert!(!label.contains('_') && !label.contains('.') && !label.contains('['), "{label}");
+        }
+    }
+
+    #[test]
+    fn a_problem_reads_label_then_message_and_keeps_the_path_in_json() {
+        let p = Problem::new(Field::SpringingLeftLevel, "above the deck");
+        assert_eq!(p.to_string(), "left springing level: above the deck");
+        let part = Problem::new("supports", "none given");
+        assert_eq!(part.to_string(), "supports: none given");
+        assert_eq!(part.location.path(), "supports");
+        let out = StaticsError::OutOfRange { location: Field::DeckWidth.into(), message: "too large".into() };
+        assert_eq!(out.to_string(), "deck width: too large");
+        let json = serde_json::to_string(&out).expect("serialises");
+        assert!(json.contains(r#""location":"deck.width""#), "{json}");
+    }
+
+    #[test]
+    fn counts_read_singular_or_plural() {
+        assert_eq!(counted(1, "node", "nodes"), "1 node");
+        assert_eq!(counted(1, "a node", "nodes"), "a node");
+        assert_eq!(counted(0, "a node", "nodes"), "0 nodes");
+        assert_eq!(counted(3, "zero-force member", "zero-force members"), "3 zero-force members");
+    }
+
+    #[test]
+    fn an_invalid_design_counts_its_problems_in_words() {
+        let one = StaticsError::invalid(Field::DeckLevel, "must be a number");
+        assert_eq!(one.to_string(), "the design has a problem: deck level: must be a number");
+        let three = StaticsError::Invalid(vec![
+            Problem::new(Field::DeckLevel, "must be a number"),
+            Problem::new(Field::ValleyPoint(0), "is not to the left of point 2"),
+            Problem::new(Field::Section(GroupName::Deck, SectionProperty::I), "must be positive"),
+        ]);
+        assert_eq!(
+            three.to_string(),
+            "the design has 3 problems: deck level: must be a number; \
+             ground point 1: is not to the left of point 2; deck section: I: must be positive"
+        );
+        let json = serde_json::to_string(&three).expect("serialises");
+        assert!(
+            json.contains(r#""location":"valley[0]""#) && json.contains(r#""location":"groups.deck.i""#),
+            "{json}"
+        );
+        let model = StaticsError::Invalid(vec![
+            Problem::new(Location::Node { index: 2, name: "C".into() }, "x is not finite"),
+            Problem::new(Location::LoadCase("wind".into()), "no loads"),
+        ]);
+        assert_eq!(
+            model.to_string(),
+            "the model has 2 problems: node C: x is not finite; load case 'wind': no loads"
+        );
     }
 }

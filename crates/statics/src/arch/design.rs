@@ -421,8 +421,8 @@ pub(crate) fn check_inputs(d: &Design, problems: &mut Vec<Problem>, warnings: &m
         add(
             &[Field::Valley],
             format!(
-                "the ground profile has {} point(s); give at least 3 (left rim, floor, right rim)",
-                d.valley.len()
+                "the ground profile has {}; give at least 3 (left rim, floor, right rim)",
+                crate::error::counted(d.valley.len(), "point", "points")
             ),
         );
         valley_ok = false;
@@ -507,7 +507,7 @@ pub(crate) fn check_inputs(d: &Design, problems: &mut Vec<Problem>, warnings: &m
                 Warning::new(
                     field,
                     format!(
-                        "the {side} end post is {:.3} m long, shorter than the minimum post length",
+                        "the {side} end post is {:.3} m long, shorter than the shortest post",
                         d.deck.level - level
                     ),
                 )
@@ -619,7 +619,7 @@ pub(crate) fn check_inputs(d: &Design, problems: &mut Vec<Problem>, warnings: &m
     if !(finite(d.min_post_length) && d.min_post_length >= 0.0) {
         add(
             &[Field::MinPostLength],
-            format!("the minimum post length {} m must be zero or positive", d.min_post_length),
+            format!("the shortest post {} m must be zero or positive", d.min_post_length),
         );
     }
     for (field, n) in [
@@ -799,7 +799,7 @@ mod tests {
     }
 
     fn has(p: &[Problem], location: &str, words: &str) -> bool {
-        p.iter().any(|q| q.location.to_string().starts_with(location) && q.message.contains(words))
+        p.iter().any(|q| q.location.path().starts_with(location) && q.message.contains(words))
     }
 
     #[test]
@@ -1051,7 +1051,7 @@ mod tests {
             }
             let p = problems(&d);
             for loc in expected {
-                prop_assert!(p.iter().any(|q| q.location.to_string().starts_with(loc)), "{loc} missing from {p:?}");
+                prop_assert!(p.iter().any(|q| q.location.path().starts_with(loc)), "{loc} missing from {p:?}");
             }
         }
     }

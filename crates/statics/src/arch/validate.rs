@@ -7,7 +7,7 @@
 use crate::arch::design::{check_inputs, Design, RibSystem, Warning};
 use crate::arch::form::{find_form_for, Form, PanelLoads, RibNode};
 use crate::arch::layout::{Layout, Topology};
-use crate::error::{Field, Problem, StaticsError};
+use crate::error::{counted, Field, Problem, StaticsError};
 use crate::tolerance::GROUND_TOLERANCE;
 
 /// A design that passed validation, with the layout, form and topology it implies.
@@ -205,10 +205,10 @@ fn check_spandrel(d: &Design, form: &Form, problems: &mut Vec<Problem>, warnings
             Warning::new(
                 Field::MinPostLength,
                 format!(
-                    "rib and deck share {} node(s) where a post would be up to {deepest:.3} m long: there the deck \
+                    "rib and deck share {} where a post would be up to {deepest:.3} m long: there the deck \
                      follows the rib, up to {deepest:.3} m below the road; lower the shortest post to keep the deck \
                      level",
-                    pulled.len()
+                    counted(pulled.len(), "a node", "nodes")
                 ),
             )
             .involving([Field::DeckLevel]),

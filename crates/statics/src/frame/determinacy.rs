@@ -13,7 +13,7 @@
 //! `without_mechanism`), r = 2 n. Only otherwise is the SVD of A computed (rank, and the
 //! mode that names a moving node).
 
-use crate::error::StaticsError;
+use crate::error::{counted, StaticsError};
 use crate::frame::banded::LdlFactor;
 use crate::frame::model::{Dof, Model};
 use crate::frame::solver::validate;
@@ -69,7 +69,8 @@ impl DeterminacyReport {
             Determinacy::Determinate => "statically determinate".into(),
             Determinacy::Indeterminate { degree } => format!("statically indeterminate by {degree}"),
             Determinacy::Mechanism { modes, node_label, direction, .. } => {
-                format!("a mechanism with {modes} mode(s): node {node_label} moves {}", direction.describe())
+                let modes = counted(*modes, "mode", "modes");
+                format!("a mechanism with {modes}: node {node_label} moves {}", direction.describe())
             }
         }
     }

@@ -41,7 +41,7 @@
 //! sectors of the joints), `labels` (Bow's letters and numbers and where they are
 //! written); this module checks the case, places the points and builds the segments.
 
-use crate::error::{Location, StaticsError};
+use crate::error::{counted, Location, StaticsError};
 use crate::frame::equilibrium::characteristic_length;
 use crate::frame::model::Model;
 use crate::frame::solver::{validate, CaseResult};
@@ -455,15 +455,15 @@ pub fn force_diagram(model: &Model, case: &CaseResult) -> Result<ForceDiagram, S
     )];
     if !map.crossings.is_empty() {
         notes.push(format!(
-            "not planar: {} crossing(s) of members drawn with a pass-through node that carries both forces; each \
+            "not planar: {} of members drawn with a pass-through node that carries both forces; each \
              crossed member appears as two equal, parallel segments",
-            map.crossings.len()
+            counted(map.crossings.len(), "crossing", "crossings")
         ));
     }
     if !zero_force_members.is_empty() {
         notes.push(format!(
-            "{} zero-force member(s): drawn as points (no direction)",
-            zero_force_members.len()
+            "{}: drawn as points (no direction)",
+            counted(zero_force_members.len(), "zero-force member", "zero-force members")
         ));
     }
     Ok(ForceDiagram {
