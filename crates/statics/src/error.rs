@@ -373,7 +373,7 @@ impl fmt::Display for Iteration {
 #[derive(Debug, Clone, PartialEq, Error, Serialize)]
 pub enum StaticsError {
     /// The input has problems; every problem found is listed. Reads "the design has a
-    /// problem: <label>: <message>" or "the design has 3 problems: ...; ...".
+    /// problem: LABEL: MESSAGE" or "the design has 3 problems: ...; ...".
     #[error("{}", describe_problems(.0))]
     Invalid(Vec<Problem>),
     /// The structure can move without resistance (a mechanism), so it has no unique
