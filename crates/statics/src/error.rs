@@ -372,8 +372,8 @@ impl fmt::Display for Iteration {
 /// Everything that can go wrong in the engine, with what the user can do about it.
 #[derive(Debug, Clone, PartialEq, Error, Serialize)]
 pub enum StaticsError {
-    /// The input has problems; every problem found is listed. Reads "the design has a
-    /// problem: LABEL: MESSAGE" or "the design has 3 problems: ...; ...".
+    /// The input has problems; every problem found is listed. Reads `"the design has a
+    /// problem: <label>: <message>"` or `"the design has 3 problems: ...; ..."`.
     #[error("{}", describe_problems(.0))]
     Invalid(Vec<Problem>),
     /// The structure can move without resistance (a mechanism), so it has no unique
@@ -652,7 +652,7 @@ impl From<DesignFileError> for StaticsError {
 }
 
 /// "the design has a problem: ..." or "the design has N problems: ...", each problem as
-/// "<label>: <message>", joined by "; ". Problems only of an analysis model (its nodes,
+/// `"<label>: <message>"`, joined by "; ". Problems only of an analysis model (its nodes,
 /// members and load cases, as the frame solver reports them) are "the model"'s.
 fn describe_problems(problems: &[Problem]) -> String {
     let of_a_model = !problems.is_empty()
