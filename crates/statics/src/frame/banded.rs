@@ -294,15 +294,21 @@ fn null_vector(l: &BandMatrix, _d: &[f64], index: usize) -> Vec<f64> {
 mod tests {
     use super::*;
 
-    #[test]
-    fn band_ldl_solves_tridiagonal_system() {
-        // [2 -1 0; -1 2 -1; 0 -1 2] x = [1 0 1] has x = [1 1 1]
+    /// The 3 x 3 second-difference matrix [2 -1 0; -1 2 -1; 0 -1 2] in band form.
+    fn second_difference() -> BandMatrix {
         let mut a = BandMatrix::zeros(3, 1);
         for i in 0..3 {
             a.add(i, i, 2.0).expect("in band");
         }
         a.add(1, 0, -1.0).expect("in band");
         a.add(2, 1, -1.0).expect("in band");
+        a
+    }
+
+    #[test]
+    fn band_ldl_solves_tridiagonal_system() {
+        // [2 -1 0; -1 2 -1; 0 -1 2] x = [1 0 1] has x = [1 1 1]
+        let a = second_difference();
         let f = LdlFactor::new(&a).expect("positive definite");
         let mut b = vec![1.0, 0.0, 1.0];
         f.solve_in_place(&mut b).expect("right length");
@@ -330,12 +336,7 @@ mod tests {
     /// hand), largest row sum 4; half bandwidth 1, so gamma = 2 eps / (1 - 2 eps).
     #[test]
     fn rounding_bound_of_the_second_difference_matrix_is_worked_by_hand() {
-        let mut a = BandMatrix::zeros(3, 1);
-        for i in 0..3 {
-            a.add(i, i, 2.0).expect("in band");
-        }
-        a.add(1, 0, -1.0).expect("in band");
-        a.add(2, 1, -1.0).expect("in band");
+        let a = second_difference();
         let f = LdlFactor::new(&a).expect("positive definite");
         assert!((f.inverse_trace() - 2.5).abs() < 1e-14, "{}", f.inverse_trace());
         assert!((f.backward_error_norm() - 4.0).abs() < 1e-14, "{}", f.backward_error_norm());
