@@ -85,6 +85,9 @@ pub struct AppState {
     pub notice: RwSignal<Option<String>>,
     /// The load case shown in the drawings (index into `Analysis::load_cases`).
     pub case: RwSignal<usize>,
+    /// True while a point of the elevation is being dragged (the force diagram keeps its
+    /// scale meanwhile, so a change of thrust shows as a change of size).
+    pub dragging: RwSignal<bool>,
     /// The last refused edit, until the next edit succeeds, an undo or redo, or a new
     /// design from a link; every field shows the problems that involve it.
     pub refused: RwSignal<Option<Refusal>>,
@@ -121,6 +124,7 @@ impl AppState {
             future: RwSignal::new(Vec::new()),
             notice: RwSignal::new(None),
             case: RwSignal::new(0),
+            dragging: RwSignal::new(false),
             refused: RwSignal::new(None),
             checked,
         }

@@ -6,12 +6,13 @@
 //!
 //! | folder | what |
 //! | --- | --- |
+//! | `scene` | drawings as data: shapes, styles and placed labels |
 //! | `link` | the permalink codec |
 //! | `arch` | the deck arch: design, layout, form, generation, cases, analysis |
 //! | `graphic` | reciprocal figure, funicular, thrust line |
 //! | `frame` | model, element, banded factorisation, solver, determinacy |
 //!
-//! and `error`, `geom` and `tolerance`, shared by all.
+//! and `error`, `geom`, `tolerance` and `units` (display units), shared by all.
 //!
 //! Units: m, kN, kN/m, kN/m2 (also E and stresses), rad. Axes x right, y up.
 //! Axial force tension positive; bending moment positive when the right-hand fibre
@@ -22,12 +23,14 @@
 pub mod error;
 pub mod geom;
 pub mod tolerance;
+pub mod units;
 
 pub mod frame;
 pub mod graphic;
 
 pub mod arch;
 pub mod link;
+pub mod scene;
 
 pub use error::{Problem, StaticsError};
 pub use frame::determinacy::{truss_determinacy, Determinacy, DeterminacyReport};

@@ -1,0 +1,527 @@
+//! Drawings as data. A [`Scene`] is everything one drawing shows, in CSS pixels of a canvas
+//! of a given size (x right, y down): shapes with a typed stroke and fill, and labels
+//! already placed so that no text covers other text or leaves the frame. The app paints a
+//! scene on a canvas and does nothing else; a future SVG export writes the same scene.
+//!
+//! Builders (the elevation, the force diagram) take the analysis and a [`Viewport`]
+//! and return a scene; [`place`] gives them the label placement.
+//!
+//! Colours are named by what they mean ([`Ink`]); [`Ink::css`] gives our palette.
+
+pub mod place;
+
+use serde::Serialize;
+
+/// A point in CSS pixels, x right, y down.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+pub struct Px {
+    /// Pixels from the left edge.
+    pub x: f64,
+    /// Pixels from the top edge.
+    pub y: f64,
+}
+
+impl Px {
+    /// The point (x, y).
+    pub const fn new(x: f64, y: f64) -> Px {
+        Px { x, y }
+    }
+}
+
+/// An axis-aligned rectangle in CSS pixels.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+pub struct Rect {
+    /// Left edge.
+    pub x: f64,
+    /// Top edge.
+    pub y: f64,
+    /// Width (not negative).
+    pub w: f64,
+    /// Height (not negative).
+    pub h: f64,
+}
+
+impl Rect {
+    /// The rectangle with top-left corner (x, y), width w and height h.
+    pub const fn new(x: f64, y: f64, w: f64, h: f64) -> Rect {
+        Rect { x, y, w, h }
+    }
+    /// Right edge.
+    pub fn right(&self) -> f64 {
+        self.x + self.w
+    }
+    /// Bottom edge.
+    pub fn bottom(&self) -> f64 {
+        self.y + self.h
+    }
+    /// Whether the interiors of the two rectangles overlap (touching edges do not).
+    pub fn overlaps(&self, other: &Rect) -> bool {
+        self.x < other.right() && other.x < self.right() && self.y < other.bottom() && other.y < self.bottom()
+    }
+    /// Whether `inner` lies wholly inside this rectangle (edges included).
+    pub fn contains(&self, inner: &Rect) -> bool {
+        inner.x >= self.x && inner.y >= self.y && inner.right() <= self.right() && inner.bottom() <= self.bottom()
+    }
+    /// Grown by `d` pixels on every side.
+    pub fn grown(&self, d: f64) -> Rect {
+        Rect::new(self.x - d, self.y - d, self.w + 2.0 * d, self.h + 2.0 * d)
+    }
+}
+
+/// What a colour means. The painter (and any export) maps each to a colour with
+/// [`Ink::css`]; meaning, not hue, is what the builders choose.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, Serialize)]
+#[serde(rename_all = "snake_case")]
+pub enum Ink {
+    /// Canvas background.
+    Background,
+    /// Main text and joints.
+    Text,
+    /// Dimensions and secondary text.
+    Secondary,
+    /// Members in tension.
+    Tension,
+    /// Members in compression.
+    Compression,
+    /// Members with no force (below the solver's zero).
+    Zero,
+    /// Ground fill.
+    GroundFill,
+    /// Ground outline and points.
+    Ground,
+    /// Thrust blocks and abutments.
+    Concrete,
+    /// Applied loads.
+    Load,
+    /// Reactions.
+    Reaction,
+    /// Hover or keyboard highlight.
+    Highlight,
+    /// The translucent halo under a highlighted member.
+    HighlightHalo,
+    /// The thrust line.
+    ThrustLine,
+    /// The rib's depth band (translucent).
+    DepthBand,
+    /// The middle third band (translucent).
+    MiddleThird,
+    /// Rays of a pole construction (translucent).
+    Ray,
+    /// The light box behind a label.
+    LabelBox,
+    /// Handles the user can drag (fill).
+    Handle,
+}
+
+impl Ink {
+    /// Every ink, for palette checks.
+    pub const ALL: [Ink; 19] = [
+        Ink::Background,
+        Ink::Text,
+        Ink::Secondary,
+        Ink::Tension,
+        Ink::Compression,
+        Ink::Zero,
+        Ink::GroundFill,
+        Ink::Ground,
+        Ink::Concrete,
+        Ink::Load,
+        Ink::Reaction,
+        Ink::Highlight,
+        Ink::HighlightHalo,
+        Ink::ThrustLine,
+        Ink::DepthBand,
+        Ink::MiddleThird,
+        Ink::Ray,
+        Ink::LabelBox,
+        Ink::Handle,
+    ];
+
+    /// Our palette (our own scheme): tension deep teal, compression burnt orange, quiet
+    /// greys and earth tones for everything else so forces stand out. The zero-force grey
+    /// and the highlight reach 3:1 contrast against the background (WCAG 2.1, 1.4.11
+    /// non-text contrast), checked by a test.
+    pub const fn css(self) -> &'static str {
+        match self {
+            Ink::Background => "#fbfaf7",
+            Ink::Text => "#1f2a33",
+            Ink::Secondary => "#4f5b64",
+            Ink::Tension => "#0f7c86",
+            Ink::Compression => "#c8611e",
+            Ink::Zero => "#7b858b",
+            Ink::GroundFill => "#e4dccb",
+            Ink::Ground => "#8c7b5a",
+            Ink::Concrete => "#b9b4aa",
+            Ink::Load => "#6a4c93",
+            Ink::Reaction => "#2d4f8a",
+            Ink::Highlight => "#a8158f",
+            Ink::HighlightHalo => "rgba(168,21,143,0.22)",
+            Ink::ThrustLine => "#b0276b",
+            Ink::DepthBand => "rgba(200,97,30,0.14)",
+            Ink::MiddleThird => "rgba(200,97,30,0.28)",
+            Ink::Ray => "rgba(79,91,100,0.45)",
+            Ink::LabelBox => "rgba(251,250,247,0.88)",
+            Ink::Handle => "#ffffff",
+        }
+    }
+}
+
+/// How a line is drawn along its length. Tension and compression differ in pattern as
+/// well as colour, so a colour-blind reader or a grey print still tells them apart.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+#[serde(rename_all = "snake_case")]
+pub enum Pattern {
+    /// A continuous line.
+    Solid,
+    /// Long dashes: dash and gap lengths in multiples of the line width.
+    Dashed,
+    /// Short dots.
+    Dotted,
+}
+
+impl Pattern {
+    /// Dash and gap lengths in CSS pixels for a line `width` pixels wide; empty for solid.
+    pub fn dashes(self, width: f64) -> Vec<f64> {
+        match self {
+            Pattern::Solid => Vec::new(),
+            Pattern::Dashed => vec![(3.0 * width).max(6.0), (1.6 * width).max(3.0)],
+            Pattern::Dotted => vec![width.max(1.5), (1.5 * width).max(3.0)],
+        }
+    }
+}
+
+/// A stroke: ink, width in CSS pixels and pattern.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+pub struct Stroke {
+    /// Colour by meaning.
+    pub ink: Ink,
+    /// Width, CSS pixels.
+    pub width: f64,
+    /// Pattern along the line.
+    pub pattern: Pattern,
+}
+
+impl Stroke {
+    /// A solid stroke.
+    pub const fn solid(ink: Ink, width: f64) -> Stroke {
+        Stroke { ink, width, pattern: Pattern::Solid }
+    }
+    /// A stroke with a pattern.
+    pub const fn patterned(ink: Ink, width: f64, pattern: Pattern) -> Stroke {
+        Stroke { ink, width, pattern }
+    }
+}
+
+/// A geometric shape in CSS pixels.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+#[serde(tag = "shape", rename_all = "snake_case")]
+pub enum Shape {
+    /// A straight line.
+    Line {
+        /// Start.
+        from: Px,
+        /// End.
+        to: Px,
+    },
+    /// Connected straight lines; closed back to the first point when `closed`.
+    Path {
+        /// Points in order.
+        points: Vec<Px>,
+        /// Whether the last point joins the first (a polygon).
+        closed: bool,
+    },
+    /// A circle.
+    Circle {
+        /// Centre.
+        center: Px,
+        /// Radius, pixels.
+        radius: f64,
+    },
+    /// An arrow: a line from `tail` to `head` with a filled head `head_size` pixels long.
+    Arrow {
+        /// Tail.
+        tail: Px,
+        /// Tip.
+        head: Px,
+        /// Head length, pixels.
+        head_size: f64,
+    },
+    /// A rectangle.
+    Box {
+        /// The rectangle.
+        rect: Rect,
+    },
+}
+
+/// What a shape stands for, so a painter, a test or a pointer can find it.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+#[serde(tag = "kind", rename_all = "snake_case")]
+pub enum Tag {
+    /// Decoration (ground, blocks, dimension lines).
+    None,
+    /// Member `member` of the model the drawing shows.
+    Member {
+        /// Index into that model's members.
+        member: usize,
+    },
+    /// Something the user can drag.
+    Handle,
+}
+
+/// A shape with its stroke and fill (either may be absent).
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Item {
+    /// The geometry.
+    #[serde(flatten)]
+    pub shape: Shape,
+    /// Outline or line; `None` for fill only.
+    pub stroke: Option<Stroke>,
+    /// Fill; `None` for lines and outlines.
+    pub fill: Option<Ink>,
+    /// What it stands for.
+    pub tag: Tag,
+}
+
+impl Item {
+    /// A stroked shape without fill.
+    pub fn stroked(shape: Shape, stroke: Stroke) -> Item {
+        Item { shape, stroke: Some(stroke), fill: None, tag: Tag::None }
+    }
+    /// A filled shape without outline.
+    pub fn filled(shape: Shape, fill: Ink) -> Item {
+        Item { shape, stroke: None, fill: Some(fill), tag: Tag::None }
+    }
+    /// The same item tagged.
+    pub fn tagged(mut self, tag: Tag) -> Item {
+        self.tag = tag;
+        self
+    }
+}
+
+/// Text sizes of the drawings (CSS pixels, system sans-serif).
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+#[serde(rename_all = "snake_case")]
+pub enum TextSize {
+    /// Drawing titles: 13 px, semibold.
+    Title,
+    /// Labels of the drawing: 12 px.
+    Body,
+    /// Notes and keys: 11 px.
+    Small,
+}
+
+impl TextSize {
+    /// Font size, CSS pixels.
+    pub const fn px(self) -> f64 {
+        match self {
+            TextSize::Title => 13.0,
+            TextSize::Body => 12.0,
+            TextSize::Small => 11.0,
+        }
+    }
+    /// A CSS font shorthand for this size.
+    pub const fn css_font(self) -> &'static str {
+        match self {
+            TextSize::Title => "600 13px system-ui, sans-serif",
+            TextSize::Body => "12px system-ui, sans-serif",
+            TextSize::Small => "11px system-ui, sans-serif",
+        }
+    }
+    /// Height of a label's box, CSS pixels.
+    pub fn box_height(self) -> f64 {
+        (self.px() * 1.4).round()
+    }
+}
+
+/// Placed text: its box (the painter draws the text left-aligned and vertically centred
+/// in it, over a light [`Ink::LabelBox`] when `boxed`), and an optional leader line from the
+/// box to the point the text speaks of.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Label {
+    /// The text as shown.
+    pub text: String,
+    /// Size.
+    pub size: TextSize,
+    /// Colour.
+    pub ink: Ink,
+    /// The box the text must fit (its estimated width plus padding).
+    pub rect: Rect,
+    /// Whether a light box is painted under the text (labels over the drawing).
+    pub boxed: bool,
+    /// A thin line from the box's nearest edge to this point, when the label had to move
+    /// away from what it names.
+    pub leader: Option<Px>,
+    /// More text for a pointer resting on the label (the full list behind a shortened one).
+    pub detail: Option<String>,
+}
+
+/// The canvas a scene is built for, and what the user has asked of it.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+pub struct Viewport {
+    /// Width, CSS pixels.
+    pub width: f64,
+    /// Height, CSS pixels.
+    pub height: f64,
+}
+
+impl Viewport {
+    /// A canvas `width` x `height` CSS pixels.
+    pub const fn new(width: f64, height: f64) -> Viewport {
+        Viewport { width, height }
+    }
+    /// The whole canvas as a rectangle.
+    pub fn frame(&self) -> Rect {
+        Rect::new(0.0, 0.0, self.width, self.height)
+    }
+}
+
+/// The mapping from world coordinates (m in the elevation, kN in a force figure; y up) to
+/// CSS pixels (y down): `px = origin_x + scale x`, `py = origin_y - scale y`.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+pub struct Transform {
+    /// CSS pixels per world unit.
+    pub scale: f64,
+    /// CSS pixel x of the world origin.
+    pub origin_x: f64,
+    /// CSS pixel y of the world origin.
+    pub origin_y: f64,
+}
+
+impl Transform {
+    /// The largest equal-scale transform that shows the world box `[x0, x1] x [y0, y1]`
+    /// inside `area` (CSS pixels), centred. A box of zero size is treated as 1e-9 wide.
+    pub fn fit(bounds: (f64, f64, f64, f64), area: Rect) -> Transform {
+        let (x0, x1, y0, y1) = bounds;
+        let bw = (x1 - x0).max(1e-9);
+        let bh = (y1 - y0).max(1e-9);
+        let aw = area.w.max(10.0);
+        let ah = area.h.max(10.0);
+        let scale = (aw / bw).min(ah / bh);
+        let origin_x = area.x + (aw - scale * bw) / 2.0 - scale * x0;
+        let origin_y = area.y + (ah - scale * bh) / 2.0 + scale * y1;
+        Transform { scale, origin_x, origin_y }
+    }
+    /// World point to CSS pixels.
+    pub fn px(&self, x: f64, y: f64) -> Px {
+        Px::new(self.origin_x + self.scale * x, self.origin_y - self.scale * y)
+    }
+    /// CSS pixels to world point (x, y).
+    pub fn world(&self, p: Px) -> (f64, f64) {
+        ((p.x - self.origin_x) / self.scale, (self.origin_y - p.y) / self.scale)
+    }
+}
+
+/// One drawing: the canvas size, the world transform (for pointers and tests), the shapes
+/// in painting order, then the labels on top.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Scene {
+    /// The canvas it was built for.
+    pub viewport: Viewport,
+    /// World to pixels; `None` when the scene draws no world (a message only).
+    pub transform: Option<Transform>,
+    /// World unit of the transform ("m" or "kN").
+    pub world_unit: &'static str,
+    /// Shapes, painted in order.
+    pub items: Vec<Item>,
+    /// Text, painted after every shape.
+    pub labels: Vec<Label>,
+}
+
+impl Scene {
+    /// An empty scene for `viewport`.
+    pub fn new(viewport: Viewport) -> Scene {
+        Scene { viewport, transform: None, world_unit: "m", items: Vec::new(), labels: Vec::new() }
+    }
+    /// Pairs of labels whose boxes overlap (indices), for tests and debugging.
+    pub fn overlapping_labels(&self) -> Vec<(usize, usize)> {
+        let mut out = Vec::new();
+        for i in 0..self.labels.len() {
+            for j in i + 1..self.labels.len() {
+                if self.labels[i].rect.overlaps(&self.labels[j].rect) {
+                    out.push((i, j));
+                }
+            }
+        }
+        out
+    }
+    /// Labels whose box is not wholly inside the canvas (indices).
+    pub fn labels_outside(&self) -> Vec<usize> {
+        let frame = self.viewport.frame();
+        (0..self.labels.len()).filter(|&i| !frame.contains(&self.labels[i].rect)).collect()
+    }
+}
+
+/// WCAG 2.1 contrast ratio of two opaque `#rrggbb` colours (relative luminance of sRGB,
+/// WCAG 2.1 definitions "contrast ratio" and "relative luminance"). `None` for any other
+/// form.
+pub fn contrast_ratio(a: &str, b: &str) -> Option<f64> {
+    let la = relative_luminance(a)?;
+    let lb = relative_luminance(b)?;
+    let (hi, lo) = if la >= lb { (la, lb) } else { (lb, la) };
+    Some((hi + 0.05) / (lo + 0.05))
+}
+
+fn relative_luminance(hex: &str) -> Option<f64> {
+    let h = hex.strip_prefix('#')?;
+    if h.len() != 6 {
+        return None;
+    }
+    let channel = |i: usize| -> Option<f64> {
+        let v = u8::from_str_radix(h.get(i..i + 2)?, 16).ok()? as f64 / 255.0;
+        Some(if v <= 0.04045 { v / 12.92 } else { ((v + 0.055) / 1.055).powf(2.4) })
+    };
+    Some(0.2126 * channel(0)? + 0.7152 * channel(2)? + 0.0722 * channel(4)?)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    /// Known ratios: black on white is 21:1, white on white 1:1 (WCAG 2.1 definition).
+    #[test]
+    fn contrast_ratio_matches_the_wcag_extremes() {
+        assert!((contrast_ratio("#000000", "#ffffff").unwrap() - 21.0).abs() < 1e-9);
+        assert!((contrast_ratio("#ffffff", "#ffffff").unwrap() - 1.0).abs() < 1e-12);
+        // #767676 on white is the well-known lightest grey reaching 4.5:1 (from memory:
+        // 4.54:1)
+        let g = contrast_ratio("#767676", "#ffffff").unwrap();
+        assert!((g - 4.54).abs() < 0.01, "{g}");
+        assert_eq!(contrast_ratio("rgba(0,0,0,1)", "#ffffff"), None);
+    }
+
+    /// WCAG 2.1 success criterion 1.4.11 (non-text contrast) asks 3:1 for the parts of a
+    /// graphic needed to understand it: force colours, the zero-force grey and the
+    /// highlight against the background; text inks reach 4.5:1 (1.4.3).
+    #[test]
+    fn drawing_inks_reach_their_contrast_against_the_background() {
+        let bg = Ink::Background.css();
+        for ink in [Ink::Tension, Ink::Compression, Ink::Zero, Ink::Highlight, Ink::Load, Ink::Reaction] {
+            let c = contrast_ratio(ink.css(), bg).expect("opaque hex");
+            assert!(c >= 3.0, "{ink:?} {} has {c:.2}:1 against the background", ink.css());
+        }
+        for ink in [Ink::Text, Ink::Secondary] {
+            let c = contrast_ratio(ink.css(), bg).expect("opaque hex");
+            assert!(c >= 4.5, "{ink:?} text has {c:.2}:1 against the background");
+        }
+    }
+
+    #[test]
+    fn rectangles_overlap_only_in_their_interiors() {
+        let a = Rect::new(0.0, 0.0, 10.0, 10.0);
+        assert!(a.overlaps(&Rect::new(5.0, 5.0, 10.0, 10.0)));
+        assert!(!a.overlaps(&Rect::new(10.0, 0.0, 5.0, 5.0)), "touching edges");
+        assert!(a.contains(&Rect::new(0.0, 0.0, 10.0, 10.0)));
+        assert!(!a.contains(&Rect::new(-0.5, 0.0, 5.0, 5.0)));
+    }
+
+    #[test]
+    fn a_fitted_transform_maps_the_box_inside_the_area_and_back() {
+        let area = Rect::new(20.0, 40.0, 400.0, 200.0);
+        let t = Transform::fit((0.0, 100.0, 50.0, 80.0), area);
+        assert!((t.scale - 4.0).abs() < 1e-12, "width governs: 400 px / 100 m");
+        let p = t.px(0.0, 80.0);
+        assert!((p.x - 20.0).abs() < 1e-9 && p.y >= 40.0);
+        let (x, y) = t.world(t.px(37.5, 61.0));
+        assert!((x - 37.5).abs() < 1e-9 && (y - 61.0).abs() < 1e-9);
+    }
+}
