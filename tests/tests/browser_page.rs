@@ -93,9 +93,13 @@ fn a_phone_shows_the_drawings_first_with_the_header_whole() {
     let copy = rect(&s, "#copy-link");
     assert!(copy[2] - copy[0] > 20.0 && copy[3] - copy[1] > 10.0, "copy link has a size: {copy:?}");
     assert!(copy[0] >= 0.0 && copy[2] <= w && copy[1] >= 0.0 && copy[3] <= h, "copy link inside: {copy:?}");
+    // nothing of the header is cut or hidden behind the page's edge
+    let header = rect(&s, "header.top");
+    assert!(header[2] <= w + 0.5 && header[3] < h / 2.0, "header box {header:?}");
     let overflow = s.exec(
         "const hd = document.querySelector('header.top');
-         return [hd.scrollWidth - hd.clientWidth, document.documentElement.scrollWidth - window.innerWidth];",
+         const page = document.documentElement;
+         return [hd.scrollWidth - hd.clientWidth, page.scrollWidth - page.clientWidth];",
         vec![],
     );
     assert_eq!(overflow, json!([0, 0]), "header and page wider than the screen");
