@@ -114,7 +114,10 @@ fn a_phone_shows_the_drawings_first_with_the_header_whole() {
         WAIT,
     );
     assert_eq!(attribute(&s, "#inputs-toggle", "aria-expanded"), "true");
+    s.exec("document.getElementById('inputs-toggle').scrollIntoView();", vec![]);
+    std::fs::write(screenshots_dir().join("page-390x844-inputs.png"), s.screenshot()).expect("screenshot");
     click(&s, "#inputs-toggle");
+    s.exec("window.scrollTo(0, 0);", vec![]);
     assert!(severe(&s).is_empty(), "{:?}", severe(&s));
     std::fs::write(screenshots_dir().join("page-390x844.png"), s.screenshot()).expect("screenshot");
 }
