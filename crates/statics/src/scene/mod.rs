@@ -8,6 +8,7 @@
 //!
 //! Colours are named by what they mean ([`Ink`]); [`Ink::css`] gives our palette.
 
+pub mod force;
 pub mod place;
 
 use serde::Serialize;
@@ -60,7 +61,10 @@ impl Rect {
     }
     /// Whether `inner` lies wholly inside this rectangle (edges included).
     pub fn contains(&self, inner: &Rect) -> bool {
-        inner.x >= self.x && inner.y >= self.y && inner.right() <= self.right() && inner.bottom() <= self.bottom()
+        inner.x >= self.x
+            && inner.y >= self.y
+            && inner.right() <= self.right()
+            && inner.bottom() <= self.bottom()
     }
     /// Grown by `d` pixels on every side.
     pub fn grown(&self, d: f64) -> Rect {
