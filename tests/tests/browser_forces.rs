@@ -1,0 +1,116 @@
+//! The force canvas in the browser: zoom buttons, wheel zoom about the pointer, and drag
+//! to pan, read through the transform the canvas publishes (`data-scale`,
+//! `data-origin-x`, `data-origin-y`: the reciprocal figure's, in kN). Needs the release
+//! build in `dist/`, like the other browser tests.
+
+use serde_json::json;
+use springline_statics::{analyze, Design, SegmentOf};
+use springline_tests::page::*;
+use springline_tests::serve::StaticServer;
+use springline_tests::webdriver::{Driver, Session};
+
+/// The zoom buttons' factor (components/canvases.rs `BUTTON_ZOOM`).
+const BUTTON_ZOOM: f64 = 1.25;
+
+fn click(s: &Session, id: &str) {
+    s.exec("document.getElementById(arguments[0]).click();", vec![json!(id)]);
+}
+
+/// Waits until the published scale differs from `old`, and returns the new transform.
+fn next_transform(s: &Session, old: f64) -> (f64, f64, f64) {
+    s.wait_for(
+        "the force canvas to redraw at a new scale",
+        &format!("return +document.getElementById('forces').dataset.scale !== {old};"),
+        WAIT,
+    );
+    transform(s, "forces")
+}
+
+/// A point of the figure inside the canvas: the middle of the demo's load line (the
+/// external load segments of the truss idealisation's reciprocal figure).
+fn load_line_middle() -> (f64, f64) {
+    let a = analyze(&Design::demo()).expect("demo");
+    let fd = a.load_cases[0].force_diagram.as_ref().expect("figure");
+    let loads: Vec<_> = fd.segments.iter().filter(|g| matches!(g.of, SegmentOf::Load { .. })).collect();
+    let mid = loads[loads.len() / 2];
+    let (l, r) = (fd.spaces[mid.left].point, fd.spaces[mid.right].point);
+    ((l.x + r.x) / 2.0, (l.y + r.y) / 2.0)
+}
+
+#[test]
+fn zoom_buttons_scale_the_figure_and_fit_restores_it() {
+    let server = StaticServer::start(&dist());
+    let driver = Driver::start();
+    let s = driver.session(1500, 1000, 1.0);
+    open(&s, &server);
+    let (s0, x0, y0) = transform(&s, "forces");
+    click(&s, "forces-zoom-in");
+    let (s1, _, _) = next_transform(&s, s0);
+    assert!((s1 / s0 - BUTTON_ZOOM).abs() < 1e-9, "zoom in: {s1} / {s0}");
+    click(&s, "forces-zoom-out");
+    let (s2, _, _) = next_transform(&s, s1);
+    assert!((s2 / s0 - 1.0).abs() < 1e-9, "zoom out undoes zoom in: {s2} vs {s0}");
+    click(&s, "forces-zoom-out");
+    let (s3, _, _) = next_transform(&s, s2);
+    assert!((s3 * BUTTON_ZOOM / s0 - 1.0).abs() < 1e-9, "zoom out: {s3} vs {s0}");
+    click(&s, "forces-fit");
+    let (s4, x4, y4) = next_transform(&s, s3);
+    assert!(
+        (s4 / s0 - 1.0).abs() < 1e-12 && (x4 - x0).abs() < 1e-6 && (y4 - y0).abs() < 1e-6,
+        "fit restores"
+    );
+    // the buttons say what they do
+    let labels = s.exec(
+        "return ['forces-zoom-in','forces-zoom-out','forces-fit'].map(id => document.getElementById(id).getAttribute('aria-label'));",
+        vec![],
+    );
+    for l in labels.as_array().cloned().unwrap_or_default() {
+        assert!(l.as_str().is_some_and(|t| t.contains("force diagram")), "aria-label {l}");
+    }
+    assert!(severe(&s).is_empty(), "no console errors");
+}
+
+#[test]
+fn the_wheel_zooms_about_the_pointer() {
+    let server = StaticServer::start(&dist());
+    let driver = Driver::start();
+    let s = driver.session(1500, 1000, 1.0);
+    open(&s, &server);
+    let t0 = transform(&s, "forces");
+    let world = load_line_middle();
+    let at = to_px(t0, world.0, world.1);
+    let origin = canvas_origin(&s, "forces");
+    s.exec(
+        "document.getElementById('forces').dispatchEvent(new WheelEvent('wheel',
+           { clientX: arguments[0], clientY: arguments[1], deltaY: -200, deltaMode: 0, bubbles: true, cancelable: true }));",
+        vec![json!(origin.0 + at.0), json!(origin.1 + at.1)],
+    );
+    let t1 = next_transform(&s, t0.0);
+    assert!(t1.0 > t0.0, "wheel up zooms in: {} -> {}", t0.0, t1.0);
+    // client coordinates are whole or fractional CSS px: the point under the pointer is
+    // where it was to well within a pixel
+    let after = to_px(t1, world.0, world.1);
+    assert!((after.0 - at.0).abs() < 0.01 && (after.1 - at.1).abs() < 0.01, "{at:?} -> {after:?}");
+}
+
+#[test]
+fn dragging_the_figure_pans_it() {
+    let server = StaticServer::start(&dist());
+    let driver = Driver::start();
+    let s = driver.session(1500, 1000, 1.0);
+    open(&s, &server);
+    let t0 = transform(&s, "forces");
+    let world = load_line_middle();
+    let at = to_px(t0, world.0, world.1);
+    let origin = canvas_origin(&s, "forces");
+    let from = ((origin.0 + at.0).round(), (origin.1 + at.1).round());
+    s.drag(from, (from.0 - 30.0, from.1 + 20.0), 5);
+    s.wait_for(
+        "the figure to move",
+        &format!("return +document.getElementById('forces').dataset.originX !== {};", t0.1),
+        WAIT,
+    );
+    let t1 = transform(&s, "forces");
+    assert_eq!(t1.0, t0.0, "panning keeps the scale");
+    assert!((t1.1 - t0.1 + 30.0).abs() < 1e-6 && (t1.2 - t0.2 - 20.0).abs() < 1e-6, "{t0:?} -> {t1:?}");
+}
