@@ -114,3 +114,32 @@ fn dragging_the_figure_pans_it() {
     assert_eq!(t1.0, t0.0, "panning keeps the scale");
     assert!((t1.1 - t0.1 + 30.0).abs() < 1e-6 && (t1.2 - t0.2 - 20.0).abs() < 1e-6, "{t0:?} -> {t1:?}");
 }
+
+/// Resting the pointer on a space label shows its full list (the canvas's title): the
+/// labels and their hover texts are published in `data-labels`.
+#[test]
+fn a_space_label_shows_its_full_list_on_hover() {
+    let server = StaticServer::start(&dist());
+    let driver = Driver::start();
+    let s = driver.session(1500, 1000, 1.0);
+    open(&s, &server);
+    let labels = s.exec("return JSON.parse(document.getElementById('forces').dataset.labels);", vec![]);
+    let label = labels
+        .as_array()
+        .cloned()
+        .unwrap_or_default()
+        .into_iter()
+        .filter(|l| l["detail"].as_str().is_some_and(|d| d.starts_with("spaces ") && d.contains(',')))
+        .max_by(|a, b| a["w"].as_f64().unwrap_or(0.0).total_cmp(&b["w"].as_f64().unwrap_or(0.0)))
+        .expect("the demo's figure has spaces sharing a point");
+    let detail = label["detail"].as_str().unwrap_or("").to_string();
+    let n = |k: &str| label[k].as_f64().unwrap_or(f64::NAN);
+    let origin = canvas_origin(&s, "forces");
+    s.hover((origin.0 + n("x") + n("w") / 2.0, origin.1 + n("y") + n("h") / 2.0));
+    let title = s.wait_for(
+        "the full list as the canvas's title",
+        "const t = document.getElementById('forces').getAttribute('title'); return t ? t : null;",
+        WAIT,
+    );
+    assert_eq!(title.as_str(), Some(detail.as_str()));
+}

@@ -105,8 +105,8 @@ fn paint_label(ctx: &CanvasRenderingContext2d, l: &Label) {
 
 /// Writes the scene's transform and labels on the canvas element: data-scale,
 /// data-origin-x, data-origin-y (CSS px; removed when the scene draws no world),
-/// data-world-unit, and data-labels (JSON: text, font and box of every label, so a test
-/// can measure the text against its box).
+/// data-world-unit, and data-labels (JSON: text, hover detail, font and box of every
+/// label, so a test can measure the text against its box).
 pub fn publish(el: &HtmlCanvasElement, scene: &Scene) {
     match scene.transform {
         Some(t) => {
@@ -126,8 +126,9 @@ pub fn publish(el: &HtmlCanvasElement, scene: &Scene) {
         .iter()
         .map(|l| {
             format!(
-                "{{\"text\":{},\"font\":{},\"x\":{},\"y\":{},\"w\":{},\"h\":{}}}",
+                "{{\"text\":{},\"detail\":{},\"font\":{},\"x\":{},\"y\":{},\"w\":{},\"h\":{}}}",
                 json_string(&l.text),
+                l.detail.as_deref().map_or("null".to_string(), json_string),
                 json_string(l.size.css_font()),
                 l.rect.x,
                 l.rect.y,
