@@ -77,20 +77,24 @@ fn the_wheel_zooms_about_the_pointer() {
     let s = driver.session(1500, 1000, 1.0);
     open(&s, &server);
     let t0 = transform(&s, "forces");
-    let world = load_line_middle();
-    let at = to_px(t0, world.0, world.1);
+    let near = load_line_middle();
     let origin = canvas_origin(&s, "forces");
+    // the app reads whole client pixels (MouseEvent.clientX as an integer): aim at one,
+    // and take the world point under it
+    let guess = to_px(t0, near.0, near.1);
+    let client = ((origin.0 + guess.0).round(), (origin.1 + guess.1).round());
+    let at = (client.0 - origin.0, client.1 - origin.1);
+    let world = ((at.0 - t0.1) / t0.0, (t0.2 - at.1) / t0.0);
     s.exec(
         "document.getElementById('forces').dispatchEvent(new WheelEvent('wheel',
            { clientX: arguments[0], clientY: arguments[1], deltaY: -200, deltaMode: 0, bubbles: true, cancelable: true }));",
-        vec![json!(origin.0 + at.0), json!(origin.1 + at.1)],
+        vec![json!(client.0), json!(client.1)],
     );
     let t1 = next_transform(&s, t0.0);
-    assert!(t1.0 > t0.0, "wheel up zooms in: {} -> {}", t0.0, t1.0);
-    // client coordinates are whole or fractional CSS px: the point under the pointer is
-    // where it was to well within a pixel
+    // 200 px of wheel: the factor exp(200 * 0.0015) (components/canvases.rs)
+    assert!((t1.0 / t0.0 - (0.3f64).exp()).abs() < 1e-9, "wheel up zooms in: {} -> {}", t0.0, t1.0);
     let after = to_px(t1, world.0, world.1);
-    assert!((after.0 - at.0).abs() < 0.01 && (after.1 - at.1).abs() < 0.01, "{at:?} -> {after:?}");
+    assert!((after.0 - at.0).abs() < 1e-6 && (after.1 - at.1).abs() < 1e-6, "{at:?} -> {after:?}");
 }
 
 #[test]
