@@ -147,3 +147,39 @@ fn a_space_label_shows_its_full_list_on_hover() {
     );
     assert_eq!(title.as_str(), Some(detail.as_str()));
 }
+
+/// Two pointers pinch: moving one away from the other zooms by the ratio of their
+/// distances, about their middle (synthetic pointer events, as a touch screen sends).
+#[test]
+fn a_pinch_zooms_about_the_fingers_middle() {
+    let server = StaticServer::start(&dist());
+    let driver = Driver::start();
+    let s = driver.session(1500, 1000, 1.0);
+    open(&s, &server);
+    let t0 = transform(&s, "forces");
+    let near = load_line_middle();
+    let origin = canvas_origin(&s, "forces");
+    let guess = to_px(t0, near.0, near.1);
+    // whole client pixels, the first finger left of the second
+    let c = ((origin.0 + guess.0).round() - 60.0, (origin.1 + guess.1).round());
+    let (f1, f2, f2_to) = ((c.0 - 40.0, c.1), (c.0 + 40.0, c.1), (c.0 + 80.0, c.1));
+    s.exec(
+        "const el = document.getElementById('forces');
+         const ev = (type, id, x, y) => el.dispatchEvent(new PointerEvent(type,
+           { pointerId: id, pointerType: 'touch', isPrimary: id === 1, clientX: x, clientY: y, bubbles: true, cancelable: true }));
+         ev('pointerdown', 1, arguments[0], arguments[1]);
+         ev('pointerdown', 2, arguments[2], arguments[3]);
+         ev('pointermove', 2, arguments[4], arguments[5]);
+         ev('pointerup', 2, arguments[4], arguments[5]);
+         ev('pointerup', 1, arguments[0], arguments[1]);",
+        vec![json!(f1.0), json!(f1.1), json!(f2.0), json!(f2.1), json!(f2_to.0), json!(f2_to.1)],
+    );
+    let t1 = next_transform(&s, t0.0);
+    // 80 px apart, then 120 px: 1.5 times the scale
+    assert!((t1.0 / t0.0 - 1.5).abs() < 1e-9, "pinch: {} -> {}", t0.0, t1.0);
+    // the point between the fingers (after the move) stays where it was
+    let mid = ((f1.0 + f2_to.0) / 2.0 - origin.0, (f1.1 + f2_to.1) / 2.0 - origin.1);
+    let world = ((mid.0 - t0.1) / t0.0, (t0.2 - mid.1) / t0.0);
+    let after = to_px(t1, world.0, world.1);
+    assert!((after.0 - mid.0).abs() < 1e-6 && (after.1 - mid.1).abs() < 1e-6, "{mid:?} -> {after:?}");
+}
