@@ -183,3 +183,45 @@ fn a_pinch_zooms_about_the_fingers_middle() {
     let after = to_px(t1, world.0, world.1);
     assert!((after.0 - mid.0).abs() < 1e-6 && (after.1 - mid.1).abs() < 1e-6, "{mid:?} -> {after:?}");
 }
+
+/// The browser's measured width of every force-canvas label fits the box the scene gave
+/// it (the box is the estimated text width plus 3 px padding each side), so the native
+/// tests' width estimate cannot hide an overlap; checked in both unit systems.
+#[test]
+fn every_force_label_fits_its_box_as_the_browser_measures_it() {
+    let server = StaticServer::start(&dist());
+    let driver = Driver::start();
+    let s = driver.session(1500, 1000, 1.0);
+    open(&s, &server);
+    let measure = "const c = document.getElementById('forces'); const ctx = c.getContext('2d');
+         return JSON.parse(c.dataset.labels).map(l => { ctx.font = l.font; return [l.text, ctx.measureText(l.text).width, l.w]; });";
+    let check = |s: &Session| {
+        let rows = s.exec(measure, vec![]);
+        let rows = rows.as_array().cloned().unwrap_or_default();
+        assert!(rows.len() > 10, "labels published: {}", rows.len());
+        let mut too_wide = Vec::new();
+        for r in rows {
+            let (text, measured, w) = (
+                r[0].as_str().unwrap_or(""),
+                r[1].as_f64().unwrap_or(f64::NAN),
+                r[2].as_f64().unwrap_or(0.0),
+            );
+            if !(measured <= w + 1e-9) {
+                too_wide.push(format!("'{text}' measures {measured:.1} px in a {w:.1} px box"));
+            }
+        }
+        assert!(too_wide.is_empty(), "labels wider than their boxes: {too_wide:#?}");
+    };
+    check(&s);
+    let before = s.exec("return document.getElementById('forces').dataset.labels;", vec![]);
+    s.exec(
+        "[...document.querySelectorAll('button')].find(b => b.textContent.includes('units')).click();",
+        vec![],
+    );
+    s.wait_for(
+        "the labels in the other units",
+        &format!("return document.getElementById('forces').dataset.labels !== {};", before),
+        WAIT,
+    );
+    check(&s);
+}
