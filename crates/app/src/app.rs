@@ -2,6 +2,7 @@
 
 use crate::components::canvases::{ElevationCanvas, ForceCanvas};
 use crate::components::controls::{ArchPanel, GroundPanel, LoadsPanel, RoadwayPanel, SectionsPanel};
+use crate::components::readout::MemberReadout;
 use crate::components::results::ResultsPanel;
 use crate::components::toolbar::Toolbar;
 use crate::permalink_sync;
@@ -50,6 +51,7 @@ pub fn App() -> impl IntoView {
                     <ElevationCanvas />
                     <ForceCanvas />
                 </div>
+                <MemberReadout />
                 <ResultsPanel />
             </section>
         </main>

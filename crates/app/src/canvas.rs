@@ -34,10 +34,6 @@ impl View {
     pub fn px(&self, x: f64, y: f64) -> (f64, f64) {
         (self.origin_x + self.scale * x, self.origin_y - self.scale * y)
     }
-    /// CSS pixels to world point.
-    pub fn world(&self, px: f64, py: f64) -> (f64, f64) {
-        ((px - self.origin_x) / self.scale, (self.origin_y - py) / self.scale)
-    }
     /// Writes the transform on the canvas element for tests and assistive tools.
     pub fn publish(&self, canvas: &HtmlCanvasElement, unit: &str) {
         let _ = canvas.set_attribute("data-scale", &format!("{}", self.scale));
@@ -84,21 +80,6 @@ pub fn prepare(canvas: &HtmlCanvasElement) -> Option<Surface> {
 /// Stroke style and width, then a straight line between two CSS pixel points.
 pub fn line(ctx: &CanvasRenderingContext2d, a: (f64, f64), b: (f64, f64), color: &str, width: f64) {
     polyline(ctx, &[a, b], color, width);
-}
-
-/// A dashed line.
-pub fn dashed(
-    ctx: &CanvasRenderingContext2d,
-    a: (f64, f64),
-    b: (f64, f64),
-    color: &str,
-    width: f64,
-    dash: f64,
-) {
-    let pattern = js_sys::Array::of2(&dash.into(), &(dash * 0.8).into());
-    let _ = ctx.set_line_dash(&pattern);
-    line(ctx, a, b, color, width);
-    let _ = ctx.set_line_dash(&js_sys::Array::new());
 }
 
 /// A polyline through CSS pixel points.
@@ -153,34 +134,6 @@ pub fn ring(ctx: &CanvasRenderingContext2d, c: (f64, f64), r: f64, color: &str, 
     circle(ctx, c, r);
     ctx.fill();
     ctx.stroke();
-}
-
-/// An arrow from `tail` to `head` with a filled head of `size` pixels.
-pub fn arrow(
-    ctx: &CanvasRenderingContext2d,
-    tail: (f64, f64),
-    head: (f64, f64),
-    color: &str,
-    width: f64,
-    size: f64,
-) {
-    let (dx, dy) = (head.0 - tail.0, head.1 - tail.1);
-    let l = dx.hypot(dy);
-    if l < 1e-6 {
-        return;
-    }
-    let (ux, uy) = (dx / l, dy / l);
-    let base = (head.0 - ux * size, head.1 - uy * size);
-    line(ctx, tail, base, color, width);
-    fill_polygon(
-        ctx,
-        &[
-            head,
-            (base.0 - uy * size * 0.45, base.1 + ux * size * 0.45),
-            (base.0 + uy * size * 0.45, base.1 - ux * size * 0.45),
-        ],
-        color,
-    );
 }
 
 /// Text at a CSS pixel point with a font, colour and alignment ("left", "center", "right").

@@ -1,31 +1,28 @@
-//! Springline's colours (our own scheme): tension in deep teal, compression in burnt
-//! orange, everything else in quiet greys and earth tones so forces stand out.
+//! Springline's colours as CSS strings for the parts still painted directly (the force
+//! diagram until it becomes a scene): every one is the engine's `Ink::css`, so the
+//! palette has one source.
+
+use springline_statics::scene::Ink;
 
 /// Members in tension.
-pub const TENSION: &str = "#0f7c86";
+pub const TENSION: &str = Ink::Tension.css();
 /// Members in compression.
-pub const COMPRESSION: &str = "#c8611e";
+pub const COMPRESSION: &str = Ink::Compression.css();
 /// Members with no force.
-pub const ZERO: &str = "#9aa3a8";
+pub const ZERO: &str = Ink::Zero.css();
 /// Text and joints.
-pub const INK: &str = "#1f2a33";
+pub const INK: &str = Ink::Text.css();
 /// Dimensions and secondary text.
-pub const DIM: &str = "#5b6770";
+pub const DIM: &str = Ink::Secondary.css();
 /// Canvas background.
-pub const SKY: &str = "#fbfaf7";
-/// Ground fill and outline.
-pub const GROUND_FILL: &str = "#e4dccb";
-/// Ground outline.
-pub const GROUND_LINE: &str = "#8c7b5a";
-/// Thrust blocks and abutments.
-pub const CONCRETE: &str = "#b9b4aa";
+pub const SKY: &str = Ink::Background.css();
 /// Applied loads.
-pub const LOAD: &str = "#6a4c93";
-/// Reactions.
-pub const REACTION: &str = "#2d4f8a";
-/// Hover highlight and its halo.
-pub const HIGHLIGHT: &str = "#e3b505";
+pub const LOAD: &str = Ink::Load.css();
+/// Hover highlight.
+pub const HIGHLIGHT: &str = Ink::Highlight.css();
 /// Halo under a highlighted member.
-pub const HIGHLIGHT_HALO: &str = "rgba(227,181,5,0.35)";
+pub const HIGHLIGHT_HALO: &str = Ink::HighlightHalo.css();
 /// The thrust line.
-pub const THRUST_LINE: &str = "#b0276b";
+pub const THRUST_LINE: &str = Ink::ThrustLine.css();
+/// Reactions.
+pub const REACTION: &str = Ink::Reaction.css();

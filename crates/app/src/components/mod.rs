@@ -2,5 +2,6 @@
 
 pub mod canvases;
 pub mod controls;
+pub mod readout;
 pub mod results;
 pub mod toolbar;
