@@ -196,7 +196,7 @@ pub fn elevation_with_dropped(
         placer.reserve(rect.grown(2.0));
     }
 
-    let boxed = springing_forces(&mut scene, &mut placer, a, design, frame_case, &t, units);
+    let boxed = springing_forces(&mut scene, &mut placer, a, design, frame_case, (&t, units, viewport));
     dimensions(&mut scene, &mut placer, a, design, &t, units, viewport);
 
     let dropped = placer.dropped().to_vec();
@@ -205,10 +205,12 @@ pub fn elevation_with_dropped(
     if let Some(l) = case_label.and_then(|k| labels.get_mut(k)) {
         l.detail = case_detail;
     }
-    // the springing blocks sit over ground and blocks: a light box under each line
-    for k in boxed {
+    // the springing blocks sit over ground and blocks: a light box under each line, and a
+    // leader from a block placed away from its springing
+    for (k, leader) in boxed {
         if let Some(l) = labels.get_mut(k) {
             l.boxed = true;
+            l.leader = leader;
         }
     }
     scene.labels.extend(labels);
@@ -457,16 +459,17 @@ fn loads(scene: &mut Scene, d: &Drawn, t: &Transform) {
 }
 
 /// The rib's push on each abutment: an arrow and the lines H, V, angle (and M for a
-/// fixed rib), placed as a block beside the springing. Returns the labels placed as blocks.
+/// fixed rib), placed as a block beside the springing. Returns the labels placed as
+/// blocks and their leaders.
 fn springing_forces(
     scene: &mut Scene,
     placer: &mut Placer,
     a: &Analysis,
     design: &Design,
     case: &CaseResult,
-    t: &Transform,
-    units: Units,
-) -> Vec<usize> {
+    (t, units, viewport): (&Transform, Units, Viewport),
+) -> Vec<(usize, Option<Px>)> {
+    let frame = Rect::new(1.0, 1.0, (viewport.width - 2.0).max(0.0), (viewport.height - 2.0).max(0.0));
     let mut placed = Vec::new();
     let map = &a.frame.map;
     let model = &a.frame.model;
@@ -508,24 +511,27 @@ fn springing_forces(
         } else {
             &[Side::BelowRight, Side::Right, Side::AboveRight, Side::Below, Side::BelowLeft]
         };
-        placed.extend(block(placer, &lines, TextSize::Body, Ink::Reaction, c, sides, 14.0));
+        placed.extend(block(placer, frame, &lines, (Ink::Reaction, c), sides, left));
     }
     placed
 }
 
-/// Places `lines` as a block: the first line beside `at` (preferred `sides`, with a
-/// leader if it must move), each next line under the one before, left-aligned; a line
-/// that does not fit there is placed on its own with a leader to `at`. Returns the
-/// labels placed as a block (unboxed so far; boxed by the caller).
+/// Places `lines` (body text in `ink`, speaking of point `at`) as a block, left-aligned,
+/// one under the other: beside `at` on the first two of the preferred `sides` when there
+/// is room, else in the bottom corner of `frame` on the side of `toward_left` (ground,
+/// where nothing else is drawn), else on the other sides and further out, the first line
+/// with a leader back to `at` whenever the block is not beside it. When no place holds
+/// the whole block, each line is placed on its own. Returns the labels placed as a block,
+/// with the leader of each (unboxed so far; boxed by the caller).
 fn block(
     placer: &mut Placer,
+    frame: Rect,
     lines: &[String],
-    size: TextSize,
-    ink: Ink,
-    at: Px,
+    (ink, at): (Ink, Px),
     sides: &[Side],
-    gap: f64,
-) -> Vec<usize> {
+    toward_left: bool,
+) -> Vec<(usize, Option<Px>)> {
+    let (size, gap) = (TextSize::Body, 14.0);
     // the whole block's height decides the first line's place: try each side for the
     // tallest line box stack, then fall back on line-by-line placement
     let w = lines.iter().map(|l| place::text_width(l, size) + 2.0 * PAD_X).fold(0.0, f64::max);
@@ -545,6 +551,9 @@ fn block(
             Side::Centre => (at.x - w / 2.0, at.y - total / 2.0),
         })
         .collect();
+    // the bottom corner of the canvas, after the two nearest sides
+    let corner_x = if toward_left { frame.x + 2.0 } else { frame.right() - w - 2.0 };
+    candidates.insert(candidates.len().min(2), (corner_x, frame.bottom() - total - 2.0));
     // then further out, straight down and sideways, before giving up on the block
     for k in 1..=8 {
         let d = gap + 12.0 * k as f64;
@@ -556,13 +565,16 @@ fn block(
     let fits = |x: f64, y: f64| {
         (0..lines.len()).all(|i| placer.is_free(&Rect::new(x, y + i as f64 * (h + 1.5), w, h)))
     };
-    if let Some(&(x, y)) = candidates.iter().find(|&&(x, y)| fits(x, y)) {
+    if let Some((n, &(x, y))) = candidates.iter().enumerate().find(|(_, &(x, y))| fits(x, y)) {
+        let beside = n < 2.min(sides.len());
         return lines
             .iter()
             .enumerate()
             .filter_map(|(i, l)| {
                 let text_w = place::text_width(l, size) + 2.0 * PAD_X;
-                placer.place_at(l.clone(), size, ink, Rect::new(x, y + i as f64 * (h + 1.5), text_w, h))
+                let rect = Rect::new(x, y + i as f64 * (h + 1.5), text_w, h);
+                let k = placer.place_at(l.clone(), size, ink, rect)?;
+                Some((k, (i == 0 && !beside).then_some(at)))
             })
             .collect();
     }
