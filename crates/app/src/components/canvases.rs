@@ -23,7 +23,7 @@ fn pointer_in(canvas: &web_sys::HtmlCanvasElement, ev: &web_sys::PointerEvent) -
     (ev.client_x() as f64 - r.left(), ev.client_y() as f64 - r.top())
 }
 
-/// The elevation canvas: the engine's elevation scene painted, the model switch above it,
+/// The elevation canvas: the engine's elevation scene painted, the model switch under it,
 /// hover and keyboard stepping through members, and the drag of handles.
 #[component]
 pub fn ElevationCanvas() -> impl IntoView {
@@ -133,7 +133,6 @@ pub fn ElevationCanvas() -> impl IntoView {
     };
     view! {
         <div class="elevation-box">
-            <ModelSwitch />
             <canvas
                 id="elevation"
                 class="drawing"
@@ -148,6 +147,7 @@ pub fn ElevationCanvas() -> impl IntoView {
                 on:pointerleave=move |_| state.focus_member(None)
                 on:keydown=on_key
             ></canvas>
+            <ModelSwitch />
         </div>
     }
 }

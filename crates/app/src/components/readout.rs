@@ -81,7 +81,7 @@ pub fn ModelSwitch() -> impl IntoView {
             class="model-switch"
             role="radiogroup"
             aria-label="Model the elevation draws"
-            style="display: flex; flex-wrap: wrap; gap: 2px 12px; font-size: 13px; margin: 0 0 4px;"
+            style="display: flex; flex-wrap: wrap; gap: 2px 12px; font-size: 13px; margin: 4px 0 0;"
         >
             <span style="color: #4f5b64;">"Elevation draws"</span>
             <label>

@@ -62,6 +62,11 @@ const MARGIN: f64 = 8.0;
 const SWATCH: f64 = 20.0;
 /// Length of a reaction arrow, CSS pixels.
 const REACTION_ARROW: f64 = 46.0;
+/// How many of a block's preferred sides count as beside its point (no leader) on a wide
+/// canvas.
+const NEAR_SIDES: usize = 3;
+/// Width from which a canvas counts as wide, CSS pixels.
+const WIDE: f64 = 560.0;
 /// Half the side of a square handle, CSS pixels.
 const HANDLE: f64 = 4.0;
 
@@ -123,8 +128,18 @@ pub fn elevation_with_dropped(
         a.load_cases.get(case_index).map_or_else(|| "dead load".to_string(), |c| case_title(&c.description));
     let case_detail = a.load_cases.get(case_index).map(|c| c.description.to_string());
     let frame_only = drawn.kind == ModelKind::Truss;
-    let (header_bottom, case_label) =
-        header(&mut scene, &mut placer, viewport, drawn.kind, &case_words, design.deck.ribs, frame_only);
+    // texts laid out by the builder that found no room (never expected; tests check)
+    let mut lost = Vec::new();
+    let (header_bottom, case_label) = header(
+        &mut scene,
+        &mut placer,
+        viewport,
+        drawn.kind,
+        &case_words,
+        design.deck.ribs,
+        frame_only,
+        &mut lost,
+    );
 
     // the drawing below the header
     let area = Rect::new(
@@ -199,7 +214,8 @@ pub fn elevation_with_dropped(
     let boxed = springing_forces(&mut scene, &mut placer, a, design, frame_case, (&t, units, viewport));
     dimensions(&mut scene, &mut placer, a, design, &t, units, viewport);
 
-    let dropped = placer.dropped().to_vec();
+    let mut dropped = lost;
+    dropped.extend(placer.dropped().iter().cloned());
     let mut labels = placer.finish();
     // the full description of the case for a pointer resting on the title
     if let Some(l) = case_label.and_then(|k| labels.get_mut(k)) {
@@ -227,7 +243,9 @@ fn header(
     case_words: &str,
     ribs: usize,
     frame_only: bool,
+    lost: &mut Vec<String>,
 ) -> (f64, Option<usize>) {
+    let lost = &mut *lost;
     let area = Rect::new(MARGIN, MARGIN - 2.0, (viewport.width - 2.0 * MARGIN).max(10.0), viewport.height);
     let whole = format!("Elevation · {kind} · {case_words}");
     let title_items: Vec<(String, TextSize)> =
@@ -239,11 +257,20 @@ fn header(
                 (place::fit_text(case_words, TextSize::Title, area.w), TextSize::Title),
             ]
         };
-    let (boxes, mut bottom) = place::flow(&title_items, area, 8.0);
+    let (boxes, flow_bottom) = place::flow(&title_items, area, 8.0);
+    let line_h = TextSize::Title.box_height();
+    let mut bottom = flow_bottom;
     let mut case_label = None;
     for ((text, size), rect) in title_items.iter().zip(&boxes) {
+        // lines a little apart, so the placer's clearance between boxes holds
+        let line = ((rect.y - area.y) / line_h).round();
+        let rect = Rect::new(rect.x, rect.y + 2.0 * line, rect.w, rect.h);
+        bottom = bottom.max(rect.bottom());
         // the last title item holds the case
-        case_label = placer.place_at(text.clone(), *size, Ink::Text, *rect);
+        case_label = placer.place_at(text.clone(), *size, Ink::Text, rect);
+        if case_label.is_none() {
+            lost.push(text.clone());
+        }
     }
 
     // the key: swatch and words per entry, wrapping like words
@@ -293,7 +320,9 @@ fn header(
             scene.items.push(Item::stroked(shape, stroke));
         }
         let rect = Rect::new(x + sw, y, text_w, h);
-        placer.place_at(text, size, ink, rect);
+        if placer.place_at(text.clone(), size, ink, rect).is_none() {
+            lost.push(text);
+        }
         x += sw + text_w + 10.0;
     }
     bottom = y + h;
@@ -490,26 +519,26 @@ fn springing_forces(
                 Shape::Arrow { tail: c, head, head_size: 9.0 },
                 Stroke::solid(Ink::Reaction, 2.2),
             ));
-            placer.reserve(Rect::new(
-                c.x.min(head.x) - 3.0,
-                c.y.min(head.y) - 3.0,
-                (head.x - c.x).abs() + 6.0,
-                (head.y - c.y).abs() + 6.0,
-            ));
+            // the head stays visible; a label may cross the shaft on its light box
+            placer.reserve(Rect::new(head.x - 6.0, head.y - 6.0, 12.0, 12.0));
         }
         let angle = if mag > 0.0 { s.angle_deg } else { 0.0 };
         let mut lines = vec![
             format!("H = {}", units.show(Quantity::Force, h)),
             format!("V = {}", units.show(Quantity::Force, v)),
-            format!("{} below horizontal", units.show(Quantity::Angle, angle)),
+            if viewport.width >= WIDE {
+                format!("{} below horizontal", units.show(Quantity::Angle, angle))
+            } else {
+                format!("{} below horiz.", units.show(Quantity::Angle, angle))
+            },
         ];
         if design.rib_system == RibSystem::Fixed {
             lines.push(format!("M = {}", units.show(Quantity::Moment, m)));
         }
         let sides: &[Side] = if left {
-            &[Side::BelowLeft, Side::Left, Side::AboveLeft, Side::Below, Side::BelowRight]
+            &[Side::BelowLeft, Side::Left, Side::Below, Side::AboveLeft, Side::BelowRight]
         } else {
-            &[Side::BelowRight, Side::Right, Side::AboveRight, Side::Below, Side::BelowLeft]
+            &[Side::BelowRight, Side::Right, Side::Below, Side::AboveRight, Side::BelowLeft]
         };
         placed.extend(block(placer, frame, &lines, (Ink::Reaction, c), sides, left));
     }
@@ -517,7 +546,7 @@ fn springing_forces(
 }
 
 /// Places `lines` (body text in `ink`, speaking of point `at`) as a block, left-aligned,
-/// one under the other: beside `at` on the first two of the preferred `sides` when there
+/// one under the other: beside `at` on the first three of the preferred `sides` when there
 /// is room, else in the bottom corner of `frame` on the side of `toward_left` (ground,
 /// where nothing else is drawn), else on the other sides and further out, the first line
 /// with a leader back to `at` whenever the block is not beside it. When no place holds
@@ -551,9 +580,18 @@ fn block(
             Side::Centre => (at.x - w / 2.0, at.y - total / 2.0),
         })
         .collect();
-    // the bottom corner of the canvas, after the two nearest sides
+    // the bottom corner of the canvas, after the nearest sides (two on a narrow canvas, where
+    // the two blocks need both corners)
+    let near = if frame.w >= WIDE { NEAR_SIDES } else { NEAR_SIDES - 1 }.min(sides.len());
     let corner_x = if toward_left { frame.x + 2.0 } else { frame.right() - w - 2.0 };
-    candidates.insert(candidates.len().min(2), (corner_x, frame.bottom() - total - 2.0));
+    // along the bottom edge from the corner towards the middle, clear of arrow heads
+    let bottom_row = (0..12).map(|k| {
+        let shift = 8.0 * k as f64;
+        (if toward_left { corner_x + shift } else { corner_x - shift }, frame.bottom() - total - 2.0)
+    });
+    let tail = candidates.split_off(near);
+    candidates.extend(bottom_row);
+    candidates.extend(tail);
     // then further out, straight down and sideways, before giving up on the block
     for k in 1..=8 {
         let d = gap + 12.0 * k as f64;
@@ -566,7 +604,7 @@ fn block(
         (0..lines.len()).all(|i| placer.is_free(&Rect::new(x, y + i as f64 * (h + 1.5), w, h)))
     };
     if let Some((n, &(x, y))) = candidates.iter().enumerate().find(|(_, &(x, y))| fits(x, y)) {
-        let beside = n < 2.min(sides.len());
+        let beside = n < near;
         return lines
             .iter()
             .enumerate()
@@ -649,7 +687,8 @@ fn dimensions(
             deck_left,
         )
         .sides(&[Side::AboveRight, Side::Above, Side::BelowRight])
-        .gap(10.0),
+        .gap(10.0)
+        .short(format!("deck {}", units.show(Quantity::Length, design.deck.level))),
     );
 }
 
