@@ -134,10 +134,8 @@ pub fn elevation_with_dropped(
         &mut scene,
         &mut placer,
         viewport,
-        drawn.kind,
-        &case_words,
-        design.deck.ribs,
-        frame_only,
+        (drawn.kind, &case_words),
+        (design.deck.ribs, frame_only),
         &mut lost,
     );
 
@@ -234,18 +232,17 @@ pub fn elevation_with_dropped(
 }
 
 /// Title (model and case in words) and key, as lines from the top left; returns the
-/// bottom of the last line and the label holding the case.
+/// bottom of the last line and the label holding the case. `ribs` is the number of rib
+/// lines the forces are for; `frame_only` adds the key of members the drawn truss
+/// idealisation leaves out. Texts that found no room go to `lost`.
 fn header(
     scene: &mut Scene,
     placer: &mut Placer,
     viewport: Viewport,
-    kind: ModelKind,
-    case_words: &str,
-    ribs: usize,
-    frame_only: bool,
+    (kind, case_words): (ModelKind, &str),
+    (ribs, frame_only): (usize, bool),
     lost: &mut Vec<String>,
 ) -> (f64, Option<usize>) {
-    let lost = &mut *lost;
     let area = Rect::new(MARGIN, MARGIN - 2.0, (viewport.width - 2.0 * MARGIN).max(10.0), viewport.height);
     let whole = format!("Elevation · {kind} · {case_words}");
     let title_items: Vec<(String, TextSize)> =
