@@ -5,6 +5,7 @@
 
 use crate::components::canvases::{ElevationCanvas, ForceCanvas};
 use crate::components::controls::{ArchPanel, GroundPanel, LoadsPanel, RoadwayPanel, SectionsPanel};
+use crate::components::readout::MemberReadout;
 use crate::components::results::ResultsPanel;
 use crate::components::scenarios::ScenarioButtons;
 use crate::components::toolbar::Toolbar;
@@ -48,6 +49,7 @@ pub fn App() -> impl IntoView {
                     <ForceCanvas />
                 </div>
                 // the status line of a drag goes here, under the canvases
+                <MemberReadout />
             </section>
             <DesignInputs />
             <ResultsPanel />

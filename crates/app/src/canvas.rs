@@ -1,5 +1,6 @@
 //! Canvas plumbing: a sharp backing store at any device pixel ratio, the world-to-pixel
-//! transform (exposed on the element as data attributes), and drawing primitives.
+//! mapping pointers use, and the geometry of picking a segment. Drawing itself is
+//! `paint.rs` over the engine's scenes.
 
 use wasm_bindgen::JsCast;
 use web_sys::{CanvasRenderingContext2d, HtmlCanvasElement};
@@ -17,33 +18,9 @@ pub struct View {
 }
 
 impl View {
-    /// The largest equal-scale view of the box [x0, x1] x [y0, y1] inside a `width` x
-    /// `height` CSS pixel area with `margin` pixels on every side (and `top` extra above).
-    pub fn fit(bounds: (f64, f64, f64, f64), width: f64, height: f64, margin: f64, top: f64) -> View {
-        let (x0, x1, y0, y1) = bounds;
-        let bw = (x1 - x0).max(1e-9);
-        let bh = (y1 - y0).max(1e-9);
-        let aw = (width - 2.0 * margin).max(10.0);
-        let ah = (height - 2.0 * margin - top).max(10.0);
-        let scale = (aw / bw).min(ah / bh);
-        let origin_x = margin + (aw - scale * bw) / 2.0 - scale * x0;
-        let origin_y = margin + top + (ah - scale * bh) / 2.0 + scale * y1;
-        View { scale, origin_x, origin_y }
-    }
     /// World point to CSS pixels.
     pub fn px(&self, x: f64, y: f64) -> (f64, f64) {
         (self.origin_x + self.scale * x, self.origin_y - self.scale * y)
-    }
-    /// CSS pixels to world point.
-    pub fn world(&self, px: f64, py: f64) -> (f64, f64) {
-        ((px - self.origin_x) / self.scale, (self.origin_y - py) / self.scale)
-    }
-    /// Writes the transform on the canvas element for tests and assistive tools.
-    pub fn publish(&self, canvas: &HtmlCanvasElement, unit: &str) {
-        let _ = canvas.set_attribute("data-scale", &format!("{}", self.scale));
-        let _ = canvas.set_attribute("data-origin-x", &format!("{}", self.origin_x));
-        let _ = canvas.set_attribute("data-origin-y", &format!("{}", self.origin_y));
-        let _ = canvas.set_attribute("data-world-unit", unit);
     }
 }
 
@@ -79,131 +56,6 @@ pub fn prepare(canvas: &HtmlCanvasElement) -> Option<Surface> {
     let _ = ctx.set_transform(dpr, 0.0, 0.0, dpr, 0.0, 0.0);
     ctx.clear_rect(0.0, 0.0, width, height);
     Some(Surface { ctx, width, height })
-}
-
-/// Stroke style and width, then a straight line between two CSS pixel points.
-pub fn line(ctx: &CanvasRenderingContext2d, a: (f64, f64), b: (f64, f64), color: &str, width: f64) {
-    polyline(ctx, &[a, b], color, width);
-}
-
-/// A dashed line.
-pub fn dashed(
-    ctx: &CanvasRenderingContext2d,
-    a: (f64, f64),
-    b: (f64, f64),
-    color: &str,
-    width: f64,
-    dash: f64,
-) {
-    let pattern = js_sys::Array::of2(&dash.into(), &(dash * 0.8).into());
-    let _ = ctx.set_line_dash(&pattern);
-    line(ctx, a, b, color, width);
-    let _ = ctx.set_line_dash(&js_sys::Array::new());
-}
-
-/// A polyline through CSS pixel points.
-pub fn polyline(ctx: &CanvasRenderingContext2d, pts: &[(f64, f64)], color: &str, width: f64) {
-    if pts.len() < 2 {
-        return;
-    }
-    ctx.set_stroke_style_str(color);
-    ctx.set_line_width(width);
-    trace(ctx, pts);
-    ctx.stroke();
-}
-
-/// A filled polygon.
-pub fn fill_polygon(ctx: &CanvasRenderingContext2d, pts: &[(f64, f64)], color: &str) {
-    if pts.len() < 3 {
-        return;
-    }
-    ctx.set_fill_style_str(color);
-    trace(ctx, pts);
-    ctx.close_path();
-    ctx.fill();
-}
-
-/// Starts a new path through `pts` (at least one point).
-fn trace(ctx: &CanvasRenderingContext2d, pts: &[(f64, f64)]) {
-    ctx.begin_path();
-    ctx.move_to(pts[0].0, pts[0].1);
-    for p in &pts[1..] {
-        ctx.line_to(p.0, p.1);
-    }
-}
-
-/// A filled circle.
-pub fn dot(ctx: &CanvasRenderingContext2d, c: (f64, f64), r: f64, color: &str) {
-    ctx.set_fill_style_str(color);
-    circle(ctx, c, r);
-    ctx.fill();
-}
-
-/// Starts a new path with a full circle.
-fn circle(ctx: &CanvasRenderingContext2d, c: (f64, f64), r: f64) {
-    ctx.begin_path();
-    let _ = ctx.arc(c.0, c.1, r, 0.0, std::f64::consts::TAU);
-}
-
-/// An open circle (hinge).
-pub fn ring(ctx: &CanvasRenderingContext2d, c: (f64, f64), r: f64, color: &str, fill: &str) {
-    ctx.set_fill_style_str(fill);
-    ctx.set_stroke_style_str(color);
-    ctx.set_line_width(1.5);
-    circle(ctx, c, r);
-    ctx.fill();
-    ctx.stroke();
-}
-
-/// An arrow from `tail` to `head` with a filled head of `size` pixels.
-pub fn arrow(
-    ctx: &CanvasRenderingContext2d,
-    tail: (f64, f64),
-    head: (f64, f64),
-    color: &str,
-    width: f64,
-    size: f64,
-) {
-    let (dx, dy) = (head.0 - tail.0, head.1 - tail.1);
-    let l = dx.hypot(dy);
-    if l < 1e-6 {
-        return;
-    }
-    let (ux, uy) = (dx / l, dy / l);
-    let base = (head.0 - ux * size, head.1 - uy * size);
-    line(ctx, tail, base, color, width);
-    fill_polygon(
-        ctx,
-        &[
-            head,
-            (base.0 - uy * size * 0.45, base.1 + ux * size * 0.45),
-            (base.0 + uy * size * 0.45, base.1 - ux * size * 0.45),
-        ],
-        color,
-    );
-}
-
-/// Text at a CSS pixel point with a font, colour and alignment ("left", "center", "right").
-pub fn text(ctx: &CanvasRenderingContext2d, s: &str, at: (f64, f64), font: &str, color: &str, align: &str) {
-    ctx.set_font(font);
-    ctx.set_fill_style_str(color);
-    ctx.set_text_align(align);
-    ctx.set_text_baseline("middle");
-    let _ = ctx.fill_text(s, at.0, at.1);
-}
-
-/// Text on a light box so it stays legible over drawing.
-pub fn label(ctx: &CanvasRenderingContext2d, s: &str, at: (f64, f64), font: &str, color: &str, align: &str) {
-    ctx.set_font(font);
-    let w = ctx.measure_text(s).map(|m| m.width()).unwrap_or(0.0);
-    let x0 = match align {
-        "center" => at.0 - w / 2.0,
-        "right" => at.0 - w,
-        _ => at.0,
-    };
-    ctx.set_fill_style_str("rgba(255,255,255,0.85)");
-    ctx.fill_rect(x0 - 3.0, at.1 - 8.0, w + 6.0, 16.0);
-    text(ctx, s, at, font, color, align);
 }
 
 /// The key of the segment nearest to `pointer` (CSS pixels) among `segments` (key, end,

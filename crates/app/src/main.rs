@@ -5,10 +5,9 @@ mod app;
 mod canvas;
 mod components;
 mod drag;
-mod elevation;
 mod forces;
 mod format;
-mod palette;
+mod paint;
 mod permalink_sync;
 mod state;
 

@@ -4,8 +4,9 @@
 
 use crate::format::Units;
 use leptos::prelude::*;
+use springline_statics::arch::readout::MemberKey;
 use springline_statics::error::{Field, Location, StaticsError};
-use springline_statics::{analyze, Analysis, Design};
+use springline_statics::{analyze, Analysis, Design, ModelKind};
 use std::sync::Arc;
 
 /// The analysis of the current design, or the engine's error when there is none.
@@ -73,6 +74,12 @@ pub struct AppState {
     pub analysis: Memo<Outcome>,
     /// The truss member under the pointer.
     pub hovered: RwSignal<Hovered>,
+    /// The member under the pointer or the keyboard, in any model (the readout's member);
+    /// kept in step with `hovered` by [`AppState::hover`] and [`AppState::focus_member`].
+    pub focus: RwSignal<Option<MemberKey>>,
+    /// The model the elevation draws (frame model, or the truss idealisation where the
+    /// design has one).
+    pub elevation_model: RwSignal<ModelKind>,
     /// Display units.
     pub units: RwSignal<Units>,
     /// Bumped when the window is resized, so canvases redraw.
@@ -118,6 +125,8 @@ impl AppState {
             design,
             analysis,
             hovered: RwSignal::new(Hovered(None)),
+            focus: RwSignal::new(None),
+            elevation_model: RwSignal::new(ModelKind::Frame),
             units: RwSignal::new(Units::Si),
             resized: RwSignal::new(0),
             past: RwSignal::new(Vec::new()),
@@ -202,6 +211,33 @@ impl AppState {
     pub fn hover(&self, member: Option<usize>) {
         if self.hovered.get_untracked().0 != member {
             self.hovered.set(Hovered(member));
+            let key = member.and_then(|k| {
+                self.analysis.with_untracked(|o| {
+                    let t = o.as_ref().ok()?.truss.as_ref()?;
+                    MemberKey::of(&t.map, ModelKind::Truss, k)
+                })
+            });
+            if self.focus.get_untracked() != key {
+                self.focus.set(key);
+            }
+        }
+    }
+
+    /// Sets the member under the pointer or the keyboard by its model-independent key
+    /// (the elevation, the keyboard), and the truss member it is, if any, for the force
+    /// diagram's highlight.
+    pub fn focus_member(&self, key: Option<MemberKey>) {
+        if self.focus.get_untracked() != key {
+            self.focus.set(key);
+        }
+        let truss = key.and_then(|key| {
+            self.analysis.with_untracked(|o| {
+                let t = o.as_ref().ok()?.truss.as_ref()?;
+                key.member_in(&t.map, ModelKind::Truss)
+            })
+        });
+        if self.hovered.get_untracked().0 != truss {
+            self.hovered.set(Hovered(truss));
         }
     }
 

@@ -2,6 +2,7 @@
 
 pub mod canvases;
 pub mod controls;
+pub mod readout;
 pub mod results;
 pub mod scenarios;
 pub mod toolbar;

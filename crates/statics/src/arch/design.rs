@@ -315,14 +315,20 @@ impl Design {
     pub fn rise(&self) -> f64 {
         match self.crown {
             Crown::Rise { rise } => rise,
-            Crown::Level { level } => level - 0.5 * (self.springing_left_level + self.springing_right_level),
+            Crown::Level { level } => level - self.chord_level_at_crown(),
         }
+    }
+
+    /// Level of the springing chord at the crown x, m: the mean of the springing levels,
+    /// the crown being midway between the springings. The rise is measured from it.
+    pub fn chord_level_at_crown(&self) -> f64 {
+        0.5 * (self.springing_left_level + self.springing_right_level)
     }
 
     /// Level of the rib axis at the crown, m.
     pub fn crown_level(&self) -> f64 {
         match self.crown {
-            Crown::Rise { rise } => 0.5 * (self.springing_left_level + self.springing_right_level) + rise,
+            Crown::Rise { rise } => self.chord_level_at_crown() + rise,
             Crown::Level { level } => level,
         }
     }

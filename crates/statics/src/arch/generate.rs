@@ -161,6 +161,10 @@ pub struct ModelMap {
     pub crown: usize,
     /// Left and right abutment seat nodes (frame model only).
     pub seats: Option<[usize; 2]>,
+    /// The layout joints at the start and end of every member, in member order (`None`
+    /// for members with an end that is no layout joint: approach spans and piers). The
+    /// same pair names the same member in every model that has it.
+    pub member_joints: Vec<Option<[Joint; 2]>>,
 }
 
 impl ModelMap {
@@ -175,6 +179,13 @@ impl ModelMap {
     /// The members with role `role`, in member order.
     pub fn members_with(&self, role: MemberRole) -> impl Iterator<Item = usize> + '_ {
         self.roles.iter().enumerate().filter(move |(_, r)| **r == role).map(|(k, _)| k)
+    }
+
+    /// The member between layout joints `a` and `b` (either order) with role `role`.
+    pub fn member_between(&self, role: MemberRole, a: Joint, b: Joint) -> Option<usize> {
+        self.member_joints.iter().zip(&self.roles).position(|(ends, r)| {
+            *r == role && ends.is_some_and(|[p, q]| (p == a && q == b) || (p == b && q == a))
+        })
     }
 
     /// The rib chain as the graphic layer takes it: (member, runs left to right).
@@ -332,6 +343,20 @@ impl<'a> Builder<'a> {
         let last = self.f.last_rib();
         // every rib node is made by the rib members, which every model has
         let rib_nodes: Vec<usize> = self.rib.iter().map(|k| k.unwrap_or(usize::MAX)).collect();
+        // model node -> layout joint, to name every member by the joints at its ends
+        let mut joint_at: Vec<Option<Joint>> = vec![None; self.model.nodes.len()];
+        for (r, k) in self.rib.iter().enumerate() {
+            if let Some(k) = *k {
+                joint_at[k] = Some(Joint::Rib(r));
+            }
+        }
+        for (i, k) in self.deck.iter().enumerate() {
+            if let Some(k) = *k {
+                joint_at[k] = Some(Joint::Deck(i));
+            }
+        }
+        let member_joints =
+            self.model.members.iter().map(|m| Some([joint_at[m.start]?, joint_at[m.end]?])).collect();
         let map = ModelMap {
             roles: self.roles,
             springings: [rib_nodes[0], rib_nodes[last]],
@@ -340,6 +365,7 @@ impl<'a> Builder<'a> {
             deck_nodes: self.deck,
             rib_members: self.rib_members,
             seats,
+            member_joints,
         };
         Generated { kind, model: self.model, map }
     }
@@ -604,6 +630,17 @@ mod tests {
                         assert_eq!(map.springings, [map.rib_nodes[0], map.rib_nodes[form.rib.len() - 1]]);
                         assert_eq!(map.crown, map.rib_nodes[form.crown_node]);
                         assert_eq!(map.seats.is_some(), g.kind == ModelKind::Frame);
+                        // the joints of every member are the nodes at its ends
+                        assert_eq!(map.member_joints.len(), m.members.len());
+                        for (k, ends) in map.member_joints.iter().enumerate() {
+                            let Some([p, q]) = *ends else {
+                                assert!(matches!(map.roles[k], MemberRole::Pier | MemberRole::Approach));
+                                continue;
+                            };
+                            assert_eq!(map.node_of(p), Some(m.members[k].start));
+                            assert_eq!(map.node_of(q), Some(m.members[k].end));
+                            assert_eq!(map.member_between(map.roles[k], q, p), Some(k));
+                        }
                     }
                 }
             }

@@ -9,5 +9,6 @@ pub mod design_file;
 pub mod form;
 pub mod generate;
 pub mod layout;
+pub mod readout;
 pub mod summary;
 pub mod validate;

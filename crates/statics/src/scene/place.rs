@@ -16,26 +16,28 @@ pub const PAD_X: f64 = 3.0;
 
 /// Estimated advance width of `text` at `size`, CSS pixels: an upper bound for common
 /// system sans-serif faces (per-character widths as fractions of the em, from the widest
-/// of their classes; common practice for layout without font metrics).
+/// of their classes; common practice for layout without font metrics). The classes cover
+/// DejaVu Sans, the widest common face and Debian's system-ui (its advance widths, book
+/// and bold, from memory, checked by the browser test that measures every label), so
+/// narrower faces (Liberation Sans, Arial, Helvetica) fit with room to spare.
 pub fn text_width(text: &str, size: TextSize) -> f64 {
     let em = size.px();
     let bold = matches!(size, TextSize::Title);
     let w: f64 = text
         .chars()
         .map(|c| match c {
-            'i' | 'j' | 'l' | '\'' | '|' | '.' | ',' | ':' | ';' | '!' | '\u{2009}' | '\u{202f}' => 0.32,
-            'f' | 't' | 'r' | 'I' | '(' | ')' | '[' | ']' | ' ' | '\u{a0}' | '-' | '·' => 0.40,
-            'm' | 'w' | 'M' | 'W' | '—' | '%' | '@' => 0.95,
-            '–' | '−' | '=' | '+' | '×' | '∝' | '≤' | '≥' | '→' | '←' => 0.66,
-            c if c.is_ascii_digit() => 0.60,
-            c if c.is_ascii_uppercase() => 0.74,
-            c if c.is_ascii_lowercase() => 0.58,
+            'i' | 'j' | 'l' | '\'' | '|' | '.' | ',' | ':' | ';' | '!' | '\u{2009}' | '\u{202f}' => 0.34,
+            'f' | 't' | 'r' | 'I' | '(' | ')' | '[' | ']' | ' ' | '\u{a0}' | '-' | '·' => 0.44,
+            'm' | 'w' | 'M' | 'W' | '—' | '%' | '@' | '…' => 1.0,
+            '–' | '−' | '=' | '+' | '×' | '∝' | '≤' | '≥' | '→' | '←' => 0.86,
+            c if c.is_ascii_digit() => 0.64,
+            c if c.is_ascii_uppercase() => 0.80,
+            c if c.is_ascii_lowercase() => 0.64,
             _ => 0.80,
         })
         .sum();
-    // the 600 weight is drawn bold by faces without a semibold (DejaVu Sans Bold in
-    // Debian's Chromium measures 11 % wider than the regular face)
-    em * w * if bold { 1.12 } else { 1.0 }
+    // semibold titles: DejaVu's bold runs up to about 1.13 times the book width
+    em * w * if bold { 1.14 } else { 1.0 }
 }
 
 /// The box of `text` at `size` with its left edge at `x` and its middle at `y`.

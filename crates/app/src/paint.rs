@@ -1,0 +1,224 @@
+//! Paints a [`Scene`] on a canvas and publishes on the element what tests and assistive
+//! tools need: the world transform (`data-scale`, `data-origin-x`, `data-origin-y`,
+//! `data-world-unit`) and every label's text, box and font (`data-labels`, JSON), so a
+//! browser test can measure each text with the canvas and compare it with its box.
+//!
+//! The scene says everything (geometry, inks, patterns, placed labels); this module only
+//! turns it into canvas calls. Colours come from `Ink::css`.
+
+use crate::canvas::{self, Surface};
+use springline_statics::scene::place::PAD_X;
+use springline_statics::scene::{Ink, Item, Label, Px, Rect, Scene, Shape, Stroke, Viewport};
+use web_sys::{CanvasRenderingContext2d, HtmlCanvasElement};
+
+/// The canvas's size in CSS pixels as a viewport to build a scene for; `None` while it has
+/// no size (not laid out yet).
+pub fn viewport_of(canvas: &HtmlCanvasElement) -> Option<Viewport> {
+    let (w, h) = (canvas.client_width() as f64, canvas.client_height() as f64);
+    (w > 0.0 && h > 0.0).then(|| Viewport::new(w, h))
+}
+
+/// Paints `scene` on `canvas` (sharp at the device pixel ratio) and publishes its
+/// transform and labels on the element. Does nothing while the canvas has no size.
+pub fn paint(canvas: &HtmlCanvasElement, scene: &Scene) {
+    let Some(surface) = canvas::prepare(canvas) else { return };
+    let Surface { ctx, width, height } = &surface;
+    ctx.set_fill_style_str(Ink::Background.css());
+    ctx.fill_rect(0.0, 0.0, *width, *height);
+    for item in &scene.items {
+        paint_item(ctx, item);
+    }
+    for label in &scene.labels {
+        paint_label(ctx, label);
+    }
+    publish(canvas, scene);
+}
+
+fn set_stroke(ctx: &CanvasRenderingContext2d, s: &Stroke) {
+    ctx.set_stroke_style_str(s.ink.css());
+    ctx.set_line_width(s.width);
+    let dashes = js_sys::Array::new();
+    for d in s.pattern.dashes(s.width) {
+        dashes.push(&d.into());
+    }
+    let _ = ctx.set_line_dash(&dashes);
+    // dots read as dots with round caps; dashes keep square ends
+    ctx.set_line_cap(if matches!(s.pattern, springline_statics::scene::Pattern::Dotted) {
+        "round"
+    } else {
+        "butt"
+    });
+}
+
+fn trace(ctx: &CanvasRenderingContext2d, pts: &[Px]) {
+    ctx.begin_path();
+    if let Some(first) = pts.first() {
+        ctx.move_to(first.x, first.y);
+    }
+    for p in pts.iter().skip(1) {
+        ctx.line_to(p.x, p.y);
+    }
+}
+
+fn paint_item(ctx: &CanvasRenderingContext2d, item: &Item) {
+    match &item.shape {
+        Shape::Line { from, to } => {
+            trace(ctx, &[*from, *to]);
+            stroke_and_fill(ctx, item, false);
+        }
+        Shape::Path { points, closed } => {
+            if points.len() < 2 {
+                return;
+            }
+            trace(ctx, points);
+            if *closed {
+                ctx.close_path();
+            }
+            stroke_and_fill(ctx, item, *closed);
+        }
+        Shape::Circle { center, radius } => {
+            ctx.begin_path();
+            let _ = ctx.arc(center.x, center.y, *radius, 0.0, std::f64::consts::TAU);
+            stroke_and_fill(ctx, item, true);
+        }
+        Shape::Box { rect } => {
+            ctx.begin_path();
+            ctx.rect(rect.x, rect.y, rect.w, rect.h);
+            stroke_and_fill(ctx, item, true);
+        }
+        Shape::Arrow { tail, head, head_size } => {
+            let (dx, dy) = (head.x - tail.x, head.y - tail.y);
+            let l = dx.hypot(dy);
+            if l <= 0.0 {
+                return;
+            }
+            let (ux, uy) = (dx / l, dy / l);
+            let size = head_size.min(l);
+            let base = Px::new(head.x - ux * size, head.y - uy * size);
+            if let Some(s) = &item.stroke {
+                set_stroke(ctx, s);
+                trace(ctx, &[*tail, base]);
+                ctx.stroke();
+                let _ = ctx.set_line_dash(&js_sys::Array::new());
+                // the head filled in the line's ink
+                ctx.set_fill_style_str(s.ink.css());
+                let w = 0.45 * size;
+                trace(
+                    ctx,
+                    &[
+                        *head,
+                        Px::new(base.x - uy * w, base.y + ux * w),
+                        Px::new(base.x + uy * w, base.y - ux * w),
+                    ],
+                );
+                ctx.close_path();
+                ctx.fill();
+            }
+        }
+    }
+}
+
+/// Fills (closed shapes with a fill) then strokes the current path.
+fn stroke_and_fill(ctx: &CanvasRenderingContext2d, item: &Item, closed: bool) {
+    if let (Some(fill), true) = (item.fill, closed) {
+        ctx.set_fill_style_str(fill.css());
+        ctx.fill();
+    }
+    if let Some(s) = &item.stroke {
+        set_stroke(ctx, s);
+        ctx.stroke();
+        let _ = ctx.set_line_dash(&js_sys::Array::new());
+    }
+}
+
+/// The point of `r`'s edge nearest to `p`.
+fn nearest_on_rect(r: &Rect, p: Px) -> Px {
+    Px::new(p.x.clamp(r.x, r.right()), p.y.clamp(r.y, r.bottom()))
+}
+
+fn paint_label(ctx: &CanvasRenderingContext2d, l: &Label) {
+    if let Some(to) = l.leader {
+        let from = nearest_on_rect(&l.rect, to);
+        let _ = ctx.set_line_dash(&js_sys::Array::new());
+        ctx.set_stroke_style_str(springline_statics::scene::Ink::Secondary.css());
+        ctx.set_line_width(0.8);
+        trace(ctx, &[from, to]);
+        ctx.stroke();
+    }
+    if l.boxed {
+        ctx.set_fill_style_str(springline_statics::scene::Ink::LabelBox.css());
+        ctx.fill_rect(l.rect.x, l.rect.y, l.rect.w, l.rect.h);
+    }
+    ctx.set_font(l.size.css_font());
+    ctx.set_fill_style_str(l.ink.css());
+    ctx.set_text_align("left");
+    ctx.set_text_baseline("middle");
+    let _ = ctx.fill_text(&l.text, l.rect.x + PAD_X, l.rect.y + l.rect.h / 2.0);
+}
+
+/// JSON text of a string: quoted, with quotes, backslashes and control characters
+/// escaped (RFC 8259, section 7).
+fn json_string(s: &str) -> String {
+    let mut out = String::with_capacity(s.len() + 2);
+    out.push('"');
+    for c in s.chars() {
+        match c {
+            '"' => out.push_str("\\\""),
+            '\\' => out.push_str("\\\\"),
+            c if (c as u32) < 0x20 => out.push_str(&format!("\\u{:04x}", c as u32)),
+            c => out.push(c),
+        }
+    }
+    out.push('"');
+    out
+}
+
+/// Writes the scene's transform and labels on the element: data-scale, data-origin-x,
+/// data-origin-y (CSS px; removed when the scene draws no world), data-world-unit, and
+/// data-labels (JSON: text, hover detail, box, padding and font of every label, so a test
+/// can measure the text against its box).
+fn publish(canvas: &HtmlCanvasElement, scene: &Scene) {
+    match scene.transform {
+        Some(t) => {
+            let _ = canvas.set_attribute("data-scale", &format!("{}", t.scale));
+            let _ = canvas.set_attribute("data-origin-x", &format!("{}", t.origin_x));
+            let _ = canvas.set_attribute("data-origin-y", &format!("{}", t.origin_y));
+        }
+        None => {
+            for a in ["data-scale", "data-origin-x", "data-origin-y"] {
+                let _ = canvas.remove_attribute(a);
+            }
+        }
+    }
+    let _ = canvas.set_attribute("data-world-unit", scene.world_unit);
+    let labels: Vec<String> = scene
+        .labels
+        .iter()
+        .map(|l| {
+            format!(
+                "{{\"text\":{},\"detail\":{},\"x\":{},\"y\":{},\"w\":{},\"h\":{},\"pad\":{},\"font\":{}}}",
+                json_string(&l.text),
+                l.detail.as_deref().map_or("null".to_string(), json_string),
+                l.rect.x,
+                l.rect.y,
+                l.rect.w,
+                l.rect.h,
+                PAD_X,
+                json_string(l.size.css_font())
+            )
+        })
+        .collect();
+    let _ = canvas.set_attribute("data-labels", &format!("[{}]", labels.join(",")));
+}
+
+/// The member (tag) of the scene's member line nearest to `at` (CSS pixels) within
+/// `tolerance` pixels; members drawn later (the highlight) count once.
+pub fn member_at(scene: &Scene, at: (f64, f64), tolerance: f64) -> Option<usize> {
+    let segments = scene.items.iter().filter_map(|i| match (&i.shape, i.tag) {
+        (Shape::Line { from, to }, springline_statics::scene::Tag::Member { member }) => {
+            Some((member, (from.x, from.y), (to.x, to.y)))
+        }
+        _ => None,
+    });
+    canvas::nearest_segment(at, segments, tolerance)
+}
