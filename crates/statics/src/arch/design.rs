@@ -315,16 +315,32 @@ impl Design {
     pub fn rise(&self) -> f64 {
         match self.crown {
             Crown::Rise { rise } => rise,
-            Crown::Level { level } => level - 0.5 * (self.springing_left_level + self.springing_right_level),
+            Crown::Level { level } => level - self.chord_level_at_crown(),
         }
     }
 
     /// Level of the rib axis at the crown, m.
     pub fn crown_level(&self) -> f64 {
         match self.crown {
-            Crown::Rise { rise } => 0.5 * (self.springing_left_level + self.springing_right_level) + rise,
+            Crown::Rise { rise } => self.chord_level_at_crown() + rise,
             Crown::Level { level } => level,
         }
+    }
+
+    /// Level of the springing chord at the crown x, m: the mean of the two springing
+    /// levels, the crown x being midway between the springings. The rise is measured up
+    /// from it.
+    pub fn chord_level_at_crown(&self) -> f64 {
+        0.5 * (self.springing_left_level + self.springing_right_level)
+    }
+
+    /// Sets the rise to `rise`, m, keeping the way the crown is given: a crown given by
+    /// level moves to the chord level plus `rise`. No check here (validation judges it).
+    pub fn set_rise(&mut self, rise: f64) {
+        self.crown = match self.crown {
+            Crown::Rise { .. } => Crown::Rise { rise },
+            Crown::Level { .. } => Crown::Level { level: self.chord_level_at_crown() + rise },
+        };
     }
 
     /// Deck line load over the full width, kN/m (positive down): (dead + surfacing) times
