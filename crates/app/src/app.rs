@@ -50,6 +50,7 @@ pub fn App() -> impl IntoView {
                     <ElevationCanvas />
                     <ForceCanvas />
                 </div>
+                <crate::components::status::StatusLine />
                 <ResultsPanel />
             </section>
         </main>

@@ -3,4 +3,5 @@
 pub mod canvases;
 pub mod controls;
 pub mod results;
+pub mod status;
 pub mod toolbar;
