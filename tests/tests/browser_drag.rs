@@ -144,6 +144,7 @@ fn a_crown_dragged_over_the_deck_stops_at_the_largest_rise_says_why_and_moves_no
     );
     let readouts: Vec<&str> = during.iter().filter_map(|r| r["readout"].as_str()).collect();
     assert!(readouts.iter().any(|r| r.starts_with("rise ") && r.ends_with("\u{a0}m")), "{readouts:?}");
+    std::fs::write(screenshots_dir().join("drag-stopped.png"), s.screenshot()).expect("screenshot");
     let hidden = s.exec("return getComputedStyle(document.getElementById('drag-value')).display;", vec![]);
     assert_eq!(hidden, json!("none"), "the readout hides when the drag ends");
 

@@ -11,9 +11,10 @@ use leptos::prelude::*;
 use springline_statics::arch::edit::largest_rise;
 use springline_statics::error::Field;
 
-/// Height of the status line: two lines of text, so the longest messages (a largest rise
-/// with where the rib meets the deck) fit without the line growing.
-const STATUS_STYLE: &str = "height: 3em; line-height: 1.5em; overflow: hidden; margin: 6px 0 0; \
+/// Height of the status line: three lines of text, so the longest messages (a largest
+/// rise with where the rib meets the deck) fit at 1024 px without the line growing; on
+/// narrower screens the line scrolls rather than grows or cuts the text off.
+const STATUS_STYLE: &str = "height: 4.5em; line-height: 1.5em; overflow-y: auto; margin: 6px 0 0; \
                             padding: 0 10px; border-radius: 4px; font-size: 13px; box-sizing: border-box;";
 
 /// The fixed-height status line, with the pointer readout.
