@@ -290,6 +290,21 @@ pub fn drag_to_with(
                 let back = behind(gx, start.0, px) || behind(gy, start.1, py);
                 let design =
                     if !back && grid != *from && accept(&grid).is_ok() { grid } else { from.clone() };
+                // the refusal the user reads: one grid step further along each coordinate
+                // that moves (round numbers), as for a level below
+                let further = |g: f64, s: f64, target: f64| {
+                    if target == s {
+                        g
+                    } else {
+                        snap(g + SNAP_STEP.copysign(target - s))
+                    }
+                };
+                let next =
+                    moved(from, handle, further(gx, start.0, x), further(gy, start.1, y), Snapping::Free);
+                let stopped = match accept(&next) {
+                    Err(e) => Some(e),
+                    Ok(()) => stopped,
+                };
                 return DragStep { design, stopped };
             }
             // one value: the rise for the crown, a level otherwise
@@ -732,6 +747,10 @@ mod tests {
         let p = step.design.valley[4];
         assert!(p.x < 60.0 && p.x >= 45.0, "{p:?}");
         assert_eq!((snap(p.x), p.y), (p.x, 66.0));
+        // the reason given is that of the next grid step, where x reaches the next point
+        let mut next = d.clone();
+        next.valley[4].x = snap(p.x + SNAP_STEP);
+        assert_eq!(step.stopped, analyze(&next).err());
         assert!(step.stopped.is_some());
         assert!(analyze(&step.design).is_ok());
     }
