@@ -170,3 +170,37 @@ fn a_crown_dragged_over_the_deck_stops_at_the_largest_rise_says_why_and_moves_no
     assert!(same_boxes(&boxes(&s), &before), "after dragging back: {} != {before}", boxes(&s));
     assert!(severe(&s).is_empty(), "{:?}", severe(&s));
 }
+
+#[test]
+fn a_rise_typed_over_the_largest_is_refused_and_told_the_largest_rise() {
+    let server = StaticServer::start(&dist());
+    let driver = Driver::start();
+    let s = driver.session(1024, 768, 1.0);
+    open(&s, &server);
+    let limit = largest_rise(&Design::demo()).expect("the demo is valid");
+    let hint = |s: &Session| text_of(s, "rise-limit");
+    assert_eq!(hint(&s), "", "no hint before a refused rise");
+    // 21.9 m: under the input ceiling (crown at the deck, 22 m) but over the largest rise
+    assert!(limit.rise < 21.9 && 21.9 < 22.0, "{limit:?}");
+    set_field(&s, "rise", "21.9");
+    s.wait_for(
+        "the largest rise beside the rise field",
+        "return document.getElementById('rise-limit').textContent.length > 0",
+        WAIT,
+    );
+    let words = hint(&s);
+    s.exec("document.getElementById('rise').scrollIntoView({ block: 'center' });", vec![]);
+    std::fs::write(screenshots_dir().join("rise-limit.png"), s.screenshot()).expect("screenshot");
+    let expected =
+        format!("The largest rise the layout takes is {}", limit.rise.to_string().get(..4).unwrap_or(""));
+    assert!(words.starts_with(&expected), "{words} (expected to start {expected})");
+    assert!(words.contains("right of mid-span"), "{words}");
+    // the design is unchanged (the results still show the demo's rise; the field keeps
+    // the text typed, beside its message); a rise under the limit is accepted and the
+    // hint goes
+    assert_eq!(shown_number(&text_of(&s, "result-rise")), 19.5);
+    set_field(&s, "rise", "21");
+    s.wait_for("the hint to go", "return document.getElementById('rise-limit').textContent === ''", WAIT);
+    assert_eq!(rise_field(&s), 21.0);
+    assert!(severe(&s).is_empty(), "{:?}", severe(&s));
+}

@@ -97,7 +97,8 @@ pub fn RiseLimitHint() -> impl IntoView {
         })
     });
     view! {
-        <div class="advice" id="rise-limit">
+        // the look of the advice inside a field (it stands between two fields)
+        <div class="advice" id="rise-limit" style="font-size: 12px; color: #7a4b00; margin: 0 0 4px;">
             {move || hint.get().map(|h| view! { <p>{h}</p> })}
         </div>
     }
