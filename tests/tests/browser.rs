@@ -256,7 +256,7 @@ fn results_follow_the_load_case_the_drawings_show() {
     let half = a.summary.springings[1].clone();
     assert!((half.left.thrust - dead.left.thrust).abs() > 1.0, "the cases differ");
     assert_result(&s, "result-left-h", dead.left.thrust);
-    set_field(&s, "load-case", "1");
+    s.exec("document.querySelector('button.scenario[data-case-index=\"1\"]').click();", vec![]);
     s.wait_for(
         "the table to follow the case",
         &format!(
@@ -274,7 +274,7 @@ fn results_follow_the_load_case_the_drawings_show() {
     ] {
         assert_result(&s, id, value);
     }
-    set_field(&s, "load-case", "0");
+    s.exec("document.querySelector('button.scenario[data-case-index=\"0\"]').click();", vec![]);
     s.wait_for(
         "the table to return to the dead case",
         &format!(

@@ -1,8 +1,12 @@
-//! The page: header with the caution, control panels, the two drawings and the results.
+//! The page: header with the caution, the design inputs, the load case buttons, the two
+//! drawings and the results. Wide windows put the inputs in a column on the left; below
+//! 1100 px the drawings come first and the inputs fold away behind one button
+//! (`web/style.css` places the parts; the markup order is the reading order of a phone).
 
 use crate::components::canvases::{ElevationCanvas, ForceCanvas};
 use crate::components::controls::{ArchPanel, GroundPanel, LoadsPanel, RoadwayPanel, SectionsPanel};
 use crate::components::results::ResultsPanel;
+use crate::components::scenarios::ScenarioButtons;
 use crate::components::toolbar::Toolbar;
 use crate::permalink_sync;
 use crate::state::AppState;
@@ -11,11 +15,11 @@ use leptos::prelude::*;
 /// The whole app.
 #[component]
 pub fn App() -> impl IntoView {
-    let (design, notice) = permalink_sync::initial_design();
+    let (design, notice, view) = permalink_sync::initial_design();
     let state = AppState::new(design);
     state.notice.set(notice);
     provide_context(state);
-    permalink_sync::install(state);
+    permalink_sync::install(state, view);
     // canvases follow the window size
     let handle =
         window_event_listener(leptos::ev::resize, move |_| state.resized.update(|n| *n = n.wrapping_add(1)));
@@ -23,7 +27,7 @@ pub fn App() -> impl IntoView {
     let name = move || state.design.with(|d| d.name.clone());
     view! {
         <header class="top">
-            <div class="brand">"Springline"</div>
+            <h1 class="brand">"Springline"</h1>
             <div class="design-name">{name}</div>
             <Toolbar />
             <p class="caution" role="note">
@@ -37,50 +41,48 @@ pub fn App() -> impl IntoView {
             </div>
         </Show>
         <main class="layout">
-            <aside class="controls" aria-label="Design controls">
-                <GroundPanel />
-                <RoadwayPanel />
-                <ArchPanel />
-                <LoadsPanel />
-                <SectionsPanel />
-            </aside>
-            <section class="drawings">
-                <CaseSelector />
+            <section class="drawings" aria-label="Drawings">
+                <ScenarioButtons />
                 <div class="canvas-row">
                     <ElevationCanvas />
                     <ForceCanvas />
                 </div>
                 <crate::components::status::StatusLine />
-                <ResultsPanel />
             </section>
+            <DesignInputs />
+            <ResultsPanel />
         </main>
     }
 }
 
-/// Chooses the load case the drawings show.
+/// The design input panels. In a narrow window they fold away behind the "Design
+/// inputs" button (closed at first, so the drawings lead); in a wide one the button is
+/// hidden and the panels always show (`web/style.css`).
 #[component]
-fn CaseSelector() -> impl IntoView {
-    let state = expect_context::<AppState>();
-    let options = move || {
-        state
-            .analysis
-            .get()
-            .map(|a| {
-                a.load_cases
-                    .iter()
-                    .enumerate()
-                    .map(|(i, c)| view! { <option value=i.to_string() selected=move || state.case.get() == i>{c.description.to_string()}</option> })
-                    .collect_view()
-            })
-            .ok()
-    };
+fn DesignInputs() -> impl IntoView {
+    let open = RwSignal::new(false);
     view! {
-        <div class="case-row">
-            <label for="load-case">"Drawings show"</label>
-            <select id="load-case" on:change=move |ev| state.case.set(event_target_value(&ev).parse().unwrap_or(0))>
-                {options}
-            </select>
-            <span class="hint">"Tension teal, compression orange. Drag the crown, a springing, the deck or a ground point."</span>
-        </div>
+        <aside class="controls" class:open=move || open.get() aria-labelledby="inputs-title">
+            <h2 class="inputs-title" id="inputs-title">
+                <button
+                    type="button"
+                    id="inputs-toggle"
+                    aria-expanded=move || open.get().to_string()
+                    aria-controls="inputs-body"
+                    on:click=move |_| open.update(|o| *o = !*o)
+                >
+                    <span class="fold-mark" aria-hidden="true">{move || if open.get() { "▾" } else { "▸" }}</span>
+                    "Design inputs"
+                </button>
+                <span class="inputs-label">"Design inputs"</span>
+            </h2>
+            <div class="inputs-body" id="inputs-body">
+                <GroundPanel />
+                <RoadwayPanel />
+                <ArchPanel />
+                <LoadsPanel />
+                <SectionsPanel />
+            </div>
+        </aside>
     }
 }

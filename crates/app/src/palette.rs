@@ -27,5 +27,3 @@ pub const REACTION: &str = "#2d4f8a";
 pub const HIGHLIGHT: &str = "#e3b505";
 /// Halo under a highlighted member.
 pub const HIGHLIGHT_HALO: &str = "rgba(227,181,5,0.35)";
-/// The thrust line.
-pub const THRUST_LINE: &str = "#b0276b";

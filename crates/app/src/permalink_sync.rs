@@ -1,42 +1,116 @@
-//! Keeps the URL fragment and the design in step: the design is read from the link on
-//! load and when a link is pasted (hashchange); the fragment follows the design after a
-//! short pause, replacing the history entry so the back button is not flooded.
+//! Keeps the URL fragment and the open design in step, and remembers the units.
+//!
+//! The design is read from the link on load and when a link is pasted (hashchange); the
+//! fragment follows the design after a short pause, replacing the history entry so the
+//! back button is not flooded. After the design payload the fragment carries a view
+//! part (`#s2.xxxx~view:c=half-left;u=us`, `link::permalink::split_view`): the load case
+//! shown, by its stable id, and the units. The unit choice is also kept in the browser's
+//! storage, so a reload or a plain address opens in the units last chosen.
 
+use crate::format::Units;
 use crate::state::AppState;
 use leptos::prelude::*;
-use springline_statics::link::permalink;
+use springline_statics::arch::cases::find_case;
+use springline_statics::link::permalink::{self, split_view, with_view, ViewState};
 use springline_statics::{analyze, Design};
 use std::time::Duration;
 
 /// Pause before the address bar follows an edit.
 const URL_DEBOUNCE: Duration = Duration::from_millis(300);
+/// The browser storage key of the unit choice (`si` or `us`).
+const UNITS_KEY: &str = "springline.units";
 
-/// The design to open first: the link's, or the demo with a notice when the link is bad.
-pub fn initial_design() -> (Design, Option<String>) {
+/// The design to open first (the link's, or the demo with a notice when the link is
+/// bad) and what the link says about the view (kept even when its design part is bad:
+/// the view part is read on its own).
+pub fn initial_design() -> (Design, Option<String>, ViewState) {
     let hash = web_sys::window().and_then(|w| w.location().hash().ok()).unwrap_or_default();
-    if hash.trim_start_matches('#').is_empty() {
-        return (Design::demo(), None);
+    let (design_part, view) = split_view(&hash);
+    if design_part.trim_start_matches('#').is_empty() {
+        return (Design::demo(), None, view);
     }
     // a link must hold a design that analyses, not only one that validates
-    let opened = permalink::decode(&hash).map_err(|e| e.to_string()).and_then(|d| match analyze(&d) {
+    let opened = permalink::decode(design_part).map_err(|e| e.to_string()).and_then(|d| match analyze(&d) {
         Ok(_) => Ok(d),
         Err(e) => Err(format!("its design cannot be analysed: {e}")),
     });
     match opened {
-        Ok(d) => (d, None),
+        Ok(d) => (d, None, view),
         Err(e) => (
             Design::demo(),
             Some(format!("This link could not be opened ({e}). Showing the demo design instead.")),
+            view,
         ),
     }
 }
 
-/// Installs the two-way sync.
-pub fn install(state: AppState) {
-    // design -> fragment, debounced
+/// The unit choice kept in the browser's storage; `None` when there is none or storage
+/// is unavailable (private modes, blocked storage): the page then opens in SI.
+fn stored_units() -> Option<Units> {
+    let storage = web_sys::window()?.local_storage().ok()??;
+    Units::from_key(&storage.get_item(UNITS_KEY).ok()??)
+}
+
+/// Keeps the unit choice in storage; silently does nothing when storage is unavailable.
+fn store_units(units: Units) {
+    if let Some(Ok(Some(storage))) = web_sys::window().map(|w| w.local_storage()) {
+        let _ = storage.set_item(UNITS_KEY, units.key());
+    }
+}
+
+/// Shows the case with link id `id` (or its family: a heavier panel at another panel
+/// point) if the analysis has one; otherwise the choice stays.
+fn show_case(state: AppState, id: &str) {
+    let found = state.analysis.with_untracked(|a| {
+        a.as_ref().ok().and_then(|a| find_case(a.load_cases.iter().map(|c| &c.description), id))
+    });
+    if let Some(index) = found {
+        if state.case.get_untracked() != index {
+            state.case.set(index);
+        }
+    }
+}
+
+/// Applies what a link says about the view (units, load case); what it does not say
+/// stays as it is.
+fn apply_view(state: AppState, view: &ViewState) {
+    if let Some(units) = view.units {
+        if state.units.get_untracked() != units {
+            state.units.set(units);
+        }
+    }
+    if let Some(id) = &view.case {
+        show_case(state, id);
+    }
+}
+
+/// Installs the two-way sync; `view` is what the opening link said about the view.
+pub fn install(state: AppState, view: ViewState) {
+    // units: the link's, else the stored choice, else SI; every change is stored
+    if let Some(units) = view.units.or_else(stored_units) {
+        state.units.set(units);
+    }
+    apply_view(state, &view);
+    Effect::new(move |_| store_units(state.units.get()));
+    // the case shown follows its id when the design changes (a new panel count moves the
+    // heavier panel: the same kind of case stays shown)
+    let shown_id = StoredValue::new(case_id(state));
+    Effect::new(move |_| {
+        state.case.track();
+        shown_id.set_value(case_id(state));
+    });
+    Effect::new(move |_| {
+        state.analysis.track();
+        if let Some(id) = shown_id.get_value() {
+            show_case(state, &id);
+        }
+    });
+    // design and view -> fragment, debounced
     let generation = StoredValue::new(0u64);
     Effect::new(move |_| {
         state.design.track();
+        state.case.track();
+        state.units.track();
         generation.update_value(|g| *g += 1);
         let mine = generation.get_value();
         set_timeout(
@@ -57,14 +131,19 @@ pub fn install(state: AppState) {
             URL_DEBOUNCE,
         );
     });
-    // pasted link -> design (one undo step); a bad link leaves the open design as it is
+    // pasted link -> design (one undo step) and view; a bad link leaves the open design
     let handle = window_event_listener(leptos::ev::hashchange, move |_| {
         let hash = web_sys::window().and_then(|w| w.location().hash().ok()).unwrap_or_default();
         let current = current_fragment(state);
         if hash == current {
             return;
         }
-        let opened = permalink::decode(&hash).map_err(|e| e.to_string()).and_then(|d| {
+        let (design_part, view) = split_view(&hash);
+        if design_part == design_fragment(state) {
+            apply_view(state, &view);
+            return;
+        }
+        let opened = permalink::decode(design_part).map_err(|e| e.to_string()).and_then(|d| {
             state.check(&d).map_err(|e| format!("its design cannot be analysed: {e}"))?;
             Ok(d)
         });
@@ -72,6 +151,7 @@ pub fn install(state: AppState) {
             Ok(d) => {
                 state.notice.set(None);
                 state.commit(d);
+                apply_view(state, &view);
             }
             Err(e) => {
                 state
@@ -87,9 +167,21 @@ pub fn install(state: AppState) {
     on_cleanup(move || handle.remove());
 }
 
-/// The URL fragment of the open design.
-fn current_fragment(state: AppState) -> String {
+/// The stable id of the case shown, if the design analyses.
+fn case_id(state: AppState) -> Option<String> {
+    let index = state.case.get_untracked();
+    state.analysis.with_untracked(|a| a.as_ref().ok()?.load_cases.get(index).map(|c| c.description.id()))
+}
+
+/// The fragment of the open design alone (`#s2.xxxx`).
+fn design_fragment(state: AppState) -> String {
     state.design.with_untracked(|d| format!("#{}", permalink::encode(d)))
+}
+
+/// The URL fragment of the open design with the view part (case shown, units).
+fn current_fragment(state: AppState) -> String {
+    let view = ViewState { case: case_id(state), units: Some(state.units.get_untracked()) };
+    with_view(&design_fragment(state), &view)
 }
 
 /// The whole link of the design on screen: this page's address with the design encoded

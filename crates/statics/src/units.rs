@@ -8,8 +8,36 @@ pub enum Units {
     /// m, kN, kNm, kN/m2, MPa.
     #[default]
     Si,
-    /// ft, kip, kip-ft, ksf, ksi.
+    /// ft, kip, kip-ft, psf (area loads), kip/ft (line loads), in (section depths), ksi.
     UsCustomary,
+}
+
+impl Units {
+    /// The short key of the system in links and browser storage: `si` or `us`.
+    pub fn key(self) -> &'static str {
+        match self {
+            Units::Si => "si",
+            Units::UsCustomary => "us",
+        }
+    }
+
+    /// The system of a key written by [`Units::key`]; `None` for any other text (a
+    /// caller keeps its own choice then).
+    pub fn from_key(key: &str) -> Option<Units> {
+        match key {
+            "si" => Some(Units::Si),
+            "us" => Some(Units::UsCustomary),
+            _ => None,
+        }
+    }
+
+    /// The other system (the header's switch).
+    pub fn other(self) -> Units {
+        match self {
+            Units::Si => Units::UsCustomary,
+            Units::UsCustomary => Units::Si,
+        }
+    }
 }
 
 /// Kinds of quantity shown on screen.
@@ -21,8 +49,12 @@ pub enum Quantity {
     Force,
     /// kNm / kip-ft.
     Moment,
-    /// kN/m2 / ksf (area loads).
+    /// kN/m2 / psf (area loads: dead load, surfacing, live load over the deck).
     Pressure,
+    /// kN/m / kip/ft (line loads: a load per metre of deck, the whole width).
+    LineLoad,
+    /// m / in (section depths, the thrust line's offsets from the rib axis).
+    SectionDepth,
     /// kN/m2 (E) shown as GPa / ksi.
     Modulus,
     /// m2 / in2.
@@ -41,6 +73,10 @@ pub enum Quantity {
 pub const KN_PER_KIP: f64 = 4.448_221_615_260_5;
 /// 1 ft = 0.3048 m (exact).
 pub const M_PER_FT: f64 = 0.3048;
+/// 1 in = 0.0254 m (exact).
+pub const M_PER_IN: f64 = 0.0254;
+/// 1 kip = 1000 lbf: psf (lbf/ft2) per ksf (kip/ft2).
+const LBF_PER_KIP: f64 = 1000.0;
 
 impl Quantity {
     /// A short name for data attributes ("force", "length", ...).
@@ -50,6 +86,8 @@ impl Quantity {
             Quantity::Force => "force",
             Quantity::Moment => "moment",
             Quantity::Pressure => "pressure",
+            Quantity::LineLoad => "line-load",
+            Quantity::SectionDepth => "section-depth",
             Quantity::Modulus => "modulus",
             Quantity::Area => "area",
             Quantity::Inertia => "inertia",
@@ -68,6 +106,8 @@ impl Units {
             (Units::Si, Quantity::Force) => (1.0, "kN"),
             (Units::Si, Quantity::Moment) => (1.0, "kNm"),
             (Units::Si, Quantity::Pressure) => (1.0, "kN/m²"),
+            (Units::Si, Quantity::LineLoad) => (1.0, "kN/m"),
+            (Units::Si, Quantity::SectionDepth) => (1.0, "m"),
             (Units::Si, Quantity::Modulus) => (1e-6, "GPa"),
             (Units::Si, Quantity::Area) => (1.0, "m²"),
             (Units::Si, Quantity::Inertia) => (1.0, "m⁴"),
@@ -75,10 +115,14 @@ impl Units {
             (Units::UsCustomary, Quantity::Length) => (1.0 / M_PER_FT, "ft"),
             (Units::UsCustomary, Quantity::Force) => (1.0 / KN_PER_KIP, "kip"),
             (Units::UsCustomary, Quantity::Moment) => (1.0 / (KN_PER_KIP * M_PER_FT), "kip·ft"),
-            (Units::UsCustomary, Quantity::Pressure) => (M_PER_FT * M_PER_FT / KN_PER_KIP, "ksf"),
-            (Units::UsCustomary, Quantity::Modulus) => ((0.0254 * 0.0254) / KN_PER_KIP, "ksi"),
-            (Units::UsCustomary, Quantity::Area) => (1.0 / (0.0254 * 0.0254), "in²"),
-            (Units::UsCustomary, Quantity::Inertia) => (1.0 / 0.0254f64.powi(4), "in⁴"),
+            (Units::UsCustomary, Quantity::Pressure) => {
+                (M_PER_FT * M_PER_FT / KN_PER_KIP * LBF_PER_KIP, "psf")
+            }
+            (Units::UsCustomary, Quantity::LineLoad) => (M_PER_FT / KN_PER_KIP, "kip/ft"),
+            (Units::UsCustomary, Quantity::SectionDepth) => (1.0 / M_PER_IN, "in"),
+            (Units::UsCustomary, Quantity::Modulus) => ((M_PER_IN * M_PER_IN) / KN_PER_KIP, "ksi"),
+            (Units::UsCustomary, Quantity::Area) => (1.0 / (M_PER_IN * M_PER_IN), "in²"),
+            (Units::UsCustomary, Quantity::Inertia) => (1.0 / M_PER_IN.powi(4), "in⁴"),
             (Units::UsCustomary, Quantity::UnitWeight) => (M_PER_FT.powi(3) / KN_PER_KIP * 1000.0, "pcf"),
             (_, Quantity::Count) => (1.0, ""),
             (_, Quantity::Angle) => (1.0, "°"),
@@ -176,14 +220,17 @@ mod tests {
     #[test]
     fn us_customary_factors_match_definitions() {
         // (quantity, SI value of one US unit, its label): kip = 1000 lbf in kN; ft exact;
-        // kip-ft = kip x ft in kNm (exact); ksf = kip / ft2 and ksi = kip / in2 in kN/m2;
+        // kip-ft = kip x ft in kNm (exact); psf = lbf / ft2 and ksi = kip / in2 in kN/m2;
+        // kip/ft in kN/m; in exact;
         // in2 and in4 exact; pcf = lbf / ft3 in kN/m3. Relative tolerance 1e-14: the values
         // are exact or carry 16 significant digits, a few ulps of f64.
         let defined = [
             (Quantity::Force, 4.448_221_615_260_5, "kip"),
             (Quantity::Length, 0.3048, "ft"),
             (Quantity::Moment, 1.355_817_948_331_400_4, "kip·ft"),
-            (Quantity::Pressure, 47.880_258_980_335_84, "ksf"),
+            (Quantity::Pressure, 0.047_880_258_980_335_84, "psf"),
+            (Quantity::LineLoad, 14.593_902_937_206_365, "kip/ft"),
+            (Quantity::SectionDepth, 0.0254, "in"),
             (Quantity::Modulus, 6_894.757_293_168_361, "ksi"),
             (Quantity::Area, 6.4516e-4, "in²"),
             (Quantity::Inertia, 4.162_314_256e-7, "in⁴"),
@@ -199,8 +246,32 @@ mod tests {
         // the named constants themselves, against the definitions they stand for
         assert!((KN_PER_KIP - 0.453_592_37 * 9.806_65).abs() < 1e-15 * KN_PER_KIP);
         assert_eq!(M_PER_FT, 0.3048);
+        assert_eq!(M_PER_IN, 0.0254);
         // SI shows as it is, E in GPa: 210e6 kN/m2 = 210 GPa
         assert_eq!(Units::Si.to_shown(Quantity::Force, 123.4), 123.4);
         assert!((Units::Si.to_shown(Quantity::Modulus, 210e6) - 210.0).abs() < 1e-12);
+        assert_eq!(Units::Si.label(Quantity::LineLoad), "kN/m");
+        assert_eq!(Units::Si.to_shown(Quantity::SectionDepth, 1.8), 1.8);
+    }
+
+    /// The demo's 5.0 kN/m2 of surfacing-like area load reads in psf as a US engineer
+    /// writes it (about 104.4 psf: 5.0 / 0.047 880 258 98), not as 0.104 ksf; a 1.8 m rib
+    /// depth is 70.87 in (1.8 / 0.0254).
+    #[test]
+    fn us_area_loads_read_in_psf_and_depths_in_inches() {
+        assert_eq!(Units::UsCustomary.show(Quantity::Pressure, 5.0), "104.4\u{a0}psf");
+        assert_eq!(Units::UsCustomary.show(Quantity::SectionDepth, 1.8), "70.87\u{a0}in");
+        assert_eq!(Units::UsCustomary.show(Quantity::LineLoad, 55.0), "3.769\u{a0}kip/ft");
+    }
+
+    #[test]
+    fn unit_keys_round_trip_and_refuse_other_text() {
+        for u in [Units::Si, Units::UsCustomary] {
+            assert_eq!(Units::from_key(u.key()), Some(u));
+            assert_ne!(u.other(), u);
+            assert_eq!(u.other().other(), u);
+        }
+        assert_eq!(Units::from_key("US"), None);
+        assert_eq!(Units::from_key(""), None);
     }
 }

@@ -124,6 +124,10 @@ pub fn NumberField(
     /// edit's problems are shown once by the caller, not beside each input.
     #[prop(optional)]
     shared_field: bool,
+    /// What the field is, in full, for assistive tools when the visible label is short
+    /// ("Ground point 3, x" beside a visible "x").
+    #[prop(optional, into)]
+    spoken: Option<String>,
 ) -> impl IntoView {
     let state = expect_context::<AppState>();
     // what is wrong with the text typed here (not a number, out of range); the engine's
@@ -188,6 +192,7 @@ pub fn NumberField(
                 id=id.clone()
                 type="text"
                 inputmode="decimal"
+                aria-label=spoken
                 aria-describedby=error_id.clone()
                 prop:value=shown_value
                 on:change=move |ev| commit(event_target_value(&ev))
@@ -251,12 +256,16 @@ pub fn GroundPanel() -> impl IntoView {
                     });
                 };
                 // x and y are one design field: its problems show once, under the row
+                let point = i + 1;
+                let remove_label = format!("Remove ground point {point}");
                 view! {
-                    <div class="ground-row">
-                        <span class="index">{i + 1}</span>
-                        <NumberField label="x" id=format!("ground-{i}-x") field=Field::ValleyPoint(i) quantity=Quantity::Length value=x on_commit=set_x min=-1e5 max=1e5 shared_field=true />
-                        <NumberField label="y" id=format!("ground-{i}-y") field=Field::ValleyPoint(i) quantity=Quantity::Length value=y on_commit=set_y min=-1e4 max=1e4 shared_field=true />
-                        <button class="small" title="remove this ground point" on:click=remove>"×"</button>
+                    <div class="ground-row" role="group" aria-label=format!("Ground point {point}")>
+                        <span class="index" aria-hidden="true">{point}</span>
+                        <NumberField label="x" spoken=format!("Ground point {point}, x") id=format!("ground-{i}-x") field=Field::ValleyPoint(i) quantity=Quantity::Length value=x on_commit=set_x min=-1e5 max=1e5 shared_field=true />
+                        <NumberField label="y" spoken=format!("Ground point {point}, y (level)") id=format!("ground-{i}-y") field=Field::ValleyPoint(i) quantity=Quantity::Length value=y on_commit=set_y min=-1e4 max=1e4 shared_field=true />
+                        <button type="button" class="small remove" id=format!("ground-{i}-remove") title=remove_label.clone() aria-label=remove_label on:click=remove>
+                            <span aria-hidden="true">"×"</span>
+                        </button>
                     </div>
                     <FieldProblems field=Field::ValleyPoint(i) id=format!("ground-{i}-error") />
                 }
@@ -280,7 +289,7 @@ pub fn GroundPanel() -> impl IntoView {
     };
     view! {
         <details class="panel" open>
-            <summary>"Ground"</summary>
+            <summary><h3>"Ground"</h3></summary>
             <p class="hint">"Valley section, left to right (x along the crossing, y level)."</p>
             <div class="field">
                 <label for="ground-preset">"Preset"</label>
@@ -290,7 +299,7 @@ pub fn GroundPanel() -> impl IntoView {
                 </select>
             </div>
             {rows}
-            <button class="small" on:click=add>"add ground point"</button>
+            <button type="button" class="small" id="ground-add" on:click=add>"add ground point"</button>
             <FieldProblems field=Field::Valley id="ground-error" />
         </details>
     }
@@ -341,7 +350,7 @@ pub fn presets() -> Vec<(&'static str, Vec<GroundPoint>)> {
 pub fn RoadwayPanel() -> impl IntoView {
     view! {
         <details class="panel" open>
-            <summary>"Roadway"</summary>
+            <summary><h3>"Roadway"</h3></summary>
             {design_field("Deck level", "deck-level", Field::DeckLevel, Quantity::Length, |d| d.deck.level, |d, v| d.deck.level = v, (-1e4, 1e4), false)}
             {design_field("Left seat x", "seat-left", Field::LeftSeatX, Quantity::Length, |d| d.deck.left_seat_x, |d, v| d.deck.left_seat_x = v, (-1e5, 1e5), false)}
             {design_field("Right seat x", "seat-right", Field::RightSeatX, Quantity::Length, |d| d.deck.right_seat_x, |d, v| d.deck.right_seat_x = v, (-1e5, 1e5), false)}
@@ -399,7 +408,7 @@ pub fn ArchPanel() -> impl IntoView {
     });
     view! {
         <details class="panel" open>
-            <summary>"Arch"</summary>
+            <summary><h3>"Arch"</h3></summary>
             {design_field("Left springing level", "springing-left", Field::SpringingLeftLevel, Quantity::Length, |d| d.springing_left_level, |d, v| d.springing_left_level = v, (-1e4, 1e4), false)}
             {design_field("Right springing level", "springing-right", Field::SpringingRightLevel, Quantity::Length, |d| d.springing_right_level, |d, v| d.springing_right_level = v, (-1e4, 1e4), false)}
             <NumberField label="Rise" id="rise" field=Field::CrownRise quantity=Quantity::Length value=crown_value on_commit=set_rise min=0.0 max=1e4 />
@@ -434,7 +443,7 @@ pub fn ArchPanel() -> impl IntoView {
 pub fn LoadsPanel() -> impl IntoView {
     view! {
         <details class="panel" open>
-            <summary>"Loads"</summary>
+            <summary><h3>"Loads"</h3></summary>
             {design_field("Deck dead load", "dead-load", Field::DeadLoad, Quantity::Pressure, |d| d.deck.dead_load, |d, v| d.deck.dead_load = v, (0.0, 100.0), false)}
             {design_field("Surfacing", "surfacing", Field::Surfacing, Quantity::Pressure, |d| d.deck.surfacing, |d, v| d.deck.surfacing = v, (0.0, 50.0), false)}
             <p class="hint">"Self-weights of rib, posts, bracing and deck girder follow from the sections."</p>
@@ -459,6 +468,7 @@ pub fn SectionsPanel() -> impl IntoView {
     type Prop = (
         &'static str,
         &'static str,
+        &'static str,
         SectionProperty,
         Quantity,
         fn(&Section) -> f64,
@@ -466,20 +476,40 @@ pub fn SectionsPanel() -> impl IntoView {
         (f64, f64),
     );
     let props: [Prop; 5] = [
-        ("E", "e", SectionProperty::E, Quantity::Modulus, |s| s.e, |s, v| s.e = v, (1e5, 1e9)),
-        ("A", "a", SectionProperty::A, Quantity::Area, |s| s.a, |s, v| s.a = v, (1e-5, 100.0)),
-        ("I", "i", SectionProperty::I, Quantity::Inertia, |s| s.i, |s, v| s.i = v, (1e-10, 1000.0)),
+        (
+            "E",
+            "Young's modulus E",
+            "e",
+            SectionProperty::E,
+            Quantity::Modulus,
+            |s| s.e,
+            |s, v| s.e = v,
+            (1e5, 1e9),
+        ),
+        ("A", "area A", "a", SectionProperty::A, Quantity::Area, |s| s.a, |s, v| s.a = v, (1e-5, 100.0)),
+        (
+            "I",
+            "second moment of area I",
+            "i",
+            SectionProperty::I,
+            Quantity::Inertia,
+            |s| s.i,
+            |s, v| s.i = v,
+            (1e-10, 1000.0),
+        ),
         (
             "depth",
             "depth",
+            "depth",
             SectionProperty::Depth,
-            Quantity::Length,
+            Quantity::SectionDepth,
             |s| s.depth,
             |s, v| s.depth = v,
             (0.01, 20.0),
         ),
         (
             "weight",
+            "unit weight",
             "w",
             SectionProperty::UnitWeight,
             Quantity::UnitWeight,
@@ -493,12 +523,12 @@ pub fn SectionsPanel() -> impl IntoView {
         .map(|(name, key, group, get, set)| {
             let cells = props
                 .into_iter()
-                .map(|(label, pkey, property, q, pget, pset, range)| {
+                .map(|(label, what, pkey, property, q, pget, pset, range)| {
                     let field = Field::Section(group, property);
                     let value = Signal::derive(move || state.design.with(|d| pget(get(d))));
                     let on_commit = Callback::new(move |v: f64| state.try_edit(field, |d| pset(set(d), v)));
                     view! {
-                        <NumberField label id=format!("section-{key}-{pkey}") field quantity=q value on_commit min=range.0 max=range.1 />
+                        <NumberField label spoken=format!("{name}, {what} (per rib line)") id=format!("section-{key}-{pkey}") field quantity=q value on_commit min=range.0 max=range.1 />
                     }
                 })
                 .collect_view();
@@ -507,7 +537,7 @@ pub fn SectionsPanel() -> impl IntoView {
         .collect_view();
     view! {
         <details class="panel">
-            <summary>"Sections"</summary>
+            <summary><h3>"Sections"</h3></summary>
             <p class="hint">"Per rib line; the plane model carries all ribs together."</p>
             {rows}
         </details>

@@ -3,5 +3,6 @@
 pub mod canvases;
 pub mod controls;
 pub mod results;
+pub mod scenarios;
 pub mod status;
 pub mod toolbar;

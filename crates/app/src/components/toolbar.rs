@@ -46,24 +46,23 @@ pub fn Toolbar() -> impl IntoView {
         Units::Si => "units: SI",
         Units::UsCustomary => "units: US",
     };
-    let toggle_units = move |_| {
-        state.units.update(|u| {
-            *u = match u {
-                Units::Si => Units::UsCustomary,
-                Units::UsCustomary => Units::Si,
-            }
-        })
+    let units_spoken = move || match state.units.get() {
+        Units::Si => "Units: SI. Switch to US customary",
+        Units::UsCustomary => "Units: US customary. Switch to SI",
     };
+    // the choice is kept in the browser's storage and the link (`permalink_sync`)
+    let toggle_units = move |_| state.units.update(|u| *u = u.other());
     view! {
-        <div class="toolbar">
-            <button id="undo" title="Undo (Ctrl+Z)" on:click=move |_| { state.undo(); }
-                prop:disabled=move || state.past.with(|p| p.is_empty())>"↶ undo"</button>
-            <button id="redo" title="Redo (Ctrl+Shift+Z)" on:click=move |_| { state.redo(); }
-                prop:disabled=move || state.future.with(|f| f.is_empty())>"↷ redo"</button>
-            <button id="units" title="Switch SI / US customary" on:click=toggle_units>{units_label}</button>
-            <button id="copy-link" title="Copy a link that opens this design" on:click=copy>
+        <div class="toolbar" role="toolbar" aria-label="Design tools">
+            <button type="button" id="undo" title="Undo (Ctrl+Z)" aria-label="Undo" on:click=move |_| { state.undo(); }
+                prop:disabled=move || state.past.with(|p| p.is_empty())><span aria-hidden="true">"↶ "</span>"undo"</button>
+            <button type="button" id="redo" title="Redo (Ctrl+Shift+Z)" aria-label="Redo" on:click=move |_| { state.redo(); }
+                prop:disabled=move || state.future.with(|f| f.is_empty())><span aria-hidden="true">"↷ "</span>"redo"</button>
+            <button type="button" id="units" title="Switch SI / US customary" aria-label=units_spoken on:click=toggle_units>{units_label}</button>
+            <button type="button" id="copy-link" title="Copy a link that opens this design, with the load case and units shown" on:click=copy>
                 {move || if copied.get() { "link copied" } else { "copy link" }}
             </button>
+            <span class="visually-hidden" role="status">{move || if copied.get() { "Link copied" } else { "" }}</span>
         </div>
     }
 }

@@ -24,6 +24,7 @@ use crate::arch::layout::{position, Joint, Layout, Topology};
 use crate::arch::validate::ValidDesign;
 use crate::error::{Location, StaticsError};
 use crate::frame::model::{LoadCase, NodalLoad};
+use crate::units::{Quantity, Units};
 use serde::{Deserialize, Serialize};
 use std::fmt;
 
@@ -135,6 +136,78 @@ impl fmt::Display for CaseKind {
             CaseKind::Other => f.write_str("deck loads"),
         }
     }
+}
+
+impl CaseKind {
+    /// The case's id in links: stable when more cases arrive, because it is built from
+    /// what the case is, never from its place in a list. `dead`, `half-left`,
+    /// `half-right`, `panel-N` (N the panel point, 0 over the left springing), `deck-loads`
+    /// for any other case. Lower-case ASCII letters, digits and `-` only, so it travels in
+    /// a URL fragment as it is.
+    pub fn id(&self) -> String {
+        match *self {
+            CaseKind::Dead => "dead".into(),
+            CaseKind::HalfSpan { half, .. } => format!("half-{half}"),
+            CaseKind::DoubledPanel { panel, .. } => format!("panel-{panel}"),
+            CaseKind::Other => "deck-loads".into(),
+        }
+    }
+
+    /// The family of the id (`dead`, `half-left`, `half-right`, `panel`, `deck-loads`):
+    /// what stays the same when a design change moves the loaded panel point.
+    fn family(&self) -> String {
+        match self {
+            CaseKind::DoubledPanel { .. } => "panel".into(),
+            other => other.id(),
+        }
+    }
+
+    /// A short title in words, without numbers or units (a button, a table caption):
+    /// "Dead load", "Live load, left half", "Heavier panel 3", "Deck loads".
+    pub fn title(&self) -> String {
+        match *self {
+            CaseKind::Dead => "Dead load".into(),
+            CaseKind::HalfSpan { half, .. } => format!("Live load, {half} half"),
+            CaseKind::DoubledPanel { panel, .. } => format!("Heavier panel {panel}"),
+            CaseKind::Other => "Deck loads".into(),
+        }
+    }
+
+    /// The case in words with its numbers shown in `units` (area load, line load, load,
+    /// positions): what `Display` says in SI, for a screen that may show US customary.
+    pub fn describe(&self, units: Units) -> String {
+        let show = |q, v| units.show(q, v);
+        match *self {
+            CaseKind::HalfSpan { half, intensity, line_load, x0, x1 } => format!(
+                "dead load plus {} over the deck width ({}) on the {half} half of the arch span \
+                 (x = {} to {}), reaching the deck joints as panel reactions",
+                show(Quantity::Pressure, intensity),
+                show(Quantity::LineLoad, line_load),
+                show(Quantity::Length, x0),
+                show(Quantity::Length, x1),
+            ),
+            CaseKind::DoubledPanel { panel, load, x } => format!(
+                "dead load plus the deck panel load again ({}) at panel point {panel} (x = {}): \
+                 that panel load doubled",
+                show(Quantity::Force, load),
+                show(Quantity::Length, x),
+            ),
+            other => other.to_string(),
+        }
+    }
+}
+
+/// The index of the case with link id `id` among `kinds` (in the analysis's order): the
+/// case with that id, else the first of the same family (a heavier panel that moved to
+/// another panel point when the panel count changed), else `None` (the caller shows the
+/// first case).
+pub fn find_case<'a>(kinds: impl IntoIterator<Item = &'a CaseKind>, id: &str) -> Option<usize> {
+    let kinds: Vec<&CaseKind> = kinds.into_iter().collect();
+    kinds.iter().position(|k| k.id() == id).or_else(|| {
+        let family = id.split_once('-').filter(|(f, n)| *f == "panel" && n.parse::<usize>().is_ok());
+        let family = family.map_or(id, |(f, _)| f);
+        kinds.iter().position(|k| k.family() == family)
+    })
 }
 
 impl fmt::Display for Half {
@@ -380,5 +453,44 @@ mod tests {
         assert!(doubled_panel(&v, 0).is_err() && doubled_panel(&v, d.panels).is_err());
         let bad = CaseSpec { loads: vec![DeckLoad::PanelPoint { panel: 99, p: 1.0 }], ..spec };
         assert!(build_case(&v, &model, &bad).is_err());
+    }
+
+    #[test]
+    fn case_ids_name_what_the_case_is_and_survive_a_new_panel_count() {
+        let v = ValidDesign::new(&Design::demo()).expect("valid");
+        let kinds: Vec<CaseKind> =
+            std::iter::once(CaseKind::Dead).chain(standard_cases(&v).into_iter().map(|c| c.kind)).collect();
+        let ids: Vec<String> = kinds.iter().map(CaseKind::id).collect();
+        // the demo's 12 panels: the quarter point is panel point 12 / 4 = 3
+        assert_eq!(ids, ["dead", "half-left", "panel-3"]);
+        assert_eq!(find_case(&kinds, "panel-3"), Some(2));
+        assert_eq!(find_case(&kinds, "half-left"), Some(1));
+        // a link of an 8-panel design (panel 2) opened on this one: the heavier panel
+        assert_eq!(find_case(&kinds, "panel-2"), Some(2));
+        // more cases in front do not move an id
+        let more: Vec<CaseKind> = std::iter::once(CaseKind::Other).chain(kinds.iter().copied()).collect();
+        assert_eq!(find_case(&more, "half-left"), Some(2));
+        // not a case of this analysis, or not an id at all
+        assert_eq!(find_case(&kinds, "half-right"), None);
+        assert_eq!(find_case(&kinds, "panel-x"), None);
+        assert_eq!(find_case(&kinds, ""), None);
+        assert!(ids
+            .iter()
+            .all(|id| id.bytes().all(|b| b.is_ascii_lowercase() || b.is_ascii_digit() || b == b'-')));
+    }
+
+    #[test]
+    fn case_titles_are_words_and_descriptions_convert_units() {
+        let half =
+            CaseKind::HalfSpan { half: Half::Left, intensity: 5.0, line_load: 55.0, x0: 30.0, x1: 83.2 };
+        assert_eq!(half.title(), "Live load, left half");
+        assert_eq!(CaseKind::DoubledPanel { panel: 3, load: 913.5, x: 56.6 }.title(), "Heavier panel 3");
+        let us = half.describe(Units::UsCustomary);
+        // 5.0 kN/m2 = 104.4 psf; 55 kN/m = 3.769 kip/ft; 30 m = 98.43 ft (NIST SP 811 factors)
+        assert!(us.contains("104.4\u{a0}psf") && us.contains("3.769\u{a0}kip/ft"), "{us}");
+        assert!(us.contains("x = 98.43\u{a0}ft"), "{us}");
+        assert!(!us.contains("kN") && !us.contains(" m "), "{us}");
+        let si = half.describe(Units::Si);
+        assert!(si.contains("5.000\u{a0}kN/m²") && si.contains("55.00\u{a0}kN/m)"), "{si}");
     }
 }

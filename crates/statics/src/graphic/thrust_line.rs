@@ -14,7 +14,7 @@
 use crate::error::StaticsError;
 use crate::frame::model::Model;
 use crate::frame::solver::CaseResult;
-use crate::geom::Point;
+use crate::geom::{Point, Vector};
 use serde::{Deserialize, Serialize};
 
 /// The centre of pressure at one rib section.
@@ -74,6 +74,36 @@ pub struct ThrustLine {
     /// Geometric factor of safety: depth / least depth = depth / (2 max |offset|);
     /// `None` when the line follows the axis exactly.
     pub geometric_safety_factor: Option<f64>,
+}
+
+impl ThrustLine {
+    /// Unit normals of the sections, aligned with `sections`: the left-hand normal of the
+    /// rib direction at each section (towards the extrados for a rib drawn from the left
+    /// springing), the direction along which `offset` is measured. The rib direction is the
+    /// chord to the next section (the last section takes the chord from the one before),
+    /// as the sections themselves are built. Degenerate cases: a single section, or two
+    /// sections at one point, give the upward normal (0, 1).
+    pub fn section_normals(&self) -> Vec<Vector> {
+        let n = self.sections.len();
+        (0..n)
+            .map(|i| {
+                let (a, b) = if i + 1 < n {
+                    (self.sections[i].axis, self.sections[i + 1].axis)
+                } else if n >= 2 {
+                    (self.sections[n - 2].axis, self.sections[n - 1].axis)
+                } else {
+                    return Vector { x: 0.0, y: 1.0 };
+                };
+                let t = b - a;
+                let l = t.length();
+                if l > 0.0 && l.is_finite() {
+                    Vector { x: -t.y / l, y: t.x / l }
+                } else {
+                    Vector { x: 0.0, y: 1.0 }
+                }
+            })
+            .collect()
+    }
 }
 
 /// The rib's members in order from the left springing to the right one, with a flag
@@ -448,6 +478,27 @@ mod tests {
             // a fixed rib carries end moments: the line leaves the springing off the axis
             assert!(tl.sections[0].offset.abs() > 0.0);
         }
+    }
+
+    /// The section normals are the directions the offsets were measured along: every
+    /// section with an offset has `point = axis + offset * normal` (the definition of
+    /// `offset`), and every normal is a unit vector.
+    #[test]
+    fn section_normals_carry_the_offsets_to_the_pressure_points() {
+        let text = include_str!("../../../../tests/reference/models/bare_rib.json");
+        let m: Model = serde_json::from_str(text).expect("model");
+        let mut checked = 0;
+        for tl in check_moments(&m, 1.0) {
+            let normals = tl.section_normals();
+            assert_eq!(normals.len(), tl.sections.len());
+            for (s, n) in tl.sections.iter().zip(&normals) {
+                assert!((n.length() - 1.0).abs() < 1e-12);
+                let back = s.axis + *n * s.offset;
+                assert!(back.distance(s.point) <= 1e-9 * (1.0 + s.offset.abs()), "{back:?} vs {:?}", s.point);
+                checked += 1;
+            }
+        }
+        assert!(checked > 4);
     }
 
     /// Regression: results of a different model (more members than the model) used to

@@ -31,6 +31,23 @@
 //! * In a URL the payload is the fragment: `...#s2.xxxx`. [`decode`] also accepts the
 //!   fragment with its `#`, the payload alone, or the fragment keyed as `#d=s2.xxxx`.
 //!
+//! # The view part (what the screen shows, not the design)
+//!
+//! A fragment may go on after the design payload with a *view part*:
+//!
+//! ```text
+//! #s2.xxxx~view:c=half-left;u=us
+//! ```
+//!
+//! * `~` ends the design payload (it is outside the base64url alphabet, so no payload
+//!   holds it); what follows is the view part, read by [`split_view`] into a
+//!   [`ViewState`]. The design payload is byte for byte what [`encode`] writes, with or
+//!   without a view part, and [`decode`] reads the design alone.
+//! * `view:` then `key=value` pairs separated by `;`: `c` the load case shown (the stable
+//!   id of `CaseKind::id`: `dead`, `half-left`, `panel-3` ...), `u` the display units
+//!   (`si` or `us`). Unknown keys, bad values and a view part of another kind are
+//!   ignored: a view part can never stop a design from opening.
+//!
 //! # Caps (a hostile link costs little)
 //!
 //! * at most [`MAX_LINK_LEN`] bytes of input, refused before any work;
@@ -48,6 +65,7 @@ use crate::arch::design::{Design, DESIGN_VERSION};
 use crate::arch::design_file::OLDEST_DESIGN_VERSION;
 use crate::arch::validate::validate_design;
 use crate::error::{Field, LinkError, Problem, StaticsError, VersionRange};
+use crate::units::Units;
 use base64::Engine as _;
 use serde::{Deserialize, Serialize};
 use std::ops::RangeInclusive;
@@ -58,6 +76,12 @@ pub const CURRENT_FORMAT: &str = "s2";
 pub const READABLE_FORMATS: &[&str] = &["s1", "s2"];
 /// The optional key before the payload in a URL fragment (`#d=s2.xxxx`).
 pub const LINK_KEY: &str = "d=";
+/// Where the design payload of a fragment ends and its view part begins.
+pub const VIEW_SEPARATOR: char = '~';
+/// The kind prefix of the view part this reader knows (`~view:c=dead;u=si`).
+pub const VIEW_PREFIX: &str = "view:";
+/// Longest load case id a view part carries (longer ones are ignored).
+const MAX_CASE_ID_LEN: usize = 40;
 /// Longest input [`decode`] looks at, bytes (a link of the demo design is well under
 /// 2,000; URLs much longer than this are cut by some browsers and chat tools anyway).
 pub const MAX_LINK_LEN: usize = 8_000;
@@ -98,7 +122,7 @@ pub fn encode(design: &Design) -> String {
 ///
 /// `link` may be a whole URL (the part after the first `#` is read), a fragment with or
 /// without its `#`, optionally keyed as `d=`, or the payload alone; surrounding white
-/// space is ignored. Every format in [`READABLE_FORMATS`] is read; a link of an older
+/// space and a view part (`~view:...`, see [`split_view`]) are ignored. Every format in [`READABLE_FORMATS`] is read; a link of an older
 /// design format is updated (fields it lacks take their defaults).
 ///
 /// Errors (never a panic, whatever the input): `StaticsError::Link` with a kind whose
@@ -127,12 +151,93 @@ fn decode_unchecked(link: &str) -> Result<Design, LinkError> {
     }
 }
 
-/// The format tag and the data of a link, after the caps on its length and shape.
+/// What a link says about the screen, apart from the design: the load case shown and the
+/// display units. Each is `None` when the link does not say (or says it in a way this
+/// reader does not understand): the app keeps its own choice then.
+#[derive(Debug, Clone, Default, PartialEq, Eq)]
+pub struct ViewState {
+    /// The stable id of the load case shown (`CaseKind::id`: `dead`, `half-left`, ...).
+    pub case: Option<String>,
+    /// The display units.
+    pub units: Option<Units>,
+}
+
+impl ViewState {
+    /// The view part's text after `~`: `view:c=dead;u=us` (only the keys that are set);
+    /// empty when nothing is set. Put it after a design payload with [`with_view`].
+    pub fn encode(&self) -> String {
+        let mut pairs = Vec::new();
+        if let Some(case) = self.case.as_deref().filter(|c| is_case_id(c)) {
+            pairs.push(format!("c={case}"));
+        }
+        if let Some(units) = self.units {
+            pairs.push(format!("u={}", units.key()));
+        }
+        if pairs.is_empty() {
+            String::new()
+        } else {
+            format!("{VIEW_PREFIX}{}", pairs.join(";"))
+        }
+    }
+
+    /// Reads the text after `~`. Lenient by design: a text that does not start with
+    /// `view:`, unknown keys, a case id with other characters than `a-z 0-9 -` (or longer
+    /// than 40) and units other than `si` / `us` are ignored; of a key given twice the last
+    /// one counts. Never fails.
+    pub fn parse(text: &str) -> ViewState {
+        let mut view = ViewState::default();
+        let Some(body) = text.trim().strip_prefix(VIEW_PREFIX) else { return view };
+        for pair in body.split(';') {
+            match pair.split_once('=') {
+                Some(("c", id)) if is_case_id(id) => view.case = Some(id.to_string()),
+                Some(("u", key)) => {
+                    if let Some(units) = Units::from_key(key) {
+                        view.units = Some(units);
+                    }
+                }
+                _ => {}
+            }
+        }
+        view
+    }
+}
+
+/// A case id as links carry it: 1 to 40 of `a-z`, `0-9`, `-`.
+fn is_case_id(id: &str) -> bool {
+    !id.is_empty()
+        && id.len() <= MAX_CASE_ID_LEN
+        && id.bytes().all(|b| b.is_ascii_lowercase() || b.is_ascii_digit() || b == b'-')
+}
+
+/// Splits a link (a whole URL, a fragment or a payload, as [`decode`] takes) at the
+/// first `~` into the design part (everything before it, unchanged) and the view part
+/// read by [`ViewState::parse`]; a link without `~` is all design part and says nothing
+/// about the view. Never fails: a bad view part is an empty `ViewState`.
+pub fn split_view(link: &str) -> (&str, ViewState) {
+    match link.split_once(VIEW_SEPARATOR) {
+        Some((design, view)) => (design, ViewState::parse(view)),
+        None => (link, ViewState::default()),
+    }
+}
+
+/// A design payload (or fragment) followed by the view part of `view`: `s2.xxxx~view:...`;
+/// the design part unchanged when `view` says nothing.
+pub fn with_view(design_part: &str, view: &ViewState) -> String {
+    let text = view.encode();
+    if text.is_empty() {
+        design_part.to_string()
+    } else {
+        format!("{design_part}{VIEW_SEPARATOR}{text}")
+    }
+}
+
+/// The format tag and the data of a link, after the caps on its length and shape. A view
+/// part (after `~`) is not the design's: it is left out here.
 fn payload(link: &str) -> Result<(&str, &str), LinkError> {
     if link.len() > MAX_LINK_LEN {
         return Err(LinkError::TooLong { length: link.len(), limit: MAX_LINK_LEN });
     }
-    let trimmed = link.trim();
+    let trimmed = split_view(link).0.trim();
     let fragment = match trimmed.split_once('#') {
         Some((_, fragment)) => fragment,
         None => trimmed,
@@ -742,5 +847,77 @@ mod tests {
                 }
             }
         }
+    }
+
+    /// The view part: the design payload stays byte for byte what `encode` writes, the
+    /// view travels after `~`, and no view part (bad, unknown, empty) changes what opens.
+    #[test]
+    fn the_view_part_rides_after_the_design_and_never_changes_it() {
+        let demo = Design::demo();
+        let payload = encode(&demo);
+        let view = ViewState { case: Some("half-left".into()), units: Some(Units::UsCustomary) };
+        let link = with_view(&payload, &view);
+        assert_eq!(link, format!("{payload}~view:c=half-left;u=us"));
+        assert_eq!(split_view(&link), (payload.as_str(), view.clone()));
+        assert_eq!(decode(&link), Ok(demo.clone()));
+        assert_eq!(decode(&format!("https://example.invalid/app/#{link}")), Ok(demo.clone()));
+        // nothing set: no view part at all, today's link exactly
+        assert_eq!(with_view(&payload, &ViewState::default()), payload);
+        // each key alone; the last of a repeated key; unknown keys skipped
+        assert_eq!(ViewState::parse("view:u=si").units, Some(Units::Si));
+        assert_eq!(ViewState::parse("view:c=dead;c=panel-3").case.as_deref(), Some("panel-3"));
+        assert_eq!(
+            ViewState::parse("view:zoom=2;c=dead;theme=dark"),
+            ViewState { case: Some("dead".into()), units: None }
+        );
+        // bad view parts: ignored, the design opens all the same
+        for bad in [
+            "",
+            "view:",
+            "view:u=metric",
+            "view:c=Dead Load",
+            "view:c=",
+            "other:c=dead",
+            "~~",
+            "view:c=a;b;;=",
+        ] {
+            let (_, v) = split_view(&format!("{payload}~{bad}"));
+            assert!(v.units.is_none(), "{bad}: {v:?}");
+            assert!(v.case.is_none() || bad == "view:c=a;b;;=", "{bad}: {v:?}");
+            assert_eq!(decode(&format!("#{payload}~{bad}")), Ok(demo.clone()), "{bad}");
+        }
+        assert_eq!(ViewState::parse(&format!("view:c={}", "a".repeat(41))).case, None);
+        // a case id that is not one is not written either
+        let odd = ViewState { case: Some("Dead load".into()), units: None };
+        assert_eq!(odd.encode(), "");
+        // the view part does not rescue a bad design part
+        assert!(decode("s2.AAAA~view:c=dead").is_err());
+        assert_eq!(kind(decode("~view:c=dead")), LinkError::Empty);
+    }
+
+    /// Every committed link fixture (formats s1 and s2) opens to the same design with a
+    /// view part after it, good or bad.
+    #[test]
+    fn committed_fixture_links_open_unchanged_with_a_view_part() {
+        let dir = std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("../../tests/fixtures/links");
+        let mut seen = 0;
+        let mut formats = std::collections::BTreeSet::new();
+        for entry in std::fs::read_dir(&dir).expect("fixture folder") {
+            let path = entry.expect("entry").path();
+            if path.extension().and_then(|e| e.to_str()) != Some("link") {
+                continue;
+            }
+            let link = std::fs::read_to_string(&path).expect("fixture link");
+            formats.insert(link.trim().trim_start_matches('#').get(..2).unwrap_or_default().to_string());
+            let plain = decode(&link).expect("fixture opens");
+            for view in ["~view:c=panel-3;u=us", "~view:u=nonsense", "~whatever"] {
+                let with = format!("{}{view}", link.trim());
+                assert_eq!(decode(&with), Ok(plain.clone()), "{}{view}", path.display());
+            }
+            seen += 1;
+        }
+        // 3 links of format s1 and 4 of s2 are committed
+        assert!(seen >= 7, "only {seen} fixture links found");
+        assert_eq!(formats.into_iter().collect::<Vec<_>>(), ["s1", "s2"]);
     }
 }

@@ -8,6 +8,7 @@
 //!
 //! Colours are named by what they mean ([`Ink`]); [`Ink::css`] gives our palette.
 
+pub mod force;
 pub mod place;
 
 use serde::Serialize;
@@ -60,7 +61,10 @@ impl Rect {
     }
     /// Whether `inner` lies wholly inside this rectangle (edges included).
     pub fn contains(&self, inner: &Rect) -> bool {
-        inner.x >= self.x && inner.y >= self.y && inner.right() <= self.right() && inner.bottom() <= self.bottom()
+        inner.x >= self.x
+            && inner.y >= self.y
+            && inner.right() <= self.right()
+            && inner.bottom() <= self.bottom()
     }
     /// Grown by `d` pixels on every side.
     pub fn grown(&self, d: f64) -> Rect {
@@ -480,11 +484,11 @@ mod tests {
     /// Known ratios: black on white is 21:1, white on white 1:1 (WCAG 2.1 definition).
     #[test]
     fn contrast_ratio_matches_the_wcag_extremes() {
-        assert!((contrast_ratio("#000000", "#ffffff").unwrap() - 21.0).abs() < 1e-9);
-        assert!((contrast_ratio("#ffffff", "#ffffff").unwrap() - 1.0).abs() < 1e-12);
+        assert!((contrast_ratio("#000000", "#ffffff").expect("opaque hex") - 21.0).abs() < 1e-9);
+        assert!((contrast_ratio("#ffffff", "#ffffff").expect("opaque hex") - 1.0).abs() < 1e-12);
         // #767676 on white is the well-known lightest grey reaching 4.5:1 (from memory:
         // 4.54:1)
-        let g = contrast_ratio("#767676", "#ffffff").unwrap();
+        let g = contrast_ratio("#767676", "#ffffff").expect("opaque hex");
         assert!((g - 4.54).abs() < 0.01, "{g}");
         assert_eq!(contrast_ratio("rgba(0,0,0,1)", "#ffffff"), None);
     }

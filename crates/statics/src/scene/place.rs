@@ -33,7 +33,9 @@ pub fn text_width(text: &str, size: TextSize) -> f64 {
             _ => 0.80,
         })
         .sum();
-    em * w * if bold { 1.06 } else { 1.0 }
+    // the 600 weight is drawn bold by faces without a semibold (DejaVu Sans Bold in
+    // Debian's Chromium measures 11 % wider than the regular face)
+    em * w * if bold { 1.12 } else { 1.0 }
 }
 
 /// The box of `text` at `size` with its left edge at `x` and its middle at `y`.
@@ -221,7 +223,13 @@ impl Placer {
 
     /// Places a label at exactly `rect` when it is free (titles, keys laid out by the
     /// caller); `None` when it is not.
-    pub fn place_at(&mut self, text: impl Into<String>, size: TextSize, ink: Ink, rect: Rect) -> Option<usize> {
+    pub fn place_at(
+        &mut self,
+        text: impl Into<String>,
+        size: TextSize,
+        ink: Ink,
+        rect: Rect,
+    ) -> Option<usize> {
         if !self.is_free(&rect) {
             return None;
         }
@@ -344,7 +352,8 @@ mod tests {
     #[test]
     fn a_label_at_the_edge_moves_inside_rather_than_being_clipped() {
         let mut p = Placer::new(frame());
-        let i = p.place(Request::new("reaction 8 140 kN", TextSize::Body, Ink::Reaction, Px::new(298.0, 100.0)));
+        let i =
+            p.place(Request::new("reaction 8 140 kN", TextSize::Body, Ink::Reaction, Px::new(298.0, 100.0)));
         let labels = p.finish();
         let r = labels[i.expect("placed")].rect;
         assert!(frame().contains(&r), "{r:?}");
@@ -355,7 +364,11 @@ mod tests {
     fn a_label_without_room_falls_back_to_its_short_form_then_is_reported() {
         let mut p = Placer::new(Rect::new(0.0, 0.0, 60.0, 20.0));
         let long = "A, B, C, D, E, F, G, H";
-        let i = p.place(Request::new(long, TextSize::Small, Ink::Text, Px::new(30.0, 10.0)).short("A–H").sides(&[Side::Centre]));
+        let i = p.place(
+            Request::new(long, TextSize::Small, Ink::Text, Px::new(30.0, 10.0))
+                .short("A–H")
+                .sides(&[Side::Centre]),
+        );
         let labels = p.finish();
         let l = &labels[i.expect("short form placed")];
         assert_eq!(l.text, "A–H");
@@ -370,7 +383,8 @@ mod tests {
     fn reserved_areas_stay_free() {
         let mut p = Placer::new(frame());
         p.reserve(Rect::new(0.0, 0.0, 300.0, 40.0));
-        let i = p.place(Request::new("crown", TextSize::Body, Ink::Text, Px::new(150.0, 30.0))).expect("placed");
+        let i =
+            p.place(Request::new("crown", TextSize::Body, Ink::Text, Px::new(150.0, 30.0))).expect("placed");
         assert!(p.clone().finish()[i].rect.y >= 40.0);
     }
 

@@ -1,0 +1,1112 @@
+//! The force canvas as a scene. What it shows depends on the design:
+//!
+//! - braced spandrels: the reciprocal figure of the truss idealisation (Bow's notation)
+//!   and, in an area of its own, the pole construction of the same case's loads on the
+//!   bare rib (load line, pole, rays, pole distance H). Each area is fitted, zoomed and
+//!   panned on its own, so neither is squeezed by the other's scale; they sit side by
+//!   side or stacked, whichever gives the figures the larger scale;
+//! - unbraced spandrels: the thrust line of the frame model's rib against the rib depth
+//!   and its middle third (offsets exaggerated so the depth reads);
+//! - otherwise: why nothing can be drawn, wrapped to the width.
+//!
+//! Shapes are clipped to their area (a zoomed figure never spills into the other area);
+//! labels are placed by [`place::Placer`] inside their area and never cover each other.
+//!
+//! Naming: Bow's notation names spaces with capital letters (outside) and numerals
+//! (inside), so the pole of the rib's construction is called [`POLE_NAME`], a lower-case
+//! word no space label can be.
+
+use super::place::{self, Placer, Request, Side, PAD_X};
+use super::{Ink, Item, Label, Pattern, Px, Rect, Scene, Shape, Stroke, Tag, TextSize, Transform, Viewport};
+use crate::arch::analysis::Analysis;
+use crate::graphic::funicular::PoleConstruction;
+use crate::graphic::reciprocal::{ForceDiagram, SegmentOf, SpaceKind};
+use crate::graphic::thrust_line::ThrustLine;
+use crate::tolerance::ZERO_FORCE;
+use crate::units::{Quantity, Units};
+use serde::Serialize;
+
+/// The name written at the pole of the rib's pole construction. Bow's labels are capital
+/// letters and numerals, so a lower-case word can never clash with a space's name (the
+/// pole used to be called "O", which is also a space letter in larger figures).
+pub const POLE_NAME: &str = "pole";
+
+/// Width of the top-right corner the scene keeps free for the app's zoom buttons, CSS px.
+pub const CONTROLS_WIDTH: f64 = 100.0;
+/// Height of that corner, CSS px.
+pub const CONTROLS_HEIGHT: f64 = 32.0;
+
+/// Smallest and largest zoom factor relative to the fitted (or fixed) scale.
+pub const ZOOM_LIMITS: (f64, f64) = (0.2, 40.0);
+
+/// Margin around the drawing, CSS px.
+const MARGIN: f64 = 8.0;
+/// Gap between the two areas, CSS px.
+const AREA_GAP: f64 = 8.0;
+/// Canvases lower than this (CSS px) leave out the header's reading hint.
+const SHORT_CANVAS: f64 = 360.0;
+/// Room kept inside an area around the fitted figure for its labels, CSS px.
+const AREA_PAD: f64 = 14.0;
+
+/// What an area of the force canvas shows.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+#[serde(rename_all = "snake_case")]
+pub enum AreaKind {
+    /// The reciprocal figure of the truss idealisation (world unit kN).
+    Figure,
+    /// The pole construction of the rib's loads (world unit kN).
+    Pole,
+    /// The thrust line of the frame model's rib (world unit m).
+    ThrustLine,
+}
+
+/// The user's zoom and pan of one area: the fitted (or fixed) scale times `zoom`, about
+/// the area's centre, then shifted by the pan in CSS pixels.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+pub struct AreaView {
+    /// Factor on the fitted scale (1 = fit), within [`ZOOM_LIMITS`].
+    pub zoom: f64,
+    /// Shift to the right, CSS px.
+    pub pan_x: f64,
+    /// Shift down, CSS px.
+    pub pan_y: f64,
+}
+
+impl Default for AreaView {
+    fn default() -> Self {
+        AreaView::FIT
+    }
+}
+
+impl AreaView {
+    /// Fitted: no zoom, no pan.
+    pub const FIT: AreaView = AreaView { zoom: 1.0, pan_x: 0.0, pan_y: 0.0 };
+
+    /// The view zoomed by `factor` about the CSS pixel `pointer` of `area` (the area's
+    /// rectangle, [`ForceArea::rect`]): the world point under the pointer stays under it.
+    /// The zoom is clamped to [`ZOOM_LIMITS`] (the factor actually applied shrinks to
+    /// match, so the pointer's point still stays put). A factor that is not finite or
+    /// not positive leaves the view as it is.
+    pub fn zoomed_about(self, factor: f64, pointer: Px, area: Rect) -> AreaView {
+        if !(factor.is_finite() && factor > 0.0) {
+            return self;
+        }
+        let zoom = (self.zoom * factor).clamp(ZOOM_LIMITS.0, ZOOM_LIMITS.1);
+        let k = zoom / self.zoom;
+        let (cx, cy) = centre(area);
+        // origin' = c + zoom (origin_fit - c) + pan; keeping the pointer's world point
+        // fixed gives pan' = (1 - k)(p - c) + k pan, whatever the fitted origin
+        AreaView {
+            zoom,
+            pan_x: (1.0 - k) * (pointer.x - cx) + k * self.pan_x,
+            pan_y: (1.0 - k) * (pointer.y - cy) + k * self.pan_y,
+        }
+    }
+
+    /// The view moved by (dx, dy) CSS pixels.
+    pub fn panned(self, dx: f64, dy: f64) -> AreaView {
+        AreaView { pan_x: self.pan_x + dx, pan_y: self.pan_y + dy, ..self }
+    }
+
+    /// `transform` (fitted to `area`) with this view's zoom and pan applied.
+    fn apply(self, fitted: Transform, area: Rect) -> Transform {
+        let (cx, cy) = centre(area);
+        Transform {
+            scale: fitted.scale * self.zoom,
+            origin_x: cx + self.zoom * (fitted.origin_x - cx) + self.pan_x,
+            origin_y: cy + self.zoom * (fitted.origin_y - cy) + self.pan_y,
+        }
+    }
+}
+
+fn centre(r: Rect) -> (f64, f64) {
+    (r.x + r.w / 2.0, r.y + r.h / 2.0)
+}
+
+/// Force scales to keep (kN per CSS pixel, before zoom) instead of fitting: while the
+/// user drags the design, the figure keeps its scale so a larger thrust draws longer.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+pub struct FixedScale {
+    /// The reciprocal figure's scale, kN per px.
+    pub figure: f64,
+    /// The pole construction's scale, kN per px.
+    pub pole: f64,
+}
+
+/// What the user asked of the force canvas.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct ForceOptions {
+    /// Display units of the numbers.
+    pub units: Units,
+    /// The truss member to highlight (index into the truss idealisation's members).
+    pub highlight: Option<usize>,
+    /// Zoom and pan per area, in area order ([`ForceDrawing::areas`]): the figure (or the
+    /// thrust line) first, the pole construction second.
+    pub views: [AreaView; 2],
+    /// Scales to keep instead of fitting (force areas only; the thrust line, drawn in
+    /// metres, always fits). `None` fits.
+    pub fixed_scale: Option<FixedScale>,
+}
+
+impl Default for ForceOptions {
+    fn default() -> Self {
+        ForceOptions { units: Units::Si, highlight: None, views: [AreaView::FIT; 2], fixed_scale: None }
+    }
+}
+
+/// One area of the force canvas with the transform it was drawn with.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+pub struct ForceArea {
+    /// What it shows.
+    pub kind: AreaKind,
+    /// Its rectangle on the canvas, CSS px (shapes are clipped to it).
+    pub rect: Rect,
+    /// World (kN, or m for the thrust line) to CSS px, zoom and pan included.
+    pub transform: Transform,
+    /// Pixels per world unit before zoom: fitted, or the fixed scale's.
+    pub base_scale: f64,
+}
+
+/// A force scene with what the app needs to map a pointer back: the areas and their
+/// transforms, and the labels that found no room.
+#[derive(Debug, Clone, PartialEq)]
+pub struct ForceDrawing {
+    /// The scene; its `transform` is the first area's (the figure or the thrust line).
+    pub scene: Scene,
+    /// The areas, in the order of [`ForceOptions::views`].
+    pub areas: Vec<ForceArea>,
+    /// Texts of labels that found no room even in their short form.
+    pub dropped: Vec<String>,
+}
+
+impl ForceDrawing {
+    /// Index of the area under the CSS pixel `p`.
+    pub fn area_at(&self, p: Px) -> Option<usize> {
+        self.areas.iter().position(|a| a.rect.contains(&Rect::new(p.x, p.y, 0.0, 0.0)))
+    }
+
+    /// The truss member whose drawn segment (or zero-force ring) is within `tolerance`
+    /// CSS pixels of `p`, nearest first; `None` when none is.
+    pub fn member_at(&self, p: Px, tolerance: f64) -> Option<usize> {
+        self.scene
+            .items
+            .iter()
+            .filter_map(|it| {
+                let Tag::Member { member } = it.tag else { return None };
+                let d = match &it.shape {
+                    Shape::Line { from, to } => distance_to_segment(p, *from, *to),
+                    Shape::Circle { center, radius } => {
+                        ((p.x - center.x).hypot(p.y - center.y) - radius).max(0.0)
+                    }
+                    _ => return None,
+                };
+                (d <= tolerance).then_some((member, d))
+            })
+            .min_by(|a, b| a.1.total_cmp(&b.1))
+            .map(|(m, _)| m)
+    }
+
+    /// The label whose box holds `p` (the last painted on top), if any.
+    pub fn label_at(&self, p: Px) -> Option<&Label> {
+        self.scene.labels.iter().rev().find(|l| l.rect.contains(&Rect::new(p.x, p.y, 0.0, 0.0)))
+    }
+
+    /// The force scales now drawn (before zoom), to keep fixed during a drag; `None`
+    /// when no force area is drawn (thrust line or message). A missing pole area keeps
+    /// the figure's scale for both.
+    pub fn fixed_scale(&self) -> Option<FixedScale> {
+        let per_px = |k: AreaKind| self.areas.iter().find(|a| a.kind == k).map(|a| 1.0 / a.base_scale);
+        let figure = per_px(AreaKind::Figure)?;
+        Some(FixedScale { figure, pole: per_px(AreaKind::Pole).unwrap_or(figure) })
+    }
+}
+
+/// The force canvas of load case `case` (index into `analysis.load_cases`) for a canvas
+/// `viewport`, as a scene. See [`force_drawing`].
+pub fn force_scene(analysis: &Analysis, case: usize, opts: &ForceOptions, viewport: Viewport) -> Scene {
+    force_drawing(analysis, case, opts, viewport).scene
+}
+
+/// The force canvas of load case `case` (index into `analysis.load_cases`) for a canvas
+/// `viewport` (CSS px): for braced designs the truss idealisation's reciprocal figure and
+/// the bare rib's pole construction in two areas; for unbraced ones the frame model's
+/// thrust line; otherwise the reason nothing is drawn. Forces in kN (shown in
+/// `opts.units`), tension positive; members drawn by sign (tension dashed, compression
+/// solid, zero-force a ring at its point). A case index that does not exist gives the
+/// message scene.
+pub fn force_drawing(
+    analysis: &Analysis,
+    case: usize,
+    opts: &ForceOptions,
+    viewport: Viewport,
+) -> ForceDrawing {
+    let Some(figs) = analysis.load_cases.get(case) else {
+        return message(viewport, "Force diagram not available", "there is no such load case");
+    };
+    let case_words = figs.description.to_string();
+    let why = || figs.notes.iter().map(|n| n.to_string()).collect::<Vec<_>>().join("; ");
+    if analysis.truss.is_some() {
+        match &figs.force_diagram {
+            Some(figure) => braced(
+                figure,
+                figs.rib_funicular.as_ref().map(|r| &r.construction),
+                &case_words,
+                opts,
+                viewport,
+            ),
+            None => message(viewport, "Force diagram not available", &why()),
+        }
+    } else {
+        match &figs.thrust_line {
+            Some(tl) => thrust(tl, &case_words, opts, viewport),
+            None => message(viewport, "Thrust line not available", &why()),
+        }
+    }
+}
+
+// ---------------------------------------------------------------------------------------
+// header: title, case and key lines at the top, clear of the app's buttons
+
+/// Lays out header lines from the top; returns the labels and the bottom of the header.
+struct Header {
+    labels: Vec<Label>,
+    items: Vec<Item>,
+    y: f64,
+    width: f64,
+}
+
+impl Header {
+    fn new(viewport: Viewport) -> Header {
+        Header { labels: Vec::new(), items: Vec::new(), y: MARGIN, width: viewport.width }
+    }
+
+    /// Width available to a line starting at the current height (narrower beside the
+    /// buttons' corner).
+    fn line_width(&self) -> f64 {
+        let full = self.width - 2.0 * MARGIN;
+        if self.y < CONTROLS_HEIGHT + 4.0 { full - CONTROLS_WIDTH } else { full }.max(20.0)
+    }
+
+    /// One line, shortened with "…" when it does not fit (the full text goes to hover).
+    fn line(&mut self, text: &str, size: TextSize, ink: Ink) {
+        let w = self.line_width();
+        let shown = place::fit_text(text, size, w);
+        let rect = place::text_box(&shown, size, MARGIN, self.y + size.box_height() / 2.0);
+        let detail = (shown != text).then(|| text.to_string());
+        self.labels.push(Label { text: shown, size, ink, rect, boxed: false, leader: None, detail });
+        self.y += size.box_height();
+    }
+
+    /// A paragraph wrapped at spaces to the width.
+    fn paragraph(&mut self, text: &str, size: TextSize, ink: Ink) {
+        let mut line = String::new();
+        for word in text.split(' ') {
+            let candidate = if line.is_empty() { word.to_string() } else { format!("{line} {word}") };
+            if !line.is_empty() && place::text_width(&candidate, size) + 2.0 * PAD_X > self.line_width() {
+                let done = std::mem::replace(&mut line, word.to_string());
+                self.line(&done, size, ink);
+            } else {
+                line = candidate;
+            }
+        }
+        if !line.is_empty() {
+            self.line(&line, size, ink);
+        }
+    }
+
+    /// A key: sample strokes followed by words, wrapped like [`place::flow`].
+    fn key(&mut self, entries: &[(Sample, &str)]) {
+        const SAMPLE: f64 = 20.0;
+        let size = TextSize::Small;
+        let h = size.box_height();
+        let mut x = MARGIN;
+        let mut started = false;
+        for (sample, text) in entries {
+            let w = SAMPLE + place::text_width(text, size) + 2.0 * PAD_X;
+            if started && x + w > MARGIN + self.line_width() {
+                x = MARGIN;
+                self.y += h;
+            }
+            started = true;
+            let mid = self.y + h / 2.0;
+            let (a, b) = (Px::new(x + 2.0, mid), Px::new(x + SAMPLE - 3.0, mid));
+            match sample {
+                Sample::Line(stroke) => {
+                    self.items.push(Item::stroked(Shape::Line { from: a, to: b }, *stroke))
+                }
+                Sample::Ring => self.items.push(ring(Px::new(x + SAMPLE / 2.0, mid), 3.5)),
+            }
+            let rect = place::text_box(text, size, x + SAMPLE, mid);
+            self.labels.push(Label {
+                text: text.to_string(),
+                size,
+                ink: Ink::Secondary,
+                rect,
+                boxed: false,
+                leader: None,
+                detail: None,
+            });
+            x += w + 8.0;
+        }
+        if started {
+            self.y += h;
+        }
+    }
+}
+
+enum Sample {
+    Line(Stroke),
+    Ring,
+}
+
+fn ring(center: Px, radius: f64) -> Item {
+    Item {
+        shape: Shape::Circle { center, radius },
+        stroke: Some(Stroke::solid(Ink::Zero, 1.5)),
+        fill: Some(Ink::Background),
+        tag: Tag::None,
+    }
+}
+
+fn message(viewport: Viewport, title: &str, why: &str) -> ForceDrawing {
+    let mut h = Header::new(viewport);
+    h.line(title, TextSize::Title, Ink::Text);
+    h.paragraph(if why.is_empty() { "no reason was given" } else { why }, TextSize::Body, Ink::Secondary);
+    let mut scene = Scene::new(viewport);
+    scene.world_unit = "kN";
+    scene.items = h.items;
+    scene.labels = h.labels;
+    ForceDrawing { scene, areas: Vec::new(), dropped: Vec::new() }
+}
+
+// ---------------------------------------------------------------------------------------
+// braced: reciprocal figure and pole construction
+
+/// Member stroke by sign: tension dashed teal, compression solid orange; width grows
+/// with the square root of the force's share of the largest.
+fn member_stroke(force: f64, largest: f64) -> Stroke {
+    let width = 1.0 + 1.5 * (force.abs() / largest.max(1e-300)).sqrt();
+    if force > 0.0 {
+        Stroke::patterned(Ink::Tension, width, Pattern::Dashed)
+    } else {
+        Stroke::solid(Ink::Compression, width)
+    }
+}
+
+fn bounds(points: impl IntoIterator<Item = (f64, f64)>) -> Option<(f64, f64, f64, f64)> {
+    let b = points
+        .into_iter()
+        .fold((f64::INFINITY, f64::NEG_INFINITY, f64::INFINITY, f64::NEG_INFINITY), |b, p| {
+            (b.0.min(p.0), b.1.max(p.0), b.2.min(p.1), b.3.max(p.1))
+        });
+    (b.0.is_finite() && b.2.is_finite()).then_some(b)
+}
+
+/// A box of zero width or height is widened to a tenth of the other side, so a straight
+/// load line still gets a sensible scale.
+fn padded(b: (f64, f64, f64, f64)) -> (f64, f64, f64, f64) {
+    let (w, h) = (b.1 - b.0, b.3 - b.2);
+    let least = 0.1 * w.max(h).max(1e-9);
+    let (dx, dy) = (((least - w) / 2.0).max(0.0), ((least - h) / 2.0).max(0.0));
+    (b.0 - dx, b.1 + dx, b.2 - dy, b.3 + dy)
+}
+
+/// The transform of world box `b` in `inner`: fitted, or at `fixed_per_px` (kN per px)
+/// centred on the box.
+fn fitted(b: (f64, f64, f64, f64), inner: Rect, fixed_per_px: Option<f64>) -> Transform {
+    let fit = Transform::fit(padded(b), inner);
+    match fixed_per_px {
+        Some(k) if k.is_finite() && k > 0.0 => {
+            let scale = 1.0 / k;
+            let (cx, cy) = centre(inner);
+            let (mx, my) = ((b.0 + b.1) / 2.0, (b.2 + b.3) / 2.0);
+            Transform { scale, origin_x: cx - scale * mx, origin_y: cy + scale * my }
+        }
+        _ => fit,
+    }
+}
+
+/// The two areas for the body: side by side or stacked, whichever gives the smaller of
+/// the two fitted scales the larger value.
+fn split(body: Rect, first: (f64, f64, f64, f64), second: (f64, f64, f64, f64)) -> (Rect, Rect) {
+    let side = {
+        let w1 = ((body.w - AREA_GAP) * 0.58).floor();
+        (
+            Rect::new(body.x, body.y, w1, body.h),
+            Rect::new(body.x + w1 + AREA_GAP, body.y, body.w - w1 - AREA_GAP, body.h),
+        )
+    };
+    let stacked = {
+        let h1 = ((body.h - AREA_GAP) * 0.58).floor();
+        (
+            Rect::new(body.x, body.y, body.w, h1),
+            Rect::new(body.x, body.y + h1 + AREA_GAP, body.w, body.h - h1 - AREA_GAP),
+        )
+    };
+    let worst = |(a, b): (Rect, Rect)| {
+        let s = |r: Rect, bx| Transform::fit(padded(bx), inner_of(r, TextSize::Small.box_height())).scale;
+        s(a, first).min(s(b, second))
+    };
+    if worst(side) >= worst(stacked) {
+        side
+    } else {
+        stacked
+    }
+}
+
+/// The drawing room of an area below its caption line.
+fn inner_of(area: Rect, caption: f64) -> Rect {
+    Rect::new(
+        area.x + AREA_PAD,
+        area.y + caption + AREA_PAD,
+        (area.w - 2.0 * AREA_PAD).max(10.0),
+        (area.h - caption - 2.0 * AREA_PAD).max(10.0),
+    )
+}
+
+/// Collects the shapes of one area, clipped to it.
+struct Painter {
+    clip: Rect,
+    items: Vec<Item>,
+}
+
+impl Painter {
+    fn line(&mut self, a: Px, b: Px, stroke: Stroke, tag: Tag) {
+        if let Some((p, q)) = clip_segment(a, b, self.clip) {
+            self.items.push(Item::stroked(Shape::Line { from: p, to: q }, stroke).tagged(tag));
+        }
+    }
+    fn path(&mut self, points: &[Px], stroke: Stroke) {
+        for run in clip_polyline(points, self.clip) {
+            self.items.push(Item::stroked(Shape::Path { points: run, closed: false }, stroke));
+        }
+    }
+    fn polygon(&mut self, points: &[Px], fill: Ink) {
+        let clipped = clip_polygon(points, self.clip);
+        if clipped.len() >= 3 {
+            self.items.push(Item::filled(Shape::Path { points: clipped, closed: true }, fill));
+        }
+    }
+    fn circle(&mut self, center: Px, radius: f64, stroke: Option<Stroke>, fill: Option<Ink>, tag: Tag) {
+        if self.clip.contains(&Rect::new(center.x, center.y, 0.0, 0.0)) {
+            self.items.push(Item { shape: Shape::Circle { center, radius }, stroke, fill, tag });
+        }
+    }
+    fn inside(&self, p: Px) -> bool {
+        self.clip.contains(&Rect::new(p.x, p.y, 0.0, 0.0))
+    }
+}
+
+/// An area's frame, its caption (the first of `captions` that fits the width, else the
+/// last shortened; the full first one on hover) and a placer for its labels that keeps
+/// the caption free.
+fn open_area(area: Rect, captions: &[String]) -> (Item, Label, Placer) {
+    let frame = Item::stroked(Shape::Box { rect: area }, Stroke::solid(Ink::Ray, 1.0));
+    let mut placer = Placer::new(area);
+    let size = TextSize::Small;
+    let room = area.w - 8.0;
+    let full = captions.first().cloned().unwrap_or_default();
+    let shown = captions
+        .iter()
+        .find(|c| place::text_width(c, size) + 2.0 * PAD_X <= room)
+        .cloned()
+        .unwrap_or_else(|| place::fit_text(captions.last().map_or("", |c| c.as_str()), size, room));
+    let rect = place::text_box(&shown, size, area.x + 4.0, area.y + 2.0 + size.box_height() / 2.0);
+    let detail = (shown != full).then_some(full);
+    placer.reserve(rect);
+    let label = Label { text: shown, size, ink: Ink::Secondary, rect, boxed: true, leader: None, detail };
+    (frame, label, placer)
+}
+
+fn braced(
+    figure: &ForceDiagram,
+    pole: Option<&PoleConstruction>,
+    case_words: &str,
+    opts: &ForceOptions,
+    viewport: Viewport,
+) -> ForceDrawing {
+    let units = opts.units;
+    let mut h = Header::new(viewport);
+    h.line("Force diagram · truss idealisation", TextSize::Title, Ink::Text);
+    h.line(case_words, TextSize::Small, Ink::Secondary);
+    let largest = figure.largest_force.max(1e-9);
+    h.key(&[
+        (Sample::Line(Stroke::patterned(Ink::Tension, 2.0, Pattern::Dashed)), "tension"),
+        (Sample::Line(Stroke::solid(Ink::Compression, 2.0)), "compression"),
+        (Sample::Ring, "zero force"),
+        (Sample::Line(Stroke::solid(Ink::Load, 3.0)), "loads"),
+        (Sample::Line(Stroke::solid(Ink::Reaction, 3.0)), "reactions"),
+    ]);
+    // on a short canvas the figure needs the room more than the reading hint
+    if viewport.height >= SHORT_CANVAS {
+        h.line("letters: spaces between external forces · numbers: panels", TextSize::Small, Ink::Secondary);
+    }
+    if figure.pass_through {
+        h.line(
+            "crossed bracing: drawn through pass-through joints at the crossings",
+            TextSize::Small,
+            Ink::Secondary,
+        );
+    }
+    let body = Rect::new(
+        MARGIN,
+        h.y + 4.0,
+        viewport.width - 2.0 * MARGIN,
+        (viewport.height - h.y - 4.0 - MARGIN).max(20.0),
+    );
+    let fig_box =
+        bounds(figure.spaces.iter().map(|s| (s.point.x, s.point.y))).unwrap_or((0.0, 1.0, 0.0, 1.0));
+    let pole_box = pole.and_then(|pc| {
+        bounds(pc.load_line.iter().map(|q| (q.x, q.y)).chain(std::iter::once((pc.pole.x, pc.pole.y))))
+    });
+    let (fig_rect, pole_rect) = match pole_box {
+        Some(pb) => {
+            let (a, b) = split(body, fig_box, pb);
+            (a, Some(b))
+        }
+        None => (body, None),
+    };
+    let caption_h = TextSize::Small.box_height();
+    let mut drawing_items = h.items;
+    let mut labels = h.labels;
+    let mut dropped = Vec::new();
+    let mut areas = Vec::new();
+
+    // the reciprocal figure
+    let fit = fitted(fig_box, inner_of(fig_rect, caption_h), opts.fixed_scale.map(|f| f.figure));
+    let t = opts.views[0].apply(fit, fig_rect);
+    areas.push(ForceArea { kind: AreaKind::Figure, rect: fig_rect, transform: t, base_scale: fit.scale });
+    let per50 = units.show(Quantity::Force, 50.0 / t.scale);
+    let captions = [
+        format!("reciprocal figure · 50 px = {per50}"),
+        format!("figure · 50 px = {per50}"),
+        format!("50 px = {per50}"),
+    ];
+    let (frame, caption, mut placer) = open_area(fig_rect, &captions);
+    drawing_items.push(frame);
+    labels.push(caption);
+    let mut pen = Painter { clip: fig_rect, items: Vec::new() };
+    let at = |p: crate::geom::Point| t.px(p.x, p.y);
+    for seg in &figure.segments {
+        let SegmentOf::Member { member } = seg.of else { continue };
+        let (l, r) = (at(figure.spaces[seg.left].point), at(figure.spaces[seg.right].point));
+        let tag = Tag::Member { member };
+        if opts.highlight == Some(member) {
+            pen.line(l, r, Stroke::solid(Ink::HighlightHalo, 11.0), Tag::None);
+            pen.line(l, r, Stroke::solid(Ink::Highlight, 3.0), tag);
+            if seg.zero {
+                pen.circle(l, 5.0, Some(Stroke::solid(Ink::Highlight, 2.0)), Some(Ink::Background), tag);
+            }
+        } else if seg.zero {
+            // a zero-force member is a point of the figure: an open ring marks it
+            pen.circle(l, 3.0, Some(Stroke::solid(Ink::Zero, 1.5)), Some(Ink::Background), tag);
+        } else {
+            pen.line(l, r, member_stroke(seg.force, largest), tag);
+        }
+    }
+    // external forces on top: the load line must stay visible however short
+    for seg in &figure.segments {
+        let ink = match seg.of {
+            SegmentOf::Load { .. } => Ink::Load,
+            SegmentOf::Reaction { .. } => Ink::Reaction,
+            SegmentOf::Member { .. } => continue,
+        };
+        let (l, r) = (at(figure.spaces[seg.left].point), at(figure.spaces[seg.right].point));
+        pen.line(r, l, Stroke::solid(ink, 3.0), Tag::None);
+    }
+    // the highlighted member's force first: it is what the user is looking at
+    if let Some(k) = opts.highlight {
+        let segs: Vec<_> =
+            figure.segments.iter().filter(|s| s.of == SegmentOf::Member { member: k }).collect();
+        if let Some(seg) = segs.first() {
+            let (l, r) = (at(figure.spaces[seg.left].point), at(figure.spaces[seg.right].point));
+            let mid = Px::new((l.x + r.x) / 2.0, (l.y + r.y) / 2.0);
+            let n = if seg.zero || seg.force.abs() <= ZERO_FORCE * largest { 0.0 } else { seg.force };
+            let text = format!("{} N = {} · all ribs together", seg.name, signed(units, n));
+            if pen.inside(mid) {
+                let req = Request::new(text.clone(), TextSize::Body, Ink::Highlight, mid)
+                    .short(format!("N = {}", signed(units, n)));
+                if placer.place(req).is_none() {
+                    dropped.push(text);
+                }
+            }
+        }
+    }
+    for group in space_groups(figure, at) {
+        if !pen.inside(group.at) {
+            continue;
+        }
+        let ink = if group.outside.is_empty() { Ink::Secondary } else { Ink::Text };
+        let (text, short) = group.texts();
+        let mut req = Request::new(text.clone(), TextSize::Small, ink, group.at)
+            .gap(4.0)
+            .detail(format!("spaces {text}"));
+        if let Some(short) = short {
+            req = req.short(short);
+        }
+        if placer.place(req).is_none() {
+            dropped.push(text);
+        }
+    }
+    drawing_items.extend(pen.items);
+    labels.extend(placer.finish());
+
+    // the pole construction
+    if let (Some(pc), Some(rect), Some(pb)) = (pole, pole_rect, pole_box) {
+        let fit = fitted(pb, inner_of(rect, caption_h), opts.fixed_scale.map(|f| f.pole));
+        let tp = opts.views[1].apply(fit, rect);
+        areas.push(ForceArea { kind: AreaKind::Pole, rect, transform: tp, base_scale: fit.scale });
+        let per50 = units.show(Quantity::Force, 50.0 / tp.scale);
+        let captions = [
+            format!("rib's pole construction · bare rib · 50 px = {per50}"),
+            format!("bare rib's poles · 50 px = {per50}"),
+            format!("bare rib · 50 px = {per50}"),
+            format!("50 px = {per50}"),
+        ];
+        let (frame, caption, mut placer) = open_area(rect, &captions);
+        drawing_items.push(frame);
+        labels.push(caption);
+        let mut pen = Painter { clip: rect, items: Vec::new() };
+        let at = |p: crate::geom::Point| tp.px(p.x, p.y);
+        let pp = at(pc.pole);
+        for (_, q) in &pc.rays {
+            pen.line(pp, at(*q), Stroke::solid(Ink::Ray, 0.8), Tag::None);
+        }
+        let ll: Vec<Px> = pc.load_line.iter().map(|q| at(*q)).collect();
+        pen.path(&ll, Stroke::solid(Ink::Load, 2.5));
+        // the pole distance H: from the pole across to the load line
+        let foot = tp.px(0.0, pc.pole.y);
+        pen.line(pp, foot, Stroke::solid(Ink::Reaction, 2.0), Tag::None);
+        pen.circle(pp, 3.5, None, Some(Ink::Text), Tag::None);
+        if pen.inside(pp) {
+            let req = Request::new(POLE_NAME, TextSize::Small, Ink::Text, pp).sides(&[
+                Side::Left,
+                Side::BelowLeft,
+                Side::AboveLeft,
+                Side::Below,
+                Side::Above,
+            ]);
+            if placer.place(req).is_none() {
+                dropped.push(POLE_NAME.to_string());
+            }
+        }
+        let mid = Px::new((pp.x + foot.x) / 2.0, pp.y);
+        if pen.inside(mid) {
+            let h_text = format!("pole distance H = {}", units.show(Quantity::Force, -pc.pole.x));
+            let req = Request::new(h_text.clone(), TextSize::Small, Ink::Reaction, mid)
+                .sides(&[
+                    Side::Above,
+                    Side::Below,
+                    Side::AboveRight,
+                    Side::BelowRight,
+                    Side::AboveLeft,
+                    Side::BelowLeft,
+                ])
+                .short(format!("H = {}", units.show(Quantity::Force, -pc.pole.x)));
+            if placer.place(req).is_none() {
+                dropped.push(h_text);
+            }
+        }
+        if let (Some(top), Some(bottom)) = (ll.first(), ll.last()) {
+            let total = pc.load_line.first().map(|a| a.y).unwrap_or(0.0)
+                - pc.load_line.last().map(|b| b.y).unwrap_or(0.0);
+            let mid = Px::new(top.x, (top.y + bottom.y) / 2.0);
+            if pen.inside(mid) {
+                let text = format!("rib loads ΣP = {}", units.show(Quantity::Force, total));
+                let req = Request::new(text.clone(), TextSize::Small, Ink::Load, mid)
+                    .sides(&[Side::Right, Side::AboveRight, Side::BelowRight])
+                    .short(format!("ΣP = {}", units.show(Quantity::Force, total)));
+                if placer.place(req).is_none() {
+                    dropped.push(text);
+                }
+            }
+        }
+        drawing_items.extend(pen.items);
+        labels.extend(placer.finish());
+    }
+    let mut scene = Scene::new(viewport);
+    scene.world_unit = "kN";
+    scene.transform = Some(t);
+    scene.items = drawing_items;
+    scene.labels = labels;
+    ForceDrawing { scene, areas, dropped }
+}
+
+/// A signed force for labels: "−1 234 kN" (compression) or "+1 234 kN" (tension).
+fn signed(units: Units, n: f64) -> String {
+    let s = units.show(Quantity::Force, n);
+    if n > 0.0 {
+        format!("+{s}")
+    } else {
+        s
+    }
+}
+
+/// Runs of consecutive keys written "first–last": A, B, C, D -> "A–D"; 3, 4 -> "3, 4".
+/// Returns each run's text and how many names it holds.
+fn runs(mut items: Vec<(usize, String)>) -> Vec<(String, usize)> {
+    items.sort_by_key(|i| i.0);
+    let mut out = Vec::new();
+    let mut i = 0;
+    while i < items.len() {
+        let mut j = i;
+        while j + 1 < items.len() && items[j + 1].0 == items[j].0 + 1 {
+            j += 1;
+        }
+        out.push(match j - i {
+            0 => (items[i].1.clone(), 1),
+            1 => (format!("{}, {}", items[i].1, items[j].1), 2),
+            n => (format!("{}–{}", items[i].1, items[j].1), n + 1),
+        });
+        i = j + 1;
+    }
+    out
+}
+
+/// Spaces written as one label: those at one point of the figure, or so close on screen
+/// that separate labels would pile up.
+#[derive(Debug, Clone, PartialEq)]
+struct SpaceGroup {
+    /// Outside spaces: (order around the structure, letter).
+    outside: Vec<(usize, String)>,
+    /// Inside spaces: (number, label).
+    inside: Vec<(usize, String)>,
+    /// Where the label points, CSS px (the first space's point).
+    at: Px,
+}
+
+impl SpaceGroup {
+    /// Runs of the names ("O–Q, 3, 4") and, when there is more than one run, the first
+    /// run with a count of the rest ("O–Q +2").
+    fn texts(&self) -> (String, Option<String>) {
+        let total = self.outside.len() + self.inside.len();
+        let mut parts = runs(self.outside.clone());
+        parts.extend(runs(self.inside.clone()));
+        let text = parts.iter().map(|p| p.0.as_str()).collect::<Vec<_>>().join(", ");
+        let short = (parts.len() > 1).then(|| format!("{} +{}", parts[0].0, total - parts[0].1));
+        (text, short)
+    }
+}
+
+/// Pixels within which space points share one label.
+const CLUSTER_PX: f64 = 9.0;
+
+/// The figure's spaces grouped for labelling: spaces at one point (within `ZERO_FORCE`
+/// of the largest force) always, and points closer than [`CLUSTER_PX`] on screen (`at`
+/// maps a point to pixels) too, so a crowded figure shows one label per cluster and
+/// zooming in separates them.
+fn space_groups(figure: &ForceDiagram, at: impl Fn(crate::geom::Point) -> Px) -> Vec<SpaceGroup> {
+    let tol = ZERO_FORCE * figure.largest_force.max(1e-9);
+    let mut groups: Vec<(SpaceGroup, crate::geom::Point)> = Vec::new();
+    let mut n_out = 0usize;
+    for (index, sp) in figure.spaces.iter().enumerate() {
+        let p = sp.point;
+        let q = at(p);
+        let found = groups.iter().position(|(g, w)| {
+            ((w.x - p.x).abs() <= tol && (w.y - p.y).abs() <= tol)
+                || (g.at.x - q.x).hypot(g.at.y - q.y) < CLUSTER_PX
+        });
+        let k = match found {
+            Some(k) => k,
+            None => {
+                groups.push((SpaceGroup { outside: Vec::new(), inside: Vec::new(), at: q }, p));
+                groups.len() - 1
+            }
+        };
+        if sp.kind == SpaceKind::Outside {
+            groups[k].0.outside.push((n_out, sp.label.clone()));
+            n_out += 1;
+        } else {
+            // inside faces are numbered in order, so the number is the key
+            let key = sp.label.parse::<usize>().unwrap_or(index);
+            groups[k].0.inside.push((key, sp.label.clone()));
+        }
+    }
+    groups.into_iter().map(|(g, _)| g).collect()
+}
+
+// ---------------------------------------------------------------------------------------
+// unbraced: the thrust line
+
+fn thrust(tl: &ThrustLine, case_words: &str, opts: &ForceOptions, viewport: Viewport) -> ForceDrawing {
+    let units = opts.units;
+    let mut h = Header::new(viewport);
+    h.line("Thrust line · frame model rib", TextSize::Title, Ink::Text);
+    h.line(case_words, TextSize::Small, Ink::Secondary);
+    let axis: Vec<(f64, f64)> = tl.sections.iter().map(|s| (s.axis.x, s.axis.y)).collect();
+    let b = bounds(axis.iter().copied()).unwrap_or((0.0, 1.0, 0.0, 1.0));
+    // the header's height depends on the notes, which depend on the scale: lay the notes
+    // out with the scale of a provisional body first (the exaggeration is rounded, so a
+    // few pixels of header rarely change it)
+    let provisional = Rect::new(
+        MARGIN,
+        h.y + 4.0 * TextSize::Small.box_height(),
+        viewport.width - 2.0 * MARGIN,
+        viewport.height,
+    );
+    let body_guess = Rect::new(
+        provisional.x,
+        provisional.y,
+        provisional.w,
+        (viewport.height - provisional.y - MARGIN).max(20.0),
+    );
+    let scale_guess = Transform::fit(padded(b), inner_of(body_guess, 0.0)).scale;
+    let exaggeration = (24.0 / (tl.depth * scale_guess)).max(1.0).round();
+    let gsf = tl.geometric_safety_factor.map(|g| format!("{g:.1}")).unwrap_or_else(|| "∞".into());
+    h.paragraph(
+        &format!(
+            "offsets drawn ×{exaggeration:.0} · light band: rib depth {} · dark band: middle third",
+            units.show(Quantity::Length, tl.depth)
+        ),
+        TextSize::Small,
+        Ink::Secondary,
+    );
+    let verdict = if tl.inside_middle_third {
+        "inside the middle third"
+    } else if tl.inside_depth {
+        "outside the middle third, inside the depth"
+    } else {
+        "outside the rib depth"
+    };
+    h.paragraph(
+        &format!(
+            "worst offset {} (circle) · {verdict} · geometric safety factor {gsf}",
+            units.show(Quantity::Length, tl.max_offset)
+        ),
+        TextSize::Small,
+        Ink::Secondary,
+    );
+    let rect = Rect::new(
+        MARGIN,
+        h.y + 4.0,
+        viewport.width - 2.0 * MARGIN,
+        (viewport.height - h.y - 4.0 - MARGIN).max(20.0),
+    );
+    let fit = Transform::fit(padded(b), inner_of(rect, 0.0));
+    let t = opts.views[0].apply(fit, rect);
+    let normals = tl.section_normals();
+    // offsets drawn larger by the exaggeration, in world metres along the normals
+    let off = |i: usize, e: f64| {
+        let (a, n) = (tl.sections[i].axis, normals[i]);
+        t.px(a.x + n.x * e * exaggeration, a.y + n.y * e * exaggeration)
+    };
+    let band = |e: f64| -> Vec<Px> {
+        let n = tl.sections.len();
+        (0..n).map(|i| off(i, e)).chain((0..n).rev().map(|i| off(i, -e))).collect()
+    };
+    let mut pen = Painter { clip: rect, items: Vec::new() };
+    pen.polygon(&band(tl.depth / 2.0), Ink::DepthBand);
+    pen.polygon(&band(tl.depth / 6.0), Ink::MiddleThird);
+    let ax: Vec<Px> = (0..tl.sections.len()).map(|i| off(i, 0.0)).collect();
+    pen.path(&ax, Stroke::solid(Ink::Compression, 1.0));
+    let line: Vec<Px> = (0..tl.sections.len()).map(|i| off(i, tl.sections[i].offset)).collect();
+    pen.path(&line, Stroke::solid(Ink::ThrustLine, 2.2));
+    let mut placer = Placer::new(rect);
+    let mut dropped = Vec::new();
+    if let Some(w) = line.get(tl.worst).copied() {
+        pen.circle(w, 5.0, Some(Stroke::solid(Ink::ThrustLine, 1.5)), Some(Ink::Background), Tag::None);
+        if pen.inside(w) {
+            let text = format!("worst offset {}", units.show(Quantity::Length, tl.max_offset));
+            let req = Request::new(text.clone(), TextSize::Small, Ink::ThrustLine, w).gap(8.0);
+            if placer.place(req).is_none() {
+                dropped.push(text);
+            }
+        }
+    }
+    let mut items = h.items;
+    items.extend(pen.items);
+    let mut labels = h.labels;
+    labels.extend(placer.finish());
+    let mut scene = Scene::new(viewport);
+    scene.world_unit = "m";
+    scene.transform = Some(t);
+    scene.items = items;
+    scene.labels = labels;
+    ForceDrawing {
+        scene,
+        areas: vec![ForceArea { kind: AreaKind::ThrustLine, rect, transform: t, base_scale: fit.scale }],
+        dropped,
+    }
+}
+
+// ---------------------------------------------------------------------------------------
+// geometry: clipping to an area and distances
+
+/// Distance from `p` to the segment a-b, CSS px.
+pub fn distance_to_segment(p: Px, a: Px, b: Px) -> f64 {
+    let (dx, dy) = (b.x - a.x, b.y - a.y);
+    let l2 = dx * dx + dy * dy;
+    let t = if l2 > 0.0 { (((p.x - a.x) * dx + (p.y - a.y) * dy) / l2).clamp(0.0, 1.0) } else { 0.0 };
+    (p.x - a.x - t * dx).hypot(p.y - a.y - t * dy)
+}
+
+/// The part of segment a-b inside `r` (Liang–Barsky line clipping); `None` when none is.
+fn clip_segment(a: Px, b: Px, r: Rect) -> Option<(Px, Px)> {
+    let (dx, dy) = (b.x - a.x, b.y - a.y);
+    let (mut t0, mut t1) = (0.0f64, 1.0f64);
+    for (p, q) in [(-dx, a.x - r.x), (dx, r.right() - a.x), (-dy, a.y - r.y), (dy, r.bottom() - a.y)] {
+        if p == 0.0 {
+            if q < 0.0 {
+                return None;
+            }
+        } else {
+            let t = q / p;
+            if p < 0.0 {
+                t0 = t0.max(t);
+            } else {
+                t1 = t1.min(t);
+            }
+        }
+    }
+    if t0 > t1 || !t0.is_finite() || !t1.is_finite() {
+        return None;
+    }
+    let at = |t: f64| Px::new(a.x + t * dx, a.y + t * dy);
+    Some((if t0 > 0.0 { at(t0) } else { a }, if t1 < 1.0 { at(t1) } else { b }))
+}
+
+/// The runs of a polyline inside `r`, each a polyline of its own.
+fn clip_polyline(points: &[Px], r: Rect) -> Vec<Vec<Px>> {
+    let mut runs: Vec<Vec<Px>> = Vec::new();
+    let mut current: Vec<Px> = Vec::new();
+    for w in points.windows(2) {
+        match clip_segment(w[0], w[1], r) {
+            Some((p, q)) => {
+                if current.last() != Some(&p) {
+                    if current.len() >= 2 {
+                        runs.push(std::mem::take(&mut current));
+                    }
+                    current = vec![p];
+                }
+                current.push(q);
+            }
+            None => {
+                if current.len() >= 2 {
+                    runs.push(std::mem::take(&mut current));
+                }
+                current.clear();
+            }
+        }
+    }
+    if current.len() >= 2 {
+        runs.push(current);
+    }
+    runs
+}
+
+/// A polygon clipped to `r` (Sutherland–Hodgman); empty when nothing is inside.
+fn clip_polygon(points: &[Px], r: Rect) -> Vec<Px> {
+    type Inside = fn(Px, Rect) -> bool;
+    type Cut = fn(Px, Px, Rect) -> Px;
+    let edges: [(Inside, Cut); 4] = [
+        (|p, r| p.x >= r.x, |a, b, r| cut_x(a, b, r.x)),
+        (|p, r| p.x <= r.right(), |a, b, r| cut_x(a, b, r.right())),
+        (|p, r| p.y >= r.y, |a, b, r| cut_y(a, b, r.y)),
+        (|p, r| p.y <= r.bottom(), |a, b, r| cut_y(a, b, r.bottom())),
+    ];
+    let mut out: Vec<Px> = points.to_vec();
+    for (inside, cut) in edges {
+        if out.is_empty() {
+            break;
+        }
+        let input = std::mem::take(&mut out);
+        let mut prev = input[input.len() - 1];
+        for &p in &input {
+            match (inside(p, r), inside(prev, r)) {
+                (true, true) => out.push(p),
+                (true, false) => {
+                    out.push(cut(prev, p, r));
+                    out.push(p);
+                }
+                (false, true) => out.push(cut(prev, p, r)),
+                (false, false) => {}
+            }
+            prev = p;
+        }
+    }
+    out
+}
+
+fn cut_x(a: Px, b: Px, x: f64) -> Px {
+    let t = if b.x != a.x { (x - a.x) / (b.x - a.x) } else { 0.0 };
+    Px::new(x, a.y + t * (b.y - a.y))
+}
+
+fn cut_y(a: Px, b: Px, y: f64) -> Px {
+    let t = if b.y != a.y { (y - a.y) / (b.y - a.y) } else { 0.0 };
+    Px::new(a.x + t * (b.x - a.x), y)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn consecutive_labels_collapse_into_ranges() {
+        let items = |v: &[(usize, &str)]| v.iter().map(|(k, s)| (*k, s.to_string())).collect::<Vec<_>>();
+        assert_eq!(
+            runs(items(&[(14, "O"), (15, "P"), (16, "Q"), (26, "AA")])),
+            vec![("O–Q".to_string(), 3), ("AA".to_string(), 1)]
+        );
+        assert_eq!(runs(items(&[(3, "3"), (4, "4")])), vec![("3, 4".to_string(), 2)]);
+        assert_eq!(runs(items(&[(7, "7")])), vec![("7".to_string(), 1)]);
+    }
+
+    #[test]
+    fn zooming_about_a_point_keeps_the_world_point_under_it() {
+        let area = Rect::new(10.0, 20.0, 300.0, 200.0);
+        let fitted = Transform { scale: 0.05, origin_x: 140.0, origin_y: 90.0 };
+        let pointer = Px::new(77.0, 150.0);
+        let v0 = AreaView::FIT.panned(13.0, -4.0);
+        let before = v0.apply(fitted, area).world(pointer);
+        let v1 = v0.zoomed_about(1.7, pointer, area);
+        let t1 = v1.apply(fitted, area);
+        let after = t1.world(pointer);
+        assert!(
+            (before.0 - after.0).abs() < 1e-9 && (before.1 - after.1).abs() < 1e-9,
+            "{before:?} {after:?}"
+        );
+        assert!((t1.scale - 0.05 * 1.7).abs() < 1e-15);
+        // clamped at the limit: the pointer's point still stays put
+        let v2 = v1.zoomed_about(1e6, pointer, area);
+        assert_eq!(v2.zoom, ZOOM_LIMITS.1);
+        let after = v2.apply(fitted, area).world(pointer);
+        assert!((before.0 - after.0).abs() < 1e-9 && (before.1 - after.1).abs() < 1e-9);
+        assert_eq!(v1.zoomed_about(f64::NAN, pointer, area), v1);
+    }
+
+    #[test]
+    fn clipping_keeps_only_what_lies_inside() {
+        let r = Rect::new(0.0, 0.0, 10.0, 10.0);
+        let (p, q) = clip_segment(Px::new(-5.0, 5.0), Px::new(15.0, 5.0), r).expect("crosses");
+        assert_eq!((p, q), (Px::new(0.0, 5.0), Px::new(10.0, 5.0)));
+        assert_eq!(clip_segment(Px::new(-5.0, -1.0), Px::new(15.0, -1.0), r), None);
+        let inside = (Px::new(1.0, 1.0), Px::new(2.0, 3.0));
+        assert_eq!(clip_segment(inside.0, inside.1, r), Some(inside));
+        // a path leaving and re-entering gives two runs
+        let runs =
+            clip_polyline(&[Px::new(1.0, 1.0), Px::new(20.0, 1.0), Px::new(20.0, 8.0), Px::new(1.0, 8.0)], r);
+        assert_eq!(runs.len(), 2);
+        // a square larger than the rectangle clips to the rectangle
+        let poly = clip_polygon(
+            &[Px::new(-5.0, -5.0), Px::new(15.0, -5.0), Px::new(15.0, 15.0), Px::new(-5.0, 15.0)],
+            r,
+        );
+        let area: f64 = (0..poly.len())
+            .map(|i| {
+                let (a, b) = (poly[i], poly[(i + 1) % poly.len()]);
+                a.x * b.y - b.x * a.y
+            })
+            .sum::<f64>()
+            / 2.0;
+        assert!((area.abs() - 100.0).abs() < 1e-9, "{poly:?}");
+        assert!(clip_polygon(&[Px::new(20.0, 20.0), Px::new(30.0, 20.0), Px::new(30.0, 30.0)], r).is_empty());
+    }
+
+    #[test]
+    fn the_pole_name_cannot_be_a_space_label() {
+        // Bow's labels are capital letters or numerals
+        assert!(POLE_NAME.chars().any(|c| c.is_ascii_lowercase()));
+        assert!(!POLE_NAME.chars().all(|c| c.is_ascii_uppercase() || c.is_ascii_digit()));
+    }
+}
