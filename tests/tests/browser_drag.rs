@@ -15,7 +15,7 @@ use springline_tests::serve::StaticServer;
 use springline_tests::webdriver::{Driver, Session};
 
 /// The page's parts whose boxes must not move during a drag.
-const PARTS: &str = "['header.top', 'aside.controls', '.case-row', '#elevation', '#forces', '#drag-status', '.results-panel']";
+const PARTS: &str = "['header.top', 'aside.controls', 'section.scenarios', '#elevation', '#forces', '#drag-status', '.results-panel']";
 
 /// Every part's bounding box as [left, top, width, height], CSS pixels.
 fn boxes(s: &Session) -> Value {
@@ -105,6 +105,7 @@ fn a_crown_dragged_over_the_deck_stops_at_the_largest_rise_says_why_and_moves_no
     assert_eq!(stopped, "false");
     assert!(idle.contains("Shift"), "the idle status line says how to drag: {idle}");
     let before = boxes(&s);
+    assert!(before.as_array().is_some_and(|b| b.iter().all(|p| !p.is_null())), "a part is missing: {before}");
 
     // from the crown to 10 m above the deck (the crown may not pass the deck axis)
     let t = transform(&s, "elevation");
