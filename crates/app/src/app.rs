@@ -48,7 +48,7 @@ pub fn App() -> impl IntoView {
                     <ElevationCanvas />
                     <ForceCanvas />
                 </div>
-                // the status line of a drag goes here, under the canvases
+                <crate::components::status::StatusLine />
                 <MemberReadout />
             </section>
             <DesignInputs />

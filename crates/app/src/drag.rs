@@ -1,44 +1,30 @@
-//! Direct manipulation on the elevation: what can be grabbed and what moving it means.
-//! Pure functions of the design; the canvas component wires them to pointer events.
+//! Direct manipulation on the elevation: which handle is under the pointer (in CSS
+//! pixels) and the words for a drag that stopped. What moving a handle means, snapping and
+//! the search for the last valid position are the engine's (`arch::edit`).
 
 use crate::canvas::{distance_to_segment, View};
-use springline_statics::arch::design::Crown;
+use crate::format::Units;
+use springline_statics::arch::edit::{self, deck_line, point_handles};
+pub use springline_statics::arch::edit::{Handle, Snapping};
+use springline_statics::error::{counted, Location, StaticsError};
 use springline_statics::{Analysis, Design};
-
-/// Something on the elevation that a drag moves.
-#[derive(Debug, Clone, Copy, PartialEq, Eq)]
-pub enum Handle {
-    /// The crown: moves the rise (or the crown level, as the design gives it).
-    Crown,
-    /// A springing: moves its level; its x follows the valley wall.
-    Springing {
-        /// Left springing when true.
-        left: bool,
-    },
-    /// The deck: moves its level.
-    Deck,
-    /// A ground point of the valley section.
-    Ground(usize),
-}
 
 /// CSS pixels within which a point handle is caught.
 pub const POINT_REACH: f64 = 10.0;
 /// CSS pixels within which the deck line is caught.
 pub const LINE_REACH: f64 = 5.0;
 
+/// The words of the status line when nothing is wrong: what can be dragged and how the
+/// modifier key frees the grid.
+pub const DRAG_HINT: &str = "Drag the crown, a springing, the deck or a ground point: values move in \
+                             steps of 0.1 m; hold Shift while dragging to move freely.";
+
 /// The handle under CSS pixel `at`, points first (nearest wins), then the deck line.
 pub fn handle_at(design: &Design, a: &Analysis, view: &View, at: (f64, f64)) -> Option<Handle> {
-    let f = &a.form;
-    let mut points: Vec<(Handle, (f64, f64))> = vec![
-        (Handle::Crown, (f.crown.x, f.crown.y)),
-        (Handle::Springing { left: true }, (f.springing_left.x, f.springing_left.y)),
-        (Handle::Springing { left: false }, (f.springing_right.x, f.springing_right.y)),
-    ];
-    points.extend(design.valley.iter().enumerate().map(|(i, g)| (Handle::Ground(i), (g.x, g.y))));
-    let best = points
+    let best = point_handles(design, &a.form)
         .into_iter()
         .map(|(h, p)| {
-            let q = view.px(p.0, p.1);
+            let q = view.px(p.x, p.y);
             (h, (q.0 - at.0).hypot(q.1 - at.1))
         })
         .filter(|(_, d)| *d <= POINT_REACH)
@@ -46,44 +32,129 @@ pub fn handle_at(design: &Design, a: &Analysis, view: &View, at: (f64, f64)) -> 
     if let Some((h, _)) = best {
         return Some(h);
     }
-    let l = view.px(design.deck.left_seat_x, design.deck.level);
-    let r = view.px(design.deck.right_seat_x, design.deck.level);
+    let (l, r) = deck_line(design);
+    let (l, r) = (view.px(l.x, l.y), view.px(r.x, r.y));
     (distance_to_segment(at, l, r) <= LINE_REACH).then_some(Handle::Deck)
 }
 
-/// The design after moving `handle` to world point (x, y), m.
-pub fn moved(design: &Design, handle: Handle, x: f64, y: f64) -> Design {
-    let mut d = design.clone();
-    match handle {
-        Handle::Crown => {
-            let chord = 0.5 * (d.springing_left_level + d.springing_right_level);
-            d.crown = match d.crown {
-                Crown::Rise { .. } => Crown::Rise { rise: y - chord },
-                Crown::Level { .. } => Crown::Level { level: y },
-            };
-        }
-        Handle::Springing { left: true } => d.springing_left_level = y,
-        Handle::Springing { left: false } => d.springing_right_level = y,
-        Handle::Deck => d.deck.level = y,
-        Handle::Ground(i) => {
-            if let Some(p) = d.valley.get_mut(i) {
-                p.x = x;
-                p.y = y;
+/// Snapping for a pointer event: on the 0.1 m grid unless Shift is held.
+pub fn snapping(shift_held: bool) -> Snapping {
+    if shift_held {
+        Snapping::Free
+    } else {
+        Snapping::ToGrid
+    }
+}
+
+/// Why a drag of `handle` stopped where it did, for the status line, in the panels'
+/// words: the field and the value it was held at, then the reason. For the crown held at
+/// its largest rise the reason is the engine's largest rise in words (what governs it,
+/// where the funicular's highest point is); otherwise the first problem of the refusal
+/// just past the position held (and how many there are in all).
+pub fn stop_message(handle: Handle, shown: &Design, error: &StaticsError, units: Units) -> String {
+    let held = match handle.reading(shown) {
+        Some(r) => capitalised(&format!("{} held at {}", r.field, held_value(&r, units))),
+        None => "Held at the last valid position".to_string(),
+    };
+    if handle == Handle::Crown {
+        if let Ok(limit) = edit::largest_rise(shown) {
+            // held within a grid step below the largest rise: that is the limit
+            if shown.rise() >= limit.rise - edit::SNAP_STEP - edit::LIMIT_RESOLUTION {
+                return format!("{held}: {}.", limit.describe(units));
             }
         }
     }
-    d
+    let reason = match error {
+        StaticsError::Invalid(problems) if !problems.is_empty() => {
+            let first = &problems[0];
+            let words = match &first.location {
+                Location::Field(_) => first.message.clone(),
+                other => format!("{other}: {}", first.message),
+            };
+            if problems.len() > 1 {
+                format!("{words} ({} in all)", counted(problems.len(), "problem", "problems"))
+            } else {
+                words
+            }
+        }
+        other => other.to_string(),
+    };
+    format!("{held}: {reason}.")
+}
+
+fn held_value(r: &edit::Reading, units: Units) -> String {
+    let length = |v: f64| units.show(crate::format::Quantity::Length, v);
+    match r.x {
+        None => length(r.y),
+        Some(x) => format!("x {}, y {}", length(x), length(r.y)),
+    }
+}
+
+fn capitalised(s: &str) -> String {
+    let mut c = s.chars();
+    match c.next() {
+        Some(first) => first.to_uppercase().chain(c).collect(),
+        None => String::new(),
+    }
 }
 
 #[cfg(test)]
 mod tests {
     use super::*;
+    use springline_statics::analyze;
+
+    // Check values: the demo scenario (`Design::demo`: deck at 100 m, springings 76 m and
+    // 80 m, crown at 97.5 m) and the engine's messages (`arch::design`, `arch::validate`).
 
     #[test]
-    fn dragging_the_crown_changes_the_rise_by_the_distance_moved() {
+    fn the_crown_held_at_its_largest_rise_says_the_largest_rise_and_where_the_rib_meets_the_deck() {
         let d = Design::demo();
-        let c = d.crown_level();
-        let m = moved(&d, Handle::Crown, 80.0, c + 2.5);
-        assert!((m.rise() - d.rise() - 2.5).abs() < 1e-12);
+        let step = edit::drag_to(&d, Handle::Crown, 80.0, 110.0, Snapping::ToGrid);
+        let error = step.stopped.expect("stopped");
+        let m = stop_message(Handle::Crown, &step.design, &error, Units::Si);
+        assert!(m.starts_with("Rise held at 21.70\u{a0}m: the largest rise the layout takes is 21.7"), "{m}");
+        assert!(m.contains("the rib reaches the deck at x = "), "{m}");
+        assert!(
+            m.contains("with unequal springings the funicular's highest point is not at mid-span"),
+            "{m}"
+        );
+        // no design field path anywhere
+        assert!(!m.contains("crown.") && !m.contains("deck.level") && !m.contains('_'), "{m}");
+    }
+
+    #[test]
+    fn the_deck_held_at_the_abutment_height_names_the_seat_in_words() {
+        let d = Design::demo();
+        let step = edit::drag_to(&d, Handle::Deck, 80.0, 125.0, Snapping::ToGrid);
+        let error = step.stopped.expect("stopped");
+        let m = stop_message(Handle::Deck, &step.design, &error, Units::Si);
+        assert!(
+            m.starts_with("Deck level held at 109.3\u{a0}m: the ground at the left abutment seat"),
+            "{m}"
+        );
+        assert!(m.contains("more than the abutment height (10 m)"), "{m}");
+        assert!(!m.contains('_'), "{m}");
+    }
+
+    #[test]
+    fn several_problems_are_counted_in_words() {
+        let mut d = Design::demo();
+        d.deck.level = 60.0; // under both springings (76 m, 80 m) and the crown
+        let error = analyze(&d).expect_err("refused");
+        assert!(error.problems().len() >= 3, "{error}");
+        let m = stop_message(Handle::Deck, &Design::demo(), &error, Units::Si);
+        assert!(
+            m.starts_with("Deck level held at 100.0\u{a0}m: the left springing (76 m) is at or above"),
+            "{m}"
+        );
+        assert!(m.contains(&format!("({} problems in all)", error.problems().len())), "{m}");
+        assert!(!m.contains("problem(s)"));
+    }
+
+    #[test]
+    fn shift_frees_the_grid() {
+        assert_eq!(snapping(true), Snapping::Free);
+        assert_eq!(snapping(false), Snapping::ToGrid);
+        assert!(DRAG_HINT.contains("Shift"));
     }
 }

@@ -4,9 +4,10 @@
 
 use crate::format::Units;
 use leptos::prelude::*;
+use springline_statics::arch::edit::{self, Handle, Reading, Snapping};
 use springline_statics::arch::readout::MemberKey;
 use springline_statics::error::{Field, Location, StaticsError};
-use springline_statics::{analyze, Analysis, Design, ModelKind};
+use springline_statics::{analyze, Analysis, Design, ModelKind, ValidDesign};
 use std::sync::Arc;
 
 /// The analysis of the current design, or the engine's error when there is none.
@@ -20,6 +21,8 @@ pub struct Refusal {
     pub edited: Field,
     /// Why the engine refused the edited design.
     pub error: StaticsError,
+    /// The design refused (a rise over the largest is told the largest rise).
+    pub candidate: Design,
 }
 
 impl Refusal {
@@ -65,6 +68,15 @@ fn shown(location: &Location, message: &str) -> String {
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub struct Hovered(pub Option<usize>);
 
+/// The value being dragged and where the pointer is, for the readout beside it.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct DragReading {
+    /// What the drag sets (field and value, SI).
+    pub reading: Reading,
+    /// The pointer, CSS pixels from the top left of the viewport.
+    pub client: (f64, f64),
+}
+
 /// Everything the components share.
 #[derive(Clone, Copy)]
 pub struct AppState {
@@ -88,7 +100,8 @@ pub struct AppState {
     pub past: RwSignal<Vec<Design>>,
     /// Designs undone (redo), most recent last.
     pub future: RwSignal<Vec<Design>>,
-    /// A page-level message (a link that could not be opened, a refused drag).
+    /// A page-level message (a link that could not be opened); a drag that stops says why
+    /// in the status line instead (`drag_stop`).
     pub notice: RwSignal<Option<String>>,
     /// The load case shown in the drawings (index into `Analysis::load_cases`).
     pub case: RwSignal<usize>,
@@ -98,6 +111,11 @@ pub struct AppState {
     /// The last refused edit, until the next edit succeeds, an undo or redo, or a new
     /// design from a link; every field shows the problems that involve it.
     pub refused: RwSignal<Option<Refusal>>,
+    /// Why the last drag stopped short of the pointer, in words, for the status line;
+    /// cleared when the design is valid at the pointer again or another edit succeeds.
+    pub drag_stop: RwSignal<Option<String>>,
+    /// While dragging: the value being set and where the pointer is.
+    pub drag_reading: RwSignal<Option<DragReading>>,
     /// The analysis just computed for a design about to be set, so the memo does not
     /// compute it a second time.
     checked: StoredValue<Option<(Design, Arc<Analysis>)>>,
@@ -135,6 +153,8 @@ impl AppState {
             case: RwSignal::new(0),
             dragging: RwSignal::new(false),
             refused: RwSignal::new(None),
+            drag_stop: RwSignal::new(None),
+            drag_reading: RwSignal::new(None),
             checked,
         }
     }
@@ -147,7 +167,7 @@ impl AppState {
         let mut candidate = self.design.get_untracked();
         edit(&mut candidate);
         if let Err(error) = self.check(&candidate) {
-            self.refused.set(Some(Refusal { edited: field, error: error.clone() }));
+            self.refused.set(Some(Refusal { edited: field, error: error.clone(), candidate }));
             return Err(error);
         }
         self.commit(candidate);
@@ -162,11 +182,15 @@ impl AppState {
         Ok(())
     }
 
-    /// Forgets the last refused edit (its messages leave the fields).
+    /// Forgets the last refused edit (its messages leave the fields) and why the last
+    /// drag stopped (the status line clears).
     pub fn clear_refusal(&self) {
         // only when there is one: a drag calls this on every pointer move
         if self.refused.with_untracked(Option::is_some) {
             self.refused.set(None);
+        }
+        if self.drag_stop.with_untracked(Option::is_some) {
+            self.drag_stop.set(None);
         }
     }
 
@@ -204,6 +228,30 @@ impl AppState {
         } else {
             false
         }
+    }
+
+    /// One step of a drag: moves `handle` of the current design to world point (x, y), m,
+    /// and shows the result without recording a step (see `preview`). When the moved
+    /// design does not analyse, the furthest valid position on the way there is shown
+    /// instead (the engine's search, `edit::drag_to_with`, validating only; the position
+    /// found is then analysed) and the refusal just past it is returned; the current
+    /// design stays when no position is found.
+    pub fn drag_to(&self, handle: Handle, x: f64, y: f64, snapping: Snapping) -> Option<StaticsError> {
+        let from = self.design.get_untracked();
+        let candidate = edit::moved(&from, handle, x, y, snapping);
+        let refusal = match self.check(&candidate) {
+            Ok(()) => {
+                self.preview(candidate);
+                return None;
+            }
+            Err(e) => e,
+        };
+        let step = edit::drag_to_with(&from, handle, x, y, snapping, |d| ValidDesign::new(d).map(|_| ()));
+        if step.design != from && self.check(&step.design).is_ok() {
+            // not `preview`: that would clear the message this step is about to show
+            self.design.set(step.design);
+        }
+        Some(step.stopped.unwrap_or(refusal))
     }
 
     /// Sets the truss member under the pointer (only when it changes, so canvases redraw
@@ -284,7 +332,7 @@ mod tests {
         let mut d = Design::demo();
         d.deck.level = 60.0;
         let error = analyze(&d).expect_err("springings above the deck are refused");
-        Refusal { edited: Field::DeckLevel, error }
+        Refusal { edited: Field::DeckLevel, error, candidate: d }
     }
 
     #[test]
@@ -313,7 +361,8 @@ mod tests {
     fn a_springing_raised_above_the_deck_is_shown_beside_the_deck_level_too() {
         let mut d = Design::demo();
         d.springing_left_level = 100.5; // the demo deck is at 100 m
-        let r = Refusal { edited: Field::SpringingLeftLevel, error: analyze(&d).expect_err("refused") };
+        let error = analyze(&d).expect_err("refused");
+        let r = Refusal { edited: Field::SpringingLeftLevel, error, candidate: d };
         let deck = r.messages_for(Field::DeckLevel);
         assert_eq!(deck.len(), 1, "{deck:?}");
         assert!(deck[0].contains("left springing (100.5 m) is at or above the deck (100 m)"), "{deck:?}");
@@ -324,7 +373,8 @@ mod tests {
     fn an_edited_ground_point_shows_the_valley_problems_and_the_valley_does_not_repeat_them() {
         let mut d = Design::demo();
         d.valley[3].x = 50.0; // the next point is at x = 45 m
-        let r = Refusal { edited: Field::ValleyPoint(3), error: analyze(&d).expect_err("refused") };
+        let error = analyze(&d).expect_err("refused");
+        let r = Refusal { edited: Field::ValleyPoint(3), error, candidate: d };
         let point = r.messages_for(Field::ValleyPoint(3));
         assert!(
             point.iter().any(|m| m.contains("ground point 5 (x = 45 m) is not to the right of point 4")),
@@ -342,6 +392,7 @@ mod tests {
         let r = Refusal {
             edited: Field::Panels,
             error: StaticsError::Link(springline_statics::error::LinkError::Empty),
+            candidate: Design::demo(),
         };
         let whole = r.error.to_string();
         assert!(whole.starts_with("cannot read link: it holds no design"), "{whole}");
@@ -354,6 +405,7 @@ mod tests {
         let r = Refusal {
             edited: Field::Valley,
             error: StaticsError::invalid("rib between x = 60.000 m and 70.000 m", "below the ground"),
+            candidate: Design::demo(),
         };
         assert_eq!(
             r.messages_for(Field::Valley),

@@ -7,7 +7,7 @@ use crate::components::readout::{drawn_model, step_member, ModelSwitch};
 use crate::drag::{self, Handle};
 use crate::forces;
 use crate::paint;
-use crate::state::AppState;
+use crate::state::{AppState, DragReading};
 use leptos::html::Canvas;
 use leptos::prelude::*;
 use springline_statics::arch::readout::MemberKey;
@@ -32,9 +32,10 @@ pub fn ElevationCanvas() -> impl IntoView {
     let node: NodeRef<Canvas> = NodeRef::new();
     // the scene on screen and the model it draws (for pointer hits)
     let shown = StoredValue::new(None::<(Scene, ModelKind)>);
-    // a drag: the handle, the design before it, and the transform it started in (kept
-    // fixed so the mapping does not shift while the drawing would refit)
-    let dragging = StoredValue::new(None::<(Handle, springline_statics::Design, Transform)>);
+    // a drag: the handle, the design before it, the transform it started in (kept fixed
+    // so the mapping does not shift while the drawing would refit) and the grab offset
+    // (world, from the pointer to the handle, so the handle does not jump to the pointer)
+    let dragging = StoredValue::new(None::<(Handle, springline_statics::Design, Transform, (f64, f64))>);
     Effect::new(move |_| {
         let _ = state.resized.get();
         let focus = state.focus.get();
@@ -51,7 +52,7 @@ pub fn ElevationCanvas() -> impl IntoView {
             _ => &a.frame.map,
         };
         let highlight = focus.and_then(|k| k.member_in(map, model));
-        let transform = dragging.with_value(|d| d.as_ref().map(|(_, _, t)| *t));
+        let transform = dragging.with_value(|d| d.as_ref().map(|(_, _, t, _)| *t));
         let opts = ElevationOptions { units, case, model, highlight, transform };
         let scene = state.design.with(|d| elevation(&a, d, &opts, viewport));
         paint::paint(&el, &scene);
@@ -62,20 +63,32 @@ pub fn ElevationCanvas() -> impl IntoView {
         let (Some(el), Some(t)) = (node.get(), transform_now()) else { return };
         let at = pointer_in(&el, &ev);
         let design = state.design.get_untracked();
-        let handle = state
-            .analysis
-            .with_untracked(|o| o.as_ref().ok().and_then(|a| drag::handle_at(&design, a, &view_of(t), at)));
-        if let Some(h) = handle {
+        let grabbed = state.analysis.with_untracked(|o| {
+            let a = o.as_ref().ok()?;
+            let h = drag::handle_at(&design, a, &view_of(t), at)?;
+            let p = h.point(&design, &a.form)?;
+            let (wx, wy) = t.world(Px::new(at.0, at.1));
+            // the deck is grabbed where the pointer is along it: only its level counts
+            let dx = if h == Handle::Deck { 0.0 } else { p.x - wx };
+            Some((h, (dx, p.y - wy)))
+        });
+        if let Some((h, grab)) = grabbed {
             let _ = el.set_pointer_capture(ev.pointer_id());
             ev.prevent_default();
-            dragging.set_value(Some((h, design, t)));
+            state.drag_stop.set(None);
             state.dragging.set(true);
+            state.drag_reading.set(h.reading(&design).map(|reading| DragReading {
+                reading,
+                client: (ev.client_x() as f64, ev.client_y() as f64),
+            }));
+            dragging.set_value(Some((h, design, t, grab)));
         }
     };
     let on_up = move |ev: web_sys::PointerEvent| {
-        if let Some((_, before, _)) = dragging.get_value() {
+        if let Some((_, before, _, _)) = dragging.get_value() {
             dragging.set_value(None);
             state.dragging.set(false);
+            state.drag_reading.set(None);
             if let Some(el) = node.get() {
                 let _ = el.release_pointer_capture(ev.pointer_id());
             }
@@ -89,21 +102,24 @@ pub fn ElevationCanvas() -> impl IntoView {
     let on_move = move |ev: web_sys::PointerEvent| {
         let (Some(el), Some(t)) = (node.get(), transform_now()) else { return };
         let at = pointer_in(&el, &ev);
-        // dragging: map with the transform the drag started in (no copy of the stored design)
-        let candidate = dragging.with_value(|d| {
-            d.as_ref().map(|(h, _, start)| {
+        // dragging: map with the transform the drag started in, snap unless Shift is held,
+        // and past a limit keep the furthest valid position and say why in the status line
+        let target = dragging.with_value(|d| {
+            d.as_ref().map(|(h, _, start, grab)| {
                 let (x, y) = start.world(Px::new(at.0, at.1));
-                state.design.with_untracked(|design| drag::moved(design, *h, x, y))
+                (*h, x + grab.0, y + grab.1)
             })
         });
-        if let Some(candidate) = candidate {
-            if state.preview(candidate) {
-                state.notice.set(None);
-            } else {
-                state
-                    .notice
-                    .set(Some("That position is not a valid design; the last valid one is kept.".into()));
-            }
+        if let Some((h, x, y)) = target {
+            let stopped = state.drag_to(h, x, y, drag::snapping(ev.shift_key()));
+            let units = state.units.get_untracked();
+            state.design.with_untracked(|d| {
+                if let Some(e) = stopped {
+                    state.drag_stop.set(Some(drag::stop_message(h, d, &e, units)));
+                }
+                let client = (ev.client_x() as f64, ev.client_y() as f64);
+                state.drag_reading.set(h.reading(d).map(|reading| DragReading { reading, client }));
+            });
             return;
         }
         // hovering: a grab cursor over handles, and the member under the pointer

@@ -403,15 +403,8 @@ pub fn ArchPanel() -> impl IntoView {
     };
     let crown_value = Signal::derive(move || state.design.with(|d| d.rise()));
     let set_rise = Callback::new(move |v: f64| {
-        state.try_edit(Field::CrownRise, |d| {
-            // keep the user's choice of how the crown is given
-            d.crown = match d.crown {
-                Crown::Rise { .. } => Crown::Rise { rise: v },
-                Crown::Level { .. } => {
-                    Crown::Level { level: 0.5 * (d.springing_left_level + d.springing_right_level) + v }
-                }
-            }
-        })
+        // keeps the user's choice of how the crown is given
+        state.try_edit(Field::CrownRise, |d| d.set_rise(v))
     });
     view! {
         <details class="panel" open>
@@ -419,6 +412,7 @@ pub fn ArchPanel() -> impl IntoView {
             {design_field("Left springing level", "springing-left", Field::SpringingLeftLevel, Quantity::Length, |d| d.springing_left_level, |d, v| d.springing_left_level = v, (-1e4, 1e4), false)}
             {design_field("Right springing level", "springing-right", Field::SpringingRightLevel, Quantity::Length, |d| d.springing_right_level, |d, v| d.springing_right_level = v, (-1e4, 1e4), false)}
             <NumberField label="Rise" id="rise" field=Field::CrownRise quantity=Quantity::Length value=crown_value on_commit=set_rise min=0.0 max=1e4 />
+            <crate::components::status::RiseLimitHint />
             {design_field("Crown level", "crown-level", Field::CrownLevel, Quantity::Length, |d| d.crown_level(), |d, v| d.crown = Crown::Level { level: v }, (-1e4, 1e4), false)}
             {design_field("Shortest post", "min-post", Field::MinPostLength, Quantity::Length, |d| d.min_post_length, |d, v| d.min_post_length = v, (0.0, 50.0), false)}
             <div class="field">

@@ -5,4 +5,5 @@ pub mod controls;
 pub mod readout;
 pub mod results;
 pub mod scenarios;
+pub mod status;
 pub mod toolbar;

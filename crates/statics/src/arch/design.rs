@@ -333,6 +333,15 @@ impl Design {
         }
     }
 
+    /// Sets the rise to `rise`, m, keeping the way the crown is given: a crown given by
+    /// level moves to the chord level plus `rise`. No check here (validation judges it).
+    pub fn set_rise(&mut self, rise: f64) {
+        self.crown = match self.crown {
+            Crown::Rise { .. } => Crown::Rise { rise },
+            Crown::Level { .. } => Crown::Level { level: self.chord_level_at_crown() + rise },
+        };
+    }
+
     /// Deck line load over the full width, kN/m (positive down): (dead + surfacing) times
     /// width plus the deck girders' own weight.
     pub fn deck_line_load(&self) -> f64 {

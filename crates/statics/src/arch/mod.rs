@@ -6,6 +6,7 @@ pub mod analysis;
 pub mod cases;
 pub mod design;
 pub mod design_file;
+pub mod edit;
 pub mod form;
 pub mod generate;
 pub mod layout;

@@ -1,0 +1,105 @@
+//! The status line under the drawings (why a drag stopped, else how to drag), the value
+//! being dragged beside the pointer, and the largest-rise hint beside the rise field.
+//!
+//! None of them moves anything on the page: the status line keeps one fixed height
+//! whatever it says, the readout floats over the page (fixed position, no pointer
+//! events), and the hint sits in the rise field's own message area.
+
+use crate::drag::DRAG_HINT;
+use crate::state::AppState;
+use leptos::prelude::*;
+use springline_statics::arch::edit::largest_rise;
+use springline_statics::error::Field;
+
+/// Height of the status line: three lines of text, so the longest messages (a largest
+/// rise with where the rib meets the deck) fit at 1024 px without the line growing; on
+/// narrower screens the line scrolls rather than grows or cuts the text off.
+const STATUS_STYLE: &str = "height: 4.5em; line-height: 1.5em; overflow-y: auto; margin: 6px 0 0; \
+                            padding: 0 10px; border-radius: 4px; font-size: 13px; box-sizing: border-box;";
+
+/// The fixed-height status line, with the pointer readout.
+#[component]
+pub fn StatusLine() -> impl IntoView {
+    let state = expect_context::<AppState>();
+    let stopped = move || state.drag_stop.with(Option::is_some);
+    let text = move || state.drag_stop.get().unwrap_or_else(|| DRAG_HINT.to_string());
+    let style = move || {
+        let tone = if stopped() {
+            "background: #fdecea; color: var(--warn); border: 1px solid #f3c1bb;"
+        } else {
+            "background: transparent; color: var(--dim); border: 1px solid transparent;"
+        };
+        format!("{STATUS_STYLE} {tone}")
+    };
+    view! {
+        <p id="drag-status" class="status-line" role="status" aria-live="polite" data-stopped=move || stopped().to_string() style=style>
+            {text}
+        </p>
+        <PointerReadout />
+    }
+}
+
+/// Distance of the readout from the pointer, CSS pixels (right of and above it).
+const READOUT_OFFSET: (f64, f64) = (16.0, -30.0);
+/// Room the readout needs to the right of the pointer before it flips to the left, CSS
+/// pixels.
+const READOUT_ROOM: f64 = 240.0;
+
+/// The value being dragged, beside the pointer; hidden when not dragging.
+#[component]
+fn PointerReadout() -> impl IntoView {
+    let state = expect_context::<AppState>();
+    let text = move || {
+        let units = state.units.get();
+        state.drag_reading.with(|r| r.map(|r| r.reading.describe(units)).unwrap_or_default())
+    };
+    let style = move || {
+        let base = "position: fixed; pointer-events: none; z-index: 5; white-space: nowrap; \
+                    padding: 2px 7px; border-radius: 3px; font-size: 12.5px; \
+                    background: rgba(31, 42, 51, 0.88); color: #fff;";
+        match state.drag_reading.get() {
+            Some(r) => {
+                let width = window().inner_width().ok().and_then(|w| w.as_f64()).unwrap_or(f64::INFINITY);
+                let (x, y) = r.client;
+                // near the right edge the readout goes left of the pointer
+                let left = if x + READOUT_ROOM > width {
+                    format!("right: {}px;", (width - x + READOUT_OFFSET.0).max(0.0))
+                } else {
+                    format!("left: {}px;", x + READOUT_OFFSET.0)
+                };
+                format!("{base} {left} top: {}px;", (y + READOUT_OFFSET.1).max(0.0))
+            }
+            None => format!("{base} display: none;"),
+        }
+    };
+    view! { <div id="drag-value" class="drag-value" aria-hidden="true" style=style>{text}</div> }
+}
+
+/// Beside the rise: when an edit of the rise or the crown level was refused for a rise
+/// over the largest the layout takes, that largest rise (what governs it, where the
+/// funicular's highest point is). Nothing otherwise.
+#[component]
+pub fn RiseLimitHint() -> impl IntoView {
+    let state = expect_context::<AppState>();
+    let hint = Memo::new(move |_| {
+        let units = state.units.get();
+        state.refused.with(|r| {
+            let r = r.as_ref()?;
+            if !matches!(r.edited, Field::CrownRise | Field::CrownLevel) {
+                return None;
+            }
+            let limit = state.design.with(largest_rise).ok()?;
+            (r.candidate.rise() > limit.rise).then(|| {
+                let words = limit.describe(units);
+                let mut c = words.chars();
+                c.next().map(|f| f.to_uppercase().chain(c).collect::<String>() + ".").unwrap_or_default()
+            })
+        })
+    });
+    view! {
+        // the look of the advice inside a field (it stands between two fields)
+        <div class="advice" id="rise-limit" style="font-size: 12px; color: #7a4b00; margin: 0 0 4px;">
+            {move || hint.get().map(|h| view! { <p>{h}</p> })}
+        </div>
+    }
+}
