@@ -122,7 +122,7 @@ fn a_phone_shows_the_drawings_first_with_the_header_whole() {
     std::fs::write(screenshots_dir().join("page-390x844.png"), s.screenshot()).expect("screenshot");
 }
 
-/// Every input says what it is: a label element, or an aria-label when the visible label
+/// Every input says what it is: a label element (pointing at it or wrapping it), or an aria-label when the visible label
 /// is short; the ground points' remove buttons name their point; one heading per panel.
 #[test]
 fn every_input_and_button_says_what_it_is() {
@@ -132,7 +132,7 @@ fn every_input_and_button_says_what_it_is() {
     open(&s, &server);
     let unnamed = s.exec(
         "return [...document.querySelectorAll('input, select, button')].filter(e => {
-             const label = e.id && document.querySelector(`label[for=\"${e.id}\"]`);
+             const label = (e.id && document.querySelector(`label[for=\"${e.id}\"]`)) || e.closest('label');
              const named = e.getAttribute('aria-label') || (label && label.textContent.trim()) || e.textContent.trim();
              return !named; }).map(e => e.outerHTML.slice(0, 80));",
         vec![],
