@@ -5,10 +5,10 @@
 /// A unit system for display and entry.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
 pub enum Units {
-    /// m, kN, kNm, kN/m2, MPa.
+    /// m, kN, kNm, kN/m2, E in GPa.
     #[default]
     Si,
-    /// ft, kip, kip-ft, psf (area loads), kip/ft (line loads), in (section depths), ksi.
+    /// ft, kip, kip·ft, psf (area loads), kip/ft (line loads), in (section depths), ksi.
     UsCustomary,
 }
 
@@ -47,7 +47,7 @@ pub enum Quantity {
     Length,
     /// kN / kip.
     Force,
-    /// kNm / kip-ft.
+    /// kNm / kip·ft.
     Moment,
     /// kN/m2 / psf (area loads: dead load, surfacing, live load over the deck).
     Pressure,
@@ -156,7 +156,9 @@ impl Units {
 }
 
 /// Four significant figures, at most three decimals, digit groups of three separated by
-/// a thin space; "0" for exact zero; "−" (minus sign) for negatives.
+/// a thin space; "0" for exact zero; "−" (minus sign) for negatives; magnitudes below 1e-3
+/// (small areas and second moments) in scientific notation with four figures
+/// ("1.000e−10"); "—" for a value that is not finite.
 pub fn round_for_display(v: f64) -> String {
     if !v.is_finite() {
         return "—".into();
