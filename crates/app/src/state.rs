@@ -217,21 +217,10 @@ impl AppState {
         self.future.update(|f| f.clear());
     }
 
-    /// Shows `design` without recording a step (during a drag: the drag as a whole is
-    /// recorded once, when it ends). Returns false, changing nothing, when it does not
-    /// analyse.
-    pub fn preview(&self, design: Design) -> bool {
-        if self.check(&design).is_ok() {
-            self.clear_refusal();
-            self.design.set(design);
-            true
-        } else {
-            false
-        }
-    }
-
     /// One step of a drag: moves `handle` of the current design to world point (x, y), m,
-    /// and shows the result without recording a step (see `preview`). When the moved
+    /// and shows the result without recording a step (the drag as a whole is recorded
+    /// once, when it ends). Each design is analysed once (`check` keeps the analysis for
+    /// the memo). When the moved
     /// design does not analyse, the furthest valid position on the way there is shown
     /// instead (the engine's search, `edit::drag_to_with`, validating only; the position
     /// found is then analysed) and the refusal just past it is returned; the current
@@ -241,14 +230,14 @@ impl AppState {
         let candidate = edit::moved(&from, handle, x, y, snapping);
         let refusal = match self.check(&candidate) {
             Ok(()) => {
-                self.preview(candidate);
+                self.clear_refusal();
+                self.design.set(candidate);
                 return None;
             }
             Err(e) => e,
         };
         let step = edit::drag_to_with(&from, handle, x, y, snapping, |d| ValidDesign::new(d).map(|_| ()));
         if step.design != from && self.check(&step.design).is_ok() {
-            // not `preview`: that would clear the message this step is about to show
             self.design.set(step.design);
         }
         Some(step.stopped.unwrap_or(refusal))
