@@ -5,7 +5,7 @@
 use crate::canvas::{distance_to_segment, View};
 use crate::format::Units;
 use springline_statics::arch::edit::{self, deck_line, point_handles};
-pub use springline_statics::arch::edit::{Handle, Snapping};
+pub use springline_statics::arch::edit::{Drag, DragStop, Handle, Snapping};
 use springline_statics::error::{counted, Location, StaticsError};
 use springline_statics::{Analysis, Design};
 
@@ -51,21 +51,14 @@ pub fn snapping(shift_held: bool) -> Snapping {
 /// its largest rise the reason is the engine's largest rise in words (what governs it,
 /// where the funicular's highest point is); otherwise the first problem of the refusal
 /// just past the position held (and how many there are in all).
-pub fn stop_message(handle: Handle, shown: &Design, error: &StaticsError, units: Units) -> String {
+pub fn stop_message(handle: Handle, shown: &Design, stop: &DragStop, units: Units) -> String {
     let held = match handle.reading(shown) {
         Some(r) => capitalised(&format!("{} held at {}", r.field, held_value(&r, units))),
         None => "Held at the last valid position".to_string(),
     };
-    if handle == Handle::Crown {
-        if let Ok(limit) = edit::largest_rise(shown) {
-            // held within a grid step below the largest rise: that is the limit
-            if shown.rise() >= limit.rise - edit::SNAP_STEP - edit::LIMIT_RESOLUTION {
-                return format!("{held}: {}.", limit.describe(units));
-            }
-        }
-    }
-    let reason = match error {
-        StaticsError::Invalid(problems) if !problems.is_empty() => {
+    let reason = match stop {
+        DragStop::LargestRise(limit) => limit.describe(units),
+        DragStop::Refused(StaticsError::Invalid(problems)) if !problems.is_empty() => {
             let first = &problems[0];
             let words = match &first.location {
                 Location::Field(_) => first.message.clone(),
@@ -77,7 +70,7 @@ pub fn stop_message(handle: Handle, shown: &Design, error: &StaticsError, units:
                 words
             }
         }
-        other => other.to_string(),
+        DragStop::Refused(other) => other.to_string(),
     };
     format!("{held}: {reason}.")
 }
@@ -109,9 +102,9 @@ mod tests {
     #[test]
     fn the_crown_held_at_its_largest_rise_says_the_largest_rise_and_where_the_rib_meets_the_deck() {
         let d = Design::demo();
-        let step = edit::drag_to(&d, Handle::Crown, 80.0, 110.0, Snapping::ToGrid);
-        let error = step.stopped.expect("stopped");
-        let m = stop_message(Handle::Crown, &step.design, &error, Units::Si);
+        let step = Drag::new(Handle::Crown).step(&d, 80.0, 110.0, Snapping::ToGrid, edit::analyses);
+        let stop = step.stop.expect("stopped");
+        let m = stop_message(Handle::Crown, &step.design, &stop, Units::Si);
         assert!(m.starts_with("Rise held at 21.70\u{a0}m: the largest rise the layout takes is 21.7"), "{m}");
         assert!(m.contains("the rib reaches the deck at x = "), "{m}");
         assert!(
@@ -125,9 +118,9 @@ mod tests {
     #[test]
     fn the_deck_held_at_the_abutment_height_names_the_seat_in_words() {
         let d = Design::demo();
-        let step = edit::drag_to(&d, Handle::Deck, 80.0, 125.0, Snapping::ToGrid);
-        let error = step.stopped.expect("stopped");
-        let m = stop_message(Handle::Deck, &step.design, &error, Units::Si);
+        let step = Drag::new(Handle::Deck).step(&d, 80.0, 125.0, Snapping::ToGrid, edit::analyses);
+        let stop = step.stop.expect("stopped");
+        let m = stop_message(Handle::Deck, &step.design, &stop, Units::Si);
         assert!(
             m.starts_with("Deck level held at 109.3\u{a0}m: the ground at the left abutment seat"),
             "{m}"
@@ -142,7 +135,7 @@ mod tests {
         d.deck.level = 60.0; // under both springings (76 m, 80 m) and the crown
         let error = analyze(&d).expect_err("refused");
         assert!(error.problems().len() >= 3, "{error}");
-        let m = stop_message(Handle::Deck, &Design::demo(), &error, Units::Si);
+        let m = stop_message(Handle::Deck, &Design::demo(), &DragStop::Refused(error.clone()), Units::Si);
         assert!(
             m.starts_with("Deck level held at 100.0\u{a0}m: the left springing (76 m) is at or above"),
             "{m}"

@@ -4,7 +4,7 @@
 
 use crate::canvas::View;
 use crate::components::readout::{drawn_model, step_member, ModelSwitch};
-use crate::drag::{self, Handle};
+use crate::drag::{self, Drag, Handle};
 use crate::forces;
 use crate::paint;
 use crate::state::{AppState, DragReading};
@@ -32,10 +32,7 @@ pub fn ElevationCanvas() -> impl IntoView {
     let node: NodeRef<Canvas> = NodeRef::new();
     // the scene on screen and the model it draws (for pointer hits)
     let shown = StoredValue::new(None::<(Scene, ModelKind)>);
-    // a drag: the handle, the design before it, the transform it started in (kept fixed
-    // so the mapping does not shift while the drawing would refit) and the grab offset
-    // (world, from the pointer to the handle, so the handle does not jump to the pointer)
-    let dragging = StoredValue::new(None::<(Handle, springline_statics::Design, Transform, (f64, f64))>);
+    let dragging = StoredValue::new(None::<HandleDrag>);
     Effect::new(move |_| {
         let _ = state.resized.get();
         let focus = state.focus.get();
@@ -52,7 +49,7 @@ pub fn ElevationCanvas() -> impl IntoView {
             _ => &a.frame.map,
         };
         let highlight = focus.and_then(|k| k.member_in(map, model));
-        let transform = dragging.with_value(|d| d.as_ref().map(|(_, _, t, _)| *t));
+        let transform = dragging.with_value(|d| d.as_ref().map(|d| d.transform));
         let opts = ElevationOptions { units, case, model, highlight, transform };
         let scene = state.design.with(|d| elevation(&a, d, &opts, viewport));
         paint::paint(&el, &scene);
@@ -81,11 +78,11 @@ pub fn ElevationCanvas() -> impl IntoView {
                 reading,
                 client: (ev.client_x() as f64, ev.client_y() as f64),
             }));
-            dragging.set_value(Some((h, design, t, grab)));
+            dragging.set_value(Some(HandleDrag { drag: Drag::new(h), before: design, transform: t, grab }));
         }
     };
     let on_up = move |ev: web_sys::PointerEvent| {
-        if let Some((_, before, _, _)) = dragging.get_value() {
+        if let Some(HandleDrag { before, .. }) = dragging.get_value() {
             dragging.set_value(None);
             state.dragging.set(false);
             state.drag_reading.set(None);
@@ -104,18 +101,18 @@ pub fn ElevationCanvas() -> impl IntoView {
         let at = pointer_in(&el, &ev);
         // dragging: map with the transform the drag started in, snap unless Shift is held,
         // and past a limit keep the furthest valid position and say why in the status line
-        let target = dragging.with_value(|d| {
-            d.as_ref().map(|(h, _, start, grab)| {
-                let (x, y) = start.world(Px::new(at.0, at.1));
-                (*h, x + grab.0, y + grab.1)
-            })
-        });
-        if let Some((h, x, y)) = target {
-            let stopped = state.drag_to(h, x, y, drag::snapping(ev.shift_key()));
+        // (the drag's state is taken out for the step and put back: the step runs the
+        // analysis, which must not hold the stored value borrowed)
+        if let Some(mut held) = dragging.try_update_value(Option::take).flatten() {
+            let (x, y) = held.transform.world(Px::new(at.0, at.1));
+            let (x, y) = (x + held.grab.0, y + held.grab.1);
+            let stop = state.drag_step(&mut held.drag, x, y, drag::snapping(ev.shift_key()));
+            let h = held.drag.handle;
+            dragging.set_value(Some(held));
             let units = state.units.get_untracked();
             state.design.with_untracked(|d| {
-                if let Some(e) = stopped {
-                    state.drag_stop.set(Some(drag::stop_message(h, d, &e, units)));
+                if let Some(stop) = stop {
+                    state.drag_stop.set(Some(drag::stop_message(h, d, &stop, units)));
                 }
                 let client = (ev.client_x() as f64, ev.client_y() as f64);
                 state.drag_reading.set(h.reading(d).map(|reading| DragReading { reading, client }));
@@ -167,6 +164,21 @@ pub fn ElevationCanvas() -> impl IntoView {
             <ModelSwitch />
         </div>
     }
+}
+
+/// A drag of an elevation handle in progress.
+#[derive(Clone)]
+struct HandleDrag {
+    /// The engine's drag (the handle, and the limit it works out once).
+    drag: Drag,
+    /// The design before the drag (one undo step returns to it).
+    before: springline_statics::Design,
+    /// The transform the drag started in, kept fixed so the mapping does not shift
+    /// while the drawing would refit.
+    transform: Transform,
+    /// World offset from the pointer to the handle, so the handle does not jump to the
+    /// pointer.
+    grab: (f64, f64),
 }
 
 /// The drag helpers' view of a scene transform (the same mapping).
