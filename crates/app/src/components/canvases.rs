@@ -57,6 +57,11 @@ pub fn ElevationCanvas() -> impl IntoView {
     });
     let transform_now = move || shown.with_value(|s| s.as_ref().and_then(|(s, _)| s.transform));
     let on_down = move |ev: web_sys::PointerEvent| {
+        // a second pointer (another finger) while a drag is on does not take it over:
+        // the drag's saved design would be mid-drag and undo would lose its start
+        if dragging.with_value(Option::is_some) {
+            return;
+        }
         let (Some(el), Some(t)) = (node.get(), transform_now()) else { return };
         let at = pointer_in(&el, &ev);
         let design = state.design.get_untracked();
@@ -78,11 +83,18 @@ pub fn ElevationCanvas() -> impl IntoView {
                 reading,
                 client: (ev.client_x() as f64, ev.client_y() as f64),
             }));
-            dragging.set_value(Some(HandleDrag { drag: Drag::new(h), before: design, transform: t, grab }));
+            dragging.set_value(Some(HandleDrag {
+                pointer: ev.pointer_id(),
+                drag: Drag::new(h),
+                before: design,
+                transform: t,
+                grab,
+            }));
         }
     };
     let on_up = move |ev: web_sys::PointerEvent| {
-        if let Some(HandleDrag { before, .. }) = dragging.get_value() {
+        let ours = dragging.with_value(|d| d.as_ref().is_some_and(|d| d.pointer == ev.pointer_id()));
+        if let Some(HandleDrag { before, .. }) = dragging.get_value().filter(|_| ours) {
             dragging.set_value(None);
             state.dragging.set(false);
             state.drag_reading.set(None);
@@ -97,6 +109,11 @@ pub fn ElevationCanvas() -> impl IntoView {
         }
     };
     let on_move = move |ev: web_sys::PointerEvent| {
+        // while a drag is on, other pointers neither move it nor hover
+        let drag_pointer = dragging.with_value(|d| d.as_ref().map(|d| d.pointer));
+        if drag_pointer.is_some_and(|id| id != ev.pointer_id()) {
+            return;
+        }
         let (Some(el), Some(t)) = (node.get(), transform_now()) else { return };
         let at = pointer_in(&el, &ev);
         // dragging: map with the transform the drag started in, snap unless Shift is held,
@@ -157,6 +174,7 @@ pub fn ElevationCanvas() -> impl IntoView {
                 on:pointerdown=on_down
                 on:pointerup=on_up
                 on:pointercancel=on_up
+                on:lostpointercapture=on_up
                 on:pointermove=on_move
                 on:pointerleave=move |_| state.focus_member(None)
                 on:keydown=on_key
@@ -169,6 +187,8 @@ pub fn ElevationCanvas() -> impl IntoView {
 /// A drag of an elevation handle in progress.
 #[derive(Clone)]
 struct HandleDrag {
+    /// The pointer that holds the handle: other pointers are ignored until it is up.
+    pointer: i32,
     /// The engine's drag (the handle, and the limit it works out once).
     drag: Drag,
     /// The design before the drag (one undo step returns to it).
