@@ -277,10 +277,14 @@ pub fn ForceCanvas() -> impl IntoView {
             p.push((ev.pointer_id(), at));
         });
     };
+    // up, cancelled or capture lost (a touch the browser took over): the pointer is gone,
+    // so a later single pointer pans instead of pinching with a stale one
     let on_up = move |ev: web_sys::PointerEvent| {
         pointers.update_value(|p| p.retain(|(id, _)| *id != ev.pointer_id()));
         if let Some(el) = node.get() {
-            let _ = el.release_pointer_capture(ev.pointer_id());
+            if el.has_pointer_capture(ev.pointer_id()) {
+                let _ = el.release_pointer_capture(ev.pointer_id());
+            }
         }
     };
     let on_move = move |ev: web_sys::PointerEvent| {
@@ -357,6 +361,7 @@ pub fn ForceCanvas() -> impl IntoView {
                 on:pointerdown=on_down
                 on:pointerup=on_up
                 on:pointercancel=on_up
+                on:lostpointercapture=on_up
                 on:pointermove=on_move
                 on:pointerleave=move |_| state.hover(None)
                 on:wheel=on_wheel
