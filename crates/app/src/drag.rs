@@ -3,7 +3,7 @@
 //! the search for the last valid position are the engine's (`arch::edit`).
 
 use crate::canvas::{distance_to_segment, View};
-use crate::format::Units;
+use crate::format::{Quantity, Units};
 use springline_statics::arch::edit::{self, deck_line, point_handles};
 pub use springline_statics::arch::edit::{Drag, DragStop, Handle, Snapping};
 use springline_statics::error::{counted, Location, StaticsError};
@@ -14,10 +14,26 @@ pub const POINT_REACH: f64 = 10.0;
 /// CSS pixels within which the deck line is caught.
 pub const LINE_REACH: f64 = 5.0;
 
-/// The words of the status line when nothing is wrong: what can be dragged and how the
-/// modifier key frees the grid.
-pub const DRAG_HINT: &str = "Drag the crown, a springing, the deck or a ground point: values move in \
-                             steps of 0.1 m; hold Shift while dragging to move freely.";
+/// The words of the status line when nothing is wrong, in `units`: what can be dragged,
+/// the grid values move on and how the modifier key frees it. The grid is metric
+/// ([`edit::SNAP_STEP`], 0.1 m) whatever the units shown, so in US units the step is
+/// told in metres with its length in feet beside (0.1 m = 0.33 ft, 1 ft = 0.3048 m
+/// exactly).
+pub fn drag_hint(units: Units) -> String {
+    let metric = format!("{}\u{a0}m", edit::SNAP_STEP);
+    let grid = match units {
+        Units::Si => format!("values move in steps of {metric}"),
+        Units::UsCustomary => format!(
+            "values move on a metric grid, in steps of {metric} ({:.2}\u{a0}{})",
+            units.to_shown(Quantity::Length, edit::SNAP_STEP),
+            units.label(Quantity::Length)
+        ),
+    };
+    format!(
+        "Drag the crown, a springing, the deck or a ground point: {grid}; hold Shift while dragging to \
+         move freely."
+    )
+}
 
 /// The handle under CSS pixel `at`, points first (nearest wins), then the deck line.
 pub fn handle_at(design: &Design, a: &Analysis, view: &View, at: (f64, f64)) -> Option<Handle> {
@@ -37,7 +53,8 @@ pub fn handle_at(design: &Design, a: &Analysis, view: &View, at: (f64, f64)) -> 
     (distance_to_segment(at, l, r) <= LINE_REACH).then_some(Handle::Deck)
 }
 
-/// Snapping for a pointer event: on the 0.1 m grid unless Shift is held.
+/// Snapping for a pointer event: on the 0.1 m grid (metric in any units) unless Shift is
+/// held.
 pub fn snapping(shift_held: bool) -> Snapping {
     if shift_held {
         Snapping::Free
@@ -76,7 +93,7 @@ pub fn stop_message(handle: Handle, shown: &Design, stop: &DragStop, units: Unit
 }
 
 fn held_value(r: &edit::Reading, units: Units) -> String {
-    let length = |v: f64| units.show(crate::format::Quantity::Length, v);
+    let length = |v: f64| units.show(Quantity::Length, v);
     match r.x {
         None => length(r.y),
         Some(x) => format!("x {}, y {}", length(x), length(r.y)),
@@ -148,6 +165,16 @@ mod tests {
     fn shift_frees_the_grid() {
         assert_eq!(snapping(true), Snapping::Free);
         assert_eq!(snapping(false), Snapping::ToGrid);
-        assert!(DRAG_HINT.contains("Shift"));
+        assert!(drag_hint(Units::Si).contains("Shift"));
+    }
+
+    #[test]
+    fn the_hint_tells_the_metric_step_and_its_length_in_feet() {
+        let si = drag_hint(Units::Si);
+        assert!(si.contains("values move in steps of 0.1\u{a0}m;"), "{si}");
+        assert!(!si.contains("\u{a0}ft"), "{si}");
+        // 0.1 m / 0.3048 m per ft = 0.328 ft
+        let us = drag_hint(Units::UsCustomary);
+        assert!(us.contains("on a metric grid, in steps of 0.1\u{a0}m (0.33\u{a0}ft);"), "{us}");
     }
 }
