@@ -2,11 +2,12 @@
 //! pixels) and the words for a drag that stopped. What moving a handle means, snapping and
 //! the search for the last valid position are the engine's (`arch::edit`).
 
-use crate::canvas::{distance_to_segment, View};
 use crate::format::{Quantity, Units};
 use springline_statics::arch::edit::{self, deck_line, point_handles};
 pub use springline_statics::arch::edit::{Drag, DragStop, Handle, Snapping};
 use springline_statics::error::{counted, Location, StaticsError};
+use springline_statics::scene::force::distance_to_segment;
+use springline_statics::scene::{Px, Transform};
 use springline_statics::{Analysis, Design};
 
 /// CSS pixels within which a point handle is caught.
@@ -36,12 +37,12 @@ pub fn drag_hint(units: Units) -> String {
 }
 
 /// The handle under CSS pixel `at`, points first (nearest wins), then the deck line.
-pub fn handle_at(design: &Design, a: &Analysis, view: &View, at: (f64, f64)) -> Option<Handle> {
+pub fn handle_at(design: &Design, a: &Analysis, transform: &Transform, at: Px) -> Option<Handle> {
     let best = point_handles(design, &a.form)
         .into_iter()
         .map(|(h, p)| {
-            let q = view.px(p.x, p.y);
-            (h, (q.0 - at.0).hypot(q.1 - at.1))
+            let q = transform.px(p.x, p.y);
+            (h, (q.x - at.x).hypot(q.y - at.y))
         })
         .filter(|(_, d)| *d <= POINT_REACH)
         .min_by(|x, y| x.1.total_cmp(&y.1));
@@ -49,7 +50,7 @@ pub fn handle_at(design: &Design, a: &Analysis, view: &View, at: (f64, f64)) -> 
         return Some(h);
     }
     let (l, r) = deck_line(design);
-    let (l, r) = (view.px(l.x, l.y), view.px(r.x, r.y));
+    let (l, r) = (transform.px(l.x, l.y), transform.px(r.x, r.y));
     (distance_to_segment(at, l, r) <= LINE_REACH).then_some(Handle::Deck)
 }
 
@@ -159,6 +160,26 @@ mod tests {
         );
         assert!(m.contains(&format!("({} problems in all)", error.problems().len())), "{m}");
         assert!(!m.contains("problem(s)"));
+    }
+
+    #[test]
+    fn a_handle_is_caught_within_its_reach_in_pixels() {
+        // 4 px per metre: the demo's crown (97.5 m) is 10 px under the deck (100 m)
+        let d = Design::demo();
+        let a = analyze(&d).expect("the demo analyses");
+        let t = Transform { scale: 4.0, origin_x: 10.0, origin_y: 500.0 };
+        let crown = t.px(a.form.crown.x, a.form.crown.y);
+        // 5 px off the crown (3-4-5) is within POINT_REACH (10 px); 11 px up is not, and
+        // is 1 px over the deck line
+        assert_eq!(handle_at(&d, &a, &t, Px::new(crown.x + 3.0, crown.y + 4.0)), Some(Handle::Crown));
+        assert_eq!(handle_at(&d, &a, &t, Px::new(crown.x, crown.y - 11.0)), Some(Handle::Deck));
+        // the deck line at x = 20 m, far from every point handle: caught within LINE_REACH
+        let deck = t.px(20.0, 100.0);
+        assert_eq!(handle_at(&d, &a, &t, Px::new(deck.x, deck.y + 4.0)), Some(Handle::Deck));
+        assert_eq!(handle_at(&d, &a, &t, Px::new(deck.x, deck.y + 6.0)), None);
+        // past the right seat (x = 166 m) the line ends: 6 px beyond its end is out of reach
+        let end = t.px(166.0, 100.0);
+        assert_eq!(handle_at(&d, &a, &t, Px::new(end.x + 6.0, end.y)), None);
     }
 
     #[test]

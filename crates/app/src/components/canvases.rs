@@ -2,7 +2,6 @@
 //! canvas with the analysis, the pointer, the units and the window size) and maps the
 //! pointer back to a member so hovering one highlights its partner in the other.
 
-use crate::canvas::View;
 use crate::components::readout::{drawn_model, step_member, ModelSwitch};
 use crate::drag::{self, Drag, Handle};
 use crate::forces;
@@ -67,7 +66,7 @@ pub fn ElevationCanvas() -> impl IntoView {
         let design = state.design.get_untracked();
         let grabbed = state.analysis.with_untracked(|o| {
             let a = o.as_ref().ok()?;
-            let h = drag::handle_at(&design, a, &view_of(t), at)?;
+            let h = drag::handle_at(&design, a, &t, Px::new(at.0, at.1))?;
             let p = h.point(&design, &a.form)?;
             let (wx, wy) = t.world(Px::new(at.0, at.1));
             // the deck is grabbed where the pointer is along it: only its level counts
@@ -139,7 +138,7 @@ pub fn ElevationCanvas() -> impl IntoView {
         // hovering: a grab cursor over handles, and the member under the pointer
         let grabbable = state.design.with_untracked(|design| {
             state.analysis.with_untracked(|o| {
-                o.as_ref().ok().is_some_and(|a| drag::handle_at(design, a, &view_of(t), at).is_some())
+                o.as_ref().ok().is_some_and(|a| drag::handle_at(design, a, &t, Px::new(at.0, at.1)).is_some())
             })
         });
         let _ = web_sys::HtmlElement::style(&el)
@@ -199,11 +198,6 @@ struct HandleDrag {
     /// World offset from the pointer to the handle, so the handle does not jump to the
     /// pointer.
     grab: (f64, f64),
-}
-
-/// The drag helpers' view of a scene transform (the same mapping).
-fn view_of(t: Transform) -> View {
-    View { scale: t.scale, origin_x: t.origin_x, origin_y: t.origin_y }
 }
 
 /// Zoom factor of one press of the zoom buttons.
