@@ -207,3 +207,62 @@ fn a_rise_typed_over_the_largest_is_refused_and_told_the_largest_rise() {
     assert_eq!(rise_field(&s), 21.0);
     assert!(severe(&s).is_empty(), "{:?}", severe(&s));
 }
+
+/// `#forces`'s published scale, CSS px per kN.
+fn force_scale(s: &Session) -> f64 {
+    let v = s.exec("return +document.getElementById('forces').dataset.scale;", vec![]);
+    v.as_f64().unwrap_or(f64::NAN)
+}
+
+#[test]
+fn the_force_scale_is_held_while_the_crown_is_dragged_and_refits_after() {
+    let server = StaticServer::start(&dist());
+    let driver = Driver::start();
+    let s = driver.session(1500, 1000, 1.0);
+    open(&s, &server);
+    let demo = Design::demo();
+    let before = force_scale(&s);
+    assert!(before.is_finite() && before > 0.0, "force scale {before}");
+    // the crown 4 m down: a rise of 19.5 - 4 = 15.5 m, well above the least rise (see
+    // `edit`'s tests), so the drag is never stopped; the flatter rib thrusts harder
+    let (t, from) = (transform(&s, "elevation"), crown_px(&s, &demo));
+    s.exec(
+        "window.__scales = [];
+         document.addEventListener('pointermove', () => {
+           window.__scales.push([+document.getElementById('forces').dataset.scale,
+                                 document.getElementById('rise').value]);
+         }, true);",
+        vec![],
+    );
+    s.drag(from, (from.0, from.1 + 4.0 * t.0), 10);
+    let during = s.exec("return window.__scales;", vec![]).as_array().cloned().unwrap_or_default();
+    assert!(during.len() >= 8, "pointer moves recorded: {}", during.len());
+    // the design changed during the drag (the rise field followed) ...
+    let rises: Vec<&str> = during.iter().filter_map(|r| r[1].as_str()).collect();
+    assert!(rises.first() != rises.last(), "the rise did not change while dragging: {rises:?}");
+    // ... and the force diagram kept the scale it had when the drag started
+    for (k, r) in during.iter().enumerate() {
+        let scale = r[0].as_f64().unwrap_or(f64::NAN);
+        assert!((scale - before).abs() <= 1e-9 * before, "move {k}: force scale {scale}, before {before}");
+    }
+    // released: the thrust changed, so the diagram refits to a new scale
+    let rise = rise_field(&s);
+    assert!((rise - 15.5).abs() <= 1.0 / t.0 + SNAP_STEP, "rise {rise} m after 4 m down from 19.5 m");
+    // the thrust of the form (H, kN), from the engine
+    let h = |d: &Design| analyze(d).expect("analyses").form.thrust;
+    let mut dragged = demo.clone();
+    dragged.set_rise(rise);
+    assert!(h(&dragged) > h(&demo), "thrust {} kN, before {} kN", h(&dragged), h(&demo));
+    s.wait_for(
+        "the force diagram to refit after the drag",
+        &format!(
+            "return Math.abs(+document.getElementById('forces').dataset.scale - {before}) > {};",
+            1e-6 * before
+        ),
+        WAIT,
+    );
+    let after = force_scale(&s);
+    // a harder thrust draws wider at the held scale: the refit draws it smaller
+    assert!(after < before, "force scale {after} after, {before} before");
+    assert!(severe(&s).is_empty(), "{:?}", severe(&s));
+}

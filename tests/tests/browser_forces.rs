@@ -194,20 +194,25 @@ fn every_force_label_fits_its_box_as_the_browser_measures_it() {
     let s = driver.session(1500, 1000, 1.0);
     open(&s, &server);
     let measure = "const c = document.getElementById('forces'); const ctx = c.getContext('2d');
-         return JSON.parse(c.dataset.labels).map(l => { ctx.font = l.font; return [l.text, ctx.measureText(l.text).width, l.w]; });";
+         return JSON.parse(c.dataset.labels).map(l => { ctx.font = l.font; return [l.text, ctx.measureText(l.text).width, l.w, l.pad]; });";
     let check = |s: &Session| {
         let rows = s.exec(measure, vec![]);
         let rows = rows.as_array().cloned().unwrap_or_default();
         assert!(rows.len() > 10, "labels published: {}", rows.len());
         let mut too_wide = Vec::new();
         for r in rows {
-            let (text, measured, w) = (
+            let (text, measured, w, pad) = (
                 r[0].as_str().unwrap_or(""),
                 r[1].as_f64().unwrap_or(f64::NAN),
                 r[2].as_f64().unwrap_or(0.0),
+                r[3].as_f64().unwrap_or(f64::NAN),
             );
-            if measured.is_nan() || measured > w + 1e-9 {
-                too_wide.push(format!("'{text}' measures {measured:.1} px in a {w:.1} px box"));
+            // the text and its padding either side must fit the box (the rule of
+            // `browser_scene`'s label check)
+            if measured.is_nan() || pad.is_nan() || measured + 2.0 * pad > w + 0.01 {
+                too_wide.push(format!(
+                    "'{text}' measures {measured:.1} px with {pad} px padding either side in a {w:.1} px box"
+                ));
             }
         }
         assert!(too_wide.is_empty(), "labels wider than their boxes: {too_wide:#?}");

@@ -1,28 +1,11 @@
-//! Canvas plumbing: a sharp backing store at any device pixel ratio, the world-to-pixel
-//! mapping pointers use, and the geometry of picking a segment. Drawing itself is
-//! `paint.rs` over the engine's scenes.
+//! Canvas plumbing: a sharp backing store at any device pixel ratio, and picking the
+//! segment nearest the pointer. Drawing itself is `paint.rs` over the engine's scenes,
+//! whose `Transform` maps world points to pixels.
 
+use springline_statics::scene::force::distance_to_segment;
+use springline_statics::scene::Px;
 use wasm_bindgen::JsCast;
 use web_sys::{CanvasRenderingContext2d, HtmlCanvasElement};
-
-/// Maps world coordinates (m, or kN in the force diagram; y up) to CSS pixels (y down):
-/// `px = origin_x + scale * x`, `py = origin_y - scale * y`.
-#[derive(Debug, Clone, Copy, PartialEq)]
-pub struct View {
-    /// CSS pixels per world unit.
-    pub scale: f64,
-    /// CSS pixel x of the world origin.
-    pub origin_x: f64,
-    /// CSS pixel y of the world origin.
-    pub origin_y: f64,
-}
-
-impl View {
-    /// World point to CSS pixels.
-    pub fn px(&self, x: f64, y: f64) -> (f64, f64) {
-        (self.origin_x + self.scale * x, self.origin_y - self.scale * y)
-    }
-}
 
 /// A 2D context whose units are CSS pixels, and the canvas size in CSS pixels.
 pub struct Surface {
@@ -59,10 +42,10 @@ pub fn prepare(canvas: &HtmlCanvasElement) -> Option<Surface> {
 }
 
 /// The key of the segment nearest to `pointer` (CSS pixels) among `segments` (key, end,
-/// end), if it lies within `tolerance` pixels.
+/// end), if it lies within `tolerance` pixels (the engine's point-to-segment distance).
 pub fn nearest_segment<K>(
-    pointer: (f64, f64),
-    segments: impl IntoIterator<Item = (K, (f64, f64), (f64, f64))>,
+    pointer: Px,
+    segments: impl IntoIterator<Item = (K, Px, Px)>,
     tolerance: f64,
 ) -> Option<K> {
     segments
@@ -71,12 +54,4 @@ pub fn nearest_segment<K>(
         .filter(|(_, d)| *d <= tolerance)
         .min_by(|x, y| x.1.total_cmp(&y.1))
         .map(|(key, _)| key)
-}
-
-/// Distance from point p to the segment a-b, in the same units.
-pub fn distance_to_segment(p: (f64, f64), a: (f64, f64), b: (f64, f64)) -> f64 {
-    let (dx, dy) = (b.0 - a.0, b.1 - a.1);
-    let l2 = dx * dx + dy * dy;
-    let t = if l2 > 0.0 { (((p.0 - a.0) * dx + (p.1 - a.1) * dy) / l2).clamp(0.0, 1.0) } else { 0.0 };
-    (p.0 - a.0 - t * dx).hypot(p.1 - a.1 - t * dy)
 }

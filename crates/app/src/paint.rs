@@ -216,9 +216,9 @@ fn publish(canvas: &HtmlCanvasElement, scene: &Scene) {
 pub fn member_at(scene: &Scene, at: (f64, f64), tolerance: f64) -> Option<usize> {
     let segments = scene.items.iter().filter_map(|i| match (&i.shape, i.tag) {
         (Shape::Line { from, to }, springline_statics::scene::Tag::Member { member }) => {
-            Some((member, (from.x, from.y), (to.x, to.y)))
+            Some((member, *from, *to))
         }
         _ => None,
     });
-    canvas::nearest_segment(at, segments, tolerance)
+    canvas::nearest_segment(springline_statics::scene::Px::new(at.0, at.1), segments, tolerance)
 }

@@ -4,10 +4,10 @@
 
 use crate::format::Units;
 use leptos::prelude::*;
-use springline_statics::arch::edit::{self, Handle, Reading, Snapping};
+use springline_statics::arch::edit::{Drag, DragStop, Reading, Snapping};
 use springline_statics::arch::readout::MemberKey;
 use springline_statics::error::{Field, Location, StaticsError};
-use springline_statics::{analyze, Analysis, Design, ModelKind, ValidDesign};
+use springline_statics::{analyze, Analysis, Design, ModelKind};
 use std::sync::Arc;
 
 /// The analysis of the current design, or the engine's error when there is none.
@@ -217,41 +217,23 @@ impl AppState {
         self.future.update(|f| f.clear());
     }
 
-    /// Shows `design` without recording a step (during a drag: the drag as a whole is
-    /// recorded once, when it ends). Returns false, changing nothing, when it does not
-    /// analyse.
-    pub fn preview(&self, design: Design) -> bool {
-        if self.check(&design).is_ok() {
-            self.clear_refusal();
-            self.design.set(design);
-            true
-        } else {
-            false
-        }
-    }
-
-    /// One step of a drag: moves `handle` of the current design to world point (x, y), m,
-    /// and shows the result without recording a step (see `preview`). When the moved
-    /// design does not analyse, the furthest valid position on the way there is shown
-    /// instead (the engine's search, `edit::drag_to_with`, validating only; the position
-    /// found is then analysed) and the refusal just past it is returned; the current
+    /// One step of `drag` (the engine's `edit::Drag::step`): moves its handle of the
+    /// current design towards world point (x, y), m, and shows the result without
+    /// recording a step (the drag as a whole is recorded once, when it ends). Each design
+    /// shown is analysed once (`check` keeps the analysis for the memo). Past a limit the
+    /// furthest valid position on the way is shown and the reason returned; the current
     /// design stays when no position is found.
-    pub fn drag_to(&self, handle: Handle, x: f64, y: f64, snapping: Snapping) -> Option<StaticsError> {
+    pub fn drag_step(&self, drag: &mut Drag, x: f64, y: f64, snapping: Snapping) -> Option<DragStop> {
         let from = self.design.get_untracked();
-        let candidate = edit::moved(&from, handle, x, y, snapping);
-        let refusal = match self.check(&candidate) {
-            Ok(()) => {
-                self.preview(candidate);
-                return None;
-            }
-            Err(e) => e,
-        };
-        let step = edit::drag_to_with(&from, handle, x, y, snapping, |d| ValidDesign::new(d).map(|_| ()));
-        if step.design != from && self.check(&step.design).is_ok() {
-            // not `preview`: that would clear the message this step is about to show
+        let step = drag.step(&from, x, y, snapping, |d| self.check(d));
+        if step.stop.is_none() {
+            self.clear_refusal();
+        }
+        // the engine analysed the design it returns (through `check`) unless it is `from`
+        if step.design != from {
             self.design.set(step.design);
         }
-        Some(step.stopped.unwrap_or(refusal))
+        step.stop
     }
 
     /// Sets the truss member under the pointer (only when it changes, so canvases redraw

@@ -2,9 +2,8 @@
 //! canvas with the analysis, the pointer, the units and the window size) and maps the
 //! pointer back to a member so hovering one highlights its partner in the other.
 
-use crate::canvas::View;
 use crate::components::readout::{drawn_model, step_member, ModelSwitch};
-use crate::drag::{self, Handle};
+use crate::drag::{self, Drag, Handle};
 use crate::forces;
 use crate::paint;
 use crate::state::{AppState, DragReading};
@@ -32,10 +31,7 @@ pub fn ElevationCanvas() -> impl IntoView {
     let node: NodeRef<Canvas> = NodeRef::new();
     // the scene on screen and the model it draws (for pointer hits)
     let shown = StoredValue::new(None::<(Scene, ModelKind)>);
-    // a drag: the handle, the design before it, the transform it started in (kept fixed
-    // so the mapping does not shift while the drawing would refit) and the grab offset
-    // (world, from the pointer to the handle, so the handle does not jump to the pointer)
-    let dragging = StoredValue::new(None::<(Handle, springline_statics::Design, Transform, (f64, f64))>);
+    let dragging = StoredValue::new(None::<HandleDrag>);
     Effect::new(move |_| {
         let _ = state.resized.get();
         let focus = state.focus.get();
@@ -52,7 +48,7 @@ pub fn ElevationCanvas() -> impl IntoView {
             _ => &a.frame.map,
         };
         let highlight = focus.and_then(|k| k.member_in(map, model));
-        let transform = dragging.with_value(|d| d.as_ref().map(|(_, _, t, _)| *t));
+        let transform = dragging.with_value(|d| d.as_ref().map(|d| d.transform));
         let opts = ElevationOptions { units, case, model, highlight, transform };
         let scene = state.design.with(|d| elevation(&a, d, &opts, viewport));
         paint::paint(&el, &scene);
@@ -60,12 +56,17 @@ pub fn ElevationCanvas() -> impl IntoView {
     });
     let transform_now = move || shown.with_value(|s| s.as_ref().and_then(|(s, _)| s.transform));
     let on_down = move |ev: web_sys::PointerEvent| {
+        // a second pointer (another finger) while a drag is on does not take it over:
+        // the drag's saved design would be mid-drag and undo would lose its start
+        if dragging.with_value(Option::is_some) {
+            return;
+        }
         let (Some(el), Some(t)) = (node.get(), transform_now()) else { return };
         let at = pointer_in(&el, &ev);
         let design = state.design.get_untracked();
         let grabbed = state.analysis.with_untracked(|o| {
             let a = o.as_ref().ok()?;
-            let h = drag::handle_at(&design, a, &view_of(t), at)?;
+            let h = drag::handle_at(&design, a, &t, Px::new(at.0, at.1))?;
             let p = h.point(&design, &a.form)?;
             let (wx, wy) = t.world(Px::new(at.0, at.1));
             // the deck is grabbed where the pointer is along it: only its level counts
@@ -81,11 +82,18 @@ pub fn ElevationCanvas() -> impl IntoView {
                 reading,
                 client: (ev.client_x() as f64, ev.client_y() as f64),
             }));
-            dragging.set_value(Some((h, design, t, grab)));
+            dragging.set_value(Some(HandleDrag {
+                pointer: ev.pointer_id(),
+                drag: Drag::new(h),
+                before: design,
+                transform: t,
+                grab,
+            }));
         }
     };
     let on_up = move |ev: web_sys::PointerEvent| {
-        if let Some((_, before, _, _)) = dragging.get_value() {
+        let ours = dragging.with_value(|d| d.as_ref().is_some_and(|d| d.pointer == ev.pointer_id()));
+        if let Some(HandleDrag { before, .. }) = dragging.get_value().filter(|_| ours) {
             dragging.set_value(None);
             state.dragging.set(false);
             state.drag_reading.set(None);
@@ -100,22 +108,27 @@ pub fn ElevationCanvas() -> impl IntoView {
         }
     };
     let on_move = move |ev: web_sys::PointerEvent| {
+        // while a drag is on, other pointers neither move it nor hover
+        let drag_pointer = dragging.with_value(|d| d.as_ref().map(|d| d.pointer));
+        if drag_pointer.is_some_and(|id| id != ev.pointer_id()) {
+            return;
+        }
         let (Some(el), Some(t)) = (node.get(), transform_now()) else { return };
         let at = pointer_in(&el, &ev);
         // dragging: map with the transform the drag started in, snap unless Shift is held,
         // and past a limit keep the furthest valid position and say why in the status line
-        let target = dragging.with_value(|d| {
-            d.as_ref().map(|(h, _, start, grab)| {
-                let (x, y) = start.world(Px::new(at.0, at.1));
-                (*h, x + grab.0, y + grab.1)
-            })
-        });
-        if let Some((h, x, y)) = target {
-            let stopped = state.drag_to(h, x, y, drag::snapping(ev.shift_key()));
+        // (the drag's state is taken out for the step and put back: the step runs the
+        // analysis, which must not hold the stored value borrowed)
+        if let Some(mut held) = dragging.try_update_value(Option::take).flatten() {
+            let (x, y) = held.transform.world(Px::new(at.0, at.1));
+            let (x, y) = (x + held.grab.0, y + held.grab.1);
+            let stop = state.drag_step(&mut held.drag, x, y, drag::snapping(ev.shift_key()));
+            let h = held.drag.handle;
+            dragging.set_value(Some(held));
             let units = state.units.get_untracked();
             state.design.with_untracked(|d| {
-                if let Some(e) = stopped {
-                    state.drag_stop.set(Some(drag::stop_message(h, d, &e, units)));
+                if let Some(stop) = stop {
+                    state.drag_stop.set(Some(drag::stop_message(h, d, &stop, units)));
                 }
                 let client = (ev.client_x() as f64, ev.client_y() as f64);
                 state.drag_reading.set(h.reading(d).map(|reading| DragReading { reading, client }));
@@ -125,7 +138,7 @@ pub fn ElevationCanvas() -> impl IntoView {
         // hovering: a grab cursor over handles, and the member under the pointer
         let grabbable = state.design.with_untracked(|design| {
             state.analysis.with_untracked(|o| {
-                o.as_ref().ok().is_some_and(|a| drag::handle_at(design, a, &view_of(t), at).is_some())
+                o.as_ref().ok().is_some_and(|a| drag::handle_at(design, a, &t, Px::new(at.0, at.1)).is_some())
             })
         });
         let _ = web_sys::HtmlElement::style(&el)
@@ -160,6 +173,7 @@ pub fn ElevationCanvas() -> impl IntoView {
                 on:pointerdown=on_down
                 on:pointerup=on_up
                 on:pointercancel=on_up
+                on:lostpointercapture=on_up
                 on:pointermove=on_move
                 on:pointerleave=move |_| state.focus_member(None)
                 on:keydown=on_key
@@ -169,9 +183,21 @@ pub fn ElevationCanvas() -> impl IntoView {
     }
 }
 
-/// The drag helpers' view of a scene transform (the same mapping).
-fn view_of(t: Transform) -> View {
-    View { scale: t.scale, origin_x: t.origin_x, origin_y: t.origin_y }
+/// A drag of an elevation handle in progress.
+#[derive(Clone)]
+struct HandleDrag {
+    /// The pointer that holds the handle: other pointers are ignored until it is up.
+    pointer: i32,
+    /// The engine's drag (the handle, and the limit it works out once).
+    drag: Drag,
+    /// The design before the drag (one undo step returns to it).
+    before: springline_statics::Design,
+    /// The transform the drag started in, kept fixed so the mapping does not shift
+    /// while the drawing would refit.
+    transform: Transform,
+    /// World offset from the pointer to the handle, so the handle does not jump to the
+    /// pointer.
+    grab: (f64, f64),
 }
 
 /// Zoom factor of one press of the zoom buttons.
@@ -245,10 +271,14 @@ pub fn ForceCanvas() -> impl IntoView {
             p.push((ev.pointer_id(), at));
         });
     };
+    // up, cancelled or capture lost (a touch the browser took over): the pointer is gone,
+    // so a later single pointer pans instead of pinching with a stale one
     let on_up = move |ev: web_sys::PointerEvent| {
         pointers.update_value(|p| p.retain(|(id, _)| *id != ev.pointer_id()));
         if let Some(el) = node.get() {
-            let _ = el.release_pointer_capture(ev.pointer_id());
+            if el.has_pointer_capture(ev.pointer_id()) {
+                let _ = el.release_pointer_capture(ev.pointer_id());
+            }
         }
     };
     let on_move = move |ev: web_sys::PointerEvent| {
@@ -325,6 +355,7 @@ pub fn ForceCanvas() -> impl IntoView {
                 on:pointerdown=on_down
                 on:pointerup=on_up
                 on:pointercancel=on_up
+                on:lostpointercapture=on_up
                 on:pointermove=on_move
                 on:pointerleave=move |_| state.hover(None)
                 on:wheel=on_wheel

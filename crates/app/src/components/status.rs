@@ -5,7 +5,7 @@
 //! whatever it says, the readout floats over the page (fixed position, no pointer
 //! events), and the hint sits in the rise field's own message area.
 
-use crate::drag::DRAG_HINT;
+use crate::drag::drag_hint;
 use crate::state::AppState;
 use leptos::prelude::*;
 use springline_statics::arch::edit::largest_rise;
@@ -22,7 +22,7 @@ const STATUS_STYLE: &str = "height: 4.5em; line-height: 1.5em; overflow-y: auto;
 pub fn StatusLine() -> impl IntoView {
     let state = expect_context::<AppState>();
     let stopped = move || state.drag_stop.with(Option::is_some);
-    let text = move || state.drag_stop.get().unwrap_or_else(|| DRAG_HINT.to_string());
+    let text = move || state.drag_stop.get().unwrap_or_else(|| drag_hint(state.units.get()));
     let style = move || {
         let tone = if stopped() {
             "background: #fdecea; color: var(--warn); border: 1px solid #f3c1bb;"

@@ -334,23 +334,114 @@ pub fn drag_to_with(
     }
 }
 
-/// [`drag_to_with`] keeping the designs that analyse, as the app does: the moved design
-/// and the position found are analysed (`analyze`: validation, the models and their
-/// solution); the search between them validates only (`ValidDesign::new`, some hundred
-/// times cheaper, and what decides a position in all but a mechanism). A position found
-/// that validates but does not analyse leaves the drag at `from`.
-pub fn drag_to(from: &Design, handle: Handle, x: f64, y: f64, snapping: Snapping) -> DragStep {
+/// [`drag_to_with`] keeping the designs that `analyse` takes, as the app does: the moved
+/// design and the position found are analysed (in the app `analyze`, through its cache,
+/// so a design shown is analysed once; validation, the models and their solution); the
+/// search between them validates only (`ValidDesign::new`, some hundred times cheaper,
+/// and what decides a position in all but a mechanism). A position found that validates
+/// but is not analysed leaves the drag at `from`. `analyse` is called at most twice, and
+/// last on the design returned when that is not `from`.
+pub fn drag_to(
+    from: &Design,
+    handle: Handle,
+    x: f64,
+    y: f64,
+    snapping: Snapping,
+    mut analyse: impl FnMut(&Design) -> Result<(), StaticsError>,
+) -> DragStep {
     let candidate = moved(from, handle, x, y, snapping);
-    let refusal = match analyze(&candidate) {
-        Ok(_) => return DragStep { design: candidate, stopped: None },
+    let refusal = match analyse(&candidate) {
+        Ok(()) => return DragStep { design: candidate, stopped: None },
         Err(e) => e,
     };
     let step = drag_to_with(from, handle, x, y, snapping, |d| ValidDesign::new(d).map(|_| ()));
     let stopped = Some(step.stopped.unwrap_or(refusal));
-    if step.design == *from || analyze(&step.design).is_ok() {
+    if step.design == *from || analyse(&step.design).is_ok() {
         DragStep { design: step.design, stopped }
     } else {
         DragStep { design: from.clone(), stopped }
+    }
+}
+
+/// `analyze` as a check for [`drag_to`]: the design's refusal, or nothing.
+pub fn analyses(design: &Design) -> Result<(), StaticsError> {
+    analyze(design).map(|_| ())
+}
+
+/// Why a drag stopped short of the pointer.
+#[derive(Debug, Clone, PartialEq)]
+pub enum DragStop {
+    /// The crown is held within a grid step below the largest rise the layout takes
+    /// (what governs it and where the funicular's highest point is are in the limit).
+    LargestRise(RiseLimit),
+    /// The design just past the position held is refused, for this reason.
+    Refused(StaticsError),
+}
+
+/// One step of a [`Drag`]: the design to show and why it stops short of the pointer.
+#[derive(Debug, Clone, PartialEq)]
+pub struct DragOutcome {
+    /// The design to show (as [`DragStep::design`]).
+    pub design: Design,
+    /// Why it stops short of the pointer; `None` when the pointer's position is taken.
+    pub stop: Option<DragStop>,
+}
+
+/// A drag of one handle, from pointer down to pointer up. It keeps what a drag works out
+/// once: the crown's largest rise, sought at the first stop above the crown (only the
+/// rise changes during a crown drag, so the limit holds for the whole drag; the search
+/// costs some twenty validations and a drag held past the limit steps on every pointer
+/// move).
+#[derive(Debug, Clone, PartialEq)]
+pub struct Drag {
+    /// The handle dragged.
+    pub handle: Handle,
+    /// The largest rise, once sought (`None` inside when the design shown had none: it
+    /// was refused, which a design shown never is).
+    largest: Option<Option<RiseLimit>>,
+}
+
+impl Drag {
+    /// A drag of `handle`, nothing worked out yet.
+    pub fn new(handle: Handle) -> Drag {
+        Drag { handle, largest: None }
+    }
+
+    /// The crown's largest rise, once a stop has needed it.
+    pub fn largest_rise(&self) -> Option<&RiseLimit> {
+        self.largest.as_ref().and_then(Option::as_ref)
+    }
+
+    /// One step: [`drag_to`] from `from` (the design shown) towards world point (x, y), m,
+    /// with `analyse` as its check, and the reason for a stop. A crown stopped on its way
+    /// up within a grid step ([`SNAP_STEP`], plus the search's resolution) below the
+    /// largest rise is held by that limit, told as [`DragStop::LargestRise`]; any other
+    /// stop gives the refusal just past the position held.
+    pub fn step(
+        &mut self,
+        from: &Design,
+        x: f64,
+        y: f64,
+        snapping: Snapping,
+        analyse: impl FnMut(&Design) -> Result<(), StaticsError>,
+    ) -> DragOutcome {
+        let step = drag_to(from, self.handle, x, y, snapping, analyse);
+        let Some(refusal) = step.stopped else {
+            return DragOutcome { design: step.design, stop: None };
+        };
+        let shown = &step.design;
+        // the crown on its way up: the moved rise is y less the chord level at the crown
+        let upward = self.handle == Handle::Crown && y > shown.crown_level();
+        if upward {
+            let limit = self.largest.get_or_insert_with(|| largest_rise(shown).ok());
+            if let Some(limit) = limit {
+                if shown.rise() >= limit.rise - SNAP_STEP - LIMIT_RESOLUTION {
+                    let stop = Some(DragStop::LargestRise(limit.clone()));
+                    return DragOutcome { design: step.design, stop };
+                }
+            }
+        }
+        DragOutcome { design: step.design, stop: Some(DragStop::Refused(refusal)) }
     }
 }
 
@@ -698,28 +789,77 @@ mod tests {
     fn a_crown_dragged_past_its_limit_stops_at_the_largest_rise_on_the_grid() {
         let d = Design::demo();
         let largest = largest_rise(&d).expect("valid").rise;
-        let step = drag_to(&d, Handle::Crown, 80.0, 110.0, Snapping::ToGrid);
+        let step = drag_to(&d, Handle::Crown, 80.0, 110.0, Snapping::ToGrid, analyses);
         // 21.72.. m floored to the grid
         assert!((step.design.rise() - 21.7).abs() < 1e-9, "{}", step.design.rise());
         assert!(largest - step.design.rise() < SNAP_STEP);
         let stopped = step.stopped.expect("stopped short");
         assert!(stopped.problems()[0].message.contains("above the deck"), "{stopped}");
         // free: within the search's resolution of the largest rise
-        let free = drag_to(&d, Handle::Crown, 80.0, 110.0, Snapping::Free);
+        let free = drag_to(&d, Handle::Crown, 80.0, 110.0, Snapping::Free, analyses);
         assert!((free.design.rise() - largest).abs() <= 2.0 * LIMIT_RESOLUTION, "{}", free.design.rise());
         // dragging on from the limit keeps it; dragging back into the valid range clears
-        let on = drag_to(&step.design, Handle::Crown, 80.0, 112.0, Snapping::ToGrid);
+        let on = drag_to(&step.design, Handle::Crown, 80.0, 112.0, Snapping::ToGrid, analyses);
         assert_eq!(on.design, step.design);
         assert!(on.stopped.is_some());
-        let back = drag_to(&step.design, Handle::Crown, 80.0, 96.04, Snapping::ToGrid);
+        let back = drag_to(&step.design, Handle::Crown, 80.0, 96.04, Snapping::ToGrid, analyses);
         assert_eq!(back.stopped, None);
         assert!((back.design.rise() - 18.0).abs() < 1e-9, "{}", back.design.rise());
     }
 
     #[test]
+    fn a_crown_drag_held_at_the_largest_rise_says_so_and_seeks_the_limit_once() {
+        let d = Design::demo();
+        let largest = largest_rise(&d).expect("valid");
+        let mut drag = Drag::new(Handle::Crown);
+        let mut analysed = 0;
+        let first = drag.step(&d, 80.0, 110.0, Snapping::ToGrid, |c| {
+            analysed += 1;
+            analyses(c)
+        });
+        // the pointer's position and the position held, each analysed once
+        assert_eq!(analysed, 2);
+        assert!((first.design.rise() - 21.7).abs() < 1e-9, "{}", first.design.rise());
+        let Some(DragStop::LargestRise(limit)) = first.stop.clone() else { panic!("{:?}", first.stop) };
+        // sought from 21.7 m rather than 19.5 m: the same limit to the search's resolution
+        assert!((limit.rise - largest.rise).abs() <= 2.0 * LIMIT_RESOLUTION, "{limit:?} {largest:?}");
+        assert!(matches!(limit.bound, RiseBound::RibAtDeck { .. }), "{limit:?}");
+        assert_eq!(drag.largest_rise(), Some(&limit));
+        // held on past the limit: the design stays (only the pointer's position is
+        // analysed) and the limit kept is told again
+        let mut analysed = 0;
+        let on = drag.step(&first.design, 80.0, 112.0, Snapping::ToGrid, |c| {
+            analysed += 1;
+            analyses(c)
+        });
+        assert_eq!(analysed, 1);
+        assert_eq!(on.design, first.design);
+        assert_eq!(on.stop, Some(DragStop::LargestRise(limit)));
+        // back into the valid range: no stop
+        let back = drag.step(&on.design, 80.0, 96.04, Snapping::ToGrid, analyses);
+        assert_eq!(back.stop, None);
+        assert!((back.design.rise() - 18.0).abs() < 1e-9, "{}", back.design.rise());
+    }
+
+    #[test]
+    fn a_crown_dragged_below_the_chord_is_refused_without_seeking_the_largest_rise() {
+        let d = Design::demo();
+        let mut drag = Drag::new(Handle::Crown);
+        // the chord at the crown is at 78 m: y = 70 m asks for a rise of -8 m
+        let down = drag.step(&d, 80.0, 70.0, Snapping::ToGrid, analyses);
+        // held at the least rise on the grid, 0.1 m (the least rise is under 1e-4 m,
+        // see `the_least_rise_is_accepted_and_a_design_refused_has_no_limit`)
+        assert!((down.design.rise() - 0.1).abs() < 1e-9, "{}", down.design.rise());
+        let Some(DragStop::Refused(e)) = &down.stop else { panic!("{:?}", down.stop) };
+        // the refusal of the next grid value, a rise of zero
+        assert_eq!(Some(e.clone()), analyses(&demo_with_rise(0.0)).err());
+        assert!(drag.largest_rise().is_none());
+    }
+
+    #[test]
     fn a_deck_dragged_up_stops_at_the_abutment_height_and_says_so() {
         let d = Design::demo();
-        let step = drag_to(&d, Handle::Deck, 80.0, 125.0, Snapping::ToGrid);
+        let step = drag_to(&d, Handle::Deck, 80.0, 125.0, Snapping::ToGrid, analyses);
         let level = step.design.deck.level;
         assert!(level > 100.0 && level < 125.0, "{level}");
         assert_eq!(snap(level), level);
@@ -732,7 +872,7 @@ mod tests {
         assert!(refused.problems()[0].involves(Field::AbutmentHeight), "{refused}");
         // the demo's deck sits on the right rim (ground 100 m at x = 166 m): down it
         // cannot go at all, and the reason names the deck at the next tenth down
-        let down = drag_to(&d, Handle::Deck, 80.0, 90.0, Snapping::ToGrid);
+        let down = drag_to(&d, Handle::Deck, 80.0, 90.0, Snapping::ToGrid, analyses);
         assert_eq!(down.design, d);
         let why = down.stopped.expect("refused").to_string();
         assert!(why.contains("above the deck axis (99.9 m)"), "{why}");
@@ -743,7 +883,7 @@ mod tests {
         let d = Design::demo();
         // point 5 (45, 66) dragged right past point 6 (60, 60): the profile must keep
         // increasing x, so it stops short of x = 60 m
-        let step = drag_to(&d, Handle::Ground(4), 70.0, 66.0, Snapping::ToGrid);
+        let step = drag_to(&d, Handle::Ground(4), 70.0, 66.0, Snapping::ToGrid, analyses);
         let p = step.design.valley[4];
         assert!(p.x < 60.0 && p.x >= 45.0, "{p:?}");
         assert_eq!((snap(p.x), p.y), (p.x, 66.0));
