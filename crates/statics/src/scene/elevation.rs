@@ -126,7 +126,7 @@ pub fn elevation_with_dropped(
     // title and key first: they take their own lines at the top
     let case_words =
         a.load_cases.get(case_index).map_or_else(|| "dead load".to_string(), |c| case_title(&c.description));
-    let case_detail = a.load_cases.get(case_index).map(|c| c.description.to_string());
+    let case_detail = a.load_cases.get(case_index).map(|c| c.description.describe(units));
     let frame_only = drawn.kind == ModelKind::Truss;
     // texts laid out by the builder that found no room (never expected; tests check)
     let mut lost = Vec::new();
@@ -710,6 +710,25 @@ mod tests {
         let title = label_starting(&s, "Elevation · truss idealisation").expect("truss title");
         assert!(title.text.contains("dead + live load"), "{}", title.text);
         assert!(s.labels.iter().any(|l| l.text.contains("not in the truss idealisation")));
+    }
+
+    /// The title's full case description (shown on hover) follows the units: a US
+    /// half-span case in psf and ft (5 kN/m² is 104.4 psf: 1 psf = 0.04788 kN/m², NIST SP
+    /// 811).
+    #[test]
+    fn the_case_detail_speaks_the_chosen_units() {
+        let d = Design::demo();
+        let a = analyze(&d).expect("demo");
+        let half = a
+            .load_cases
+            .iter()
+            .position(|c| matches!(c.description, crate::arch::cases::CaseKind::HalfSpan { .. }))
+            .expect("a half-span case");
+        let opts = ElevationOptions { units: Units::UsCustomary, case: half, ..Default::default() };
+        let s = elevation(&a, &d, &opts, Viewport::new(900.0, 440.0));
+        let detail = s.labels.iter().find_map(|l| l.detail.clone()).expect("the title's detail");
+        assert!(detail.contains("104.4\u{a0}psf"), "{detail}");
+        assert!(detail.contains("\u{a0}ft") && !detail.contains("kN"), "{detail}");
     }
 
     /// Springing labels carry the summary's numbers (the results table's), shown.

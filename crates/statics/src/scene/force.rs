@@ -243,7 +243,7 @@ pub fn force_drawing(
     let Some(figs) = analysis.load_cases.get(case) else {
         return message(viewport, "Force diagram not available", "there is no such load case");
     };
-    let case_words = figs.description.to_string();
+    let case_words = figs.description.describe(opts.units);
     let why = || figs.notes.iter().map(|n| n.to_string()).collect::<Vec<_>>().join("; ");
     if analysis.truss.is_some() {
         match &figs.force_diagram {
@@ -1040,6 +1040,32 @@ fn cut_y(a: Px, b: Px, y: f64) -> Px {
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    /// The case line of the header follows the units: a US half-span case in psf, kip/ft
+    /// and ft, no SI unit left (5 kN/m² / 0.04788 kN/m² per psf = 104.4 psf, NIST SP 811
+    /// factor for lbf/ft²).
+    #[test]
+    fn the_case_line_speaks_the_chosen_units() {
+        use crate::arch::analysis::analyze;
+        use crate::arch::design::Design;
+        let a = analyze(&Design::demo()).expect("demo");
+        let half = a
+            .load_cases
+            .iter()
+            .position(|c| matches!(c.description, crate::arch::cases::CaseKind::HalfSpan { .. }))
+            .expect("a half-span case");
+        let opts = ForceOptions { units: Units::UsCustomary, ..Default::default() };
+        let s = force_scene(&a, half, &opts, Viewport::new(900.0, 600.0));
+        let line = s
+            .labels
+            .iter()
+            .map(|l| l.detail.clone().unwrap_or_else(|| l.text.clone()))
+            .find(|t| t.starts_with("dead load plus"))
+            .expect("the case line");
+        assert!(line.contains("104.4\u{a0}psf"), "{line}");
+        assert!(line.contains("kip/ft") && line.contains("\u{a0}ft)"), "{line}");
+        assert!(!line.contains("kN") && !line.contains("\u{a0}m)"), "{line}");
+    }
 
     #[test]
     fn consecutive_labels_collapse_into_ranges() {
