@@ -18,9 +18,10 @@
 use super::place::{self, Placer, Request, Side, PAD_X};
 use super::{Ink, Item, Label, Pattern, Px, Rect, Scene, Shape, Stroke, Tag, TextSize, Transform, Viewport};
 use crate::arch::analysis::Analysis;
+use crate::arch::cases::CaseKind;
 use crate::arch::design::{Design, RibSystem};
 use crate::arch::generate::{MemberRole, ModelKind, ModelMap};
-use crate::arch::readout::{case_title, MemberKey};
+use crate::arch::readout::MemberKey;
 use crate::arch::summary::SpringingForce;
 use crate::frame::model::{LoadDirection, MemberLoad, Model};
 use crate::frame::results::CaseResult;
@@ -125,7 +126,7 @@ pub fn elevation_with_dropped(
 
     // title and key first: they take their own lines at the top
     let case_words =
-        a.load_cases.get(case_index).map_or_else(|| "dead load".to_string(), |c| case_title(&c.description));
+        a.load_cases.get(case_index).map_or_else(|| CaseKind::Dead.title(), |c| c.description.title());
     let case_detail = a.load_cases.get(case_index).map(|c| c.description.describe(units));
     let frame_only = drawn.kind == ModelKind::Truss;
     // texts laid out by the builder that found no room (never expected; tests check)
@@ -704,11 +705,11 @@ mod tests {
         let d = Design::demo();
         let a = analyze(&d).expect("demo");
         let s = elevation(&a, &d, &ElevationOptions::default(), Viewport::new(900.0, 440.0));
-        assert!(label_starting(&s, "Elevation · frame model · dead load").is_some(), "{:?}", s.labels);
+        assert!(label_starting(&s, "Elevation · frame model · Dead load").is_some(), "{:?}", s.labels);
         let truss = ElevationOptions { model: ModelKind::Truss, case: 1, ..Default::default() };
         let s = elevation(&a, &d, &truss, Viewport::new(900.0, 440.0));
         let title = label_starting(&s, "Elevation · truss idealisation").expect("truss title");
-        assert!(title.text.contains("dead + live load"), "{}", title.text);
+        assert!(title.text.contains("Live load, left half"), "{}", title.text);
         assert!(s.labels.iter().any(|l| l.text.contains("not in the truss idealisation")));
     }
 
