@@ -225,6 +225,40 @@ fn a_reload_keeps_the_units_and_the_load_case() {
     assert!(severe(&fresh).is_empty());
 }
 
+/// A default view (dead load, SI) adds nothing to the link, so it reads as links from
+/// before the view part did; a link's `u=us` shows US units without becoming the
+/// reader's stored choice, which only the units button changes.
+#[test]
+fn a_default_link_has_no_view_part_and_a_links_units_are_not_stored() {
+    let server = StaticServer::start(&dist());
+    let driver = Driver::start();
+    let s = driver.session(1500, 900, 1.0);
+    open(&s, &server);
+    let payload = springline_statics::link::permalink::encode(&Design::demo());
+    s.wait_for(
+        "the address to carry the design alone",
+        &format!("return location.hash === {}", json!(format!("#{payload}"))),
+        WAIT,
+    );
+    // a link in US units shows US units
+    open_url(&s, &format!("{}#{payload}~view:u=us", server.url()));
+    assert!(text_of(&s, "result-span").ends_with("ft"), "{}", text_of(&s, "result-span"));
+    // ... but the plain address still opens in the reader's own (here never chosen: SI)
+    open(&s, &server);
+    assert!(text_of(&s, "result-span").ends_with("m"), "{}", text_of(&s, "result-span"));
+    // the units button is the reader's choice: kept
+    click(&s, "#units");
+    s.wait_for("US units", "return document.getElementById('result-span').textContent.endsWith('ft')", WAIT);
+    open(&s, &server);
+    assert!(text_of(&s, "result-span").ends_with("ft"), "{}", text_of(&s, "result-span"));
+    // and a link saying SI shows SI without undoing that choice
+    open_url(&s, &format!("{}#{payload}~view:u=si", server.url()));
+    assert!(text_of(&s, "result-span").ends_with("m"), "{}", text_of(&s, "result-span"));
+    open(&s, &server);
+    assert!(text_of(&s, "result-span").ends_with("ft"), "{}", text_of(&s, "result-span"));
+    assert!(severe(&s).is_empty());
+}
+
 /// Each scenario button shows its case in the drawings and the table: the springing
 /// forces are the engine's for that case, the caption names it in words, the button is
 /// pressed and the others are not.

@@ -129,14 +129,26 @@ fn no_label_overlaps_another_or_leaves_the_canvas() {
                         let where_ = format!("{name} at {w}x{h}, {model:?}, case {case}, {units:?}");
                         assert!(s.overlapping_labels().is_empty(), "{where_}: overlaps {:?}", overlaps(&s));
                         assert!(s.labels_outside().is_empty(), "{where_}: outside {:?}", s.labels_outside());
-                        if name == "demo" {
-                            assert!(dropped.is_empty(), "{where_}: left out {dropped:?}");
-                        }
+                        // nothing is left out, for any design, size, model, case or units
+                        assert!(dropped.is_empty(), "{where_}: left out {dropped:?}");
+                        assert_essentials(&s, &where_);
                     }
                 }
             }
         }
     }
+}
+
+/// The labels a reader needs on every elevation: the title, the two springings' H and V
+/// lines, the span and the rise.
+fn assert_essentials(s: &Scene, where_: &str) {
+    let texts: Vec<&str> = s.labels.iter().map(|l| l.text.as_str()).collect();
+    let count = |prefix: &str| texts.iter().filter(|t| t.starts_with(prefix)).count();
+    assert_eq!(count("Elevation · "), 1, "{where_}: title in {texts:?}");
+    assert_eq!(count("H = "), 2, "{where_}: springing H lines in {texts:?}");
+    assert_eq!(count("V = "), 2, "{where_}: springing V lines in {texts:?}");
+    assert_eq!(count("span "), 1, "{where_}: span in {texts:?}");
+    assert_eq!(count("rise "), 1, "{where_}: rise in {texts:?}");
 }
 
 fn overlaps(s: &Scene) -> Vec<(String, String)> {

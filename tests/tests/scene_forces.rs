@@ -126,7 +126,7 @@ fn force_scenes_match_their_goldens() {
 
 /// No label covers another or leaves the canvas, for six designs, every load case and
 /// three canvas sizes; the demo drops no label (each found room, in full or in its short
-/// form).
+/// form); every design keeps its title and case line and may leave out only space labels.
 #[test]
 fn labels_never_overlap_or_leave_the_canvas() {
     for (name, d) in designs() {
@@ -147,6 +147,23 @@ fn labels_never_overlap_or_leave_the_canvas() {
                 let outside: Vec<_> = s.labels_outside().into_iter().map(|i| &s.labels[i].text).collect();
                 assert!(outside.is_empty(), "{name} case {case} at {size:?}: labels outside {outside:?}");
                 assert!(!s.labels.is_empty() && !s.items.is_empty(), "{name}: something is drawn");
+                // every design and size: the header's title and case line are there, and
+                // anything left out is a space label of the figure (Bow's letters and
+                // numerals, already as short as they get) that found no room among the
+                // lines, never a title, key, value or the pole's name
+                let texts: Vec<&str> = s.labels.iter().map(|l| l.text.as_str()).collect();
+                let title = texts
+                    .iter()
+                    .any(|t| t.starts_with("Force diagram · ") || t.starts_with("Thrust line · "));
+                assert!(title, "{name} case {case} at {size:?}: title in {texts:?}");
+                let case_title = a.load_cases[case].description.title();
+                assert!(texts.contains(&case_title.as_str()), "{name} case {case} at {size:?}: {case_title}");
+                for gone in &drawing.dropped {
+                    let bow = gone.chars().all(|c| {
+                        c.is_ascii_uppercase() || c.is_ascii_digit() || matches!(c, ',' | ' ' | '–')
+                    });
+                    assert!(bow, "{name} case {case} at {size:?}: {gone:?} left out");
+                }
                 if name == "demo" {
                     assert!(
                         drawing.dropped.is_empty(),

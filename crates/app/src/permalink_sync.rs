@@ -4,13 +4,17 @@
 //! fragment follows the design after a short pause, replacing the history entry so the
 //! back button is not flooded. After the design payload the fragment carries a view
 //! part (`#s2.xxxx~view:c=half-left;u=us`, `link::permalink::split_view`): the load case
-//! shown, by its stable id, and the units. The unit choice is also kept in the browser's
-//! storage, so a reload or a plain address opens in the units last chosen.
+//! shown, by its stable id, and the units. The view part is left out when it says nothing
+//! new (dead-load case, SI units), so a default link is exactly the design link readers
+//! from before the view part read. The unit choice the user makes (the units button) is
+//! kept in the browser's storage, so a reload or a plain address opens in the units last
+//! chosen; units that only arrive with a link are shown but not stored, so opening a
+//! colleague's US link does not change one's own default.
 
 use crate::format::Units;
 use crate::state::AppState;
 use leptos::prelude::*;
-use springline_statics::arch::cases::find_case;
+use springline_statics::arch::cases::{find_case, CaseKind};
 use springline_statics::link::permalink::{self, split_view, with_view, ViewState};
 use springline_statics::{analyze, Design};
 use std::time::Duration;
@@ -72,10 +76,12 @@ fn show_case(state: AppState, id: &str) {
 }
 
 /// Applies what a link says about the view (units, load case); what it does not say
-/// stays as it is.
-fn apply_view(state: AppState, view: &ViewState) {
+/// stays as it is. Units set here are marked in `from_link`, so they are not stored as
+/// the user's choice.
+fn apply_view(state: AppState, view: &ViewState, from_link: StoredValue<Option<Units>>) {
     if let Some(units) = view.units {
         if state.units.get_untracked() != units {
+            from_link.set_value(Some(units));
             state.units.set(units);
         }
     }
@@ -86,12 +92,21 @@ fn apply_view(state: AppState, view: &ViewState) {
 
 /// Installs the two-way sync; `view` is what the opening link said about the view.
 pub fn install(state: AppState, view: ViewState) {
-    // units: the link's, else the stored choice, else SI; every change is stored
+    // units: the link's, else the stored choice, else SI. A change the user makes is
+    // stored; units a link brought are not (the effect skips the change `from_link` marks)
+    let from_link = StoredValue::new(view.units);
     if let Some(units) = view.units.or_else(stored_units) {
         state.units.set(units);
     }
-    apply_view(state, &view);
-    Effect::new(move |_| store_units(state.units.get()));
+    apply_view(state, &view, from_link);
+    Effect::new(move |_| {
+        let units = state.units.get();
+        if from_link.get_value() == Some(units) {
+            from_link.set_value(None);
+        } else {
+            store_units(units);
+        }
+    });
     // the case shown follows its id when the design changes (a new panel count moves the
     // heavier panel: the same kind of case stays shown)
     let shown_id = StoredValue::new(case_id(state));
@@ -140,7 +155,7 @@ pub fn install(state: AppState, view: ViewState) {
         }
         let (design_part, view) = split_view(&hash);
         if design_part == design_fragment(state) {
-            apply_view(state, &view);
+            apply_view(state, &view, from_link);
             return;
         }
         let opened = permalink::decode(design_part).map_err(|e| e.to_string()).and_then(|d| {
@@ -151,7 +166,7 @@ pub fn install(state: AppState, view: ViewState) {
             Ok(d) => {
                 state.notice.set(None);
                 state.commit(d);
-                apply_view(state, &view);
+                apply_view(state, &view, from_link);
             }
             Err(e) => {
                 state
@@ -178,10 +193,13 @@ fn design_fragment(state: AppState) -> String {
     state.design.with_untracked(|d| format!("#{}", permalink::encode(d)))
 }
 
-/// The URL fragment of the open design with the view part (case shown, units).
+/// The URL fragment of the open design with the view part (case shown, units), each
+/// left out when it is the default (dead-load case, SI units): a default link carries no
+/// view part at all and reads as before the view part existed.
 fn current_fragment(state: AppState) -> String {
-    let view = ViewState { case: case_id(state), units: Some(state.units.get_untracked()) };
-    with_view(&design_fragment(state), &view)
+    let case = case_id(state).filter(|id| id != &CaseKind::Dead.id());
+    let units = Some(state.units.get_untracked()).filter(|u| *u != Units::Si);
+    with_view(&design_fragment(state), &ViewState { case, units })
 }
 
 /// The whole link of the design on screen: this page's address with the design encoded

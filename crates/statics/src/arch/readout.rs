@@ -17,7 +17,7 @@
 //! case's largest force) are reported as exactly 0.
 
 use crate::arch::analysis::Analysis;
-use crate::arch::cases::{CaseKind, Half};
+use crate::arch::cases::CaseKind;
 use crate::arch::generate::{MemberRole, ModelKind, ModelMap};
 use crate::arch::layout::Joint;
 use crate::frame::results::{CaseResult, EquilibriumCheck};
@@ -98,18 +98,6 @@ impl fmt::Display for MemberKey {
     }
 }
 
-/// The load case in a few words, for titles: "dead load", "dead + live load, left half",
-/// "dead + panel 4 load doubled". `CaseKind`'s `Display` gives the full description.
-pub fn case_title(kind: &CaseKind) -> String {
-    match *kind {
-        CaseKind::Dead => "dead load".into(),
-        CaseKind::HalfSpan { half: Half::Left, .. } => "dead + live load, left half".into(),
-        CaseKind::HalfSpan { half: Half::Right, .. } => "dead + live load, right half".into(),
-        CaseKind::DoubledPanel { panel, .. } => format!("dead + panel {panel} load doubled"),
-        CaseKind::Other => "deck loads".into(),
-    }
-}
-
 /// Bending moments of a frame member, kNm (whole cross-section).
 #[derive(Debug, Clone, Copy, PartialEq, Serialize)]
 pub struct Moments {
@@ -156,7 +144,7 @@ pub struct Readout {
     pub key: MemberKey,
     /// Load case index (into `Analysis::load_cases`).
     pub case: usize,
-    /// The case in words ([`case_title`]).
+    /// The case in words ([`CaseKind::title`]).
     pub case_title: String,
     /// Number of rib lines sharing the forces.
     pub ribs: usize,
@@ -220,7 +208,7 @@ pub fn readout(analysis: &Analysis, ribs: usize, key: &MemberKey, case: usize) -
         },
     });
     let case_title =
-        analysis.load_cases.get(case).map_or_else(|| "dead load".into(), |c| case_title(&c.description));
+        analysis.load_cases.get(case).map_or_else(|| CaseKind::Dead.title(), |c| c.description.title());
     Readout { key: *key, case, case_title, ribs: ribs.max(1), frame, truss }
 }
 
@@ -324,31 +312,107 @@ mod tests {
         assert!(largest_frame > 100.0, "frame diagonals work: largest |N| {largest_frame}");
     }
 
+    /// A number as `Units::show` writes it ("−3\u{2009}375.5"), back to f64.
+    fn shown_number(text: &str) -> f64 {
+        let plain: String =
+            text.chars().filter(|c| *c != '\u{2009}').map(|c| if c == '−' { '-' } else { c }).collect();
+        plain.trim().parse().unwrap_or_else(|_| panic!("not a shown number: {text:?}"))
+    }
+
+    /// The forces (kN) a readout line shows in its N part, in order: whole then per rib
+    /// line (two numbers), or whole start, whole end, per-rib start, per-rib end (four).
+    fn shown_forces(line: &str) -> Vec<f64> {
+        let n_part = line.split(';').next().unwrap_or_default();
+        let n_part = n_part.split_once("N = ").map(|(_, r)| r).unwrap_or_default();
+        let chunks: Vec<&str> = n_part.split("\u{a0}kN").collect();
+        // every chunk but the last ends with a number; a number is digits, '.', thin
+        // spaces and a leading minus sign
+        chunks[..chunks.len().saturating_sub(1)]
+            .iter()
+            .map(|chunk| {
+                let start = chunk
+                    .char_indices()
+                    .rev()
+                    .take_while(|(_, c)| c.is_ascii_digit() || matches!(c, '.' | '\u{2009}' | '−'))
+                    .last()
+                    .map_or(chunk.len(), |(i, _)| i);
+                shown_number(&chunk[start..])
+            })
+            .collect()
+    }
+
+    /// The frame member joining the model nodes of layout joints `ends`, found by its end
+    /// nodes in the model itself (not through `MemberKey::member_in`).
+    fn frame_member_by_nodes(a: &Analysis, ends: [Joint; 2]) -> usize {
+        let nodes = ends.map(|j| a.frame.map.node_of(j).expect("a frame node at the joint"));
+        a.frame
+            .model
+            .members
+            .iter()
+            .position(|m| [m.start, m.end] == nodes || [m.end, m.start] == nodes)
+            .expect("a frame member between the joints")
+    }
+
     #[test]
     fn per_rib_values_times_the_ribs_give_the_whole_and_absent_members_say_so() {
         let mut d = Design::demo();
         d.deck.ribs = 3;
         let a = analyze(&d).expect("three ribs");
         // the rib member at the left springing: frame and truss both have it
-        let k = a.frame.map.rib_members[0];
-        let key = MemberKey::of(&a.frame.map, ModelKind::Frame, k).expect("rib");
+        let key = MemberKey::of(&a.frame.map, ModelKind::Frame, a.frame.map.rib_members[0]).expect("rib");
+        let MemberKey::Between { ends, .. } = key else { panic!("a rib member joins layout joints") };
         let r = readout(&a, d.deck.ribs, &key, 0);
         let f = carries(&r.frame);
-        assert_eq!((f.n_start, f.n_end), {
-            let m = &a.frame.solution.cases[0].members[k];
-            (m.start.n, m.end.n)
-        });
+        // the solution's own numbers for the member between the same two nodes
+        let solved = &a.frame.solution.cases[0].members[frame_member_by_nodes(&a, ends)];
+        assert_eq!((f.n_start, f.n_end), (solved.start.n, solved.end.n));
         assert!(f.n() < 0.0, "the rib is in compression");
         let m = f.moments.expect("rib carries moment in the frame model");
-        assert!(m.largest.abs() >= m.start.abs().max(m.end.abs()));
+        // the demo's rib is three-hinged: no moment at the springing hinge (start, r0)
+        assert_eq!(m.start, 0.0, "hinged springing: {}", solved.start.m);
+        let largest_solved = solved
+            .stations
+            .iter()
+            .map(|s| s.forces.m)
+            .chain([solved.start.m, solved.end.m])
+            .fold(0.0_f64, |acc, v| if v.abs() > acc.abs() { v } else { acc });
+        assert_eq!(m.largest, largest_solved);
+        assert!(m.largest != 0.0, "the rib member bends under dead load in the frame model");
+
         let lines = r.lines(Units::Si);
-        assert!(lines[0].starts_with("rib r0–r1 · dead load"), "{lines:?}");
+        assert!(lines[0].starts_with("rib r0–r1 · Dead load"), "{lines:?}");
         assert!(lines[1].starts_with("frame model: N = ") && lines[1].contains("(all 3 ribs)"), "{lines:?}");
-        // the shown per-rib value times 3 is the shown whole (to the display rounding)
-        let per_rib = Units::Si.show(Quantity::Force, f.n_start / 3.0);
-        assert!(lines[1].contains(&per_rib), "{lines:?} lacks {per_rib}");
-        assert!((3.0 * (f.n_start / 3.0) - f.n_start).abs() <= 1e-12 * f.n_start.abs());
+        // the text's per-rib numbers are its whole numbers over 3 (each shown to four
+        // figures, so within 1e-3 relative), and its whole is the solution's N
+        let shown = shown_forces(&lines[1]);
+        let (whole, per_rib) = shown.split_at(shown.len() / 2);
+        assert!(matches!(shown.len(), 2 | 4), "{lines:?}: {shown:?}");
+        for (w, p) in whole.iter().zip(per_rib) {
+            assert!((3.0 * p - w).abs() <= 1e-3 * w.abs(), "{w} vs 3 x {p} in {lines:?}");
+        }
+        let expected = if whole.len() == 2 { vec![solved.start.n, solved.end.n] } else { vec![f.n()] };
+        for (w, e) in whole.iter().zip(&expected) {
+            assert!((w - e).abs() <= 5e-4 * e.abs(), "shown {w}, solved {e}: {lines:?}");
+        }
         assert!(lines[2].starts_with("truss idealisation: N = "), "{lines:?}");
+
+        // a demo diagonal: the frame N shown is the solution's N of the member between its
+        // end nodes, per rib line a third of it
+        let truss = a.truss.as_ref().expect("braced");
+        let k = truss.map.members_with(MemberRole::Bracing).next().expect("a diagonal");
+        let key = MemberKey::of(&truss.map, ModelKind::Truss, k).expect("between joints");
+        let MemberKey::Between { ends, .. } = key else { panic!("a diagonal joins layout joints") };
+        let solved = &a.frame.solution.cases[0].members[frame_member_by_nodes(&a, ends)];
+        let lines = readout(&a, d.deck.ribs, &key, 0).lines(Units::Si);
+        let shown = shown_forces(&lines[1]);
+        assert_eq!(shown.len(), 2, "a pin-ended diagonal carries one N: {lines:?}");
+        assert!(
+            (shown[0] - solved.start.n).abs() <= 5e-4 * solved.start.n.abs(),
+            "{lines:?} vs {}",
+            solved.start.n
+        );
+        assert!((3.0 * shown[1] - shown[0]).abs() <= 1e-3 * shown[0].abs(), "{lines:?}");
+        assert!(solved.start.n.abs() > 1.0, "the diagonal works in the frame model: {}", solved.start.n);
 
         // an approach span is only in the frame model
         let approach = a.frame.map.members_with(MemberRole::Approach).next().expect("approach");

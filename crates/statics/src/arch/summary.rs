@@ -15,7 +15,7 @@
 //! Units kN, m, kNm, degrees (angles only here, at the edge of the engine).
 
 use crate::arch::analysis::{ModelResult, RibMoments, TrussResult};
-use crate::arch::design::Design;
+use crate::arch::design::{Design, RibSystem};
 use crate::arch::form::{ArchReaction, Basis, Form};
 use crate::arch::generate::{DeckHold, MemberRole, Restraint, DEAD};
 use crate::frame::determinacy::Determinacy;
@@ -47,7 +47,13 @@ impl SpringingForce {
     }
 }
 
-/// The springing forces of one load case of the frame model.
+/// Relative difference above which the form thrust, the springing thrusts and a pole
+/// distance count as different, so that a screen explains them (0.1 %: four shown
+/// figures tell them apart).
+pub const THRUSTS_DIFFER: f64 = 1e-3;
+
+/// The springing forces of one load case of the frame model, and what the other
+/// supports (deck seats, approach piers) take in it.
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct CaseSpringings {
     /// Load case name.
@@ -56,6 +62,20 @@ pub struct CaseSpringings {
     pub left: SpringingForce,
     /// Right springing.
     pub right: SpringingForce,
+    /// Horizontal reactions of the deck seats and approach piers together (every support
+    /// but the springings), kN, positive in +x (to the right): the sign of the left
+    /// springing's H, which is its reaction's x component. Horizontal equilibrium of the
+    /// frame model: `left.thrust - right.thrust + seats_piers_horizontal` = the sum of
+    /// the horizontal loads (0 under gravity loads). Below the solver's zero it is 0.
+    pub seats_piers_horizontal: f64,
+    /// Vertical reactions of the deck seats and approach piers together, kN, positive up
+    /// (the load they carry; the sign of the springings' V). Below the solver's zero it
+    /// is 0.
+    pub seats_piers_vertical: f64,
+    /// Relative spread of the form thrust and this case's two springing thrusts:
+    /// (greatest - least) / greatest magnitude; 0 when all are 0. Above
+    /// [`THRUSTS_DIFFER`] they differ on screen.
+    pub thrust_spread: f64,
 }
 
 /// The largest axial force of the members of one role, frame model, dead load.
@@ -104,6 +124,19 @@ pub struct Summary {
     pub equilibrium: f64,
     /// Frame model support reactions under dead load: (node, fx kN, fy kN, mz kNm).
     pub frame_reactions: Vec<(usize, f64, f64, f64)>,
+    /// The rib is fixed at its springings (it has springing moments to show).
+    pub fixed_rib: bool,
+}
+
+/// (greatest - least) / greatest magnitude of `values`; 0 when all are 0 or there are none.
+fn relative_spread(values: &[f64]) -> f64 {
+    let largest = values.iter().fold(0.0f64, |m, v| m.max(v.abs()));
+    if largest == 0.0 {
+        return 0.0;
+    }
+    let hi = values.iter().fold(f64::NEG_INFINITY, |m, v| m.max(*v));
+    let lo = values.iter().fold(f64::INFINITY, |m, v| m.min(*v));
+    (hi - lo) / largest
 }
 
 impl Summary {
@@ -123,10 +156,21 @@ impl Summary {
             .iter()
             .filter_map(|c| {
                 let (l, r) = (c.reaction(left)?, c.reaction(right)?);
+                let (l, r) = (
+                    SpringingForce::from_reaction(l.fx, l.fy, l.mz, true),
+                    SpringingForce::from_reaction(r.fx, r.fy, r.mz, false),
+                );
+                // the deck seats and approach piers: every other support
+                let others = c.reactions.iter().filter(|x| x.node != left && x.node != right);
+                let (fx, fy) = others.fold((0.0, 0.0), |(x, y), q| (x + q.fx, y + q.fy));
+                let zero = |v: f64| if v.abs() <= ZERO_FORCE * c.equilibrium.reference { 0.0 } else { v };
                 Some(CaseSpringings {
                     case: c.name.clone(),
-                    left: SpringingForce::from_reaction(l.fx, l.fy, l.mz, true),
-                    right: SpringingForce::from_reaction(r.fx, r.fy, r.mz, false),
+                    left: l,
+                    right: r,
+                    seats_piers_horizontal: zero(fx),
+                    seats_piers_vertical: zero(fy),
+                    thrust_spread: relative_spread(&[form.thrust, l.thrust, r.thrust]),
                 })
             })
             .collect();
@@ -170,6 +214,7 @@ impl Summary {
             frame_reactions: dead
                 .map(|c| c.reactions.iter().map(|r| (r.node, r.fx, r.fy, r.mz)).collect())
                 .unwrap_or_default(),
+            fixed_rib: design.rib_system == RibSystem::Fixed,
         }
     }
 
@@ -181,6 +226,18 @@ impl Summary {
     /// The springing forces of load case `case`.
     pub fn springings_of(&self, case: &str) -> Option<&CaseSpringings> {
         self.springings.iter().find(|s| s.case == case)
+    }
+
+    /// Whether the form thrust, the springing thrusts of load case `case` and, when
+    /// given, a pole distance `pole` (kN; the bare rib's force diagram) differ by more
+    /// than [`THRUSTS_DIFFER`] relative to the largest of them, so a screen should say
+    /// why. `false` for a case the summary does not have.
+    pub fn thrusts_differ(&self, case: &str, pole: Option<f64>) -> bool {
+        self.springings_of(case).is_some_and(|s| {
+            let mut values = vec![self.form_thrust, s.left.thrust, s.right.thrust];
+            values.extend(pole);
+            relative_spread(&values) > THRUSTS_DIFFER
+        })
     }
 }
 
@@ -218,11 +275,55 @@ mod tests {
         assert!(s.equilibrium < 1e-9);
     }
 
+    /// Horizontal equilibrium of the frame model (a statics law, any textbook): under
+    /// gravity loads the springings' and the seats' and piers' horizontal reactions sum
+    /// to 0, i.e. H_left - H_right + seats/piers = 0, in every case; and a two-hinged rib
+    /// with crossed bracing makes the thrusts differ where the three-hinged demo's dead
+    /// case does not.
+    #[test]
+    fn seats_and_piers_close_the_horizontal_balance_and_the_thrusts_differ_where_they_should() {
+        let a = analyze(&Design::demo()).expect("demo");
+        let s = &a.summary;
+        for c in &s.springings {
+            let reference = a.frame.solution.case(&c.case).expect("solved").equilibrium.reference;
+            let sum = c.left.thrust - c.right.thrust + c.seats_piers_horizontal;
+            assert!(sum.abs() <= 1e-9 * reference, "{}: {sum} of {reference}", c.case);
+            // the same sum read straight from the solution's reactions
+            let solved = a.frame.solution.case(&c.case).expect("solved");
+            let all_fx: f64 = solved.reactions.iter().map(|r| r.fx).sum();
+            assert!(all_fx.abs() <= 1e-9 * reference, "{}: {all_fx}", c.case);
+        }
+        // three-hinged demo, dead load: springing thrust = form thrust (see above)
+        let dead = s.springings_of("dead").expect("dead");
+        assert!(dead.thrust_spread < 1e-6, "{}", dead.thrust_spread);
+        assert!(!s.thrusts_differ("dead", None));
+        assert!(!s.fixed_rib);
+        // a pole distance 1 % away from the rest makes them differ
+        assert!(s.thrusts_differ("dead", Some(1.01 * s.form_thrust)));
+        assert!(!s.thrusts_differ("no such case", Some(0.0)));
+
+        let mut d = Design::demo();
+        d.rib_system = RibSystem::TwoHinged;
+        d.bracing = crate::arch::design::Bracing::Crossed;
+        let a = analyze(&d).expect("two-hinged, crossed");
+        let dead = a.summary.springings_of("dead").expect("dead");
+        assert!(dead.thrust_spread > THRUSTS_DIFFER, "{dead:?}");
+        assert!(a.summary.thrusts_differ("dead", None));
+        // the deck seats take part of the thrust here: the balance holds with them
+        let reference = a.frame.solution.cases[0].equilibrium.reference;
+        assert!(dead.seats_piers_horizontal.abs() > 1.0, "{dead:?}");
+        let sum = dead.left.thrust - dead.right.thrust + dead.seats_piers_horizontal;
+        assert!(sum.abs() <= 1e-9 * reference, "{sum}");
+        // the seats and piers carry the approach spans' and deck ends' load: upward
+        assert!(dead.seats_piers_vertical > 0.0, "{dead:?}");
+    }
+
     #[test]
     fn a_fixed_rib_reports_its_springing_moments_and_rounding_shows_as_zero() {
         let mut d = Design::demo();
         d.rib_system = crate::arch::design::RibSystem::Fixed;
         let a = analyze(&d).expect("fixed");
+        assert!(a.summary.fixed_rib);
         let dead = a.summary.springings_of("dead").expect("dead");
         let [left, right] = a.frame.map.springings;
         let case = &a.frame.solution.cases[0];

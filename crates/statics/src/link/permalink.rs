@@ -209,13 +209,24 @@ fn is_case_id(id: &str) -> bool {
         && id.bytes().all(|b| b.is_ascii_lowercase() || b.is_ascii_digit() || b == b'-')
 }
 
-/// Splits a link (a whole URL, a fragment or a payload, as [`decode`] takes) at the
-/// first `~` into the design part (everything before it, unchanged) and the view part
-/// read by [`ViewState::parse`]; a link without `~` is all design part and says nothing
-/// about the view. Never fails: a bad view part is an empty `ViewState`.
+/// Splits a link (a whole URL, a fragment or a payload, as [`decode`] takes) into the
+/// design part (everything before the view separator, unchanged) and the view part read
+/// by [`ViewState::parse`]. The separator is the first `~` (or its percent-encoded form
+/// `%7E` / `%7e`, which some mailers and chat programs write) **after the first `#`**
+/// when the link has one, so a `~` in a URL's path (`https://host/~ana/app/#s2...`) is
+/// not taken for it; a link without `#` is searched whole. A link without a separator
+/// is all design part and says nothing about the view. Never fails: a bad view part is
+/// an empty `ViewState`.
 pub fn split_view(link: &str) -> (&str, ViewState) {
-    match link.split_once(VIEW_SEPARATOR) {
-        Some((design, view)) => (design, ViewState::parse(view)),
+    let from = link.find('#').map_or(0, |hash| hash + 1);
+    let tail = &link[from..];
+    // the earliest of the plain and the percent-encoded separator
+    let mut buf = [0u8; 4];
+    let plain: &str = VIEW_SEPARATOR.encode_utf8(&mut buf);
+    let found =
+        [plain, "%7E", "%7e"].into_iter().filter_map(|sep| tail.find(sep).map(|at| (at, sep.len()))).min();
+    match found {
+        Some((at, len)) => (&link[..from + at], ViewState::parse(&tail[at + len..])),
         None => (link, ViewState::default()),
     }
 }
@@ -893,6 +904,48 @@ mod tests {
         // the view part does not rescue a bad design part
         assert!(decode("s2.AAAA~view:c=dead").is_err());
         assert_eq!(kind(decode("~view:c=dead")), LinkError::Empty);
+    }
+
+    /// A `~` in a URL's path is not the view separator: only the text after the first `#`
+    /// is searched (a link without `#` is searched whole).
+    #[test]
+    fn a_tilde_in_the_path_is_not_the_view_separator() {
+        let demo = Design::demo();
+        let payload = encode(&demo);
+        let view = ViewState { case: Some("panel-3".into()), units: Some(Units::UsCustomary) };
+        let base = "https://host.invalid/~ana/app/";
+        let url = format!("{base}#{payload}~view:c=panel-3;u=us");
+        let (design_part, read) = split_view(&url);
+        assert_eq!(design_part, format!("{base}#{payload}"));
+        assert_eq!(read, view);
+        assert_eq!(decode(&url), Ok(demo.clone()));
+        // no view part: the whole URL is the design part, and it opens
+        let plain = format!("{base}#{payload}");
+        assert_eq!(split_view(&plain), (plain.as_str(), ViewState::default()));
+        assert_eq!(decode(&plain), Ok(demo.clone()));
+        // a fragment alone and a bare payload still split at their `~`
+        assert_eq!(split_view(&format!("#{payload}~view:u=us")).1.units, Some(Units::UsCustomary));
+        assert_eq!(split_view(&format!("{payload}~view:u=us")).0, payload);
+    }
+
+    /// The separator percent-encoded (`%7E`, `%7e`), as some programs rewrite `~`, splits
+    /// the same; the earliest separator counts.
+    #[test]
+    fn a_percent_encoded_tilde_is_the_view_separator_too() {
+        let demo = Design::demo();
+        let payload = encode(&demo);
+        for sep in ["%7E", "%7e"] {
+            let url = format!("https://host.invalid/%7Eana/#{payload}{sep}view:c=half-right;u=us");
+            let (design_part, read) = split_view(&url);
+            assert_eq!(design_part, format!("https://host.invalid/%7Eana/#{payload}"), "{sep}");
+            assert_eq!(read.case.as_deref(), Some("half-right"), "{sep}");
+            assert_eq!(read.units, Some(Units::UsCustomary), "{sep}");
+            assert_eq!(decode(&url), Ok(demo.clone()), "{sep}");
+        }
+        // the first separator of either form wins
+        let fragment = format!("#{payload}");
+        assert_eq!(split_view(&format!("{fragment}%7Eview:u=us~x")).0, fragment);
+        assert_eq!(split_view(&format!("{fragment}~view:u=us%7Ex")).0, fragment);
     }
 
     /// Every committed link fixture (formats s1 and s2) opens to the same design with a

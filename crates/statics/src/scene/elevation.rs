@@ -10,17 +10,20 @@
 //! |N| drawn), N the mean of the end forces; |N| at or below the solver's zero
 //! (`ZERO_FORCE` of the case's largest force) counts as no force.
 //!
-//! Springing forces are [`SpringingForce`] values, the numbers of the results table:
-//! thrust H positive when the rib pushes its abutment outward, V positive when it pushes
-//! it down, the angle of that push below the horizontal, the moment on the abutment. The
-//! arrow drawn is that push, from the springing into the abutment.
+//! Springing forces are [`SpringingForce`] values of the model drawn (the frame model's
+//! are the numbers of the results table; with the truss idealisation drawn, its own
+//! reactions at its pinned springings): thrust H positive when the rib pushes its
+//! abutment outward, V positive when it pushes it down, the angle of that push below the
+//! horizontal, the moment on the abutment (a fixed rib, frame model only). The arrow
+//! drawn is that push, from the springing into the abutment.
 
 use super::place::{self, Placer, Request, Side, PAD_X};
 use super::{Ink, Item, Label, Pattern, Px, Rect, Scene, Shape, Stroke, Tag, TextSize, Transform, Viewport};
 use crate::arch::analysis::Analysis;
+use crate::arch::cases::CaseKind;
 use crate::arch::design::{Design, RibSystem};
 use crate::arch::generate::{MemberRole, ModelKind, ModelMap};
-use crate::arch::readout::{case_title, MemberKey};
+use crate::arch::readout::MemberKey;
 use crate::arch::summary::SpringingForce;
 use crate::frame::model::{LoadDirection, MemberLoad, Model};
 use crate::frame::results::CaseResult;
@@ -125,8 +128,8 @@ pub fn elevation_with_dropped(
 
     // title and key first: they take their own lines at the top
     let case_words =
-        a.load_cases.get(case_index).map_or_else(|| "dead load".to_string(), |c| case_title(&c.description));
-    let case_detail = a.load_cases.get(case_index).map(|c| c.description.to_string());
+        a.load_cases.get(case_index).map_or_else(|| CaseKind::Dead.title(), |c| c.description.title());
+    let case_detail = a.load_cases.get(case_index).map(|c| c.description.describe(units));
     let frame_only = drawn.kind == ModelKind::Truss;
     // texts laid out by the builder that found no room (never expected; tests check)
     let mut lost = Vec::new();
@@ -209,7 +212,7 @@ pub fn elevation_with_dropped(
         placer.reserve(rect.grown(2.0));
     }
 
-    let boxed = springing_forces(&mut scene, &mut placer, a, design, frame_case, (&t, units, viewport));
+    let boxed = springing_forces(&mut scene, &mut placer, &drawn, design, (&t, units, viewport));
     dimensions(&mut scene, &mut placer, a, design, &t, units, viewport);
 
     let mut dropped = lost;
@@ -490,15 +493,15 @@ fn loads(scene: &mut Scene, d: &Drawn, t: &Transform) {
 fn springing_forces(
     scene: &mut Scene,
     placer: &mut Placer,
-    a: &Analysis,
+    drawn: &Drawn,
     design: &Design,
-    case: &CaseResult,
     (t, units, viewport): (&Transform, Units, Viewport),
 ) -> Vec<(usize, Option<Px>)> {
     let frame = Rect::new(1.0, 1.0, (viewport.width - 2.0).max(0.0), (viewport.height - 2.0).max(0.0));
     let mut placed = Vec::new();
-    let map = &a.frame.map;
-    let model = &a.frame.model;
+    let (map, model, case) = (drawn.map, drawn.model, drawn.case);
+    // the truss idealisation's springings are pinned: a moment only in the frame model
+    let shows_moment = design.rib_system == RibSystem::Fixed && drawn.kind == ModelKind::Frame;
     let reference = case.equilibrium.reference;
     let clean = |v: f64, r: f64| if v.abs() <= ZERO_FORCE * r { 0.0 } else { v };
     for (node, left) in [(map.springings[0], true), (map.springings[1], false)] {
@@ -529,7 +532,7 @@ fn springing_forces(
                 format!("{} below horiz.", units.show(Quantity::Angle, angle))
             },
         ];
-        if design.rib_system == RibSystem::Fixed {
+        if shows_moment {
             lines.push(format!("M = {}", units.show(Quantity::Moment, m)));
         }
         let sides: &[Side] = if left {
@@ -704,12 +707,60 @@ mod tests {
         let d = Design::demo();
         let a = analyze(&d).expect("demo");
         let s = elevation(&a, &d, &ElevationOptions::default(), Viewport::new(900.0, 440.0));
-        assert!(label_starting(&s, "Elevation · frame model · dead load").is_some(), "{:?}", s.labels);
+        assert!(label_starting(&s, "Elevation · frame model · Dead load").is_some(), "{:?}", s.labels);
         let truss = ElevationOptions { model: ModelKind::Truss, case: 1, ..Default::default() };
         let s = elevation(&a, &d, &truss, Viewport::new(900.0, 440.0));
         let title = label_starting(&s, "Elevation · truss idealisation").expect("truss title");
-        assert!(title.text.contains("dead + live load"), "{}", title.text);
+        assert!(title.text.contains("Live load, left half"), "{}", title.text);
         assert!(s.labels.iter().any(|l| l.text.contains("not in the truss idealisation")));
+    }
+
+    /// With the truss idealisation drawn, the springing blocks show the truss's own
+    /// reactions (its pinned springings), not the frame model's under the truss's title.
+    #[test]
+    fn the_truss_drawn_shows_its_own_springing_reactions() {
+        // two-hinged: indeterminate, so the two models' thrusts differ
+        let mut d = Design::demo();
+        d.rib_system = RibSystem::TwoHinged;
+        let a = analyze(&d).expect("two-hinged demo");
+        let t = a.truss.as_ref().expect("braced");
+        let case = t.solution.as_ref().expect("solved").cases.get(1).expect("a second case");
+        let opts = ElevationOptions { model: ModelKind::Truss, case: 1, ..Default::default() };
+        let s = elevation(&a, &d, &opts, Viewport::new(900.0, 440.0));
+        let texts: Vec<&str> = s.labels.iter().map(|l| l.text.as_str()).collect();
+        let frame = a.summary.springings.get(1).expect("frame case 1");
+        for (node, left, frame_side) in
+            [(t.map.springings[0], true, frame.left), (t.map.springings[1], false, frame.right)]
+        {
+            let r = case.reaction(node).expect("a springing support");
+            // outward push: fx at the left, -fx at the right (the rib pushes back on the abutment)
+            let h = if left { r.fx } else { -r.fx };
+            let shown = format!("H = {}", Units::Si.show(Quantity::Force, h));
+            assert!(texts.contains(&shown.as_str()), "{shown} in {texts:?}");
+            // the frame's H (the results table's) differs here and is not the one shown
+            let frame_h = format!("H = {}", Units::Si.show(Quantity::Force, frame_side.thrust));
+            assert_ne!(frame_h, shown, "the models' thrusts differ for a two-hinged rib");
+            assert!(!texts.contains(&frame_h.as_str()), "{frame_h} shown under the truss title");
+        }
+    }
+
+    /// The title's full case description (shown on hover) follows the units: a US
+    /// half-span case in psf and ft (5 kN/m² is 104.4 psf: 1 psf = 0.04788 kN/m², NIST SP
+    /// 811).
+    #[test]
+    fn the_case_detail_speaks_the_chosen_units() {
+        let d = Design::demo();
+        let a = analyze(&d).expect("demo");
+        let half = a
+            .load_cases
+            .iter()
+            .position(|c| matches!(c.description, crate::arch::cases::CaseKind::HalfSpan { .. }))
+            .expect("a half-span case");
+        let opts = ElevationOptions { units: Units::UsCustomary, case: half, ..Default::default() };
+        let s = elevation(&a, &d, &opts, Viewport::new(900.0, 440.0));
+        let detail = s.labels.iter().find_map(|l| l.detail.clone()).expect("the title's detail");
+        assert!(detail.contains("104.4\u{a0}psf"), "{detail}");
+        assert!(detail.contains("\u{a0}ft") && !detail.contains("kN"), "{detail}");
     }
 
     /// Springing labels carry the summary's numbers (the results table's), shown.

@@ -243,14 +243,15 @@ pub fn force_drawing(
     let Some(figs) = analysis.load_cases.get(case) else {
         return message(viewport, "Force diagram not available", "there is no such load case");
     };
-    let case_words = figs.description.to_string();
+    // the case's one title on the canvas, its full description (in the chosen units) on hover
+    let case_words = (figs.description.title(), figs.description.describe(opts.units));
     let why = || figs.notes.iter().map(|n| n.to_string()).collect::<Vec<_>>().join("; ");
     if analysis.truss.is_some() {
         match &figs.force_diagram {
             Some(figure) => braced(
                 figure,
                 figs.rib_funicular.as_ref().map(|r| &r.construction),
-                &case_words,
+                (&case_words.0, &case_words.1),
                 opts,
                 viewport,
             ),
@@ -258,7 +259,7 @@ pub fn force_drawing(
         }
     } else {
         match &figs.thrust_line {
-            Some(tl) => thrust(tl, &case_words, opts, viewport),
+            Some(tl) => thrust(tl, (&case_words.0, &case_words.1), opts, viewport),
             None => message(viewport, "Thrust line not available", &why()),
         }
     }
@@ -295,6 +296,15 @@ impl Header {
         let detail = (shown != text).then(|| text.to_string());
         self.labels.push(Label { text: shown, size, ink, rect, boxed: false, leader: None, detail });
         self.y += size.box_height();
+    }
+
+    /// One line `text` (shortened with "…" when it does not fit) whose hover shows
+    /// `detail` (a case's title shown, its full description on hover).
+    fn line_with_detail(&mut self, (text, detail): (&str, &str), size: TextSize, ink: Ink) {
+        self.line(text, size, ink);
+        if let Some(l) = self.labels.last_mut() {
+            l.detail = Some(detail.to_string());
+        }
     }
 
     /// A paragraph wrapped at spaces to the width.
@@ -521,14 +531,14 @@ fn open_area(area: Rect, captions: &[String]) -> (Item, Label, Placer) {
 fn braced(
     figure: &ForceDiagram,
     pole: Option<&PoleConstruction>,
-    case_words: &str,
+    case_words: (&str, &str),
     opts: &ForceOptions,
     viewport: Viewport,
 ) -> ForceDrawing {
     let units = opts.units;
     let mut h = Header::new(viewport);
     h.line("Force diagram · truss idealisation", TextSize::Title, Ink::Text);
-    h.line(case_words, TextSize::Small, Ink::Secondary);
+    h.line_with_detail(case_words, TextSize::Small, Ink::Secondary);
     let largest = figure.largest_force.max(1e-9);
     h.key(&[
         (Sample::Line(Stroke::patterned(Ink::Tension, 2.0, Pattern::Dashed)), "tension"),
@@ -828,11 +838,16 @@ fn space_groups(figure: &ForceDiagram, at: impl Fn(crate::geom::Point) -> Px) ->
 // ---------------------------------------------------------------------------------------
 // unbraced: the thrust line
 
-fn thrust(tl: &ThrustLine, case_words: &str, opts: &ForceOptions, viewport: Viewport) -> ForceDrawing {
+fn thrust(
+    tl: &ThrustLine,
+    case_words: (&str, &str),
+    opts: &ForceOptions,
+    viewport: Viewport,
+) -> ForceDrawing {
     let units = opts.units;
     let mut h = Header::new(viewport);
     h.line("Thrust line · frame model rib", TextSize::Title, Ink::Text);
-    h.line(case_words, TextSize::Small, Ink::Secondary);
+    h.line_with_detail(case_words, TextSize::Small, Ink::Secondary);
     let axis: Vec<(f64, f64)> = tl.sections.iter().map(|s| (s.axis.x, s.axis.y)).collect();
     let b = bounds(axis.iter().copied()).unwrap_or((0.0, 1.0, 0.0, 1.0));
     // the header's height depends on the notes, which depend on the scale: lay the notes
@@ -1040,6 +1055,32 @@ fn cut_y(a: Px, b: Px, y: f64) -> Px {
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    /// The case line of the header follows the units: a US half-span case in psf, kip/ft
+    /// and ft, no SI unit left (5 kN/m² / 0.04788 kN/m² per psf = 104.4 psf, NIST SP 811
+    /// factor for lbf/ft²).
+    #[test]
+    fn the_case_line_speaks_the_chosen_units() {
+        use crate::arch::analysis::analyze;
+        use crate::arch::design::Design;
+        let a = analyze(&Design::demo()).expect("demo");
+        let half = a
+            .load_cases
+            .iter()
+            .position(|c| matches!(c.description, crate::arch::cases::CaseKind::HalfSpan { .. }))
+            .expect("a half-span case");
+        let opts = ForceOptions { units: Units::UsCustomary, ..Default::default() };
+        let s = force_scene(&a, half, &opts, Viewport::new(900.0, 600.0));
+        let line = s
+            .labels
+            .iter()
+            .find(|l| l.text == "Live load, left half")
+            .and_then(|l| l.detail.clone())
+            .expect("the case line, its title shown and its description on hover");
+        assert!(line.contains("104.4\u{a0}psf"), "{line}");
+        assert!(line.contains("kip/ft") && line.contains("\u{a0}ft)"), "{line}");
+        assert!(!line.contains("kN") && !line.contains("\u{a0}m)"), "{line}");
+    }
 
     #[test]
     fn consecutive_labels_collapse_into_ranges() {
