@@ -464,6 +464,17 @@ fn split(body: Rect, first: (f64, f64, f64, f64), second: (f64, f64, f64, f64)) 
     }
 }
 
+/// The canvas below the header lines that end at `top`, inside the margin (at least
+/// 20 px tall, so a tiny canvas still gets a drawing area).
+fn body_below(top: f64, viewport: Viewport) -> Rect {
+    Rect::new(
+        MARGIN,
+        top + 4.0,
+        viewport.width - 2.0 * MARGIN,
+        (viewport.height - top - 4.0 - MARGIN).max(20.0),
+    )
+}
+
 /// The drawing room of an area below its caption line.
 fn inner_of(area: Rect, caption: f64) -> Rect {
     Rect::new(
@@ -558,12 +569,7 @@ fn braced(
             Ink::Secondary,
         );
     }
-    let body = Rect::new(
-        MARGIN,
-        h.y + 4.0,
-        viewport.width - 2.0 * MARGIN,
-        (viewport.height - h.y - 4.0 - MARGIN).max(20.0),
-    );
+    let body = body_below(h.y, viewport);
     let fig_box =
         bounds(figure.spaces.iter().map(|s| (s.point.x, s.point.y))).unwrap_or((0.0, 1.0, 0.0, 1.0));
     let pole_box = pole.and_then(|pc| {
@@ -891,12 +897,7 @@ fn thrust(
         TextSize::Small,
         Ink::Secondary,
     );
-    let rect = Rect::new(
-        MARGIN,
-        h.y + 4.0,
-        viewport.width - 2.0 * MARGIN,
-        (viewport.height - h.y - 4.0 - MARGIN).max(20.0),
-    );
+    let rect = body_below(h.y, viewport);
     let fit = Transform::fit(padded(b), inner_of(rect, 0.0));
     let t = opts.views[0].apply(fit, rect);
     let normals = tl.section_normals();
