@@ -97,8 +97,8 @@ impl ArchLine {
         })
     }
 
-    /// The line's name and units for a table header, e.g.
-    /// `left springing thrust H (kN per kN)`.
+    /// The line's name, sign and units for a table header, without commas (a CSV
+    /// column title), e.g. `left springing thrust H; outward push positive (kN per kN)`.
     pub fn header(&self, generated: &Generated) -> String {
         let side = |s: &Side| match s {
             Side::Left => "left",
@@ -106,12 +106,16 @@ impl ArchLine {
         };
         let member = |k: &usize| generated.model.member_label(*k);
         match self {
-            ArchLine::Thrust(s) => format!("{} springing thrust H, outward push (kN per kN)", side(s)),
-            ArchLine::Vertical(s) => format!("{} springing vertical V, downward push (kN per kN)", side(s)),
-            ArchLine::SpringingMoment(s) => {
-                format!("{} springing moment on the abutment, anticlockwise (kNm per kN)", side(s))
+            ArchLine::Thrust(s) => {
+                format!("{} springing thrust H; outward push positive (kN per kN)", side(s))
             }
-            ArchLine::Axial(k) => format!("{} axial force N, tension positive (kN per kN)", member(k)),
+            ArchLine::Vertical(s) => {
+                format!("{} springing vertical V; downward push positive (kN per kN)", side(s))
+            }
+            ArchLine::SpringingMoment(s) => {
+                format!("{} springing moment on the abutment; anticlockwise positive (kNm per kN)", side(s))
+            }
+            ArchLine::Axial(k) => format!("{} axial force N; tension positive (kN per kN)", member(k)),
             ArchLine::Moment(k, end) => format!(
                 "{} moment at its {} (kNm per kN)",
                 member(k),
@@ -202,10 +206,17 @@ pub fn arch_influence(
         },
         ModelKind::BareRib => bare_rib_model(valid),
     };
+    influence_of(generated, step).map(Some)
+}
+
+/// The influence lines of a generated model along its [`load_path`], the unit load every
+/// `step` m and at the path's nodes (`None`: at the nodes only). Errors: those of
+/// `frame::influence::influence_lines`.
+pub fn influence_of(generated: Generated, step: Option<f64>) -> Result<ArchInfluence, StaticsError> {
     let path = load_path(&generated);
     let stepping = step.map_or(Stepping::NodesOnly, Stepping::Every);
     let lines = influence_lines(&generated.model, &path, stepping)?;
-    Ok(Some(ArchInfluence { generated, path, lines }))
+    Ok(ArchInfluence { generated, path, lines })
 }
 
 #[cfg(test)]
