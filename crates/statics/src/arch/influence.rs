@@ -97,6 +97,33 @@ impl ArchLine {
         })
     }
 
+    /// Every line of a model: H and V at both springings, the springing moments where
+    /// the springings are fixed, every member's axial force, and both end moments of
+    /// every frame member at each end it does not release.
+    pub fn every(generated: &Generated) -> Vec<ArchLine> {
+        let model = &generated.model;
+        let mut lines = Vec::new();
+        for side in [Side::Left, Side::Right] {
+            lines.push(ArchLine::Thrust(side));
+            lines.push(ArchLine::Vertical(side));
+        }
+        for (side, node) in [Side::Left, Side::Right].into_iter().zip(generated.map.springings) {
+            if model.supports.iter().any(|s| s.node == node && s.rz) {
+                lines.push(ArchLine::SpringingMoment(side));
+            }
+        }
+        for (k, m) in model.members.iter().enumerate() {
+            lines.push(ArchLine::Axial(k));
+            if !m.pinned_at_start() {
+                lines.push(ArchLine::Moment(k, MemberEnd::Start));
+            }
+            if !m.pinned_at_end() {
+                lines.push(ArchLine::Moment(k, MemberEnd::End));
+            }
+        }
+        lines
+    }
+
     /// The line's name, sign and units for a table header, without commas (a CSV
     /// column title), e.g. `left springing thrust H; outward push positive (kN per kN)`.
     pub fn header(&self, generated: &Generated) -> String {
@@ -387,6 +414,27 @@ mod tests {
         assert!(drop > 0.9 * nu && drop < 1.25 * nu, "area drops by {drop}, nu = {nu}");
     }
 
+    /// Fixed parabolic rib, I = I_c sec(theta), A very large, unit load at the rib nodes:
+    /// H(a) = 15 a^2 b^2 / (4 f L^3) with b = L - a, 15 L / (64 f) at the crown (the
+    /// hingeless parabolic arch by the elastic centre, Timoshenko & Young, Theory of
+    /// Structures, fixed arches; from memory). Tolerance as for the two-hinged rib: 1e-3 of
+    /// the crown ordinate.
+    #[test]
+    fn fixed_parabolic_rib_matches_the_handbook() {
+        let (span, rise, n) = (60.0, 12.0, 64);
+        let mut m = parabolic_rib(span, rise, n, 0.02, 1.0e4);
+        m.supports = vec![Support::fixed(0), Support::fixed(n)];
+        let path: Vec<usize> = (0..=n).collect();
+        let lines = influence_lines(&m, &path, Stepping::NodesOnly).expect("solves");
+        let h = lines.ordinates(Quantity::Reaction { node: 0, dof: Dof::X }).expect("supported");
+        let crown = 15.0 * span / (64.0 * rise); // 1.1719
+        for (k, &a) in lines.positions.iter().enumerate() {
+            let b = span - a;
+            let expected = 15.0 * a * a * b * b / (4.0 * rise * span.powi(3));
+            assert!((h[k] - expected).abs() < 1e-3 * crown, "a = {a}: {} vs {expected}", h[k]);
+        }
+    }
+
     /// A design symmetric about mid-span with symmetric restraint gives mirrored lines:
     /// H left at x equals H right at the mirror of x, likewise V; a member's N equals its
     /// mirror member's N at the mirror position.
@@ -437,6 +485,30 @@ mod tests {
                 assert!((ml[k] + mr[m]).abs() < 1e-6, "{system:?} M at {}: {} vs {}", x[k], ml[k], mr[m]);
                 assert!((first[k] - last[m]).abs() < 1e-6 * scale.max(1.0), "{system:?} rib N at {}", x[k]);
             }
+        }
+    }
+
+    /// Every line of every model of the demo can be read, and the springings' vertical
+    /// lines add up to the unit load wherever it stands on the truss idealisation (the
+    /// springings are its only supports: vertical equilibrium).
+    #[test]
+    fn every_line_reads_and_the_truss_verticals_add_up() {
+        let v = ValidDesign::new(&Design::demo()).expect("valid");
+        for kind in [ModelKind::Frame, ModelKind::Truss, ModelKind::BareRib] {
+            let inf = arch_influence(&v, kind, Some(2.0)).expect("solves").expect("braced");
+            let lines = ArchLine::every(&inf.generated);
+            assert!(lines.len() > inf.generated.model.members.len(), "{kind}");
+            for line in &lines {
+                let values = inf.ordinates(line).expect("every listed line reads");
+                assert_eq!(values.len(), inf.lines.positions.len());
+                assert!(values.iter().all(|v| v.is_finite()), "{kind} {line:?}");
+            }
+        }
+        let inf = arch_influence(&v, ModelKind::Truss, Some(0.5)).expect("solves").expect("braced");
+        let vl = inf.ordinates(&ArchLine::Vertical(Side::Left)).expect("left");
+        let vr = inf.ordinates(&ArchLine::Vertical(Side::Right)).expect("right");
+        for (k, x) in inf.lines.positions.iter().enumerate() {
+            assert!((vl[k] + vr[k] - 1.0).abs() < 1e-9, "x = {x}: {} + {}", vl[k], vr[k]);
         }
     }
 
