@@ -16,7 +16,7 @@ use std::process::ExitCode;
     about = "Concept design of deck-arch bridges: form finding, analysis, models and permalinks.\n\
              Results are for concept design only; local codes and a licensed engineer govern.",
     after_help = "\
-A path given as `-` reads standard input. Output is JSON (a link for `link`) on standard output;
+A path given as `-` reads standard input. Output is JSON (a link for `link`, CSV for `influence`) on standard output;
 messages go to standard error as `springline: <message>`.
 
 Exit codes:

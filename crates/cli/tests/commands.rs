@@ -60,12 +60,17 @@ fn analyze_help_prints_help_and_reads_no_file() {
 /// own help, with `-h` as with `--help`, and `springline help CMD` says the same.
 #[test]
 fn every_subcommand_has_its_own_help() {
-    let cases: [(&str, &str, &str); 5] = [
+    let cases: [(&str, &str, &str); 6] = [
         ("demo", "Print the demo design as JSON", "springline demo > design.json"),
         ("analyze", "Analyse a design", "springline analyze design.json"),
         ("link", "Print the permalink fragment of a design", "springline link design.json"),
         ("model", "Export a generated model", "springline model --truss design.json"),
         ("solve", "Solve a model in the neutral model format", "springline solve frame.json"),
+        (
+            "influence",
+            "Print an influence line of the frame model as CSV",
+            "springline influence design.json --of thrust",
+        ),
     ];
     for (command, description, example) in cases {
         for flag in ["--help", "-h"] {
@@ -93,7 +98,7 @@ fn top_level_help_has_the_caution_and_the_exit_codes() {
         help.contains("Results are for concept design only; local codes and a licensed engineer govern."),
         "{help}"
     );
-    for command in ["demo", "analyze", "link", "model", "solve"] {
+    for command in ["demo", "analyze", "link", "model", "solve", "influence"] {
         assert!(help.contains(&format!("\n  {command} ")), "{command}: {help}");
     }
     for code in ["0  success", "1  the engine refused the input", "2  usage error", "3  a file"] {

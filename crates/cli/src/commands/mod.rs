@@ -3,6 +3,7 @@
 
 pub mod analyze;
 pub mod demo;
+pub mod influence;
 pub mod link;
 pub mod model;
 pub mod solve;
@@ -22,6 +23,7 @@ pub enum Command {
     Link(link::Args),
     Model(model::Args),
     Solve(solve::Args),
+    Influence(influence::Args),
 }
 
 impl Command {
@@ -33,6 +35,7 @@ impl Command {
             Command::Link(args) => link::run(args),
             Command::Model(args) => model::run(args),
             Command::Solve(args) => solve::run(args),
+            Command::Influence(args) => influence::run(args),
         }
     }
 }

@@ -9,6 +9,7 @@ pub mod design_file;
 pub mod edit;
 pub mod form;
 pub mod generate;
+pub mod influence;
 pub mod layout;
 pub mod readout;
 pub mod summary;

@@ -71,6 +71,13 @@ impl BandMatrix {
     }
 }
 
+#[cfg(test)]
+thread_local! {
+    /// Test-only count of the factorisations run on this thread, so tests can show that
+    /// one factorisation serves many right-hand sides.
+    pub(crate) static FACTORISATIONS: std::cell::Cell<usize> = const { std::cell::Cell::new(0) };
+}
+
 /// The factors L (unit lower, banded) and D of A = L D L^T.
 #[derive(Debug, Clone)]
 pub(crate) struct LdlFactor {
@@ -90,6 +97,8 @@ pub(crate) struct SingularPivot {
 impl LdlFactor {
     /// Factorises `a`. Fails at the first pivot below `PIVOT_TOLERANCE` times its diagonal.
     pub(crate) fn new(a: &BandMatrix) -> Result<Self, SingularPivot> {
+        #[cfg(test)]
+        FACTORISATIONS.with(|c| c.set(c.get() + 1));
         let n = a.n;
         let bw = a.bandwidth;
         let mut l = a.clone();

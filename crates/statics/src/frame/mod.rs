@@ -10,6 +10,7 @@
 pub mod determinacy;
 pub mod element;
 pub mod equilibrium;
+pub mod influence;
 pub mod model;
 pub mod results;
 pub mod solver;
