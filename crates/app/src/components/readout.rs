@@ -32,7 +32,11 @@ pub fn MemberReadout() -> impl IntoView {
         let case = state.case.get();
         let units = state.units.get();
         let ribs = state.design.with(|d| d.deck.ribs);
-        state.analysis.with(|o| o.as_ref().ok().map(|a| readout(a, ribs, &key, case).lines(units)))
+        // a member the current layout no longer has reads as nothing pointed at
+        state.analysis.with(|o| {
+            let r = readout(o.as_ref().ok()?, ribs, &key, case);
+            (!r.in_no_model()).then(|| r.lines(units))
+        })
     });
     view! {
         <div

@@ -225,6 +225,14 @@ impl ModelForces {
 }
 
 impl Readout {
+    /// Whether the member exists in no model of this analysis (a key kept from an earlier
+    /// design whose layout has since changed, e.g. fewer panels after a drag): there is
+    /// nothing to read.
+    pub fn in_no_model(&self) -> bool {
+        matches!(self.frame, InModel::Absent)
+            && !matches!(self.truss, Some(InModel::Carries(_) | InModel::Unsolved))
+    }
+
     /// The readout as lines of text in `units`: the member and case, then one line per
     /// model: N (both ends when they differ), M for rib and deck in the frame model, for
     /// all rib lines and per rib line; "not in this model" where the model lacks it.
@@ -426,6 +434,25 @@ mod tests {
         let a = analyze(&d).expect("unbraced");
         let key = MemberKey::of(&a.frame.map, ModelKind::Frame, a.frame.map.rib_members[0]).expect("rib");
         assert_eq!(readout(&a, d.deck.ribs, &key, 0).truss, None);
+    }
+
+    /// A key kept from a design with more panels names joints the new layout lacks: it is
+    /// in no model (the app then shows nothing pointed at); a member that exists is not.
+    #[test]
+    fn a_key_from_an_earlier_layout_is_in_no_model() {
+        let demo = Design::demo();
+        let a12 = analyze(&demo).expect("demo");
+        let t = a12.truss.as_ref().expect("braced");
+        let last_brace = t.map.members_with(MemberRole::Bracing).last().expect("bracing");
+        let key = MemberKey::of(&t.map, ModelKind::Truss, last_brace).expect("truss member");
+        assert!(!readout(&a12, demo.deck.ribs, &key, 0).in_no_model());
+        let mut fewer = demo.clone();
+        fewer.panels = 6;
+        let a6 = analyze(&fewer).expect("six panels");
+        let r = readout(&a6, fewer.deck.ribs, &key, 0);
+        assert!(r.in_no_model(), "{r:?}");
+        let rib = MemberKey::of(&a6.frame.map, ModelKind::Frame, a6.frame.map.rib_members[0]).expect("rib");
+        assert!(!readout(&a6, fewer.deck.ribs, &rib, 0).in_no_model());
     }
 
     #[test]
