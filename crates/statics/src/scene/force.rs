@@ -475,6 +475,60 @@ fn body_below(top: f64, viewport: Viewport) -> Rect {
     )
 }
 
+/// The note for `hidden` space labels that found no room in `area`, and its box in the
+/// area's bottom-left corner: "3 labels hidden: zoom in".
+fn hidden_note(hidden: usize, area: Rect) -> (String, Rect) {
+    let text = format!("{} hidden: zoom in", crate::error::counted(hidden, "label", "labels"));
+    let size = TextSize::Small;
+    let rect = place::text_box(&text, size, area.x + 4.0, area.bottom() - 2.0 - size.box_height() / 2.0);
+    (text, rect)
+}
+
+/// When `hidden` space labels found no room in `area`, says so in the area's bottom-left
+/// corner ("3 labels hidden: zoom in"), making room by leaving out the space labels
+/// (indices `space_labels` into `placed`) under the note, which are then counted and
+/// listed in `dropped` too. Without room even so (another kind of label there), no note.
+fn say_hidden(
+    placed: &mut Vec<Label>,
+    space_labels: &[usize],
+    mut hidden: usize,
+    area: Rect,
+    dropped: &mut Vec<String>,
+) {
+    if hidden == 0 {
+        return;
+    }
+    let mut is_space: Vec<bool> = (0..placed.len()).map(|i| space_labels.contains(&i)).collect();
+    // the note grows with the count it says; a few rounds settle it
+    for _ in 0..4 {
+        let (text, rect) = hidden_note(hidden, area);
+        let under: Vec<usize> =
+            (0..placed.len()).filter(|&i| placed[i].rect.grown(1.0).overlaps(&rect)).collect();
+        // an area too narrow for the note, or another kind of label under it: no note
+        if rect.right() > area.right() - 2.0 || under.iter().any(|&i| !is_space[i]) {
+            return;
+        }
+        if under.is_empty() {
+            let size = TextSize::Small;
+            placed.push(Label {
+                text,
+                size,
+                ink: Ink::Secondary,
+                rect,
+                boxed: true,
+                leader: None,
+                detail: None,
+            });
+            return;
+        }
+        for &i in under.iter().rev() {
+            dropped.push(placed.remove(i).text);
+            is_space.remove(i);
+            hidden += 1;
+        }
+    }
+}
+
 /// The drawing room of an area below its caption line.
 fn inner_of(area: Rect, caption: f64) -> Rect {
     Rect::new(
@@ -648,6 +702,7 @@ fn braced(
             }
         }
     }
+    let (mut hidden, mut space_labels) = (0usize, Vec::new());
     for group in space_groups(figure, at) {
         if !pen.inside(group.at) {
             continue;
@@ -660,12 +715,19 @@ fn braced(
         if let Some(short) = short {
             req = req.short(short);
         }
-        if placer.place(req).is_none() {
-            dropped.push(text);
+        match placer.place(req) {
+            Some(i) => space_labels.push(i),
+            None => {
+                dropped.push(text);
+                hidden += 1;
+            }
         }
     }
     drawing_items.extend(pen.items);
-    labels.extend(placer.finish());
+    let mut placed = placer.finish();
+    // space labels that found no room are said to be there, in the area's bottom corner
+    say_hidden(&mut placed, &space_labels, hidden, fig_rect, &mut dropped);
+    labels.extend(placed);
 
     // the pole construction
     if let (Some(pc), Some(rect), Some(pb)) = (pole, pole_rect, pole_box) {
