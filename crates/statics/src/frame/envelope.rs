@@ -425,6 +425,35 @@ mod tests {
         assert!(close(replay(&x, &eta, &truck, &at), 1238.0));
     }
 
+    /// The same truck on the left reaction of a simple span L = 30 m (line 1 - x/L):
+    /// by hand, travelling right (the 35 kN axle leading) with the last 145 kN axle on
+    /// the support, rear spacing 4.3 m: 145 + 145 (1 - 4.3/30) + 35 (1 - 8.6/30) =
+    /// 294.18 kN; travelling left the 35 kN axle would come first onto the support side
+    /// (35 + 145 (1 - 4.3/30) + 145 (1 - 8.6/30) = 262.6 kN) or leave the span (145 +
+    /// 145 (1 - 4.3/30) = 269.2 kN). The right reaction, 1 - (L - x)/L, is the mirror:
+    /// the same value travelling left.
+    #[test]
+    fn hl93_truck_on_a_support_reaction_picks_its_direction() {
+        let l = 30.0;
+        let x = grid(l, 30);
+        let truck = AxleGroup {
+            loads: vec![35.0, 145.0, 145.0],
+            spacings: vec![4.3, 4.3],
+            variable: Some(VariableSpacing { index: 1, min: 4.3, max: 9.0 }),
+        };
+        let hand = 145.0 + 145.0 * (1.0 - 4.3 / l) + 35.0 * (1.0 - 8.6 / l);
+        let left: Vec<f64> = x.iter().map(|xi| 1.0 - xi / l).collect();
+        let right: Vec<f64> = x.iter().map(|xi| xi / l).collect();
+        for (eta, travel) in [(left, Travel::Rightward), (right, Travel::Leftward)] {
+            let e = envelope(&x, &eta, &Traffic { uniform: 0.0, axles: Some(truck.clone()) }).expect("valid");
+            assert!(close(e.max.value, hand), "{} vs {hand}", e.max.value);
+            let at = e.max.axles.expect("placed");
+            assert_eq!(at.travel, travel);
+            assert!(close(at.spacing.expect("variable"), 4.3));
+            assert_eq!(e.min.value, 0.0);
+        }
+    }
+
     /// The search inside the range: two axles of 100 kN on a line with two peaks of 1 at
     /// 2 m and 9 m (zero at 0, 5.5 and 12 m), spacing 4 to 9 m. By hand: one axle on each
     /// peak at spacing 7 m gives 200 kN; the bounds give less (at 4 m: one axle on a peak,
