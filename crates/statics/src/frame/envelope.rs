@@ -263,6 +263,13 @@ fn ordinate(x: &[f64], eta: &[f64], at: f64) -> f64 {
 /// Offsets of the axles behind the first one, m, for the variable spacing `s`.
 fn offsets(group: &AxleGroup, s: Option<f64>) -> Vec<f64> {
     let mut d = Vec::with_capacity(group.loads.len());
+    offsets_into(group, s, &mut d);
+    d
+}
+
+/// [`offsets`] into a buffer (the placement search reuses one).
+fn offsets_into(group: &AxleGroup, s: Option<f64>, d: &mut Vec<f64>) {
+    d.clear();
     d.push(0.0);
     for (k, &sp) in group.spacings.iter().enumerate() {
         let gap = match (group.variable, s) {
@@ -271,7 +278,6 @@ fn offsets(group: &AxleGroup, s: Option<f64>) -> Vec<f64> {
         };
         d.push(d[k] + gap);
     }
-    d
 }
 
 /// Calls `seen(effect, placement)` for every candidate placement of the group (see the
@@ -310,6 +316,7 @@ fn search_axles(x: &[f64], eta: &[f64], group: &AxleGroup, seen: &mut dyn FnMut(
     // and one behind it (axles index+1..) on stop b fix both the place and the spacing
     let Some(v) = group.variable else { return };
     let base = offsets(group, Some(0.0));
+    let mut d = Vec::with_capacity(group.loads.len());
     for travel in [Travel::Rightward, Travel::Leftward] {
         let sense = if travel == Travel::Rightward { -1.0 } else { 1.0 };
         for i in 0..=v.index {
@@ -326,7 +333,7 @@ fn search_axles(x: &[f64], eta: &[f64], group: &AxleGroup, seen: &mut dyn FnMut(
                     let start = stops.partition_point(|&xb| xb < lo - eps);
                     for &xb in stops[start..].iter().take_while(|&&xb| xb <= hi + eps) {
                         let s = (sense * (xb - xa) - fixed).clamp(v.min, v.max);
-                        let d = offsets(group, Some(s));
+                        offsets_into(group, Some(s), &mut d);
                         let first = xa - sense * base[i];
                         seen(
                             effect(first, travel, &d),
