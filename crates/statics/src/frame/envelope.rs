@@ -204,15 +204,19 @@ fn check(x: &[f64], eta: &[f64], traffic: &Traffic) -> Result<(), StaticsError> 
 }
 
 /// `q` times the integral of the part of eta whose sign is `sign` (+1 or -1), and the
-/// intervals of that part (merged where they touch).
+/// intervals of that part (merged where they touch). Ordinates within 1e-12 of the
+/// line's largest |eta| count as zero, so rounding noise of a solve (a force that is
+/// zero in exact arithmetic) loads no sliver of the deck.
 fn uniform_part(x: &[f64], eta: &[f64], q: f64, sign: f64) -> (f64, Vec<(f64, f64)>) {
     let mut total = 0.0;
     let mut loaded: Vec<(f64, f64)> = Vec::new();
     if q == 0.0 {
         return (0.0, loaded);
     }
+    let noise = 1e-12 * eta.iter().fold(0.0, |m: f64, e| m.max(e.abs()));
+    let signed = |e: f64| if e.abs() <= noise { 0.0 } else { sign * e };
     for k in 1..x.len() {
-        let (x0, x1, e0, e1) = (x[k - 1], x[k], sign * eta[k - 1], sign * eta[k]);
+        let (x0, x1, e0, e1) = (x[k - 1], x[k], signed(eta[k - 1]), signed(eta[k]));
         // the adverse part of the segment: where the signed ordinate is > 0
         let (from, to, area) = if e0 >= 0.0 && e1 >= 0.0 {
             (x0, x1, 0.5 * (e0 + e1) * (x1 - x0))
@@ -498,6 +502,18 @@ mod tests {
         assert!(close(e.max.loaded[0].1, 6.4));
         assert!(close(e.min.loaded[0].0, 6.4) && e.min.loaded[0].1 == 12.0);
         assert_eq!(e.min.axles.expect("placed").first_axle, 10.0);
+    }
+
+    /// Rounding noise loads nothing: a line of 1 over 0..4 m and +-1e-17 elsewhere
+    /// gives the max on 0..4 m only and a min of zero with no loaded interval.
+    #[test]
+    fn rounding_noise_loads_no_sliver() {
+        let x = vec![0.0, 4.0, 6.0, 8.0, 10.0];
+        let eta = vec![1.0, 1.0, 1e-17, -1e-17, 1e-17];
+        let e = envelope(&x, &eta, &Traffic { uniform: 2.0, axles: None }).expect("valid");
+        assert_eq!(e.max.loaded, vec![(0.0, 6.0)]);
+        assert!(close(e.max.value, 2.0 * (4.0 + 1.0)));
+        assert!(e.min.loaded.is_empty() && e.min.value == 0.0, "{:?}", e.min);
     }
 
     /// An axle group longer than the line: axles off the line carry nothing. Line of
