@@ -512,6 +512,59 @@ mod tests {
         }
     }
 
+    /// Braced three-hinged demo, truss idealisation: the bracing diagonals carry nothing
+    /// under the form-finding load (the dead case of the analysis: the rib is its
+    /// funicular and the truss is determinate, so the deck and posts alone carry it to
+    /// the rib), yet under traffic on part of the span they work both ways: the envelope
+    /// of a uniform traffic load (where each diagonal's line is adverse) has max > 0 > min,
+    /// and the analysis's half-span case loads them.
+    #[test]
+    fn braced_three_hinged_diagonals_are_idle_under_dead_load_but_not_under_traffic() {
+        use crate::arch::analysis::analyze;
+        use crate::arch::cases::HALF_SPAN;
+        use crate::frame::envelope::{envelope, Traffic};
+        let d = Design::demo();
+        let analysis = analyze(&d).expect("demo analyses");
+        let truss = analysis.truss.expect("braced demo has a truss idealisation");
+        let solution = truss.solution.expect("truss solves");
+        let diagonals: Vec<usize> = truss.map.members_with(MemberRole::Bracing).collect();
+        assert!(!diagonals.is_empty());
+        let largest_of = |case: usize| {
+            solution.cases[case]
+                .members
+                .iter()
+                .map(|m| m.start.n.abs().max(m.end.n.abs()))
+                .fold(0.0, f64::max)
+        };
+        let diagonal_of = |case: usize| {
+            diagonals.iter().map(|&k| solution.cases[case].members[k].start.n.abs()).fold(0.0, f64::max)
+        };
+        // dead case first: zero within 1e-9 of the largest force (the acceptance)
+        assert!(diagonal_of(0) <= 1e-9 * largest_of(0), "{} of {}", diagonal_of(0), largest_of(0));
+        let half = solution.cases.iter().position(|c| c.name == HALF_SPAN).expect("half-span case");
+        assert!(diagonal_of(half) > 1e-3 * largest_of(half), "{} of {}", diagonal_of(half), largest_of(half));
+
+        let v = ValidDesign::new(&d).expect("valid");
+        let inf = arch_influence(&v, ModelKind::Truss, Some(0.5)).expect("solves").expect("braced");
+        assert_eq!(inf.generated.map.members_with(MemberRole::Bracing).collect::<Vec<_>>(), diagonals);
+        // 9.3 kN/m: a lane load of the order of HL-93's (AASHTO LRFD 3.6.1.2.4; from
+        // memory); the signs do not depend on its value
+        let traffic = Traffic { uniform: 9.3, axles: None };
+        for &k in &diagonals {
+            let eta = inf.ordinates(&ArchLine::Axial(k)).expect("line");
+            let e = envelope(&inf.lines.positions, &eta, &traffic).expect("valid line");
+            let name = &inf.generated.model.members[k].name;
+            assert!(
+                e.max.value > 0.0 && e.min.value < 0.0,
+                "{name}: max {} min {}",
+                e.max.value,
+                e.min.value
+            );
+            // scale: the envelope is far from rounding noise of the dead case
+            assert!(e.max.value.min(-e.min.value) > 1e-6 * largest_of(0), "{name}");
+        }
+    }
+
     /// A name the model does not have is refused with the accepted names; the member
     /// names and the springing names are accepted.
     #[test]

@@ -9,6 +9,7 @@
 
 pub mod determinacy;
 pub mod element;
+pub mod envelope;
 pub mod equilibrium;
 pub mod influence;
 pub mod model;
