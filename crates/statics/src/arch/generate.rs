@@ -591,7 +591,111 @@ pub fn bare_rib_model(valid: &ValidDesign) -> Generated {
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::arch::design::{Bracing, Design};
+    use crate::arch::analysis::bracing_ratio;
+    use crate::arch::design::{Bracing, Crown, Design};
+    use crate::arch::edit::largest_rise;
+    use crate::frame::determinacy::{truss_determinacy, Determinacy};
+    use crate::frame::solver::solve;
+
+    /// The demo with its crown at `level`, m.
+    fn demo_with_crown_at(level: f64) -> Design {
+        let mut d = Design::demo();
+        d.crown = Crown::Level { level };
+        d
+    }
+
+    /// The demo mirrored about x = 85 m (the middle of its valley, -10 to 180 m): valley,
+    /// springing levels, seats and approach piers change sides.
+    fn mirrored_demo() -> Design {
+        let mut d = Design::demo();
+        let mirror = |x: f64| 170.0 - x;
+        d.valley.reverse();
+        for p in &mut d.valley {
+            p.x = mirror(p.x);
+        }
+        (d.springing_left_level, d.springing_right_level) = (d.springing_right_level, d.springing_left_level);
+        (d.deck.left_seat_x, d.deck.right_seat_x) = (mirror(d.deck.right_seat_x), mirror(d.deck.left_seat_x));
+        (d.approach_piers_left, d.approach_piers_right) = (d.approach_piers_right, d.approach_piers_left);
+        d
+    }
+
+    /// What the truss idealisation of a valid braced design must satisfy: not a mechanism,
+    /// and where determinate and three-hinged its dead-load solution is the found form
+    /// (the rib funicular of the same joint loads), so the bracing carries nothing: its
+    /// largest |N| within `ZERO_FORCE` (1e-9) of the largest |N| of any bar.
+    fn assert_truss_braced(d: &Design, what: &str) -> Determinacy {
+        let v = ValidDesign::new(d).unwrap_or_else(|e| panic!("{what}: valid, got {e}"));
+        let truss = truss_model(&v).expect("braced");
+        let report = truss_determinacy(&truss.model).expect("a valid model");
+        assert!(
+            !matches!(report.determinacy, Determinacy::Mechanism { .. }),
+            "{what}: {}",
+            report.describe()
+        );
+        if report.determinacy == Determinacy::Determinate && d.rib_system == RibSystem::ThreeHinged {
+            let solution = solve(&truss.model).unwrap_or_else(|e| panic!("{what}: solves, got {e}"));
+            let ratio = bracing_ratio(&truss.map, &solution).expect("bracing and forces");
+            assert!(
+                ratio < crate::tolerance::ZERO_FORCE,
+                "{what}: bracing carries {ratio:e} of the largest force"
+            );
+        }
+        report.determinacy
+    }
+
+    /// Regression: from rise 21.0 m (crown level 99.0 m) the rib node right of the
+    /// three-hinged crown merged with the deck (post 7 would be shorter than the shortest
+    /// post); the crown panel's diagonal then lay along the rib and was left out, the crown
+    /// hung on one rib bar from that side and the truss idealisation was a mechanism (43
+    /// bars, 24 nodes: 1 mode at the crown), so no force diagram while dragging the crown
+    /// up. The crown is now braced from the next rib node out.
+    #[test]
+    fn the_demo_truss_stays_braced_when_a_node_beside_the_crown_merges() {
+        // chord level at the crown 78 m: rises 19.5, 20.5, 21.0, 21.3, 21.7 m
+        for level in [97.5, 98.5, 99.0, 99.3, 99.7] {
+            let d = demo_with_crown_at(level);
+            let what = format!("crown level {level} m");
+            assert_eq!(assert_truss_braced(&d, &what), Determinacy::Determinate, "{what}");
+            let v = ValidDesign::new(&d).expect("valid");
+            let (f, t) = (v.layout(), v.topology());
+            let crown = Joint::Rib(f.crown);
+            if level < 99.0 {
+                // nothing merges: the layout as described, every diagonal from a deck node,
+                // the crown panels braced from d5 and d7 (so the frame model is as before)
+                assert!(t.shared.is_empty(), "{what}: {:?}", t.shared);
+                assert_eq!(t.diagonals.len(), 12);
+                assert!(t.diagonals.iter().all(|&(p, q)| matches!((p, q), (Joint::Deck(_), Joint::Rib(_)))));
+                assert!(t.diagonals.contains(&(Joint::Deck(5), crown)));
+                assert!(t.diagonals.contains(&(Joint::Deck(7), crown)));
+            } else {
+                // rib node 7 (right of the crown, the higher springing's side) shares the
+                // deck: the right crown panel is braced from rib node 8
+                assert!(t.shared.contains(&7), "{what}: {:?}", t.shared);
+                assert!(!t.posts.iter().any(|&(i, _)| i == 7));
+                assert!(t.diagonals.contains(&(Joint::Rib(8), crown)), "{what}: {:?}", t.diagonals);
+                assert!(!t.diagonals.contains(&(Joint::Deck(7), crown)));
+                // rib node 5 merges too at 99.7 m (post 5 would be 0.68 m, see the CLI's form)
+                let left = if t.shared.contains(&5) { Joint::Rib(4) } else { Joint::Deck(5) };
+                assert!(t.diagonals.contains(&(left, crown)), "{what}: {:?}", t.diagonals);
+            }
+        }
+    }
+
+    /// Over the top half metre of rises the layout takes (where the nodes beside the crown
+    /// merge with the deck one after the other), on the demo and on the demo mirrored, the
+    /// truss idealisation is never a mechanism and, determinate, carries the dead load in
+    /// the rib alone.
+    #[test]
+    fn the_truss_is_braced_up_to_the_largest_rise() {
+        for (name, d) in [("demo", Design::demo()), ("mirrored demo", mirrored_demo())] {
+            let top = largest_rise(&d).expect("valid").rise;
+            for k in 0..=20 {
+                let mut d = d.clone();
+                d.set_rise(top - 0.025 * (20 - k) as f64);
+                assert_truss_braced(&d, &format!("{name}, rise {:.3} m", d.rise()));
+            }
+        }
+    }
 
     /// Every identity the map keeps points at the part it names, for every rib system,
     /// bracing and an odd and even panel count.

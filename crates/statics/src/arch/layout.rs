@@ -161,7 +161,10 @@ pub struct Topology {
     /// The three-hinged drop-in span over the crown panel(s), if any: it ties nothing and
     /// delivers its simple-span reactions to these two joints.
     pub drop_in: Option<(Joint, Joint)>,
-    /// Bracing diagonals (deck joint, rib joint).
+    /// Bracing diagonals (deck joint, rib joint). One exception, the crown brace over a
+    /// shared node: where the deck joint beside the crown is a rib node (rib and deck share
+    /// it), the crown panel has no depth there and its diagonal would lie along the rib, so
+    /// the crown is braced from the next rib node out instead (rib joint, crown rib joint).
     pub diagonals: Vec<(Joint, Joint)>,
 }
 
@@ -248,6 +251,30 @@ impl Topology {
                 diagonals.push((d, r));
             }
         };
+        // the diagonal of a crown panel (no post at the crown rib node), from the deck over
+        // panel point `i` beside the crown down to the crown. Where rib and deck share the
+        // node under `i`, that diagonal would lie along the rib and the crown would hang on
+        // the rib segment alone: a pin-jointed crown panel without depth, a mechanism (the
+        // crown's only tie to that side is one bar). The crown is then braced from the next
+        // rib node out: the triangle (that node, the shared node, crown) is rigid because the
+        // shared node carries load and so is a kink of the funicular rib, strictly above the
+        // line through its neighbours.
+        let crown_brace = |i: usize, diagonals: &mut Vec<(Joint, Joint)>| {
+            if is_shared(f.crown) {
+                return; // the crown is on the deck: the diagonal would lie along the deck
+            }
+            let crown = Joint::Rib(f.crown);
+            let beside = f.rib_under(i);
+            let d = if is_shared(beside) {
+                // the next rib node away from the crown (springings included)
+                Joint::Rib(if beside < f.crown { beside - 1 } else { beside + 1 })
+            } else {
+                deck_joint(i)
+            };
+            if !diagonals.contains(&(d, crown)) {
+                diagonals.push((d, crown));
+            }
+        };
         if f.bracing.is_braced() {
             let flipped = matches!(f.bracing, Bracing::Single { flipped: true });
             let crossed = matches!(f.bracing, Bracing::Crossed);
@@ -271,6 +298,11 @@ impl Topology {
                     v
                 };
                 for (from_deck, to_rib) in pairs {
+                    if last_even && three {
+                        crown_brace(from_deck, &mut diagonals);
+                        crown_brace(mirror(from_deck), &mut diagonals);
+                        continue;
+                    }
                     push(deck_joint(from_deck), Joint::Rib(f.rib_under(to_rib)), &mut diagonals);
                     push(
                         deck_joint(mirror(from_deck)),
@@ -280,8 +312,8 @@ impl Topology {
                 }
             }
             if n % 2 == 1 {
-                push(deck_joint(half), Joint::Rib(f.crown), &mut diagonals);
-                push(deck_joint(half + 1), Joint::Rib(f.crown), &mut diagonals);
+                crown_brace(half, &mut diagonals);
+                crown_brace(half + 1, &mut diagonals);
             }
         }
         Topology { shared, posts, deck, drop_in, diagonals }

@@ -70,7 +70,11 @@ impl ValidDesign {
             return Err(StaticsError::Invalid(problems));
         }
         let topology = Topology::with_shared(&layout, form.shared());
-        Ok(ValidDesign { design: design.clone(), layout, form, topology, warnings })
+        let mut valid = ValidDesign { design: design.clone(), layout, form, topology, warnings };
+        if let Some(w) = unbraced_truss_warning(&valid) {
+            valid.warnings.push(w);
+        }
+        Ok(valid)
     }
 
     /// The design as the user gave it.
@@ -216,6 +220,37 @@ fn check_spandrel(d: &Design, form: &Form, problems: &mut Vec<Problem>, warnings
     }
 }
 
+/// Braced spandrels whose truss idealisation is still a mechanism: where rib and deck
+/// share neighbouring nodes (or a node beside a shared crown), the panel between them has
+/// no depth to brace and the pin-jointed rib bends there freely. The frame model, with its
+/// continuous rib, still stands; the truss idealisation and its force diagram do not, and
+/// the user is told so with the cure (a shorter shortest post or a lower crown keeps a
+/// post in those panels). The layout's own crown panels are always braced (see
+/// `Topology::with_shared`); this is the remaining, rarer case.
+fn unbraced_truss_warning(valid: &ValidDesign) -> Option<Warning> {
+    let truss = crate::arch::generate::truss_model(valid)?;
+    let report = crate::frame::determinacy::truss_determinacy(&truss.model).ok()?;
+    if !matches!(report.determinacy, crate::frame::determinacy::Determinacy::Mechanism { .. }) {
+        return None;
+    }
+    let shared: Vec<String> =
+        valid.form.shared().iter().map(|r| format!("{:.3}", valid.layout.rib_x[*r])).collect();
+    Some(
+        Warning::new(
+            Field::MinPostLength,
+            format!(
+                "rib and deck share neighbouring nodes (at x = {} m), where the spandrel has no depth to brace: \
+                 the truss idealisation is {}, so it has no force diagram (the frame model stands); lower the \
+                 shortest post ({} m) or the crown",
+                shared.join(", "),
+                report.describe(),
+                valid.design.min_post_length
+            ),
+        )
+        .involving([Field::DeckLevel, Field::CrownRise, Field::CrownLevel]),
+    )
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -287,6 +322,14 @@ mod tests {
         d.min_post_length = 5.0;
         let w = validate_design(&d).expect("allowed");
         assert!(w.iter().any(|w| w.message.contains("below the road")), "{w:?}");
+        // rib nodes 4, 5 and 7, 8 merge (posts of 4.85, 2.88, 2.22, 3.55 m at rise 19.5 m,
+        // from the CLI's form): the panels 4-5 and 7-8 have no depth, so the truss
+        // idealisation is a mechanism, and the warning says so with its cure
+        let unbraced = |w: &[Warning]| w.iter().any(|w| w.message.contains("no depth to brace"));
+        assert!(unbraced(&w), "{w:?}");
+        // a shortest post of 3 m merges only 5 and 7, beside the crown: braced, no such warning
+        d.min_post_length = 3.0;
+        assert!(!unbraced(&validate_design(&d).expect("allowed")));
     }
 
     #[test]
