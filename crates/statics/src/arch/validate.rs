@@ -228,6 +228,10 @@ fn check_spandrel(d: &Design, form: &Form, problems: &mut Vec<Problem>, warnings
 /// post in those panels). The layout's own crown panels are always braced (see
 /// `Topology::with_shared`); this is the remaining, rarer case.
 fn unbraced_truss_warning(valid: &ValidDesign) -> Option<Warning> {
+    // without shared nodes every panel has depth and is braced: no truss to build here
+    if valid.form.shared().is_empty() {
+        return None;
+    }
     let truss = crate::arch::generate::truss_model(valid)?;
     let report = crate::frame::determinacy::truss_determinacy(&truss.model).ok()?;
     if !matches!(report.determinacy, crate::frame::determinacy::Determinacy::Mechanism { .. }) {
