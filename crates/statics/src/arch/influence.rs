@@ -442,17 +442,10 @@ mod tests {
     fn symmetric_design_gives_mirrored_lines() {
         let mut d = Design::demo();
         let mid = 84.0;
-        let left: Vec<(f64, f64)> = vec![
-            (-10.0, 101.0),
-            (0.0, 100.5),
-            (15.0, 92.0),
-            (30.0, 76.0),
-            (45.0, 66.0),
-            (60.0, 60.0),
-            (80.0, 57.0),
-        ];
-        let mut valley: Vec<GroundPoint> = left.iter().map(|&(x, y)| GroundPoint { x, y }).collect();
-        valley.extend(left.iter().rev().map(|&(x, y)| GroundPoint { x: 2.0 * mid - x, y }));
+        // the demo's valley left of x = 80 m, mirrored about x = 84 m
+        let left: Vec<GroundPoint> = d.valley.iter().copied().filter(|p| p.x <= 80.0).collect();
+        let mut valley = left.clone();
+        valley.extend(left.iter().rev().map(|p| GroundPoint { x: 2.0 * mid - p.x, y: p.y }));
         d.valley = valley;
         (d.deck.left_seat_x, d.deck.right_seat_x) = (2.0, 2.0 * mid - 2.0);
         (d.springing_left_level, d.springing_right_level) = (76.0, 76.0);

@@ -566,20 +566,7 @@ fn block(
     let w = lines.iter().map(|l| place::text_width(l, size) + 2.0 * PAD_X).fold(0.0, f64::max);
     let h = size.box_height();
     let total = h * lines.len() as f64 + (lines.len().saturating_sub(1)) as f64 * 1.5;
-    let mut candidates: Vec<(f64, f64)> = sides
-        .iter()
-        .map(|side| match side {
-            Side::Left => (at.x - gap - w, at.y - total / 2.0),
-            Side::Right => (at.x + gap, at.y - total / 2.0),
-            Side::Above => (at.x - w / 2.0, at.y - gap - total),
-            Side::Below => (at.x - w / 2.0, at.y + gap),
-            Side::AboveRight => (at.x + gap * 0.7, at.y - gap * 0.7 - total),
-            Side::AboveLeft => (at.x - gap * 0.7 - w, at.y - gap * 0.7 - total),
-            Side::BelowRight => (at.x + gap * 0.7, at.y + gap * 0.7),
-            Side::BelowLeft => (at.x - gap * 0.7 - w, at.y + gap * 0.7),
-            Side::Centre => (at.x - w / 2.0, at.y - total / 2.0),
-        })
-        .collect();
+    let mut candidates: Vec<(f64, f64)> = sides.iter().map(|side| side.corner(at, w, total, gap)).collect();
     // the bottom corner of the canvas, after the nearest sides (two on a narrow canvas, where
     // the two blocks need both corners)
     let near = if frame.w >= WIDE { NEAR_SIDES } else { NEAR_SIDES - 1 }.min(sides.len());

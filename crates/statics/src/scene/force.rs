@@ -281,6 +281,15 @@ impl Header {
         Header { labels: Vec::new(), items: Vec::new(), y: MARGIN, width: viewport.width }
     }
 
+    /// A header opened with the drawing's title and the load case line (its short title,
+    /// the full description on hover).
+    fn titled(viewport: Viewport, title: &str, case_words: (&str, &str)) -> Header {
+        let mut h = Header::new(viewport);
+        h.line(title, TextSize::Title, Ink::Text);
+        h.line_with_detail(case_words, TextSize::Small, Ink::Secondary);
+        h
+    }
+
     /// Width available to a line starting at the current height (narrower beside the
     /// buttons' corner).
     fn line_width(&self) -> f64 {
@@ -601,9 +610,7 @@ fn braced(
     viewport: Viewport,
 ) -> ForceDrawing {
     let units = opts.units;
-    let mut h = Header::new(viewport);
-    h.line("Force diagram · truss idealisation", TextSize::Title, Ink::Text);
-    h.line_with_detail(case_words, TextSize::Small, Ink::Secondary);
+    let mut h = Header::titled(viewport, "Force diagram · truss idealisation", case_words);
     let largest = figure.largest_force.max(1e-9);
     h.key(&[
         (Sample::Line(Stroke::patterned(Ink::Tension, 2.0, Pattern::Dashed)), "tension"),
@@ -913,9 +920,7 @@ fn thrust(
     viewport: Viewport,
 ) -> ForceDrawing {
     let units = opts.units;
-    let mut h = Header::new(viewport);
-    h.line("Thrust line · frame model rib", TextSize::Title, Ink::Text);
-    h.line_with_detail(case_words, TextSize::Small, Ink::Secondary);
+    let mut h = Header::titled(viewport, "Thrust line · frame model rib", case_words);
     let axis: Vec<(f64, f64)> = tl.sections.iter().map(|s| (s.axis.x, s.axis.y)).collect();
     let b = bounds(axis.iter().copied()).unwrap_or((0.0, 1.0, 0.0, 1.0));
     // the header's height depends on the notes, which depend on the scale: lay the notes

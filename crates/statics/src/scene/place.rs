@@ -83,7 +83,7 @@ impl Side {
     ];
 
     /// Top-left corner of a `w` x `h` box on this side of `at`, `gap` pixels away.
-    fn corner(self, at: Px, w: f64, h: f64, gap: f64) -> (f64, f64) {
+    pub(crate) fn corner(self, at: Px, w: f64, h: f64, gap: f64) -> (f64, f64) {
         match self {
             Side::Right => (at.x + gap, at.y - h / 2.0),
             Side::Left => (at.x - gap - w, at.y - h / 2.0),
