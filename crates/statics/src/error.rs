@@ -142,6 +142,14 @@ pub enum Field {
     FormTolerance,
     /// Form-finding iteration limit.
     FormMaxIterations,
+    /// Carriageway width.
+    CarriagewayWidth,
+    /// Rib positions across the deck.
+    RibPositions,
+    /// The traffic load model's values.
+    LoadModel,
+    /// The combinations of permanent actions and traffic.
+    Combinations,
 }
 
 impl Field {
@@ -174,6 +182,10 @@ impl Field {
             Field::Section(g, p) => return format!("groups.{}.{}", g.key(), p.key()),
             Field::FormTolerance => "form.tolerance",
             Field::FormMaxIterations => "form.max_iterations",
+            Field::CarriagewayWidth => "traffic.carriageway_width",
+            Field::RibPositions => "traffic.rib_positions",
+            Field::LoadModel => "traffic.load_model",
+            Field::Combinations => "traffic.combinations",
         };
         path.to_string()
     }
@@ -209,6 +221,10 @@ impl Field {
             Field::Section(g, p) => return format!("{} section: {}", g.label(), p.label()),
             Field::FormTolerance => "form-finding tolerance",
             Field::FormMaxIterations => "form-finding iteration limit",
+            Field::CarriagewayWidth => "carriageway width",
+            Field::RibPositions => "rib positions",
+            Field::LoadModel => "traffic load model",
+            Field::Combinations => "combinations",
         };
         label.to_string()
     }

@@ -8,7 +8,8 @@
 //! | --- | --- |
 //! | `scene` | drawings as data: shapes, styles and placed labels |
 //! | `link` | the permalink codec |
-//! | `arch` | the deck arch: design, layout, form, generation, cases, analysis |
+//! | `arch` | the deck arch: design, layout, form, generation, cases, analysis, traffic envelopes |
+//! | `traffic` | cross-section, load models, sharing between ribs, combinations |
 //! | `graphic` | reciprocal figure, funicular, thrust line |
 //! | `frame` | model, element, banded factorisation, solver, determinacy |
 //!
@@ -27,6 +28,8 @@ pub mod units;
 
 pub mod frame;
 pub mod graphic;
+
+pub mod traffic;
 
 pub mod arch;
 pub mod link;

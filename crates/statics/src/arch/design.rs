@@ -12,10 +12,12 @@
 
 use crate::error::{Field, GroupName, Problem, SectionProperty};
 use crate::tolerance::{GROUND_TOLERANCE, SECTION_BOUND_ROUNDING};
+use crate::traffic::models::ModelFamily;
+use crate::traffic::TrafficDesign;
 use serde::{Deserialize, Serialize};
 
 /// The version of the design format written by this engine.
-pub const DESIGN_VERSION: u32 = 2;
+pub const DESIGN_VERSION: u32 = 3;
 /// Fewest arch panels accepted (a rib needs at least one interior node).
 pub const MIN_PANELS: usize = 2;
 /// Most arch panels accepted (beyond this the panels are shorter than any real post
@@ -93,6 +95,9 @@ pub struct Design {
     /// Form-finding settings.
     #[serde(default)]
     pub form: FormSettings,
+    /// Traffic: carriageway, rib positions across the deck, load model and combinations
+    /// (design format 3).
+    pub traffic: TrafficDesign,
 }
 
 /// A point of the ground profile, m.
@@ -293,6 +298,8 @@ impl Design {
                 bracing: steel(0.006, 0.00005, 0.2),
             },
             form: FormSettings::default(),
+            // footways of 1.75 m each side of a 7.5 m carriageway
+            traffic: TrafficDesign::preset(ModelFamily::EnLm1, 7.5),
         }
     }
 
@@ -767,6 +774,7 @@ pub(crate) fn check_inputs(d: &Design, problems: &mut Vec<Problem>, warnings: &m
             format!("{} iterations: use between 1 and {MAX_FORM_ITERATIONS}", d.form.max_iterations),
         );
     }
+    problems.extend(d.traffic.problems(d.deck.width, d.deck.ribs));
 }
 
 /// The deck axis against the ground between the abutment seats: at each seat the ground

@@ -10,6 +10,7 @@
 //! | --- | --- |
 //! | 1 | the first format |
 //! | 2 | `deck.abutment_height` (m) added; a version-1 design has 10 m (`DEFAULT_ABUTMENT_HEIGHT`) |
+//! | 3 | `traffic` added (carriageway, rib positions, load model, combinations); a version-2 design gets EN 1991-2 Load Model 1 over its whole deck width (`TrafficDesign::for_deck_width`) |
 //!
 //! # Reading ([`read_design_json`])
 //!
@@ -35,6 +36,7 @@
 
 use crate::arch::design::{Design, DEFAULT_ABUTMENT_HEIGHT, DESIGN_VERSION};
 use crate::error::{DesignFileError, StaticsError, VersionRange};
+use crate::traffic::TrafficDesign;
 use serde_json::{Map, Value};
 
 /// The oldest design format version ever written (and still read).
@@ -51,7 +53,7 @@ type Step = fn(&mut Map<String, Value>);
 
 /// The migration steps, oldest first: `STEPS[i]` takes version `OLDEST_DESIGN_VERSION + i`
 /// to the next.
-const STEPS: &[Step] = &[version_1_to_2];
+const STEPS: &[Step] = &[version_1_to_2, version_2_to_3];
 
 // One step per version: a new DESIGN_VERSION without its step stops the build here.
 const _: () = assert!(OLDEST_DESIGN_VERSION + STEPS.len() as u32 == DESIGN_VERSION);
@@ -61,6 +63,18 @@ const _: () = assert!(OLDEST_DESIGN_VERSION + STEPS.len() as u32 == DESIGN_VERSI
 fn version_1_to_2(design: &mut Map<String, Value>) {
     if let Some(Value::Object(deck)) = design.get_mut("deck") {
         deck.entry("abutment_height").or_insert(Value::from(DEFAULT_ABUTMENT_HEIGHT));
+    }
+}
+
+/// Version 2 to 3: the traffic, EN 1991-2 Load Model 1 with the whole deck width as
+/// carriageway and ribs evenly spaced (`TrafficDesign::for_deck_width`). A deck width
+/// that is not a number gets a traffic of zero width, for validation to report the deck.
+fn version_2_to_3(design: &mut Map<String, Value>) {
+    let width = design.get("deck").and_then(|d| d.get("width")).and_then(Value::as_f64).unwrap_or(0.0);
+    if !design.contains_key("traffic") {
+        if let Ok(traffic) = serde_json::to_value(TrafficDesign::for_deck_width(width)) {
+            design.insert("traffic".into(), traffic);
+        }
     }
 }
 

@@ -11,6 +11,7 @@ use crate::arch::design::{
     DEFAULT_ABUTMENT_HEIGHT,
 };
 use crate::error::LinkError;
+use crate::traffic::TrafficDesign;
 use serde::{Deserialize, Serialize};
 
 /// The core of a design on the wire (postcard: varint integers, f64 as 8 little-endian
@@ -115,6 +116,8 @@ pub(super) fn from_design(d: &Design) -> Wire {
         approach_piers_right,
         groups,
         form,
+        // the traffic travels in the traffic section (design format 3)
+        traffic: _,
     } = d;
     // the abutment height travels in the abutment section (design format 2)
     let Deck { level, left_seat_x, right_seat_x, width, ribs, dead_load, surfacing, abutment_height: _ } =
@@ -202,5 +205,6 @@ pub(super) fn into_design(w: Wire) -> Result<Design, LinkError> {
             tolerance: w.form_tolerance,
             max_iterations: narrow(w.form_max_iterations, "form-finding iteration limit")?,
         },
+        traffic: TrafficDesign::for_deck_width(w.deck.width),
     })
 }

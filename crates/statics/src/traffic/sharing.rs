@@ -1,0 +1,480 @@
+//! Sharing traffic across the deck: what the whole cross-section carries, and what one
+//! rib line carries by the lever rule.
+//!
+//! The plane models of a design carry every rib line together. Thrust, springing
+//! reactions and foundations take the traffic of the **whole cross-section**; member
+//! forces and sizing are **per rib line**: the permanent load divided by the number of
+//! ribs plus the traffic times that rib's worst share.
+//!
+//! A rib's share follows the **lever rule**: the deck spans simply between neighbouring
+//! ribs and cantilevers beyond the outer ones, so a load at y across the deck reaches rib
+//! i with the factor r_i(y): 1 at rib i, falling linearly to 0 at its neighbours, rising
+//! beyond an outer rib on its cantilever (and negative on the far cantilever of the
+//! neighbour). AASHTO LRFD 4.6.2.2 names the method; any bridge text (e.g. Hambly,
+//! Bridge Deck Behaviour, ch. 1) derives it. It ignores the deck's transverse stiffness
+//! and torsion, so it overstates the share of the most loaded rib: conservative for a
+//! concept.
+//!
+//! Lanes stand anywhere in the carriageway without overlapping (EN 1991-2 4.2.4: placed
+//! for the most adverse effect); a lane's uniform load counts where r > 0, its vehicle
+//! (wheels at +-gauge/2 of the lane centre) where the wheels' mean r is > 0. The search is
+//! exact on a 5 cm grid of lane positions (dynamic programming over the lanes). The
+//! uniform loads and the vehicles are placed each at their own worst (an upper bound of
+//! any single arrangement: conservative by a little), and with multiple presence factors
+//! each number of loaded lanes is tried for each.
+//!
+//! Units: kN/m for line loads along the deck, kN per axle.
+
+use crate::frame::envelope::{AxleGroup, Traffic};
+use crate::traffic::models::{Applies, Lane, LaneLayout};
+use serde::Serialize;
+
+/// Grid of lane positions across the carriageway, m.
+const GRID: f64 = 0.05;
+
+/// One traffic arrangement along a line: the uniform load and the vehicle together.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Alternative {
+    /// Name (the vehicle's, or `uniform` when there is none).
+    pub name: String,
+    /// Where it counts.
+    pub applies: Applies,
+    /// The uniform line load (kN/m) and axle group (kN per axle) on the line.
+    pub traffic: Traffic,
+}
+
+/// The traffic one line of the plane model receives.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct LineTraffic {
+    /// Uniform load the lanes add to the remaining area's, kN/m (before a vehicle's
+    /// uniform factor; the lanes' own load where the remaining area carries none).
+    pub lanes_uniform: f64,
+    /// Uniform load from the remaining area and the footways, kN/m.
+    pub other_uniform: f64,
+    /// Multiplier on a lane vehicle's axle loads: the sum over lanes of the vehicle
+    /// weight times its share (times the multiple presence factor).
+    pub vehicle_weight: f64,
+}
+
+impl LineTraffic {
+    /// The line's total uniform load, kN/m.
+    pub fn uniform(&self) -> f64 {
+        self.lanes_uniform + self.other_uniform
+    }
+
+    /// Every arrangement the line must be checked for (one per vehicle of the layout;
+    /// one of uniform load only when the layout has no vehicle).
+    pub fn alternatives(&self, layout: &LaneLayout) -> Vec<Alternative> {
+        if layout.vehicles.is_empty() || self.vehicle_weight <= 0.0 {
+            return vec![Alternative {
+                name: "uniform".into(),
+                applies: Applies::Everywhere,
+                traffic: Traffic { uniform: self.uniform(), axles: None },
+            }];
+        }
+        layout
+            .vehicles
+            .iter()
+            .map(|v| Alternative {
+                name: v.name.clone(),
+                applies: v.applies,
+                traffic: Traffic {
+                    uniform: self.lanes_uniform * v.uniform_factor + self.other_uniform,
+                    axles: Some(AxleGroup {
+                        loads: v.axles.loads.iter().map(|q| q * self.vehicle_weight).collect(),
+                        ..v.axles.clone()
+                    }),
+                },
+            })
+            .collect()
+    }
+}
+
+/// The share of one rib line.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct RibShare {
+    /// Position of the rib across the deck, m from the deck centreline.
+    pub position: f64,
+    /// The traffic of this rib line at its worst.
+    pub traffic: LineTraffic,
+    /// Its uniform load as a fraction of the whole cross-section's.
+    pub uniform_fraction: f64,
+    /// Its vehicle weight as a fraction of the whole cross-section's.
+    pub vehicle_fraction: f64,
+}
+
+/// How traffic is shared across the deck.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Sharing {
+    /// The whole cross-section's traffic (every lane loaded at full share).
+    pub whole: LineTraffic,
+    /// Each rib line's worst share, left to right.
+    pub ribs: Vec<RibShare>,
+    /// Index of the rib with the largest share (uniform and vehicle fractions added).
+    pub governing_rib: usize,
+    /// The rule, in words, for every report that shows a result.
+    pub rule: String,
+}
+
+/// Where ribs stand across a deck `deck_width` m wide: `given` when it is not empty,
+/// otherwise `ribs` ribs evenly spaced (the centres of `ribs` equal strips of the deck:
+/// +-w/4 for two ribs). m from the deck centreline, left to right.
+pub fn rib_positions(deck_width: f64, ribs: usize, given: &[f64]) -> Vec<f64> {
+    if !given.is_empty() {
+        return given.to_vec();
+    }
+    let n = ribs.max(1) as f64;
+    (0..ribs.max(1)).map(|i| -deck_width / 2.0 + (i as f64 + 0.5) * deck_width / n).collect()
+}
+
+/// The lever-rule factor r_i(y) of rib `i` of ribs at `positions` (m, increasing) for a
+/// unit load at y (m): see the module doc. One rib takes everything (r = 1).
+pub fn lever(positions: &[f64], i: usize, y: f64) -> f64 {
+    let n = positions.len();
+    if n <= 1 {
+        return 1.0;
+    }
+    // the span (or cantilever, extended from the outer span) the load stands on
+    let k = match positions.iter().position(|&p| y < p) {
+        Some(0) => 0,
+        Some(k) => k - 1,
+        None => n - 2,
+    };
+    let (a, b) = (positions[k], positions[k + 1]);
+    let t = (y - a) / (b - a);
+    if i == k {
+        1.0 - t
+    } else if i == k + 1 {
+        t
+    } else {
+        0.0
+    }
+}
+
+/// A transverse influence function: the whole cross-section (1 everywhere) or one rib.
+#[derive(Clone, Copy)]
+enum Across<'a> {
+    Whole,
+    Rib(&'a [f64], usize),
+}
+
+impl Across<'_> {
+    fn at(&self, y: f64) -> f64 {
+        match self {
+            Across::Whole => 1.0,
+            Across::Rib(p, i) => lever(p, *i, y),
+        }
+    }
+
+    /// Integral of max(r, 0) from a to b (exact: r is linear between rib positions).
+    fn positive_integral(&self, a: f64, b: f64) -> f64 {
+        if b <= a {
+            return 0.0;
+        }
+        let mut cuts = vec![a];
+        if let Across::Rib(p, _) = self {
+            cuts.extend(p.iter().copied().filter(|&y| y > a && y < b));
+        }
+        cuts.push(b);
+        cuts.windows(2)
+            .map(|w| {
+                let (ya, yb) = (w[0], w[1]);
+                let (ra, rb) = (self.at(ya), self.at(yb));
+                let len = yb - ya;
+                if ra >= 0.0 && rb >= 0.0 {
+                    (ra + rb) / 2.0 * len
+                } else if ra <= 0.0 && rb <= 0.0 {
+                    0.0
+                } else {
+                    // the positive triangle of a piece that crosses zero
+                    let pos = ra.max(rb);
+                    let frac = pos / (ra.abs() + rb.abs());
+                    pos * frac * len / 2.0
+                }
+            })
+            .sum()
+    }
+}
+
+/// Geometry across the deck, m from the deck centreline.
+#[derive(Debug, Clone, Copy)]
+struct Strip {
+    deck_half: f64,
+    carriageway_half: f64,
+}
+
+/// What lanes a search places: per kind of lane, the lane and how many.
+fn lane_groups(lanes: &[Lane]) -> Vec<(Lane, usize)> {
+    let mut groups: Vec<(Lane, usize)> = Vec::new();
+    for lane in lanes {
+        match groups.iter_mut().find(|(l, _)| l == lane) {
+            Some((_, n)) => *n += 1,
+            None => groups.push((lane.clone(), 1)),
+        }
+    }
+    groups
+}
+
+/// Which part of the traffic a search maximises.
+#[derive(Clone, Copy, PartialEq)]
+enum Part {
+    /// Uniform loads: the lanes' and the remaining area's (footways added outside).
+    Uniform,
+    /// Vehicle weights.
+    Vehicle,
+}
+
+/// The largest `part` over lane placements of `groups` in the carriageway, for `across`:
+/// (value from the lanes, value from the remaining area). Dynamic programming over grid
+/// cells left to right, the state being how many lanes of each group are placed.
+fn best(groups: &[(Lane, usize)], strip: Strip, across: Across, remaining: f64, gauge: f64, part: Part) -> (f64, f64) {
+    let c0 = -strip.carriageway_half;
+    let width = 2.0 * strip.carriageway_half;
+    let cells = (width / GRID + 1e-9).floor() as usize;
+    let rest = |a: f64, b: f64| {
+        if part == Part::Uniform {
+            remaining * across.positive_integral(a, b)
+        } else {
+            0.0
+        }
+    };
+    let rest_all = rest(c0, c0 + width);
+    if groups.is_empty() {
+        return (0.0, rest_all);
+    }
+    // lane value and lost remaining area when a lane of group g starts at cell i
+    let lane_cells: Vec<usize> = groups.iter().map(|(l, _)| ((l.width / GRID) - 1e-9).ceil() as usize).collect();
+    let value = |lane: &Lane, a: f64| -> (f64, f64) {
+        let centre = a + lane.width / 2.0;
+        let lane_part = match part {
+            Part::Uniform => {
+                lane.uniform * across.positive_integral(centre - lane.uniform_width / 2.0, centre + lane.uniform_width / 2.0)
+            }
+            Part::Vehicle => {
+                let r = (across.at(centre - gauge / 2.0) + across.at(centre + gauge / 2.0)) / 2.0;
+                lane.vehicle_weight * r.max(0.0)
+            }
+        };
+        (lane_part, rest(a, a + lane.width))
+    };
+    // mixed-radix state: counts of placed lanes per group
+    let radix: Vec<usize> = groups.iter().map(|(_, n)| n + 1).collect();
+    let states: usize = radix.iter().product();
+    let full = states - 1;
+    let step = |s: usize, g: usize| -> Option<usize> {
+        let mut place = 1;
+        for r in &radix[..g] {
+            place *= r;
+        }
+        let count = (s / place) % radix[g];
+        (count + 1 < radix[g]).then_some(s + place)
+    };
+    const NONE: f64 = f64::NEG_INFINITY;
+    // f[i][s]: best (lane value - lost remaining) from cell i on, with state s so far
+    let mut f = vec![vec![NONE; states]; cells + 1];
+    f[cells][full] = 0.0;
+    for i in (0..cells).rev() {
+        for s in 0..states {
+            let mut v = f[i + 1][s];
+            for (g, (lane, _)) in groups.iter().enumerate() {
+                let end = i + lane_cells[g];
+                if end > cells {
+                    continue;
+                }
+                if let Some(next) = step(s, g) {
+                    let tail = f[end][next];
+                    if tail > NONE {
+                        let (lane_part, lost) = value(lane, c0 + i as f64 * GRID);
+                        v = v.max(lane_part - lost + tail);
+                    }
+                }
+            }
+            f[i][s] = v;
+        }
+    }
+    let gain = f[0][0];
+    if gain == NONE {
+        // the lanes do not fit the grid (a carriageway a hair narrower than its lanes):
+        // count every lane at its best anywhere, an upper bound
+        let lanes_only: f64 = groups
+            .iter()
+            .map(|(lane, n)| {
+                let best_one =
+                    (0..=cells).map(|i| value(lane, c0 + i as f64 * GRID).0).fold(0.0_f64, f64::max);
+                best_one * *n as f64
+            })
+            .sum();
+        return (lanes_only, rest_all);
+    }
+    // the lanes' net gain over the remaining area, and the remaining area as if unlaned
+    (gain, rest_all)
+}
+
+/// The traffic of one line (`across`) of a layout at its worst.
+fn line_traffic(layout: &LaneLayout, strip: Strip, across: Across) -> LineTraffic {
+    let footway = layout.footway
+        * (across.positive_integral(-strip.deck_half, -strip.carriageway_half)
+            + across.positive_integral(strip.carriageway_half, strip.deck_half));
+    let all = lane_groups(&layout.lanes);
+    if layout.multiple_presence.is_empty() {
+        let (lanes_u, rest) = best(&all, strip, across, layout.remaining, layout.wheel_gauge, Part::Uniform);
+        let (lanes_v, _) = best(&all, strip, across, 0.0, layout.wheel_gauge, Part::Vehicle);
+        return LineTraffic { lanes_uniform: lanes_u, other_uniform: rest + footway, vehicle_weight: lanes_v };
+    }
+    // multiple presence: try every number of loaded lanes (identical lanes)
+    let (mut lanes_u, mut lanes_v, mut rest) = (0.0_f64, 0.0_f64, 0.0_f64);
+    let lane_count = layout.lanes.len();
+    for k in 1..=lane_count {
+        let m = layout.multiple_presence.get(k - 1).or(layout.multiple_presence.last()).copied().unwrap_or(1.0);
+        let loaded = lane_groups(&layout.lanes[..k]);
+        let (u, r) = best(&loaded, strip, across, layout.remaining, layout.wheel_gauge, Part::Uniform);
+        let (v, _) = best(&loaded, strip, across, 0.0, layout.wheel_gauge, Part::Vehicle);
+        lanes_u = lanes_u.max(m * u);
+        lanes_v = lanes_v.max(m * v);
+        rest = r;
+    }
+    LineTraffic { lanes_uniform: lanes_u, other_uniform: rest + footway, vehicle_weight: lanes_v }
+}
+
+/// How the traffic of `layout` is shared on a deck `deck_width` m wide with a centred
+/// carriageway `carriageway_width` m wide and ribs at `positions` (m from the deck
+/// centreline, increasing; see [`rib_positions`]).
+///
+/// The whole cross-section takes every lane (the lever function is 1 everywhere); each
+/// rib its worst lever-rule share (module doc). Degenerate: one rib takes everything; a
+/// carriageway of zero width has no lanes (footways only).
+pub fn share(layout: &LaneLayout, deck_width: f64, carriageway_width: f64, positions: &[f64]) -> Sharing {
+    let strip = Strip { deck_half: deck_width / 2.0, carriageway_half: carriageway_width.min(deck_width) / 2.0 };
+    let whole = line_traffic(layout, strip, Across::Whole);
+    let fraction = |part: f64, all: f64| if all > 0.0 { part / all } else { 0.0 };
+    let ribs: Vec<RibShare> = (0..positions.len())
+        .map(|i| {
+            let traffic = line_traffic(layout, strip, Across::Rib(positions, i));
+            RibShare {
+                position: positions[i],
+                uniform_fraction: fraction(traffic.uniform(), whole.uniform()),
+                vehicle_fraction: fraction(traffic.vehicle_weight, whole.vehicle_weight),
+                traffic,
+            }
+        })
+        .collect();
+    let governing_rib = ribs
+        .iter()
+        .enumerate()
+        .max_by(|a, b| {
+            (a.1.uniform_fraction + a.1.vehicle_fraction).total_cmp(&(b.1.uniform_fraction + b.1.vehicle_fraction))
+        })
+        .map_or(0, |(i, _)| i);
+    let rule = format!(
+        "thrust, springing reactions and foundations for the whole cross-section; member forces per rib line = \
+         permanent / {} ribs + traffic x the rib's worst lever-rule share (largest: rib {} at {:+.2} m, {:.0}% of \
+         the uniform load, {:.0}% of the vehicles)",
+        positions.len(),
+        governing_rib + 1,
+        positions.get(governing_rib).copied().unwrap_or(0.0),
+        ribs.get(governing_rib).map_or(100.0, |r| r.uniform_fraction * 100.0),
+        ribs.get(governing_rib).map_or(100.0, |r| r.vehicle_fraction * 100.0),
+    );
+    Sharing { whole, ribs, governing_rib, rule }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::traffic::models::{LoadModel, ModelFamily};
+
+    fn close(a: f64, b: f64, tol: f64) -> bool {
+        (a - b).abs() <= tol * (1.0 + b.abs())
+    }
+
+    #[test]
+    fn lever_rule_of_two_ribs() {
+        // ribs at -3 and +3: a load at -3 is all on rib 0, at 0 half each, at -4.5 (a
+        // 1.5 m cantilever) 1.25 on rib 0 and -0.25 on rib 1 (statics of the lever)
+        let p = [-3.0, 3.0];
+        assert_eq!(lever(&p, 0, -3.0), 1.0);
+        assert!(close(lever(&p, 0, 0.0), 0.5, 1e-12));
+        assert!(close(lever(&p, 0, -4.5), 1.25, 1e-12));
+        assert!(close(lever(&p, 1, -4.5), -0.25, 1e-12));
+        // three ribs: the outer span 0..4 with its 1 m cantilever carries a load at 5:
+        // 1.25 on the outer rib, -0.25 on the middle one, nothing on the far one
+        let p = [-4.0, 0.0, 4.0];
+        assert!(close(lever(&p, 1, 5.0), -0.25, 1e-12));
+        assert_eq!(lever(&p, 0, 5.0), 0.0);
+        assert!(close(lever(&p, 1, 2.0), 0.5, 1e-12));
+        assert!(close(lever(&p, 2, 5.0), 1.25, 1e-12));
+    }
+
+    #[test]
+    fn evenly_spaced_ribs() {
+        assert_eq!(rib_positions(11.0, 2, &[]), vec![-2.75, 2.75]);
+        assert_eq!(rib_positions(12.0, 3, &[]), vec![-4.0, 0.0, 4.0]);
+        assert_eq!(rib_positions(12.0, 2, &[-5.0, 5.0]), vec![-5.0, 5.0]);
+    }
+
+    #[test]
+    fn whole_cross_section_of_lm1_by_hand() {
+        // EN 1991-2 Tables 4.1 and 4.2 on a 7.5 m carriageway of an 11 m deck:
+        // 2 lanes of 3 m, remaining 1.5 m, footways 2 x 1.75 m at 3 kN/m2 (Table 4.4a):
+        // lanes 9 x 3 + 2.5 x 3 = 34.5 kN/m; remaining 2.5 x 1.5 = 3.75; footways 3 x 3.5 = 10.5;
+        // tandem axles 300 + 200 = 500 kN per axle line.
+        let layout = LoadModel::preset(ModelFamily::EnLm1).lane_layout(7.5, 80.0);
+        let s = share(&layout, 11.0, 7.5, &rib_positions(11.0, 2, &[]));
+        assert!(close(s.whole.uniform(), 34.5 + 3.75 + 10.5, 1e-9), "{:?}", s.whole);
+        // the lanes add (9 - 2.5) x 3 = 19.5 kN/m over the remaining-area load 2.5 x 7.5
+        assert!(close(s.whole.lanes_uniform, 19.5, 1e-9), "{:?}", s.whole);
+        assert!(close(s.whole.vehicle_weight, 500.0, 1e-9));
+    }
+
+    #[test]
+    fn one_rib_takes_everything() {
+        let layout = LoadModel::preset(ModelFamily::EnLm1).lane_layout(7.5, 80.0);
+        let s = share(&layout, 11.0, 7.5, &[0.0]);
+        assert!(close(s.ribs[0].traffic.uniform(), s.whole.uniform(), 1e-12));
+        assert!(close(s.ribs[0].vehicle_fraction, 1.0, 1e-12));
+    }
+
+    #[test]
+    fn lm1_share_of_a_rib_by_hand() {
+        // ribs at +-2.75 m, carriageway +-3.75 m, deck +-5.5 m. The worst vehicle share of
+        // the left rib: lane 1 hard against the left kerb (centre -2.25, wheels at -3.25
+        // and -1.25): r = (1 + (2.75-3.25... ) by the lever rule r(y) = (2.75 - y) / 5.5,
+        // so r(-3.25) = 6/5.5 and r(-1.25) = 4/5.5, mean 5/5.5 = 0.9091; lane 2 next to it
+        // (centre 0.75, wheels -0.25 and 1.75): r = (3/5.5 + 1/5.5)/2 = 0.3636.
+        // 300 x 0.9091 + 200 x 0.3636 = 345.45 kN per axle line. (Placing lane 1 further
+        // left is impossible; moving lane 2 right lowers it; swapping lowers it.)
+        let layout = LoadModel::preset(ModelFamily::EnLm1).lane_layout(7.5, 80.0);
+        let s = share(&layout, 11.0, 7.5, &rib_positions(11.0, 2, &[]));
+        let expected = 300.0 * 5.0 / 5.5 + 200.0 * 2.0 / 5.5;
+        assert!(close(s.ribs[0].traffic.vehicle_weight, expected, 1e-9), "{} vs {expected}", s.ribs[0].traffic.vehicle_weight);
+        // symmetric deck: both ribs alike
+        assert!(close(s.ribs[1].traffic.vehicle_weight, expected, 1e-9));
+        // uniform: lane 1 on [-3.75, -0.75]: 9 x integral of (2.75 - y)/5.5 = 9 x 3 x r(-2.25) = 27 x 5/5.5;
+        // lane 2 on [-0.75, 2.25]: 2.5 x 3 x r(0.75) = 7.5 x 2/5.5; remaining area [2.25, 3.75]
+        // where r > 0, up to the rib at 2.75: 2.5 x (0.5 x 0.5 x 0.5/5.5) = 2.5 x 0.125/5.5
+        // (lane 2 and the remaining area carry the same 2.5 kN/m2, so their order does not
+        // matter; lane 1 against the kerb is the worst): 24.545 + 2.727 + 0.057 = 27.33 kN/m;
+        // footways: left [-5.5, -3.75]: 3 x 1.75 x r(-4.625) = 5.25 x 7.375/5.5 = 7.040;
+        // right [3.75, 5.5]: r < 0, nothing. Total 34.31 kN/m.
+        let lanes = 27.0 * 5.0 / 5.5 + 7.5 * 2.0 / 5.5 + 2.5 * 0.125 / 5.5;
+        let footway = 5.25 * 7.375 / 5.5;
+        let u = &s.ribs[0].traffic;
+        assert!(close(u.uniform(), lanes + footway, 1e-6), "{u:?} vs {}", lanes + footway);
+    }
+
+    #[test]
+    fn hl93_multiple_presence_picks_the_worst_count() {
+        // one rib: the whole load. 2 lanes of 3.6 m in 7.5 m: m = 1.2 for one lane, 1.0
+        // for two (Table 3.6.1.1.2-1): two lanes give 2 x 1.33 = 2.66 > 1.2 x 1.33 = 1.596
+        let layout = LoadModel::preset(ModelFamily::Hl93).lane_layout(7.5, 80.0);
+        let s = share(&layout, 7.5, 7.5, &[0.0]);
+        assert!(close(s.whole.vehicle_weight, 2.66, 1e-9), "{:?}", s.whole);
+        assert!(close(s.whole.lanes_uniform, 2.0 * 9.3, 1e-9));
+        // ribs at +-3 m, r(y) = (3 - y) / 6 for the left one. One lane against the left
+        // kerb (centre -1.95, wheels -2.85 and -1.05): mean r = (5.85 + 4.05) / 12 = 0.825,
+        // x 1.2 x 1.33 = 1.317. Two lanes, the second beside it (wheels 0.75 and 2.55):
+        // mean r = (2.25 + 0.45) / 12 = 0.225; (0.825 + 0.225) x 1.0 x 1.33 = 1.3965 governs.
+        let s = share(&layout, 7.5, 7.5, &[-3.0, 3.0]);
+        assert!(close(s.ribs[0].traffic.vehicle_weight, 1.05 * 1.33, 1e-9), "{:?}", s.ribs[0]);
+    }
+}
