@@ -97,6 +97,24 @@ impl ArchLine {
         })
     }
 
+    /// The name [`ArchLine::parse`] reads back: `thrust`, `thrust-right`, `v-left`,
+    /// `v-right`, `m-left`, `m-right`, a member's name, or a member's name with `/m-start`
+    /// or `/m-end`.
+    pub fn name(&self, generated: &Generated) -> String {
+        let member = |k: &usize| generated.model.member_label(*k);
+        match self {
+            ArchLine::Thrust(Side::Left) => "thrust".into(),
+            ArchLine::Thrust(Side::Right) => "thrust-right".into(),
+            ArchLine::Vertical(Side::Left) => "v-left".into(),
+            ArchLine::Vertical(Side::Right) => "v-right".into(),
+            ArchLine::SpringingMoment(Side::Left) => "m-left".into(),
+            ArchLine::SpringingMoment(Side::Right) => "m-right".into(),
+            ArchLine::Axial(k) => member(k),
+            ArchLine::Moment(k, MemberEnd::Start) => format!("{}/m-start", member(k)),
+            ArchLine::Moment(k, MemberEnd::End) => format!("{}/m-end", member(k)),
+        }
+    }
+
     /// Every line of a model: H and V at both springings, the springing moments where
     /// the springings are fixed, every member's axial force, and both end moments of
     /// every frame member at each end it does not release.
@@ -169,23 +187,32 @@ impl ArchInfluence {
     ///
     /// Errors: `Invalid` when the line names a member the model does not have.
     pub fn ordinates(&self, line: &ArchLine) -> Result<Vec<f64>, StaticsError> {
-        let springing = |side: &Side| {
-            let node = self.generated.map.springings[if *side == Side::Left { 0 } else { 1 }];
-            let reaction = |dof| self.lines.ordinates(Quantity::Reaction { node, dof });
-            let (fx, fy, mz) = (reaction(Dof::X)?, reaction(Dof::Y)?, reaction(Dof::Rz)?);
-            Ok::<Vec<SpringingForce>, StaticsError>(
-                (0..fx.len())
-                    .map(|k| SpringingForce::from_reaction(fx[k], fy[k], mz[k], *side == Side::Left))
-                    .collect(),
-            )
-        };
-        match line {
-            ArchLine::Thrust(s) => Ok(springing(s)?.iter().map(|f| f.thrust).collect()),
-            ArchLine::Vertical(s) => Ok(springing(s)?.iter().map(|f| f.vertical).collect()),
-            ArchLine::SpringingMoment(s) => Ok(springing(s)?.iter().map(|f| f.moment).collect()),
-            ArchLine::Axial(k) => self.lines.ordinates(Quantity::Axial { member: *k, end: MemberEnd::Start }),
-            ArchLine::Moment(k, end) => self.lines.ordinates(Quantity::Moment { member: *k, end: *end }),
-        }
+        values_of(&self.generated, &self.lines, line)
+    }
+}
+
+/// The values of `line` in every case of `lines` (one per position of an influence
+/// line, or the cases of any solution of the same model wrapped the same way), units and
+/// signs in [`ArchLine`].
+///
+/// Errors: `Invalid` when the line names a member the model does not have.
+pub fn values_of(generated: &Generated, lines: &InfluenceLines, line: &ArchLine) -> Result<Vec<f64>, StaticsError> {
+    let springing = |side: &Side| {
+        let node = generated.map.springings[if *side == Side::Left { 0 } else { 1 }];
+        let reaction = |dof| lines.ordinates(Quantity::Reaction { node, dof });
+        let (fx, fy, mz) = (reaction(Dof::X)?, reaction(Dof::Y)?, reaction(Dof::Rz)?);
+        Ok::<Vec<SpringingForce>, StaticsError>(
+            (0..fx.len())
+                .map(|k| SpringingForce::from_reaction(fx[k], fy[k], mz[k], *side == Side::Left))
+                .collect(),
+        )
+    };
+    match line {
+        ArchLine::Thrust(s) => Ok(springing(s)?.iter().map(|f| f.thrust).collect()),
+        ArchLine::Vertical(s) => Ok(springing(s)?.iter().map(|f| f.vertical).collect()),
+        ArchLine::SpringingMoment(s) => Ok(springing(s)?.iter().map(|f| f.moment).collect()),
+        ArchLine::Axial(k) => lines.ordinates(Quantity::Axial { member: *k, end: MemberEnd::Start }),
+        ArchLine::Moment(k, end) => lines.ordinates(Quantity::Moment { member: *k, end: *end }),
     }
 }
 
@@ -572,5 +599,9 @@ mod tests {
         assert_eq!(ArchLine::parse(&with_end, &g).expect("ok"), ArchLine::Moment(k, MemberEnd::End));
         let err = ArchLine::parse("nothing here", &g).expect_err("unknown").to_string();
         assert!(err.contains("thrust-right") && err.contains("'rib 0-1'"), "{err}");
+        // every line's name reads back as the same line
+        for line in ArchLine::every(&g) {
+            assert_eq!(ArchLine::parse(&line.name(&g), &g).expect("its own name"), line);
+        }
     }
 }

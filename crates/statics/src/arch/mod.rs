@@ -1,6 +1,6 @@
 //! The deck arch: the design a user edits and its validation, the default layout, form
 //! finding, generation of the analysis models, load cases and the whole analysis. Uses
-//! the graphic and frame layers.
+//! the traffic, graphic and frame layers.
 
 pub mod analysis;
 pub mod cases;
@@ -13,4 +13,5 @@ pub mod influence;
 pub mod layout;
 pub mod readout;
 pub mod summary;
+pub mod traffic;
 pub mod validate;

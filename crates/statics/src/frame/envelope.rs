@@ -65,6 +65,7 @@ pub struct Traffic {
 
 /// Direction of travel of the axle group along the line.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+#[serde(rename_all = "snake_case")]
 pub enum Travel {
     /// Towards larger x: the first axle is the rightmost, the others follow to its left.
     Rightward,

@@ -1,0 +1,545 @@
+//! Traffic envelopes of a deck arch: every influence line of a generated model under the
+//! design's load model, combined with the permanent actions.
+//!
+//! For each line (`arch::influence::ArchLine`: springing H, V and M, every member's N and
+//! the end moments of frame members, so the rib and deck moments on both sides of every
+//! node):
+//!
+//! 1. the permanent effect G: the model's dead-load case, the same loads the analysis
+//!    solves;
+//! 2. the traffic extremes: `frame::envelope` with the uniform load where the line is
+//!    adverse and the vehicle at its worst, for each vehicle arrangement of the load
+//!    model (`traffic::models`), keeping the worst and where it stands. The AASHTO
+//!    two-truck load counts only for deck negative moments and for the posts and piers
+//!    that carry the deck (its interior reactions), AASHTO LRFD 3.6.1.3.1;
+//! 3. sharing (`traffic::sharing`): springing forces are for the whole cross-section
+//!    (permanent + the whole section's traffic); member forces are per rib line
+//!    (permanent / ribs + the traffic of the rib with the worst share, every rib tried);
+//! 4. the design extremes of every combination (`traffic::combination`), the permanent
+//!    effect factored as a whole.
+//!
+//! Units: kN and kNm; signs those of the line (`ArchLine`). Concept-design values: local
+//! codes and a licensed engineer govern.
+
+use crate::arch::analysis::CAUTION;
+use crate::arch::generate::{bare_rib_model, frame_model, truss_model, Generated, MemberRole, ModelKind, DEAD};
+use crate::arch::influence::{influence_of, values_of, ArchLine, ArchInfluence};
+use crate::arch::validate::ValidDesign;
+use crate::error::{Location, Problem, StaticsError};
+use crate::frame::envelope::{envelope, AxlePlacement, Envelope, Extreme};
+use crate::frame::influence::InfluenceLines;
+use crate::frame::results::Solution;
+use crate::frame::solver::solve;
+use crate::traffic::combination::Combination;
+use crate::traffic::models::{Applies, LaneLayout};
+use crate::traffic::sharing::{rib_positions, share, Alternative, LineTraffic, Sharing};
+use serde::Serialize;
+
+/// Step of the unit load along the deck for the envelopes, m (and at every node).
+pub const TRAFFIC_STEP: f64 = 1.0;
+
+/// Whom a value is for.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+#[serde(rename_all = "snake_case")]
+pub enum Per {
+    /// Every rib line together (springing forces, foundations).
+    WholeCrossSection,
+    /// One rib line (member forces, sizing).
+    RibLine,
+}
+
+/// One extreme of the characteristic traffic and what produces it.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Governing {
+    /// The traffic effect (uniform part + vehicle part), kN or kNm.
+    pub value: f64,
+    /// The uniform load's part.
+    pub uniform_part: f64,
+    /// The vehicle's part.
+    pub vehicle_part: f64,
+    /// Which vehicle arrangement (`tandem`, `truck`, `two trucks`, `uniform`).
+    pub arrangement: String,
+    /// The rib line whose share governs (0-based, left to right; `None` for the whole
+    /// cross-section).
+    pub rib: Option<usize>,
+    /// Where the uniform load lies: (from, to) along the deck, m.
+    pub loaded: Vec<(f64, f64)>,
+    /// Where the vehicle stands (`None`: no vehicle, or none makes it worse).
+    pub vehicle: Option<AxlePlacement>,
+}
+
+/// The design extremes of one combination.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct DesignRange {
+    /// The combination's name.
+    pub combination: String,
+    /// Largest design effect.
+    pub max: f64,
+    /// Smallest design effect.
+    pub min: f64,
+}
+
+/// The envelope of one line.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct LineEnvelope {
+    /// The line's name (what `springline influence --of` takes).
+    pub line: String,
+    /// What it is, with sign and units.
+    pub label: String,
+    /// Whole cross-section or one rib line.
+    pub per: Per,
+    /// Permanent effect (dead load), for `per`.
+    pub permanent: f64,
+    /// Largest characteristic traffic effect (>= 0).
+    pub traffic_max: Governing,
+    /// Smallest characteristic traffic effect (<= 0).
+    pub traffic_min: Governing,
+    /// Design extremes per combination.
+    pub design: Vec<DesignRange>,
+}
+
+/// The traffic report of one model of a design.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct TrafficReport {
+    /// Which model.
+    pub model: ModelKind,
+    /// The load model's title.
+    pub load_model: String,
+    /// Its lanes in words.
+    pub lanes: String,
+    /// How the traffic is shared between the ribs.
+    pub sharing: Sharing,
+    /// The combinations reported.
+    pub combinations: Vec<Combination>,
+    /// Step of the unit load along the deck, m.
+    pub step: f64,
+    /// The left springing's thrust (whole cross-section): the range of the arch's thrust.
+    pub thrust: LineEnvelope,
+    /// Every line: springing forces first, then members in model order.
+    pub lines: Vec<LineEnvelope>,
+    /// Caution.
+    pub caution: String,
+}
+
+impl TrafficReport {
+    /// The envelope of the line named `name` (see [`LineEnvelope::line`]).
+    pub fn line(&self, name: &str) -> Option<&LineEnvelope> {
+        self.lines.iter().find(|l| l.line == name)
+    }
+}
+
+/// Which sense of a line the AASHTO two-truck load may govern, if any.
+fn two_truck_sense(generated: &Generated, line: &ArchLine) -> Option<f64> {
+    let role = |k: usize| generated.map.roles.get(k).copied();
+    match line {
+        // hogging: negative for a deck member drawn left to right (sagging positive)
+        ArchLine::Moment(k, _) if matches!(role(*k), Some(MemberRole::Deck | MemberRole::Approach)) => {
+            let m = &generated.model.members[*k];
+            let (a, b) = (generated.model.nodes[m.start].x, generated.model.nodes[m.end].x);
+            Some(if a <= b { -1.0 } else { 1.0 })
+        }
+        // the deck's interior reactions: compression in its posts and piers
+        ArchLine::Axial(k) if matches!(role(*k), Some(MemberRole::Post | MemberRole::Pier)) => Some(-1.0),
+        _ => None,
+    }
+}
+
+/// Envelope of one line under one rib's (or the whole section's) traffic: every
+/// arrangement tried, the max and min kept with the arrangement's name. Also returns,
+/// per combination, the design parts (the factored extremes over arrangements).
+struct Candidate {
+    envelope: Envelope,
+    name: String,
+    counts_for_max: bool,
+    counts_for_min: bool,
+}
+
+fn candidates(
+    x: &[f64],
+    eta: &[f64],
+    alternatives: &[Alternative],
+    two_truck: Option<f64>,
+) -> Result<Vec<Candidate>, StaticsError> {
+    let mut out = Vec::new();
+    for alt in alternatives {
+        let (counts_for_max, counts_for_min) = match (alt.applies, two_truck) {
+            (Applies::Everywhere, _) => (true, true),
+            (Applies::HoggingAndInteriorReactions, Some(sense)) => (sense > 0.0, sense < 0.0),
+            (Applies::HoggingAndInteriorReactions, None) => (false, false),
+        };
+        if !(counts_for_max || counts_for_min) {
+            continue;
+        }
+        let envelope = envelope(x, eta, &alt.traffic)?;
+        out.push(Candidate { envelope, name: alt.name.clone(), counts_for_max, counts_for_min });
+    }
+    Ok(out)
+}
+
+fn governing(e: &Extreme, name: &str, rib: Option<usize>) -> Governing {
+    Governing {
+        value: e.value,
+        uniform_part: e.uniform_part,
+        vehicle_part: e.axle_part,
+        arrangement: name.to_string(),
+        rib,
+        loaded: e.loaded.clone(),
+        vehicle: e.axles,
+    }
+}
+
+/// The envelope of one line over every traffic it may take (one per rib, or the whole
+/// section's), with the permanent effect `permanent` of the same `per`.
+fn line_envelope(
+    x: &[f64],
+    eta: &[f64],
+    traffics: &[(Option<usize>, Vec<Alternative>)],
+    two_truck: Option<f64>,
+    permanent: f64,
+    combinations: &[Combination],
+) -> Result<(Governing, Governing, Vec<DesignRange>), StaticsError> {
+    let none = |rib| Governing {
+        value: 0.0,
+        uniform_part: 0.0,
+        vehicle_part: 0.0,
+        arrangement: "none".into(),
+        rib,
+        loaded: Vec::new(),
+        vehicle: None,
+    };
+    let mut max = none(None);
+    let mut min = none(None);
+    // per combination: the largest and smallest factored traffic over arrangements and ribs
+    let mut design: Vec<(f64, f64)> = vec![(0.0, 0.0); combinations.len()];
+    for (rib, alternatives) in traffics {
+        for c in candidates(x, eta, alternatives, two_truck)? {
+            if c.counts_for_max && c.envelope.max.value > max.value {
+                max = governing(&c.envelope.max, &c.name, *rib);
+            }
+            if c.counts_for_min && c.envelope.min.value < min.value {
+                min = governing(&c.envelope.min, &c.name, *rib);
+            }
+            for (k, comb) in combinations.iter().enumerate() {
+                if c.counts_for_max {
+                    let v = comb.uniform * c.envelope.max.uniform_part + comb.vehicle * c.envelope.max.axle_part;
+                    design[k].0 = design[k].0.max(v);
+                }
+                if c.counts_for_min {
+                    let v = comb.uniform * c.envelope.min.uniform_part + comb.vehicle * c.envelope.min.axle_part;
+                    design[k].1 = design[k].1.min(v);
+                }
+            }
+        }
+    }
+    let design = combinations
+        .iter()
+        .zip(design)
+        .map(|(comb, (q_max, q_min))| {
+            // the permanent factor for the whole effect (Combination::design); the
+            // traffic parts are factored already
+            let (g_max, g_min) = comb.design(permanent, (0.0, 0.0), (0.0, 0.0));
+            DesignRange { combination: comb.name.clone(), max: g_max + q_max, min: g_min + q_min }
+        })
+        .collect();
+    Ok((max, min, design))
+}
+
+/// The rib lines' traffics, identical ones once (a symmetric deck has two alike).
+fn rib_traffics(sharing: &Sharing, layout: &LaneLayout) -> Vec<(Option<usize>, Vec<Alternative>)> {
+    let mut seen: Vec<&LineTraffic> = Vec::new();
+    let mut out = Vec::new();
+    for (i, rib) in sharing.ribs.iter().enumerate() {
+        let alike = |t: &LineTraffic| {
+            let near = |a: f64, b: f64| (a - b).abs() <= 1e-9 * (1.0 + a.abs().max(b.abs()));
+            near(t.lanes_uniform, rib.traffic.lanes_uniform)
+                && near(t.other_uniform, rib.traffic.other_uniform)
+                && near(t.vehicle_weight, rib.traffic.vehicle_weight)
+        };
+        if seen.iter().any(|t| alike(t)) {
+            continue;
+        }
+        seen.push(&rib.traffic);
+        out.push((Some(i), rib.traffic.alternatives(layout)));
+    }
+    out
+}
+
+/// The traffic envelopes of a design's model `kind` (frame model, truss idealisation or
+/// bare rib): see the module doc. The unit load runs every [`TRAFFIC_STEP`] m along the
+/// deck and at every node (the bare rib: at its rib nodes).
+///
+/// Ok(None) for the truss idealisation of an unbraced design. Errors: those of the
+/// influence lines and the solver (a model that cannot be solved).
+pub fn traffic_envelopes(valid: &ValidDesign, kind: ModelKind) -> Result<Option<TrafficReport>, StaticsError> {
+    let generated = match kind {
+        ModelKind::Frame => frame_model(valid),
+        ModelKind::Truss => match truss_model(valid) {
+            Some(g) => g,
+            None => return Ok(None),
+        },
+        ModelKind::BareRib => bare_rib_model(valid),
+    };
+    let step = (kind != ModelKind::BareRib).then_some(TRAFFIC_STEP);
+    let permanent = dead_case(&generated)?;
+    let influence = influence_of(generated, step)?;
+    report(valid, kind, &influence, &permanent).map(Some)
+}
+
+/// The dead-load case of a model, wrapped as a one-position line set so the lines' own
+/// reader gives its values.
+fn dead_case(generated: &Generated) -> Result<InfluenceLines, StaticsError> {
+    let solution = solve(&generated.model)?;
+    let cases = solution.cases.into_iter().filter(|c| c.name == DEAD).collect();
+    Ok(InfluenceLines {
+        positions: vec![0.0],
+        solution: Solution { cases, free_dofs: solution.free_dofs, bandwidth: solution.bandwidth },
+    })
+}
+
+fn report(
+    valid: &ValidDesign,
+    kind: ModelKind,
+    influence: &ArchInfluence,
+    permanent: &InfluenceLines,
+) -> Result<TrafficReport, StaticsError> {
+    let design = valid.design();
+    let t = &design.traffic;
+    let layout = t.load_model.lane_layout(t.carriageway_width, valid.layout().span());
+    let positions = rib_positions(design.deck.width, design.deck.ribs, &t.rib_positions);
+    let sharing = share(&layout, design.deck.width, t.carriageway_width, &positions);
+    let whole = vec![(None, sharing.whole.alternatives(&layout))];
+    let ribs = rib_traffics(&sharing, &layout);
+    let rib_count = design.deck.ribs.max(1) as f64;
+    let generated = &influence.generated;
+    let x = &influence.lines.positions;
+    let mut lines = Vec::new();
+    for line in ArchLine::every(generated) {
+        let eta = influence.ordinates(&line)?;
+        let g_whole = values_of(generated, permanent, &line)?.first().copied().unwrap_or(0.0);
+        let per = match line {
+            ArchLine::Thrust(_) | ArchLine::Vertical(_) | ArchLine::SpringingMoment(_) => Per::WholeCrossSection,
+            ArchLine::Axial(_) | ArchLine::Moment(..) => Per::RibLine,
+        };
+        let (traffics, g) = match per {
+            Per::WholeCrossSection => (&whole, g_whole),
+            Per::RibLine => (&ribs, g_whole / rib_count),
+        };
+        let (traffic_max, traffic_min, design_ranges) =
+            line_envelope(x, &eta, traffics, two_truck_sense(generated, &line), g, &t.combinations)?;
+        lines.push(LineEnvelope {
+            line: line.name(generated),
+            label: line.header(generated),
+            per,
+            permanent: g,
+            traffic_max,
+            traffic_min,
+            design: design_ranges,
+        });
+    }
+    let thrust = lines.iter().find(|l| l.line == "thrust").cloned().ok_or_else(|| {
+        StaticsError::Invalid(vec![Problem::new(Location::Part("traffic".into()), "the model has no left springing")])
+    })?;
+    Ok(TrafficReport {
+        model: kind,
+        load_model: t.load_model.title().to_string(),
+        lanes: layout.rule.clone(),
+        sharing,
+        combinations: t.combinations.clone(),
+        step: if kind == ModelKind::BareRib { 0.0 } else { TRAFFIC_STEP },
+        thrust,
+        lines,
+        caution: CAUTION.to_string(),
+    })
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::arch::design::{Bracing, Design, RibSystem};
+    use crate::arch::influence::load_path;
+    use crate::frame::envelope::Travel;
+    use crate::frame::influence::unit_load_case;
+    use crate::frame::model::LoadCase;
+    use crate::traffic::models::ModelFamily;
+    use crate::traffic::TrafficDesign;
+
+    fn report_of(d: &Design, kind: ModelKind) -> TrafficReport {
+        let valid = ValidDesign::new(d).expect("valid design");
+        traffic_envelopes(&valid, kind).expect("solves").expect("model exists")
+    }
+
+    /// Loads along the frame model's deck as the influence lines carry them: point loads
+    /// (x, kN down) and a uniform load over intervals, as point loads every 5 cm (midpoint
+    /// rule), each through the unit-load rule of `frame::influence`.
+    fn deck_case(g: &Generated, points: &[(f64, f64)], uniform: f64, loaded: &[(f64, f64)]) -> LoadCase {
+        let path = load_path(g);
+        let xs: Vec<f64> = path.iter().map(|&n| g.model.nodes[n].x).collect();
+        let tol = 1e-9 * (xs[xs.len() - 1] - xs[0]);
+        let mut all: Vec<(f64, f64)> = points.to_vec();
+        for &(a, b) in loaded {
+            let pieces = ((b - a) / 0.05).ceil().max(1.0) as usize;
+            let h = (b - a) / pieces as f64;
+            all.extend((0..pieces).map(|k| (a + (k as f64 + 0.5) * h, uniform * h)));
+        }
+        let mut case = LoadCase { name: "placement".into(), ..LoadCase::default() };
+        for (k, &(x, p)) in all.iter().enumerate() {
+            if x < xs[0] - tol || x > xs[xs.len() - 1] + tol {
+                continue; // an axle off the deck carries nothing
+            }
+            let unit = unit_load_case(&g.model, &path, &xs, x, tol, k);
+            case.nodal.extend(unit.nodal.iter().map(|n| crate::frame::model::NodalLoad { fy: n.fy * p, ..*n }));
+            case.member.extend(unit.member.iter().map(|m| match *m {
+                MemberLoad::Point { member, p: unit_p, a, direction } => {
+                    MemberLoad::Point { member, p: unit_p * p, a, direction }
+                }
+                other => other,
+            }));
+        }
+        case
+    }
+
+    use crate::frame::model::MemberLoad;
+
+    /// The axle positions of a placement (first axle at `first`, followers behind it).
+    fn axle_positions(p: &AxlePlacement, spacings: &[f64]) -> Vec<f64> {
+        let dir = if p.travel == Travel::Rightward { -1.0 } else { 1.0 };
+        let mut x = vec![p.first_axle];
+        for s in spacings {
+            let last = x[x.len() - 1];
+            x.push(last + dir * s);
+        }
+        x
+    }
+
+    #[test]
+    fn the_governing_placement_solved_directly_gives_the_envelope() {
+        // Independent check of influence line + envelope: the placement that gives the
+        // largest thrust and the largest hogging at a rib end, loaded on the frame model
+        // and solved directly, gives the same effect (within the 1 m interpolation of
+        // the line: 1 %). EN LM1 on the demo: tandem axles 1.2 m apart.
+        let d = Design::demo();
+        let valid = ValidDesign::new(&d).expect("valid");
+        let g = frame_model(&valid);
+        let r = report_of(&d, ModelKind::Frame);
+        let whole = &r.sharing.whole;
+        let k = g.map.rib_members[2];
+        for (name, extreme, traffic) in [
+            ("thrust", &r.thrust.traffic_max, whole.clone()),
+            (&*format!("{}/m-start", g.model.members[k].name), &r.line(&format!("{}/m-start", g.model.members[k].name)).expect("line").traffic_min, r.sharing.ribs[0].traffic.clone()),
+        ] {
+            let vehicle = traffic.vehicle_weight;
+            let mut points = Vec::new();
+            if let Some(p) = &extreme.vehicle {
+                points = axle_positions(p, &[1.2]).into_iter().map(|x| (x, vehicle)).collect();
+            }
+            let mut model = g.model.clone();
+            model.load_cases = vec![deck_case(&g, &points, traffic.uniform(), &extreme.loaded)];
+            let solution = solve(&model).expect("solves");
+            let lines = InfluenceLines { positions: vec![0.0], solution };
+            let line = ArchLine::parse(name, &g).expect("line");
+            let direct = values_of(&g, &lines, &line).expect("value")[0];
+            assert!(
+                (direct - extreme.value).abs() <= 0.01 * extreme.value.abs(),
+                "{name}: solved {direct} vs envelope {}",
+                extreme.value
+            );
+            assert!(extreme.value.abs() > 1.0, "{name}: a real effect");
+        }
+    }
+
+    #[test]
+    fn springings_take_the_whole_section_and_members_a_rib_line() {
+        // the demo: 2 ribs, LM1 on 7.5 m of an 11 m deck
+        let d = Design::demo();
+        let r = report_of(&d, ModelKind::Frame);
+        let valid = ValidDesign::new(&d).expect("valid");
+        let g = frame_model(&valid);
+        let dead = dead_case(&g).expect("dead");
+        let inf = influence_of(g.clone(), Some(TRAFFIC_STEP)).expect("lines");
+        // the thrust: G for the whole section, traffic of the whole section
+        let thrust = ArchLine::parse("thrust", &g).expect("thrust");
+        let g_thrust = values_of(&g, &dead, &thrust).expect("g")[0];
+        assert_eq!(r.thrust.per, Per::WholeCrossSection);
+        assert!((r.thrust.permanent - g_thrust).abs() < 1e-9 * g_thrust.abs());
+        let layout = d.traffic.load_model.lane_layout(d.traffic.carriageway_width, valid.layout().span());
+        let alt = &r.sharing.whole.alternatives(&layout)[0];
+        let e = envelope(&inf.lines.positions, &inf.ordinates(&thrust).expect("eta"), &alt.traffic).expect("env");
+        assert!((r.thrust.traffic_max.value - e.max.value).abs() < 1e-9 * e.max.value);
+        // a rib member: G / 2 and the rib's share, which is less than the whole
+        let k = g.map.rib_members[3];
+        let line = r.line(&g.model.members[k].name).expect("rib member");
+        assert_eq!(line.per, Per::RibLine);
+        let g_rib = values_of(&g, &dead, &ArchLine::Axial(k)).expect("g")[0];
+        assert!((line.permanent - g_rib / 2.0).abs() < 1e-9 * g_rib.abs());
+        let rib = &r.sharing.ribs[0].traffic;
+        let alt = &rib.alternatives(&layout)[0];
+        let e = envelope(&inf.lines.positions, &inf.ordinates(&ArchLine::Axial(k)).expect("eta"), &alt.traffic)
+            .expect("env");
+        assert!((line.traffic_min.value - e.min.value).abs() < 1e-9 * e.min.value.abs());
+        assert!(r.sharing.ribs[0].uniform_fraction > 0.5 && r.sharing.ribs[0].uniform_fraction < 1.0);
+        // ULS gr1a on a compressed rib member: 1.35 G + 1.35 (uniform + tandem) at the min
+        let uls = &line.design[0];
+        let expected = 1.35 * line.permanent + 1.35 * line.traffic_min.value;
+        assert!((uls.min - expected).abs() < 1e-9 * expected.abs(), "{} vs {expected}", uls.min);
+        // and the max: the whole dead load with 1.00 (favourable) plus the traffic max
+        let expected = line.permanent + 1.35 * line.traffic_max.value;
+        assert!((uls.max - expected).abs() < 1e-9 * expected.abs(), "{} vs {expected}", uls.max);
+    }
+
+    #[test]
+    fn braced_truss_diagonals_idle_under_dead_load_take_traffic_of_both_signs() {
+        // three-hinged, braced: the dead load is the form-finding load, so the diagonals
+        // carry nothing under it (1e-9 of the largest force) and both signs under traffic
+        let d = Design::demo();
+        assert!(matches!(d.rib_system, RibSystem::ThreeHinged) && !matches!(d.bracing, Bracing::None));
+        let r = report_of(&d, ModelKind::Truss);
+        let valid = ValidDesign::new(&d).expect("valid");
+        let g = truss_model(&valid).expect("braced");
+        let largest = r.lines.iter().map(|l| l.permanent.abs()).fold(0.0, f64::max);
+        let diagonals: Vec<&LineEnvelope> = g
+            .map
+            .members_with(MemberRole::Bracing)
+            .map(|k| r.line(&g.model.members[k].name).expect("diagonal"))
+            .collect();
+        assert!(!diagonals.is_empty());
+        for l in &diagonals {
+            assert!(l.permanent.abs() <= 1e-9 * largest, "{}: {}", l.line, l.permanent);
+            assert!(l.traffic_max.value > 1.0 && l.traffic_min.value < -1.0, "{}: {:?}", l.line, (l.traffic_max.value, l.traffic_min.value));
+        }
+    }
+
+    #[test]
+    fn the_two_truck_load_counts_only_for_deck_hogging_and_the_deck_supports() {
+        // AASHTO LRFD 3.6.1.3.1: 90 % of two trucks for negative moment and interior
+        // reactions only
+        let mut d = Design::demo();
+        d.traffic = TrafficDesign::preset(ModelFamily::Hl93, 7.5);
+        let r = report_of(&d, ModelKind::Frame);
+        let valid = ValidDesign::new(&d).expect("valid");
+        let g = frame_model(&valid);
+        let role_of = |name: &str| {
+            let member = name.split('/').next().unwrap_or(name);
+            g.model.members.iter().position(|m| m.name == member).map(|k| g.map.roles[k])
+        };
+        for l in &r.lines {
+            let role = role_of(&l.line);
+            if l.traffic_max.arrangement == "two trucks" {
+                panic!("{}: two trucks govern a maximum", l.line);
+            }
+            if l.traffic_min.arrangement == "two trucks" {
+                let deck_moment = l.line.contains("/m-") && matches!(role, Some(MemberRole::Deck | MemberRole::Approach));
+                let support = !l.line.contains("/m-") && matches!(role, Some(MemberRole::Post | MemberRole::Pier));
+                assert!(deck_moment || support, "{}: two trucks where the code does not apply them", l.line);
+            }
+        }
+        // truck rear spacing lies in 4.3..9.0 wherever a truck governs
+        for l in &r.lines {
+            for e in [&l.traffic_max, &l.traffic_min] {
+                if let (Some(p), "truck") = (&e.vehicle, e.arrangement.as_str()) {
+                    let s = p.spacing.expect("searched spacing");
+                    assert!((4.3 - 1e-9..=9.0 + 1e-9).contains(&s), "{s}");
+                }
+            }
+        }
+    }
+}
