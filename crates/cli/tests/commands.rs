@@ -250,6 +250,44 @@ fn standard_input_pipelines_work() {
     }
 }
 
+/// `analyze` reports the traffic: every line's envelope with its governing placement,
+/// the permanent effect and the design extremes per combination; the thrust range and
+/// the sharing rule, also in `--summary`.
+#[test]
+fn analyze_reports_traffic_envelopes() {
+    let out = run(&["analyze", "-"], &demo_json());
+    assert_eq!(out.status.code(), Some(0), "{}", text(&out.stderr));
+    let report: serde_json::Value = serde_json::from_slice(&out.stdout).expect("analysis JSON");
+    let frame = &report["traffic"]["frame"];
+    assert!(frame["load_model"].as_str().is_some_and(|m| m.contains("EN 1991-2")), "{frame}");
+    assert!(frame["sharing"]["rule"].as_str().is_some_and(|r| r.contains("per rib line")));
+    let combinations = frame["combinations"].as_array().expect("combinations").len();
+    assert_eq!(combinations, 3, "ULS gr1a, SLS characteristic, SLS frequent");
+    let lines = frame["lines"].as_array().expect("lines");
+    assert!(lines.len() > 50, "every member and springing: {}", lines.len());
+    for line in lines {
+        let (max, min) = (&line["traffic_max"], &line["traffic_min"]);
+        assert!(max["value"].as_f64().expect("max") >= 0.0 && min["value"].as_f64().expect("min") <= 0.0, "{line}");
+        assert_eq!(line["design"].as_array().expect("design").len(), combinations);
+        assert!(line["per"] == "whole_cross_section" || line["per"] == "rib_line");
+    }
+    // the thrust: the whole section; its largest traffic effect puts the uniform load
+    // somewhere and the tandem somewhere
+    let thrust = &frame["thrust"];
+    assert_eq!(thrust["per"], "whole_cross_section");
+    assert!(thrust["traffic_max"]["value"].as_f64().expect("max") > 100.0, "{thrust}");
+    assert!(!thrust["traffic_max"]["loaded"].as_array().expect("loaded").is_empty());
+    assert!(thrust["traffic_max"]["vehicle"]["first_axle"].as_f64().is_some());
+    assert!(report["traffic"]["truss"]["lines"].is_array(), "the demo is braced");
+
+    let out = run(&["analyze", "--summary", "-"], &demo_json());
+    assert_eq!(out.status.code(), Some(0), "{}", text(&out.stderr));
+    let brief: serde_json::Value = serde_json::from_slice(&out.stdout).expect("summary JSON");
+    assert!(brief["span"].as_f64().is_some(), "{brief}");
+    assert_eq!(brief["traffic"]["thrust"], *thrust);
+    assert!(brief["traffic"]["sharing_rule"].as_str().is_some_and(|r| r.contains("whole cross-section")));
+}
+
 /// A closed pipe (`springline analyze - | head -1`) is not an error.
 #[test]
 fn closed_output_pipe_is_not_an_error() {

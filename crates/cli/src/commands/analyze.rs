@@ -4,16 +4,23 @@
 
 use super::{print_json, read_design};
 use crate::failure::Failure;
+use serde::Serialize;
+use springline_statics::arch::traffic::{traffic_envelopes, LineEnvelope, TrafficReport};
 use springline_statics::link::permalink;
-use springline_statics::{analyze, Analysis, Design, StaticsError};
+use springline_statics::{analyze_valid, Analysis, Design, ModelKind, StaticsError, Summary, ValidDesign};
 use std::path::PathBuf;
 
 /// Analyse a design: form, models, load cases, force diagram, thrust line (JSON).
 ///
 /// Finds the rib that carries the deck in pure compression, generates the frame model,
 /// the truss idealisation and the bare rib, and solves them under the dead load, a
-/// half-span live load and a doubled panel load. The design comes from a file or from a
-/// permalink (`--link`), exactly one of the two.
+/// half-span live load and a doubled panel load. Then the traffic of the design's load
+/// model: for every influence line of the frame model (and of the truss idealisation
+/// when braced) the envelope of the traffic (max, min and the placement that governs
+/// each), the permanent effect and the design extremes of every combination; springing
+/// forces for the whole cross-section, member forces per rib line (the sharing rule is
+/// in `traffic.frame.sharing.rule`). The design comes from a file or from a permalink
+/// (`--link`), exactly one of the two.
 #[derive(clap::Args)]
 #[command(group(clap::ArgGroup::new("source").required(true).multiple(false).args(["design", "link"])))]
 #[command(after_help = "\
@@ -34,9 +41,41 @@ pub struct Args {
 
     /// Print only the summary: the key numbers (span, rise, form thrust, springing thrust
     /// per case and side, thrust range, largest member forces, ...) that the app's results
-    /// table shows.
+    /// table shows, with the traffic's load model, lanes, sharing rule and thrust range.
     #[arg(long)]
     summary: bool,
+}
+
+/// The whole report: the analysis and the traffic envelopes.
+#[derive(Serialize)]
+struct Report<'a> {
+    #[serde(flatten)]
+    analysis: &'a Analysis,
+    traffic: Traffic,
+}
+
+/// Traffic envelopes of the frame model and of the truss idealisation (braced designs).
+#[derive(Serialize)]
+struct Traffic {
+    frame: TrafficReport,
+    truss: Option<TrafficReport>,
+}
+
+/// The summary with the traffic's key numbers.
+#[derive(Serialize)]
+struct Brief<'a> {
+    #[serde(flatten)]
+    summary: &'a Summary,
+    traffic: TrafficBrief<'a>,
+}
+
+/// The traffic's key numbers: what loads, how shared, the thrust range.
+#[derive(Serialize)]
+struct TrafficBrief<'a> {
+    load_model: &'a str,
+    lanes: &'a str,
+    sharing_rule: &'a str,
+    thrust: &'a LineEnvelope,
 }
 
 /// Reads the design (file, standard input or permalink), analyses it and prints the
@@ -49,20 +88,24 @@ pub fn run(args: Args) -> Result<(), Failure> {
         // the match total
         (None, None) => return Err(Failure::refused("give a design file or --link")),
     };
-    let analysis = analysis_of(&design)?;
+    let valid = ValidDesign::new(&design)?;
+    let analysis = analyze_valid(&valid)?;
+    let frame = traffic_envelopes(&valid, ModelKind::Frame)?
+        .ok_or_else(|| Failure::refused("the design has no frame model"))?;
     if args.summary {
-        print_json(&analysis.summary)
-    } else {
-        print_json(&analysis)
+        let traffic = TrafficBrief {
+            load_model: &frame.load_model,
+            lanes: &frame.lanes,
+            sharing_rule: &frame.sharing.rule,
+            thrust: &frame.thrust,
+        };
+        return print_json(&Brief { summary: &analysis.summary, traffic });
     }
+    let truss = traffic_envelopes(&valid, ModelKind::Truss)?;
+    print_json(&Report { analysis: &analysis, traffic: Traffic { frame, truss } })
 }
 
 /// The engine's reading of a permalink.
 fn design_from_link(link: &str) -> Result<Design, StaticsError> {
     permalink::decode(link)
-}
-
-/// The engine's analysis of a design.
-fn analysis_of(design: &Design) -> Result<Analysis, StaticsError> {
-    analyze(design)
 }
