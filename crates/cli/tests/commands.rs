@@ -267,7 +267,10 @@ fn analyze_reports_traffic_envelopes() {
     assert!(lines.len() > 50, "every member and springing: {}", lines.len());
     for line in lines {
         let (max, min) = (&line["traffic_max"], &line["traffic_min"]);
-        assert!(max["value"].as_f64().expect("max") >= 0.0 && min["value"].as_f64().expect("min") <= 0.0, "{line}");
+        assert!(
+            max["value"].as_f64().expect("max") >= 0.0 && min["value"].as_f64().expect("min") <= 0.0,
+            "{line}"
+        );
         assert_eq!(line["design"].as_array().expect("design").len(), combinations);
         assert!(line["per"] == "whole_cross_section" || line["per"] == "rib_line");
     }
@@ -286,6 +289,34 @@ fn analyze_reports_traffic_envelopes() {
     assert!(brief["span"].as_f64().is_some(), "{brief}");
     assert_eq!(brief["traffic"]["thrust"], *thrust);
     assert!(brief["traffic"]["sharing_rule"].as_str().is_some_and(|r| r.contains("whole cross-section")));
+}
+
+/// `--pattern` adds named cases: the governing placement of the thrust gives, solved in
+/// the frame model, the thrust the envelope reports (within 3 %: the case brings deck loads
+/// to the joints as simple spans, the influence line along the continuous deck).
+#[test]
+fn analyze_adds_named_patterns() {
+    let out =
+        run(&["analyze", "--pattern", "governing:thrust:max", "--pattern", "quarter-2", "-"], &demo_json());
+    assert_eq!(out.status.code(), Some(0), "{}", text(&out.stderr));
+    let report: serde_json::Value = serde_json::from_slice(&out.stdout).expect("analysis JSON");
+    let cases = report["load_cases"].as_array().expect("cases");
+    let kinds: Vec<&str> = cases.iter().filter_map(|c| c["description"]["kind"].as_str()).collect();
+    assert!(kinds.contains(&"placement") && kinds.contains(&"quarter"), "{kinds:?}");
+    let placement = cases.iter().find(|c| c["description"]["kind"] == "placement").expect("placement case");
+    let name = placement["case"].as_str().expect("case name");
+    let springings = report["summary"]["springings"].as_array().expect("springings");
+    let solved = springings.iter().find(|s| s["case"] == name).expect("its springing forces");
+    let thrust = solved["left"]["thrust"].as_f64().expect("thrust");
+    let envelope = &report["traffic"]["frame"]["thrust"];
+    let expected =
+        envelope["permanent"].as_f64().expect("g") + envelope["traffic_max"]["value"].as_f64().expect("q");
+    assert!((thrust - expected).abs() <= 0.03 * expected, "{thrust} vs {expected}");
+
+    let err = failed(&run(&["analyze", "--pattern", "quarter-9", "-"], &demo_json()), 1);
+    assert!(err.contains("quarter-1 to quarter-4"), "{err}");
+    let err = failed(&run(&["analyze", "--pattern", "governing:nothing:max", "-"], &demo_json()), 1);
+    assert!(err.contains("names no line"), "{err}");
 }
 
 /// A closed pipe (`springline analyze - | head -1`) is not an error.

@@ -42,6 +42,14 @@ fn arrows(kind: &CaseKind, panels: usize) -> (String, String) {
     let light: String = (0..LIGHT_ARROWS).map(|k| arrow(spread(k, LIGHT_ARROWS, 0.0, 1.0), 6.0)).collect();
     let heavy: String = match *kind {
         CaseKind::Dead | CaseKind::Other => String::new(),
+        CaseKind::FullSpan { .. } | CaseKind::Placement { .. } => {
+            (0..6).map(|k| arrow(spread(k, 6, 0.0, 1.0), 1.0)).collect()
+        }
+        CaseKind::Quarter { quarter, .. } => {
+            let q = quarter.clamp(1, 4) as f64;
+            (0..2).map(|k| arrow(spread(k, 2, (q - 1.0) / 4.0, q / 4.0), 1.0)).collect()
+        }
+        CaseKind::Vehicle { along, .. } => arrow(ARCH_X0 + (ARCH_X1 - ARCH_X0) * along.clamp(0.0, 1.0), 0.5),
         CaseKind::HalfSpan { half, .. } => {
             let (from, to) = match half {
                 Half::Left => (0.0, 0.5),

@@ -5,9 +5,11 @@
 use super::{print_json, read_design};
 use crate::failure::Failure;
 use serde::Serialize;
-use springline_statics::arch::traffic::{traffic_envelopes, LineEnvelope, TrafficReport};
+use springline_statics::arch::analysis::analyze_with;
+use springline_statics::arch::cases::{pattern_case, Pattern};
+use springline_statics::arch::traffic::{placement_case, traffic_envelopes, LineEnvelope, TrafficReport};
 use springline_statics::link::permalink;
-use springline_statics::{analyze_valid, Analysis, Design, ModelKind, StaticsError, Summary, ValidDesign};
+use springline_statics::{Analysis, CaseSpec, Design, ModelKind, StaticsError, Summary, ValidDesign};
 use std::path::PathBuf;
 
 /// Analyse a design: form, models, load cases, force diagram, thrust line (JSON).
@@ -28,7 +30,9 @@ Examples:
   springline analyze design.json
   springline demo | springline analyze -
   springline analyze --link '#s2.eNp1...'
-  springline analyze --summary design.json")]
+  springline analyze --summary design.json
+  springline analyze --pattern quarter-2 --pattern vehicle-at-60 design.json
+  springline analyze --pattern governing:thrust:max design.json")]
 pub struct Args {
     /// The design file (JSON); `-` reads standard input.
     #[arg(value_name = "DESIGN.json")]
@@ -44,6 +48,13 @@ pub struct Args {
     /// table shows, with the traffic's load model, lanes, sharing rule and thrust range.
     #[arg(long)]
     summary: bool,
+
+    /// Add a load case of a named traffic pattern (repeatable): full, half-left,
+    /// half-right, quarter-1 .. quarter-4, panel-N, vehicle-at-X (leading axle at x = X m),
+    /// or governing:LINE:max / governing:LINE:min (the placement that gives that extreme
+    /// of LINE's envelope in the frame model; LINE as `springline influence --of` takes it).
+    #[arg(long = "pattern", value_name = "PATTERN")]
+    patterns: Vec<String>,
 }
 
 /// The whole report: the analysis and the traffic envelopes.
@@ -89,9 +100,10 @@ pub fn run(args: Args) -> Result<(), Failure> {
         (None, None) => return Err(Failure::refused("give a design file or --link")),
     };
     let valid = ValidDesign::new(&design)?;
-    let analysis = analyze_valid(&valid)?;
     let frame = traffic_envelopes(&valid, ModelKind::Frame)?
         .ok_or_else(|| Failure::refused("the design has no frame model"))?;
+    let extra = args.patterns.iter().map(|p| pattern_of(&valid, &frame, p)).collect::<Result<Vec<_>, _>>()?;
+    let analysis = analyze_with(&valid, &extra)?;
     if args.summary {
         let traffic = TrafficBrief {
             load_model: &frame.load_model,
@@ -103,6 +115,29 @@ pub fn run(args: Args) -> Result<(), Failure> {
     }
     let truss = traffic_envelopes(&valid, ModelKind::Truss)?;
     print_json(&Report { analysis: &analysis, traffic: Traffic { frame, truss } })
+}
+
+/// The load case a `--pattern` names (see `Args::patterns`).
+fn pattern_of(valid: &ValidDesign, frame: &TrafficReport, text: &str) -> Result<CaseSpec, Failure> {
+    if let Some(rest) = text.strip_prefix("governing:") {
+        let (line, extreme) = rest.rsplit_once(':').unwrap_or((rest, ""));
+        let max = match extreme {
+            "max" => true,
+            "min" => false,
+            _ => {
+                return Err(Failure::refused(format!(
+                    "'{text}': end a governing pattern with :max or :min, e.g. governing:thrust:max"
+                )))
+            }
+        };
+        let envelope = frame.line(line).ok_or_else(|| {
+            Failure::refused(format!(
+                "'{line}' names no line of the frame model; `springline influence DESIGN.json --of x` lists them"
+            ))
+        })?;
+        return Ok(placement_case(valid, envelope, max));
+    }
+    Ok(pattern_case(valid, Pattern::parse(text)?)?)
 }
 
 /// The engine's reading of a permalink.

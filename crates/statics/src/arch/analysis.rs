@@ -6,7 +6,7 @@
 //!
 //! Results are for concept design only; local codes and a licensed engineer govern.
 
-use crate::arch::cases::{add_cases, standard_cases, CaseKind};
+use crate::arch::cases::{add_cases, standard_cases, CaseKind, CaseSpec};
 use crate::arch::design::{Design, RibSystem, Warning};
 use crate::arch::form::Form;
 use crate::arch::generate::{
@@ -301,8 +301,9 @@ struct Solved {
     truss: Option<(Generated, DeterminacyReport, Option<Solution>)>,
 }
 
-fn solve_models(valid: &ValidDesign) -> Result<Solved, StaticsError> {
-    let specs = standard_cases(valid);
+fn solve_models(valid: &ValidDesign, extra: &[CaseSpec]) -> Result<Solved, StaticsError> {
+    let mut specs = standard_cases(valid);
+    specs.extend(extra.iter().cloned());
     let mut frame = frame_model(valid);
     add_cases(valid, &mut frame, &specs)?;
     let frame_solution = solve(&frame.model)?;
@@ -331,10 +332,21 @@ fn solve_models(valid: &ValidDesign) -> Result<Solved, StaticsError> {
 /// Errors: `Mechanism` if a generated frame or rib model cannot stand (the message names
 /// the node); `OutOfRange` for numbers beyond floating point.
 pub fn analyze_valid(valid: &ValidDesign) -> Result<Analysis, StaticsError> {
+    analyze_with(valid, &[])
+}
+
+/// [`analyze_valid`] with extra load cases after the standard ones (named patterns,
+/// a vehicle, the placement that governs an envelope: `arch::cases::pattern_case`,
+/// `arch::traffic::placement_case`), each solved in every model and drawn like the
+/// standard cases.
+///
+/// Errors: those of [`analyze_valid`], and an extra case that cannot be built (a panel
+/// point that does not exist, a load that is not finite).
+pub fn analyze_with(valid: &ValidDesign, extra: &[CaseSpec]) -> Result<Analysis, StaticsError> {
     let design = valid.design();
     let form = valid.form();
     let rs = restraint(valid);
-    let Solved { frame, frame_solution, rib, rib_solution, truss } = solve_models(valid)?;
+    let Solved { frame, frame_solution, rib, rib_solution, truss } = solve_models(valid, extra)?;
     let mut frame_notes = vec![ModelNote::Restraint { held_by: rs.held_by }];
     if design.rib_system == RibSystem::ThreeHinged {
         frame_notes.push(ModelNote::DropIn);
@@ -358,7 +370,7 @@ pub fn analyze_valid(valid: &ValidDesign) -> Result<Analysis, StaticsError> {
         }
     });
     let mut cases = vec![(DEAD.to_string(), CaseKind::Dead)];
-    cases.extend(standard_cases(valid).into_iter().map(|s| (s.name, s.kind)));
+    cases.extend(standard_cases(valid).into_iter().chain(extra.iter().cloned()).map(|s| (s.name, s.kind)));
     let load_cases = cases
         .into_iter()
         .map(|(name, kind)| {

@@ -1,5 +1,6 @@
-//! Extra load cases for the generated models of a design: a deck load on part of the
-//! span (half-span live load) and a heavier panel, added alongside the dead load.
+//! Extra load cases for the generated models of a design: the traffic's uniform load on
+//! part of the span (full, halves, quarters), a heavier panel, a vehicle at a given x,
+//! the placement that governs an envelope, added alongside the dead load.
 //!
 //! Generated models carry one case, "dead". The force diagram and the thrust line show
 //! what happens when the load departs from the funicular of the dead load, so they need
@@ -21,19 +22,13 @@
 
 use crate::arch::generate::{Generated, DEAD};
 use crate::arch::layout::{position, Joint, Layout, Topology};
+use crate::arch::traffic::traffic_of;
 use crate::arch::validate::ValidDesign;
 use crate::error::{Location, StaticsError};
 use crate::frame::model::{LoadCase, NodalLoad};
 use crate::units::{Quantity, Units};
 use serde::{Deserialize, Serialize};
 use std::fmt;
-
-/// Live load (kN/m2 over the deck width) used by the standard cases of `analyze`: an
-/// illustrative pattern load to show how the arch reacts to load on part of the span,
-/// not a code load model (it is of the order of a crowd load: EN 1991-2 5.3.2.1 gives
-/// q_fk = 5.0 kN/m2 for footbridges, recommended value, from memory). The live-load
-/// models of a later issue replace it; local codes and a licensed engineer govern.
-pub const PATTERN_LIVE_LOAD: f64 = 5.0;
 
 /// Name of the standard half-span case.
 pub const HALF_SPAN: &str = "dead + half-span live (left)";
@@ -59,6 +54,15 @@ pub enum DeckLoad {
     PanelPoint {
         /// Panel point index, 0..=panels.
         panel: usize,
+        /// Load, kN, positive downward.
+        p: f64,
+    },
+    /// A point load `p` (kN, positive downward) on the deck at `x` (m), shared between
+    /// the deck joints on either side by the lever rule (a simple deck span); ignored off
+    /// the arch span.
+    Point {
+        /// Position, m.
+        x: f64,
         /// Load, kN, positive downward.
         p: f64,
     },
@@ -115,6 +119,40 @@ pub enum CaseKind {
         /// Its x, m.
         x: f64,
     },
+    /// Dead load plus the traffic's uniform load over the whole arch span.
+    FullSpan {
+        /// The whole cross-section's uniform traffic load, kN/m.
+        line_load: f64,
+        /// Loaded from, m.
+        x0: f64,
+        /// Loaded to, m.
+        x1: f64,
+    },
+    /// Dead load plus the traffic's uniform load over one quarter of the arch span.
+    Quarter {
+        /// Which quarter, 1 (left) to 4.
+        quarter: usize,
+        /// The whole cross-section's uniform traffic load, kN/m.
+        line_load: f64,
+        /// Loaded from, m.
+        x0: f64,
+        /// Loaded to, m.
+        x1: f64,
+    },
+    /// Dead load plus the load model's vehicle (all lanes' vehicles side by side).
+    Vehicle {
+        /// x of the leading axle, m (the vehicle travels to the right, the others behind).
+        first_axle: f64,
+        /// The vehicle's total load across the section, kN.
+        total: f64,
+        /// Where the leading axle stands along the arch span, 0 (left springing) to 1.
+        along: f64,
+    },
+    /// Dead load plus the traffic placed where it gives one extreme of an envelope.
+    Placement {
+        /// The largest (true) or the smallest effect.
+        max: bool,
+    },
     /// Any other case, built from deck loads.
     Other,
 }
@@ -133,6 +171,26 @@ impl fmt::Display for CaseKind {
                 "dead load plus the deck panel load again ({load:.2} kN) at panel point {panel} (x = {x:.3} m): \
                  that panel load doubled"
             ),
+            CaseKind::FullSpan { line_load, x0, x1 } => write!(
+                f,
+                "dead load plus the traffic's uniform load ({line_load:.2} kN/m over the cross-section) on the whole \
+                 arch span (x = {x0:.3} to {x1:.3} m), reaching the deck joints as panel reactions"
+            ),
+            CaseKind::Quarter { quarter, line_load, x0, x1 } => write!(
+                f,
+                "dead load plus the traffic's uniform load ({line_load:.2} kN/m over the cross-section) on quarter \
+                 {quarter} of the arch span (x = {x0:.3} to {x1:.3} m), reaching the deck joints as panel reactions"
+            ),
+            CaseKind::Vehicle { first_axle, total, .. } => write!(
+                f,
+                "dead load plus the load model's vehicles across the section ({total:.1} kN in all), leading axle \
+                 at x = {first_axle:.3} m, travelling right"
+            ),
+            CaseKind::Placement { max } => write!(
+                f,
+                "dead load plus the traffic where it gives the {} of an envelope",
+                if max { "largest effect" } else { "smallest effect" }
+            ),
             CaseKind::Other => f.write_str("deck loads"),
         }
     }
@@ -141,14 +199,19 @@ impl fmt::Display for CaseKind {
 impl CaseKind {
     /// The case's id in links: stable when more cases arrive, because it is built from
     /// what the case is, never from its place in a list. `dead`, `half-left`,
-    /// `half-right`, `panel-N` (N the panel point, 0 over the left springing), `deck-loads`
-    /// for any other case. Lower-case ASCII letters, digits and `-` only, so it travels in
+    /// `half-right`, `panel-N` (N the panel point, 0 over the left springing), `full`,
+    /// `quarter-N` (1 to 4), `vehicle-X` (X the leading axle's x in whole metres),
+    /// `placement-max`, `placement-min`, `deck-loads` for any other case. Lower-case ASCII letters, digits and `-` only, so it travels in
     /// a URL fragment as it is.
     pub fn id(&self) -> String {
         match *self {
             CaseKind::Dead => "dead".into(),
             CaseKind::HalfSpan { half, .. } => format!("half-{half}"),
             CaseKind::DoubledPanel { panel, .. } => format!("panel-{panel}"),
+            CaseKind::FullSpan { .. } => "full".into(),
+            CaseKind::Quarter { quarter, .. } => format!("quarter-{quarter}"),
+            CaseKind::Vehicle { first_axle, .. } => format!("vehicle-{}", first_axle.round().max(0.0) as u64),
+            CaseKind::Placement { max } => if max { "placement-max" } else { "placement-min" }.into(),
             CaseKind::Other => "deck-loads".into(),
         }
     }
@@ -158,6 +221,7 @@ impl CaseKind {
     fn family(&self) -> String {
         match self {
             CaseKind::DoubledPanel { .. } => "panel".into(),
+            CaseKind::Vehicle { .. } => "vehicle".into(),
             other => other.id(),
         }
     }
@@ -169,6 +233,11 @@ impl CaseKind {
             CaseKind::Dead => "Dead load".into(),
             CaseKind::HalfSpan { half, .. } => format!("Live load, {half} half"),
             CaseKind::DoubledPanel { panel, .. } => format!("Heavier panel {panel}"),
+            CaseKind::FullSpan { .. } => "Traffic, full span".into(),
+            CaseKind::Quarter { quarter, .. } => format!("Traffic, quarter {quarter}"),
+            CaseKind::Vehicle { .. } => "Vehicle".into(),
+            CaseKind::Placement { max: true } => "Worst placement, largest".into(),
+            CaseKind::Placement { max: false } => "Worst placement, smallest".into(),
             CaseKind::Other => "Deck loads".into(),
         }
     }
@@ -191,6 +260,23 @@ impl CaseKind {
                  that panel load doubled",
                 show(Quantity::Force, load),
                 show(Quantity::Length, x),
+            ),
+            CaseKind::FullSpan { line_load, x0, x1 } | CaseKind::Quarter { line_load, x0, x1, .. } => format!(
+                "dead load plus the traffic's uniform load ({} over the cross-section) on {} \
+                 (x = {} to {}), reaching the deck joints as panel reactions",
+                show(Quantity::LineLoad, line_load),
+                match *self {
+                    CaseKind::Quarter { quarter, .. } => format!("quarter {quarter} of the arch span"),
+                    _ => "the whole arch span".into(),
+                },
+                show(Quantity::Length, x0),
+                show(Quantity::Length, x1),
+            ),
+            CaseKind::Vehicle { first_axle, total, .. } => format!(
+                "dead load plus the load model's vehicles across the section ({} in all), leading axle at x = {}, \
+                 travelling right",
+                show(Quantity::Force, total),
+                show(Quantity::Length, first_axle),
             ),
             other => other.to_string(),
         }
@@ -232,8 +318,15 @@ pub fn half_span(valid: &ValidDesign, half: Half, w: f64) -> Result<CaseSpec, St
 }
 
 fn half_span_spec(valid: &ValidDesign, half: Half, w: f64) -> CaseSpec {
+    half_span_line(valid, half, w * valid.design().deck.width)
+}
+
+/// The half-span case with a line load `line` kN/m (its intensity over the deck width
+/// is `line` / width).
+fn half_span_line(valid: &ValidDesign, half: Half, line: f64) -> CaseSpec {
     let f = valid.layout();
-    let line = w * valid.design().deck.width;
+    let width = valid.design().deck.width;
+    let w = if width > 0.0 { line / width } else { 0.0 };
     let (x0, x1) = match half {
         Half::Left => (f.a.x, f.xc),
         Half::Right => (f.xc, f.b.x),
@@ -272,16 +365,119 @@ fn doubled_panel_spec(valid: &ValidDesign, panel: usize) -> CaseSpec {
     }
 }
 
-/// The standard extra cases `analyze` adds to every model: dead + `PATTERN_LIVE_LOAD` on
-/// the left half of the span, and dead + a doubled panel load at the panel point nearest
-/// the left quarter point (at least 1, at most panels - 1). Total on a validated design.
+/// The standard extra cases `analyze` adds to every model: dead + the traffic's uniform
+/// load (the whole cross-section's, `arch::traffic::traffic_of`) on the left half of the
+/// span, and dead + a doubled panel load at the panel point nearest the left quarter
+/// point (at least 1, at most panels - 1). Total on a validated design.
 pub fn standard_cases(valid: &ValidDesign) -> Vec<CaseSpec> {
     let panels = valid.layout().panels;
     let quarter = ((panels as f64) / 4.0).round().max(1.0) as usize;
+    let (_, sharing) = traffic_of(valid);
     vec![
-        half_span_spec(valid, Half::Left, PATTERN_LIVE_LOAD),
+        half_span_line(valid, Half::Left, sharing.whole.uniform()),
         doubled_panel_spec(valid, quarter.min(panels - 1)),
     ]
+}
+
+/// A named traffic pattern: the whole cross-section's traffic of the design's load model
+/// (`arch::traffic::traffic_of`) on part of the arch span, with the dead load.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub enum Pattern {
+    /// The uniform load over the whole arch span.
+    FullSpan,
+    /// The uniform load over one half.
+    Half(Half),
+    /// The uniform load over one quarter (1 = left to 4).
+    Quarter(usize),
+    /// The deck panel load again at one panel point (1 to panels - 1).
+    HeavyPanel(usize),
+    /// The load model's first vehicle (every lane's side by side), leading axle at this
+    /// x (m), travelling right; a variable spacing at its shortest.
+    Vehicle(f64),
+}
+
+impl Pattern {
+    /// The pattern a user names: `full`, `half-left`, `half-right`, `quarter-1` to
+    /// `quarter-4`, `panel-N`, `vehicle-at-X` (X in m, e.g. `vehicle-at-52.5`).
+    ///
+    /// Errors: `Invalid` naming every accepted form.
+    pub fn parse(text: &str) -> Result<Pattern, StaticsError> {
+        let number = |prefix: &str| text.strip_prefix(prefix).and_then(|n| n.parse::<f64>().ok());
+        let whole = |prefix: &str| text.strip_prefix(prefix).and_then(|n| n.parse::<usize>().ok());
+        let pattern = match text {
+            "full" => Some(Pattern::FullSpan),
+            "half-left" => Some(Pattern::Half(Half::Left)),
+            "half-right" => Some(Pattern::Half(Half::Right)),
+            _ => whole("quarter-")
+                .filter(|q| (1..=4).contains(q))
+                .map(Pattern::Quarter)
+                .or_else(|| whole("panel-").map(Pattern::HeavyPanel))
+                .or_else(|| number("vehicle-at-").filter(|x| x.is_finite()).map(Pattern::Vehicle)),
+        };
+        pattern.ok_or_else(|| {
+            StaticsError::invalid(
+                "load pattern",
+                format!(
+                    "'{text}' names no pattern; give full, half-left, half-right, quarter-1 to quarter-4, panel-N \
+                     (N a panel point inside the arch) or vehicle-at-X (X the leading axle's x in m)"
+                ),
+            )
+        })
+    }
+}
+
+/// The load case of a named pattern on a validated design (see [`Pattern`]); strips reach
+/// the deck joints as panel reactions, axles by the lever rule between joints (loads off
+/// the arch span are left out, as in every case of this module).
+///
+/// Errors: a heavy panel outside 1 to panels - 1.
+pub fn pattern_case(valid: &ValidDesign, pattern: Pattern) -> Result<CaseSpec, StaticsError> {
+    let f = valid.layout();
+    let (layout, sharing) = traffic_of(valid);
+    let line = sharing.whole.uniform();
+    let strip = |name: String, kind: CaseKind, x0: f64, x1: f64| CaseSpec {
+        name,
+        kind,
+        with_dead: true,
+        loads: vec![DeckLoad::Strip { w: line, x0, x1 }],
+    };
+    Ok(match pattern {
+        Pattern::FullSpan => {
+            let (x0, x1) = (f.a.x, f.b.x);
+            strip("dead + traffic, full span".into(), CaseKind::FullSpan { line_load: line, x0, x1 }, x0, x1)
+        }
+        Pattern::Half(half) => half_span_line(valid, half, line),
+        Pattern::Quarter(quarter) => {
+            let q = quarter.clamp(1, 4) as f64;
+            let (x0, x1) = (f.a.x + (q - 1.0) / 4.0 * f.span(), f.a.x + q / 4.0 * f.span());
+            let kind = CaseKind::Quarter { quarter: quarter.clamp(1, 4), line_load: line, x0, x1 };
+            strip(format!("dead + traffic, quarter {}", quarter.clamp(1, 4)), kind, x0, x1)
+        }
+        Pattern::HeavyPanel(panel) => doubled_panel(valid, panel)?,
+        Pattern::Vehicle(first_axle) => {
+            let mut loads = Vec::new();
+            if let Some(vehicle) = layout.vehicles.first() {
+                let group = &vehicle.axles;
+                let mut x = first_axle;
+                for (k, q) in group.loads.iter().enumerate() {
+                    loads.push(DeckLoad::Point { x, p: q * sharing.whole.vehicle_weight });
+                    let spacing = match group.variable {
+                        Some(v) if v.index == k => v.min,
+                        _ => group.spacings.get(k).copied().unwrap_or(0.0),
+                    };
+                    x -= spacing;
+                }
+            }
+            let total = loads.iter().map(|l| if let DeckLoad::Point { p, .. } = l { *p } else { 0.0 }).sum();
+            let along = if f.span() > 0.0 { (first_axle - f.a.x) / f.span() } else { 0.0 };
+            CaseSpec {
+                name: format!("dead + vehicle at x = {first_axle:.1} m"),
+                kind: CaseKind::Vehicle { first_axle, total, along },
+                with_dead: true,
+                loads,
+            }
+        }
+    })
 }
 
 /// The joint loads (joint, kN down) of one deck load: panel reactions of the deck spans.
@@ -305,22 +501,25 @@ fn joint_loads(f: &Layout, topo: &Topology, rib_y: &[f64], load: &DeckLoad) -> V
         }
         DeckLoad::PanelPoint { panel, p } => {
             let x = f.panel_x.get(panel).copied().unwrap_or(f64::NAN);
-            // the first span holding x (a joint at x takes it all)
-            if let Some(&(j, k)) = spans.iter().find(|&&(j, k)| {
-                let (xj, xk) = (position(f, rib_y, j).x, position(f, rib_y, k).x);
-                xj <= x && x <= xk
-            }) {
-                let (xj, xk) = (position(f, rib_y, j).x, position(f, rib_y, k).x);
-                let len = xk - xj;
-                if len > 0.0 {
-                    out.push((j, p * (xk - x) / len));
-                    out.push((k, p * (x - xj) / len));
-                }
-            }
+            out.extend(point_on_spans(f, rib_y, &spans, x, p));
         }
+        DeckLoad::Point { x, p } => out.extend(point_on_spans(f, rib_y, &spans, x, p)),
     }
     out.retain(|(_, p)| *p != 0.0);
     out
+}
+
+/// A point load `p` at `x` on the first deck span holding x (a joint at x takes it all),
+/// shared between the span's joints by the lever rule; nothing off the spans.
+fn point_on_spans(f: &Layout, rib_y: &[f64], spans: &[(Joint, Joint)], x: f64, p: f64) -> Vec<(Joint, f64)> {
+    let at = |j: Joint| position(f, rib_y, j).x;
+    match spans.iter().find(|&&(j, k)| at(j) <= x && x <= at(k)) {
+        Some(&(j, k)) if at(k) > at(j) => {
+            let (xj, xk) = (at(j), at(k));
+            vec![(j, p * (xk - x) / (xk - xj)), (k, p * (x - xj) / (xk - xj))]
+        }
+        _ => Vec::new(),
+    }
 }
 
 /// Builds the load case `spec` for `generated`, a model generated from `valid` (frame
@@ -353,6 +552,7 @@ pub fn build_case(
         let finite = match *load {
             DeckLoad::Strip { w, x0, x1 } => w.is_finite() && x0.is_finite() && x1.is_finite(),
             DeckLoad::PanelPoint { p, .. } => p.is_finite(),
+            DeckLoad::Point { x, p } => x.is_finite() && p.is_finite(),
         };
         if !finite {
             return Err(StaticsError::invalid(at_case(), "a deck load is not finite"));

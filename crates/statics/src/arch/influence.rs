@@ -196,7 +196,11 @@ impl ArchInfluence {
 /// signs in [`ArchLine`].
 ///
 /// Errors: `Invalid` when the line names a member the model does not have.
-pub fn values_of(generated: &Generated, lines: &InfluenceLines, line: &ArchLine) -> Result<Vec<f64>, StaticsError> {
+pub fn values_of(
+    generated: &Generated,
+    lines: &InfluenceLines,
+    line: &ArchLine,
+) -> Result<Vec<f64>, StaticsError> {
     let springing = |side: &Side| {
         let node = generated.map.springings[if *side == Side::Left { 0 } else { 1 }];
         let reaction = |dof| lines.ordinates(Quantity::Reaction { node, dof });

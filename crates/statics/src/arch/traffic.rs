@@ -22,11 +22,14 @@
 //! codes and a licensed engineer govern.
 
 use crate::arch::analysis::CAUTION;
-use crate::arch::generate::{bare_rib_model, frame_model, truss_model, Generated, MemberRole, ModelKind, DEAD};
-use crate::arch::influence::{influence_of, values_of, ArchLine, ArchInfluence};
+use crate::arch::cases::{CaseKind, CaseSpec, DeckLoad};
+use crate::arch::generate::{
+    bare_rib_model, frame_model, truss_model, Generated, MemberRole, ModelKind, DEAD,
+};
+use crate::arch::influence::{influence_of, values_of, ArchInfluence, ArchLine};
 use crate::arch::validate::ValidDesign;
 use crate::error::{Location, Problem, StaticsError};
-use crate::frame::envelope::{envelope, AxlePlacement, Envelope, Extreme};
+use crate::frame::envelope::{envelope, AxlePlacement, Envelope, Extreme, Travel};
 use crate::frame::influence::InfluenceLines;
 use crate::frame::results::Solution;
 use crate::frame::solver::solve;
@@ -221,11 +224,13 @@ fn line_envelope(
             }
             for (k, comb) in combinations.iter().enumerate() {
                 if c.counts_for_max {
-                    let v = comb.uniform * c.envelope.max.uniform_part + comb.vehicle * c.envelope.max.axle_part;
+                    let v =
+                        comb.uniform * c.envelope.max.uniform_part + comb.vehicle * c.envelope.max.axle_part;
                     design[k].0 = design[k].0.max(v);
                 }
                 if c.counts_for_min {
-                    let v = comb.uniform * c.envelope.min.uniform_part + comb.vehicle * c.envelope.min.axle_part;
+                    let v =
+                        comb.uniform * c.envelope.min.uniform_part + comb.vehicle * c.envelope.min.axle_part;
                     design[k].1 = design[k].1.min(v);
                 }
             }
@@ -270,7 +275,10 @@ fn rib_traffics(sharing: &Sharing, layout: &LaneLayout) -> Vec<(Option<usize>, V
 ///
 /// Ok(None) for the truss idealisation of an unbraced design. Errors: those of the
 /// influence lines and the solver (a model that cannot be solved).
-pub fn traffic_envelopes(valid: &ValidDesign, kind: ModelKind) -> Result<Option<TrafficReport>, StaticsError> {
+pub fn traffic_envelopes(
+    valid: &ValidDesign,
+    kind: ModelKind,
+) -> Result<Option<TrafficReport>, StaticsError> {
     let generated = match kind {
         ModelKind::Frame => frame_model(valid),
         ModelKind::Truss => match truss_model(valid) {
@@ -296,6 +304,61 @@ fn dead_case(generated: &Generated) -> Result<InfluenceLines, StaticsError> {
     })
 }
 
+/// The load case that reproduces one extreme of a line's envelope (`max` or min): the
+/// dead load, the uniform load over the extreme's loaded intervals and its vehicle where
+/// it stands, with the traffic the extreme was found for (the whole section's, or the
+/// share of the rib line that governs). Strips reach the deck joints as panel reactions
+/// and axles by the lever rule (`arch::cases`), and loads off the arch span are left out,
+/// so the case's effect equals the envelope's where the deck carries loads as simple
+/// spans and the extreme's loads lie on the arch span; elsewhere it is close.
+pub fn placement_case(valid: &ValidDesign, line: &LineEnvelope, max: bool) -> CaseSpec {
+    let (layout, sharing) = traffic_of(valid);
+    let extreme = if max { &line.traffic_max } else { &line.traffic_min };
+    let traffic = match extreme.rib.and_then(|r| sharing.ribs.get(r)) {
+        Some(rib) => &rib.traffic,
+        None => &sharing.whole,
+    };
+    let alternative = traffic.alternatives(&layout).into_iter().find(|a| a.name == extreme.arrangement);
+    let mut loads = Vec::new();
+    if let Some(alt) = alternative {
+        loads.extend(extreme.loaded.iter().map(|&(x0, x1)| DeckLoad::Strip {
+            w: alt.traffic.uniform,
+            x0,
+            x1,
+        }));
+        if let (Some(group), Some(at)) = (&alt.traffic.axles, &extreme.vehicle) {
+            let behind = if at.travel == Travel::Rightward { -1.0 } else { 1.0 };
+            let mut x = at.first_axle;
+            for (k, q) in group.loads.iter().enumerate() {
+                loads.push(DeckLoad::Point { x, p: *q });
+                let spacing = match (group.variable, at.spacing) {
+                    (Some(v), Some(s)) if v.index == k => s,
+                    _ => group.spacings.get(k).copied().unwrap_or(0.0),
+                };
+                x += behind * spacing;
+            }
+        }
+    }
+    CaseSpec {
+        name: format!("dead + traffic for the {} of {}", if max { "largest" } else { "smallest" }, line.line),
+        kind: CaseKind::Placement { max },
+        with_dead: true,
+        loads,
+    }
+}
+
+/// The lanes of the design's load model on its carriageway and how they are shared
+/// between its ribs (`traffic::sharing::share`): what every traffic case and envelope of
+/// the design loads.
+pub fn traffic_of(valid: &ValidDesign) -> (LaneLayout, Sharing) {
+    let design = valid.design();
+    let t = &design.traffic;
+    let layout = t.load_model.lane_layout(t.carriageway_width, valid.layout().span());
+    let positions = rib_positions(design.deck.width, design.deck.ribs, &t.rib_positions);
+    let sharing = share(&layout, design.deck.width, t.carriageway_width, &positions);
+    (layout, sharing)
+}
+
 fn report(
     valid: &ValidDesign,
     kind: ModelKind,
@@ -304,9 +367,7 @@ fn report(
 ) -> Result<TrafficReport, StaticsError> {
     let design = valid.design();
     let t = &design.traffic;
-    let layout = t.load_model.lane_layout(t.carriageway_width, valid.layout().span());
-    let positions = rib_positions(design.deck.width, design.deck.ribs, &t.rib_positions);
-    let sharing = share(&layout, design.deck.width, t.carriageway_width, &positions);
+    let (layout, sharing) = traffic_of(valid);
     let whole = vec![(None, sharing.whole.alternatives(&layout))];
     let ribs = rib_traffics(&sharing, &layout);
     let rib_count = design.deck.ribs.max(1) as f64;
@@ -317,7 +378,9 @@ fn report(
         let eta = influence.ordinates(&line)?;
         let g_whole = values_of(generated, permanent, &line)?.first().copied().unwrap_or(0.0);
         let per = match line {
-            ArchLine::Thrust(_) | ArchLine::Vertical(_) | ArchLine::SpringingMoment(_) => Per::WholeCrossSection,
+            ArchLine::Thrust(_) | ArchLine::Vertical(_) | ArchLine::SpringingMoment(_) => {
+                Per::WholeCrossSection
+            }
             ArchLine::Axial(_) | ArchLine::Moment(..) => Per::RibLine,
         };
         let (traffics, g) = match per {
@@ -337,7 +400,10 @@ fn report(
         });
     }
     let thrust = lines.iter().find(|l| l.line == "thrust").cloned().ok_or_else(|| {
-        StaticsError::Invalid(vec![Problem::new(Location::Part("traffic".into()), "the model has no left springing")])
+        StaticsError::Invalid(vec![Problem::new(
+            Location::Part("traffic".into()),
+            "the model has no left springing",
+        )])
     })?;
     Ok(TrafficReport {
         model: kind,
@@ -357,7 +423,6 @@ mod tests {
     use super::*;
     use crate::arch::design::{Bracing, Design, RibSystem};
     use crate::arch::influence::load_path;
-    use crate::frame::envelope::Travel;
     use crate::frame::influence::unit_load_case;
     use crate::frame::model::LoadCase;
     use crate::traffic::models::ModelFamily;
@@ -387,7 +452,8 @@ mod tests {
                 continue; // an axle off the deck carries nothing
             }
             let unit = unit_load_case(&g.model, &path, &xs, x, tol, k);
-            case.nodal.extend(unit.nodal.iter().map(|n| crate::frame::model::NodalLoad { fy: n.fy * p, ..*n }));
+            case.nodal
+                .extend(unit.nodal.iter().map(|n| crate::frame::model::NodalLoad { fy: n.fy * p, ..*n }));
             case.member.extend(unit.member.iter().map(|m| match *m {
                 MemberLoad::Point { member, p: unit_p, a, direction } => {
                     MemberLoad::Point { member, p: unit_p * p, a, direction }
@@ -425,7 +491,11 @@ mod tests {
         let k = g.map.rib_members[2];
         for (name, extreme, traffic) in [
             ("thrust", &r.thrust.traffic_max, whole.clone()),
-            (&*format!("{}/m-start", g.model.members[k].name), &r.line(&format!("{}/m-start", g.model.members[k].name)).expect("line").traffic_min, r.sharing.ribs[0].traffic.clone()),
+            (
+                &*format!("{}/m-start", g.model.members[k].name),
+                &r.line(&format!("{}/m-start", g.model.members[k].name)).expect("line").traffic_min,
+                r.sharing.ribs[0].traffic.clone(),
+            ),
         ] {
             let vehicle = traffic.vehicle_weight;
             let mut points = Vec::new();
@@ -463,7 +533,8 @@ mod tests {
         assert!((r.thrust.permanent - g_thrust).abs() < 1e-9 * g_thrust.abs());
         let layout = d.traffic.load_model.lane_layout(d.traffic.carriageway_width, valid.layout().span());
         let alt = &r.sharing.whole.alternatives(&layout)[0];
-        let e = envelope(&inf.lines.positions, &inf.ordinates(&thrust).expect("eta"), &alt.traffic).expect("env");
+        let e =
+            envelope(&inf.lines.positions, &inf.ordinates(&thrust).expect("eta"), &alt.traffic).expect("env");
         assert!((r.thrust.traffic_max.value - e.max.value).abs() < 1e-9 * e.max.value);
         // a rib member: G / 2 and the rib's share, which is less than the whole
         let k = g.map.rib_members[3];
@@ -473,8 +544,9 @@ mod tests {
         assert!((line.permanent - g_rib / 2.0).abs() < 1e-9 * g_rib.abs());
         let rib = &r.sharing.ribs[0].traffic;
         let alt = &rib.alternatives(&layout)[0];
-        let e = envelope(&inf.lines.positions, &inf.ordinates(&ArchLine::Axial(k)).expect("eta"), &alt.traffic)
-            .expect("env");
+        let e =
+            envelope(&inf.lines.positions, &inf.ordinates(&ArchLine::Axial(k)).expect("eta"), &alt.traffic)
+                .expect("env");
         assert!((line.traffic_min.value - e.min.value).abs() < 1e-9 * e.min.value.abs());
         assert!(r.sharing.ribs[0].uniform_fraction > 0.5 && r.sharing.ribs[0].uniform_fraction < 1.0);
         // ULS gr1a on a compressed rib member: 1.35 G + 1.35 (uniform + tandem) at the min
@@ -504,7 +576,12 @@ mod tests {
         assert!(!diagonals.is_empty());
         for l in &diagonals {
             assert!(l.permanent.abs() <= 1e-9 * largest, "{}: {}", l.line, l.permanent);
-            assert!(l.traffic_max.value > 1.0 && l.traffic_min.value < -1.0, "{}: {:?}", l.line, (l.traffic_max.value, l.traffic_min.value));
+            assert!(
+                l.traffic_max.value > 1.0 && l.traffic_min.value < -1.0,
+                "{}: {:?}",
+                l.line,
+                (l.traffic_max.value, l.traffic_min.value)
+            );
         }
     }
 
@@ -527,8 +604,10 @@ mod tests {
                 panic!("{}: two trucks govern a maximum", l.line);
             }
             if l.traffic_min.arrangement == "two trucks" {
-                let deck_moment = l.line.contains("/m-") && matches!(role, Some(MemberRole::Deck | MemberRole::Approach));
-                let support = !l.line.contains("/m-") && matches!(role, Some(MemberRole::Post | MemberRole::Pier));
+                let deck_moment =
+                    l.line.contains("/m-") && matches!(role, Some(MemberRole::Deck | MemberRole::Approach));
+                let support =
+                    !l.line.contains("/m-") && matches!(role, Some(MemberRole::Post | MemberRole::Pier));
                 assert!(deck_moment || support, "{}: two trucks where the code does not apply them", l.line);
             }
         }
@@ -541,5 +620,75 @@ mod tests {
                 }
             }
         }
+    }
+}
+
+#[cfg(test)]
+mod placement_tests {
+    use super::*;
+    use crate::arch::cases::{build_case, pattern_case, Pattern};
+    use crate::arch::design::Design;
+
+    #[test]
+    fn a_governing_placement_as_a_load_case_gives_the_envelope_exactly_on_the_truss() {
+        // The truss idealisation carries deck loads as simple spans between panel points,
+        // as load cases do, so the placement case of an extreme, solved, must give the
+        // dead-load value plus the extreme (per rib line: the case carries that rib's
+        // traffic on the whole-section model, whose member force is the rib line's).
+        let d = Design::demo();
+        let valid = ValidDesign::new(&d).expect("valid");
+        let r = traffic_envelopes(&valid, ModelKind::Truss).expect("solves").expect("braced");
+        let mut g = truss_model(&valid).expect("braced");
+        let diagonal = g.map.members_with(MemberRole::Bracing).nth(2).expect("a diagonal");
+        let name = g.model.members[diagonal].name.clone();
+        let line = r.line(&name).expect("diagonal line").clone();
+        let mut cases = Vec::new();
+        for max in [true, false] {
+            let spec = placement_case(&valid, &line, max);
+            cases.push(build_case(&valid, &g, &spec).expect("case"));
+        }
+        g.model.load_cases.extend(cases);
+        let solution = solve(&g.model).expect("solves");
+        let n = |case: usize| solution.cases[case].members[diagonal].start.n;
+        let dead = n(0);
+        let ribs = d.deck.ribs as f64;
+        for (case, extreme) in [(1, &line.traffic_max), (2, &line.traffic_min)] {
+            let traffic = n(case) - dead;
+            assert!(
+                (traffic - extreme.value).abs() <= 1e-6 * extreme.value.abs().max(1.0),
+                "{name}: case {traffic} vs envelope {}",
+                extreme.value
+            );
+        }
+        assert!((line.permanent - dead / ribs).abs() <= 1e-9 * dead.abs().max(1.0));
+    }
+
+    #[test]
+    fn named_patterns_carry_the_load_models_traffic() {
+        // the demo: EN LM1 on a 7.5 m carriageway, footways 1.75 m: the whole section
+        // carries 34.5 + 3.75 + 10.5 = 48.75 kN/m (EN 1991-2 Tables 4.2 and 4.4a; worked
+        // in traffic::sharing) and tandems of 300 + 200 kN per axle, two axles 1.2 m apart
+        let d = Design::demo();
+        let valid = ValidDesign::new(&d).expect("valid");
+        let f = valid.layout();
+        let full = pattern_case(&valid, Pattern::FullSpan).expect("full");
+        let total = |spec: &CaseSpec| -> f64 {
+            let g = frame_model(&valid);
+            let case = build_case(&valid, &g, &CaseSpec { with_dead: false, ..spec.clone() }).expect("case");
+            -case.nodal.iter().map(|l| l.fy).sum::<f64>()
+        };
+        assert!((total(&full) - 48.75 * f.span()).abs() < 1e-6 * 48.75 * f.span());
+        let quarters: f64 =
+            (1..=4).map(|q| total(&pattern_case(&valid, Pattern::Quarter(q)).expect("quarter"))).sum();
+        assert!((quarters - total(&full)).abs() < 1e-6 * quarters);
+        let vehicle = pattern_case(&valid, Pattern::Vehicle(f.xc)).expect("vehicle");
+        assert!((total(&vehicle) - 1000.0).abs() < 1e-9, "{}", total(&vehicle));
+        assert_eq!(vehicle.kind.id(), format!("vehicle-{}", f.xc.round() as u64));
+        assert!(pattern_case(&valid, Pattern::HeavyPanel(0)).is_err());
+        for text in ["full", "half-left", "half-right", "quarter-3", "panel-4", "vehicle-at-52.5"] {
+            assert!(Pattern::parse(text).is_ok(), "{text}");
+        }
+        let err = Pattern::parse("quarter-5").expect_err("no fifth quarter").to_string();
+        assert!(err.contains("quarter-1 to quarter-4"), "{err}");
     }
 }

@@ -197,7 +197,14 @@ pub fn influence_lines(
 }
 
 /// The load case of the unit load at `x` on the path (see the module doc).
-pub(crate) fn unit_load_case(model: &Model, path: &[usize], xs: &[f64], x: f64, tol: f64, k: usize) -> LoadCase {
+pub(crate) fn unit_load_case(
+    model: &Model,
+    path: &[usize],
+    xs: &[f64],
+    x: f64,
+    tol: f64,
+    k: usize,
+) -> LoadCase {
     let mut lc = LoadCase { name: format!("unit load {} at x = {x:.3} m", k + 1), ..LoadCase::default() };
     let nodal = |node: usize, share: f64| NodalLoad { node, fx: 0.0, fy: -share, mz: 0.0 };
     if let Some(i) = xs.iter().position(|&xi| (xi - x).abs() <= tol) {

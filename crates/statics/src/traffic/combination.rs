@@ -59,17 +59,45 @@ impl Combination {
     pub fn presets(family: ModelFamily) -> Vec<Combination> {
         match family {
             ModelFamily::EnLm1 | ModelFamily::UserDefined => vec![
-                Combination::new("ULS gr1a", "EN 1990 A2 Table A2.4(B) eq. 6.10; EN 1991-2 Table 4.4a", 1.35, 1.0, 1.35, 1.35),
+                Combination::new(
+                    "ULS gr1a",
+                    "EN 1990 A2 Table A2.4(B) eq. 6.10; EN 1991-2 Table 4.4a",
+                    1.35,
+                    1.0,
+                    1.35,
+                    1.35,
+                ),
                 Combination::new("SLS characteristic", "EN 1990 A2.4.1, Table A2.6", 1.0, 1.0, 1.0, 1.0),
-                Combination::new("SLS frequent", "EN 1990 Table A2.1 (psi_1: TS 0.75, UDL 0.40)", 1.0, 1.0, 0.40, 0.75),
+                Combination::new(
+                    "SLS frequent",
+                    "EN 1990 Table A2.1 (psi_1: TS 0.75, UDL 0.40)",
+                    1.0,
+                    1.0,
+                    0.40,
+                    0.75,
+                ),
             ],
             ModelFamily::Crowd => vec![
                 Combination::new("ULS", "EN 1990 A2 Table A2.4(B) eq. 6.10", 1.35, 1.0, 1.35, 1.35),
                 Combination::new("SLS characteristic", "EN 1990 A2.4.1", 1.0, 1.0, 1.0, 1.0),
-                Combination::new("SLS frequent", "EN 1990 Table A2.2 (psi_1 0.40, from memory)", 1.0, 1.0, 0.40, 0.40),
+                Combination::new(
+                    "SLS frequent",
+                    "EN 1990 Table A2.2 (psi_1 0.40, from memory)",
+                    1.0,
+                    1.0,
+                    0.40,
+                    0.40,
+                ),
             ],
             ModelFamily::Hl93 => vec![
-                Combination::new("Strength I", "AASHTO LRFD Tables 3.4.1-1 and 3.4.1-2 (DC)", 1.25, 0.90, 1.75, 1.75),
+                Combination::new(
+                    "Strength I",
+                    "AASHTO LRFD Tables 3.4.1-1 and 3.4.1-2 (DC)",
+                    1.25,
+                    0.90,
+                    1.75,
+                    1.75,
+                ),
                 Combination::new("Service I", "AASHTO LRFD Table 3.4.1-1", 1.0, 1.0, 1.0, 1.0),
             ],
         }

@@ -84,7 +84,10 @@ impl TrafficDesign {
                 out.push(
                     Problem::new(
                         Field::RibPositions,
-                        format!("every rib must stand under the deck, within +-{} m of its centreline", deck_width / 2.0),
+                        format!(
+                            "every rib must stand under the deck, within +-{} m of its centreline",
+                            deck_width / 2.0
+                        ),
                     )
                     .involving([Field::DeckWidth]),
                 );
@@ -105,8 +108,7 @@ impl TrafficDesign {
         }
         out.extend(self.model_shape_problems());
         for (i, c) in self.combinations.iter().enumerate() {
-            let factors =
-                [c.permanent_unfavourable, c.permanent_favourable, c.uniform, c.vehicle];
+            let factors = [c.permanent_unfavourable, c.permanent_favourable, c.uniform, c.vehicle];
             if factors.iter().any(|f| !(f.is_finite() && *f >= 0.0)) {
                 out.push(Problem::new(
                     Field::Combinations,
@@ -122,7 +124,9 @@ impl TrafficDesign {
         let mut out = Vec::new();
         let mut add = |m: String| out.push(Problem::new(Field::LoadModel, m));
         match &self.load_model {
-            LoadModel::EnLm1(m) if m.lane_width <= 0.0 => add("the notional lane width must be positive".into()),
+            LoadModel::EnLm1(m) if m.lane_width <= 0.0 => {
+                add("the notional lane width must be positive".into())
+            }
             LoadModel::Hl93(m) => {
                 if m.lane_width <= 0.0 {
                     add("the design lane width must be positive".into());
@@ -131,7 +135,9 @@ impl TrafficDesign {
                     add("the truck's longest rear-axle spacing is shorter than its shortest".into());
                 }
             }
-            LoadModel::Crowd(m) if m.max < m.min => add("the crowd load's upper bound is below its lower bound".into()),
+            LoadModel::Crowd(m) if m.max < m.min => {
+                add("the crowd load's upper bound is below its lower bound".into())
+            }
             LoadModel::UserDefined(m) => {
                 if !m.axles.is_empty() && m.spacings.len() + 1 != m.axles.len() {
                     add(format!(

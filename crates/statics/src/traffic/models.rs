@@ -498,7 +498,11 @@ fn en_layout(m: &EnLm1, w: f64) -> LaneLayout {
     let lanes = (0..count)
         .map(|i| Lane {
             width: lane_width,
-            uniform: if i == 0 { m.alpha_udl_lane_1 * m.udl_lane_1 } else { m.alpha_udl_other * m.udl_other_lanes },
+            uniform: if i == 0 {
+                m.alpha_udl_lane_1 * m.udl_lane_1
+            } else {
+                m.alpha_udl_other * m.udl_other_lanes
+            },
             uniform_width: lane_width,
             vehicle_weight: m.tandem_axle.get(i).zip(m.alpha_tandem.get(i)).map_or(0.0, |(q, a)| q * a),
         })
@@ -529,10 +533,17 @@ fn hl93_layout(m: &Hl93, w: f64) -> LaneLayout {
     let truck = AxleGroup {
         loads: m.truck_axles.to_vec(),
         spacings: vec![m.truck_front_spacing, m.truck_rear_spacing_min],
-        variable: Some(VariableSpacing { index: 1, min: m.truck_rear_spacing_min, max: m.truck_rear_spacing_max }),
+        variable: Some(VariableSpacing {
+            index: 1,
+            min: m.truck_rear_spacing_min,
+            max: m.truck_rear_spacing_max,
+        }),
     };
-    let tandem =
-        AxleGroup { loads: vec![m.tandem_axle, m.tandem_axle], spacings: vec![m.tandem_spacing], variable: None };
+    let tandem = AxleGroup {
+        loads: vec![m.tandem_axle, m.tandem_axle],
+        spacings: vec![m.tandem_spacing],
+        variable: None,
+    };
     // two trucks, each with the fixed rear spacing, the gap between them searched from the
     // shortest headway to a length no deck of this tool reaches
     let two = m.two_truck_factor;
@@ -569,7 +580,12 @@ fn hl93_layout(m: &Hl93, w: f64) -> LaneLayout {
         multiple_presence: m.multiple_presence.to_vec(),
         vehicles: vec![
             Vehicle { name: "truck".into(), axles: truck, uniform_factor: 1.0, applies: Applies::Everywhere },
-            Vehicle { name: "tandem".into(), axles: tandem, uniform_factor: 1.0, applies: Applies::Everywhere },
+            Vehicle {
+                name: "tandem".into(),
+                axles: tandem,
+                uniform_factor: 1.0,
+                applies: Applies::Everywhere,
+            },
             Vehicle {
                 name: "two trucks".into(),
                 axles: two_trucks,

@@ -227,7 +227,14 @@ enum Part {
 /// The largest `part` over lane placements of `groups` in the carriageway, for `across`:
 /// (value from the lanes, value from the remaining area). Dynamic programming over grid
 /// cells left to right, the state being how many lanes of each group are placed.
-fn best(groups: &[(Lane, usize)], strip: Strip, across: Across, remaining: f64, gauge: f64, part: Part) -> (f64, f64) {
+fn best(
+    groups: &[(Lane, usize)],
+    strip: Strip,
+    across: Across,
+    remaining: f64,
+    gauge: f64,
+    part: Part,
+) -> (f64, f64) {
     let c0 = -strip.carriageway_half;
     let width = 2.0 * strip.carriageway_half;
     let cells = (width / GRID + 1e-9).floor() as usize;
@@ -243,12 +250,17 @@ fn best(groups: &[(Lane, usize)], strip: Strip, across: Across, remaining: f64, 
         return (0.0, rest_all);
     }
     // lane value and lost remaining area when a lane of group g starts at cell i
-    let lane_cells: Vec<usize> = groups.iter().map(|(l, _)| ((l.width / GRID) - 1e-9).ceil() as usize).collect();
+    let lane_cells: Vec<usize> =
+        groups.iter().map(|(l, _)| ((l.width / GRID) - 1e-9).ceil() as usize).collect();
     let value = |lane: &Lane, a: f64| -> (f64, f64) {
         let centre = a + lane.width / 2.0;
         let lane_part = match part {
             Part::Uniform => {
-                lane.uniform * across.positive_integral(centre - lane.uniform_width / 2.0, centre + lane.uniform_width / 2.0)
+                lane.uniform
+                    * across.positive_integral(
+                        centre - lane.uniform_width / 2.0,
+                        centre + lane.uniform_width / 2.0,
+                    )
             }
             Part::Vehicle => {
                 let r = (across.at(centre - gauge / 2.0) + across.at(centre + gauge / 2.0)) / 2.0;
@@ -319,13 +331,18 @@ fn line_traffic(layout: &LaneLayout, strip: Strip, across: Across) -> LineTraffi
     if layout.multiple_presence.is_empty() {
         let (lanes_u, rest) = best(&all, strip, across, layout.remaining, layout.wheel_gauge, Part::Uniform);
         let (lanes_v, _) = best(&all, strip, across, 0.0, layout.wheel_gauge, Part::Vehicle);
-        return LineTraffic { lanes_uniform: lanes_u, other_uniform: rest + footway, vehicle_weight: lanes_v };
+        return LineTraffic {
+            lanes_uniform: lanes_u,
+            other_uniform: rest + footway,
+            vehicle_weight: lanes_v,
+        };
     }
     // multiple presence: try every number of loaded lanes (identical lanes)
     let (mut lanes_u, mut lanes_v, mut rest) = (0.0_f64, 0.0_f64, 0.0_f64);
     let lane_count = layout.lanes.len();
     for k in 1..=lane_count {
-        let m = layout.multiple_presence.get(k - 1).or(layout.multiple_presence.last()).copied().unwrap_or(1.0);
+        let m =
+            layout.multiple_presence.get(k - 1).or(layout.multiple_presence.last()).copied().unwrap_or(1.0);
         let loaded = lane_groups(&layout.lanes[..k]);
         let (u, r) = best(&loaded, strip, across, layout.remaining, layout.wheel_gauge, Part::Uniform);
         let (v, _) = best(&loaded, strip, across, 0.0, layout.wheel_gauge, Part::Vehicle);
@@ -344,7 +361,8 @@ fn line_traffic(layout: &LaneLayout, strip: Strip, across: Across) -> LineTraffi
 /// rib its worst lever-rule share (module doc). Degenerate: one rib takes everything; a
 /// carriageway of zero width has no lanes (footways only).
 pub fn share(layout: &LaneLayout, deck_width: f64, carriageway_width: f64, positions: &[f64]) -> Sharing {
-    let strip = Strip { deck_half: deck_width / 2.0, carriageway_half: carriageway_width.min(deck_width) / 2.0 };
+    let strip =
+        Strip { deck_half: deck_width / 2.0, carriageway_half: carriageway_width.min(deck_width) / 2.0 };
     let whole = line_traffic(layout, strip, Across::Whole);
     let fraction = |part: f64, all: f64| if all > 0.0 { part / all } else { 0.0 };
     let ribs: Vec<RibShare> = (0..positions.len())
@@ -362,7 +380,8 @@ pub fn share(layout: &LaneLayout, deck_width: f64, carriageway_width: f64, posit
         .iter()
         .enumerate()
         .max_by(|a, b| {
-            (a.1.uniform_fraction + a.1.vehicle_fraction).total_cmp(&(b.1.uniform_fraction + b.1.vehicle_fraction))
+            (a.1.uniform_fraction + a.1.vehicle_fraction)
+                .total_cmp(&(b.1.uniform_fraction + b.1.vehicle_fraction))
         })
         .map_or(0, |(i, _)| i);
     let rule = format!(
@@ -446,7 +465,11 @@ mod tests {
         let layout = LoadModel::preset(ModelFamily::EnLm1).lane_layout(7.5, 80.0);
         let s = share(&layout, 11.0, 7.5, &rib_positions(11.0, 2, &[]));
         let expected = 300.0 * 5.0 / 5.5 + 200.0 * 2.0 / 5.5;
-        assert!(close(s.ribs[0].traffic.vehicle_weight, expected, 1e-9), "{} vs {expected}", s.ribs[0].traffic.vehicle_weight);
+        assert!(
+            close(s.ribs[0].traffic.vehicle_weight, expected, 1e-9),
+            "{} vs {expected}",
+            s.ribs[0].traffic.vehicle_weight
+        );
         // symmetric deck: both ribs alike
         assert!(close(s.ribs[1].traffic.vehicle_weight, expected, 1e-9));
         // uniform: lane 1 on [-3.75, -0.75]: 9 x integral of (2.75 - y)/5.5 = 9 x 3 x r(-2.25) = 27 x 5/5.5;
