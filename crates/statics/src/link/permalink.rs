@@ -16,14 +16,16 @@
 //!   `s1` is the core alone.
 //! * `s2` follows the core with a list of tagged *sections* (`sections`): a count, then
 //!   per section its tag and its body, the length-prefixed postcard bytes of a frozen
-//!   struct of its own. Design format 2 adds section 1, the abutment height. A later
+//!   struct of its own. Design format 2 adds section 1, the abutment height; design format
+//!   3 section 2, the traffic (carriageway, rib positions, load model, combinations). A later
 //!   design field is a new section with a new tag, so the layout grows without a new
 //!   link format and without breaking old links: a reader fills the default of every
 //!   section a link lacks and refuses a tag it does not know ("made by a newer
 //!   version"), never dropping a value the user set.
 //! * The core starts with the design format version of the writer. A link of a newer
 //!   design version than this reader is refused; an older one is updated to the
-//!   current version as it is read (`s1`: design format 1, abutment height 10 m).
+//!   current version as it is read (`s1`: design format 1, abutment height 10 m; `s1` and
+//!   `s2` links without section 2: EN 1991-2 Load Model 1 over the whole deck width).
 //! * postcard is a compact binary serde format: varint integers, f64 as their 8
 //!   little-endian bytes, so every number comes back bit for bit.
 //! * The zlib wrapper carries an Adler-32 checksum of the inflated bytes: a cut or damaged
@@ -85,7 +87,7 @@ const MAX_CASE_ID_LEN: usize = 40;
 /// Longest input [`decode`] looks at, bytes (a link of the demo design is well under
 /// 2,000; URLs much longer than this are cut by some browsers and chat tools anyway).
 pub const MAX_LINK_LEN: usize = 8_000;
-/// Largest inflated payload accepted, bytes (the demo design takes a few hundred; this leaves
+/// Largest inflated payload accepted, bytes (the demo design takes about a thousand; this leaves
 /// room for a valley of a few thousand points).
 pub const MAX_INFLATED_BYTES: usize = 64 * 1024;
 /// Deflate level used by [`encode`] (miniz scale 0 to 10; links are small, so the best).
@@ -326,7 +328,8 @@ fn updated_version(
 }
 
 /// Link format 1: the core alone (design format 1, updated to the current version: the
-/// abutment height takes its default, 10 m).
+/// abutment height takes its default, 10 m, and the traffic Load Model 1 over the whole
+/// deck width).
 fn read_s1(bytes: &[u8]) -> Result<Design, LinkError> {
     let mut design = core_v1::into_design(from_postcard::<core_v1::Wire>(bytes)?)?;
     design.version = updated_version(design.version, "s1", S1_DESIGN_VERSIONS, DESIGN_VERSION)?;
@@ -1050,8 +1053,8 @@ mod tests {
             }
             seen += 1;
         }
-        // 3 links of format s1 and 4 of s2 are committed
-        assert!(seen >= 7, "only {seen} fixture links found");
+        // 3 links of format s1 and 6 of s2 (2 with the traffic section) are committed
+        assert!(seen >= 9, "only {seen} fixture links found");
         assert_eq!(formats.into_iter().collect::<Vec<_>>(), ["s1", "s2"]);
     }
 }
