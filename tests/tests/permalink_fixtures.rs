@@ -30,7 +30,7 @@
 
 use serde::{Deserialize, Serialize};
 use springline_statics::analyze;
-use springline_statics::arch::design::{Bracing, Crown, Design, RibSystem, DESIGN_VERSION};
+use springline_statics::arch::design::{Design, DESIGN_VERSION};
 use springline_statics::arch::design_file::{read_design_json, write_design_json, OLDEST_DESIGN_VERSION};
 use springline_statics::link::permalink;
 use springline_statics::traffic::models::{LoadModel, ModelFamily};
