@@ -23,16 +23,18 @@
 //! SPRINGLINE_REFRESH_LINK_FIXTURES=1 cargo test -p springline-tests --test permalink_fixtures -- --ignored refresh
 //! ```
 //!
-//! It writes the `.link`, `.design.json` and design file of a current-format fixture only
-//! when that file does not exist yet (what a link or file opens to never changes), and
-//! rewrites every `.results.json` from the committed links (after a deliberate engine
-//! change). Without the variable it changes nothing.
+//! It writes the `.link`, `.design.json` and design file of a fixture of the current
+//! design format only when that file does not exist yet (what a link or file opens to
+//! never changes), and rewrites every `.results.json` from the committed links (after a
+//! deliberate engine change). Without the variable it changes nothing.
 
 use serde::{Deserialize, Serialize};
 use springline_statics::analyze;
-use springline_statics::arch::design::{Bracing, Crown, Design, RibSystem, DESIGN_VERSION};
+use springline_statics::arch::design::{Design, DESIGN_VERSION};
 use springline_statics::arch::design_file::{read_design_json, write_design_json, OLDEST_DESIGN_VERSION};
 use springline_statics::link::permalink;
+use springline_statics::traffic::models::{LoadModel, ModelFamily};
+use springline_statics::traffic::TrafficDesign;
 use std::path::{Path, PathBuf};
 
 /// Relative tolerance on stored numbers (the analysis is deterministic; this allows only
@@ -252,53 +254,104 @@ fn every_readable_format_has_a_fixture() {
     assert!(names.iter().any(|n| n == "v1-demo"), "the demo design's link is kept");
     let current = format!("v{}-", &permalink::CURRENT_FORMAT[1..]);
     assert!(names.iter().any(|n| n == &format!("{current}demo")), "the demo has a current-format link");
-    // the field of design format 2 travels in its section: one fixture sets it
-    let set = names.iter().filter(|n| n.starts_with(&current)).any(|n| {
-        let design = read_design_file(&folder().join(n).with_extension("design.json"));
-        design.deck.abutment_height != Design::demo().deck.abutment_height
-    });
+    // the fields of design formats 2 and 3 travel in their sections: fixtures set them
+    let designs: Vec<Design> = names
+        .iter()
+        .filter(|n| n.starts_with(&current))
+        .map(|n| read_design_file(&folder().join(n).with_extension("design.json")))
+        .collect();
+    let set = designs.iter().any(|d| d.deck.abutment_height != Design::demo().deck.abutment_height);
     assert!(set, "no current-format fixture has a non-default abutment height");
+    let set = designs.iter().any(|d| d.traffic != TrafficDesign::for_deck_width(d.deck.width));
+    assert!(set, "no current-format fixture has a traffic other than the default");
 }
 
-/// The designs of the current format's fixtures: the demo, a two-hinged unbraced arch
-/// with unequal springings and its crown set by rise, a fixed arch with crossed bracing
-/// and piers on one side only (the three designs of the v1 fixtures), and the demo with
-/// its left seat moved in on 6.5 m abutments (all invented).
-fn current_fixture_designs() -> Vec<(&'static str, Design)> {
-    let demo = Design::demo();
-    let mut two_hinged = Design::demo();
-    two_hinged.name = "two-hinged unbraced, unequal springings (invented fixture)".into();
-    two_hinged.rib_system = RibSystem::TwoHinged;
-    two_hinged.bracing = Bracing::None;
-    two_hinged.springing_left_level = 74.0;
-    two_hinged.springing_right_level = 82.0;
-    two_hinged.crown = Crown::Rise { rise: 16.5 };
-    two_hinged.panels = 10;
-    two_hinged.approach_piers_left = 0;
-    two_hinged.approach_piers_right = 2;
-    let mut fixed = Design::demo();
-    fixed.name = "fixed, crossed bracing, piers left only (invented fixture)".into();
-    fixed.rib_system = RibSystem::Fixed;
-    fixed.bracing = Bracing::Crossed;
-    fixed.springing_left_level = 78.0;
-    fixed.springing_right_level = 78.0;
-    fixed.crown = Crown::Level { level: 96.0 };
-    fixed.panels = 16;
-    fixed.min_post_length = 0.5;
-    fixed.approach_piers_left = 2;
-    fixed.approach_piers_right = 0;
-    fixed.deck.ribs = 3;
-    fixed.groups.rib.a = 0.075;
-    let mut abutments = Design::demo();
-    abutments.name = "left seat moved in, 6.5 m abutments (invented fixture)".into();
-    abutments.deck.left_seat_x = 6.0;
-    abutments.deck.abutment_height = 6.5;
-    vec![
-        ("v2-demo", demo),
-        ("v2-two-hinged-unbraced", two_hinged),
-        ("v2-fixed-crossed", fixed),
-        ("v2-abutment-height", abutments),
-    ]
+/// A fixture of the current link format: its name, the design format current when it
+/// was made, and its design.
+struct FixtureDesign {
+    name: &'static str,
+    design_format: u32,
+    design: Design,
+}
+
+/// The designs of the fixtures the refresh writes (all invented): the demo under HL-93
+/// traffic on a 9.0 m carriageway with its ribs placed by hand, and under a user-defined
+/// vehicle with a variable axle spacing and combinations of its own (design format 3,
+/// link section 2). Fixtures of earlier design formats (`v2-demo`,
+/// `v2-two-hinged-unbraced`, `v2-fixed-crossed`, `v2-abutment-height`) are committed as
+/// written then, their designs in their `.design.json`; the demo has changed since, so
+/// they are not rebuilt from it here.
+fn current_fixture_designs() -> Vec<FixtureDesign> {
+    let mut hl93 = Design::demo();
+    hl93.name = "HL-93 on a 9.0 m carriageway, ribs placed by hand (invented fixture)".into();
+    hl93.traffic = TrafficDesign::preset(ModelFamily::Hl93, HL93_CARRIAGEWAY);
+    hl93.traffic.rib_positions = HL93_RIB_POSITIONS.to_vec();
+    let mut vehicle = Design::demo();
+    vehicle.name = "user-defined vehicle, variable axle spacing (invented fixture)".into();
+    vehicle.traffic = TrafficDesign::preset(ModelFamily::UserDefined, 10.0);
+    vehicle.traffic.rib_positions = vec![-4.0, 4.5];
+    if let LoadModel::UserDefined(m) = &mut vehicle.traffic.load_model {
+        m.uniform = 3.0;
+        m.axles = vec![60.0, 120.0, 120.0];
+        m.spacings = vec![3.0, 4.0];
+        m.variable_spacing = Some(VEHICLE_VARIABLE_SPACING);
+    }
+    vehicle.traffic.combinations.truncate(2);
+    vehicle.traffic.combinations[0].name = "ULS, owner's factors".into();
+    vehicle.traffic.combinations[0].vehicle = 1.5;
+    let at = |name, design_format, design| FixtureDesign { name, design_format, design };
+    vec![at("v2-traffic-hl93", 3, hl93), at("v2-traffic-vehicle", 3, vehicle)]
+}
+
+/// The traffic of fixture `v2-traffic-hl93` (and its design file `v3-traffic-hl93`):
+/// carriageway, m, and rib positions from the deck centreline, m.
+const HL93_CARRIAGEWAY: f64 = 9.0;
+const HL93_RIB_POSITIONS: [f64; 2] = [-3.5, 3.5];
+/// The variable spacing of fixture `v2-traffic-vehicle`: the second spacing, 4 to 8 m.
+const VEHICLE_VARIABLE_SPACING: (usize, f64, f64) = (1, 4.0, 8.0);
+
+/// The traffic fixtures read back with the values they were made with, from their link
+/// and from their design file; every fixture made before the traffic (links of design
+/// format 1 and 2, design files v1 and v2) opens with Load Model 1 over its whole deck.
+#[test]
+fn traffic_fixtures_keep_their_traffic_and_older_ones_get_the_default() {
+    let hl93_link = permalink::decode(&read(&folder().join("v2-traffic-hl93.link"))).expect("opens");
+    let hl93_file = read_design_file(&designs_folder().join("v3-traffic-hl93.json"));
+    for d in [&hl93_link, &hl93_file] {
+        assert_eq!(d.traffic.carriageway_width, HL93_CARRIAGEWAY);
+        assert_eq!(d.traffic.rib_positions, HL93_RIB_POSITIONS);
+        let LoadModel::Hl93(m) = &d.traffic.load_model else { panic!("not HL-93: {:?}", d.traffic) };
+        // the design truck of AASHTO LRFD 3.6.1.2.2: 35, 145, 145 kN
+        assert_eq!(m.truck_axles, [35.0, 145.0, 145.0]);
+        assert_eq!(d.traffic.combinations.len(), 2, "Strength I and Service I");
+    }
+    let vehicle = permalink::decode(&read(&folder().join("v2-traffic-vehicle.link"))).expect("opens");
+    let LoadModel::UserDefined(m) = &vehicle.traffic.load_model else { panic!("{:?}", vehicle.traffic) };
+    assert_eq!(m.variable_spacing, Some(VEHICLE_VARIABLE_SPACING));
+    assert_eq!(m.axles, [60.0, 120.0, 120.0]);
+    assert_eq!(vehicle.traffic.combinations[0].name, "ULS, owner's factors");
+    assert_eq!(vehicle.traffic.combinations[0].vehicle, 1.5);
+    // older fixtures: the traffic's default for their own deck width
+    let older = |stored: &str| (1..3).any(|v| stored.contains(&format!("\"version\": {v},")));
+    let mut seen = 0;
+    for name in fixture_names() {
+        let base = folder().join(&name);
+        if older(&read(&base.with_extension("design.json"))) {
+            let d = permalink::decode(&read(&base.with_extension("link"))).expect("opens");
+            assert_eq!(d.traffic, TrafficDesign::for_deck_width(d.deck.width), "{name}");
+            seen += 1;
+        }
+    }
+    for name in design_file_names() {
+        let path = designs_folder().join(format!("{name}.json"));
+        if older(&read(&path)) {
+            let d = read_design_file(&path);
+            assert_eq!(d.traffic, TrafficDesign::for_deck_width(d.deck.width), "{name}");
+            seen += 1;
+        }
+    }
+    // 7 links and 7 design files of design formats 1 and 2 are committed
+    assert!(seen >= 14, "only {seen} older fixtures found");
 }
 
 /// Writes `text` to `path` unless the file exists (a link, or the design it opens to, is
@@ -317,8 +370,13 @@ fn refresh_link_fixtures() {
         eprintln!("{REFRESH_VAR}=1 is not set: nothing written");
         return;
     }
-    for (name, design) in current_fixture_designs() {
+    for FixtureDesign { name, design_format, design } in current_fixture_designs() {
         assert!(name.starts_with(&format!("v{}-", &permalink::CURRENT_FORMAT[1..])), "{name}");
+        // a fixture of an older design format is committed as written then: this version
+        // writes only its own format
+        if design_format != DESIGN_VERSION {
+            continue;
+        }
         springline_statics::validate_design(&design).unwrap_or_else(|e| panic!("{name}: {e}"));
         write_new(&folder().join(name).with_extension("link"), &format!("#{}\n", permalink::encode(&design)));
         write_new(&folder().join(name).with_extension("design.json"), &write_design_json(&design));

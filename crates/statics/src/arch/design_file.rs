@@ -158,13 +158,33 @@ fn reason(e: &serde_json::Error) -> String {
 mod tests {
     use super::*;
     use crate::arch::design::Crown;
+    use crate::traffic::models::{LoadModel, ModelFamily};
 
-    /// The demo as a version-1 file: no abutment height (as the version-1 engine wrote it).
-    fn demo_v1_text() -> String {
+    /// The demo as a version-2 file: no traffic (as the version-2 engine wrote it).
+    fn demo_v2_value() -> Value {
         let mut value = serde_json::to_value(Design::demo()).expect("serialises");
+        value["version"] = Value::from(2);
+        value.as_object_mut().expect("design object").remove("traffic");
+        value
+    }
+
+    fn demo_v2_text() -> String {
+        serde_json::to_string_pretty(&demo_v2_value()).expect("serialises")
+    }
+
+    /// The demo as a version-1 file: no abutment height and no traffic (as the version-1
+    /// engine wrote it).
+    fn demo_v1_text() -> String {
+        let mut value = demo_v2_value();
         value["version"] = Value::from(1);
         value["deck"].as_object_mut().expect("deck object").remove("abutment_height");
         serde_json::to_string_pretty(&value).expect("serialises")
+    }
+
+    /// The demo as a file without the traffic opens: Load Model 1 over the whole deck.
+    fn demo_without_traffic() -> Design {
+        let demo = Design::demo();
+        Design { traffic: TrafficDesign::for_deck_width(demo.deck.width), ..demo }
     }
 
     fn file_error(r: Result<Design, StaticsError>) -> DesignFileError {
@@ -179,8 +199,11 @@ mod tests {
         let mut d = Design::demo();
         d.deck.abutment_height = 6.5;
         d.crown = Crown::Rise { rise: 0.1 + 0.2 };
+        d.traffic = TrafficDesign::preset(ModelFamily::Crowd, 4.0);
+        d.traffic.rib_positions = vec![-2.5, 2.5];
         let text = write_design_json(&d);
-        assert!(text.starts_with("{\n  \"version\": 2,\n"), "{text}");
+        assert!(text.starts_with(&format!("{{\n  \"version\": {DESIGN_VERSION},\n")), "{text}");
+        assert!(text.contains("\"kind\": \"crowd\""), "{text}");
         assert!(text.ends_with("}\n"));
         assert_eq!(read_design_json(&text), Ok(d));
         // a design of an older version number in memory is written as the current one
@@ -196,12 +219,55 @@ mod tests {
         let d = read_design_json(&text).expect("reads");
         assert_eq!(d.version, DESIGN_VERSION);
         assert_eq!(d.deck.abutment_height, 10.0);
-        assert_eq!(d, Design::demo());
+        assert_eq!(d, demo_without_traffic());
         // a version-1 file that already names the height keeps it
         let mut value: Value = serde_json::from_str(&text).expect("JSON");
         value["deck"]["abutment_height"] = Value::from(7.25);
         let d = read_design_json(&value.to_string()).expect("reads");
         assert_eq!(d.deck.abutment_height, 7.25);
+    }
+
+    /// Design format 2 had no traffic: a version-2 file (and a version-1 file, through
+    /// both steps) reads with Load Model 1 over its whole deck width, ribs evenly spaced
+    /// and the EN 1990 combinations; a file that names a traffic keeps it.
+    #[test]
+    fn version_2_files_get_the_traffic_for_their_deck_width() {
+        let text = demo_v2_text();
+        assert!(!text.contains("traffic") && text.contains("\"version\": 2"), "{text}");
+        let d = read_design_json(&text).expect("reads");
+        assert_eq!(d.version, DESIGN_VERSION);
+        assert_eq!(d.traffic.carriageway_width, 11.0);
+        assert!(d.traffic.rib_positions.is_empty());
+        assert!(matches!(d.traffic.load_model, LoadModel::EnLm1(_)));
+        assert_eq!(d.traffic.combinations.len(), 3);
+        assert_eq!(d, demo_without_traffic());
+        // the width is the file's own deck width
+        let mut value = demo_v2_value();
+        value["deck"]["width"] = Value::from(8.5);
+        let d = read_design_json(&value.to_string()).expect("reads");
+        assert_eq!(d.traffic, TrafficDesign::for_deck_width(8.5));
+        let mut value: Value = serde_json::from_str(&demo_v1_text()).expect("JSON");
+        value["deck"]["width"] = Value::from(8.5);
+        assert_eq!(
+            read_design_json(&value.to_string()).expect("reads").traffic,
+            TrafficDesign::for_deck_width(8.5)
+        );
+        // a deck width that is not a number: a traffic of zero width, and the deck is
+        // what the final read reports
+        let mut value = demo_v2_value();
+        value["deck"]["width"] = Value::from("wide");
+        let message = read_design_json(&value.to_string()).map_err(|e| e.to_string()).expect_err("refused");
+        assert!(message.contains("not a design of format 2"), "{message}");
+        let mut object = demo_v2_value().as_object().cloned().expect("object");
+        object["deck"]["width"] = Value::from("wide");
+        version_2_to_3(&mut object);
+        assert_eq!(object["traffic"]["carriageway_width"], Value::from(0.0));
+        // a version-2 file that already names a traffic (written while the field was
+        // being added) keeps it
+        let mut value = demo_v2_value();
+        let hl93 = TrafficDesign::preset(ModelFamily::Hl93, 9.0);
+        value["traffic"] = serde_json::to_value(&hl93).expect("serialises");
+        assert_eq!(read_design_json(&value.to_string()).expect("reads").traffic, hl93);
     }
 
     #[test]
@@ -211,10 +277,9 @@ mod tests {
         let e = file_error(read_design_json(&with_version("7")));
         assert_eq!(e, DesignFileError::NewerVersion { version: 7, readable: READABLE_DESIGN_VERSIONS });
         let message = StaticsError::DesignFile(e).to_string();
-        assert!(
-            message.contains("made by a newer version of Springline (format 7; this one reads 1 to 2)"),
-            "{message}"
-        );
+        let expected =
+            format!("made by a newer version of Springline (format 7; this one reads 1 to {DESIGN_VERSION})");
+        assert!(message.contains(&expected), "{message}");
         assert!(matches!(
             file_error(read_design_json(&with_version("0"))),
             DesignFileError::UnknownVersion { version: 0, .. }
@@ -249,7 +314,9 @@ mod tests {
         let text = write_design_json(&Design::demo()).replace("\"panels\": 12", "\"panels\": \"twelve\"");
         let line = text.lines().position(|l| l.contains("twelve")).expect("the line") + 1;
         match file_error(read_design_json(&text)) {
-            DesignFileError::NotADesign { version: 2, at: Some((l, _)), detail } => {
+            DesignFileError::NotADesign { version, at: Some((l, _)), detail }
+                if version == u64::from(DESIGN_VERSION) =>
+            {
                 assert_eq!(l, line);
                 assert!(detail.contains("invalid type"), "{detail}");
             }
@@ -264,40 +331,47 @@ mod tests {
         assert!(message.contains("not a design of format 1") && message.contains("deck"), "{message}");
     }
 
-    /// The field a hypothetical version 3 adds, and its default (test only).
-    const FIELD_OF_VERSION_3: &str = "field_of_version_3";
-    const DEFAULT_OF_VERSION_3: f64 = 0.25;
+    /// The field a hypothetical version 4 adds, and its default (test only).
+    const FIELD_OF_VERSION_4: &str = "field_of_version_4";
+    const DEFAULT_OF_VERSION_4: f64 = 0.25;
 
-    fn version_2_to_3(design: &mut Map<String, Value>) {
-        design.entry(FIELD_OF_VERSION_3).or_insert(Value::from(DEFAULT_OF_VERSION_3));
+    fn version_3_to_4(design: &mut Map<String, Value>) {
+        design.entry(FIELD_OF_VERSION_4).or_insert(Value::from(DEFAULT_OF_VERSION_4));
     }
 
     /// How a later version adds a field without breaking older files: one more step.
-    /// Files of versions 1 and 2 reach version 3 through the whole chain with the
-    /// defaults of both steps; a version-3 file keeps its value; and today's reader,
-    /// which knows no version 3, refuses such a file as made by a newer version.
+    /// Files of versions 1 to 3 reach version 4 through the whole chain with the
+    /// defaults of every step; a version-4 file keeps its value; and today's reader,
+    /// which knows no version 4, refuses such a file as made by a newer version.
     #[test]
     fn a_later_version_adds_a_field_by_one_more_step() {
-        let steps: &[Step] = &[version_1_to_2, version_2_to_3];
+        assert_eq!(DESIGN_VERSION, 3, "model the version after today's here");
+        let steps: &[Step] = &[version_1_to_2, version_2_to_3, version_3_to_4];
         let v1 = demo_v1_text();
-        let v2 = write_design_json(&Design::demo());
-        for (text, declared) in [(&v1, 1), (&v2, 2)] {
+        let v2 = demo_v2_text();
+        let v3 = write_design_json(&Design::demo());
+        let demo_traffic = serde_json::to_value(Design::demo().traffic).expect("serialises");
+        let default_traffic = serde_json::to_value(TrafficDesign::for_deck_width(11.0)).expect("serialises");
+        for (text, declared, traffic) in
+            [(&v1, 1, &default_traffic), (&v2, 2, &default_traffic), (&v3, 3, &demo_traffic)]
+        {
             let (version, value) = updated_json(text, steps).expect("reads");
             assert_eq!(version, declared);
-            assert_eq!(value["version"], Value::from(3));
+            assert_eq!(value["version"], Value::from(4));
             assert_eq!(value["deck"]["abutment_height"], Value::from(DEFAULT_ABUTMENT_HEIGHT));
-            assert_eq!(value[FIELD_OF_VERSION_3], Value::from(DEFAULT_OF_VERSION_3));
+            assert_eq!(&value["traffic"], traffic, "version {declared}");
+            assert_eq!(value[FIELD_OF_VERSION_4], Value::from(DEFAULT_OF_VERSION_4));
         }
-        let mut v3: Value = serde_json::from_str(&v2).expect("JSON");
-        v3["version"] = Value::from(3);
-        v3[FIELD_OF_VERSION_3] = Value::from(0.5);
-        let v3 = serde_json::to_string_pretty(&v3).expect("serialises");
-        let (_, value) = updated_json(&v3, steps).expect("reads");
-        assert_eq!(value[FIELD_OF_VERSION_3], Value::from(0.5));
+        let mut v4: Value = serde_json::from_str(&v3).expect("JSON");
+        v4["version"] = Value::from(4);
+        v4[FIELD_OF_VERSION_4] = Value::from(0.5);
+        let v4 = serde_json::to_string_pretty(&v4).expect("serialises");
+        let (_, value) = updated_json(&v4, steps).expect("reads");
+        assert_eq!(value[FIELD_OF_VERSION_4], Value::from(0.5));
         // today's reader
-        let message = read_design_json(&v3).map_err(|e| e.to_string()).expect_err("refused");
+        let message = read_design_json(&v4).map_err(|e| e.to_string()).expect_err("refused");
         assert!(
-            message.contains("made by a newer version of Springline (format 3; this one reads 1 to 2)"),
+            message.contains("made by a newer version of Springline (format 4; this one reads 1 to 3)"),
             "{message}"
         );
     }

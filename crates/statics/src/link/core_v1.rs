@@ -156,7 +156,8 @@ pub(super) fn from_design(d: &Design) -> Wire {
 }
 
 /// The design of a core. Fields outside the core take the value a design of format 1
-/// had (the abutment height `DEFAULT_ABUTMENT_HEIGHT`); sections read later overwrite
+/// had (the abutment height `DEFAULT_ABUTMENT_HEIGHT`, the traffic
+/// `TrafficDesign::for_deck_width` of the deck width); sections read later overwrite
 /// them. The version is the core's, unchanged: the caller checks and updates it.
 pub(super) fn into_design(w: Wire) -> Result<Design, LinkError> {
     let [rib, deck_group, posts, piers, bracing_group] = &w.groups;

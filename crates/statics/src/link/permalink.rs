@@ -16,14 +16,16 @@
 //!   `s1` is the core alone.
 //! * `s2` follows the core with a list of tagged *sections* (`sections`): a count, then
 //!   per section its tag and its body, the length-prefixed postcard bytes of a frozen
-//!   struct of its own. Design format 2 adds section 1, the abutment height. A later
+//!   struct of its own. Design format 2 adds section 1, the abutment height; design format
+//!   3 section 2, the traffic (carriageway, rib positions, load model, combinations). A later
 //!   design field is a new section with a new tag, so the layout grows without a new
 //!   link format and without breaking old links: a reader fills the default of every
 //!   section a link lacks and refuses a tag it does not know ("made by a newer
 //!   version"), never dropping a value the user set.
 //! * The core starts with the design format version of the writer. A link of a newer
 //!   design version than this reader is refused; an older one is updated to the
-//!   current version as it is read (`s1`: design format 1, abutment height 10 m).
+//!   current version as it is read (`s1`: design format 1, abutment height 10 m; `s1` and
+//!   `s2` links without section 2: EN 1991-2 Load Model 1 over the whole deck width).
 //! * postcard is a compact binary serde format: varint integers, f64 as their 8
 //!   little-endian bytes, so every number comes back bit for bit.
 //! * The zlib wrapper carries an Adler-32 checksum of the inflated bytes: a cut or damaged
@@ -85,7 +87,7 @@ const MAX_CASE_ID_LEN: usize = 40;
 /// Longest input [`decode`] looks at, bytes (a link of the demo design is well under
 /// 2,000; URLs much longer than this are cut by some browsers and chat tools anyway).
 pub const MAX_LINK_LEN: usize = 8_000;
-/// Largest inflated payload accepted, bytes (the demo design takes a few hundred; this leaves
+/// Largest inflated payload accepted, bytes (the demo design takes about a thousand; this leaves
 /// room for a valley of a few thousand points).
 pub const MAX_INFLATED_BYTES: usize = 64 * 1024;
 /// Deflate level used by [`encode`] (miniz scale 0 to 10; links are small, so the best).
@@ -326,7 +328,8 @@ fn updated_version(
 }
 
 /// Link format 1: the core alone (design format 1, updated to the current version: the
-/// abutment height takes its default, 10 m).
+/// abutment height takes its default, 10 m, and the traffic Load Model 1 over the whole
+/// deck width).
 fn read_s1(bytes: &[u8]) -> Result<Design, LinkError> {
     let mut design = core_v1::into_design(from_postcard::<core_v1::Wire>(bytes)?)?;
     design.version = updated_version(design.version, "s1", S1_DESIGN_VERSIONS, DESIGN_VERSION)?;
@@ -394,7 +397,9 @@ fn inflate(packed: &[u8]) -> Result<Vec<u8>, LinkError> {
 mod tests {
     use super::*;
     use crate::arch::design::{Bracing, Crown, GroundPoint, RibSystem, DEFAULT_ABUTMENT_HEIGHT};
-    use crate::link::sections::{TAG_ABUTMENT, TAG_RESERVED_FOR_TESTS};
+    use crate::link::sections::{TAG_ABUTMENT, TAG_RESERVED_FOR_TESTS, TAG_TRAFFIC};
+    use crate::traffic::models::{LoadModel, ModelFamily};
+    use crate::traffic::TrafficDesign;
     use proptest::prelude::*;
 
     /// The kind of a refused link.
@@ -418,6 +423,20 @@ mod tests {
     /// A design as the version-1 engine linked it: format `s1`, design format 1.
     fn s1_link(design: &Design) -> String {
         pack("s1", &postcard_bytes(&core_v1::from_design(&Design { version: 1, ..design.clone() })))
+    }
+
+    /// A design as a link without the traffic section opens it: the traffic of design
+    /// format 2 and earlier, EN 1991-2 Load Model 1 over the whole deck width.
+    fn without_traffic(design: &Design) -> Design {
+        Design { traffic: TrafficDesign::for_deck_width(design.deck.width), ..design.clone() }
+    }
+
+    /// The demo with an HL-93 traffic on a 9.0 m carriageway over ribs placed by hand.
+    fn demo_with_hl93() -> Design {
+        let mut d = Design::demo();
+        d.traffic = TrafficDesign::preset(ModelFamily::Hl93, 9.0);
+        d.traffic.rib_positions = vec![-3.5, 3.5];
+        d
     }
 
     /// The `s2` bytes of a design with its core's design version set to `version`.
@@ -447,6 +466,13 @@ mod tests {
         let mut tall = d;
         tall.deck.abutment_height = 6.5;
         assert_eq!(decode(&encode(&tall)), Ok(tall));
+        // so does a traffic of another model, carriageway and rib positions
+        let hl93 = demo_with_hl93();
+        let opened = decode(&encode(&hl93)).expect("opens");
+        assert_eq!(opened.traffic.carriageway_width, 9.0);
+        assert_eq!(opened.traffic.rib_positions, [-3.5, 3.5]);
+        assert!(matches!(opened.traffic.load_model, LoadModel::Hl93(_)));
+        assert_eq!(opened, hl93);
     }
 
     #[test]
@@ -454,33 +480,54 @@ mod tests {
         let demo = Design::demo();
         let link = s1_link(&demo);
         assert!(link.starts_with("s1."), "{link}");
-        // design format 1 had no abutment height: it opens with the default, 10 m
+        // design format 1 had no abutment height and no traffic: it opens with their
+        // defaults, 10 m and Load Model 1 over the whole 11 m deck
         let opened = decode(&link).expect("opens");
         assert_eq!(opened.version, DESIGN_VERSION);
         assert_eq!(opened.deck.abutment_height, DEFAULT_ABUTMENT_HEIGHT);
-        assert_eq!(opened, demo);
-        let mut other = demo.clone();
+        assert_eq!(opened.traffic, TrafficDesign::for_deck_width(11.0));
+        assert_eq!(opened, without_traffic(&demo));
+        let mut other = demo_with_hl93();
         other.deck.abutment_height = 4.0;
-        assert_eq!(decode(&s1_link(&other)), Ok(demo));
+        assert_eq!(decode(&s1_link(&other)), Ok(without_traffic(&demo)));
+    }
+
+    /// An `s2` link written before the traffic section (design format 2) opens with the
+    /// traffic's default for its deck width, whatever today's demo carries.
+    #[test]
+    fn s2_links_without_the_traffic_section_open_with_its_default() {
+        let mut d = demo_with_hl93();
+        d.deck.width = 12.0;
+        d.deck.abutment_height = 6.5;
+        let core = core_v1::from_design(&Design { version: 2, ..d.clone() });
+        let abutment_only: Vec<RawSection> =
+            sections::write_all(SECTIONS, &d).into_iter().filter(|s| s.tag == TAG_ABUTMENT).collect();
+        let link = pack("s2", &postcard_bytes(&WireS2 { core, sections: abutment_only }));
+        let opened = decode(&link).expect("opens");
+        assert_eq!(opened.version, DESIGN_VERSION);
+        assert_eq!(opened.deck.abutment_height, 6.5);
+        assert_eq!(opened.traffic.carriageway_width, 12.0);
+        assert_eq!(opened, without_traffic(&d));
     }
 
     #[test]
     fn design_versions_outside_a_format_are_refused() {
         let demo = Design::demo();
         // a later Springline's design format in an s2 link
-        let link = pack("s2", &s2_bytes_with_version(&demo, 3));
+        let later = DESIGN_VERSION + 1;
+        let link = pack("s2", &s2_bytes_with_version(&demo, later));
         assert_eq!(
             kind(decode(&link)),
             LinkError::NewerVersion {
-                version: 3,
+                version: u64::from(later),
                 readable: VersionRange { oldest: 1, newest: DESIGN_VERSION }
             }
         );
         let r = reason(decode(&link));
-        assert!(
-            r.contains("made by a newer version of Springline (design format 3; this one reads 1 to 2)"),
-            "{r}"
+        let expected = format!(
+            "made by a newer version of Springline (design format {later}; this one reads 1 to {DESIGN_VERSION})"
         );
+        assert!(r.contains(&expected), "{r}");
         // versions no Springline wrote in these formats
         let link = pack("s2", &s2_bytes_with_version(&demo, 1));
         assert!(matches!(kind(decode(&link)), LinkError::Invalid(p) if p[0].location.path() == "version"));
@@ -684,12 +731,17 @@ mod tests {
 
     /// The sections the later version knows: every shipped one, then its new one.
     fn later_kinds() -> Vec<SectionKind<Later>> {
-        assert_eq!(SECTIONS.len(), 1, "list every shipped section here");
+        assert_eq!(SECTIONS.len(), 2, "list every shipped section here");
         vec![
             SectionKind {
                 tag: TAG_ABUTMENT,
                 write: shipped_write::<TAG_ABUTMENT>,
                 read: shipped_read::<TAG_ABUTMENT>,
+            },
+            SectionKind {
+                tag: TAG_TRAFFIC,
+                write: shipped_write::<TAG_TRAFFIC>,
+                read: shipped_read::<TAG_TRAFFIC>,
             },
             SectionKind { tag: TAG_RESERVED_FOR_TESTS, write: later_write, read: later_read },
         ]
@@ -725,17 +777,23 @@ mod tests {
     fn a_later_field_is_a_new_section_that_old_links_lack() {
         let demo = Design::demo();
         let later_demo = Design { version: LATER_VERSION, ..demo.clone() };
-        // old links, later reader: defaults
-        for old in [encode(&demo), s1_link(&demo)] {
-            assert_eq!(later_decode(&old), Ok(Later { design: later_demo.clone(), extra: LATER_DEFAULT }));
+        // old links, later reader: defaults (an s1 link lacks the traffic too)
+        for (old, design) in
+            [(encode(&demo), later_demo.clone()), (s1_link(&demo), without_traffic(&later_demo))]
+        {
+            assert_eq!(later_decode(&old), Ok(Later { design, extra: LATER_DEFAULT }));
         }
-        // later links, later reader: the value
-        let mut later = Later { design: later_demo.clone(), extra: 0.75 };
+        // later links, later reader: the value, beside every shipped section's
+        let mut later = Later { design: demo_with_hl93(), extra: 0.75 };
+        later.design.version = LATER_VERSION;
         later.design.deck.abutment_height = 6.5;
         assert_eq!(later_decode(&later_encode(&later, LATER_VERSION)), Ok(later.clone()));
         // later links, today's reader: refused as made by a newer version
         let bumped = kind(decode(&later_encode(&later, LATER_VERSION)));
-        assert!(matches!(bumped, LinkError::NewerVersion { version: 3, .. }), "{bumped:?}");
+        assert!(
+            matches!(bumped, LinkError::NewerVersion { version, .. } if version == u64::from(LATER_VERSION)),
+            "{bumped:?}"
+        );
         let same_version = kind(decode(&later_encode(&later, DESIGN_VERSION)));
         assert_eq!(same_version, LinkError::NewerSection { tag: TAG_RESERVED_FOR_TESTS });
         for k in [bumped, same_version] {
@@ -751,8 +809,9 @@ mod tests {
             proptest::collection::vec(0.5f64..2.0, 25),
             (-2.0f64..2.0, 0.0f64..2.5, 1usize..4, "[ -~]{0,40}", 1e-12f64..1e-3, 1usize..500),
             1.0f64..30.0,
+            (0usize..4, 0.3f64..1.0, any::<bool>(), 0.0f64..1.0),
         )
-            .prop_map(|(geo, sys, scales, misc, abutment_height)| {
+            .prop_map(|(geo, sys, scales, misc, abutment_height, traffic)| {
                 let (dl, dr, rise_or_gap, by_rise, panels) = geo;
                 let (rib, brace, pl, pr, flipped) = sys;
                 let (floor, min_post, ribs, name, tol, iters) = misc;
@@ -798,6 +857,18 @@ mod tests {
                 d.name = name;
                 d.form.tolerance = tol;
                 d.form.max_iterations = iters;
+                let (family, carriageway, by_hand, shift) = traffic;
+                d.traffic = TrafficDesign::preset(ModelFamily::ALL[family], d.deck.width * carriageway);
+                if by_hand {
+                    // evenly over 80 % of the deck, shifted off the centreline by up to 5 %
+                    let (half, n) = (d.deck.width / 2.0, d.deck.ribs);
+                    d.traffic.rib_positions = (0..n)
+                        .map(|k| {
+                            let at = if n == 1 { 0.0 } else { -0.8 + 1.6 * k as f64 / (n - 1) as f64 };
+                            half * (at + 0.1 * (shift - 0.5))
+                        })
+                        .collect();
+                }
                 d
             })
     }
@@ -818,7 +889,7 @@ mod tests {
         #[test]
         fn wire_round_trip_is_bit_exact(
             xs in proptest::collection::vec(any::<f64>(), 12),
-            counts in proptest::collection::vec(any::<usize>(), 5),
+            counts in proptest::collection::vec(any::<usize>(), 6),
             name in ".{0,30}",
         ) {
             let mut d = Design::demo();
@@ -833,12 +904,25 @@ mod tests {
             d.approach_piers_left = counts[2];
             d.approach_piers_right = counts[3];
             d.form.max_iterations = counts[4];
+            d.traffic = TrafficDesign::preset(ModelFamily::UserDefined, xs[5]);
+            d.traffic.rib_positions = xs[6..9].to_vec();
+            if let LoadModel::UserDefined(m) = &mut d.traffic.load_model {
+                m.variable_spacing = Some((counts[5], xs[9], xs[10]));
+                m.axles = vec![xs[11]];
+            }
+            d.traffic.combinations[0].name = name.clone();
             d.name = name;
             let back = decode_unchecked(&encode(&d)).map_err(|e| TestCaseError::fail(e.to_string()))?;
             prop_assert_eq!(format!("{back:?}"), format!("{d:?}"));
             let bits = |d: &Design| {
                 let mut bits: Vec<u64> = d.valley.iter().flat_map(|p| [p.x.to_bits(), p.y.to_bits()]).collect();
                 bits.push(d.deck.abutment_height.to_bits());
+                bits.push(d.traffic.carriageway_width.to_bits());
+                bits.extend(d.traffic.rib_positions.iter().map(|y| y.to_bits()));
+                if let LoadModel::UserDefined(m) = &d.traffic.load_model {
+                    bits.extend(m.variable_spacing.iter().flat_map(|&(_, lo, hi)| [lo.to_bits(), hi.to_bits()]));
+                    bits.extend(m.axles.iter().map(|q| q.to_bits()));
+                }
                 bits
             };
             prop_assert_eq!(bits(&back), bits(&d));
@@ -969,8 +1053,8 @@ mod tests {
             }
             seen += 1;
         }
-        // 3 links of format s1 and 4 of s2 are committed
-        assert!(seen >= 7, "only {seen} fixture links found");
+        // 3 links of format s1 and 6 of s2 (2 with the traffic section) are committed
+        assert!(seen >= 9, "only {seen} fixture links found");
         assert_eq!(formats.into_iter().collect::<Vec<_>>(), ["s1", "s2"]);
     }
 }

@@ -1,6 +1,11 @@
 //! The tagged sections of link format `s2`: every design field added after design format
 //! 1 travels in a section of its own, after the frozen core (`core_v1`).
 //!
+//! | tag | design format | what |
+//! | --- | --- | --- |
+//! | 1 | 2 | the abutment height |
+//! | 2 | 3 | the traffic: carriageway, rib positions, load model, combinations |
+//!
 //! A section on the wire is its tag (a varint) and its body: the postcard bytes of the
 //! section's struct, length-prefixed. Each section struct is FROZEN once shipped, like the
 //! core: a later field never goes into an existing section; it gets a new section with a
@@ -26,6 +31,9 @@
 
 use crate::arch::design::Design;
 use crate::error::LinkError;
+use crate::traffic::combination::Combination;
+use crate::traffic::models::{Crowd, EnLm1, Hl93, LoadModel, UserDefined};
+use crate::traffic::TrafficDesign;
 use serde::de::DeserializeOwned;
 use serde::{Deserialize, Serialize};
 
@@ -51,13 +59,17 @@ pub(super) struct SectionKind<T> {
 
 /// The abutment height (design format 2).
 pub(super) const TAG_ABUTMENT: u32 = 1;
+/// The traffic (design format 3).
+pub(super) const TAG_TRAFFIC: u32 = 2;
 /// A tag no shipped section has: the tests use it for a section of a "later version".
 #[cfg(test)]
 pub(super) const TAG_RESERVED_FOR_TESTS: u32 = 9_999;
 
 /// Every section this version writes and reads, tags ascending.
-pub(super) const SECTIONS: &[SectionKind<Design>] =
-    &[SectionKind { tag: TAG_ABUTMENT, write: abutment::write, read: abutment::read }];
+pub(super) const SECTIONS: &[SectionKind<Design>] = &[
+    SectionKind { tag: TAG_ABUTMENT, write: abutment::write, read: abutment::read },
+    SectionKind { tag: TAG_TRAFFIC, write: traffic::write, read: traffic::read },
+];
 
 /// The sections of a target, one per kind, in the order of `kinds` (tags ascending).
 pub(super) fn write_all<T>(kinds: &[SectionKind<T>], target: &T) -> Vec<RawSection> {
@@ -126,6 +138,332 @@ mod abutment {
     }
 }
 
+/// Section 2 (design format 3): the whole traffic design.
+///
+/// The live types cannot travel as they are: the load model is an internally tagged
+/// enum in design files, which postcard (not self-describing) cannot read, and a live
+/// type may gain a field. So the section has frozen mirrors of its own, converted field
+/// by field; the destructuring of every live type is exhaustive, so a field added to
+/// one stops the build here, to be carried in a new section (never in these structs).
+mod traffic {
+    use super::*;
+
+    /// FROZEN: links hold this layout. `TrafficDesign`.
+    #[derive(Serialize, Deserialize)]
+    struct TrafficV1 {
+        /// m.
+        carriageway_width: f64,
+        /// m from the deck centreline, left to right; empty for evenly spaced ribs.
+        rib_positions: Vec<f64>,
+        load_model: LoadModelV1,
+        combinations: Vec<CombinationV1>,
+    }
+
+    /// FROZEN: the variants travel by their index, so their order never changes and a
+    /// new model is a new section.
+    #[derive(Serialize, Deserialize)]
+    enum LoadModelV1 {
+        EnLm1(EnLm1V1),
+        Hl93(Hl93V1),
+        Crowd(CrowdV1),
+        UserDefined(UserDefinedV1),
+    }
+
+    /// FROZEN: `models::EnLm1`.
+    #[derive(Serialize, Deserialize)]
+    struct EnLm1V1 {
+        lane_width: f64,
+        tandem_axle: [f64; 3],
+        udl_lane_1: f64,
+        udl_other_lanes: f64,
+        udl_remaining: f64,
+        alpha_tandem: [f64; 3],
+        alpha_udl_lane_1: f64,
+        alpha_udl_other: f64,
+        axle_spacing: f64,
+        wheel_gauge: f64,
+        footway_udl: f64,
+    }
+
+    /// FROZEN: `models::Hl93`.
+    #[derive(Serialize, Deserialize)]
+    struct Hl93V1 {
+        lane_width: f64,
+        truck_axles: [f64; 3],
+        truck_front_spacing: f64,
+        truck_rear_spacing_min: f64,
+        truck_rear_spacing_max: f64,
+        tandem_axle: f64,
+        tandem_spacing: f64,
+        wheel_gauge: f64,
+        lane_load: f64,
+        lane_load_width: f64,
+        impact: f64,
+        multiple_presence: [f64; 4],
+        two_truck_factor: f64,
+        two_truck_headway: f64,
+        two_truck_rear_spacing: f64,
+        pedestrian_load: f64,
+    }
+
+    /// FROZEN: `models::Crowd`.
+    #[derive(Serialize, Deserialize)]
+    struct CrowdV1 {
+        constant: f64,
+        numerator: f64,
+        length_offset: f64,
+        min: f64,
+        max: f64,
+        fixed: Option<f64>,
+    }
+
+    /// FROZEN: `models::UserDefined`; the index of the variable spacing as a `u64`, so a
+    /// link reads the same on 32- and 64-bit targets.
+    #[derive(Serialize, Deserialize)]
+    struct UserDefinedV1 {
+        uniform: f64,
+        axles: Vec<f64>,
+        spacings: Vec<f64>,
+        variable_spacing: Option<(u64, f64, f64)>,
+        lane_width: f64,
+        wheel_gauge: f64,
+    }
+
+    /// FROZEN: `combination::Combination`.
+    #[derive(Serialize, Deserialize)]
+    struct CombinationV1 {
+        name: String,
+        clause: String,
+        permanent_unfavourable: f64,
+        permanent_favourable: f64,
+        uniform: f64,
+        vehicle: f64,
+    }
+
+    pub(super) fn write(d: &Design) -> Vec<u8> {
+        let TrafficDesign { carriageway_width, rib_positions, load_model, combinations } = &d.traffic;
+        body(&TrafficV1 {
+            carriageway_width: *carriageway_width,
+            rib_positions: rib_positions.clone(),
+            load_model: model_out(load_model),
+            combinations: combinations.iter().map(combination_out).collect(),
+        })
+    }
+
+    pub(super) fn read(bytes: &[u8], d: &mut Design) -> Result<(), LinkError> {
+        let TrafficV1 { carriageway_width, rib_positions, load_model, combinations } =
+            frozen(TAG_TRAFFIC, bytes)?;
+        d.traffic = TrafficDesign {
+            carriageway_width,
+            rib_positions,
+            load_model: model_in(load_model)?,
+            combinations: combinations.into_iter().map(combination_in).collect(),
+        };
+        Ok(())
+    }
+
+    fn model_out(model: &LoadModel) -> LoadModelV1 {
+        match model {
+            LoadModel::EnLm1(m) => {
+                let EnLm1 {
+                    lane_width,
+                    tandem_axle,
+                    udl_lane_1,
+                    udl_other_lanes,
+                    udl_remaining,
+                    alpha_tandem,
+                    alpha_udl_lane_1,
+                    alpha_udl_other,
+                    axle_spacing,
+                    wheel_gauge,
+                    footway_udl,
+                } = *m;
+                LoadModelV1::EnLm1(EnLm1V1 {
+                    lane_width,
+                    tandem_axle,
+                    udl_lane_1,
+                    udl_other_lanes,
+                    udl_remaining,
+                    alpha_tandem,
+                    alpha_udl_lane_1,
+                    alpha_udl_other,
+                    axle_spacing,
+                    wheel_gauge,
+                    footway_udl,
+                })
+            }
+            LoadModel::Hl93(m) => {
+                let Hl93 {
+                    lane_width,
+                    truck_axles,
+                    truck_front_spacing,
+                    truck_rear_spacing_min,
+                    truck_rear_spacing_max,
+                    tandem_axle,
+                    tandem_spacing,
+                    wheel_gauge,
+                    lane_load,
+                    lane_load_width,
+                    impact,
+                    multiple_presence,
+                    two_truck_factor,
+                    two_truck_headway,
+                    two_truck_rear_spacing,
+                    pedestrian_load,
+                } = *m;
+                LoadModelV1::Hl93(Hl93V1 {
+                    lane_width,
+                    truck_axles,
+                    truck_front_spacing,
+                    truck_rear_spacing_min,
+                    truck_rear_spacing_max,
+                    tandem_axle,
+                    tandem_spacing,
+                    wheel_gauge,
+                    lane_load,
+                    lane_load_width,
+                    impact,
+                    multiple_presence,
+                    two_truck_factor,
+                    two_truck_headway,
+                    two_truck_rear_spacing,
+                    pedestrian_load,
+                })
+            }
+            LoadModel::Crowd(m) => {
+                let Crowd { constant, numerator, length_offset, min, max, fixed } = *m;
+                LoadModelV1::Crowd(CrowdV1 { constant, numerator, length_offset, min, max, fixed })
+            }
+            LoadModel::UserDefined(m) => {
+                let UserDefined { uniform, axles, spacings, variable_spacing, lane_width, wheel_gauge } = m;
+                LoadModelV1::UserDefined(UserDefinedV1 {
+                    uniform: *uniform,
+                    axles: axles.clone(),
+                    spacings: spacings.clone(),
+                    // usize always fits u64 on the targets we build for (64 and 32 bit)
+                    variable_spacing: variable_spacing.map(|(index, min, max)| (index as u64, min, max)),
+                    lane_width: *lane_width,
+                    wheel_gauge: *wheel_gauge,
+                })
+            }
+        }
+    }
+
+    fn model_in(model: LoadModelV1) -> Result<LoadModel, LinkError> {
+        Ok(match model {
+            LoadModelV1::EnLm1(m) => {
+                let EnLm1V1 {
+                    lane_width,
+                    tandem_axle,
+                    udl_lane_1,
+                    udl_other_lanes,
+                    udl_remaining,
+                    alpha_tandem,
+                    alpha_udl_lane_1,
+                    alpha_udl_other,
+                    axle_spacing,
+                    wheel_gauge,
+                    footway_udl,
+                } = m;
+                LoadModel::EnLm1(EnLm1 {
+                    lane_width,
+                    tandem_axle,
+                    udl_lane_1,
+                    udl_other_lanes,
+                    udl_remaining,
+                    alpha_tandem,
+                    alpha_udl_lane_1,
+                    alpha_udl_other,
+                    axle_spacing,
+                    wheel_gauge,
+                    footway_udl,
+                })
+            }
+            LoadModelV1::Hl93(m) => {
+                let Hl93V1 {
+                    lane_width,
+                    truck_axles,
+                    truck_front_spacing,
+                    truck_rear_spacing_min,
+                    truck_rear_spacing_max,
+                    tandem_axle,
+                    tandem_spacing,
+                    wheel_gauge,
+                    lane_load,
+                    lane_load_width,
+                    impact,
+                    multiple_presence,
+                    two_truck_factor,
+                    two_truck_headway,
+                    two_truck_rear_spacing,
+                    pedestrian_load,
+                } = m;
+                LoadModel::Hl93(Hl93 {
+                    lane_width,
+                    truck_axles,
+                    truck_front_spacing,
+                    truck_rear_spacing_min,
+                    truck_rear_spacing_max,
+                    tandem_axle,
+                    tandem_spacing,
+                    wheel_gauge,
+                    lane_load,
+                    lane_load_width,
+                    impact,
+                    multiple_presence,
+                    two_truck_factor,
+                    two_truck_headway,
+                    two_truck_rear_spacing,
+                    pedestrian_load,
+                })
+            }
+            LoadModelV1::Crowd(m) => {
+                let CrowdV1 { constant, numerator, length_offset, min, max, fixed } = m;
+                LoadModel::Crowd(Crowd { constant, numerator, length_offset, min, max, fixed })
+            }
+            LoadModelV1::UserDefined(m) => {
+                let UserDefinedV1 { uniform, axles, spacings, variable_spacing, lane_width, wheel_gauge } = m;
+                let variable_spacing = match variable_spacing {
+                    Some((index, min, max)) => {
+                        let index = usize::try_from(index).map_err(|_| LinkError::TooLargeCount {
+                            what: "index of the vehicle's variable spacing",
+                            value: index,
+                        })?;
+                        Some((index, min, max))
+                    }
+                    None => None,
+                };
+                LoadModel::UserDefined(UserDefined {
+                    uniform,
+                    axles,
+                    spacings,
+                    variable_spacing,
+                    lane_width,
+                    wheel_gauge,
+                })
+            }
+        })
+    }
+
+    fn combination_out(c: &Combination) -> CombinationV1 {
+        let Combination { name, clause, permanent_unfavourable, permanent_favourable, uniform, vehicle } = c;
+        CombinationV1 {
+            name: name.clone(),
+            clause: clause.clone(),
+            permanent_unfavourable: *permanent_unfavourable,
+            permanent_favourable: *permanent_favourable,
+            uniform: *uniform,
+            vehicle: *vehicle,
+        }
+    }
+
+    fn combination_in(c: CombinationV1) -> Combination {
+        let CombinationV1 { name, clause, permanent_unfavourable, permanent_favourable, uniform, vehicle } =
+            c;
+        Combination { name, clause, permanent_unfavourable, permanent_favourable, uniform, vehicle }
+    }
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -155,5 +493,73 @@ mod tests {
         assert!(matches!(read_all(&short, SECTIONS, &mut d), Err(LinkError::DamagedSection { .. })));
         let unknown = [RawSection { tag: 7, body: vec![] }];
         assert_eq!(read_all(&unknown, SECTIONS, &mut d), Err(LinkError::NewerSection { tag: 7 }));
+    }
+
+    /// A traffic of every load model family, each with values off its preset (and the
+    /// options of the crowd and the vehicle set), for the section's round trips.
+    fn traffics() -> Vec<TrafficDesign> {
+        use crate::traffic::models::ModelFamily;
+        ModelFamily::ALL
+            .into_iter()
+            .map(|family| {
+                let mut t = TrafficDesign::preset(family, 9.0);
+                t.rib_positions = vec![-3.25, 0.5, 3.25];
+                match &mut t.load_model {
+                    LoadModel::EnLm1(m) => m.alpha_tandem = [0.9, 0.8, 0.7],
+                    LoadModel::Hl93(m) => m.multiple_presence[3] = 0.6,
+                    LoadModel::Crowd(m) => m.fixed = Some(4.5),
+                    LoadModel::UserDefined(m) => {
+                        m.axles = vec![60.0, 120.0, 120.0];
+                        m.spacings = vec![3.0, 4.0];
+                        m.variable_spacing = Some((1, 4.0, 8.5));
+                    }
+                }
+                t.combinations[0].name = "ULS, owner's factors".into();
+                t.combinations[0].vehicle = 1.5;
+                t.combinations.pop();
+                t
+            })
+            .collect()
+    }
+
+    #[test]
+    fn every_load_model_travels_in_the_traffic_section_exactly() {
+        for traffic in traffics() {
+            let mut d = Design::demo();
+            d.traffic = traffic.clone();
+            let sections = write_all(SECTIONS, &d);
+            assert_eq!(sections.iter().map(|s| s.tag).collect::<Vec<_>>(), [TAG_ABUTMENT, TAG_TRAFFIC]);
+            let mut back = Design::demo();
+            read_all(&sections, SECTIONS, &mut back).expect("reads");
+            assert_eq!(back.traffic, traffic);
+            assert_eq!(back, d);
+        }
+        // a link without the section keeps the traffic the core gave
+        let mut d = Design::demo();
+        let before = d.traffic.clone();
+        read_all(&write_all(SECTIONS, &d)[..1], SECTIONS, &mut d).expect("reads");
+        assert_eq!(d.traffic, before);
+    }
+
+    /// The layout of the section is frozen: the load model's variant travels as its index
+    /// (0 EN LM1, 1 HL-93, 2 crowd, 3 user-defined) after the carriageway width (8 bytes)
+    /// and the count of rib positions (one varint byte for 0 to 127).
+    #[test]
+    fn the_load_models_travel_by_their_frozen_index() {
+        use crate::traffic::models::ModelFamily;
+        for (index, family) in ModelFamily::ALL.into_iter().enumerate() {
+            let mut d = Design::demo();
+            d.traffic = TrafficDesign::preset(family, 7.5);
+            let body = traffic::write(&d);
+            assert_eq!(body[..8], 7.5f64.to_le_bytes(), "{family:?}");
+            assert_eq!(body[8], 0, "{family:?}: no rib positions");
+            assert_eq!(usize::from(body[9]), index, "{family:?}");
+        }
+        // a variant no shipped model has is refused as a damaged section
+        let mut d = Design::demo();
+        let mut body = traffic::write(&d);
+        body[9] = 4;
+        let e = read_all(&[RawSection { tag: TAG_TRAFFIC, body }], SECTIONS, &mut d);
+        assert!(matches!(e, Err(LinkError::DamagedSection { tag: TAG_TRAFFIC, .. })), "{e:?}");
     }
 }
