@@ -97,7 +97,7 @@ pub enum Half {
 pub enum CaseKind {
     /// The dead load, which is also the form-finding load.
     Dead,
-    /// Dead load plus a live load on one half of the arch span.
+    /// Dead load plus a uniform traffic load on one half of the arch span.
     HalfSpan {
         /// Which half.
         half: Half,
@@ -163,8 +163,8 @@ impl fmt::Display for CaseKind {
             CaseKind::Dead => f.write_str("dead load: deck, surfacing and self-weight (the form-finding load)"),
             CaseKind::HalfSpan { half, intensity, line_load, x0, x1 } => write!(
                 f,
-                "dead load plus {intensity} kN/m2 over the deck width ({line_load:.2} kN/m) on the {half} half of the \
-                 arch span (x = {x0:.3} to {x1:.3} m), reaching the deck joints as panel reactions"
+                "dead load plus {line_load:.2} kN/m ({intensity:.2} kN/m2 over the deck width) on the {half} half of \
+                 the arch span (x = {x0:.3} to {x1:.3} m), reaching the deck joints as panel reactions"
             ),
             CaseKind::DoubledPanel { panel, load, x } => write!(
                 f,
@@ -227,11 +227,11 @@ impl CaseKind {
     }
 
     /// A short title in words, without numbers or units (a button, a table caption):
-    /// "Dead load", "Live load, left half", "Heavier panel 3", "Deck loads".
+    /// "Dead load", "Traffic, left half", "Heavier panel 3", "Deck loads".
     pub fn title(&self) -> String {
         match *self {
             CaseKind::Dead => "Dead load".into(),
-            CaseKind::HalfSpan { half, .. } => format!("Live load, {half} half"),
+            CaseKind::HalfSpan { half, .. } => format!("Traffic, {half} half"),
             CaseKind::DoubledPanel { panel, .. } => format!("Heavier panel {panel}"),
             CaseKind::FullSpan { .. } => "Traffic, full span".into(),
             CaseKind::Quarter { quarter, .. } => format!("Traffic, quarter {quarter}"),
@@ -248,10 +248,10 @@ impl CaseKind {
         let show = |q, v| units.show(q, v);
         match *self {
             CaseKind::HalfSpan { half, intensity, line_load, x0, x1 } => format!(
-                "dead load plus {} over the deck width ({}) on the {half} half of the arch span \
+                "dead load plus {} ({} over the deck width) on the {half} half of the arch span \
                  (x = {} to {}), reaching the deck joints as panel reactions",
-                show(Quantity::Pressure, intensity),
                 show(Quantity::LineLoad, line_load),
+                show(Quantity::Pressure, intensity),
                 show(Quantity::Length, x0),
                 show(Quantity::Length, x1),
             ),
@@ -683,7 +683,7 @@ mod tests {
     fn case_titles_are_words_and_descriptions_convert_units() {
         let half =
             CaseKind::HalfSpan { half: Half::Left, intensity: 5.0, line_load: 55.0, x0: 30.0, x1: 83.2 };
-        assert_eq!(half.title(), "Live load, left half");
+        assert_eq!(half.title(), "Traffic, left half");
         assert_eq!(CaseKind::DoubledPanel { panel: 3, load: 913.5, x: 56.6 }.title(), "Heavier panel 3");
         let us = half.describe(Units::UsCustomary);
         // 5.0 kN/m2 = 104.4 psf; 55 kN/m = 3.769 kip/ft; 30 m = 98.43 ft (NIST SP 811 factors)
@@ -691,6 +691,6 @@ mod tests {
         assert!(us.contains("x = 98.43\u{a0}ft"), "{us}");
         assert!(!us.contains("kN") && !us.contains(" m "), "{us}");
         let si = half.describe(Units::Si);
-        assert!(si.contains("5.000\u{a0}kN/m²") && si.contains("55.00\u{a0}kN/m)"), "{si}");
+        assert!(si.contains("(5.000\u{a0}kN/m²") && si.contains("55.00\u{a0}kN/m "), "{si}");
     }
 }

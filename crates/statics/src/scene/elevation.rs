@@ -698,7 +698,7 @@ mod tests {
         let truss = ElevationOptions { model: ModelKind::Truss, case: 1, ..Default::default() };
         let s = elevation(&a, &d, &truss, Viewport::new(900.0, 440.0));
         let title = label_starting(&s, "Elevation · truss idealisation").expect("truss title");
-        assert!(title.text.contains("Live load, left half"), "{}", title.text);
+        assert!(title.text.contains("Traffic, left half"), "{}", title.text);
         assert!(s.labels.iter().any(|l| l.text.contains("not in the truss idealisation")));
     }
 
@@ -732,8 +732,9 @@ mod tests {
     }
 
     /// The title's full case description (shown on hover) follows the units: a US
-    /// half-span case in psf and ft (5 kN/m² is 104.4 psf: 1 psf = 0.04788 kN/m², NIST SP
-    /// 811).
+    /// half-span case in psf and ft: the demo's traffic (EN LM1, 48.75 kN/m over the
+    /// section, worked in `traffic::sharing`) over its 11 m deck is 4.432 kN/m², 92.56 psf
+    /// (1 psf = 0.04788 kN/m², NIST SP 811).
     #[test]
     fn the_case_detail_speaks_the_chosen_units() {
         let d = Design::demo();
@@ -746,7 +747,7 @@ mod tests {
         let opts = ElevationOptions { units: Units::UsCustomary, case: half, ..Default::default() };
         let s = elevation(&a, &d, &opts, Viewport::new(900.0, 440.0));
         let detail = s.labels.iter().find_map(|l| l.detail.clone()).expect("the title's detail");
-        assert!(detail.contains("104.4\u{a0}psf"), "{detail}");
+        assert!(detail.contains("92.56\u{a0}psf"), "{detail}");
         assert!(detail.contains("\u{a0}ft") && !detail.contains("kN"), "{detail}");
     }
 

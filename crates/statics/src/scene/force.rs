@@ -1125,8 +1125,9 @@ mod tests {
     use super::*;
 
     /// The case line of the header follows the units: a US half-span case in psf, kip/ft
-    /// and ft, no SI unit left (5 kN/m² / 0.04788 kN/m² per psf = 104.4 psf, NIST SP 811
-    /// factor for lbf/ft²).
+    /// and ft, no SI unit left. The demo's traffic is 48.75 kN/m over the section (EN LM1,
+    /// worked in `traffic::sharing`): 48.75 / 14.594 = 3.34 kip/ft, and over the 11 m deck
+    /// 4.432 kN/m² / 0.04788 = 92.56 psf (NIST SP 811 factors).
     #[test]
     fn the_case_line_speaks_the_chosen_units() {
         use crate::arch::analysis::analyze;
@@ -1142,10 +1143,10 @@ mod tests {
         let line = s
             .labels
             .iter()
-            .find(|l| l.text == "Live load, left half")
+            .find(|l| l.text == "Traffic, left half")
             .and_then(|l| l.detail.clone())
             .expect("the case line, its title shown and its description on hover");
-        assert!(line.contains("104.4\u{a0}psf"), "{line}");
+        assert!(line.contains("92.56\u{a0}psf") && line.contains("3.340\u{a0}kip/ft"), "{line}");
         assert!(line.contains("kip/ft") && line.contains("\u{a0}ft)"), "{line}");
         assert!(!line.contains("kN") && !line.contains("\u{a0}m)"), "{line}");
     }
