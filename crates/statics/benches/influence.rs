@@ -4,12 +4,20 @@
 //! of 35, 145, 145 kN with its rear spacing searched from 4.3 to 9.0 m (HL-93 values,
 //! AASHTO LRFD 3.6.1.2; from memory), at 16 and 32 panels.
 //!
+//! Then the whole traffic report a design gets (`arch::traffic::traffic_envelopes`):
+//! the dead case, every influence line, the lane sharing and every line's envelope for
+//! each vehicle arrangement and combination, for EN LM1 and AASHTO HL-93 (three vehicle
+//! arrangements), at 16 and 32 panels.
+//!
 //! Run: `cargo bench -p springline-statics --bench influence`.
 
 use criterion::{criterion_group, criterion_main, BenchmarkId, Criterion};
 use springline_statics::arch::design::Design;
 use springline_statics::arch::influence::{arch_influence, ArchLine};
+use springline_statics::arch::traffic::traffic_envelopes;
 use springline_statics::frame::envelope::{envelope, AxleGroup, Traffic, VariableSpacing};
+use springline_statics::traffic::models::ModelFamily;
+use springline_statics::traffic::TrafficDesign;
 use springline_statics::{ModelKind, ValidDesign};
 use std::hint::black_box;
 
@@ -68,5 +76,25 @@ fn influence_and_envelopes(c: &mut Criterion) {
     group.finish();
 }
 
-criterion_group!(benches, influence_and_envelopes);
+fn traffic_reports(c: &mut Criterion) {
+    let mut group = c.benchmark_group("traffic_report");
+    group.sample_size(10);
+    for family in [ModelFamily::EnLm1, ModelFamily::Hl93] {
+        for panels in [16usize, 32] {
+            let mut d = Design::demo();
+            d.panels = panels;
+            d.traffic = TrafficDesign::preset(family, 7.5);
+            let valid = ValidDesign::new(&d).expect("demo is valid");
+            let id = BenchmarkId::new(family.key(), panels);
+            group.bench_with_input(id, &valid, |b, valid| {
+                b.iter(|| {
+                    black_box(traffic_envelopes(valid, ModelKind::Frame).expect("solves").expect("frame"))
+                })
+            });
+        }
+    }
+    group.finish();
+}
+
+criterion_group!(benches, influence_and_envelopes, traffic_reports);
 criterion_main!(benches);

@@ -212,14 +212,17 @@ fn line_envelope(
     };
     let mut max = none(None);
     let mut min = none(None);
+    // effects below rounding noise of the permanent effect's size are no effect: no
+    // placement is reported for a line the traffic cannot move (the solver's zero)
+    let noise = 1e-9 * permanent.abs().max(1.0);
     // per combination: the largest and smallest factored traffic over arrangements and ribs
     let mut design: Vec<(f64, f64)> = vec![(0.0, 0.0); combinations.len()];
     for (rib, alternatives) in traffics {
         for c in candidates(x, eta, alternatives, two_truck)? {
-            if c.counts_for_max && c.envelope.max.value > max.value {
+            if c.counts_for_max && c.envelope.max.value > max.value.max(noise) {
                 max = governing(&c.envelope.max, &c.name, *rib);
             }
-            if c.counts_for_min && c.envelope.min.value < min.value {
+            if c.counts_for_min && c.envelope.min.value < min.value.min(-noise) {
                 min = governing(&c.envelope.min, &c.name, *rib);
             }
             for (k, comb) in combinations.iter().enumerate() {
