@@ -64,7 +64,7 @@ pub fn parse_positions(text: &str, units: Units) -> Result<Vec<f64>, String> {
 #[component]
 pub fn TrafficPanel() -> impl IntoView {
     view! {
-        <details class="panel" open>
+        <details class="panel" id="traffic-panel" open>
             <summary><h3>"Traffic"</h3></summary>
             {design_field("Carriageway width", "carriageway-width", Field::CarriagewayWidth, Quantity::Length, |d| d.traffic.carriageway_width, |d, v| d.traffic.carriageway_width = v, (0.5, 60.0), false)}
             <RibPositionsField />

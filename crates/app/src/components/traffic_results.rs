@@ -71,6 +71,25 @@ pub fn for_display(v: f64, scale: f64) -> f64 {
     }
 }
 
+/// Which arrangement of the traffic gives the largest and the smallest thrust, in words;
+/// an extreme that is zero (within `for_display` of `scale`) has no arrangement: no
+/// placement of the traffic moves the thrust that way.
+fn governing_words(report: &TrafficReport, scale: f64) -> String {
+    let t = &report.thrust;
+    let part = |value: f64, arrangement: &str, sense: &str| {
+        if for_display(value, scale) == 0.0 {
+            format!("none (no placement {sense} the thrust)")
+        } else {
+            arrangement.to_string()
+        }
+    };
+    format!(
+        "Governing traffic arrangement: largest — {}; smallest — {}.",
+        part(t.traffic_max.value, &t.traffic_max.arrangement, "raises"),
+        part(t.traffic_min.value, &t.traffic_min.arrangement, "lowers")
+    )
+}
+
 /// A value cell: shown in `units` (noise against `scale` shown as 0, `for_display`),
 /// the engine's SI value in `data-value`; `span` columns wide.
 fn cell(id: String, si: f64, scale: f64, units: Units, span: u8) -> impl IntoView {
@@ -98,10 +117,7 @@ fn thrust_table(report: &TrafficReport, ribs: usize, units: Units) -> impl IntoV
             view! { <tr><th scope="row">{r.label}</th>{cells}</tr> }
         })
         .collect_view();
-    let governing = format!(
-        "Traffic placed at its worst: largest with {}, smallest with {}.",
-        report.thrust.traffic_max.arrangement, report.thrust.traffic_min.arrangement
-    );
+    let governing = governing_words(report, scale);
     view! {
         <table class="results traffic-table" id="traffic-thrust">
             <caption>
@@ -203,6 +219,24 @@ mod tests {
         let labels: Vec<String> = thrust_rows(&r).into_iter().map(|r| r.label).collect();
         assert_eq!(labels[2..], ["Strength I, design".to_string(), "Service I, design".to_string()]);
         assert!(r.load_model.contains("HL-93"), "{}", r.load_model);
+    }
+
+    /// The demo's thrust: the tandem raises it most (an adverse line everywhere, so the
+    /// engine's smallest traffic thrust is rounding noise): no arrangement is named for
+    /// the smallest.
+    #[test]
+    fn a_zero_extreme_names_no_arrangement() {
+        let r = traffic_of(&Design::demo()).expect("demo analyses").expect("a frame report");
+        let scale = r.thrust.design.iter().fold(0.0, |a: f64, d| a.max(d.max.abs()).max(d.min.abs()));
+        assert!(r.thrust.traffic_min.value.abs() <= 1e-9 * scale, "{}", r.thrust.traffic_min.value);
+        let words = governing_words(&r, scale);
+        assert_eq!(
+            words,
+            format!(
+                "Governing traffic arrangement: largest — {}; smallest — none (no placement lowers the thrust).",
+                r.thrust.traffic_max.arrangement
+            )
+        );
     }
 
     /// A design the engine refuses is an error, never a panic.
