@@ -36,7 +36,10 @@ fn data_value(s: &Session, id: &str) -> f64 {
 
 /// The row labels of the thrust table.
 fn row_labels(s: &Session) -> Vec<String> {
-    let v = s.exec("return [...document.querySelectorAll('#traffic-thrust tbody th')].map(h => h.textContent);", vec![]);
+    let v = s.exec(
+        "return [...document.querySelectorAll('#traffic-thrust tbody th')].map(h => h.textContent);",
+        vec![],
+    );
     serde_json::from_value(v).unwrap_or_default()
 }
 
@@ -53,7 +56,10 @@ fn choose_model(s: &Session, key: &str) {
 fn wait_model_title(s: &Session, title: &str) {
     s.wait_for(
         &format!("the traffic block to show '{title}'"),
-        &format!("const e = document.getElementById('traffic-model'); return e && e.textContent.endsWith({})", json!(title)),
+        &format!(
+            "const e = document.getElementById('traffic-model'); return e && e.textContent.endsWith({})",
+            json!(title)
+        ),
         WAIT,
     );
 }
@@ -84,7 +90,10 @@ fn choosing_hl93_brings_its_combinations_and_undo_takes_them_back() {
     // the demo: EN 1991-2 LM1 and its three combinations
     let en = report_of(&demo);
     wait_model_title(&s, &en.load_model);
-    assert_eq!(row_labels(&s)[2..], ["ULS gr1a, design", "SLS characteristic, design", "SLS frequent, design"]);
+    assert_eq!(
+        row_labels(&s)[2..],
+        ["ULS gr1a, design", "SLS characteristic, design", "SLS frequent, design"]
+    );
     assert_thrust_table(&s, &en);
     let en_lanes = text_of(&s, "traffic-lanes");
     assert_eq!(en_lanes, en.lanes);
@@ -106,6 +115,14 @@ fn choosing_hl93_brings_its_combinations_and_undo_takes_them_back() {
     let width = s.exec("return document.getElementById('carriageway-width').value", vec![]);
     assert_eq!(width, json!("7.5"));
 
+    // in US units the thrusts read in kip
+    s.exec("document.getElementById('units').click();", vec![]);
+    s.wait_for(
+        "the traffic thrusts in kip",
+        "return document.getElementById('traffic-design-0-max').textContent.endsWith('kip')",
+        WAIT,
+    );
+    s.exec("document.getElementById('units').click();", vec![]);
     // one undo step takes the model back
     s.exec("document.getElementById('undo').click();", vec![]);
     wait_model_title(&s, &en.load_model);

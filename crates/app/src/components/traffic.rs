@@ -53,9 +53,9 @@ pub fn parse_positions(text: &str, units: Units) -> Result<Vec<f64>, String> {
                     i + 1
                 ));
             }
-            parse_number(part).map(|v| units.to_si(Quantity::Length, v)).map_err(|e| {
-                format!("{e}: separate the values with commas, for example -2.75, 2.75")
-            })
+            parse_number(part)
+                .map(|v| units.to_si(Quantity::Length, v))
+                .map_err(|e| format!("{e}: separate the values with commas, for example -2.75, 2.75"))
         })
         .collect()
 }
@@ -143,7 +143,10 @@ fn LoadModelField() -> impl IntoView {
         let _ = state.try_edit(Field::LoadModel, |d| {
             let t = &d.traffic;
             let positions = t.rib_positions.clone();
-            d.traffic = TrafficDesign { rib_positions: positions, ..TrafficDesign::preset(family, t.carriageway_width) };
+            d.traffic = TrafficDesign {
+                rib_positions: positions,
+                ..TrafficDesign::preset(family, t.carriageway_width)
+            };
         });
     };
     view! {

@@ -43,7 +43,12 @@ pub struct ThrustRow {
 pub fn thrust_rows(report: &TrafficReport) -> Vec<ThrustRow> {
     let t = &report.thrust;
     let mut rows = vec![
-        ThrustRow { id: "traffic-permanent".into(), label: "Permanent (dead load)".into(), max: t.permanent, min: None },
+        ThrustRow {
+            id: "traffic-permanent".into(),
+            label: "Permanent (dead load)".into(),
+            max: t.permanent,
+            min: None,
+        },
         ThrustRow {
             id: "traffic-characteristic".into(),
             label: "Traffic alone, characteristic".into(),
