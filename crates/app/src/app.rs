@@ -9,6 +9,7 @@ use crate::components::readout::MemberReadout;
 use crate::components::results::ResultsPanel;
 use crate::components::scenarios::ScenarioButtons;
 use crate::components::toolbar::Toolbar;
+use crate::components::traffic::TrafficPanel;
 use crate::permalink_sync;
 use crate::state::AppState;
 use leptos::prelude::*;
@@ -83,6 +84,7 @@ fn DesignInputs() -> impl IntoView {
                 <RoadwayPanel />
                 <ArchPanel />
                 <LoadsPanel />
+                <TrafficPanel />
                 <SectionsPanel />
             </div>
         </aside>

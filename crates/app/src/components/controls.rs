@@ -1,4 +1,5 @@
-//! The control panels: Ground, Roadway, Arch, Loads and Sections. Every field has a unit,
+//! The control panels: Ground, Roadway, Arch, Loads and Sections (Traffic is in
+//! `traffic.rs`). Every field has a unit,
 //! a valid range and its design field (`Field`); when the engine refuses an edit, each of
 //! its problems is shown beside every field it involves (all of them beside the edited
 //! field) and the last good design stays on screen.
@@ -73,7 +74,7 @@ pub fn FieldProblems(
 }
 
 /// Formats an SI value for an input box in the chosen units (no digit grouping).
-fn input_text(units: Units, q: Quantity, si: f64, integer: bool) -> String {
+pub(crate) fn input_text(units: Units, q: Quantity, si: f64, integer: bool) -> String {
     if integer {
         return format!("{}", si.round() as i64);
     }
@@ -207,7 +208,7 @@ pub fn NumberField(
 /// `AppState::try_edit`.
 // one call per row keeps each field's label, id, path, unit, accessors and range together
 #[allow(clippy::too_many_arguments)]
-fn design_field(
+pub(crate) fn design_field(
     label: &'static str,
     id: &'static str,
     field: Field,

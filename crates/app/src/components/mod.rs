@@ -7,3 +7,5 @@ pub mod results;
 pub mod scenarios;
 pub mod status;
 pub mod toolbar;
+pub mod traffic;
+pub mod traffic_results;

@@ -2,7 +2,7 @@
 //! cell carries its SI value in `data-value` for tests and assistive tools. The table
 //! names the load case in words and the model of every number; the sign convention of
 //! the springing forces is stated once, under it; when the three thrusts on screen differ
-//! a short note says why.
+//! a short note says why. The Traffic block follows (`traffic_results.rs`).
 
 use crate::format::{Quantity, Units};
 use crate::state::AppState;
@@ -228,6 +228,7 @@ pub fn ResultsPanel() -> impl IntoView {
         <section class="results-panel" aria-labelledby="results-title">
             <h2 id="results-title">"Results"</h2>
             {body}
+            <crate::components::traffic_results::TrafficResults />
         </section>
     }
 }
