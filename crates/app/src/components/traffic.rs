@@ -173,7 +173,10 @@ fn ModelDescription() -> impl IntoView {
     let span = Memo::new(move |_| state.analysis.with(|a| a.as_ref().ok().map(|a| a.summary.span)));
     let lanes = move || {
         let span = span.get()?;
-        Some(state.design.with(|d| d.traffic.load_model.lane_layout(d.traffic.carriageway_width, span).rule))
+        let units = state.units.get();
+        Some(state.design.with(|d| {
+            d.traffic.load_model.lane_layout(d.traffic.carriageway_width, span).words.describe(units)
+        }))
     };
     let combinations = move || {
         state.design.with(|d| {

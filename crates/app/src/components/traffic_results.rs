@@ -157,8 +157,8 @@ pub fn TrafficResults() -> impl IntoView {
         match &*report.get() {
             Ok(Some(r)) => view! {
                 <p id="traffic-model"><span class="what">"Load model: "</span>{r.load_model.clone()}</p>
-                <p class="hint" id="traffic-lanes">{r.lanes.clone()}</p>
-                <p class="hint" id="traffic-sharing">{format!("Sharing: {}", r.sharing.rule)}</p>
+                <p class="hint" id="traffic-lanes">{r.lane_words.describe(units)}</p>
+                <p class="hint" id="traffic-sharing">{format!("Sharing: {}", r.sharing.describe(units))}</p>
                 {thrust_table(r, ribs, units)}
             }
             .into_any(),

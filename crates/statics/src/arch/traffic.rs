@@ -34,7 +34,7 @@ use crate::frame::influence::InfluenceLines;
 use crate::frame::results::Solution;
 use crate::frame::solver::solve;
 use crate::traffic::combination::Combination;
-use crate::traffic::models::{Applies, LaneLayout};
+use crate::traffic::models::{Applies, LaneLayout, LaneWords};
 use crate::traffic::sharing::{rib_positions, share, Alternative, LineTraffic, Sharing};
 use serde::Serialize;
 
@@ -108,8 +108,10 @@ pub struct TrafficReport {
     pub model: ModelKind,
     /// The load model's title.
     pub load_model: String,
-    /// Its lanes in words.
+    /// Its lanes in words (SI).
     pub lanes: String,
+    /// The lanes' numbers, to say them in any units (`LaneWords::describe`).
+    pub lane_words: LaneWords,
     /// How the traffic is shared between the ribs.
     pub sharing: Sharing,
     /// The combinations reported.
@@ -412,6 +414,7 @@ fn report(
         model: kind,
         load_model: t.load_model.title().to_string(),
         lanes: layout.rule.clone(),
+        lane_words: layout.words,
         sharing,
         combinations: t.combinations.clone(),
         step: if kind == ModelKind::BareRib { 0.0 } else { TRAFFIC_STEP },

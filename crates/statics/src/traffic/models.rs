@@ -10,7 +10,9 @@
 //!
 //! Units: kN, m, kN/m2 for loads over an area, kN/m for line loads.
 
+use crate::error::counted;
 use crate::frame::envelope::{AxleGroup, VariableSpacing};
+use crate::units::{Quantity, Units};
 use serde::{Deserialize, Serialize};
 
 /// A traffic load model with its values.
@@ -416,8 +418,87 @@ pub struct LaneLayout {
     pub multiple_presence: Vec<f64>,
     /// The vehicle arrangements a lane carries.
     pub vehicles: Vec<Vehicle>,
-    /// What the layout follows, in words (number of lanes and their rule).
+    /// What the layout follows, in words (number of lanes and their rule), in SI.
     pub rule: String,
+    /// The same, as numbers for [`LaneWords::describe`] in any units.
+    pub words: LaneWords,
+}
+
+/// The numbers of a lane rule, to say it in any units.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+#[serde(tag = "kind", rename_all = "snake_case")]
+pub enum LaneWords {
+    /// EN 1991-2 notional lanes.
+    En {
+        /// Number of lanes.
+        count: usize,
+        /// Lane width, m.
+        lane_width: f64,
+        /// Carriageway width, m.
+        carriageway: f64,
+        /// Remaining area width, m.
+        remaining: f64,
+    },
+    /// AASHTO design lanes.
+    Aashto {
+        /// Number of lanes.
+        count: usize,
+        /// Carriageway width, m.
+        carriageway: f64,
+        /// Design lane width, m.
+        lane_width: f64,
+        /// Dynamic load allowance (fraction).
+        impact: f64,
+    },
+    /// A crowd.
+    Crowd {
+        /// Its intensity, kN/m2.
+        intensity: f64,
+        /// The loaded length, m (`None`: a fixed intensity).
+        loaded_length: Option<f64>,
+    },
+    /// The user's own.
+    User {
+        /// Uniform load, kN/m2.
+        uniform: f64,
+    },
+}
+
+impl LaneWords {
+    /// The rule in words with its numbers in `units`.
+    pub fn describe(&self, units: Units) -> String {
+        let show = |q, v| units.show(q, v);
+        match *self {
+            LaneWords::En { count, lane_width, carriageway, remaining } => format!(
+                "{} {} wide in a {} carriageway (EN 1991-2 Table 4.1), tandems centred in their lanes, remaining \
+                 area {}",
+                counted(count, "notional lane", "notional lanes"),
+                show(Quantity::Length, lane_width),
+                show(Quantity::Length, carriageway),
+                show(Quantity::Length, remaining)
+            ),
+            LaneWords::Aashto { count, carriageway, lane_width, impact } => format!(
+                "{} INT({} / {}) (AASHTO LRFD 3.6.1.1.1), multiple presence factors (Table 3.6.1.1.2-1), \
+                 IM = {:.0}% on truck and tandem",
+                counted(count, "design lane", "design lanes"),
+                show(Quantity::Length, carriageway),
+                show(Quantity::Length, lane_width),
+                impact * 100.0
+            ),
+            LaneWords::Crowd { intensity, loaded_length: Some(l) } => format!(
+                "crowd {} for a loaded length of {} (EN 1991-2 5.3.2.1), over the deck where adverse",
+                show(Quantity::Pressure, intensity),
+                show(Quantity::Length, l)
+            ),
+            LaneWords::Crowd { intensity, loaded_length: None } => {
+                format!("crowd {} over the deck where adverse", show(Quantity::Pressure, intensity))
+            }
+            LaneWords::User { uniform } => format!(
+                "{} over the carriageway where adverse and one vehicle in a lane",
+                show(Quantity::Pressure, uniform)
+            ),
+        }
+    }
 }
 
 impl LoadModel {
@@ -440,16 +521,8 @@ impl LoadModel {
                 wheel_gauge: 0.0,
                 multiple_presence: Vec::new(),
                 vehicles: Vec::new(),
-                rule: match m.fixed {
-                    Some(q) => format!("crowd {q} kN/m2 over the deck where adverse"),
-                    None => format!(
-                        "crowd q = {} + {} / (L + {}) = {:.2} kN/m2 for L = {span:.1} m, over the deck where adverse",
-                        m.constant,
-                        m.numerator,
-                        m.length_offset,
-                        m.intensity(span)
-                    ),
-                },
+                rule: crowd_words(m, span).describe(Units::Si),
+                words: crowd_words(m, span),
             },
             LoadModel::UserDefined(m) => {
                 let vehicles = if m.axles.is_empty() {
@@ -460,7 +533,11 @@ impl LoadModel {
                         axles: AxleGroup {
                             loads: m.axles.clone(),
                             spacings: m.spacings.clone(),
-                            variable: m.variable_spacing.map(|(index, min, max)| VariableSpacing { index, min, max }),
+                            variable: m.variable_spacing.map(|(index, min, max)| VariableSpacing {
+                                index,
+                                min,
+                                max,
+                            }),
                         },
                         uniform_factor: 1.0,
                         applies: Applies::Everywhere,
@@ -469,7 +546,12 @@ impl LoadModel {
                 let lanes = if vehicles.is_empty() || carriageway <= 0.0 {
                     Vec::new()
                 } else {
-                    vec![Lane { width: m.lane_width.min(carriageway), uniform: 0.0, uniform_width: 0.0, vehicle_weight: 1.0 }]
+                    vec![Lane {
+                        width: m.lane_width.min(carriageway),
+                        uniform: 0.0,
+                        uniform_width: 0.0,
+                        vehicle_weight: 1.0,
+                    }]
                 };
                 LaneLayout {
                     lanes,
@@ -478,11 +560,16 @@ impl LoadModel {
                     wheel_gauge: m.wheel_gauge,
                     multiple_presence: Vec::new(),
                     vehicles,
-                    rule: format!("{} kN/m2 over the carriageway where adverse and one vehicle in a lane", m.uniform),
+                    rule: LaneWords::User { uniform: m.uniform }.describe(Units::Si),
+                    words: LaneWords::User { uniform: m.uniform },
                 }
             }
         }
     }
+}
+
+fn crowd_words(m: &Crowd, span: f64) -> LaneWords {
+    LaneWords::Crowd { intensity: m.intensity(span), loaded_length: m.fixed.is_none().then_some(span) }
 }
 
 fn en_layout(m: &EnLm1, w: f64) -> LaneLayout {
@@ -507,6 +594,12 @@ fn en_layout(m: &EnLm1, w: f64) -> LaneLayout {
             vehicle_weight: m.tandem_axle.get(i).zip(m.alpha_tandem.get(i)).map_or(0.0, |(q, a)| q * a),
         })
         .collect();
+    let words = LaneWords::En {
+        count,
+        lane_width,
+        carriageway: w,
+        remaining: (w - count as f64 * lane_width).max(0.0),
+    };
     LaneLayout {
         lanes,
         remaining: m.alpha_udl_other * m.udl_remaining,
@@ -519,11 +612,8 @@ fn en_layout(m: &EnLm1, w: f64) -> LaneLayout {
             uniform_factor: 1.0,
             applies: Applies::Everywhere,
         }],
-        rule: format!(
-            "{count} notional lane(s) {lane_width:.2} m wide in a {w:.2} m carriageway (EN 1991-2 Table 4.1), \
-             tandems centred in their lanes, remaining area {:.2} m",
-            (w - count as f64 * lane_width).max(0.0)
-        ),
+        rule: words.describe(Units::Si),
+        words,
     }
 }
 
@@ -565,6 +655,7 @@ fn hl93_layout(m: &Hl93, w: f64) -> LaneLayout {
         }),
     };
     let lane_load_width = m.lane_load_width.min(lane_width);
+    let words = LaneWords::Aashto { count, carriageway: w, lane_width: m.lane_width, impact: m.impact };
     LaneLayout {
         lanes: (0..count)
             .map(|_| Lane {
@@ -593,12 +684,8 @@ fn hl93_layout(m: &Hl93, w: f64) -> LaneLayout {
                 applies: Applies::HoggingAndInteriorReactions,
             },
         ],
-        rule: format!(
-            "{count} design lane(s) INT({w:.2} / {:.1}) (AASHTO LRFD 3.6.1.1.1), multiple presence factors \
-             (Table 3.6.1.1.2-1), IM = {:.0}% on truck and tandem",
-            m.lane_width,
-            m.impact * 100.0
-        ),
+        rule: words.describe(Units::Si),
+        words,
     }
 }
 

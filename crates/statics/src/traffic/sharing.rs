@@ -25,8 +25,10 @@
 //!
 //! Units: kN/m for line loads along the deck, kN per axle.
 
+use crate::error::counted;
 use crate::frame::envelope::{AxleGroup, Traffic};
 use crate::traffic::models::{Applies, Lane, LaneLayout};
+use crate::units::{Quantity, Units};
 use serde::Serialize;
 
 /// Grid of lane positions across the carriageway, m.
@@ -384,17 +386,26 @@ pub fn share(layout: &LaneLayout, deck_width: f64, carriageway_width: f64, posit
                 .total_cmp(&(b.1.uniform_fraction + b.1.vehicle_fraction))
         })
         .map_or(0, |(i, _)| i);
-    let rule = format!(
-        "thrust, springing reactions and foundations for the whole cross-section; member forces per rib line = \
-         permanent / {} ribs + traffic x the rib's worst lever-rule share (largest: rib {} at {:+.2} m, {:.0}% of \
-         the uniform load, {:.0}% of the vehicles)",
-        positions.len(),
-        governing_rib + 1,
-        positions.get(governing_rib).copied().unwrap_or(0.0),
-        ribs.get(governing_rib).map_or(100.0, |r| r.uniform_fraction * 100.0),
-        ribs.get(governing_rib).map_or(100.0, |r| r.vehicle_fraction * 100.0),
-    );
-    Sharing { whole, ribs, governing_rib, rule }
+    let mut sharing = Sharing { whole, ribs, governing_rib, rule: String::new() };
+    sharing.rule = sharing.describe(Units::Si);
+    sharing
+}
+
+impl Sharing {
+    /// The sharing rule in words, the governing rib's position in `units`.
+    pub fn describe(&self, units: Units) -> String {
+        let rib = self.ribs.get(self.governing_rib);
+        format!(
+            "thrust, springing reactions and foundations for the whole cross-section; member forces per rib line = \
+             permanent / {} + traffic × the rib's worst lever-rule share (largest: rib {} at {}, {:.0}% of the \
+             uniform load, {:.0}% of the vehicles)",
+            counted(self.ribs.len(), "rib", "ribs"),
+            self.governing_rib + 1,
+            units.show(Quantity::Length, rib.map_or(0.0, |r| r.position)),
+            rib.map_or(100.0, |r| r.uniform_fraction * 100.0),
+            rib.map_or(100.0, |r| r.vehicle_fraction * 100.0),
+        )
+    }
 }
 
 #[cfg(test)]
