@@ -129,7 +129,16 @@ pub fn screenshots_dir() -> std::path::PathBuf {
 }
 
 /// The whole results panel as text (what a user reads).
+///
+/// The traffic block is computed once edits pause: this waits (up to 20 s) until it is for
+/// the design on screen, unless a drag holds it.
 pub fn results_text(session: &Session) -> String {
+    session.wait_for(
+        "the traffic block to follow the design",
+        "const t = document.getElementById('traffic-results');
+         return !t || t.dataset.current === 'true' || document.getElementById('traffic-pending') !== null",
+        std::time::Duration::from_secs(20),
+    );
     session
         .exec("const e = document.querySelector('.results-panel'); return e ? e.innerText : '';", vec![])
         .as_str()

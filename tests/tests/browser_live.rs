@@ -200,10 +200,11 @@ fn switching_units_changes_every_force_by_the_kip_factor() {
             .map(|p| (p[0].as_str().unwrap_or("").to_string(), p[1].as_str().unwrap_or("").to_string()))
             .collect()
     };
+    // (reading the results waits for the traffic block, computed once edits pause)
+    let before = results_text(&s);
     let si = read(&s);
     assert!(si.len() >= 8, "forces shown: {si:?}");
     assert!(si.iter().all(|(_, t)| t.ends_with("kN")));
-    let before = results_text(&s);
     s.exec("document.getElementById('units').click();", vec![]);
     wait_results_change(&s, &before);
     let us = read(&s);

@@ -271,10 +271,11 @@ fn the_traffic_block_waits_for_the_end_of_a_drag() {
     pointer("pointerup", y + 40.0);
     s.wait_for(
         "the traffic block to update",
-        &format!(
-            "return document.getElementById('traffic-pending') === null
-                && +document.getElementById('traffic-permanent').dataset.value !== {permanent0}"
-        ),
+        "const p = document.getElementById('traffic-permanent');
+         const h = +document.getElementById('result-left-h').dataset.value;
+         return document.getElementById('traffic-pending') === null
+             && document.getElementById('traffic-results').dataset.current === 'true'
+             && p !== null && Math.abs(+p.dataset.value - h) <= 1e-6 * h",
         WAIT,
     );
     let permanent1 = data_value(&s, "traffic-permanent");

@@ -22,6 +22,7 @@ pub fn App() -> impl IntoView {
     state.notice.set(notice);
     provide_context(state);
     permalink_sync::install(state, view);
+    crate::components::traffic_results::install(state);
     // canvases follow the window size
     let handle =
         window_event_listener(leptos::ev::resize, move |_| state.resized.update(|n| *n = n.wrapping_add(1)));

@@ -6,6 +6,7 @@ use crate::format::Units;
 use leptos::prelude::*;
 use springline_statics::arch::edit::{Drag, DragStop, Reading, Snapping};
 use springline_statics::arch::readout::MemberKey;
+use springline_statics::arch::traffic::TrafficReport;
 use springline_statics::error::{Field, Location, StaticsError};
 use springline_statics::{analyze, Analysis, Design, ModelKind};
 use std::sync::Arc;
@@ -116,10 +117,18 @@ pub struct AppState {
     pub drag_stop: RwSignal<Option<String>>,
     /// While dragging: the value being set and where the pointer is.
     pub drag_reading: RwSignal<Option<DragReading>>,
+    /// The traffic envelopes of the frame model with the design they are for, computed
+    /// once edits pause and not while dragging (`components::traffic_results::install`);
+    /// `None` until the first.
+    pub traffic: RwSignal<Option<Arc<(Design, TrafficOutcome)>>>,
     /// The analysis just computed for a design about to be set, so the memo does not
     /// compute it a second time.
     checked: StoredValue<Option<(Design, Arc<Analysis>)>>,
 }
+
+/// The traffic report of a design's frame model, `Ok(None)` when the engine has none,
+/// or the engine's error.
+pub type TrafficOutcome = Result<Option<TrafficReport>, StaticsError>;
 
 /// How many steps undo keeps.
 pub const HISTORY_LIMIT: usize = 200;
@@ -155,6 +164,7 @@ impl AppState {
             refused: RwSignal::new(None),
             drag_stop: RwSignal::new(None),
             drag_reading: RwSignal::new(None),
+            traffic: RwSignal::new(None),
             checked,
         }
     }

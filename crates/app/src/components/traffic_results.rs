@@ -1,21 +1,23 @@
 //! The Traffic block of the results: the load model, how the traffic is shared between
 //! the ribs, and the range of the arch's thrust (left springing, whole cross-section):
 //! permanent, characteristic traffic and each combination's design values, from the
-//! engine's traffic envelopes of the frame model. The envelopes are not recomputed
-//! while a point is being dragged: the block shows the last report and says it updates
-//! when the pointer lets go.
+//! engine's traffic envelopes of the frame model. They are computed after an edit is
+//! painted, and not while a point is being dragged: the block shows the last report and
+//! says it updates when the pointer lets go.
 
 use crate::format::{Quantity, Units};
 use crate::state::AppState;
 use leptos::prelude::*;
 use springline_statics::arch::traffic::{traffic_envelopes, TrafficReport};
 use springline_statics::arch::validate::ValidDesign;
-use springline_statics::{Design, ModelKind, StaticsError};
+use springline_statics::{Design, ModelKind};
 use std::sync::Arc;
 
-/// The traffic report of a design's frame model, `Ok(None)` when the engine has none,
-/// or the engine's error.
-pub type TrafficOutcome = Result<Option<TrafficReport>, StaticsError>;
+/// How long the design must rest before its traffic envelopes are computed: longer
+/// than an edit takes to paint, short enough to feel immediate.
+const TRAFFIC_DELAY: std::time::Duration = std::time::Duration::from_millis(250);
+
+pub use crate::state::TrafficOutcome;
 
 /// The traffic envelopes of `design`'s frame model (`arch::traffic::traffic_envelopes`).
 pub fn traffic_of(design: &Design) -> TrafficOutcome {
@@ -137,24 +139,47 @@ fn thrust_table(report: &TrafficReport, ribs: usize, units: Units) -> impl IntoV
     }
 }
 
+/// Keeps `state.traffic` for the design. The envelopes take longer than an edit's redraw
+/// (tens of ms, more with many panels), so they are computed in a task of their own once
+/// the edits pause (`TRAFFIC_DELAY`): an effect schedules it, and a newer edit makes an
+/// older pending one skip. While dragging, the last report stays (the design is not even
+/// read). Installed once, with the state, so the report outlives any redraw of the block.
+pub fn install(state: AppState) {
+    let generation = StoredValue::new(0u64);
+    Effect::new(move |_| {
+        if state.dragging.get() {
+            return;
+        }
+        let design = state.design.get();
+        let this = generation.get_value().wrapping_add(1);
+        generation.set_value(this);
+        set_timeout(
+            move || {
+                if generation.get_value() == this {
+                    let outcome = traffic_of(&design);
+                    state.traffic.set(Some(Arc::new((design, outcome))));
+                }
+            },
+            TRAFFIC_DELAY,
+        );
+    });
+}
+
 /// The Traffic block of the results panel.
 #[component]
 pub fn TrafficResults() -> impl IntoView {
     let state = expect_context::<AppState>();
-    // while dragging, the last report stays (the design is not even read, so the memo
-    // does not rerun on every pointer move); letting go recomputes for the design then
-    let report = Memo::new(move |last: Option<&Arc<TrafficOutcome>>| {
-        if state.dragging.get() {
-            if let Some(last) = last {
-                return last.clone();
-            }
-        }
-        Arc::new(state.design.with(traffic_of))
-    });
+    // whether the report shown is for the design on screen
+    let current =
+        move || state.traffic.with(|t| t.as_ref().is_some_and(|t| state.design.with(|d| *d == t.0)));
     let body = move || {
         let units = state.units.get();
         let ribs = state.design.with_untracked(|d| d.deck.ribs);
-        match &*report.get() {
+        let Some(report) = state.traffic.get() else {
+            return view! { <p class="hint" id="traffic-working">"Computing the traffic envelopes..."</p> }
+                .into_any();
+        };
+        match &report.1 {
             Ok(Some(r)) => view! {
                 <p id="traffic-model"><span class="what">"Load model: "</span>{r.load_model.clone()}</p>
                 <p class="hint" id="traffic-lanes">{r.lane_words.describe(units)}</p>
@@ -168,10 +193,14 @@ pub fn TrafficResults() -> impl IntoView {
         }
     };
     view! {
-        <section class="traffic-results" id="traffic-results" aria-labelledby="traffic-title">
+        <section class="traffic-results" id="traffic-results" aria-labelledby="traffic-title"
+            class:stale=move || !current() data-current=move || current().to_string()>
             <h3 id="traffic-title">"Traffic"</h3>
             <Show when=move || state.dragging.get()>
                 <p class="hint" id="traffic-pending">"Shown for the design before the drag: updates when you let go."</p>
+            </Show>
+            <Show when=move || !state.dragging.get() && state.traffic.with(Option::is_some) && !current()>
+                <p class="hint" id="traffic-updating">"Updating for the latest edit..."</p>
             </Show>
             {body}
         </section>
