@@ -284,29 +284,36 @@ fn best(
         (count + 1 < radix[g]).then_some(s + place)
     };
     const NONE: f64 = f64::NEG_INFINITY;
-    // f[i][s]: best (lane value - lost remaining) from cell i on, with state s so far
-    let mut f = vec![vec![NONE; states]; cells + 1];
-    f[cells][full] = 0.0;
-    for i in (0..cells).rev() {
-        for s in 0..states {
-            let mut v = f[i + 1][s];
-            for (g, (lane, _)) in groups.iter().enumerate() {
-                let end = i + lane_cells[g];
-                if end > cells {
-                    continue;
-                }
-                if let Some(next) = step(s, g) {
-                    let tail = f[end][next];
-                    if tail > NONE {
-                        let (lane_part, lost) = value(lane, c0 + i as f64 * GRID);
-                        v = v.max(lane_part - lost + tail);
+    // the best net gain of lanes starting on the grid start + i GRID
+    let solve = |start: f64| -> f64 {
+        // f[i][s]: best (lane value - lost remaining) from cell i on, with state s so far
+        let mut f = vec![vec![NONE; states]; cells + 1];
+        f[cells][full] = 0.0;
+        for i in (0..cells).rev() {
+            for s in 0..states {
+                let mut v = f[i + 1][s];
+                for (g, (lane, _)) in groups.iter().enumerate() {
+                    let end = i + lane_cells[g];
+                    if end > cells {
+                        continue;
+                    }
+                    if let Some(next) = step(s, g) {
+                        let tail = f[end][next];
+                        if tail > NONE {
+                            let (lane_part, lost) = value(lane, start + i as f64 * GRID);
+                            v = v.max(lane_part - lost + tail);
+                        }
                     }
                 }
+                f[i][s] = v;
             }
-            f[i][s] = v;
         }
-    }
-    let gain = f[0][0];
+        f[0][0]
+    };
+    // the grid from the left kerb, and shifted to end at the right kerb (the width need
+    // not be a whole number of cells), so a mirrored deck gets mirrored shares
+    let leftover = (width - cells as f64 * GRID).max(0.0);
+    let gain = solve(c0).max(if leftover > 1e-9 { solve(c0 + leftover) } else { NONE });
     if gain == NONE {
         // the lanes do not fit the grid (a carriageway a hair narrower than its lanes):
         // count every lane at its best anywhere, an upper bound
@@ -454,6 +461,20 @@ mod tests {
         // the lanes add (9 - 2.5) x 3 = 19.5 kN/m over the remaining-area load 2.5 x 7.5
         assert!(close(s.whole.lanes_uniform, 19.5, 1e-9), "{:?}", s.whole);
         assert!(close(s.whole.vehicle_weight, 500.0, 1e-9));
+    }
+
+    #[test]
+    fn a_mirrored_deck_gets_mirrored_shares() {
+        // 7.52 m is no whole number of 5 cm cells: the grid runs from either kerb
+        for family in [ModelFamily::EnLm1, ModelFamily::Hl93] {
+            let layout = LoadModel::preset(family).lane_layout(7.52, 80.0);
+            let s = share(&layout, 11.0, 7.52, &[-3.1, 2.6]);
+            let m = share(&layout, 11.0, 7.52, &[-2.6, 3.1]);
+            for (a, b) in [(&s.ribs[0], &m.ribs[1]), (&s.ribs[1], &m.ribs[0])] {
+                assert!(close(a.traffic.uniform(), b.traffic.uniform(), 1e-12), "{family:?}");
+                assert!(close(a.traffic.vehicle_weight, b.traffic.vehicle_weight, 1e-12), "{family:?}");
+            }
+        }
     }
 
     #[test]
