@@ -283,3 +283,52 @@ fn the_traffic_block_waits_for_the_end_of_a_drag() {
     assert!((permanent1 - thrust1).abs() <= 1e-6 * thrust1, "{permanent1} vs {thrust1}");
     assert!(severe(&s).is_empty(), "{:?}", severe(&s));
 }
+
+/// A preset's own values are fields: a national annex's alpha_Q1 = 0.8 (EN 1991-2
+/// 4.3.2(3) allows national choices) lowers the characteristic thrust to the engine's
+/// value for that model, and undo brings the published value back.
+#[test]
+fn a_model_value_is_edited_in_its_field() {
+    let server = StaticServer::start(&dist());
+    let driver = Driver::start();
+    let s = driver.session(1500, 900, 1.0);
+    open(&s, &server);
+    let demo = Design::demo();
+    let before = report_of(&demo);
+    wait_model_title(&s, &before.load_model);
+    s.exec("document.getElementById('model-values').open = true;", vec![]);
+    let field = "model-alpha-tandem-0";
+    assert_eq!(s.exec("return document.getElementById(arguments[0]).value", vec![json!(field)]), json!("1"));
+    set_field(&s, field, "0.8");
+    let mut annex = demo.clone();
+    assert!(annex.traffic.load_model.set_value("alpha_tandem[0]", 0.8));
+    let expected = report_of(&annex);
+    assert!(expected.thrust.traffic_max.value < before.thrust.traffic_max.value - 1.0);
+    s.wait_for(
+        "the traffic block to follow the new factor",
+        &format!(
+            "const e = document.getElementById('traffic-characteristic-max');
+             return e && Math.abs(+e.dataset.value - {}) <= 1e-6 * {}",
+            expected.thrust.traffic_max.value, expected.thrust.traffic_max.value
+        ),
+        WAIT,
+    );
+    assert_thrust_table(&s, &expected);
+    s.exec("document.getElementById('model-values').scrollIntoView();", vec![]);
+    std::fs::write(screenshots_dir().join("traffic-model-values.png"), s.screenshot()).expect("screenshot");
+    // a negative load is refused beside the model and changes nothing
+    set_field(&s, "model-udl-lane-1", "-2");
+    s.wait_for(
+        "the refusal beside the field",
+        "const e = document.getElementById('model-udl-lane-1-error'); return e && e.textContent.length > 0",
+        WAIT,
+    );
+    assert_thrust_table(&s, &expected);
+    s.exec("document.getElementById('undo').click();", vec![]);
+    s.wait_for(
+        "undo to bring the published factor back",
+        "return document.getElementById('model-alpha-tandem-0').value === '1'",
+        WAIT,
+    );
+    assert!(severe(&s).is_empty(), "{:?}", severe(&s));
+}

@@ -1,9 +1,9 @@
 //! The Traffic panel: carriageway width, rib positions across the deck, the load model
-//! (a family's preset with its combinations) and, read-only, what the chosen model puts
-//! on the deck. Every edit goes through `AppState::try_edit`, so a refusal stays beside
+//! (a family's preset with its combinations), the model's own values (folded away) and,
+//! read-only, what the chosen model puts on the deck. Every edit goes through `AppState::try_edit`, so a refusal stays beside
 //! the field with the last good design on screen, and undo covers it.
 
-use crate::components::controls::{design_field, input_text, FieldProblems};
+use crate::components::controls::{design_field, input_text, FieldProblems, NumberField};
 use crate::format::{Quantity, Units};
 use crate::state::{parse_number, AppState};
 use leptos::prelude::*;
@@ -69,7 +69,61 @@ pub fn TrafficPanel() -> impl IntoView {
             {design_field("Carriageway width", "carriageway-width", Field::CarriagewayWidth, Quantity::Length, |d| d.traffic.carriageway_width, |d, v| d.traffic.carriageway_width = v, (0.5, 60.0), false)}
             <RibPositionsField />
             <LoadModelField />
+            <ModelValues />
             <ModelDescription />
+        </details>
+    }
+}
+
+/// The chosen model's own numbers (lane width, axle loads, UDLs, adjustment factors,
+/// impact ...), each a field in the display units, folded away: a preset's values are
+/// the published ones, and a national annex or an owner changes some of them.
+#[component]
+fn ModelValues() -> impl IntoView {
+    let state = expect_context::<AppState>();
+    // which numbers there are: changes with the family (or a vehicle's axle count), not
+    // with every edit, so the fields are not rebuilt while a value is typed
+    let slots = Memo::new(move |_| {
+        state.design.with(|d| {
+            d.traffic
+                .load_model
+                .values()
+                .into_iter()
+                .map(|v| (v.key, v.label, v.quantity))
+                .collect::<Vec<_>>()
+        })
+    });
+    let fields = move || {
+        slots
+            .get()
+            .into_iter()
+            .map(|(key, label, quantity)| {
+                let id = format!("model-{}", key.replace(['[', ']', '.', '_'], "-").trim_end_matches('-'));
+                let read = key.clone();
+                let value = Signal::derive(move || {
+                    state.design.with(|d| {
+                        d.traffic.load_model.values().into_iter().find(|v| v.key == read).map_or(0.0, |v| v.value)
+                    })
+                });
+                let on_commit = Callback::new(move |v: f64| {
+                    state.try_edit(Field::LoadModel, |d| {
+                        d.traffic.load_model.set_value(&key, v);
+                    })
+                });
+                let mut label = label;
+                if let Some(first) = label.get(..1) {
+                    label = first.to_uppercase() + &label[1..];
+                }
+                view! {
+                    <NumberField label id field=Field::LoadModel quantity value on_commit min=0.0 max=1e6 shared_field=true />
+                }
+            })
+            .collect_view()
+    };
+    view! {
+        <details class="model-values" id="model-values">
+            <summary>"Model values"</summary>
+            {fields}
         </details>
     }
 }

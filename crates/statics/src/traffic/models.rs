@@ -290,76 +290,160 @@ impl LoadModel {
     /// Every number of the model with its path below `traffic.load_model` (for example
     /// `udl_lane_1`, `tandem_axle[0]`), for validation.
     pub(crate) fn numbers(&self) -> Vec<(String, f64)> {
-        let mut out = Vec::new();
-        let mut add = |name: &str, v: f64| out.push((name.to_string(), v));
+        self.values().into_iter().map(|v| (v.key, v.value)).collect()
+    }
+
+    /// Every number a user may edit, in the order a panel lists them: its key (path below
+    /// `traffic.load_model`), its name in words, its kind of quantity and its SI value.
+    /// A crowd's fixed intensity is listed only when it is set; a vehicle's axles and
+    /// spacings one by one.
+    pub fn values(&self) -> Vec<ModelValue> {
+        let mut copy = self.clone();
+        copy.slots()
+            .into_iter()
+            .map(|(key, label, quantity, v)| ModelValue { key, label, quantity, value: *v })
+            .collect()
+    }
+
+    /// Sets the number with key `key` (see [`LoadModel::values`]) to `value` (SI).
+    /// Returns false, changing nothing, for a key the model does not have.
+    pub fn set_value(&mut self, key: &str, value: f64) -> bool {
+        match self.slots().into_iter().find(|(k, ..)| k == key) {
+            Some((.., slot)) => {
+                *slot = value;
+                true
+            }
+            None => false,
+        }
+    }
+
+    /// The editable numbers as (key, words, quantity, place): one list serves reading,
+    /// writing and validation.
+    fn slots(&mut self) -> Vec<(String, String, Quantity, &mut f64)> {
+        use Quantity::{Count, Force, Length, LineLoad, Pressure};
+        let mut out: Vec<(String, String, Quantity, &mut f64)> = Vec::new();
+        // a macro, not a closure: each push holds its own mutable borrow of a field
+        macro_rules! slot {
+            ($key:expr, $label:expr, $q:expr, $v:expr) => {
+                out.push(($key.to_string(), $label.to_string(), $q, $v))
+            };
+        }
         match self {
             LoadModel::EnLm1(m) => {
-                add("lane_width", m.lane_width);
-                for (i, v) in m.tandem_axle.iter().enumerate() {
-                    add(&format!("tandem_axle[{i}]"), *v);
+                slot!("lane_width", "notional lane width", Length, &mut m.lane_width);
+                for (i, v) in m.tandem_axle.iter_mut().enumerate() {
+                    slot!(
+                        format!("tandem_axle[{i}]"),
+                        format!("tandem axle load Q{}k, lane {}", i + 1, i + 1),
+                        Force,
+                        v
+                    );
                 }
-                add("udl_lane_1", m.udl_lane_1);
-                add("udl_other_lanes", m.udl_other_lanes);
-                add("udl_remaining", m.udl_remaining);
-                for (i, v) in m.alpha_tandem.iter().enumerate() {
-                    add(&format!("alpha_tandem[{i}]"), *v);
+                slot!("udl_lane_1", "UDL q1k, lane 1", Pressure, &mut m.udl_lane_1);
+                slot!("udl_other_lanes", "UDL qik, other lanes", Pressure, &mut m.udl_other_lanes);
+                slot!("udl_remaining", "UDL qrk, remaining area", Pressure, &mut m.udl_remaining);
+                for (i, v) in m.alpha_tandem.iter_mut().enumerate() {
+                    slot!(format!("alpha_tandem[{i}]"), format!("adjustment factor αQ{}", i + 1), Count, v);
                 }
-                add("alpha_udl_lane_1", m.alpha_udl_lane_1);
-                add("alpha_udl_other", m.alpha_udl_other);
-                add("axle_spacing", m.axle_spacing);
-                add("wheel_gauge", m.wheel_gauge);
-                add("footway_udl", m.footway_udl);
+                slot!("alpha_udl_lane_1", "adjustment factor αq1", Count, &mut m.alpha_udl_lane_1);
+                slot!("alpha_udl_other", "adjustment factor αqi, αqr", Count, &mut m.alpha_udl_other);
+                slot!("axle_spacing", "tandem axle spacing", Length, &mut m.axle_spacing);
+                slot!("wheel_gauge", "tandem wheel gauge", Length, &mut m.wheel_gauge);
+                slot!("footway_udl", "footway load (gr1a)", Pressure, &mut m.footway_udl);
             }
             LoadModel::Hl93(m) => {
-                add("lane_width", m.lane_width);
-                for (i, v) in m.truck_axles.iter().enumerate() {
-                    add(&format!("truck_axles[{i}]"), *v);
+                slot!("lane_width", "design lane width", Length, &mut m.lane_width);
+                for (i, v) in m.truck_axles.iter_mut().enumerate() {
+                    slot!(format!("truck_axles[{i}]"), format!("truck axle {} load", i + 1), Force, v);
                 }
-                add("truck_front_spacing", m.truck_front_spacing);
-                add("truck_rear_spacing_min", m.truck_rear_spacing_min);
-                add("truck_rear_spacing_max", m.truck_rear_spacing_max);
-                add("tandem_axle", m.tandem_axle);
-                add("tandem_spacing", m.tandem_spacing);
-                add("wheel_gauge", m.wheel_gauge);
-                add("lane_load", m.lane_load);
-                add("lane_load_width", m.lane_load_width);
-                add("impact", m.impact);
-                for (i, v) in m.multiple_presence.iter().enumerate() {
-                    add(&format!("multiple_presence[{i}]"), *v);
+                slot!("truck_front_spacing", "truck front axle spacing", Length, &mut m.truck_front_spacing);
+                slot!(
+                    "truck_rear_spacing_min",
+                    "truck rear axle spacing, shortest",
+                    Length,
+                    &mut m.truck_rear_spacing_min
+                );
+                slot!(
+                    "truck_rear_spacing_max",
+                    "truck rear axle spacing, longest",
+                    Length,
+                    &mut m.truck_rear_spacing_max
+                );
+                slot!("tandem_axle", "tandem axle load", Force, &mut m.tandem_axle);
+                slot!("tandem_spacing", "tandem axle spacing", Length, &mut m.tandem_spacing);
+                slot!("wheel_gauge", "wheel gauge", Length, &mut m.wheel_gauge);
+                slot!("lane_load", "design lane load", LineLoad, &mut m.lane_load);
+                slot!("lane_load_width", "lane load width", Length, &mut m.lane_load_width);
+                slot!("impact", "dynamic load allowance IM", Count, &mut m.impact);
+                for (i, v) in m.multiple_presence.iter_mut().enumerate() {
+                    let lanes = if i == 3 {
+                        "4 or more loaded lanes".to_string()
+                    } else {
+                        format!("{} loaded lane{}", i + 1, if i == 0 { "" } else { "s" })
+                    };
+                    slot!(
+                        format!("multiple_presence[{i}]"),
+                        format!("multiple presence factor, {lanes}"),
+                        Count,
+                        v
+                    );
                 }
-                add("two_truck_factor", m.two_truck_factor);
-                add("two_truck_headway", m.two_truck_headway);
-                add("two_truck_rear_spacing", m.two_truck_rear_spacing);
-                add("pedestrian_load", m.pedestrian_load);
+                slot!("two_truck_factor", "two-truck factor", Count, &mut m.two_truck_factor);
+                slot!("two_truck_headway", "two-truck headway, shortest", Length, &mut m.two_truck_headway);
+                slot!(
+                    "two_truck_rear_spacing",
+                    "two-truck rear axle spacing",
+                    Length,
+                    &mut m.two_truck_rear_spacing
+                );
+                slot!("pedestrian_load", "sidewalk pedestrian load", Pressure, &mut m.pedestrian_load);
             }
             LoadModel::Crowd(m) => {
-                add("constant", m.constant);
-                add("numerator", m.numerator);
-                add("length_offset", m.length_offset);
-                add("min", m.min);
-                add("max", m.max);
-                if let Some(q) = m.fixed {
-                    add("fixed", q);
+                slot!("constant", "crowd formula: a", Pressure, &mut m.constant);
+                slot!("numerator", "crowd formula: b", LineLoad, &mut m.numerator);
+                slot!("length_offset", "crowd formula: c", Length, &mut m.length_offset);
+                slot!("min", "crowd load, lower bound", Pressure, &mut m.min);
+                slot!("max", "crowd load, upper bound", Pressure, &mut m.max);
+                if let Some(q) = m.fixed.as_mut() {
+                    slot!("fixed", "crowd load, fixed", Pressure, q);
                 }
             }
             LoadModel::UserDefined(m) => {
-                add("uniform", m.uniform);
-                for (i, v) in m.axles.iter().enumerate() {
-                    add(&format!("axles[{i}]"), *v);
+                slot!("uniform", "uniform load", Pressure, &mut m.uniform);
+                for (i, v) in m.axles.iter_mut().enumerate() {
+                    slot!(format!("axles[{i}]"), format!("axle {} load", i + 1), Force, v);
                 }
-                for (i, v) in m.spacings.iter().enumerate() {
-                    add(&format!("spacings[{i}]"), *v);
+                for (i, v) in m.spacings.iter_mut().enumerate() {
+                    slot!(
+                        format!("spacings[{i}]"),
+                        format!("spacing, axles {} to {}", i + 1, i + 2),
+                        Length,
+                        v
+                    );
                 }
-                if let Some((_, lo, hi)) = m.variable_spacing {
-                    add("variable_spacing.min", lo);
-                    add("variable_spacing.max", hi);
+                if let Some((_, lo, hi)) = m.variable_spacing.as_mut() {
+                    slot!("variable_spacing.min", "variable spacing, shortest", Length, lo);
+                    slot!("variable_spacing.max", "variable spacing, longest", Length, hi);
                 }
-                add("lane_width", m.lane_width);
-                add("wheel_gauge", m.wheel_gauge);
+                slot!("lane_width", "lane width", Length, &mut m.lane_width);
+                slot!("wheel_gauge", "wheel gauge", Length, &mut m.wheel_gauge);
             }
         }
         out
     }
+}
+
+/// One editable number of a load model.
+#[derive(Debug, Clone, PartialEq)]
+pub struct ModelValue {
+    /// Its path below `traffic.load_model` (`udl_lane_1`, `tandem_axle[0]`).
+    pub key: String,
+    /// Its name in words.
+    pub label: String,
+    /// What kind of quantity it is (its unit on screen).
+    pub quantity: Quantity,
+    /// Its value, SI.
+    pub value: f64,
 }
 
 /// Where a traffic alternative counts.
@@ -735,6 +819,25 @@ mod tests {
         // 90 % of two trucks: 0.9 x (35 + 145 + 145) x 2 = 585 kN
         let total: f64 = l.vehicles[2].axles.loads.iter().sum();
         assert!((total - 585.0).abs() < 1e-9);
+    }
+
+    #[test]
+    fn every_value_reads_and_writes_by_its_key() {
+        for family in ModelFamily::ALL {
+            let mut m = LoadModel::preset(family);
+            for (k, v) in m.values().into_iter().enumerate() {
+                let new = v.value + 1.0 + k as f64;
+                assert!(m.set_value(&v.key, new), "{:?} {}", family, v.key);
+                let back = m.values().into_iter().find(|w| w.key == v.key).expect("still there");
+                assert_eq!(back.value, new, "{:?} {}", family, v.key);
+                assert!(!v.label.is_empty() && !v.label.contains('_'), "{}", v.label);
+            }
+            assert!(!m.set_value("no such value", 1.0));
+        }
+        // the keys validation names are the ones a file uses: HL-93's impact
+        let mut m = LoadModel::preset(ModelFamily::Hl93);
+        assert!(m.set_value("impact", 0.15));
+        assert!(matches!(m, LoadModel::Hl93(Hl93 { impact, .. }) if impact == 0.15));
     }
 
     #[test]
