@@ -108,7 +108,7 @@ fn choosing_hl93_brings_its_combinations_and_undo_takes_them_back() {
     assert_thrust_table(&s, &expected);
     // the panel describes the new model: its lanes and its combinations with clauses
     let notes = text_of(&s, "load-model-notes");
-    assert!(notes.contains("Strength I — AASHTO LRFD Tables 3.4.1-1 and 3.4.1-2 (DC)"), "{notes}");
+    assert!(notes.contains("Strength I — AASHTO LRFD Tables 3.4.1-1 and 3.4.1-2 (DC factors"), "{notes}");
     assert!(notes.contains("design lane"), "{notes}");
     assert!(!notes.contains("ULS gr1a"), "{notes}");
     // the carriageway stayed as it was

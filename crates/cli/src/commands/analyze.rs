@@ -15,8 +15,8 @@ use std::path::PathBuf;
 /// Analyse a design: form, models, load cases, force diagram, thrust line (JSON).
 ///
 /// Finds the rib that carries the deck in pure compression, generates the frame model,
-/// the truss idealisation and the bare rib, and solves them under the dead load, a
-/// half-span live load and a doubled panel load. Then the traffic of the design's load
+/// the truss idealisation and the bare rib, and solves them under the dead load, the
+/// traffic's uniform load on the left half and a doubled panel load. Then the traffic of the design's load
 /// model: for every influence line of the frame model (and of the truss idealisation
 /// when braced) the envelope of the traffic (max, min and the placement that governs
 /// each), the permanent effect and the design extremes of every combination; springing

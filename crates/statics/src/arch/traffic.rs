@@ -12,6 +12,7 @@
 //!    model (`traffic::models`), keeping the worst and where it stands. The AASHTO
 //!    two-truck load counts only for deck negative moments and for the posts and piers
 //!    that carry the deck (its interior reactions), AASHTO LRFD 3.6.1.3.1;
+//!    A crowd's intensity follows the loaded length of each extreme (EN 1991-2 eq. 5.1).
 //! 3. sharing (`traffic::sharing`): springing forces are for the whole cross-section
 //!    (permanent + the whole section's traffic); member forces are per rib line
 //!    (permanent / ribs + the traffic of the rib with the worst share, every rib tried);
@@ -34,7 +35,7 @@ use crate::frame::influence::InfluenceLines;
 use crate::frame::results::Solution;
 use crate::frame::solver::solve;
 use crate::traffic::combination::Combination;
-use crate::traffic::models::{Applies, LaneLayout, LaneWords};
+use crate::traffic::models::{Applies, Crowd, LaneLayout, LaneWords, LoadModel};
 use crate::traffic::sharing::{rib_positions, share, Alternative, LineTraffic, Sharing};
 use serde::Serialize;
 
@@ -159,11 +160,14 @@ struct Candidate {
     counts_for_min: bool,
 }
 
+/// `crowd`: a crowd model with a formula and the span its layout was made for: each
+/// extreme's uniform part is rescaled to the intensity of its own loaded length.
 fn candidates(
     x: &[f64],
     eta: &[f64],
     alternatives: &[Alternative],
     two_truck: Option<f64>,
+    crowd: Option<(&Crowd, f64)>,
 ) -> Result<Vec<Candidate>, StaticsError> {
     let mut out = Vec::new();
     for alt in alternatives {
@@ -175,7 +179,19 @@ fn candidates(
         if !(counts_for_max || counts_for_min) {
             continue;
         }
-        let envelope = envelope(x, eta, &alt.traffic)?;
+        let mut envelope = envelope(x, eta, &alt.traffic)?;
+        if let Some((crowd, span)) = crowd {
+            // EN 1991-2 eq. 5.1 takes L as the loaded length: the adverse part's
+            for extreme in [&mut envelope.max, &mut envelope.min] {
+                let loaded: f64 = extreme.loaded.iter().map(|(a, b)| b - a).sum();
+                let used = crowd.intensity(span);
+                if used > 0.0 && loaded > 0.0 {
+                    let factor = crowd.intensity(loaded) / used;
+                    extreme.uniform_part *= factor;
+                    extreme.value = extreme.uniform_part + extreme.axle_part;
+                }
+            }
+        }
         out.push(Candidate { envelope, name: alt.name.clone(), counts_for_max, counts_for_min });
     }
     Ok(out)
@@ -202,6 +218,7 @@ fn line_envelope(
     two_truck: Option<f64>,
     permanent: f64,
     combinations: &[Combination],
+    crowd: Option<(&Crowd, f64)>,
 ) -> Result<(Governing, Governing, Vec<DesignRange>), StaticsError> {
     let none = |rib| Governing {
         value: 0.0,
@@ -220,7 +237,7 @@ fn line_envelope(
     // per combination: the largest and smallest factored traffic over arrangements and ribs
     let mut design: Vec<(f64, f64)> = vec![(0.0, 0.0); combinations.len()];
     for (rib, alternatives) in traffics {
-        for c in candidates(x, eta, alternatives, two_truck)? {
+        for c in candidates(x, eta, alternatives, two_truck, crowd)? {
             if c.counts_for_max && c.envelope.max.value > max.value.max(noise) {
                 max = governing(&c.envelope.max, &c.name, *rib);
             }
@@ -344,8 +361,18 @@ pub fn placement_case(valid: &ValidDesign, line: &LineEnvelope, max: bool) -> Ca
             }
         }
     }
+    // a rib line's extreme is loaded with that rib's share on the whole cross-section's
+    // model: its member then carries the rib line's traffic (and all ribs' dead load)
+    let whose = match extreme.rib {
+        Some(r) => format!(", traffic of rib line {}", r + 1),
+        None => String::new(),
+    };
     CaseSpec {
-        name: format!("dead + traffic for the {} of {}", if max { "largest" } else { "smallest" }, line.line),
+        name: format!(
+            "dead + traffic for the {} of {}{whose}",
+            if max { "largest" } else { "smallest" },
+            line.line
+        ),
         kind: CaseKind::Placement { max },
         with_dead: true,
         loads,
@@ -376,6 +403,10 @@ fn report(
     let whole = vec![(None, sharing.whole.alternatives(&layout))];
     let ribs = rib_traffics(&sharing, &layout);
     let rib_count = design.deck.ribs.max(1) as f64;
+    let crowd = match &t.load_model {
+        LoadModel::Crowd(c) if c.fixed.is_none() => Some((c, valid.layout().span())),
+        _ => None,
+    };
     let generated = &influence.generated;
     let x = &influence.lines.positions;
     let mut lines = Vec::new();
@@ -393,7 +424,7 @@ fn report(
             Per::RibLine => (&ribs, g_whole / rib_count),
         };
         let (traffic_max, traffic_min, design_ranges) =
-            line_envelope(x, &eta, traffics, two_truck_sense(generated, &line), g, &t.combinations)?;
+            line_envelope(x, &eta, traffics, two_truck_sense(generated, &line), g, &t.combinations, crowd)?;
         lines.push(LineEnvelope {
             line: line.name(generated),
             label: line.header(generated),
@@ -589,6 +620,43 @@ mod tests {
                 (l.traffic_max.value, l.traffic_min.value)
             );
         }
+    }
+
+    #[test]
+    fn a_crowd_takes_the_intensity_of_its_loaded_length() {
+        // EN 1991-2 5.3.2.1 eq. 5.1: q = 2 + 120 / (L + 30) kN/m2 with L the loaded length
+        // (from memory). A rib segment's largest compression loads only part of the span,
+        // so its crowd is denser than the whole span's: q(L) / q(span) times the uniform
+        // effect at q(span).
+        let mut d = Design::demo();
+        d.traffic = TrafficDesign::preset(ModelFamily::Crowd, 7.5);
+        let valid = ValidDesign::new(&d).expect("valid");
+        let r = traffic_envelopes(&valid, ModelKind::Frame).expect("solves").expect("frame");
+        let g = frame_model(&valid);
+        let inf = influence_of(g.clone(), Some(TRAFFIC_STEP)).expect("lines");
+        let k = g.map.rib_members[3];
+        let line = r.line(&g.model.members[k].name).expect("rib member");
+        let eta = inf.ordinates(&ArchLine::Axial(k)).expect("eta");
+        let unit = envelope(
+            &inf.lines.positions,
+            &eta,
+            &crate::frame::envelope::Traffic { uniform: 1.0, axles: None },
+        )
+        .expect("unit envelope");
+        let loaded: f64 = line.traffic_min.loaded.iter().map(|(a, b)| b - a).sum();
+        let span = valid.layout().span();
+        assert!(loaded < 0.9 * span, "a part of the span: {loaded} of {span}");
+        let crowd = crate::traffic::models::Crowd::default();
+        let (q_l, q_span) = (crowd.intensity(loaded), crowd.intensity(span));
+        assert!(q_l > q_span + 0.1, "{q_l} vs {q_span}");
+        // the rib line's uniform load at q(span), kN/m, rescaled to q(L)
+        let rib = r.sharing.ribs[line.traffic_min.rib.expect("a rib line")].traffic.uniform();
+        let expected = unit.min.value * rib * q_l / q_span;
+        assert!(
+            (line.traffic_min.value - expected).abs() < 1e-9 * expected.abs(),
+            "{} vs {expected}",
+            line.traffic_min.value
+        );
     }
 
     #[test]

@@ -92,7 +92,7 @@ impl Combination {
             ModelFamily::Hl93 => vec![
                 Combination::new(
                     "Strength I",
-                    "AASHTO LRFD Tables 3.4.1-1 and 3.4.1-2 (DC)",
+                    "AASHTO LRFD Tables 3.4.1-1 and 3.4.1-2 (DC factors on all permanent load, surfacing included)",
                     1.25,
                     0.90,
                     1.75,

@@ -43,11 +43,21 @@ impl TrafficDesign {
     }
 
     /// The traffic of a design that names none (written before traffic was part of the
-    /// format): EN 1991-2 Load Model 1 over the whole deck width as carriageway.
+    /// format): EN 1991-2 Load Model 1 over the whole deck width as carriageway (at most
+    /// [`MAX_CARRIAGEWAY`]).
     pub fn for_deck_width(deck_width: f64) -> TrafficDesign {
-        TrafficDesign::preset(ModelFamily::EnLm1, deck_width)
+        TrafficDesign::preset(ModelFamily::EnLm1, deck_width.min(MAX_CARRIAGEWAY))
     }
+}
 
+/// Widest carriageway, m: twelve 3.3 m lanes, more than any arch deck carries; the lane
+/// search's time grows with the number of lanes (common practice for the bound).
+pub const MAX_CARRIAGEWAY: f64 = 40.0;
+/// Narrowest lane a model may have, m: below it no road vehicle fits (EN 1991-2 and
+/// AASHTO lanes are 3 m and 3.6 m; common practice for the bound).
+pub const MIN_LANE_WIDTH: f64 = 2.5;
+
+impl TrafficDesign {
     /// Problems of the traffic inputs on a deck `deck_width` m wide with `ribs` ribs.
     pub(crate) fn problems(&self, deck_width: f64, ribs: usize) -> Vec<Problem> {
         let mut out = Vec::new();
@@ -57,6 +67,11 @@ impl TrafficDesign {
             out.push(Problem::new(
                 Field::CarriagewayWidth,
                 format!("the carriageway width {w} m must be a positive number"),
+            ));
+        } else if w > MAX_CARRIAGEWAY {
+            out.push(Problem::new(
+                Field::CarriagewayWidth,
+                format!("the carriageway ({w} m) is wider than {MAX_CARRIAGEWAY} m; model a wider road as two decks"),
             ));
         } else if deck_width.is_finite() && w > deck_width + 1e-9 {
             out.push(
@@ -123,13 +138,14 @@ impl TrafficDesign {
     fn model_shape_problems(&self) -> Vec<Problem> {
         let mut out = Vec::new();
         let mut add = |m: String| out.push(Problem::new(Field::LoadModel, m));
+        let narrow = |w: f64| w.is_finite() && w < MIN_LANE_WIDTH;
         match &self.load_model {
-            LoadModel::EnLm1(m) if m.lane_width <= 0.0 => {
-                add("the notional lane width must be positive".into())
+            LoadModel::EnLm1(m) if narrow(m.lane_width) => {
+                add(format!("the notional lane width {} m is below {MIN_LANE_WIDTH} m", m.lane_width))
             }
             LoadModel::Hl93(m) => {
-                if m.lane_width <= 0.0 {
-                    add("the design lane width must be positive".into());
+                if narrow(m.lane_width) {
+                    add(format!("the design lane width {} m is below {MIN_LANE_WIDTH} m", m.lane_width));
                 }
                 if m.truck_rear_spacing_max < m.truck_rear_spacing_min {
                     add("the truck's longest rear-axle spacing is shorter than its shortest".into());
@@ -152,8 +168,11 @@ impl TrafficDesign {
                         add("the variable spacing names no spacing of the vehicle, or its bounds are out of order".into());
                     }
                 }
-                if !m.axles.is_empty() && m.lane_width <= 0.0 {
-                    add("the vehicle's lane width must be positive".into());
+                if !m.axles.is_empty() && (narrow(m.lane_width) || m.lane_width < m.wheel_gauge) {
+                    add(format!(
+                        "the vehicle's lane ({} m) must be at least {MIN_LANE_WIDTH} m and as wide as its wheel gauge ({} m)",
+                        m.lane_width, m.wheel_gauge
+                    ));
                 }
             }
             _ => {}
@@ -184,5 +203,11 @@ mod tests {
         let p = t.problems(11.0, 2);
         assert_eq!(p.len(), 2, "{p:?}");
         assert!(p[0].message.contains("impact"));
+        // bounds that keep the lane search small
+        let mut t = TrafficDesign::preset(ModelFamily::EnLm1, 45.0);
+        assert!(t.problems(60.0, 2)[0].message.contains("40 m"));
+        t.carriageway_width = 7.5;
+        t.load_model.set_value("lane_width", 1e-9);
+        assert!(t.problems(11.0, 2)[0].message.contains("below 2.5 m"));
     }
 }

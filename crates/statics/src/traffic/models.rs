@@ -483,6 +483,10 @@ pub struct Lane {
     /// Weight of the lane's vehicle: the axle loads of [`Vehicle::axles`] times this
     /// (LM1: alpha_Qi Q_ik; HL-93: 1 + IM; 0: no vehicle).
     pub vehicle_weight: f64,
+    /// How far the vehicle may move sideways from the lane's centre, m (LM1: 0, tandems
+    /// travel centrally; HL-93: the wheels may come within 0.6 m of the lane's edge,
+    /// AASHTO LRFD 3.6.1.3.1). A uniform load narrower than the lane lies anywhere in it.
+    pub shift: f64,
 }
 
 /// How a model loads a carriageway across its width.
@@ -562,11 +566,11 @@ impl LaneWords {
                 show(Quantity::Length, remaining)
             ),
             LaneWords::Aashto { count, carriageway, lane_width, impact } => format!(
-                "{} INT({} / {}) (AASHTO LRFD 3.6.1.1.1), multiple presence factors (Table 3.6.1.1.2-1), \
-                 IM = {:.0}% on truck and tandem",
+                "{} {} wide in a {} roadway (AASHTO LRFD 3.6.1.1.1), multiple presence factors \
+                 (Table 3.6.1.1.2-1), IM = {:.0}% on truck and tandem",
                 counted(count, "design lane", "design lanes"),
-                show(Quantity::Length, carriageway),
                 show(Quantity::Length, lane_width),
+                show(Quantity::Length, carriageway),
                 impact * 100.0
             ),
             LaneWords::Crowd { intensity, loaded_length: Some(l) } => format!(
@@ -630,11 +634,14 @@ impl LoadModel {
                 let lanes = if vehicles.is_empty() || carriageway <= 0.0 {
                     Vec::new()
                 } else {
+                    // the uniform load covers the vehicle's lane too
+                    let width = m.lane_width.min(carriageway);
                     vec![Lane {
-                        width: m.lane_width.min(carriageway),
-                        uniform: 0.0,
-                        uniform_width: 0.0,
+                        width,
+                        uniform: m.uniform,
+                        uniform_width: width,
                         vehicle_weight: 1.0,
+                        shift: ((width - m.wheel_gauge) / 2.0).max(0.0),
                     }]
                 };
                 LaneLayout {
@@ -657,14 +664,17 @@ fn crowd_words(m: &Crowd, span: f64) -> LaneWords {
 }
 
 fn en_layout(m: &EnLm1, w: f64) -> LaneLayout {
+    // Table 4.1 for 3 m lanes: below 5.4 m one lane, 5.4 to 6 m two of w / 2; the
+    // thresholds follow an edited lane width (1.8 and 2 lane widths)
+    let lw = m.lane_width;
     let (count, lane_width) = if w <= 0.0 {
-        (0, m.lane_width)
-    } else if w < 5.4 {
-        (1, m.lane_width.min(w))
-    } else if w < 6.0 {
+        (0, lw)
+    } else if w < 1.8 * lw {
+        (1, lw.min(w))
+    } else if w < 2.0 * lw {
         (2, w / 2.0)
     } else {
-        ((w / m.lane_width + 1e-9).floor() as usize, m.lane_width)
+        ((w / lw + 1e-9).floor() as usize, lw)
     };
     let lanes = (0..count)
         .map(|i| Lane {
@@ -676,6 +686,7 @@ fn en_layout(m: &EnLm1, w: f64) -> LaneLayout {
             },
             uniform_width: lane_width,
             vehicle_weight: m.tandem_axle.get(i).zip(m.alpha_tandem.get(i)).map_or(0.0, |(q, a)| q * a),
+            shift: 0.0,
         })
         .collect();
     let words = LaneWords::En {
@@ -702,8 +713,15 @@ fn en_layout(m: &EnLm1, w: f64) -> LaneLayout {
 }
 
 fn hl93_layout(m: &Hl93, w: f64) -> LaneLayout {
-    let count = if w <= 0.0 { 0 } else { ((w / m.lane_width + 1e-9).floor() as usize).max(1) };
-    let lane_width = m.lane_width.min(w.max(0.0));
+    // 3.6.1.1.1: INT(w / 3.6 m) lanes; a roadway of 6.0 to 7.2 m (20 to 24 ft) has two
+    // lanes of half its width; a narrower one still carries one vehicle (common practice)
+    let (count, lane_width) = if w <= 0.0 {
+        (0, m.lane_width)
+    } else if (6.0..7.2).contains(&w) && m.lane_width >= 3.6 - 1e-9 {
+        (2, w / 2.0)
+    } else {
+        (((w / m.lane_width + 1e-9).floor() as usize).max(1), m.lane_width.min(w))
+    };
     let truck = AxleGroup {
         loads: m.truck_axles.to_vec(),
         spacings: vec![m.truck_front_spacing, m.truck_rear_spacing_min],
@@ -739,7 +757,7 @@ fn hl93_layout(m: &Hl93, w: f64) -> LaneLayout {
         }),
     };
     let lane_load_width = m.lane_load_width.min(lane_width);
-    let words = LaneWords::Aashto { count, carriageway: w, lane_width: m.lane_width, impact: m.impact };
+    let words = LaneWords::Aashto { count, carriageway: w, lane_width, impact: m.impact };
     LaneLayout {
         lanes: (0..count)
             .map(|_| Lane {
@@ -747,6 +765,8 @@ fn hl93_layout(m: &Hl93, w: f64) -> LaneLayout {
                 uniform: if lane_load_width > 0.0 { m.lane_load / lane_load_width } else { 0.0 },
                 uniform_width: lane_load_width,
                 vehicle_weight: 1.0 + m.impact,
+                // wheels no nearer than 0.6 m to the lane's edge (3.6.1.3.1)
+                shift: (lane_width / 2.0 - 0.6 - m.wheel_gauge / 2.0).max(0.0),
             })
             .collect(),
         remaining: 0.0,
@@ -773,9 +793,10 @@ fn hl93_layout(m: &Hl93, w: f64) -> LaneLayout {
     }
 }
 
-/// Longest gap between the two trucks of the two-truck load the search tries, m: longer
-/// than any deck this tool models.
-const TWO_TRUCK_LONGEST_GAP: f64 = 400.0;
+/// Longest gap between the two trucks of the two-truck load, m: longer than any deck, so
+/// the second truck may stand anywhere behind the first (the search's cost does not grow
+/// with it).
+const TWO_TRUCK_LONGEST_GAP: f64 = 10_000.0;
 
 #[cfg(test)]
 mod tests {
@@ -808,6 +829,11 @@ mod tests {
         // AASHTO LRFD 3.6.1.1.1: INT(w / 12 ft), taken as 3.6 m
         let m = LoadModel::preset(ModelFamily::Hl93);
         assert_eq!(m.lane_layout(7.3, 50.0).lanes.len(), 2);
+        // 6.0 to 7.2 m (20 to 24 ft): two lanes of half the width (3.6.1.1.1)
+        let l = m.lane_layout(7.0, 50.0);
+        assert_eq!(l.lanes.len(), 2);
+        assert!((l.lanes[0].width - 3.5).abs() < 1e-12);
+        assert_eq!(m.lane_layout(5.9, 50.0).lanes.len(), 1);
         assert_eq!(m.lane_layout(10.8, 50.0).lanes.len(), 3);
         assert_eq!(m.lane_layout(3.0, 50.0).lanes.len(), 1, "a narrow carriageway still carries one vehicle");
         let l = m.lane_layout(7.3, 50.0);

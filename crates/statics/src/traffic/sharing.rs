@@ -17,8 +17,11 @@
 //!
 //! Lanes stand anywhere in the carriageway without overlapping (EN 1991-2 4.2.4: placed
 //! for the most adverse effect); a lane's uniform load counts where r > 0, its vehicle
-//! (wheels at +-gauge/2 of the lane centre) where the wheels' mean r is > 0. The search is
-//! exact on a 5 cm grid of lane positions (dynamic programming over the lanes). The
+//! (wheels at +-gauge/2 of the lane centre, moved sideways where the model allows) where
+//! the wheels' mean r is > 0. The search is exact on a grid of lane positions of at most
+//! 5 cm that fits the lanes' width (dynamic programming over the lanes, the grid run from
+//! either kerb); lanes that cannot fit the grid at all are each counted at their best
+//! place, an upper bound. The
 //! uniform loads and the vehicles are placed each at their own worst (an upper bound of
 //! any single arrangement: conservative by a little), and with multiple presence factors
 //! each number of loaded lanes is tried for each.
@@ -31,7 +34,8 @@ use crate::traffic::models::{Applies, Lane, LaneLayout};
 use crate::units::{Quantity, Units};
 use serde::Serialize;
 
-/// Grid of lane positions across the carriageway, m.
+/// Grid of lane positions across the carriageway, m (the largest step; `best` takes the
+/// one that fits the lanes' width).
 const GRID: f64 = 0.05;
 
 /// One traffic arrangement along a line: the uniform load and the vehicle together.
@@ -198,6 +202,28 @@ impl Across<'_> {
     }
 }
 
+/// The largest `f(u)` for a sideways move u in [-reach, reach] of something centred at
+/// `centre` whose edges (or wheels) stand at `edges` from its centre: tried at both ends,
+/// the middle, every move that puts an edge on a rib (a kink of the lever function) and
+/// eight even steps between.
+fn sideways(centre: f64, reach: f64, edges: &[f64], across: &Across, f: impl Fn(f64) -> f64) -> f64 {
+    if reach <= 0.0 {
+        return f(0.0);
+    }
+    let mut tries: Vec<f64> = (0..=8).map(|k| -reach + reach * k as f64 / 4.0).collect();
+    if let Across::Rib(ribs, _) = across {
+        for rib in ribs.iter() {
+            for edge in edges {
+                let u = rib - centre - edge;
+                if u.abs() <= reach {
+                    tries.push(u);
+                }
+            }
+        }
+    }
+    tries.into_iter().map(f).fold(f64::NEG_INFINITY, f64::max)
+}
+
 /// Geometry across the deck, m from the deck centreline.
 #[derive(Debug, Clone, Copy)]
 struct Strip {
@@ -239,7 +265,13 @@ fn best(
 ) -> (f64, f64) {
     let c0 = -strip.carriageway_half;
     let width = 2.0 * strip.carriageway_half;
-    let cells = (width / GRID + 1e-9).floor() as usize;
+    // a grid step that fits the lanes' width a whole number of times (every lane of a
+    // layout is as wide as the first), so lanes that fill the carriageway fit it exactly
+    let grid =
+        groups
+            .first()
+            .map_or(GRID, |(l, _)| if l.width > 0.0 { l.width / (l.width / GRID).ceil() } else { GRID });
+    let cells = (width / grid + 1e-9).floor() as usize;
     let rest = |a: f64, b: f64| {
         if part == Part::Uniform {
             remaining * across.positive_integral(a, b)
@@ -253,19 +285,22 @@ fn best(
     }
     // lane value and lost remaining area when a lane of group g starts at cell i
     let lane_cells: Vec<usize> =
-        groups.iter().map(|(l, _)| ((l.width / GRID) - 1e-9).ceil() as usize).collect();
+        groups.iter().map(|(l, _)| ((l.width / grid) - 1e-6).ceil() as usize).collect();
     let value = |lane: &Lane, a: f64| -> (f64, f64) {
         let centre = a + lane.width / 2.0;
         let lane_part = match part {
             Part::Uniform => {
-                lane.uniform
-                    * across.positive_integral(
-                        centre - lane.uniform_width / 2.0,
-                        centre + lane.uniform_width / 2.0,
-                    )
+                let reach = ((lane.width - lane.uniform_width) / 2.0).max(0.0);
+                let half = lane.uniform_width / 2.0;
+                sideways(centre, reach, &[-half, half], &across, |u| {
+                    across.positive_integral(centre + u - half, centre + u + half)
+                }) * lane.uniform
             }
             Part::Vehicle => {
-                let r = (across.at(centre - gauge / 2.0) + across.at(centre + gauge / 2.0)) / 2.0;
+                let g = gauge / 2.0;
+                let r = sideways(centre, lane.shift, &[-g, g], &across, |u| {
+                    (across.at(centre + u - g) + across.at(centre + u + g)) / 2.0
+                });
                 lane.vehicle_weight * r.max(0.0)
             }
         };
@@ -284,15 +319,27 @@ fn best(
         (count + 1 < radix[g]).then_some(s + place)
     };
     const NONE: f64 = f64::NEG_INFINITY;
-    // the best net gain of lanes starting on the grid start + i GRID
+    // the best net gain of lanes starting on the grid start + i grid
     let solve = |start: f64| -> f64 {
+        // each lane's net gain at each cell, once (the state loop reuses it)
+        let gains: Vec<Vec<f64>> = groups
+            .iter()
+            .map(|(lane, _)| {
+                (0..cells)
+                    .map(|i| {
+                        let (lane_part, lost) = value(lane, start + i as f64 * grid);
+                        lane_part - lost
+                    })
+                    .collect()
+            })
+            .collect();
         // f[i][s]: best (lane value - lost remaining) from cell i on, with state s so far
         let mut f = vec![vec![NONE; states]; cells + 1];
         f[cells][full] = 0.0;
         for i in (0..cells).rev() {
             for s in 0..states {
                 let mut v = f[i + 1][s];
-                for (g, (lane, _)) in groups.iter().enumerate() {
+                for g in 0..groups.len() {
                     let end = i + lane_cells[g];
                     if end > cells {
                         continue;
@@ -300,8 +347,7 @@ fn best(
                     if let Some(next) = step(s, g) {
                         let tail = f[end][next];
                         if tail > NONE {
-                            let (lane_part, lost) = value(lane, start + i as f64 * GRID);
-                            v = v.max(lane_part - lost + tail);
+                            v = v.max(gains[g][i] + tail);
                         }
                     }
                 }
@@ -312,7 +358,7 @@ fn best(
     };
     // the grid from the left kerb, and shifted to end at the right kerb (the width need
     // not be a whole number of cells), so a mirrored deck gets mirrored shares
-    let leftover = (width - cells as f64 * GRID).max(0.0);
+    let leftover = (width - cells as f64 * grid).max(0.0);
     let gain = solve(c0).max(if leftover > 1e-9 { solve(c0 + leftover) } else { NONE });
     if gain == NONE {
         // the lanes do not fit the grid (a carriageway a hair narrower than its lanes):
@@ -321,7 +367,7 @@ fn best(
             .iter()
             .map(|(lane, n)| {
                 let best_one =
-                    (0..=cells).map(|i| value(lane, c0 + i as f64 * GRID).0).fold(0.0_f64, f64::max);
+                    (0..=cells).map(|i| value(lane, c0 + i as f64 * grid).0).fold(0.0_f64, f64::max);
                 best_one * *n as f64
             })
             .sum();
@@ -478,6 +524,15 @@ mod tests {
     }
 
     #[test]
+    fn the_users_uniform_load_covers_the_vehicles_lane_too() {
+        // 4 kN/m2 over a 7.5 m carriageway = 30 kN/m, whatever lane the vehicle keeps to
+        let layout = LoadModel::preset(ModelFamily::UserDefined).lane_layout(7.5, 80.0);
+        let s = share(&layout, 7.5, 7.5, &[0.0]);
+        assert!(close(s.whole.uniform(), 30.0, 1e-12), "{:?}", s.whole);
+        assert!(close(s.whole.vehicle_weight, 1.0, 1e-12));
+    }
+
+    #[test]
     fn one_rib_takes_everything() {
         let layout = LoadModel::preset(ModelFamily::EnLm1).lane_layout(7.5, 80.0);
         let s = share(&layout, 11.0, 7.5, &[0.0]);
@@ -525,11 +580,15 @@ mod tests {
         let s = share(&layout, 7.5, 7.5, &[0.0]);
         assert!(close(s.whole.vehicle_weight, 2.66, 1e-9), "{:?}", s.whole);
         assert!(close(s.whole.lanes_uniform, 2.0 * 9.3, 1e-9));
-        // ribs at +-3 m, r(y) = (3 - y) / 6 for the left one. One lane against the left
-        // kerb (centre -1.95, wheels -2.85 and -1.05): mean r = (5.85 + 4.05) / 12 = 0.825,
-        // x 1.2 x 1.33 = 1.317. Two lanes, the second beside it (wheels 0.75 and 2.55):
-        // mean r = (2.25 + 0.45) / 12 = 0.225; (0.825 + 0.225) x 1.0 x 1.33 = 1.3965 governs.
+        // ribs at +-3 m, r(y) = (3 - y) / 6 for the left one. The truck may move 0.3 m
+        // sideways in its 3.6 m lane (wheels 0.6 m from the lane's edge, 3.6.1.3.1). One
+        // lane against the left kerb, truck moved left (centre -2.25, wheels -3.15 and
+        // -1.35): mean r = (6.15 + 4.35) / 12 = 0.875, x 1.2 x 1.33 = 1.3965. Two lanes, the
+        // second beside it, its truck moved left too (wheels 0.45 and 2.25): mean r =
+        // (2.55 + 0.75) / 12 = 0.275; (0.875 + 0.275) x 1.0 x 1.33 = 1.5295 governs.
+        // The 3 m lane loads likewise: 9.3 x (0.875 + 0.275) = 10.695 kN/m.
         let s = share(&layout, 7.5, 7.5, &[-3.0, 3.0]);
-        assert!(close(s.ribs[0].traffic.vehicle_weight, 1.05 * 1.33, 1e-9), "{:?}", s.ribs[0]);
+        assert!(close(s.ribs[0].traffic.vehicle_weight, 1.15 * 1.33, 1e-9), "{:?}", s.ribs[0]);
+        assert!(close(s.ribs[0].traffic.lanes_uniform, 9.3 * 1.15, 1e-9), "{:?}", s.ribs[0]);
     }
 }
