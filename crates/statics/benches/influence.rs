@@ -28,6 +28,7 @@ fn influence_and_envelopes(c: &mut Criterion) {
             loads: vec![35.0, 145.0, 145.0],
             spacings: vec![4.3, 4.3],
             variable: Some(VariableSpacing { index: 1, min: 4.3, max: 9.0 }),
+            neglect_relieving: true,
         }),
     };
     let mut group = c.benchmark_group("influence_lines_and_envelopes");

@@ -24,6 +24,11 @@
 //!   candidates F is linear and the best R convex (concave). About n log n per line
 //!   instead of the n^2 of trying every pair of vertices.
 //!
+//! - A group that neglects relieving axles (AASHTO LRFD 3.6.1.3.1) counts, for the max,
+//!   only the axles whose effect is positive and, for the min, only those whose effect is
+//!   negative; the effect is then piecewise linear with kinks where an axle crosses a zero
+//!   of the line as well, so those points are stops too.
+//!
 //! The uniform load and the axle group act together (both at their own worst), so the
 //! extreme effect is the sum of the two extremes. Neither ever reduces an extreme: with
 //! no adverse part the uniform load is left off (0), and the axle group may stay off the
@@ -56,6 +61,10 @@ pub struct AxleGroup {
     pub spacings: Vec<f64>,
     /// A spacing searched over a range, if any.
     pub variable: Option<VariableSpacing>,
+    /// Axles that would relieve an extreme are left off it (AASHTO LRFD 3.6.1.3.1: "axles
+    /// that do not contribute to the extreme force effect under consideration shall be
+    /// neglected"); false: the group acts whole (an EN 1991-2 tandem).
+    pub neglect_relieving: bool,
 }
 
 /// A traffic action: a uniform line load and an optional axle group, applied together.
@@ -293,10 +302,6 @@ fn offsets_into(group: &AxleGroup, s: Option<f64>, d: &mut Vec<f64>) {
 /// Calls `seen(effect, placement)` for every candidate placement of the group (see the
 /// module doc).
 fn search_axles(x: &[f64], eta: &[f64], group: &AxleGroup, seen: &mut dyn FnMut(f64, AxlePlacement)) {
-    let effect = |first: f64, travel: Travel, d: &[f64]| -> f64 {
-        let sense = if travel == Travel::Rightward { -1.0 } else { 1.0 };
-        group.loads.iter().zip(d).map(|(p, dj)| p * ordinate(x, eta, first + sense * dj)).sum()
-    };
     // Stops for an axle: every vertex, and just beyond each end of the line, where the
     // ordinate drops to zero (an axle that leaves the deck; where the end ordinate is not
     // zero the extreme may be an axle just off the line).
@@ -305,6 +310,59 @@ fn search_axles(x: &[f64], eta: &[f64], group: &AxleGroup, seen: &mut dyn FnMut(
     stops.push(x[0] - eps);
     stops.extend_from_slice(x);
     stops.push(x[x.len() - 1] + eps);
+    if !group.neglect_relieving {
+        search_clamped(x, eta, group, &stops, Clamp::None, seen);
+        return;
+    }
+    // each axle counts only where it adds to the extreme: the effect is then piecewise
+    // linear with kinks where an axle crosses a zero of the line too, so those are stops
+    for k in 1..x.len() {
+        let (a, b) = (eta[k - 1], eta[k]);
+        if a * b < 0.0 {
+            stops.push(x[k - 1] + (x[k] - x[k - 1]) * a / (a - b));
+        }
+    }
+    stops.sort_by(f64::total_cmp);
+    // the max with the adding axles only, then the min likewise (a clamped effect of one
+    // sign never moves the other extreme)
+    search_clamped(x, eta, group, &stops, Clamp::Adding, seen);
+    search_clamped(x, eta, group, &stops, Clamp::Relieving, seen);
+}
+
+/// Which axle terms count.
+#[derive(Clone, Copy, PartialEq)]
+enum Clamp {
+    /// Every axle.
+    None,
+    /// Only axles with a positive effect (for the max).
+    Adding,
+    /// Only axles with a negative effect (for the min).
+    Relieving,
+}
+
+impl Clamp {
+    fn term(self, v: f64) -> f64 {
+        match self {
+            Clamp::None => v,
+            Clamp::Adding => v.max(0.0),
+            Clamp::Relieving => v.min(0.0),
+        }
+    }
+}
+
+/// [`search_axles`] with the axles' terms clamped by `clamp`, the axles stopping at `stops`.
+fn search_clamped(
+    x: &[f64],
+    eta: &[f64],
+    group: &AxleGroup,
+    stops: &[f64],
+    clamp: Clamp,
+    seen: &mut dyn FnMut(f64, AxlePlacement),
+) {
+    let effect = |first: f64, travel: Travel, d: &[f64]| -> f64 {
+        let sense = if travel == Travel::Rightward { -1.0 } else { 1.0 };
+        group.loads.iter().zip(d).map(|(p, dj)| clamp.term(p * ordinate(x, eta, first + sense * dj))).sum()
+    };
     // at a fixed spacing: every axle on every stop, both directions (a variable spacing's
     // bounds are the window's ends below)
     if group.variable.is_none() {
@@ -312,7 +370,7 @@ fn search_axles(x: &[f64], eta: &[f64], group: &AxleGroup, seen: &mut dyn FnMut(
         let d = offsets(group, s);
         for travel in [Travel::Rightward, Travel::Leftward] {
             let sense = if travel == Travel::Rightward { -1.0 } else { 1.0 };
-            for &xv in &stops {
+            for &xv in stops {
                 for dj in &d {
                     let first = xv - sense * dj;
                     seen(effect(first, travel, &d), AxlePlacement { first_axle: first, travel, spacing: s });
@@ -333,13 +391,12 @@ fn search_axles(x: &[f64], eta: &[f64], group: &AxleGroup, seen: &mut dyn FnMut(
     for travel in [Travel::Rightward, Travel::Leftward] {
         let sense = if travel == Travel::Rightward { -1.0 } else { 1.0 };
         let part = |w: f64, axles: std::ops::Range<usize>| -> f64 {
-            axles.map(|j| group.loads[j] * ordinate(x, eta, w + sense * base[j])).sum()
+            axles.map(|j| clamp.term(group.loads[j] * ordinate(x, eta, w + sense * base[j]))).sum()
         };
         let front = |u: f64| part(u, 0..split);
         let rear = |w: f64| part(w, split..group.loads.len());
         // breakpoints of R in w, sorted, with R there, and range max / min over them
         let base = &base;
-        let stops = &stops;
         let mut rear_breaks: Vec<f64> = (split..group.loads.len())
             .flat_map(|j| stops.iter().map(move |&xv| xv - sense * base[j]))
             .collect();
@@ -442,6 +499,44 @@ mod tests {
         group.loads.iter().zip(&d).map(|(load, dj)| load * ordinate(x, eta, p.first_axle + sense * dj)).sum()
     }
 
+    /// The effect of a placement with each axle's term clamped (`Clamp::Adding` keeps
+    /// the adding axles, `Clamp::Relieving` the relieving ones).
+    fn replay_clamped(x: &[f64], eta: &[f64], group: &AxleGroup, p: &AxlePlacement, clamp: Clamp) -> f64 {
+        let d = offsets(group, p.spacing);
+        let sense = if p.travel == Travel::Rightward { -1.0 } else { 1.0 };
+        group
+            .loads
+            .iter()
+            .zip(&d)
+            .map(|(load, dj)| clamp.term(load * ordinate(x, eta, p.first_axle + sense * dj)))
+            .sum()
+    }
+
+    #[test]
+    fn relieving_axles_are_left_off_when_the_code_says_so() {
+        // a zig-zag line 0, 1, -1, 1, 0 at x = 0..4 m and three 100 kN axles 1 m apart.
+        // The whole group at 1, 2, 3 m gives 100 - 100 + 100 = 100, and no placement of
+        // the whole group does better; leaving off the axle on the -1 (AASHTO LRFD
+        // 3.6.1.3.1) gives 200. Its min: the axle on -1 alone, -100 (whole: -100 too,
+        // the others off the line or on zeros).
+        let x = vec![0.0, 1.0, 2.0, 3.0, 4.0];
+        let eta = vec![0.0, 1.0, -1.0, 1.0, 0.0];
+        let mut group = AxleGroup {
+            loads: vec![100.0; 3],
+            spacings: vec![1.0, 1.0],
+            variable: None,
+            neglect_relieving: false,
+        };
+        let whole = envelope(&x, &eta, &Traffic { uniform: 0.0, axles: Some(group.clone()) }).expect("valid");
+        assert!(close(whole.max.value, 100.0), "{}", whole.max.value);
+        group.neglect_relieving = true;
+        let e = envelope(&x, &eta, &Traffic { uniform: 0.0, axles: Some(group.clone()) }).expect("valid");
+        assert!(close(e.max.value, 200.0), "{}", e.max.value);
+        assert!(close(e.min.value, -100.0), "{}", e.min.value);
+        let at = e.max.axles.expect("placed");
+        assert!(close(replay_clamped(&x, &eta, &group, &at, Clamp::Adding), 200.0));
+    }
+
     /// Simple span L = 20 m, left reaction R_A, influence line 1 - x/L (any statics text).
     #[test]
     fn simple_span_reaction() {
@@ -455,13 +550,14 @@ mod tests {
         assert_eq!(only_q.min.value, 0.0);
         assert!(only_q.min.loaded.is_empty());
         // a single axle P at the support: P
-        let one = AxleGroup { loads: vec![p], spacings: vec![], variable: None };
+        let one = AxleGroup { loads: vec![p], spacings: vec![], variable: None, neglect_relieving: false };
         let e = envelope(&x, &eta, &Traffic { uniform: 0.0, axles: Some(one) }).expect("valid");
         assert!(close(e.max.value, p));
         assert_eq!(e.max.axles.expect("placed").first_axle, 0.0);
         // two axles P, spacing s (s = 3 m is not a multiple of the 2 m grid): one at the
         // support, one at s: P (1 + (1 - s/L)) = 185 kN; with q added: + q L / 2
-        let two = AxleGroup { loads: vec![p, p], spacings: vec![s], variable: None };
+        let two =
+            AxleGroup { loads: vec![p, p], spacings: vec![s], variable: None, neglect_relieving: false };
         let e = envelope(&x, &eta, &Traffic { uniform: q, axles: Some(two.clone()) }).expect("valid");
         assert!(close(e.max.axle_part, p * (2.0 - s / l)), "{}", e.max.axle_part);
         assert!(close(e.max.value, p * (2.0 - s / l) + q * l / 2.0));
@@ -477,7 +573,7 @@ mod tests {
         let (l, q, p) = (16.0, 10.0, 50.0);
         let x = grid(l, 8);
         let eta: Vec<f64> = x.iter().map(|xi| xi.min(l - xi) / 2.0).collect();
-        let one = AxleGroup { loads: vec![p], spacings: vec![], variable: None };
+        let one = AxleGroup { loads: vec![p], spacings: vec![], variable: None, neglect_relieving: false };
         let e = envelope(&x, &eta, &Traffic { uniform: q, axles: Some(one) }).expect("valid");
         // q L^2 / 8 = 320 kNm and P L / 4 = 200 kNm (any statics text)
         assert!(close(e.max.uniform_part, q * l * l / 8.0));
@@ -501,6 +597,7 @@ mod tests {
             loads: vec![35.0, 145.0, 145.0],
             spacings: vec![4.3, 4.3],
             variable: Some(VariableSpacing { index: 1, min: 4.3, max: 9.0 }),
+            neglect_relieving: false,
         };
         let e = envelope(&x, &eta, &Traffic { uniform: 0.0, axles: Some(truck.clone()) }).expect("valid");
         assert!(close(e.max.value, 1238.0), "{}", e.max.value);
@@ -524,6 +621,7 @@ mod tests {
             loads: vec![35.0, 145.0, 145.0],
             spacings: vec![4.3, 4.3],
             variable: Some(VariableSpacing { index: 1, min: 4.3, max: 9.0 }),
+            neglect_relieving: false,
         };
         let hand = 145.0 + 145.0 * (1.0 - 4.3 / l) + 35.0 * (1.0 - 8.6 / l);
         let left: Vec<f64> = x.iter().map(|xi| 1.0 - xi / l).collect();
@@ -552,6 +650,7 @@ mod tests {
             loads: vec![100.0, 100.0],
             spacings: vec![4.0],
             variable: Some(VariableSpacing { index: 0, min: 4.0, max: 9.0 }),
+            neglect_relieving: false,
         };
         let e = envelope(&x, &eta, &Traffic { uniform: 0.0, axles: Some(pair) }).expect("valid");
         assert!(close(e.max.value, 200.0), "{}", e.max.value);
@@ -567,7 +666,7 @@ mod tests {
     fn a_line_of_both_signs_has_a_max_and_a_min_of_opposite_sign() {
         let x = vec![0.0, 4.0, 10.0, 12.0];
         let eta = vec![0.0, 2.0, -3.0, 0.0];
-        let one = AxleGroup { loads: vec![20.0], spacings: vec![], variable: None };
+        let one = AxleGroup { loads: vec![20.0], spacings: vec![], variable: None, neglect_relieving: false };
         let e = envelope(&x, &eta, &Traffic { uniform: 10.0, axles: Some(one) }).expect("valid");
         assert!(close(e.max.value, 64.0 + 40.0), "{}", e.max.value);
         assert!(close(e.min.value, -84.0 - 60.0), "{}", e.min.value);
@@ -595,7 +694,12 @@ mod tests {
     fn a_group_longer_than_the_line_counts_only_the_axles_on_it() {
         let x = vec![0.0, 2.0];
         let eta = vec![1.0, 1.0];
-        let g = AxleGroup { loads: vec![30.0, 50.0], spacings: vec![10.0], variable: None };
+        let g = AxleGroup {
+            loads: vec![30.0, 50.0],
+            spacings: vec![10.0],
+            variable: None,
+            neglect_relieving: false,
+        };
         let e = envelope(&x, &eta, &Traffic { uniform: 0.0, axles: Some(g) }).expect("valid");
         assert_eq!(e.max.value, 50.0);
         let empty = envelope(&[], &[], &Traffic { uniform: 5.0, axles: None }).expect("valid");
@@ -619,6 +723,7 @@ mod tests {
                 loads,
                 spacings: vec![front, lo],
                 variable: Some(VariableSpacing { index: 1, min: lo, max: lo + width }),
+                neglect_relieving: false,
             };
             let e = envelope(&x, &eta, &Traffic { uniform: 0.0, axles: Some(group.clone()) }).expect("valid");
             for extreme in [&e.max, &e.min] {
@@ -658,6 +763,7 @@ mod tests {
                 loads,
                 spacings: vec![0.9, min, 1.1, 0.7],
                 variable: Some(VariableSpacing { index: 1, min, max: min + width }),
+                neglect_relieving: false,
             };
             let e = envelope(&x, &eta, &Traffic { uniform: 0.0, axles: Some(group.clone()) }).expect("valid");
             for extreme in [&e.max, &e.min] {
@@ -680,6 +786,47 @@ mod tests {
         }
     }
 
+    proptest::proptest! {
+        /// With relieving axles left off, no sampled placement's adding (relieving) axles
+        /// do better than the searched max (min), and the placements reproduce them.
+        #[test]
+        fn no_sampled_placement_beats_the_search_without_relieving_axles(
+            eta in proptest::collection::vec(-2.0f64..2.0, 2..10),
+            loads in proptest::collection::vec(0.0f64..100.0, 4),
+            min in 0.5f64..4.0,
+            width in 0.0f64..20.0,
+        ) {
+            let x: Vec<f64> = (0..eta.len()).map(|k| 1.5 * k as f64 + 0.09 * (k * k) as f64).collect();
+            let group = AxleGroup {
+                loads,
+                spacings: vec![1.1, min, 0.8],
+                variable: Some(VariableSpacing { index: 1, min, max: min + width }),
+                neglect_relieving: true,
+            };
+            let e = envelope(&x, &eta, &Traffic { uniform: 0.0, axles: Some(group.clone()) }).expect("valid");
+            if let Some(p) = &e.max.axles {
+                proptest::prop_assert!(close(replay_clamped(&x, &eta, &group, p, Clamp::Adding), e.max.axle_part));
+            }
+            if let Some(p) = &e.min.axles {
+                proptest::prop_assert!(close(replay_clamped(&x, &eta, &group, p, Clamp::Relieving), e.min.axle_part));
+            }
+            let (x0, x1) = (x[0] - 30.0, x[x.len() - 1] + 30.0);
+            for i in 0..=300 {
+                let first = x0 + (x1 - x0) * (i as f64 + 0.37) / 301.0;
+                for j in 0..=8 {
+                    let s = min + width * j as f64 / 8.0;
+                    for travel in [Travel::Rightward, Travel::Leftward] {
+                        let p = AxlePlacement { first_axle: first, travel, spacing: Some(s) };
+                        let up = replay_clamped(&x, &eta, &group, &p, Clamp::Adding);
+                        let down = replay_clamped(&x, &eta, &group, &p, Clamp::Relieving);
+                        proptest::prop_assert!(up <= e.max.value + 1e-9, "{up} beats max {}", e.max.value);
+                        proptest::prop_assert!(down >= e.min.value - 1e-9, "{down} beats min {}", e.min.value);
+                    }
+                }
+            }
+        }
+    }
+
     #[test]
     fn bad_input_is_refused() {
         let t = Traffic { uniform: 1.0, axles: None };
@@ -687,12 +834,14 @@ mod tests {
         assert!(envelope(&[1.0, 0.0], &[1.0, 1.0], &t).is_err());
         assert!(envelope(&[0.0, 1.0], &[1.0, f64::NAN], &t).is_err());
         assert!(envelope(&[0.0, 1.0], &[1.0, 1.0], &Traffic { uniform: -1.0, axles: None }).is_err());
-        let bad = AxleGroup { loads: vec![1.0, 1.0], spacings: vec![], variable: None };
+        let bad =
+            AxleGroup { loads: vec![1.0, 1.0], spacings: vec![], variable: None, neglect_relieving: false };
         assert!(envelope(&[0.0, 1.0], &[1.0, 1.0], &Traffic { uniform: 0.0, axles: Some(bad) }).is_err());
         let bad = AxleGroup {
             loads: vec![1.0, 1.0],
             spacings: vec![1.0],
             variable: Some(VariableSpacing { index: 0, min: 3.0, max: 2.0 }),
+            neglect_relieving: false,
         };
         assert!(envelope(&[0.0, 1.0], &[1.0, 1.0], &Traffic { uniform: 0.0, axles: Some(bad) }).is_err());
     }

@@ -626,6 +626,8 @@ impl LoadModel {
                                 min,
                                 max,
                             }),
+                            // the user's vehicle acts whole
+                            neglect_relieving: false,
                         },
                         uniform_factor: 1.0,
                         applies: Applies::Everywhere,
@@ -703,7 +705,13 @@ fn en_layout(m: &EnLm1, w: f64) -> LaneLayout {
         multiple_presence: Vec::new(),
         vehicles: vec![Vehicle {
             name: "tandem".into(),
-            axles: AxleGroup { loads: vec![1.0, 1.0], spacings: vec![m.axle_spacing], variable: None },
+            // a tandem acts whole
+            axles: AxleGroup {
+                loads: vec![1.0, 1.0],
+                spacings: vec![m.axle_spacing],
+                variable: None,
+                neglect_relieving: false,
+            },
             uniform_factor: 1.0,
             applies: Applies::Everywhere,
         }],
@@ -730,11 +738,14 @@ fn hl93_layout(m: &Hl93, w: f64) -> LaneLayout {
             min: m.truck_rear_spacing_min,
             max: m.truck_rear_spacing_max,
         }),
+        // 3.6.1.3.1: axles that do not contribute are neglected
+        neglect_relieving: true,
     };
     let tandem = AxleGroup {
         loads: vec![m.tandem_axle, m.tandem_axle],
         spacings: vec![m.tandem_spacing],
         variable: None,
+        neglect_relieving: true,
     };
     // two trucks, each with the fixed rear spacing, the gap between them searched from the
     // shortest headway to a length no deck of this tool reaches
@@ -755,6 +766,7 @@ fn hl93_layout(m: &Hl93, w: f64) -> LaneLayout {
             min: m.two_truck_headway,
             max: m.two_truck_headway.max(TWO_TRUCK_LONGEST_GAP),
         }),
+        neglect_relieving: true,
     };
     let lane_load_width = m.lane_load_width.min(lane_width);
     let words = LaneWords::Aashto { count, carriageway: w, lane_width, impact: m.impact };
