@@ -256,6 +256,20 @@ fn uniform_part(x: &[f64], eta: &[f64], q: f64, sign: f64) -> (f64, Vec<(f64, f6
     (sign * q * total, loaded)
 }
 
+/// Each axle's effect P_j eta(x_j) with the group at `placement` on the line (`x`, `eta`
+/// as for [`envelope`]), first axle first: which axles add to an extreme and which a
+/// group that neglects relieving axles leaves off. Units: those of the line times kN.
+pub fn axle_effects(x: &[f64], eta: &[f64], group: &AxleGroup, placement: &AxlePlacement) -> Vec<f64> {
+    let d = offsets(group, placement.spacing);
+    let sense = if placement.travel == Travel::Rightward { -1.0 } else { 1.0 };
+    group
+        .loads
+        .iter()
+        .zip(&d)
+        .map(|(p, dj)| p * ordinate(x, eta, placement.first_axle + sense * dj))
+        .collect()
+}
+
 /// eta at `at`, linear between positions, zero off the line. A position within 1e-12 of
 /// the line's length of an end counts as on the line: an axle placed on the end vertex
 /// through its offset from the first axle must not fall off by rounding (an axle meant
