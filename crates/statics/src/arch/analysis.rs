@@ -301,18 +301,16 @@ struct Solved {
     truss: Option<(Generated, DeterminacyReport, Option<Solution>)>,
 }
 
-fn solve_models(valid: &ValidDesign, extra: &[CaseSpec]) -> Result<Solved, StaticsError> {
-    let mut specs = standard_cases(valid);
-    specs.extend(extra.iter().cloned());
+fn solve_models(valid: &ValidDesign, specs: &[CaseSpec]) -> Result<Solved, StaticsError> {
     let mut frame = frame_model(valid);
-    add_cases(valid, &mut frame, &specs)?;
+    add_cases(valid, &mut frame, specs)?;
     let frame_solution = solve(&frame.model)?;
     let mut rib = bare_rib_model(valid);
-    add_cases(valid, &mut rib, &specs)?;
+    add_cases(valid, &mut rib, specs)?;
     let rib_solution = solve(&rib.model)?;
     let truss = match truss_model(valid) {
         Some(mut truss) => {
-            add_cases(valid, &mut truss, &specs)?;
+            add_cases(valid, &mut truss, specs)?;
             let determinacy = truss_determinacy(&truss.model)?;
             let solution = match determinacy.determinacy {
                 Determinacy::Mechanism { .. } => None,
@@ -346,7 +344,9 @@ pub fn analyze_with(valid: &ValidDesign, extra: &[CaseSpec]) -> Result<Analysis,
     let design = valid.design();
     let form = valid.form();
     let rs = restraint(valid);
-    let Solved { frame, frame_solution, rib, rib_solution, truss } = solve_models(valid, extra)?;
+    // the standard cases once (they share the traffic across the deck), then the extra
+    let specs: Vec<CaseSpec> = standard_cases(valid).into_iter().chain(extra.iter().cloned()).collect();
+    let Solved { frame, frame_solution, rib, rib_solution, truss } = solve_models(valid, &specs)?;
     let mut frame_notes = vec![ModelNote::Restraint { held_by: rs.held_by }];
     if design.rib_system == RibSystem::ThreeHinged {
         frame_notes.push(ModelNote::DropIn);
@@ -370,7 +370,7 @@ pub fn analyze_with(valid: &ValidDesign, extra: &[CaseSpec]) -> Result<Analysis,
         }
     });
     let mut cases = vec![(DEAD.to_string(), CaseKind::Dead)];
-    cases.extend(standard_cases(valid).into_iter().chain(extra.iter().cloned()).map(|s| (s.name, s.kind)));
+    cases.extend(specs.into_iter().map(|s| (s.name, s.kind)));
     let load_cases = cases
         .into_iter()
         .map(|(name, kind)| {
