@@ -3,10 +3,8 @@
 
 use super::{print_json, read_design};
 use crate::failure::Failure;
-use springline_statics::arch::generate::ModelKind;
-use springline_statics::{
-    bare_rib_model, frame_model, truss_model, Design, Model, StaticsError, ValidDesign,
-};
+use springline_statics::arch::generate::{model_of, ModelKind};
+use springline_statics::{Design, Model, StaticsError, ValidDesign};
 use std::path::PathBuf;
 
 /// Export a generated model in the neutral model format (JSON).
@@ -51,9 +49,5 @@ pub fn run(args: Args) -> Result<(), Failure> {
 /// then the model; `None` for the truss idealisation of an unbraced design.
 fn generated_model(design: &Design, which: ModelKind) -> Result<Option<Model>, StaticsError> {
     let valid = ValidDesign::new(design)?;
-    Ok(match which {
-        ModelKind::Frame => Some(frame_model(&valid).model),
-        ModelKind::Truss => truss_model(&valid).map(|g| g.model),
-        ModelKind::BareRib => Some(bare_rib_model(&valid).model),
-    })
+    Ok(model_of(&valid, which).map(|g| g.model))
 }

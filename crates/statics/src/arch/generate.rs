@@ -407,6 +407,16 @@ fn add_rib(b: &mut Builder, valid: &ValidDesign) {
     }
 }
 
+/// The model `kind` of a validated design: [`frame_model`], [`truss_model`] (`None` for
+/// an unbraced design, which has no truss idealisation) or [`bare_rib_model`].
+pub fn model_of(valid: &ValidDesign, kind: ModelKind) -> Option<Generated> {
+    match kind {
+        ModelKind::Frame => Some(frame_model(valid)),
+        ModelKind::Truss => truss_model(valid),
+        ModelKind::BareRib => Some(bare_rib_model(valid)),
+    }
+}
+
 /// The frame model of the default layout (title [`FRAME_TITLE`]).
 ///
 /// Rib and deck are frame members (the rib hinged at the crown node when three-hinged,

@@ -12,7 +12,7 @@
 //! and kNm per kN; member axial force N (tension positive) and end moments (solver sign
 //! convention), for the whole cross-section (every rib line together).
 
-use crate::arch::generate::{bare_rib_model, frame_model, truss_model, Generated, MemberRole, ModelKind};
+use crate::arch::generate::{model_of, Generated, MemberRole, ModelKind};
 use crate::arch::summary::SpringingForce;
 use crate::arch::validate::ValidDesign;
 use crate::error::{Location, Problem, StaticsError};
@@ -256,15 +256,7 @@ pub fn arch_influence(
     kind: ModelKind,
     step: Option<f64>,
 ) -> Result<Option<ArchInfluence>, StaticsError> {
-    let generated = match kind {
-        ModelKind::Frame => frame_model(valid),
-        ModelKind::Truss => match truss_model(valid) {
-            Some(g) => g,
-            None => return Ok(None),
-        },
-        ModelKind::BareRib => bare_rib_model(valid),
-    };
-    influence_of(generated, step).map(Some)
+    model_of(valid, kind).map(|generated| influence_of(generated, step)).transpose()
 }
 
 /// The influence lines of a generated model along its [`load_path`], the unit load every
@@ -281,6 +273,7 @@ pub fn influence_of(generated: Generated, step: Option<f64>) -> Result<ArchInflu
 mod tests {
     use super::*;
     use crate::arch::design::{Bracing, Design, GroundPoint, RibSystem};
+    use crate::arch::generate::frame_model;
     use crate::frame::model::{frame, Model, Support};
 
     /// Springing H and V of a three-pinned arch for a unit load at x, by statics alone

@@ -24,9 +24,7 @@
 
 use crate::arch::analysis::CAUTION;
 use crate::arch::cases::{CaseKind, CaseSpec, DeckLoad};
-use crate::arch::generate::{
-    bare_rib_model, frame_model, truss_model, Generated, MemberRole, ModelKind, DEAD,
-};
+use crate::arch::generate::{model_of, Generated, MemberRole, ModelKind, DEAD};
 use crate::arch::influence::{influence_of, values_of, ArchInfluence, ArchLine};
 use crate::arch::validate::ValidDesign;
 use crate::error::{Location, Problem, StaticsError};
@@ -325,14 +323,7 @@ pub fn traffic_envelopes(
     valid: &ValidDesign,
     kind: ModelKind,
 ) -> Result<Option<TrafficReport>, StaticsError> {
-    let generated = match kind {
-        ModelKind::Frame => frame_model(valid),
-        ModelKind::Truss => match truss_model(valid) {
-            Some(g) => g,
-            None => return Ok(None),
-        },
-        ModelKind::BareRib => bare_rib_model(valid),
-    };
+    let Some(generated) = model_of(valid, kind) else { return Ok(None) };
     let step = (kind != ModelKind::BareRib).then_some(TRAFFIC_STEP);
     let permanent = dead_case(&generated)?;
     let influence = influence_of(generated, step)?;
@@ -486,6 +477,7 @@ fn report(
 mod tests {
     use super::*;
     use crate::arch::design::{Bracing, Design, RibSystem};
+    use crate::arch::generate::{frame_model, truss_model};
     use crate::arch::influence::load_path;
     use crate::frame::influence::unit_load_case;
     use crate::frame::model::LoadCase;
@@ -784,6 +776,7 @@ mod placement_tests {
     use super::*;
     use crate::arch::cases::{build_case, pattern_case, Pattern};
     use crate::arch::design::Design;
+    use crate::arch::generate::{frame_model, truss_model};
     use crate::traffic::models::ModelFamily;
     use crate::traffic::TrafficDesign;
 

@@ -508,9 +508,50 @@ mod tests {
 
     /// The axle effect of a placement, recomputed from its description.
     fn replay(x: &[f64], eta: &[f64], group: &AxleGroup, p: &AxlePlacement) -> f64 {
-        let d = offsets(group, p.spacing);
-        let sense = if p.travel == Travel::Rightward { -1.0 } else { 1.0 };
-        group.loads.iter().zip(&d).map(|(load, dj)| load * ordinate(x, eta, p.first_axle + sense * dj)).sum()
+        replay_clamped(x, eta, group, p, Clamp::None)
+    }
+
+    /// The checks of the sampling properties: both extremes are reached by their own
+    /// placements, and no placement on a grid of `positions` first-axle places from
+    /// `margin` m before the line to `margin` m after it, and of `steps` + 1 spacings
+    /// across the variable range, both directions, does better (counting only adding or
+    /// relieving axles when the group neglects relieving ones). The grid has no
+    /// vertex-placement by design, so it checks the rule rather than repeating it.
+    fn no_sample_beats(
+        x: &[f64],
+        eta: &[f64],
+        group: &AxleGroup,
+        e: &Envelope,
+        margin: f64,
+        positions: usize,
+        steps: usize,
+    ) -> Result<(), proptest::test_runner::TestCaseError> {
+        let (up, down) = if group.neglect_relieving {
+            (Clamp::Adding, Clamp::Relieving)
+        } else {
+            (Clamp::None, Clamp::None)
+        };
+        for (extreme, clamp) in [(&e.max, up), (&e.min, down)] {
+            if let Some(p) = &extreme.axles {
+                proptest::prop_assert!(close(replay_clamped(x, eta, group, p, clamp), extreme.axle_part));
+            }
+        }
+        let v = group.variable.expect("a variable spacing");
+        let (x0, x1) = (x[0] - margin, x[x.len() - 1] + margin);
+        for i in 0..=positions {
+            let first = x0 + (x1 - x0) * (i as f64 + 0.37) / (positions + 1) as f64;
+            for j in 0..=steps {
+                let s = v.min + (v.max - v.min) * j as f64 / steps as f64;
+                for travel in [Travel::Rightward, Travel::Leftward] {
+                    let p = AxlePlacement { first_axle: first, travel, spacing: Some(s) };
+                    let (hi, lo) =
+                        (replay_clamped(x, eta, group, &p, up), replay_clamped(x, eta, group, &p, down));
+                    proptest::prop_assert!(hi <= e.max.value + 1e-9, "{hi} beats max {}", e.max.value);
+                    proptest::prop_assert!(lo >= e.min.value - 1e-9, "{lo} beats min {}", e.min.value);
+                }
+            }
+        }
+        Ok(())
     }
 
     /// The effect of a placement with each axle's term clamped (`Clamp::Adding` keeps
@@ -742,23 +783,11 @@ mod tests {
             let e = envelope(&x, &eta, &Traffic { uniform: 0.0, axles: Some(group.clone()) }).expect("valid");
             for extreme in [&e.max, &e.min] {
                 if let Some(p) = &extreme.axles {
-                    proptest::prop_assert!(close(replay(&x, &eta, &group, p), extreme.axle_part));
                     let s = p.spacing.expect("variable");
                     proptest::prop_assert!(s >= lo && s <= lo + width);
                 }
             }
-            let (x0, x1) = (x[0] - 12.0, x[x.len() - 1] + 12.0);
-            for i in 0..=400 {
-                let first = x0 + (x1 - x0) * (i as f64 + 0.37) / 401.0;
-                for j in 0..=6 {
-                    let s = lo + width * j as f64 / 6.0;
-                    for travel in [Travel::Rightward, Travel::Leftward] {
-                        let v = replay(&x, &eta, &group, &AxlePlacement { first_axle: first, travel, spacing: Some(s) });
-                        proptest::prop_assert!(v <= e.max.value + 1e-9, "{v} beats max {}", e.max.value);
-                        proptest::prop_assert!(v >= e.min.value - 1e-9, "{v} beats min {}", e.min.value);
-                    }
-                }
-            }
+            no_sample_beats(&x, &eta, &group, &e, 12.0, 400, 6)?;
         }
     }
 
@@ -780,23 +809,7 @@ mod tests {
                 neglect_relieving: false,
             };
             let e = envelope(&x, &eta, &Traffic { uniform: 0.0, axles: Some(group.clone()) }).expect("valid");
-            for extreme in [&e.max, &e.min] {
-                if let Some(p) = &extreme.axles {
-                    proptest::prop_assert!(close(replay(&x, &eta, &group, p), extreme.axle_part));
-                }
-            }
-            let (x0, x1) = (x[0] - 50.0, x[x.len() - 1] + 50.0);
-            for i in 0..=300 {
-                let first = x0 + (x1 - x0) * (i as f64 + 0.37) / 301.0;
-                for j in 0..=12 {
-                    let s = min + width * j as f64 / 12.0;
-                    for travel in [Travel::Rightward, Travel::Leftward] {
-                        let v = replay(&x, &eta, &group, &AxlePlacement { first_axle: first, travel, spacing: Some(s) });
-                        proptest::prop_assert!(v <= e.max.value + 1e-9, "{v} beats max {}", e.max.value);
-                        proptest::prop_assert!(v >= e.min.value - 1e-9, "{v} beats min {}", e.min.value);
-                    }
-                }
-            }
+            no_sample_beats(&x, &eta, &group, &e, 50.0, 300, 12)?;
         }
     }
 
@@ -818,26 +831,7 @@ mod tests {
                 neglect_relieving: true,
             };
             let e = envelope(&x, &eta, &Traffic { uniform: 0.0, axles: Some(group.clone()) }).expect("valid");
-            if let Some(p) = &e.max.axles {
-                proptest::prop_assert!(close(replay_clamped(&x, &eta, &group, p, Clamp::Adding), e.max.axle_part));
-            }
-            if let Some(p) = &e.min.axles {
-                proptest::prop_assert!(close(replay_clamped(&x, &eta, &group, p, Clamp::Relieving), e.min.axle_part));
-            }
-            let (x0, x1) = (x[0] - 30.0, x[x.len() - 1] + 30.0);
-            for i in 0..=300 {
-                let first = x0 + (x1 - x0) * (i as f64 + 0.37) / 301.0;
-                for j in 0..=8 {
-                    let s = min + width * j as f64 / 8.0;
-                    for travel in [Travel::Rightward, Travel::Leftward] {
-                        let p = AxlePlacement { first_axle: first, travel, spacing: Some(s) };
-                        let up = replay_clamped(&x, &eta, &group, &p, Clamp::Adding);
-                        let down = replay_clamped(&x, &eta, &group, &p, Clamp::Relieving);
-                        proptest::prop_assert!(up <= e.max.value + 1e-9, "{up} beats max {}", e.max.value);
-                        proptest::prop_assert!(down >= e.min.value - 1e-9, "{down} beats min {}", e.min.value);
-                    }
-                }
-            }
+            no_sample_beats(&x, &eta, &group, &e, 30.0, 300, 8)?;
         }
     }
 
