@@ -240,23 +240,33 @@ fn a_default_link_has_no_view_part_and_a_links_units_are_not_stored() {
         &format!("return location.hash === {}", json!(format!("#{payload}"))),
         WAIT,
     );
-    // a link in US units shows US units
+    // a link in US units shows US units (a link differing only in its fragment is read
+    // by the page's hashchange listener, so each check waits for the page to follow)
     open_url(&s, &format!("{}#{payload}~view:u=us", server.url()));
-    assert!(text_of(&s, "result-span").ends_with("ft"), "{}", text_of(&s, "result-span"));
+    wait_for_span_unit(&s, "ft");
     // ... but the plain address still opens in the reader's own (here never chosen: SI)
     open(&s, &server);
-    assert!(text_of(&s, "result-span").ends_with("m"), "{}", text_of(&s, "result-span"));
+    wait_for_span_unit(&s, "m");
     // the units button is the reader's choice: kept
     click(&s, "#units");
-    s.wait_for("US units", "return document.getElementById('result-span').textContent.endsWith('ft')", WAIT);
+    wait_for_span_unit(&s, "ft");
     open(&s, &server);
-    assert!(text_of(&s, "result-span").ends_with("ft"), "{}", text_of(&s, "result-span"));
+    wait_for_span_unit(&s, "ft");
     // and a link saying SI shows SI without undoing that choice
     open_url(&s, &format!("{}#{payload}~view:u=si", server.url()));
-    assert!(text_of(&s, "result-span").ends_with("m"), "{}", text_of(&s, "result-span"));
+    wait_for_span_unit(&s, "m");
     open(&s, &server);
-    assert!(text_of(&s, "result-span").ends_with("ft"), "{}", text_of(&s, "result-span"));
+    wait_for_span_unit(&s, "ft");
     assert!(severe(&s).is_empty());
+}
+
+/// Waits until the results' span is shown in `unit` (its text ends with it).
+fn wait_for_span_unit(s: &Session, unit: &str) {
+    s.wait_for(
+        &format!("the span in {unit}"),
+        &format!("return document.getElementById('result-span').textContent.endsWith({})", json!(unit)),
+        WAIT,
+    );
 }
 
 /// Each scenario button shows its case in the drawings and the table: the springing
