@@ -299,8 +299,21 @@ fn current_fixture_designs() -> Vec<FixtureDesign> {
     vehicle.traffic.combinations.truncate(2);
     vehicle.traffic.combinations[0].name = "ULS, owner's factors".into();
     vehicle.traffic.combinations[0].vehicle = 1.5;
+    // design format 4 (link section 3): a fixed rib with the other actions edited
+    let mut actions = Design::demo();
+    actions.name = "fixed rib, own temperature range and springing movement (invented fixture)".into();
+    actions.rib_system = springline_statics::arch::design::RibSystem::Fixed;
+    actions.actions.temperature.clause = "site study of the owner (invented)".into();
+    actions.actions.temperature.expansion = 35.0;
+    actions.actions.temperature.contraction = 40.0;
+    actions.actions.temperature.deck_rib_difference = 10.0;
+    actions.actions.springing.spread = 0.025;
+    actions.actions.springing.settlement_left = 0.005;
+    actions.actions.deflection_limit = 1000.0;
+    actions.traffic.combinations.remove(1);
+    actions.traffic.combinations[0].temperature = 1.2;
     let at = |name, design_format, design| FixtureDesign { name, design_format, design };
-    vec![at("v2-traffic-hl93", 3, hl93), at("v2-traffic-vehicle", 3, vehicle)]
+    vec![at("v2-traffic-hl93", 3, hl93), at("v2-traffic-vehicle", 3, vehicle), at("v2-actions", 4, actions)]
 }
 
 /// The traffic of fixture `v2-traffic-hl93` (and its design file `v3-traffic-hl93`):
@@ -390,4 +403,26 @@ fn refresh_link_fixtures() {
         std::fs::write(base.with_extension("results.json"), pretty(&key_results(&design)))
             .expect("writes results");
     }
+}
+
+/// The actions fixture (design format 4, link section 3) reads back with its own
+/// temperature clause and values, its springing movement and its combinations' factors,
+/// from its link and from its design file.
+#[test]
+fn the_actions_fixture_keeps_its_actions() {
+    let link = permalink::decode(&read(&folder().join("v2-actions.link"))).expect("opens");
+    let file = read_design_file(&designs_folder().join("v4-actions.json"));
+    for d in [&link, &file] {
+        let a = &d.actions;
+        assert_eq!(a.temperature.clause, "site study of the owner (invented)");
+        assert_eq!((a.temperature.expansion, a.temperature.contraction), (35.0, 40.0));
+        assert_eq!(a.temperature.deck_rib_difference, 10.0);
+        assert_eq!((a.springing.spread, a.springing.settlement_left), (0.025, 0.005));
+        assert_eq!(a.deflection_limit, 1000.0);
+        // three combinations: SLS characteristic removed, gr2 kept, ULS gr1a's own factor
+        assert_eq!(d.traffic.combinations.len(), 3);
+        assert_eq!(d.traffic.combinations[0].temperature, 1.2);
+        assert_eq!(d.traffic.combinations[2].braking, 1.35);
+    }
+    assert_eq!(link, file);
 }

@@ -150,6 +150,12 @@ pub enum Field {
     LoadModel,
     /// The combinations of permanent actions and traffic.
     Combinations,
+    /// The temperature actions (ranges, deck-rib difference, thermal coefficient).
+    Temperature,
+    /// The springing movement (spread, settlements).
+    SpringingMovement,
+    /// The live-load deflection limit.
+    DeflectionLimit,
 }
 
 impl Field {
@@ -186,6 +192,9 @@ impl Field {
             Field::RibPositions => "traffic.rib_positions",
             Field::LoadModel => "traffic.load_model",
             Field::Combinations => "traffic.combinations",
+            Field::Temperature => "actions.temperature",
+            Field::SpringingMovement => "actions.springing",
+            Field::DeflectionLimit => "actions.deflection_limit",
         };
         path.to_string()
     }
@@ -225,6 +234,9 @@ impl Field {
             Field::RibPositions => "rib positions",
             Field::LoadModel => "traffic load model",
             Field::Combinations => "combinations",
+            Field::Temperature => "temperature",
+            Field::SpringingMovement => "springing movement",
+            Field::DeflectionLimit => "deflection limit",
         };
         label.to_string()
     }

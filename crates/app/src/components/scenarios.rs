@@ -41,7 +41,13 @@ fn spread(k: usize, n: usize, from: f64, to: f64) -> f64 {
 fn arrows(kind: &CaseKind, panels: usize) -> (String, String) {
     let light: String = (0..LIGHT_ARROWS).map(|k| arrow(spread(k, LIGHT_ARROWS, 0.0, 1.0), 6.0)).collect();
     let heavy: String = match *kind {
-        CaseKind::Dead | CaseKind::Other => String::new(),
+        CaseKind::Dead
+        | CaseKind::Other
+        | CaseKind::Temperature { .. }
+        | CaseKind::DeckTemperature { .. }
+        | CaseKind::SpringingMovement { .. }
+        | CaseKind::Braking { .. }
+        | CaseKind::Erection => String::new(),
         CaseKind::FullSpan { .. } | CaseKind::Placement { .. } => {
             (0..6).map(|k| arrow(spread(k, 6, 0.0, 1.0), 1.0)).collect()
         }

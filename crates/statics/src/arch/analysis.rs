@@ -6,6 +6,7 @@
 //!
 //! Results are for concept design only; local codes and a licensed engineer govern.
 
+use crate::arch::actions::{action_results, ActionsReport};
 use crate::arch::cases::{add_cases, standard_cases, CaseKind, CaseSpec};
 use crate::arch::design::{Design, RibSystem, Warning};
 use crate::arch::form::Form;
@@ -261,6 +262,9 @@ pub struct Analysis {
     /// Per load case ("dead" first, then the standard extra cases): the force diagram,
     /// the rib's pole construction and the thrust line.
     pub load_cases: Vec<CaseFigures>,
+    /// The other actions, each alone (temperature, springing movement, braking in the
+    /// frame model; erection in the bare rib).
+    pub actions: ActionsReport,
 }
 
 /// The figures of one load case, each from the model it is exact for.
@@ -411,6 +415,7 @@ pub fn analyze_with(valid: &ValidDesign, extra: &[CaseSpec]) -> Result<Analysis,
         bare_rib,
         residual_rib_moments: residual,
         load_cases,
+        actions: action_results(valid)?,
     })
 }
 

@@ -21,11 +21,15 @@
 //! (between the springing verticals); the approach spans are not loaded.
 
 use crate::arch::generate::{Generated, DEAD};
+use crate::arch::generate::{MemberRole, ModelKind};
+use crate::arch::influence::load_path;
 use crate::arch::layout::{position, Joint, Layout, Topology};
 use crate::arch::traffic::traffic_of;
 use crate::arch::validate::ValidDesign;
 use crate::error::{Location, StaticsError};
-use crate::frame::model::{LoadCase, NodalLoad};
+use crate::frame::model::{
+    Dof, LoadCase, LoadDirection, MemberLoad, NodalLoad, PrescribedDisplacement, TemperatureLoad,
+};
 use crate::units::{Quantity, Units};
 use serde::{Deserialize, Serialize};
 use std::fmt;
@@ -79,6 +83,47 @@ pub struct CaseSpec {
     pub with_dead: bool,
     /// The deck loads of the case.
     pub loads: Vec<DeckLoad>,
+    /// Imposed actions of the case (temperature, springing movement, braking, the rib's
+    /// own weight alone): see [`Imposed`].
+    #[serde(default)]
+    pub imposed: Vec<Imposed>,
+}
+
+/// An action of a case that is not a vertical deck load. How each reaches a model is
+/// in [`build_case`].
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
+#[serde(tag = "kind", rename_all = "snake_case")]
+pub enum Imposed {
+    /// A uniform temperature change `delta_t` (K, positive warmer) of every member, or of
+    /// the deck members (deck and approach spans, the truss's deck chord) alone; the
+    /// members' thermal coefficient is the design's.
+    Temperature {
+        /// Change, K.
+        delta_t: f64,
+        /// The deck alone (a deck-rib difference).
+        deck_only: bool,
+    },
+    /// The springings move: each outward by half `spread` (m) and down by its settlement
+    /// (m, positive down).
+    SpringingMovement {
+        /// Spread, m, positive apart.
+        spread: f64,
+        /// Left settlement, m, positive down.
+        settlement_left: f64,
+        /// Right settlement, m, positive down.
+        settlement_right: f64,
+    },
+    /// A horizontal force along the deck, kN in all, positive to the right, shared by the
+    /// deck nodes of the load path in proportion to their tributary lengths (models
+    /// without a deck take nothing).
+    Braking {
+        /// Total force, kN.
+        force: f64,
+    },
+    /// The rib's own weight alone, per metre along the rib (unit weight x area x ribs),
+    /// on the bare rib only: the erection stage before posts and deck (other models take
+    /// nothing).
+    RibSelfWeight,
 }
 
 /// Left or right half of the arch span.
@@ -153,6 +198,32 @@ pub enum CaseKind {
         /// The largest (true) or the smallest effect.
         max: bool,
     },
+    /// A uniform temperature change of every member (no dead load).
+    Temperature {
+        /// Change, K (positive warmer).
+        delta_t: f64,
+    },
+    /// The deck warmer (positive) or cooler than the rib (no dead load).
+    DeckTemperature {
+        /// The deck's change, K.
+        delta_t: f64,
+    },
+    /// The springings spread and settle (no dead load).
+    SpringingMovement {
+        /// Spread, m.
+        spread: f64,
+        /// Left settlement, m, down.
+        settlement_left: f64,
+        /// Right settlement, m, down.
+        settlement_right: f64,
+    },
+    /// Braking along the deck, to the right (no dead load).
+    Braking {
+        /// Total force, kN.
+        force: f64,
+    },
+    /// The bare rib under its own weight before posts and deck (erection stage).
+    Erection,
     /// Any other case, built from deck loads.
     Other,
 }
@@ -191,6 +262,32 @@ impl fmt::Display for CaseKind {
                 "dead load plus the traffic where it gives the {} of an envelope",
                 if max { "largest effect" } else { "smallest effect" }
             ),
+            CaseKind::Temperature { delta_t } => write!(
+                f,
+                "uniform temperature {} of every member by {:.1} K (alone, no dead load)",
+                if delta_t >= 0.0 { "rise" } else { "fall" },
+                delta_t.abs()
+            ),
+            CaseKind::DeckTemperature { delta_t } => write!(
+                f,
+                "the deck {:.1} K {} than the rib (alone, no dead load)",
+                delta_t.abs(),
+                if delta_t >= 0.0 { "warmer" } else { "cooler" }
+            ),
+            CaseKind::SpringingMovement { spread, settlement_left, settlement_right } => write!(
+                f,
+                "the springings spread {:.1} mm and settle {:.1} mm (left) and {:.1} mm (right) (alone, no dead load)",
+                spread * 1e3,
+                settlement_left * 1e3,
+                settlement_right * 1e3
+            ),
+            CaseKind::Braking { force } => write!(
+                f,
+                "braking: {force:.1} kN along the deck, to the right (alone, no dead load)"
+            ),
+            CaseKind::Erection => f.write_str(
+                "erection: the bare rib under its own weight before posts and deck (a stage of its own)",
+            ),
             CaseKind::Other => f.write_str("deck loads"),
         }
     }
@@ -212,6 +309,15 @@ impl CaseKind {
             CaseKind::Quarter { quarter, .. } => format!("quarter-{quarter}"),
             CaseKind::Vehicle { first_axle, .. } => format!("vehicle-{}", first_axle.round().max(0.0) as u64),
             CaseKind::Placement { max } => if max { "placement-max" } else { "placement-min" }.into(),
+            CaseKind::Temperature { delta_t } => {
+                if delta_t >= 0.0 { "temperature-rise" } else { "temperature-fall" }.into()
+            }
+            CaseKind::DeckTemperature { delta_t } => {
+                if delta_t >= 0.0 { "deck-warmer" } else { "deck-cooler" }.into()
+            }
+            CaseKind::SpringingMovement { .. } => "springing-movement".into(),
+            CaseKind::Braking { .. } => "braking".into(),
+            CaseKind::Erection => "erection".into(),
             CaseKind::Other => "deck-loads".into(),
         }
     }
@@ -238,6 +344,15 @@ impl CaseKind {
             CaseKind::Vehicle { .. } => "Vehicle".into(),
             CaseKind::Placement { max: true } => "Worst placement, largest".into(),
             CaseKind::Placement { max: false } => "Worst placement, smallest".into(),
+            CaseKind::Temperature { delta_t } => {
+                if delta_t >= 0.0 { "Temperature rise" } else { "Temperature fall" }.into()
+            }
+            CaseKind::DeckTemperature { delta_t } => {
+                if delta_t >= 0.0 { "Deck warmer" } else { "Deck cooler" }.into()
+            }
+            CaseKind::SpringingMovement { .. } => "Springing movement".into(),
+            CaseKind::Braking { .. } => "Braking".into(),
+            CaseKind::Erection => "Erection".into(),
             CaseKind::Other => "Deck loads".into(),
         }
     }
@@ -277,6 +392,16 @@ impl CaseKind {
                  travelling right",
                 show(Quantity::Force, total),
                 show(Quantity::Length, first_axle),
+            ),
+            CaseKind::SpringingMovement { spread, settlement_left, settlement_right } => format!(
+                "the springings spread {} and settle {} (left) and {} (right) (alone, no dead load)",
+                show(Quantity::SectionDepth, spread),
+                show(Quantity::SectionDepth, settlement_left),
+                show(Quantity::SectionDepth, settlement_right),
+            ),
+            CaseKind::Braking { force } => format!(
+                "braking: {} along the deck, to the right (alone, no dead load)",
+                show(Quantity::Force, force)
             ),
             other => other.to_string(),
         }
@@ -336,6 +461,7 @@ fn half_span_line(valid: &ValidDesign, half: Half, line: f64) -> CaseSpec {
         kind: CaseKind::HalfSpan { half, intensity: w, line_load: line, x0, x1 },
         with_dead: true,
         loads: vec![DeckLoad::Strip { w: line, x0, x1 }],
+        imposed: Vec::new(),
     }
 }
 
@@ -362,6 +488,7 @@ fn doubled_panel_spec(valid: &ValidDesign, panel: usize) -> CaseSpec {
         kind: CaseKind::DoubledPanel { panel, load: p, x: f.panel_x[panel] },
         with_dead: true,
         loads: vec![DeckLoad::PanelPoint { panel, p }],
+        imposed: Vec::new(),
     }
 }
 
@@ -440,6 +567,7 @@ pub fn pattern_case(valid: &ValidDesign, pattern: Pattern) -> Result<CaseSpec, S
         kind,
         with_dead: true,
         loads: vec![DeckLoad::Strip { w: line, x0, x1 }],
+        imposed: Vec::new(),
     };
     Ok(match pattern {
         Pattern::FullSpan => {
@@ -475,6 +603,7 @@ pub fn pattern_case(valid: &ValidDesign, pattern: Pattern) -> Result<CaseSpec, S
                 kind: CaseKind::Vehicle { first_axle, total, along },
                 with_dead: true,
                 loads,
+                imposed: Vec::new(),
             }
         }
     })
@@ -585,7 +714,90 @@ pub fn build_case(
             }
         }
     }
+    for imposed in &spec.imposed {
+        add_imposed(valid, generated, &mut lc, imposed).map_err(|m| StaticsError::invalid(at_case(), m))?;
+    }
     Ok(lc)
+}
+
+/// Adds one imposed action to `lc` of `generated` (see [`Imposed`]). Err: the words of
+/// a value that is not finite.
+fn add_imposed(
+    valid: &ValidDesign,
+    generated: &Generated,
+    lc: &mut LoadCase,
+    imposed: &Imposed,
+) -> Result<(), String> {
+    let model = &generated.model;
+    match *imposed {
+        Imposed::Temperature { delta_t, deck_only } => {
+            if !delta_t.is_finite() {
+                return Err(format!("the temperature change {delta_t} K is not a number"));
+            }
+            let on_deck = |k: usize| {
+                matches!(generated.map.roles.get(k), Some(MemberRole::Deck | MemberRole::Approach))
+            };
+            lc.temperature.extend(
+                (0..model.members.len())
+                    .filter(|&k| !deck_only || on_deck(k))
+                    .map(|member| TemperatureLoad { member, delta_t }),
+            );
+        }
+        Imposed::SpringingMovement { spread, settlement_left, settlement_right } => {
+            if ![spread, settlement_left, settlement_right].iter().all(|v| v.is_finite()) {
+                return Err("a springing movement is not a number".into());
+            }
+            let [left, right] = generated.map.springings;
+            for (node, dx, down) in
+                [(left, -spread / 2.0, settlement_left), (right, spread / 2.0, settlement_right)]
+            {
+                for (dof, value) in [(Dof::X, dx), (Dof::Y, -down)] {
+                    if value != 0.0 {
+                        lc.prescribed.push(PrescribedDisplacement { node, dof, value });
+                    }
+                }
+            }
+        }
+        Imposed::Braking { force } => {
+            if !force.is_finite() {
+                return Err(format!("the braking force {force} kN is not a number"));
+            }
+            if generated.kind == ModelKind::BareRib {
+                return Ok(());
+            }
+            let path = load_path(generated);
+            let x: Vec<f64> = path.iter().map(|&n| model.nodes[n].x).collect();
+            let length = match (x.first(), x.last()) {
+                (Some(a), Some(b)) if b > a => b - a,
+                _ => return Ok(()),
+            };
+            for (i, &node) in path.iter().enumerate() {
+                let before = if i > 0 { x[i] - x[i - 1] } else { 0.0 };
+                let after = if i + 1 < x.len() { x[i + 1] - x[i] } else { 0.0 };
+                let fx = force * 0.5 * (before + after) / length;
+                match lc.nodal.iter_mut().find(|l| l.node == node) {
+                    Some(l) => l.fx += fx,
+                    None => lc.nodal.push(NodalLoad { node, fx, fy: 0.0, mz: 0.0 }),
+                }
+            }
+        }
+        Imposed::RibSelfWeight => {
+            if generated.kind != ModelKind::BareRib {
+                return Ok(());
+            }
+            let unit_weight = valid.design().groups.rib.unit_weight;
+            for &member in &generated.map.rib_members {
+                let w = -unit_weight * model.members[member].a;
+                lc.member.push(MemberLoad::Uniform {
+                    member,
+                    w,
+                    direction: LoadDirection::GlobalY,
+                    projected: false,
+                });
+            }
+        }
+    }
+    Ok(())
 }
 
 /// Adds every case of `specs` to `generated` (see [`build_case`]), after its existing

@@ -10,6 +10,7 @@
 //! cross-section, so generated members use `ribs` times the area and second moment of
 //! area, and self-weights are `ribs` times unit weight times area.
 
+use crate::arch::actions::ActionsDesign;
 use crate::error::{Field, GroupName, Problem, SectionProperty};
 use crate::tolerance::{GROUND_TOLERANCE, SECTION_BOUND_ROUNDING};
 use crate::traffic::models::ModelFamily;
@@ -17,7 +18,7 @@ use crate::traffic::TrafficDesign;
 use serde::{Deserialize, Serialize};
 
 /// The version of the design format written by this engine.
-pub const DESIGN_VERSION: u32 = 3;
+pub const DESIGN_VERSION: u32 = 4;
 /// Fewest arch panels accepted (a rib needs at least one interior node).
 pub const MIN_PANELS: usize = 2;
 /// Most arch panels accepted (beyond this the panels are shorter than any real post
@@ -98,6 +99,9 @@ pub struct Design {
     /// Traffic: carriageway, rib positions across the deck, load model and combinations
     /// (design format 3).
     pub traffic: TrafficDesign,
+    /// The other actions: temperature, springing movement, deflection limit (design
+    /// format 4).
+    pub actions: ActionsDesign,
 }
 
 /// A point of the ground profile, m.
@@ -300,6 +304,7 @@ impl Design {
             form: FormSettings::default(),
             // footways of 1.75 m each side of a 7.5 m carriageway
             traffic: TrafficDesign::preset(ModelFamily::EnLm1, 7.5),
+            actions: ActionsDesign::preset(ModelFamily::EnLm1),
         }
     }
 
@@ -775,6 +780,7 @@ pub(crate) fn check_inputs(d: &Design, problems: &mut Vec<Problem>, warnings: &m
         );
     }
     problems.extend(d.traffic.problems(d.deck.width, d.deck.ribs));
+    problems.extend(d.actions.problems());
 }
 
 /// The deck axis against the ground between the abutment seats: at each seat the ground

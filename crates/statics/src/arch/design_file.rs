@@ -11,6 +11,7 @@
 //! | 1 | the first format |
 //! | 2 | `deck.abutment_height` (m) added; a version-1 design has 10 m (`DEFAULT_ABUTMENT_HEIGHT`) |
 //! | 3 | `traffic` added (carriageway, rib positions, load model, combinations); a version-2 design gets EN 1991-2 Load Model 1 over its whole deck width (`TrafficDesign::for_deck_width`) |
+//! | 4 | `actions` added (temperature, springing movement, deflection limit) and the combinations' `temperature`, `settlement`, `braking` factors; a version-3 design gets its load model family's presets (`ActionsDesign::preset`, `Combination::add_action_factors`, EN's gr2 added) |
 //!
 //! # Reading ([`read_design_json`])
 //!
@@ -34,8 +35,10 @@
 //! 3. Keep the committed `tests/fixtures/designs/vN-*.json` files as they are; they
 //!    must keep reading. The link side has its own rule (`link::sections`).
 
+use crate::arch::actions::ActionsDesign;
 use crate::arch::design::{Design, DEFAULT_ABUTMENT_HEIGHT, DESIGN_VERSION};
 use crate::error::{DesignFileError, StaticsError, VersionRange};
+use crate::traffic::combination::Combination;
 use crate::traffic::TrafficDesign;
 use serde_json::{Map, Value};
 
@@ -53,7 +56,7 @@ type Step = fn(&mut Map<String, Value>);
 
 /// The migration steps, oldest first: `STEPS[i]` takes version `OLDEST_DESIGN_VERSION + i`
 /// to the next.
-const STEPS: &[Step] = &[version_1_to_2, version_2_to_3];
+const STEPS: &[Step] = &[version_1_to_2, version_2_to_3, version_3_to_4];
 
 // One step per version: a new DESIGN_VERSION without its step stops the build here.
 const _: () = assert!(OLDEST_DESIGN_VERSION + STEPS.len() as u32 == DESIGN_VERSION);
@@ -63,6 +66,25 @@ const _: () = assert!(OLDEST_DESIGN_VERSION + STEPS.len() as u32 == DESIGN_VERSI
 fn version_1_to_2(design: &mut Map<String, Value>) {
     if let Some(Value::Object(deck)) = design.get_mut("deck") {
         deck.entry("abutment_height").or_insert(Value::from(DEFAULT_ABUTMENT_HEIGHT));
+    }
+}
+
+/// Version 3 to 4: the other actions, the presets of the traffic's load model family
+/// (`ActionsDesign::preset`), and the action factors of the combinations that bear a
+/// preset's name (`Combination::add_action_factors`, which also adds EN's gr2). A traffic
+/// that does not read is left for the final read to report.
+fn version_3_to_4(design: &mut Map<String, Value>) {
+    let Some(traffic) = design.get("traffic").cloned() else { return };
+    let Ok(mut traffic) = serde_json::from_value::<TrafficDesign>(traffic) else { return };
+    let family = traffic.load_model.family();
+    Combination::add_action_factors(family, &mut traffic.combinations);
+    if let Ok(value) = serde_json::to_value(&traffic) {
+        design.insert("traffic".into(), value);
+    }
+    if !design.contains_key("actions") {
+        if let Ok(actions) = serde_json::to_value(ActionsDesign::preset(family)) {
+            design.insert("actions".into(), actions);
+        }
     }
 }
 
@@ -164,8 +186,28 @@ mod tests {
     fn demo_v2_value() -> Value {
         let mut value = serde_json::to_value(Design::demo()).expect("serialises");
         value["version"] = Value::from(2);
-        value.as_object_mut().expect("design object").remove("traffic");
+        let object = value.as_object_mut().expect("design object");
+        object.remove("traffic");
+        object.remove("actions");
         value
+    }
+
+    /// The demo as a version-3 file: traffic without the other actions, combinations
+    /// without their factors (as the version-3 engine wrote it).
+    fn demo_v3_text() -> String {
+        let mut value = serde_json::to_value(Design::demo()).expect("serialises");
+        value["version"] = Value::from(3);
+        let object = value.as_object_mut().expect("design object");
+        object.remove("actions");
+        let combinations = object["traffic"]["combinations"].as_array_mut().expect("combinations");
+        combinations.retain(|c| c["name"] != "ULS gr2");
+        for c in combinations {
+            let c = c.as_object_mut().expect("combination");
+            for key in ["temperature", "settlement", "braking"] {
+                c.remove(key);
+            }
+        }
+        serde_json::to_string_pretty(&value).expect("serialises")
     }
 
     fn demo_v2_text() -> String {
@@ -239,7 +281,8 @@ mod tests {
         assert_eq!(d.traffic.carriageway_width, 11.0);
         assert!(d.traffic.rib_positions.is_empty());
         assert!(matches!(d.traffic.load_model, LoadModel::EnLm1(_)));
-        assert_eq!(d.traffic.combinations.len(), 3);
+        // the EN 1990 combinations and gr2 (braking), added by the step to format 4
+        assert_eq!(d.traffic.combinations.len(), 4);
         assert_eq!(d, demo_without_traffic());
         // the width is the file's own deck width
         let mut value = demo_v2_value();
@@ -331,47 +374,60 @@ mod tests {
         assert!(message.contains("not a design of format 1") && message.contains("deck"), "{message}");
     }
 
-    /// The field a hypothetical version 4 adds, and its default (test only).
-    const FIELD_OF_VERSION_4: &str = "field_of_version_4";
-    const DEFAULT_OF_VERSION_4: f64 = 0.25;
+    /// The field a hypothetical version 5 adds, and its default (test only).
+    const FIELD_OF_VERSION_5: &str = "field_of_version_5";
+    const DEFAULT_OF_VERSION_5: f64 = 0.25;
 
-    fn version_3_to_4(design: &mut Map<String, Value>) {
-        design.entry(FIELD_OF_VERSION_4).or_insert(Value::from(DEFAULT_OF_VERSION_4));
+    fn version_4_to_5(design: &mut Map<String, Value>) {
+        design.entry(FIELD_OF_VERSION_5).or_insert(Value::from(DEFAULT_OF_VERSION_5));
+    }
+
+    /// A format-3 file opens with its load model family's actions and factors, and
+    /// EN's gr2 combination added.
+    #[test]
+    fn version_3_files_get_the_actions_of_their_load_model() {
+        let d = read_design_json(&demo_v3_text()).expect("reads");
+        assert_eq!(d, Design::demo(), "the demo is made of the EN presets");
     }
 
     /// How a later version adds a field without breaking older files: one more step.
-    /// Files of versions 1 to 3 reach version 4 through the whole chain with the
-    /// defaults of every step; a version-4 file keeps its value; and today's reader,
-    /// which knows no version 4, refuses such a file as made by a newer version.
+    /// Files of versions 1 to 4 reach version 5 through the whole chain with the
+    /// defaults of every step; a version-5 file keeps its value; and today's reader,
+    /// which knows no version 5, refuses such a file as made by a newer version.
     #[test]
     fn a_later_version_adds_a_field_by_one_more_step() {
-        assert_eq!(DESIGN_VERSION, 3, "model the version after today's here");
-        let steps: &[Step] = &[version_1_to_2, version_2_to_3, version_3_to_4];
+        assert_eq!(DESIGN_VERSION, 4, "model the version after today's here");
+        let steps: &[Step] = &[version_1_to_2, version_2_to_3, version_3_to_4, version_4_to_5];
         let v1 = demo_v1_text();
         let v2 = demo_v2_text();
-        let v3 = write_design_json(&Design::demo());
+        let v3 = demo_v3_text();
+        let v4 = write_design_json(&Design::demo());
         let demo_traffic = serde_json::to_value(Design::demo().traffic).expect("serialises");
         let default_traffic = serde_json::to_value(TrafficDesign::for_deck_width(11.0)).expect("serialises");
-        for (text, declared, traffic) in
-            [(&v1, 1, &default_traffic), (&v2, 2, &default_traffic), (&v3, 3, &demo_traffic)]
-        {
+        for (text, declared, traffic) in [
+            (&v1, 1, &default_traffic),
+            (&v2, 2, &default_traffic),
+            (&v3, 3, &demo_traffic),
+            (&v4, 4, &demo_traffic),
+        ] {
             let (version, value) = updated_json(text, steps).expect("reads");
             assert_eq!(version, declared);
-            assert_eq!(value["version"], Value::from(4));
+            assert_eq!(value["version"], Value::from(5));
             assert_eq!(value["deck"]["abutment_height"], Value::from(DEFAULT_ABUTMENT_HEIGHT));
             assert_eq!(&value["traffic"], traffic, "version {declared}");
-            assert_eq!(value[FIELD_OF_VERSION_4], Value::from(DEFAULT_OF_VERSION_4));
+            assert!(value["actions"]["temperature"]["alpha"].is_number(), "version {declared}");
+            assert_eq!(value[FIELD_OF_VERSION_5], Value::from(DEFAULT_OF_VERSION_5));
         }
-        let mut v4: Value = serde_json::from_str(&v3).expect("JSON");
-        v4["version"] = Value::from(4);
-        v4[FIELD_OF_VERSION_4] = Value::from(0.5);
-        let v4 = serde_json::to_string_pretty(&v4).expect("serialises");
-        let (_, value) = updated_json(&v4, steps).expect("reads");
-        assert_eq!(value[FIELD_OF_VERSION_4], Value::from(0.5));
+        let mut v5: Value = serde_json::from_str(&v4).expect("JSON");
+        v5["version"] = Value::from(5);
+        v5[FIELD_OF_VERSION_5] = Value::from(0.5);
+        let v5 = serde_json::to_string_pretty(&v5).expect("serialises");
+        let (_, value) = updated_json(&v5, steps).expect("reads");
+        assert_eq!(value[FIELD_OF_VERSION_5], Value::from(0.5));
         // today's reader
-        let message = read_design_json(&v4).map_err(|e| e.to_string()).expect_err("refused");
+        let message = read_design_json(&v5).map_err(|e| e.to_string()).expect_err("refused");
         assert!(
-            message.contains("made by a newer version of Springline (format 4; this one reads 1 to 3)"),
+            message.contains("made by a newer version of Springline (format 5; this one reads 1 to 4)"),
             "{message}"
         );
     }

@@ -276,6 +276,7 @@ struct Builder<'a> {
     rib: Vec<Option<usize>>,
     rib_members: Vec<usize>,
     ribs: f64,
+    alpha: f64,
 }
 
 impl<'a> Builder<'a> {
@@ -290,6 +291,7 @@ impl<'a> Builder<'a> {
             rib: vec![None; f.rib_x.len()],
             rib_members: Vec::new(),
             ribs: valid.design().deck.ribs as f64,
+            alpha: valid.design().actions.temperature.alpha,
         }
     }
     fn joint(&mut self, j: Joint) -> usize {
@@ -331,11 +333,14 @@ impl<'a> Builder<'a> {
     }
     fn frame_member(&mut self, name: String, role: MemberRole, a: usize, b: usize, s: &Section) -> usize {
         self.roles.push(role);
-        self.model.add_member(frame(&name, role.key(), a, b, s.e, s.a * self.ribs, s.i * self.ribs))
+        let mut m = frame(&name, role.key(), a, b, s.e, s.a * self.ribs, s.i * self.ribs);
+        m.alpha = self.alpha;
+        self.model.add_member(m)
     }
     fn truss_member(&mut self, name: String, role: MemberRole, a: usize, b: usize, s: &Section) -> usize {
         let mut m = truss(&name, role.key(), a, b, s.e, s.a * self.ribs);
         m.i = s.i * self.ribs;
+        m.alpha = self.alpha;
         self.roles.push(role);
         self.model.add_member(m)
     }

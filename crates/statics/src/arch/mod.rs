@@ -2,6 +2,7 @@
 //! finding, generation of the analysis models, load cases and the whole analysis. Uses
 //! the traffic, graphic and frame layers.
 
+pub mod actions;
 pub mod analysis;
 pub mod cases;
 pub mod design;

@@ -22,7 +22,9 @@
 //! Units: kN and kNm; signs those of the line (`ArchLine`). Concept-design values: local
 //! codes and a licensed engineer govern.
 
+use crate::arch::actions::{action_cases, braking, Braking};
 use crate::arch::analysis::CAUTION;
+use crate::arch::cases::add_cases;
 use crate::arch::cases::{CaseKind, CaseSpec, DeckLoad};
 use crate::arch::generate::{model_of, Generated, MemberRole, ModelKind, DEAD};
 use crate::arch::influence::{influence_of, values_of, ArchInfluence, ArchLine};
@@ -30,6 +32,8 @@ use crate::arch::validate::ValidDesign;
 use crate::error::{Location, Problem, StaticsError};
 use crate::frame::envelope::{axle_effects, envelope, AxleGroup, AxlePlacement, Envelope, Extreme, Travel};
 use crate::frame::influence::InfluenceLines;
+use crate::frame::influence::Quantity;
+use crate::frame::model::Dof;
 use crate::frame::results::Solution;
 use crate::frame::solver::solve;
 use crate::traffic::combination::Combination;
@@ -99,8 +103,57 @@ pub struct LineEnvelope {
     pub traffic_max: Governing,
     /// Smallest characteristic traffic effect (<= 0).
     pub traffic_min: Governing,
-    /// Design extremes per combination.
+    /// The effect of each other action alone (temperature, springing movement, braking
+    /// to the right; `arch::actions::action_cases` less the erection stage), for `per`.
+    pub actions: Vec<ActionEffect>,
+    /// Design extremes per combination: permanent, traffic and the other actions.
     pub design: Vec<DesignRange>,
+}
+
+/// The effect of one other action on a line, kN or kNm, signs those of the line.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct ActionEffect {
+    /// The action case's name (`arch::actions`).
+    pub case: String,
+    /// What the action is.
+    pub kind: CaseKind,
+    /// Its effect.
+    pub value: f64,
+}
+
+/// The factored parts of the other actions in a combination's (max, min): the worse of
+/// the uniform rise and fall and the worse of the deck warmer and cooler (each where it
+/// adds), times the temperature factor; the springing movement where it adds (it never
+/// relieves), times the settlement factor; braking either way along the deck (its effect
+/// with either sign), times the braking factor. Temperature components taken together at
+/// full value is conservative (EN 1991-1-5 6.1.5 would reduce one of them; common
+/// practice at concept stage).
+pub fn action_parts(combination: &Combination, effects: &[ActionEffect]) -> (f64, f64) {
+    let (mut up, mut down) = (0.0, 0.0);
+    let worst = |pick: &dyn Fn(&CaseKind) -> bool| {
+        effects
+            .iter()
+            .filter(|e| pick(&e.kind))
+            .fold((0.0_f64, 0.0_f64), |(hi, lo), e| (hi.max(e.value), lo.min(e.value)))
+    };
+    let uniform = worst(&|k| matches!(k, CaseKind::Temperature { .. }));
+    let deck = worst(&|k| matches!(k, CaseKind::DeckTemperature { .. }));
+    let movement = worst(&|k| matches!(k, CaseKind::SpringingMovement { .. }));
+    let braking = effects
+        .iter()
+        .filter(|e| matches!(e.kind, CaseKind::Braking { .. }))
+        .fold(0.0_f64, |m, e| m.max(e.value.abs()));
+    for (factor, (hi, lo)) in [
+        (combination.temperature, uniform),
+        (combination.temperature, deck),
+        (combination.settlement, movement),
+    ] {
+        up += factor * hi;
+        down += factor * lo;
+    }
+    up += combination.braking * braking;
+    down -= combination.braking * braking;
+    (up, down)
 }
 
 /// The traffic report of one model of a design.
@@ -124,6 +177,11 @@ pub struct TrafficReport {
     pub thrust: LineEnvelope,
     /// Every line: springing forces first, then members in model order.
     pub lines: Vec<LineEnvelope>,
+    /// The other actions combined (temperature, springing movement, braking), the
+    /// braking force's working.
+    pub braking: Braking,
+    /// The live-load deflection of the deck (the frame model only).
+    pub deflection: Option<Deflection>,
     /// Caution.
     pub caution: String,
 }
@@ -325,19 +383,110 @@ pub fn traffic_envelopes(
 ) -> Result<Option<TrafficReport>, StaticsError> {
     let Some(generated) = model_of(valid, kind) else { return Ok(None) };
     let step = (kind != ModelKind::BareRib).then_some(TRAFFIC_STEP);
-    let permanent = dead_case(&generated)?;
+    let (permanent, actions) = fixed_cases(valid, &generated)?;
     let influence = influence_of(generated, step)?;
-    report(valid, kind, &influence, &permanent).map(Some)
+    let mut report = report(valid, kind, &influence, &permanent, &actions)?;
+    if kind == ModelKind::Frame {
+        report.deflection = Some(deflection(valid, &influence)?);
+    }
+    Ok(Some(report))
 }
 
-/// The dead-load case of a model, wrapped as a one-position line set so the lines' own
+/// The dead-load case and the other actions' cases of a model (less the erection stage,
+/// which is not combined), each wrapped as a one-position line set so the lines' own
 /// reader gives its values.
-fn dead_case(generated: &Generated) -> Result<InfluenceLines, StaticsError> {
-    let solution = solve(&generated.model)?;
-    let cases = solution.cases.into_iter().filter(|c| c.name == DEAD).collect();
-    Ok(InfluenceLines {
+#[allow(clippy::type_complexity)]
+fn fixed_cases(
+    valid: &ValidDesign,
+    generated: &Generated,
+) -> Result<(InfluenceLines, Vec<(String, CaseKind, InfluenceLines)>), StaticsError> {
+    let mut with_actions = generated.clone();
+    let specs: Vec<CaseSpec> =
+        action_cases(valid.design()).into_iter().filter(|c| c.kind != CaseKind::Erection).collect();
+    add_cases(valid, &mut with_actions, &specs)?;
+    let solution = solve(&with_actions.model)?;
+    let wrap = |name: &str| InfluenceLines {
         positions: vec![0.0],
-        solution: Solution { cases, free_dofs: solution.free_dofs, bandwidth: solution.bandwidth },
+        solution: Solution {
+            cases: solution.cases.iter().filter(|c| c.name == name).cloned().collect(),
+            free_dofs: solution.free_dofs,
+            bandwidth: solution.bandwidth,
+        },
+    };
+    let actions = specs.iter().map(|s| (s.name.clone(), s.kind, wrap(&s.name))).collect();
+    Ok((wrap(DEAD), actions))
+}
+
+/// Live-load deflection of the deck over the arch.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Deflection {
+    /// The limit as span / `ratio`.
+    pub ratio: f64,
+    /// The arch span, m.
+    pub span: f64,
+    /// The allowed deflection, span / ratio, m.
+    pub allowed: f64,
+    /// Per deck node over the arch: (x m, largest downward movement m >= 0, largest
+    /// upward movement m >= 0) under the characteristic traffic of the whole section.
+    pub along: Vec<(f64, f64, f64)>,
+    /// The largest movement either way, m.
+    pub worst: f64,
+    /// Where it is, m.
+    pub at: f64,
+    /// `worst` within `allowed`.
+    pub within: bool,
+    /// How the check is made, in words.
+    pub basis: String,
+}
+
+/// The live-load deflection of the frame model's deck over the arch: at every deck node
+/// between the springing verticals, the envelope of its vertical movement's influence
+/// line under the characteristic traffic of the whole cross-section (the load model's
+/// uniform load where adverse and its vehicles at their worst, the same envelope as the
+/// forces), against span / `actions.deflection_limit`. For HL-93 this takes the full
+/// vehicular load, more than AASHTO LRFD 3.6.1.3.2's deflection loading (truck alone,
+/// or 25 % of it with the lane load): conservative.
+fn deflection(valid: &ValidDesign, influence: &ArchInfluence) -> Result<Deflection, StaticsError> {
+    let design = valid.design();
+    let f = valid.layout();
+    let (layout, sharing) = traffic_of(valid);
+    let alternatives = sharing.whole.alternatives(&layout);
+    let crowd = match &design.traffic.load_model {
+        LoadModel::Crowd(c) if c.fixed.is_none() => Some((c, f.span())),
+        _ => None,
+    };
+    let x = &influence.lines.positions;
+    let mut along = Vec::new();
+    for (i, node) in influence.generated.map.deck_nodes.iter().enumerate() {
+        let Some(node) = *node else { continue };
+        let at = f.panel_x.get(i).copied().unwrap_or(f64::NAN);
+        let eta = influence.lines.ordinates(Quantity::Displacement { node, dof: Dof::Y })?;
+        let (mut down, mut up) = (0.0_f64, 0.0_f64);
+        for c in candidates(x, &eta, &alternatives, None, crowd)? {
+            down = down.max(-c.envelope.min.value);
+            up = up.max(c.envelope.max.value);
+        }
+        along.push((at, down, up));
+    }
+    let ratio = design.actions.deflection_limit;
+    let allowed = f.span() / ratio;
+    let (at, worst) = along
+        .iter()
+        .map(|&(x, d, u)| (x, d.max(u)))
+        .fold((f64::NAN, 0.0), |(bx, bw), (x, w)| if w > bw { (x, w) } else { (bx, bw) });
+    Ok(Deflection {
+        ratio,
+        span: f.span(),
+        allowed,
+        along,
+        worst,
+        at,
+        within: worst <= allowed,
+        basis: format!(
+            "characteristic traffic of the whole cross-section ({}) on the frame model, against span / {ratio} \
+             (AASHTO LRFD 2.5.2.6.2 vehicular limit; for EN designs common practice)",
+            design.traffic.load_model.title()
+        ),
     })
 }
 
@@ -394,6 +543,7 @@ pub fn placement_case(valid: &ValidDesign, line: &LineEnvelope, max: bool) -> Ca
         kind: CaseKind::Placement { max },
         with_dead: true,
         loads,
+        imposed: Vec::new(),
     }
 }
 
@@ -414,6 +564,7 @@ fn report(
     kind: ModelKind,
     influence: &ArchInfluence,
     permanent: &InfluenceLines,
+    action_lines: &[(String, CaseKind, InfluenceLines)],
 ) -> Result<TrafficReport, StaticsError> {
     let design = valid.design();
     let t = &design.traffic;
@@ -441,8 +592,21 @@ fn report(
             Per::WholeCrossSection => (&whole, g_whole),
             Per::RibLine => (&ribs, g_whole / rib_count),
         };
-        let (traffic_max, traffic_min, design_ranges) =
+        let (traffic_max, traffic_min, mut design_ranges) =
             line_envelope(x, &eta, traffics, two_truck_sense(generated, &line), g, &t.combinations, crowd)?;
+        let share = if per == Per::RibLine { 1.0 / rib_count } else { 1.0 };
+        let actions: Vec<ActionEffect> = action_lines
+            .iter()
+            .map(|(case, kind, lines)| {
+                let v = values_of(generated, lines, &line)?.first().copied().unwrap_or(0.0);
+                Ok(ActionEffect { case: case.clone(), kind: *kind, value: v * share })
+            })
+            .collect::<Result<_, StaticsError>>()?;
+        for (range, comb) in design_ranges.iter_mut().zip(&t.combinations) {
+            let (up, down) = action_parts(comb, &actions);
+            range.max += up;
+            range.min += down;
+        }
         lines.push(LineEnvelope {
             line: line.name(generated),
             label: line.header(generated),
@@ -450,6 +614,7 @@ fn report(
             permanent: g,
             traffic_max,
             traffic_min,
+            actions,
             design: design_ranges,
         });
     }
@@ -469,6 +634,8 @@ fn report(
         step: if kind == ModelKind::BareRib { 0.0 } else { TRAFFIC_STEP },
         thrust,
         lines,
+        braking: braking(design),
+        deflection: None,
         caution: CAUTION.to_string(),
     })
 }
@@ -521,6 +688,40 @@ mod tests {
     }
 
     use crate::frame::model::MemberLoad;
+
+    /// The deflection check: each node's envelope is at least what any one placement of
+    /// the same traffic does to it (here the uniform load of the whole section over the
+    /// arch span alone, solved directly), its worst within a bound it cannot pass (all
+    /// of the traffic's uniform load and vehicles over the whole deck at the largest
+    /// ordinate), and the limit is span / 800 of the demo's span (106.43 m / 800 =
+    /// 0.133 m).
+    #[test]
+    fn live_load_deflection_envelope_bounds_a_direct_placement() {
+        let d = Design::demo();
+        let r = report_of(&d, ModelKind::Frame);
+        let valid = ValidDesign::new(&d).expect("valid");
+        let defl = r.deflection.clone().expect("frame model has one");
+        assert!((defl.allowed - valid.layout().span() / 800.0).abs() < 1e-12);
+        assert!((defl.allowed - 0.133_035_714).abs() < 1e-6, "{}", defl.allowed);
+        let mut g = frame_model(&valid);
+        assert_eq!(defl.along.len(), g.map.deck_nodes.iter().flatten().count());
+        let (_, sharing) = traffic_of(&valid);
+        let f = valid.layout();
+        let uniform = sharing.whole.uniform();
+        g.model.load_cases = vec![deck_case(&g, &[], uniform, &[(f.a.x, f.b.x)])];
+        let solution = solve(&g.model).expect("solves");
+        let mut largest_direct = 0.0_f64;
+        for (i, node) in g.map.deck_nodes.iter().enumerate() {
+            let Some(node) = *node else { continue };
+            let uy = solution.cases[0].displacements[node].uy;
+            let (x, down, up) =
+                defl.along.iter().copied().find(|p| (p.0 - f.panel_x[i]).abs() < 1e-9).expect("node");
+            assert!(down + 1e-12 >= -uy && up + 1e-12 >= uy, "x = {x}: {down} / {up} vs direct {uy}");
+            largest_direct = largest_direct.max(uy.abs());
+        }
+        assert!(defl.worst >= largest_direct && largest_direct > 1e-4, "{} vs {largest_direct}", defl.worst);
+        assert_eq!(defl.within, defl.worst <= defl.allowed);
+    }
 
     /// The axle positions of a placement (first axle at `first`, followers behind it).
     fn axle_positions(p: &AxlePlacement, spacings: &[f64]) -> Vec<f64> {
@@ -635,7 +836,7 @@ mod tests {
         let r = report_of(&d, ModelKind::Frame);
         let valid = ValidDesign::new(&d).expect("valid");
         let g = frame_model(&valid);
-        let dead = dead_case(&g).expect("dead");
+        let dead = fixed_cases(&valid, &g).expect("dead").0;
         let inf = influence_of(g.clone(), Some(TRAFFIC_STEP)).expect("lines");
         // the thrust: G for the whole section, traffic of the whole section
         let thrust = ArchLine::parse("thrust", &g).expect("thrust");
@@ -660,13 +861,37 @@ mod tests {
                 .expect("env");
         assert!((line.traffic_min.value - e.min.value).abs() < 1e-9 * e.min.value.abs());
         assert!(r.sharing.ribs[0].uniform_fraction > 0.5 && r.sharing.ribs[0].uniform_fraction < 1.0);
-        // ULS gr1a on a compressed rib member: 1.35 G + 1.35 (uniform + tandem) at the min
+        // the other actions alone, by name: rise, fall, deck warmer, deck cooler, springing
+        // movement, braking (EN LM1 on the demo: 802.8 kN)
+        let effect = |name: &str| line.actions.iter().find(|a| a.case == name).map(|a| a.value).expect(name);
+        let (rise, fall) = (effect("temperature rise"), effect("temperature fall"));
+        let (warmer, cooler) = (effect("deck warmer than rib"), effect("deck cooler than rib"));
+        let (movement, braking) = (effect("springing movement"), effect("braking"));
+        // the demo is three-hinged with sliding seats: a uniform temperature moves it
+        // freely (statically determinate), the deck-rib difference does not
+        assert!(rise.abs() < 1e-6 && fall.abs() < 1e-6, "{rise} {fall}");
+        assert!(warmer.abs() > 1.0 && (warmer + cooler).abs() < 1e-9 * warmer.abs(), "{warmer} {cooler}");
+        // ULS gr1a on a compressed rib member: 1.35 G + 1.35 (uniform + tandem) at the
+        // min, with temperature at gamma_Q psi_0 = 0.9 and the springing movement at
+        // gamma_Gset = 1.2 where they add (EN 1990 A2 Table A2.4(B), Table A2.1)
+        let adds = |v: f64, f: fn(f64, f64) -> f64| f(v, 0.0);
+        let down = 0.9 * adds(rise, f64::min).min(adds(fall, f64::min))
+            + 0.9 * adds(warmer, f64::min).min(adds(cooler, f64::min))
+            + 1.2 * adds(movement, f64::min);
+        let up = 0.9 * rise.max(fall).max(0.0) + 0.9 * warmer.max(cooler).max(0.0) + 1.2 * movement.max(0.0);
         let uls = &line.design[0];
-        let expected = 1.35 * line.permanent + 1.35 * line.traffic_min.value;
+        let expected = 1.35 * line.permanent + 1.35 * line.traffic_min.value + down;
         assert!((uls.min - expected).abs() < 1e-9 * expected.abs(), "{} vs {expected}", uls.min);
         // and the max: the whole dead load with 1.00 (favourable) plus the traffic max
-        let expected = line.permanent + 1.35 * line.traffic_max.value;
+        let expected = line.permanent + 1.35 * line.traffic_max.value + up;
         assert!((uls.max - expected).abs() < 1e-9 * expected.abs(), "{} vs {expected}", uls.max);
+        // ULS gr2: braking at 1.35 either way, the traffic at its frequent values x 1.35
+        let gr2 = &line.design[3];
+        assert_eq!(gr2.combination, "ULS gr2");
+        assert!(braking != 0.0);
+        let q = 1.35 * (0.40 * line.traffic_min.uniform_part + 0.75 * line.traffic_min.vehicle_part);
+        let expected = 1.35 * line.permanent + q + down - 1.35 * braking.abs();
+        assert!((gr2.min - expected).abs() < 1e-6 * expected.abs(), "{} vs {expected}", gr2.min);
     }
 
     #[test]

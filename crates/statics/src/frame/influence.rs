@@ -78,6 +78,14 @@ pub enum Quantity {
         /// Which component.
         dof: Dof,
     },
+    /// A displacement of a node: m per kN for x and y (positive right, up), rad per kN
+    /// for rz (anticlockwise; 0 where no member holds the rotation).
+    Displacement {
+        /// Node index.
+        node: usize,
+        /// Which component.
+        dof: Dof,
+    },
 }
 
 /// The solved influence lines of a model: one load case per position.
@@ -123,6 +131,19 @@ impl InfluenceLines {
                         Dof::X => r.fx,
                         Dof::Y => r.fy,
                         Dof::Rz => r.mz,
+                    }
+                }
+                Quantity::Displacement { node, dof } => {
+                    let d = case
+                        .displacements
+                        .get(node)
+                        .filter(|d| d.node == node)
+                        .or_else(|| case.displacements.iter().find(|d| d.node == node))
+                        .ok_or_else(|| refuse(format!("node {node} does not exist")))?;
+                    match dof {
+                        Dof::X => d.ux,
+                        Dof::Y => d.uy,
+                        Dof::Rz => d.rz.unwrap_or(0.0),
                     }
                 }
             };

@@ -6,11 +6,13 @@
 //! design later goes into a new section, never into this struct. Committed fixtures under
 //! `tests/fixtures/links/` hold this layout to that.
 
+use crate::arch::actions::ActionsDesign;
 use crate::arch::design::{
     Bracing, Crown, Deck, Design, FormSettings, GroundPoint, MemberGroups, RibSystem, Section,
     DEFAULT_ABUTMENT_HEIGHT,
 };
 use crate::error::LinkError;
+use crate::traffic::models::ModelFamily;
 use crate::traffic::TrafficDesign;
 use serde::{Deserialize, Serialize};
 
@@ -118,6 +120,8 @@ pub(super) fn from_design(d: &Design) -> Wire {
         form,
         // the traffic travels in the traffic section (design format 3)
         traffic: _,
+        // the other actions travel in the actions section (design format 4)
+        actions: _,
     } = d;
     // the abutment height travels in the abutment section (design format 2)
     let Deck { level, left_seat_x, right_seat_x, width, ribs, dead_load, surfacing, abutment_height: _ } =
@@ -207,5 +211,6 @@ pub(super) fn into_design(w: Wire) -> Result<Design, LinkError> {
             max_iterations: narrow(w.form_max_iterations, "form-finding iteration limit")?,
         },
         traffic: TrafficDesign::for_deck_width(w.deck.width),
+        actions: ActionsDesign::preset(ModelFamily::EnLm1),
     })
 }

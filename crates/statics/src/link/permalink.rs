@@ -397,7 +397,7 @@ fn inflate(packed: &[u8]) -> Result<Vec<u8>, LinkError> {
 mod tests {
     use super::*;
     use crate::arch::design::{Bracing, Crown, GroundPoint, RibSystem, DEFAULT_ABUTMENT_HEIGHT};
-    use crate::link::sections::{TAG_ABUTMENT, TAG_RESERVED_FOR_TESTS, TAG_TRAFFIC};
+    use crate::link::sections::{TAG_ABUTMENT, TAG_ACTIONS, TAG_RESERVED_FOR_TESTS, TAG_TRAFFIC};
     use crate::traffic::models::{LoadModel, ModelFamily};
     use crate::traffic::TrafficDesign;
     use proptest::prelude::*;
@@ -731,7 +731,7 @@ mod tests {
 
     /// The sections the later version knows: every shipped one, then its new one.
     fn later_kinds() -> Vec<SectionKind<Later>> {
-        assert_eq!(SECTIONS.len(), 2, "list every shipped section here");
+        assert_eq!(SECTIONS.len(), 3, "list every shipped section here");
         vec![
             SectionKind {
                 tag: TAG_ABUTMENT,
@@ -742,6 +742,11 @@ mod tests {
                 tag: TAG_TRAFFIC,
                 write: shipped_write::<TAG_TRAFFIC>,
                 read: shipped_read::<TAG_TRAFFIC>,
+            },
+            SectionKind {
+                tag: TAG_ACTIONS,
+                write: shipped_write::<TAG_ACTIONS>,
+                read: shipped_read::<TAG_ACTIONS>,
             },
             SectionKind { tag: TAG_RESERVED_FOR_TESTS, write: later_write, read: later_read },
         ]

@@ -5,6 +5,7 @@
 //! | --- | --- | --- |
 //! | 1 | 2 | the abutment height |
 //! | 2 | 3 | the traffic: carriageway, rib positions, load model, combinations |
+//! | 3 | 4 | the other actions (temperature, springing movement, deflection limit) and the combinations' factors of them |
 //!
 //! A section on the wire is its tag (a varint) and its body: the postcard bytes of the
 //! section's struct, length-prefixed. Each section struct is FROZEN once shipped, like the
@@ -61,6 +62,8 @@ pub(super) struct SectionKind<T> {
 pub(super) const TAG_ABUTMENT: u32 = 1;
 /// The traffic (design format 3).
 pub(super) const TAG_TRAFFIC: u32 = 2;
+/// The other actions (design format 4).
+pub(super) const TAG_ACTIONS: u32 = 3;
 /// A tag no shipped section has: the tests use it for a section of a "later version".
 #[cfg(test)]
 pub(super) const TAG_RESERVED_FOR_TESTS: u32 = 9_999;
@@ -69,6 +72,7 @@ pub(super) const TAG_RESERVED_FOR_TESTS: u32 = 9_999;
 pub(super) const SECTIONS: &[SectionKind<Design>] = &[
     SectionKind { tag: TAG_ABUTMENT, write: abutment::write, read: abutment::read },
     SectionKind { tag: TAG_TRAFFIC, write: traffic::write, read: traffic::read },
+    SectionKind { tag: TAG_ACTIONS, write: actions::write, read: actions::read },
 ];
 
 /// The sections of a target, one per kind, in the order of `kinds` (tags ascending).
@@ -259,6 +263,10 @@ mod traffic {
             load_model: model_in(load_model)?,
             combinations: combinations.into_iter().map(combination_in).collect(),
         };
+        // what a format-3 design opens with; the actions section replaces it
+        let family = d.traffic.load_model.family();
+        crate::traffic::combination::Combination::add_action_factors(family, &mut d.traffic.combinations);
+        d.actions = crate::arch::actions::ActionsDesign::preset(family);
         Ok(())
     }
 
@@ -446,7 +454,18 @@ mod traffic {
     }
 
     fn combination_out(c: &Combination) -> CombinationV1 {
-        let Combination { name, clause, permanent_unfavourable, permanent_favourable, uniform, vehicle } = c;
+        // the factors of the other actions travel in the actions section (format 4)
+        let Combination {
+            name,
+            clause,
+            permanent_unfavourable,
+            permanent_favourable,
+            uniform,
+            vehicle,
+            temperature: _,
+            settlement: _,
+            braking: _,
+        } = c;
         CombinationV1 {
             name: name.clone(),
             clause: clause.clone(),
@@ -460,7 +479,119 @@ mod traffic {
     fn combination_in(c: CombinationV1) -> Combination {
         let CombinationV1 { name, clause, permanent_unfavourable, permanent_favourable, uniform, vehicle } =
             c;
-        Combination { name, clause, permanent_unfavourable, permanent_favourable, uniform, vehicle }
+        Combination {
+            name,
+            clause,
+            permanent_unfavourable,
+            permanent_favourable,
+            uniform,
+            vehicle,
+            temperature: 0.0,
+            settlement: 0.0,
+            braking: 0.0,
+        }
+    }
+}
+
+/// Section 3 (design format 4): the other actions and the combinations' factors of them.
+///
+/// Read after the traffic section, over what a format-3 design opens with: the traffic
+/// reader gives the load model family's action presets and factors
+/// (`ActionsDesign::preset`, `Combination::add_action_factors`, which may add EN's gr2 at
+/// the end, as the design file migration does). This section, when present, replaces
+/// them: one factor triple per combination the design has, so combinations the traffic
+/// reader added beyond those are dropped again. A preset's temperature clause travels as
+/// the preset's index, not as text (free text is what a corrupted link can change
+/// unseen: deflate's checksum is Adler-32).
+mod actions {
+    use super::*;
+    use crate::arch::actions::{ActionsDesign, SpringingMovement, Temperature, TemperaturePreset};
+
+    /// FROZEN: links hold this layout. `ActionsDesign` with the combinations' factors.
+    #[derive(Serialize, Deserialize)]
+    struct ActionsV1 {
+        clause: ClauseV1,
+        alpha: f64,
+        expansion: f64,
+        contraction: f64,
+        deck_rib_difference: f64,
+        spread: f64,
+        settlement_left: f64,
+        settlement_right: f64,
+        deflection_limit: f64,
+        /// (temperature, settlement, braking) per combination, in the traffic's order.
+        factors: Vec<(f64, f64, f64)>,
+    }
+
+    /// FROZEN: the temperature clause: a preset's (index in `TemperaturePreset::ALL`, which
+    /// only grows at its end) or the user's own words.
+    #[derive(Serialize, Deserialize)]
+    enum ClauseV1 {
+        Preset(u8),
+        Own(String),
+    }
+
+    pub(super) fn write(d: &Design) -> Vec<u8> {
+        let ActionsDesign { temperature, springing, deflection_limit } = &d.actions;
+        let Temperature { clause, alpha, expansion, contraction, deck_rib_difference } = temperature;
+        let SpringingMovement { spread, settlement_left, settlement_right } = *springing;
+        let preset = TemperaturePreset::ALL.iter().position(|p| Temperature::preset(*p).clause == *clause);
+        body(&ActionsV1 {
+            clause: match preset {
+                Some(i) => ClauseV1::Preset(i as u8),
+                None => ClauseV1::Own(clause.clone()),
+            },
+            alpha: *alpha,
+            expansion: *expansion,
+            contraction: *contraction,
+            deck_rib_difference: *deck_rib_difference,
+            spread,
+            settlement_left,
+            settlement_right,
+            deflection_limit: *deflection_limit,
+            factors: d.traffic.combinations.iter().map(Combination::action_factors).collect(),
+        })
+    }
+
+    pub(super) fn read(bytes: &[u8], d: &mut Design) -> Result<(), LinkError> {
+        let ActionsV1 {
+            clause,
+            alpha,
+            expansion,
+            contraction,
+            deck_rib_difference,
+            spread,
+            settlement_left,
+            settlement_right,
+            deflection_limit,
+            factors,
+        } = frozen(TAG_ACTIONS, bytes)?;
+        let damaged = |detail: String| LinkError::DamagedSection { tag: TAG_ACTIONS, detail };
+        let clause = match clause {
+            ClauseV1::Preset(i) => TemperaturePreset::ALL
+                .get(usize::from(i))
+                .map(|p| Temperature::preset(*p).clause)
+                .ok_or_else(|| damaged(format!("no temperature preset {i}")))?,
+            ClauseV1::Own(text) => text,
+        };
+        let combinations = &mut d.traffic.combinations;
+        if factors.len() > combinations.len() {
+            return Err(damaged(format!(
+                "{} factor sets for {} combinations",
+                factors.len(),
+                combinations.len()
+            )));
+        }
+        combinations.truncate(factors.len());
+        for (c, f) in combinations.iter_mut().zip(factors) {
+            (c.temperature, c.settlement, c.braking) = f;
+        }
+        d.actions = ActionsDesign {
+            temperature: Temperature { clause, alpha, expansion, contraction, deck_rib_difference },
+            springing: SpringingMovement { spread, settlement_left, settlement_right },
+            deflection_limit,
+        };
+        Ok(())
     }
 }
 
@@ -528,7 +659,10 @@ mod tests {
             let mut d = Design::demo();
             d.traffic = traffic.clone();
             let sections = write_all(SECTIONS, &d);
-            assert_eq!(sections.iter().map(|s| s.tag).collect::<Vec<_>>(), [TAG_ABUTMENT, TAG_TRAFFIC]);
+            assert_eq!(
+                sections.iter().map(|s| s.tag).collect::<Vec<_>>(),
+                [TAG_ABUTMENT, TAG_TRAFFIC, TAG_ACTIONS]
+            );
             let mut back = Design::demo();
             read_all(&sections, SECTIONS, &mut back).expect("reads");
             assert_eq!(back.traffic, traffic);
@@ -539,6 +673,17 @@ mod tests {
         let before = d.traffic.clone();
         read_all(&write_all(SECTIONS, &d)[..1], SECTIONS, &mut d).expect("reads");
         assert_eq!(d.traffic, before);
+        // one without the actions section (format 3) opens with the presets of its family
+        let mut d = Design::demo();
+        d.traffic = TrafficDesign::preset(crate::traffic::models::ModelFamily::Hl93, 7.5);
+        d.actions.temperature.expansion = 5.0;
+        let mut back = Design::demo();
+        read_all(&write_all(SECTIONS, &d)[..2], SECTIONS, &mut back).expect("reads");
+        assert_eq!(back.traffic, d.traffic);
+        assert_eq!(
+            back.actions,
+            crate::arch::actions::ActionsDesign::preset(crate::traffic::models::ModelFamily::Hl93)
+        );
     }
 
     /// The layout of the section is frozen: the load model's variant travels as its index

@@ -31,7 +31,26 @@ pub struct Combination {
     pub uniform: f64,
     /// Factor on the traffic's vehicles (gamma_Q, or gamma_Q psi).
     pub vehicle: f64,
+    /// Factor on the temperature actions (gamma_Q psi_0 as an accompanying action, or
+    /// psi_2 in the frequent combination; AASHTO gamma_TU). 0: left out (design format 4).
+    #[serde(default)]
+    pub temperature: f64,
+    /// Factor on the springing movement where it is adverse (EN gamma_Gset; AASHTO
+    /// gamma_SE); never taken where it relieves. 0: left out (design format 4).
+    #[serde(default)]
+    pub settlement: f64,
+    /// Factor on braking (gamma_Q in traffic group gr2; AASHTO BR with LL). 0: left out
+    /// (design format 4).
+    #[serde(default)]
+    pub braking: f64,
 }
+
+/// The name of the EN combination of traffic group gr2 (braking).
+pub const BRAKING_GROUP: &str = "ULS gr2";
+
+/// The factors of the other actions in one combination: (temperature, settlement,
+/// braking), see [`Combination`].
+pub type ActionFactors = (f64, f64, f64);
 
 impl Combination {
     fn new(name: &str, clause: &str, g_sup: f64, g_inf: f64, uniform: f64, vehicle: f64) -> Combination {
@@ -42,6 +61,36 @@ impl Combination {
             permanent_favourable: g_inf,
             uniform,
             vehicle,
+            temperature: 0.0,
+            settlement: 0.0,
+            braking: 0.0,
+        }
+    }
+
+    fn with_actions(self, (temperature, settlement, braking): ActionFactors) -> Combination {
+        Combination { temperature, settlement, braking, ..self }
+    }
+
+    /// The factors of the other actions.
+    pub fn action_factors(&self) -> ActionFactors {
+        (self.temperature, self.settlement, self.braking)
+    }
+
+    /// Gives every combination of `combinations` that bears a preset's name of `family`
+    /// that preset's factors of the other actions, and adds the family's presets that
+    /// carry braking (EN traffic group gr2) when missing: what a design written before
+    /// the other actions existed (design format 3) opens with.
+    pub fn add_action_factors(family: ModelFamily, combinations: &mut Vec<Combination>) {
+        let presets = Combination::presets(family);
+        for c in combinations.iter_mut() {
+            if let Some(p) = presets.iter().find(|p| p.name == c.name) {
+                (c.temperature, c.settlement, c.braking) = p.action_factors();
+            }
+        }
+        for p in presets {
+            if p.name == BRAKING_GROUP && !combinations.iter().any(|c| c.name == p.name) {
+                combinations.push(p);
+            }
         }
     }
 
@@ -51,35 +100,64 @@ impl Combination {
     ///   (eq. 6.10; gamma_G 1.35 / 1.00, gamma_Q 1.35 for road traffic), SLS characteristic
     ///   (A2.4.1, all factors 1.0), SLS frequent (psi_1 = 0.75 for the tandems and 0.40
     ///   for the UDL, EN 1990 Table A2.1). Traffic group gr1a: EN 1991-2 Table 4.4a.
+    ///   ULS gr2 for LM1: braking with the frequent values of the rest of the traffic
+    ///   (EN 1991-2 Table 4.4a: gr2 = Q_lk + psi_1 LM1), all times gamma_Q 1.35.
+    ///   Temperature accompanies: gamma_Q psi_0 = 1.5 x 0.6 = 0.9 at ULS, psi_0 = 0.6 in
+    ///   the characteristic and psi_2 = 0.5 in the frequent combination (Table A2.1,
+    ///   T_k). Springing movement (settlement): gamma_Gset = 1.20 at ULS for linear
+    ///   analysis (Table A2.4(B) note, from memory), 1.0 at SLS.
     /// * Footbridge crowd: ULS (Table A2.4(B), gamma_Q 1.35 for pedestrian traffic), SLS
     ///   characteristic, SLS frequent (psi_1 = 0.40, EN 1990 Table A2.2, group gr1; from
-    ///   memory).
-    /// * AASHTO HL-93: Strength I (AASHTO LRFD Table 3.4.1-1, LL 1.75; DC gamma_p 1.25 /
-    ///   0.90, Table 3.4.1-2) and Service I (all 1.0).
+    ///   memory); temperature and settlement as above (psi_0 0.6, psi_2 0.5 for
+    ///   footbridges, Table A2.2, from memory); no braking.
+    /// * AASHTO HL-93: Strength I (AASHTO LRFD Table 3.4.1-1, LL and BR 1.75; DC gamma_p
+    ///   1.25 / 0.90, Table 3.4.1-2; TU 0.50, the value for force effects; SE 1.0) and
+    ///   Service I (all 1.0, TU 1.00).
     pub fn presets(family: ModelFamily) -> Vec<Combination> {
         match family {
-            ModelFamily::EnLm1 | ModelFamily::UserDefined => vec![
-                Combination::new(
-                    "ULS gr1a",
-                    "EN 1990 A2 Table A2.4(B) eq. 6.10; EN 1991-2 Table 4.4a",
-                    1.35,
-                    1.0,
-                    1.35,
-                    1.35,
-                ),
-                Combination::new("SLS characteristic", "EN 1990 A2.4.1, Table A2.6", 1.0, 1.0, 1.0, 1.0),
-                Combination::new(
-                    "SLS frequent",
-                    "EN 1990 Table A2.1 (psi_1: TS 0.75, UDL 0.40)",
-                    1.0,
-                    1.0,
-                    0.40,
-                    0.75,
-                ),
-            ],
+            ModelFamily::EnLm1 | ModelFamily::UserDefined => {
+                let mut out = vec![
+                    Combination::new(
+                        "ULS gr1a",
+                        "EN 1990 A2 Table A2.4(B) eq. 6.10; EN 1991-2 Table 4.4a",
+                        1.35,
+                        1.0,
+                        1.35,
+                        1.35,
+                    )
+                    .with_actions((0.9, 1.2, 0.0)),
+                    Combination::new("SLS characteristic", "EN 1990 A2.4.1, Table A2.6", 1.0, 1.0, 1.0, 1.0)
+                        .with_actions((0.6, 1.0, 0.0)),
+                    Combination::new(
+                        "SLS frequent",
+                        "EN 1990 Table A2.1 (psi_1: TS 0.75, UDL 0.40; psi_2 temperature 0.5)",
+                        1.0,
+                        1.0,
+                        0.40,
+                        0.75,
+                    )
+                    .with_actions((0.5, 1.0, 0.0)),
+                ];
+                if family == ModelFamily::EnLm1 {
+                    out.push(
+                        Combination::new(
+                            BRAKING_GROUP,
+                            "EN 1991-2 Table 4.4a gr2 (braking + psi_1 LM1); EN 1990 A2 Table A2.4(B)",
+                            1.35,
+                            1.0,
+                            1.35 * 0.40,
+                            1.35 * 0.75,
+                        )
+                        .with_actions((0.9, 1.2, 1.35)),
+                    );
+                }
+                out
+            }
             ModelFamily::Crowd => vec![
-                Combination::new("ULS", "EN 1990 A2 Table A2.4(B) eq. 6.10", 1.35, 1.0, 1.35, 1.35),
-                Combination::new("SLS characteristic", "EN 1990 A2.4.1", 1.0, 1.0, 1.0, 1.0),
+                Combination::new("ULS", "EN 1990 A2 Table A2.4(B) eq. 6.10", 1.35, 1.0, 1.35, 1.35)
+                    .with_actions((0.9, 1.2, 0.0)),
+                Combination::new("SLS characteristic", "EN 1990 A2.4.1", 1.0, 1.0, 1.0, 1.0)
+                    .with_actions((0.6, 1.0, 0.0)),
                 Combination::new(
                     "SLS frequent",
                     "EN 1990 Table A2.2 (psi_1 0.40, from memory)",
@@ -87,7 +165,8 @@ impl Combination {
                     1.0,
                     0.40,
                     0.40,
-                ),
+                )
+                .with_actions((0.5, 1.0, 0.0)),
             ],
             ModelFamily::Hl93 => vec![
                 Combination::new(
@@ -97,8 +176,10 @@ impl Combination {
                     0.90,
                     1.75,
                     1.75,
-                ),
-                Combination::new("Service I", "AASHTO LRFD Table 3.4.1-1", 1.0, 1.0, 1.0, 1.0),
+                )
+                .with_actions((0.5, 1.0, 1.75)),
+                Combination::new("Service I", "AASHTO LRFD Table 3.4.1-1", 1.0, 1.0, 1.0, 1.0)
+                    .with_actions((1.0, 1.0, 1.0)),
             ],
         }
     }
@@ -139,5 +220,26 @@ mod tests {
         let strength = &Combination::presets(ModelFamily::Hl93)[0];
         let (max, _) = strength.design(400.0, (10.0, 20.0), (0.0, 0.0));
         assert!((max - (500.0 + 52.5)).abs() < 1e-9);
+    }
+
+    #[test]
+    fn a_design_without_action_factors_gets_the_presets() {
+        // a format-3 EN design: three combinations with no action factors
+        let mut old: Vec<Combination> = Combination::presets(ModelFamily::EnLm1)
+            .into_iter()
+            .take(3)
+            .map(|c| Combination { temperature: 0.0, settlement: 0.0, braking: 0.0, ..c })
+            .collect();
+        old[1].name = "my own".into();
+        Combination::add_action_factors(ModelFamily::EnLm1, &mut old);
+        // ULS gr1a: gamma_Q psi_0 = 1.5 x 0.6 = 0.9 (EN 1990 Table A2.1), gamma_Gset 1.2
+        assert_eq!(old[0].action_factors(), (0.9, 1.2, 0.0));
+        assert_eq!(old[1].action_factors(), (0.0, 0.0, 0.0), "a renamed one is the user's");
+        // gr2 added: braking 1.35, the tandem at 1.35 x 0.75
+        assert_eq!(old.len(), 4);
+        assert_eq!(old[3].name, "ULS gr2");
+        assert!((old[3].vehicle - 1.0125).abs() < 1e-12 && old[3].braking == 1.35);
+        Combination::add_action_factors(ModelFamily::EnLm1, &mut old);
+        assert_eq!(old.len(), 4, "once");
     }
 }
