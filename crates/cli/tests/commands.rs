@@ -318,6 +318,23 @@ fn analyze_adds_named_patterns() {
         envelope["permanent"].as_f64().expect("g") + envelope["traffic_max"]["value"].as_f64().expect("q");
     assert!((thrust - expected).abs() <= 0.03 * expected, "{thrust} vs {expected}");
 
+    // an action alone: its springing forces join the summary, not the thrust range
+    let out =
+        run(&["analyze", "--summary", "--pattern", "braking", "--pattern", "erection", "-"], &demo_json());
+    assert_eq!(out.status.code(), Some(0), "{}", text(&out.stderr));
+    let brief: serde_json::Value = serde_json::from_slice(&out.stdout).expect("summary JSON");
+    let springings = brief["springings"].as_array().expect("springings");
+    let braking = springings.iter().find(|s| s["case"] == "braking").expect("braking case");
+    // braking to the right on the demo: the seats slide, so the springings take it all,
+    // 802.8 kN (EN 1991-2 eq. 4.6, worked in arch::actions): H_left - H_right = 802.8
+    let (hl, hr) =
+        (braking["left"]["thrust"].as_f64().expect("h"), braking["right"]["thrust"].as_f64().expect("h"));
+    assert!((hr - hl - 802.8).abs() < 1e-6, "{hl} {hr}");
+    let range = brief["thrust_range"].as_array().expect("range");
+    assert!(range[0].as_f64().expect("lo") > 1000.0, "the range is the loaded arch's: {range:?}");
+    assert_eq!(brief["actions"]["braking"]["force"].as_f64(), Some(802.8));
+    assert!(brief["actions"]["deflection"]["allowed"].as_f64().is_some());
+
     let err = failed(&run(&["analyze", "--pattern", "quarter-9", "-"], &demo_json()), 1);
     assert!(err.contains("quarter-1 to quarter-4"), "{err}");
     let err = failed(&run(&["analyze", "--pattern", "governing:nothing:max", "-"], &demo_json()), 1);

@@ -5,9 +5,12 @@
 use super::{print_json, read_design};
 use crate::failure::Failure;
 use serde::Serialize;
+use springline_statics::arch::actions::{action_cases, ActionResult, Braking};
 use springline_statics::arch::analysis::analyze_with;
 use springline_statics::arch::cases::{pattern_case, Pattern};
-use springline_statics::arch::traffic::{placement_case, traffic_envelopes, LineEnvelope, TrafficReport};
+use springline_statics::arch::traffic::{
+    placement_case, traffic_envelopes, Deflection, LineEnvelope, TrafficReport,
+};
 use springline_statics::link::permalink;
 use springline_statics::{Analysis, CaseSpec, Design, ModelKind, StaticsError, Summary, ValidDesign};
 use std::path::PathBuf;
@@ -32,7 +35,8 @@ Examples:
   springline analyze --link '#s2.eNp1...'
   springline analyze --summary design.json
   springline analyze --pattern quarter-2 --pattern vehicle-at-60 design.json
-  springline analyze --pattern governing:thrust:max design.json")]
+  springline analyze --pattern governing:thrust:max design.json
+  springline analyze --pattern temperature-rise --pattern erection design.json")]
 pub struct Args {
     /// The design file (JSON); `-` reads standard input.
     #[arg(value_name = "DESIGN.json")]
@@ -52,7 +56,9 @@ pub struct Args {
     /// Add a load case of a named traffic pattern (repeatable): full, half-left,
     /// half-right, quarter-1 .. quarter-4, panel-N, vehicle-at-X (leading axle at x = X m),
     /// or governing:LINE:max / governing:LINE:min (the placement that gives that extreme
-    /// of LINE's envelope in the frame model; LINE as `springline influence --of` takes it).
+    /// of LINE's envelope in the frame model; LINE as `springline influence --of` takes it),
+    /// or one of the other actions alone: temperature-rise, temperature-fall, deck-warmer,
+    /// deck-cooler, springing-movement, braking, erection.
     #[arg(long = "pattern", value_name = "PATTERN")]
     patterns: Vec<String>,
 }
@@ -78,6 +84,16 @@ struct Brief<'a> {
     #[serde(flatten)]
     summary: &'a Summary,
     traffic: TrafficBrief<'a>,
+    actions: ActionsBrief<'a>,
+}
+
+/// The other actions' key numbers: braking, each action's springing forces, the
+/// live-load deflection.
+#[derive(Serialize)]
+struct ActionsBrief<'a> {
+    braking: &'a Braking,
+    cases: &'a [ActionResult],
+    deflection: Option<&'a Deflection>,
 }
 
 /// The traffic's key numbers: what loads, how shared, the thrust range.
@@ -111,7 +127,12 @@ pub fn run(args: Args) -> Result<(), Failure> {
             sharing_rule: &frame.sharing.rule,
             thrust: &frame.thrust,
         };
-        return print_json(&Brief { summary: &analysis.summary, traffic });
+        let actions = ActionsBrief {
+            braking: &analysis.actions.braking,
+            cases: &analysis.actions.cases,
+            deflection: frame.deflection.as_ref(),
+        };
+        return print_json(&Brief { summary: &analysis.summary, traffic, actions });
     }
     let truss = traffic_envelopes(&valid, ModelKind::Truss)?;
     print_json(&Report { analysis: &analysis, traffic: Traffic { frame, truss } })
@@ -136,6 +157,9 @@ fn pattern_of(valid: &ValidDesign, frame: &TrafficReport, text: &str) -> Result<
             ))
         })?;
         return Ok(placement_case(valid, envelope, max));
+    }
+    if let Some(action) = action_cases(valid.design()).into_iter().find(|c| c.kind.id() == text) {
+        return Ok(action);
     }
     Ok(pattern_case(valid, Pattern::parse(text)?)?)
 }

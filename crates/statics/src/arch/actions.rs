@@ -307,6 +307,12 @@ pub const BRAKING: &str = "braking";
 /// Erection of the bare rib.
 pub const ERECTION: &str = "erection (bare rib)";
 
+/// Whether `name` is the name of an action case (they carry no dead load).
+pub fn is_action_case(name: &str) -> bool {
+    [TEMPERATURE_RISE, TEMPERATURE_FALL, DECK_WARMER, DECK_COOLER, SPRINGING_MOVEMENT, BRAKING, ERECTION]
+        .contains(&name)
+}
+
 /// The action cases of a design, each alone (no dead load), in this order: temperature
 /// rise and fall, deck warmer and cooler than the rib (when the difference is not 0),
 /// springing movement, braking (when the model has any), erection. Every case can be

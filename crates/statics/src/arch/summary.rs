@@ -14,6 +14,7 @@
 //!
 //! Units kN, m, kNm, degrees (angles only here, at the edge of the engine).
 
+use crate::arch::actions::is_action_case;
 use crate::arch::analysis::{ModelResult, RibMoments, TrussResult};
 use crate::arch::design::{Design, RibSystem};
 use crate::arch::form::{ArchReaction, Basis, Form};
@@ -174,7 +175,12 @@ impl Summary {
                 })
             })
             .collect();
-        let thrusts = springings.iter().flat_map(|s| [s.left.thrust, s.right.thrust]);
+        // an action alone (temperature, braking, ...) is no thrust the arch carries: the
+        // range is over the cases with the dead load
+        let thrusts = springings
+            .iter()
+            .filter(|s| !is_action_case(&s.case))
+            .flat_map(|s| [s.left.thrust, s.right.thrust]);
         let thrust_range =
             thrusts.fold([f64::INFINITY, f64::NEG_INFINITY], |[lo, hi], h| [lo.min(h), hi.max(h)]);
         let dead = frame.solution.case(DEAD).or(frame.solution.cases.first());
