@@ -86,6 +86,7 @@ fn DesignInputs() -> impl IntoView {
                 <ArchPanel />
                 <LoadsPanel />
                 <TrafficPanel />
+                <crate::components::actions::ActionsPanel />
                 <SectionsPanel />
             </div>
         </aside>

@@ -1,5 +1,6 @@
 //! Small components, one concern each.
 
+pub mod actions;
 pub mod canvases;
 pub mod controls;
 pub mod readout;

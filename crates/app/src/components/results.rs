@@ -229,6 +229,7 @@ pub fn ResultsPanel() -> impl IntoView {
             <h2 id="results-title">"Results"</h2>
             {body}
             <crate::components::traffic_results::TrafficResults />
+            <crate::components::actions::ActionsResults />
         </section>
     }
 }

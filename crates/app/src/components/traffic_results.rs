@@ -222,7 +222,11 @@ mod tests {
         let r = traffic_of(&Design::demo()).expect("demo analyses").expect("a frame report");
         let rows = thrust_rows(&r);
         assert_eq!(rows.len(), 2 + r.thrust.design.len());
-        assert_eq!(r.thrust.design.len(), 3, "LM1 presets: ULS gr1a, SLS characteristic, SLS frequent");
+        assert_eq!(
+            r.thrust.design.len(),
+            4,
+            "LM1 presets: ULS gr1a, SLS characteristic, SLS frequent, ULS gr2"
+        );
         assert_eq!(rows[0].max, r.thrust.permanent);
         assert!(rows[0].max > 0.0, "dead load pushes the springing outward: {}", rows[0].max);
         assert_eq!(rows[1].max, r.thrust.traffic_max.value);
