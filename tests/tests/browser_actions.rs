@@ -1,0 +1,92 @@
+//! The Temperature and other actions panel and the Other actions block, in headless
+//! Chromium over WebDriver (needs `dist/` built from this tree): the block shows the
+//! engine's braking force and what each action does alone; an edited temperature
+//! changes the numbers as the engine says; a value out of range is refused beside the
+//! field and the design stays as it was.
+//!
+//! Expected values come from the engine (`arch::actions::action_results`), never from
+//! the page itself.
+
+use serde_json::json;
+use springline_statics::arch::actions::{action_results, ActionsReport};
+use springline_statics::arch::design::RibSystem;
+use springline_statics::link::permalink;
+use springline_statics::{Design, ValidDesign};
+use springline_tests::page::*;
+use springline_tests::serve::StaticServer;
+use springline_tests::webdriver::{Driver, Session};
+
+fn actions_of(design: &Design) -> ActionsReport {
+    action_results(&ValidDesign::new(design).expect("valid")).expect("actions solve")
+}
+
+/// The SI value a cell carries.
+fn data_value(s: &Session, id: &str) -> f64 {
+    s.exec(
+        "const e = document.getElementById(arguments[0]); return e ? +e.dataset.value : null;",
+        vec![json!(id)],
+    )
+    .as_f64()
+    .unwrap_or_else(|| panic!("no value in #{id}"))
+}
+
+/// Waits until cell `id` carries `expected` (relative 1e-9).
+fn wait_value(s: &Session, id: &str, expected: f64) {
+    s.wait_for(
+        &format!("#{id} to read {expected}"),
+        &format!(
+            "const e = document.getElementById({}); return e && Math.abs(+e.dataset.value - {expected}) <= 1e-9 * Math.max(1, Math.abs({expected}));",
+            json!(id)
+        ),
+        WAIT,
+    );
+}
+
+#[test]
+fn the_actions_block_shows_the_engines_numbers_and_follows_an_edit() {
+    let server = StaticServer::start(&dist());
+    let driver = Driver::start();
+    let s = driver.session(1500, 1000, 1.0);
+    // a two-hinged variant of the demo: temperature stresses it
+    let mut d = Design::demo();
+    d.rib_system = RibSystem::TwoHinged;
+    open_url(&s, &format!("{}#{}", server.url(), permalink::encode(&d)));
+    let r = actions_of(&d);
+    // braking: EN 1991-2 eq. 4.6 on the demo's 164 m deck, 802.8 kN (worked in arch::actions)
+    wait_value(&s, "actions-braking", 802.8);
+    let rise = r.cases.iter().find(|c| c.case == "temperature rise").expect("rise");
+    assert!(rise.left.thrust.abs() > 1.0, "a two-hinged rib takes a temperature thrust");
+    wait_value(&s, "action-temperature-rise-h-left", rise.left.thrust);
+    let erection = r.cases.iter().find(|c| c.case == "erection (bare rib)").expect("erection");
+    assert!(
+        (data_value(&s, "action-erection-h-left") - erection.left.thrust).abs() < 1e-9 * erection.left.thrust
+    );
+    // the rise halved: the engine's number for the edited design (linear: half the thrust)
+    s.exec("document.getElementById('actions-panel').open = true;", vec![]);
+    set_field(&s, "temperature-rise", "20.5");
+    let mut edited = d.clone();
+    edited.actions.temperature.expansion = 20.5;
+    let r2 = actions_of(&edited);
+    let rise2 = r2.cases.iter().find(|c| c.case == "temperature rise").expect("rise");
+    assert!((rise2.left.thrust - rise.left.thrust / 2.0).abs() < 1e-9 * rise.left.thrust.abs());
+    wait_value(&s, "action-temperature-rise-h-left", rise2.left.thrust);
+    assert!(text_of(&s, "temperature-clause").starts_with("own values, edited from"));
+    // out of range: refused beside the field, the numbers stay
+    set_field(&s, "temperature-rise", "-5");
+    s.wait_for(
+        "the refusal beside the rise",
+        "const e = document.getElementById('temperature-rise-error'); return e && e.textContent.length > 0",
+        WAIT,
+    );
+    assert!(
+        (data_value(&s, "action-temperature-rise-h-left") - rise2.left.thrust).abs()
+            < 1e-9 * rise2.left.thrust.abs()
+    );
+    // a preset brings its values back (EN 1991-1-5: 41 K)
+    set_field(&s, "temperature-preset", "en-steel");
+    wait_value(&s, "action-temperature-rise-h-left", rise.left.thrust);
+    // the deflection check, once the traffic report is in
+    s.wait_for("the deflection check", "return document.getElementById('deflection-check') !== null", WAIT);
+    assert!(text_of(&s, "deflection-check").contains("span / 800"));
+    assert!(severe(&s).is_empty(), "{:?}", severe(&s));
+}
