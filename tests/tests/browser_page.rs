@@ -142,7 +142,10 @@ fn every_input_and_button_says_what_it_is() {
     assert_eq!(attribute(&s, "#ground-2-remove", "aria-label"), "Remove ground point 3");
     let headings =
         s.exec("return [...document.querySelectorAll('aside.controls h3')].map(h => h.textContent);", vec![]);
-    assert_eq!(headings, json!(["Ground", "Roadway", "Arch", "Loads", "Traffic", "Sections"]));
+    assert_eq!(
+        headings,
+        json!(["Ground", "Roadway", "Arch", "Loads", "Traffic", "Temperature and other actions", "Sections"])
+    );
     std::fs::write(screenshots_dir().join("page-1500x900.png"), s.screenshot()).expect("screenshot");
 }
 

@@ -196,6 +196,7 @@ pub fn ActionsResults() -> impl IntoView {
         );
         view! {
             <p class="hint" id="actions-braking" data-value=r.braking.force.to_string()>{braking}</p>
+            <div class="table-scroll">
             <table class="results actions" id="actions-table">
                 <thead><tr>
                     <th scope="col">"Action, alone"</th>
@@ -205,6 +206,7 @@ pub fn ActionsResults() -> impl IntoView {
                 </tr></thead>
                 <tbody>{rows}</tbody>
             </table>
+            </div>
             <p class="hint">"Whole cross-section. Temperature, movement and braking in the frame model; erection \
                 in the bare rib, a stage of its own, not combined with traffic. The envelopes of the Traffic \
                 block combine the other actions with the factors of each combination."</p>
