@@ -79,7 +79,9 @@ pub fn install(state: AppState) {
         if state.extra.with_untracked(|e| *e != extra) {
             state.extra.set(extra);
         }
-        if let Some(case) = case.filter(|c| *c != state.case.get_untracked()) {
+        // the case is tracked too: the link sync puts back the case it knew when the
+        // analysis changes, and this puts the chosen one back once more
+        if let Some(case) = case.filter(|c| *c != state.case.get()) {
             state.case.set(case);
         }
     });
