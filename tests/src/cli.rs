@@ -35,11 +35,7 @@ pub fn run(args: &[&str], input: &str) -> String {
         stdin.write_all(input.as_bytes()).expect("the CLI reads its input");
     }
     let out = child.wait_with_output().expect("the CLI ends");
-    assert!(
-        out.status.success(),
-        "springline {args:?} failed: {}",
-        String::from_utf8_lossy(&out.stderr)
-    );
+    assert!(out.status.success(), "springline {args:?} failed: {}", String::from_utf8_lossy(&out.stderr));
     String::from_utf8_lossy(&out.stdout).into_owned()
 }
 

@@ -73,20 +73,23 @@ fn a_picked_member_and_a_springing_chart_the_clis_influence_lines() {
     let shown = chart_peak(&s, &member.name);
     assert_same_peak(&member.name, shown, cli_peak(&member.name));
     assert!(text_of(&s, "influence-line").contains(&member.name), "{}", text_of(&s, "influence-line"));
+    s.exec("document.getElementById('influence-panel').scrollIntoView({block: 'center'});", vec![]);
+    std::fs::write(screenshots_dir().join("influence.png"), s.screenshot()).expect("screenshot");
     // the left springing's thrust, by its button
     click_id(&s, "influence-thrust");
     let shown = chart_peak(&s, "thrust");
     assert_same_peak("thrust", shown, cli_peak("thrust"));
     assert!(shown.1 > 0.0, "a load anywhere pushes the springing outward: {}", shown.1);
-    s.exec("document.getElementById('influence-panel').scrollIntoView({block: 'center'});", vec![]);
-    std::fs::write(screenshots_dir().join("influence.png"), s.screenshot()).expect("screenshot");
     let errors = severe(&s);
     assert!(errors.is_empty(), "console errors: {errors:?}");
 }
 
 /// The page's value (computed in wasm) equals the engine's natively, to round-off.
 fn close(what: &str, shown: f64, expected: f64) {
-    assert!((shown - expected).abs() <= 1e-9 * expected.abs().max(1.0), "{what}: shown {shown} vs {expected}");
+    assert!(
+        (shown - expected).abs() <= 1e-9 * expected.abs().max(1.0),
+        "{what}: shown {shown} vs {expected}"
+    );
 }
 
 #[test]

@@ -112,8 +112,9 @@ fn draw(el: &web_sys::HtmlCanvasElement, data: &ChartData, units: Units) -> Resu
         .axis_desc_style(font(12.0, Ink::Text))
         .bold_line_style(rgb(Ink::Concrete).mix(0.35))
         .light_line_style(TRANSPARENT)
-        .x_labels(8)
+        .x_labels(10)
         .y_labels(6)
+        .x_label_formatter(&|v| format!("{v:.0}"))
         .draw()
         .map_err(|e| e.to_string())?;
     let points = || data.x.iter().zip(&data.eta).map(|(&x, &e)| (sx(x), sy(e)));
@@ -267,6 +268,13 @@ pub fn InfluenceChart() -> impl IntoView {
             })
             .collect_view()
     };
+    let extreme_button = move |largest: bool, words: &'static str| {
+        view! {
+            <button type="button" class="small" id=if largest { "influence-largest" } else { "influence-smallest" }
+                aria-pressed=move || (state.largest.get() == largest).to_string()
+                on:click=move |_| state.largest.set(largest)>{words}</button>
+        }
+    };
     let title = move || match data.get() {
         Some(d) => d.header,
         None if state.picked.with(Option::is_some) => "Working out the influence line...".into(),
@@ -299,6 +307,9 @@ pub fn InfluenceChart() -> impl IntoView {
             <div class="influence-head">
                 <h3 id="influence-title">"Influence line"</h3>
                 <span class="influence-springings" role="group" aria-label="Springing forces">{buttons}</span>
+                <span class="influence-which" role="group" aria-label="Extreme marked">
+                    "marked: the "{extreme_button(true, "largest")}{extreme_button(false, "smallest")}" effect"
+                </span>
             </div>
             <p class="influence-line" id="influence-line">{title}</p>
             <p class="hint" id="influence-extremes">{extremes}</p>
