@@ -1,6 +1,7 @@
 //! Shared helpers of Springline's cross-crate and browser tests (the tests themselves
 //! live in `tests/tests/*.rs`): a minimal WebDriver client and a static file server.
 
+pub mod cli;
 pub mod page;
 pub mod serve;
 pub mod webdriver;

@@ -154,3 +154,32 @@ pub fn canvas_origin(session: &Session, id: &str) -> (f64, f64) {
     );
     (v[0].as_f64().unwrap_or(0.0), v[1].as_f64().unwrap_or(0.0))
 }
+
+/// Clicks with the mouse at (x, y) in viewport CSS pixels.
+pub fn click(session: &Session, at: (f64, f64)) {
+    session.pointer(
+        "mouse",
+        vec![
+            json!({"type": "pointerMove", "duration": 0, "x": at.0.round() as i64, "y": at.1.round() as i64}),
+            json!({"type": "pointerDown", "button": 0}),
+            json!({"type": "pointerUp", "button": 0}),
+        ],
+    );
+}
+
+/// Clicks the element with id `id` (its own click handler, as a press of the button).
+pub fn click_id(session: &Session, id: &str) {
+    session.exec("document.getElementById(arguments[0]).click();", vec![json!(id)]);
+}
+
+/// The number in data attribute `key` (camel case, as `dataset` names it) of element
+/// `id`, if any.
+pub fn data_number(session: &Session, id: &str, key: &str) -> Option<f64> {
+    session
+        .exec(
+            "const e = document.getElementById(arguments[0]); const v = e && e.dataset[arguments[1]];
+             return v === undefined || v === null ? null : +v;",
+            vec![json!(id), json!(key)],
+        )
+        .as_f64()
+}

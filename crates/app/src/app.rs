@@ -23,6 +23,7 @@ pub fn App() -> impl IntoView {
     provide_context(state);
     permalink_sync::install(state, view);
     crate::components::traffic_results::install(state);
+    crate::components::envelope::install(state);
     // canvases follow the window size
     let handle =
         window_event_listener(leptos::ev::resize, move |_| state.resized.update(|n| *n = n.wrapping_add(1)));
@@ -52,6 +53,8 @@ pub fn App() -> impl IntoView {
                 </div>
                 <crate::components::status::StatusLine />
                 <MemberReadout />
+                <crate::components::envelope::EnvelopePanel />
+                <crate::components::influence_chart::InfluenceChart />
             </section>
             <DesignInputs />
             <ResultsPanel />

@@ -4,10 +4,14 @@
 
 use crate::format::Units;
 use leptos::prelude::*;
+use springline_statics::arch::analysis::analyze_with;
+use springline_statics::arch::cases::{CaseSpec, Pattern};
 use springline_statics::arch::edit::{Drag, DragStop, Reading, Snapping};
 use springline_statics::arch::readout::MemberKey;
 use springline_statics::arch::traffic::TrafficReport;
+use springline_statics::arch::validate::ValidDesign;
 use springline_statics::error::{Field, Location, StaticsError};
+use springline_statics::scene::envelope::Basis;
 use springline_statics::{analyze, Analysis, Design, ModelKind};
 use std::sync::Arc;
 
@@ -121,10 +125,30 @@ pub struct AppState {
     /// once edits pause and not while dragging (`components::traffic_results::install`);
     /// `None` until the first.
     pub traffic: RwSignal<Option<Arc<(Design, TrafficOutcome)>>>,
+    /// The traffic envelope is shown on the elevation (the load picker's "Envelope").
+    pub envelope: RwSignal<bool>,
+    /// What the envelope shows: characteristic traffic or a combination's design values.
+    pub basis: RwSignal<Basis>,
+    /// The influence line picked (a frame model line name, `arch::influence::ArchLine`):
+    /// a member clicked on the elevation, or a springing force chosen in the chart panel.
+    pub picked: RwSignal<Option<String>>,
+    /// Whether the governing placement shown is the largest (true) or the smallest
+    /// effect's.
+    pub largest: RwSignal<bool>,
+    /// A named traffic pattern chosen in the load picker (added to the analysis as an
+    /// extra case).
+    pub pattern: RwSignal<Option<Pattern>>,
+    /// Extra load cases for the design they were built for (a pattern, the governing
+    /// placements of the picked line): the analysis includes them while that design is
+    /// shown (`components::envelope::install`).
+    pub extra: RwSignal<Option<Arc<ExtraCases>>>,
     /// The analysis just computed for a design about to be set, so the memo does not
     /// compute it a second time.
     checked: StoredValue<Option<(Design, Arc<Analysis>)>>,
 }
+
+/// Extra load cases and the design they were built for.
+pub type ExtraCases = (Design, Vec<CaseSpec>);
 
 /// The traffic report of a design's frame model, `Ok(None)` when the engine has none,
 /// or the engine's error.
@@ -138,8 +162,14 @@ impl AppState {
     pub fn new(design: Design) -> Self {
         let design = RwSignal::new(design);
         let checked = StoredValue::new(None::<(Design, Arc<Analysis>)>);
+        let extra = RwSignal::new(None::<Arc<ExtraCases>>);
         let analysis = Memo::new(move |_| {
+            let extra = extra.get();
             design.with(|d| {
+                // extra cases built for this very design: analysed with them
+                if let Some(e) = extra.as_ref().filter(|e| e.0 == *d && !e.1.is_empty()) {
+                    return ValidDesign::new(d).and_then(|v| analyze_with(&v, &e.1)).map(Arc::new);
+                }
                 let cached =
                     checked.with_value(|c| c.as_ref().filter(|(cd, _)| cd == d).map(|(_, a)| a.clone()));
                 match cached {
@@ -165,6 +195,12 @@ impl AppState {
             drag_stop: RwSignal::new(None),
             drag_reading: RwSignal::new(None),
             traffic: RwSignal::new(None),
+            envelope: RwSignal::new(false),
+            basis: RwSignal::new(Basis::Design(0)),
+            picked: RwSignal::new(None),
+            largest: RwSignal::new(false),
+            pattern: RwSignal::new(None),
+            extra,
             checked,
         }
     }

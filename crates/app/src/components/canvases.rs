@@ -2,6 +2,7 @@
 //! canvas with the analysis, the pointer, the units and the window size) and maps the
 //! pointer back to a member so hovering one highlights its partner in the other.
 
+use crate::components::envelope;
 use crate::components::readout::{drawn_model, step_member, ModelSwitch};
 use crate::drag::{self, Drag, Handle};
 use crate::forces;
@@ -11,6 +12,7 @@ use leptos::html::Canvas;
 use leptos::prelude::*;
 use springline_statics::arch::readout::MemberKey;
 use springline_statics::scene::elevation::{elevation, ElevationOptions};
+use springline_statics::scene::envelope::{envelope_elevation, EnvelopeOptions};
 use springline_statics::scene::force::{AreaView, FixedScale, ForceDrawing, ForceOptions};
 use springline_statics::scene::{Px, Scene, Transform};
 use springline_statics::ModelKind;
@@ -49,12 +51,50 @@ pub fn ElevationCanvas() -> impl IntoView {
         };
         let highlight = focus.and_then(|k| k.member_in(map, model));
         let transform = dragging.with_value(|d| d.as_ref().map(|d| d.transform));
-        let opts = ElevationOptions { units, case, model, highlight, transform };
-        let scene = state.design.with(|d| elevation(&a, d, &opts, viewport));
+        // the envelope view draws the frame model over the report of the design on screen
+        let report = if state.envelope.get() { envelope::current_report(state) } else { None };
+        let enveloped = report.is_some();
+        let scene = match report {
+            Some(report) => {
+                let highlight = focus.and_then(|k| k.member_in(&a.frame.map, ModelKind::Frame));
+                let picked =
+                    state.picked.with(|p| p.as_deref().and_then(|l| envelope::member_of_line(&a, l)));
+                let largest = state.largest.get();
+                let extra = state.extra.get();
+                let placement = extra
+                    .as_ref()
+                    .filter(|e| e.1.len() == 2 && state.design.with(|d| *d == e.0))
+                    .and_then(|e| e.1.get(usize::from(!largest)));
+                let basis = state.basis.get();
+                let opts = EnvelopeOptions { units, basis, case, highlight, picked, transform };
+                state.design.with(|d| envelope_elevation(&a, d, &report.1, placement, &opts, viewport))
+            }
+            None => {
+                let opts = ElevationOptions { units, case, model, highlight, transform };
+                state.design.with(|d| elevation(&a, d, &opts, viewport))
+            }
+        };
+        let model = if enveloped { ModelKind::Frame } else { model };
         paint::paint(&el, &scene);
         shown.set_value(Some((scene, model)));
     });
     let transform_now = move || shown.with_value(|s| s.as_ref().and_then(|(s, _)| s.transform));
+    // the member under `at` (canvas pixels) in the drawing on screen
+    let key_at = move |at: (f64, f64)| {
+        shown.with_value(|s| {
+            let (scene, model) = s.as_ref()?;
+            let k = paint::member_at(scene, at, PICK_TOLERANCE)?;
+            state.analysis.with_untracked(|o| {
+                let a = o.as_ref().ok()?;
+                let map = match (model, a.truss.as_ref()) {
+                    (ModelKind::Truss, Some(t)) => &t.map,
+                    _ => &a.frame.map,
+                };
+                MemberKey::of(map, *model, k)
+            })
+        })
+    };
+    let pick_at = move |at: (f64, f64)| envelope::pick_member(state, key_at(at));
     let on_down = move |ev: web_sys::PointerEvent| {
         // a second pointer (another finger) while a drag is on does not take it over:
         // the drag's saved design would be mid-drag and undo would lose its start
@@ -89,6 +129,9 @@ pub fn ElevationCanvas() -> impl IntoView {
                 transform: t,
                 grab,
             }));
+        } else {
+            // a click on a member picks it (its influence line, its governing placement)
+            pick_at(at);
         }
     };
     let on_up = move |ev: web_sys::PointerEvent| {
@@ -143,22 +186,15 @@ pub fn ElevationCanvas() -> impl IntoView {
         });
         let _ = web_sys::HtmlElement::style(&el)
             .set_property("cursor", if grabbable { "grab" } else { "default" });
-        let key = shown.with_value(|s| {
-            let (scene, model) = s.as_ref()?;
-            let k = paint::member_at(scene, at, PICK_TOLERANCE)?;
-            state.analysis.with_untracked(|o| {
-                let a = o.as_ref().ok()?;
-                let map = match (model, a.truss.as_ref()) {
-                    (ModelKind::Truss, Some(t)) => &t.map,
-                    _ => &a.frame.map,
-                };
-                MemberKey::of(map, *model, k)
-            })
-        });
-        state.focus_member(key);
+        state.focus_member(key_at(at));
     };
     let on_key = move |ev: web_sys::KeyboardEvent| {
         let model = shown.with_value(|s| s.as_ref().map_or(ModelKind::Frame, |(_, m)| *m));
+        // Enter picks the member stepped to, as a click does
+        if ev.key() == "Enter" {
+            envelope::pick_member(state, state.focus.get_untracked());
+            return;
+        }
         step_member(state, &ev, model);
     };
     view! {

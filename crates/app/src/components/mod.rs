@@ -3,6 +3,8 @@
 pub mod actions;
 pub mod canvases;
 pub mod controls;
+pub mod envelope;
+pub mod influence_chart;
 pub mod readout;
 pub mod results;
 pub mod scenarios;

@@ -5,7 +5,7 @@
 use crate::format::Units;
 use crate::state::AppState;
 use leptos::prelude::*;
-use springline_statics::arch::cases::{CaseKind, Half};
+use springline_statics::arch::cases::{CaseKind, Half, Pattern};
 
 /// Pictogram width and height (SVG user units; shown at this size in CSS pixels).
 const PICTO_W: f64 = 48.0;
@@ -94,17 +94,73 @@ fn Pictogram(kind: CaseKind, panels: usize) -> impl IntoView {
     }
 }
 
-/// One button per load case; the chosen case (aria-pressed) is what the drawings and
-/// the results show; its description, in the chosen units, is written under the row.
+/// The named traffic patterns the picker offers besides the analysis's own cases
+/// (`arch::cases::Pattern`; the left half is one of the analysis's own), each with the
+/// case kind its pictogram and title are drawn from (numbers unused).
+fn patterns() -> Vec<(Pattern, CaseKind)> {
+    let strip = CaseKind::FullSpan { line_load: 0.0, x0: 0.0, x1: 0.0 };
+    let mut out = vec![
+        (Pattern::FullSpan, strip),
+        (
+            Pattern::Half(Half::Right),
+            CaseKind::HalfSpan { half: Half::Right, intensity: 0.0, line_load: 0.0, x0: 0.0, x1: 0.0 },
+        ),
+    ];
+    out.extend(
+        (1..=4).map(|q| {
+            (Pattern::Quarter(q), CaseKind::Quarter { quarter: q, line_load: 0.0, x0: 0.0, x1: 0.0 })
+        }),
+    );
+    out
+}
+
+/// The envelope's pictogram: deck and arch with a band either side of the rib.
+#[component]
+fn EnvelopePictogram() -> impl IntoView {
+    let arch = |lift: f64| {
+        format!(
+            "M{ARCH_X0} {:.1}Q{:.1} {:.1} {ARCH_X1} {:.1}",
+            PICTO_H - 2.0 - lift,
+            0.5 * (ARCH_X0 + ARCH_X1),
+            DECK_Y - 4.0 - lift,
+            PICTO_H - 2.0 - lift
+        )
+    };
+    view! {
+        <svg class="picto" aria-hidden="true" focusable="false" width=PICTO_W height=PICTO_H
+            viewBox=format!("0 0 {PICTO_W} {PICTO_H}")>
+            <path class="picto-structure" d=format!("M1 {DECK_Y}H{}", PICTO_W - 1.0) />
+            <path class="picto-heavy" d=arch(2.5) />
+            <path class="picto-structure" d=arch(0.0) />
+            <path class="picto-light" d=arch(-2.5) />
+        </svg>
+    }
+}
+
+/// One button per load case of the analysis, then the named traffic patterns and the
+/// traffic envelope; the chosen one (aria-pressed) is what the drawings and the results
+/// show; its description, in the chosen units, is written under the row.
 #[component]
 pub fn ScenarioButtons() -> impl IntoView {
     let state = expect_context::<AppState>();
+    // the analysis's own cases (the extra cases a pattern or a placement adds come after)
     let kinds = Memo::new(move |_| {
+        let extra = state
+            .extra
+            .with(|e| e.as_ref().filter(|e| state.design.with(|d| *d == e.0)).map_or(0, |e| e.1.len()));
         state
             .analysis
-            .with(|a| a.as_ref().map(|a| a.load_cases.iter().map(|c| c.description).collect::<Vec<_>>()).ok())
+            .with(|a| {
+                a.as_ref()
+                    .map(|a| {
+                        let own = a.load_cases.len().saturating_sub(extra);
+                        a.load_cases.iter().take(own).map(|c| c.description).collect::<Vec<_>>()
+                    })
+                    .ok()
+            })
             .unwrap_or_default()
     });
+    let plain = move || state.pattern.with(Option::is_none) && !state.envelope.get();
     let panels = Memo::new(move |_| state.design.with(|d| d.panels));
     let buttons = move || {
         let units: Units = state.units.get();
@@ -113,7 +169,7 @@ pub fn ScenarioButtons() -> impl IntoView {
             .into_iter()
             .enumerate()
             .map(|(i, kind)| {
-                let pressed = move || (state.case.get() == i).to_string();
+                let pressed = move || (plain() && state.case.get() == i).to_string();
                 view! {
                     <button
                         type="button"
@@ -122,7 +178,11 @@ pub fn ScenarioButtons() -> impl IntoView {
                         data-case-index=i.to_string()
                         aria-pressed=pressed
                         title=kind.describe(units)
-                        on:click=move |_| state.case.set(i)
+                        on:click=move |_| {
+                            state.pattern.set(None);
+                            state.envelope.set(false);
+                            state.case.set(i);
+                        }
                     >
                         <Pictogram kind panels=panels.get() />
                         <span>{kind.title()}</span>
@@ -131,14 +191,67 @@ pub fn ScenarioButtons() -> impl IntoView {
             })
             .collect_view()
     };
+    let pattern_buttons = move || {
+        patterns()
+            .into_iter()
+            .map(|(pattern, kind)| {
+                let pressed =
+                    move || (!state.envelope.get() && state.pattern.get() == Some(pattern)).to_string();
+                view! {
+                    <button
+                        type="button"
+                        class="scenario"
+                        id=format!("case-{}", kind.id())
+                        aria-pressed=pressed
+                        on:click=move |_| {
+                            state.envelope.set(false);
+                            state.pattern.set(Some(pattern));
+                        }
+                    >
+                        <Pictogram kind panels=panels.get() />
+                        <span>{kind.title()}</span>
+                    </button>
+                }
+            })
+            .collect_view()
+    };
+    let envelope_button = view! {
+        <button
+            type="button"
+            class="scenario"
+            id="case-envelope"
+            aria-pressed=move || state.envelope.get().to_string()
+            title="The largest and smallest member forces under the traffic anywhere on the deck"
+            on:click=move |_| {
+                state.pattern.set(None);
+                state.envelope.set(true);
+            }
+        >
+            <EnvelopePictogram />
+            <span>"Envelope"</span>
+        </button>
+    };
     let described = move || {
         let units = state.units.get();
-        kinds.with(|k| k.get(state.case.get()).map(|k| k.describe(units))).unwrap_or_default()
+        if state.envelope.get() && state.picked.with(Option::is_none) {
+            return "the largest and smallest forces of every member under the load model's traffic placed where \
+                    it is worst; click a member for the placement that governs it"
+                .to_string();
+        }
+        state
+            .analysis
+            .with(|a| {
+                let a = a.as_ref().ok()?;
+                Some(a.load_cases.get(state.case.get())?.description.describe(units))
+            })
+            .unwrap_or_default()
     };
     view! {
         <section class="scenarios" aria-labelledby="scenarios-title">
             <h2 id="scenarios-title">"Load case"</h2>
-            <div class="scenario-row" role="group" aria-labelledby="scenarios-title">{buttons}</div>
+            <div class="scenario-row" role="group" aria-labelledby="scenarios-title">
+                {buttons}{pattern_buttons}{envelope_button}
+            </div>
             <p class="case-description" id="case-description">{described}</p>
         </section>
     }

@@ -59,6 +59,30 @@ impl Default for ElevationOptions {
     }
 }
 
+/// One entry of the elevation's key: a swatch (`None`: words only) and its words.
+#[derive(Debug, Clone, PartialEq)]
+pub struct KeyEntry {
+    /// The line drawn before the words (an arrow for the reaction ink).
+    pub swatch: Option<Stroke>,
+    /// The words.
+    pub text: String,
+    /// The words' ink.
+    pub ink: Ink,
+}
+
+/// Another reading drawn over the elevation's ground, blocks, joints, handles, springing
+/// forces and dimensions, in place of the members by force and the case's loads (the
+/// traffic envelope of `scene::envelope`).
+pub struct Overlay<'a> {
+    /// What the title says after the model (in place of the case's title).
+    pub title: String,
+    /// The key, in place of the member force key.
+    pub keys: Vec<KeyEntry>,
+    /// Draws the members and loads with the drawing's transform, placing its labels with
+    /// the placer (after the header, before the springing blocks and dimensions).
+    pub draw: &'a dyn Fn(&Transform, &mut Vec<Item>, &mut Placer),
+}
+
 /// Margin between the canvas edge and the drawing or text, CSS pixels.
 const MARGIN: f64 = 8.0;
 /// Length of a legend swatch, CSS pixels.
@@ -108,6 +132,19 @@ pub fn elevation_with_dropped(
     opts: &ElevationOptions,
     viewport: Viewport,
 ) -> (Scene, Vec<String>) {
+    elevation_with_overlay(analysis, design, opts, viewport, None)
+}
+
+/// [`elevation_with_dropped`] with `overlay` (when given) drawing the members and loads,
+/// its title and its key in place of the members by force, the case's loads, the case's
+/// title and the force key. `opts.highlight` is left to the overlay.
+pub fn elevation_with_overlay(
+    analysis: &Analysis,
+    design: &Design,
+    opts: &ElevationOptions,
+    viewport: Viewport,
+    overlay: Option<&Overlay>,
+) -> (Scene, Vec<String>) {
     let a = analysis;
     let units = opts.units;
     let case_index = if opts.case < a.frame.solution.cases.len() { opts.case } else { 0 };
@@ -127,8 +164,12 @@ pub fn elevation_with_dropped(
     scene.items.push(Item::filled(Shape::Box { rect: frame }, Ink::Background));
 
     // title and key first: they take their own lines at the top
-    let case_words =
-        a.load_cases.get(case_index).map_or_else(|| CaseKind::Dead.title(), |c| c.description.title());
+    let case_words = match overlay {
+        Some(o) => o.title.clone(),
+        None => {
+            a.load_cases.get(case_index).map_or_else(|| CaseKind::Dead.title(), |c| c.description.title())
+        }
+    };
     let case_detail = a.load_cases.get(case_index).map(|c| c.description.describe(units));
     let frame_only = drawn.kind == ModelKind::Truss;
     // texts laid out by the builder that found no room (never expected; tests check)
@@ -139,6 +180,7 @@ pub fn elevation_with_dropped(
         viewport,
         (drawn.kind, &case_words),
         (design.deck.ribs, frame_only),
+        overlay.map(|o| o.keys.as_slice()),
         &mut lost,
     );
 
@@ -195,9 +237,17 @@ pub fn elevation_with_dropped(
             }
         }
     }
-    members(&mut scene, &drawn, &t, opts.highlight);
-    joints(&mut scene, &drawn, &t);
-    loads(&mut scene, &drawn, &t);
+    match overlay {
+        Some(o) => {
+            (o.draw)(&t, &mut scene.items, &mut placer);
+            joints(&mut scene, &drawn, &t);
+        }
+        None => {
+            members(&mut scene, &drawn, &t, opts.highlight);
+            joints(&mut scene, &drawn, &t);
+            loads(&mut scene, &drawn, &t);
+        }
+    }
 
     // handles: crown and springings (squares), kept free of labels
     for q in [f.crown, f.springing_left, f.springing_right] {
@@ -237,13 +287,15 @@ pub fn elevation_with_dropped(
 /// Title (model and case in words) and key, as lines from the top left; returns the
 /// bottom of the last line and the label holding the case. `ribs` is the number of rib
 /// lines the forces are for; `frame_only` adds the key of members the drawn truss
-/// idealisation leaves out. Texts that found no room go to `lost`.
+/// idealisation leaves out; `own_keys` replace the force key (an overlay's). Texts that
+/// found no room go to `lost`.
 fn header(
     scene: &mut Scene,
     placer: &mut Placer,
     viewport: Viewport,
     (kind, case_words): (ModelKind, &str),
     (ribs, frame_only): (usize, bool),
+    own_keys: Option<&[KeyEntry]>,
     lost: &mut Vec<String>,
 ) -> (f64, Option<usize>) {
     let area = Rect::new(MARGIN, MARGIN - 2.0, (viewport.width - 2.0 * MARGIN).max(10.0), viewport.height);
@@ -292,6 +344,9 @@ fn header(
             "faint: not in the truss idealisation".into(),
             Ink::Secondary,
         ));
+    }
+    if let Some(own) = own_keys {
+        keys = own.iter().map(|k| (k.swatch, k.text.clone(), k.ink)).collect();
     }
     let size = TextSize::Small;
     let h = size.box_height();

@@ -9,6 +9,7 @@
 //! Colours are named by what they mean ([`Ink`]); [`Ink::css`] gives our palette.
 
 pub mod elevation;
+pub mod envelope;
 pub mod force;
 pub mod place;
 
