@@ -11,6 +11,7 @@
 pub mod elevation;
 pub mod force;
 pub mod place;
+pub mod vehicle;
 
 use serde::Serialize;
 
