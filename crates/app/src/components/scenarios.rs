@@ -1,6 +1,8 @@
 //! The load case picker: one named button per load case of the analysis, each with a
 //! small pictogram of its load pattern drawn from the case kind, the chosen one pressed.
-//! The drawings and the results table show the chosen case.
+//! The drawings and the results table show the chosen case. The last button puts the
+//! load model's vehicle on the deck (its case joins the analysis while it is chosen, and
+//! the elevation lets it be dragged along the deck).
 
 use crate::format::Units;
 use crate::state::AppState;
@@ -88,17 +90,69 @@ fn Pictogram(kind: CaseKind, panels: usize) -> impl IntoView {
     }
 }
 
+/// The vehicle button's pictogram (a style of its own: the vehicle outlined on the deck
+/// with a two-headed arrow over it, as it can be moved along): deck, arch and the light
+/// dead-load arrows as in the other pictograms.
+#[component]
+fn VehiclePictogram() -> impl IntoView {
+    let (light, _) = arrows(&CaseKind::Dead, 0);
+    let arch = format!(
+        "M{ARCH_X0} {:.1}Q{:.1} {:.1} {ARCH_X1} {:.1}",
+        PICTO_H - 2.0,
+        0.5 * (ARCH_X0 + ARCH_X1),
+        DECK_Y - 4.0,
+        PICTO_H - 2.0
+    );
+    // body with its front (right) corner cut, wheels on the deck line
+    let (x0, x1, top, bottom) = (12.0, 25.0, DECK_Y - 9.5, DECK_Y - 3.5);
+    let body = format!("M{x0} {bottom}H{x1}V{:.1}L{:.1} {top}H{x0}Z", top + 2.5, x1 - 2.5);
+    let travel = format!(
+        "M{:.1} 2.5H{:.1}M{:.1} 0.8L{:.1} 2.5L{:.1} 4.2M{:.1} 0.8L{:.1} 2.5L{:.1} 4.2",
+        x0 - 4.0,
+        x1 + 4.0,
+        x0 - 2.3,
+        x0 - 4.0,
+        x0 - 2.3,
+        x1 + 2.3,
+        x1 + 4.0,
+        x1 + 2.3
+    );
+    view! {
+        <svg class="picto" aria-hidden="true" focusable="false" width=PICTO_W height=PICTO_H
+            viewBox=format!("0 0 {PICTO_W} {PICTO_H}")>
+            <path class="picto-structure" d=format!("M1 {DECK_Y}H{}", PICTO_W - 1.0) />
+            <path class="picto-structure" d=arch />
+            <path class="picto-light" d=light />
+            <path d=body fill="#ffffff" stroke="#1f2a33" stroke-width="1.3" stroke-linejoin="round" />
+            <circle cx=x0 + 2.5 cy=DECK_Y - 2.0 r="1.6" fill="#ffffff" stroke="#1f2a33" stroke-width="1.1" />
+            <circle cx=x1 - 2.5 cy=DECK_Y - 2.0 r="1.6" fill="#ffffff" stroke="#1f2a33" stroke-width="1.1" />
+            <path d=travel fill="none" stroke="#6a4c93" stroke-width="1.2" stroke-linecap="round" />
+        </svg>
+    }
+}
+
 /// One button per load case; the chosen case (aria-pressed) is what the drawings and
-/// the results show; its description, in the chosen units, is written under the row.
+/// the results show; its description, in the chosen units, is written under the row. The
+/// vehicle's case (while a vehicle is on the deck) has the last button, "Vehicle", which
+/// stays in its place whether or not the vehicle is chosen.
 #[component]
 pub fn ScenarioButtons() -> impl IntoView {
     let state = expect_context::<AppState>();
     let kinds = Memo::new(move |_| {
         state
             .analysis
-            .with(|a| a.as_ref().map(|a| a.load_cases.iter().map(|c| c.description).collect::<Vec<_>>()).ok())
+            .with(|a| {
+                a.as_ref()
+                    .map(|a| {
+                        // the vehicle's case has its own button, which moving it does not rebuild
+                        let kinds = a.load_cases.iter().map(|c| c.description);
+                        kinds.filter(|k| !matches!(k, CaseKind::Vehicle { .. })).collect::<Vec<_>>()
+                    })
+                    .ok()
+            })
             .unwrap_or_default()
     });
+    let vehicle_chosen = Memo::new(move |_| state.vehicle.with(Option::is_some));
     let panels = Memo::new(move |_| state.design.with(|d| d.panels));
     let buttons = move || {
         let units: Units = state.units.get();
@@ -107,7 +161,7 @@ pub fn ScenarioButtons() -> impl IntoView {
             .into_iter()
             .enumerate()
             .map(|(i, kind)| {
-                let pressed = move || (state.case.get() == i).to_string();
+                let pressed = move || (!vehicle_chosen.get() && state.case.get() == i).to_string();
                 view! {
                     <button
                         type="button"
@@ -116,7 +170,7 @@ pub fn ScenarioButtons() -> impl IntoView {
                         data-case-index=i.to_string()
                         aria-pressed=pressed
                         title=kind.describe(units)
-                        on:click=move |_| state.case.set(i)
+                        on:click=move |_| state.choose_case(i)
                     >
                         <Pictogram kind panels=panels.get() />
                         <span>{kind.title()}</span>
@@ -125,6 +179,21 @@ pub fn ScenarioButtons() -> impl IntoView {
             })
             .collect_view()
     };
+    let vehicle_button = move || {
+        view! {
+            <button
+                type="button"
+                class="scenario"
+                id="case-vehicle"
+                aria-pressed=move || vehicle_chosen.get().to_string()
+                title="The load model's vehicle on the deck: drag it along the elevation, or focus the elevation and use the left and right arrow keys (Shift: one panel)"
+                on:click=move |_| state.choose_vehicle()
+            >
+                <VehiclePictogram />
+                <span>"Vehicle"</span>
+            </button>
+        }
+    };
     let described = move || {
         let units = state.units.get();
         kinds.with(|k| k.get(state.case.get()).map(|k| k.describe(units))).unwrap_or_default()
@@ -132,7 +201,7 @@ pub fn ScenarioButtons() -> impl IntoView {
     view! {
         <section class="scenarios" aria-labelledby="scenarios-title">
             <h2 id="scenarios-title">"Load case"</h2>
-            <div class="scenario-row" role="group" aria-labelledby="scenarios-title">{buttons}</div>
+            <div class="scenario-row" role="group" aria-labelledby="scenarios-title">{buttons}{vehicle_button}</div>
             <p class="case-description" id="case-description">{described}</p>
         </section>
     }
