@@ -217,7 +217,10 @@ fn dragging_the_vehicle_across_the_span_turns_a_diagonal_from_tension_to_compres
     s.set_window(1500, 900);
     s.wait_for("the smaller window", "return window.innerHeight < 900;", WAIT);
     // the redraw after the resize
-    s.exec_async("const done = arguments[0]; setTimeout(() => requestAnimationFrame(() => done(0)), 200);", vec![]);
+    s.exec_async(
+        "const done = arguments[0]; setTimeout(() => requestAnimationFrame(() => done(0)), 200);",
+        vec![],
+    );
     let scale = transform(&s, "elevation").0;
     let from = vehicle_centre(&s);
     s.drag(from, (from.0 + (83.8 - x3) * scale, from.1), 8);

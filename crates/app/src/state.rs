@@ -94,6 +94,16 @@ pub fn analyse(valid: &ValidDesign, vehicle: Option<f64>) -> Result<Analysis, St
     }
 }
 
+/// Whether a newly computed outcome differs from the last: a different analysis
+/// (another `Arc`) always does; two errors when their messages differ.
+fn analysis_changed(old: Option<&Outcome>, new: Option<&Outcome>) -> bool {
+    match (old, new) {
+        (Some(Ok(a)), Some(Ok(b))) => !Arc::ptr_eq(a, b),
+        (Some(Err(a)), Some(Err(b))) => a != b,
+        _ => true,
+    }
+}
+
 /// A design checked by [`AppState::check`]: its validation, and its analysis with the
 /// vehicle where it stood then, kept for the memos.
 type Checked = (Design, Arc<ValidDesign>, Option<f64>, Arc<Analysis>);
@@ -175,19 +185,25 @@ impl AppState {
                 }
             })
         });
-        let analysis = Memo::new(move |_| {
-            let x = vehicle.get();
-            let v = valid.get()?;
-            let cached = design.with_untracked(|d| {
-                checked.with_value(|c| {
-                    c.as_ref().filter(|(cd, _, cx, _)| cd == d && *cx == x).map(|(.., a)| a.clone())
-                })
-            });
-            match cached {
-                Some(a) => Ok(a),
-                None => analyse(&v, x).map(Arc::new),
-            }
-        });
+        // a new analysis is a change: comparing two analyses field by field would cost a
+        // good part of a vehicle move's budget, and a new one is computed only when its
+        // inputs changed
+        let analysis = Memo::new_with_compare(
+            move |_| {
+                let x = vehicle.get();
+                let v = valid.get()?;
+                let cached = design.with_untracked(|d| {
+                    checked.with_value(|c| {
+                        c.as_ref().filter(|(cd, _, cx, _)| cd == d && *cx == x).map(|(.., a)| a.clone())
+                    })
+                });
+                match cached {
+                    Some(a) => Ok(a),
+                    None => analyse(&v, x).map(Arc::new),
+                }
+            },
+            analysis_changed,
+        );
         AppState {
             design,
             valid,
