@@ -90,9 +90,7 @@ fn rows(a: &Analysis, case: usize, ribs: usize, units: Units) -> Vec<Row> {
         ("result-case-bracing-compression", "Bracing, most compression in this case", false),
     ] {
         if let Some((n, key)) = case_bracing_extreme(a, case, tension) {
-            let label = format!("{label} (frame model, {all_ribs})");
-            let text = format!("{} · {key}", units.show(Quantity::Force, n));
-            r.push(Row { id, label, quantity: Quantity::Force, si: n, text: Some(text) });
+            r.push(row(id, &format!("{label} (frame model, {all_ribs}): {key}"), Quantity::Force, n));
         }
     }
     if let Some(pole) = a.load_cases.get(case).and_then(|c| c.rib_funicular.as_ref()) {
@@ -231,8 +229,8 @@ pub fn ResultsPanel() -> impl IntoView {
                     .into_iter()
                     .map(|r| {
                         let shown = r.text.clone().unwrap_or_else(|| units.show(r.quantity, r.si));
-                        let data = if r.si.is_finite() { format!("{}", r.si) } else { String::new() };
-                        let kind = if r.si.is_finite() { r.quantity.key() } else { "text" };
+                        let data = if r.text.is_some() { String::new() } else { format!("{}", r.si) };
+                        let kind = if r.text.is_some() { "text" } else { r.quantity.key() };
                         view! {
                             <tr>
                                 <th scope="row">{r.label}</th>
@@ -349,7 +347,7 @@ mod tests {
             assert!(c < 0.0);
             let rows = rows(&a, case, 2, Units::Si);
             let row = rows.iter().find(|r| r.id == "result-case-bracing-tension").expect("row");
-            assert!(row.text.as_deref().is_some_and(|t| t.ends_with(most)) && row.si == n);
+            assert!(row.label.ends_with(&format!("all 2 ribs): {most}")) && row.si == n, "{}", row.label);
             let k =
                 a.frame.map.roles.iter().enumerate().filter(|(_, r)| **r == MemberRole::Bracing).find_map(
                     |(k, _)| {
