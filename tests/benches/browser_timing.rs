@@ -1,12 +1,13 @@
 //! Browser timing harness: how long the app takes, in headless Chromium, from an edit to
-//! the next painted frame, and from page load to the first drawing. Needs the release
+//! the next painted frame, from page load to the first drawing, and the main-thread work
+//! of one move of a dragged vehicle. Needs the release
 //! build in `dist/` (`scripts/serve` or `trunk build --release`).
 //!
 //! Run: `cargo bench -p springline-tests --bench browser_timing`. Prints a table; it
 //! asserts nothing (targets live here, not in timed unit tests).
 
 use serde_json::json;
-use springline_tests::page::{dist, open, WAIT};
+use springline_tests::page::{dist, open, set_field, WAIT};
 use springline_tests::serve::StaticServer;
 use springline_tests::webdriver::Driver;
 use std::time::Instant;
@@ -22,9 +23,60 @@ const EDIT_TO_FRAME: &str = "
     requestAnimationFrame(() => requestAnimationFrame(() => done(performance.now() - t0)));
 ";
 
+/// In the page: grab the vehicle on the elevation with a synthetic pointer, then move it
+/// 0.5 m to the right `arguments[0]` times, one move per frame. For each move: the time
+/// of the synchronous `dispatchEvent` (the handler), and the time from dispatching it to
+/// a task queued right after (a MessageChannel message runs once the microtasks are done:
+/// the memoised analysis, both canvases repainted, the readout and results updated). No
+/// animation frame is inside either time.
+const VEHICLE_MOVES: &str = "
+    const done = arguments[arguments.length - 1];
+    const n = arguments[0];
+    const el = document.getElementById('elevation');
+    const box = JSON.parse(el.dataset.vehicleBox);
+    const r = el.getBoundingClientRect();
+    const cx = r.left + box[0] + box[2] / 2, cy = r.top + box[1] + box[3] / 2;
+    const scale = +el.dataset.scale;
+    const at = (x) => ({ bubbles: true, composed: true, pointerId: 7, pointerType: 'mouse', isPrimary: true,
+                         clientX: x, clientY: cy, button: 0, buttons: 1 });
+    el.dispatchEvent(new PointerEvent('pointerdown', at(cx)));
+    const sync = [], whole = [];
+    const channel = new MessageChannel();
+    let k = 0;
+    const step = () => {
+        k += 1;
+        const x = cx + scale * 0.5 * k;
+        const t0 = performance.now();
+        el.dispatchEvent(new PointerEvent('pointermove', at(x)));
+        sync.push(performance.now() - t0);
+        channel.port1.onmessage = () => {
+            whole.push(performance.now() - t0);
+            if (k < n) {
+                requestAnimationFrame(() => setTimeout(step, 0));
+            } else {
+                el.dispatchEvent(new PointerEvent('pointerup', at(x)));
+                done({ sync, whole, x: +el.dataset.vehicleX });
+            }
+        };
+        channel.port2.postMessage(0);
+    };
+    step();
+";
+
 fn median(mut v: Vec<f64>) -> f64 {
     v.sort_by(|a, b| a.total_cmp(b));
     v[v.len() / 2]
+}
+
+/// The `p`-th percentile (0 to 100) of `v`, nearest rank.
+fn percentile(mut v: Vec<f64>, p: f64) -> f64 {
+    v.sort_by(|a, b| a.total_cmp(b));
+    let rank = ((p / 100.0) * v.len() as f64).ceil().max(1.0) as usize;
+    v[rank.min(v.len()) - 1]
+}
+
+fn numbers(v: &serde_json::Value) -> Vec<f64> {
+    v.as_array().map(|a| a.iter().filter_map(|x| x.as_f64()).collect()).unwrap_or_default()
 }
 
 fn main() {
@@ -54,5 +106,36 @@ fn main() {
         }
         println!("{panels:>8} {:>10.1}", median(times));
     }
+
+    // the vehicle dragged along the deck of a 16-panel design
+    set_field(&s, "panels", "16");
+    s.wait_for("16 panels", "return document.getElementById('panels').value === '16'", WAIT);
+    s.exec("document.getElementById('case-vehicle').click();", vec![]);
+    s.wait_for(
+        "the vehicle drawn",
+        "return document.getElementById('elevation').dataset.vehicleBox !== undefined",
+        WAIT,
+    );
+    let moves = 100;
+    let r = s.exec_async(VEHICLE_MOVES, vec![json!(moves)]);
+    let (sync, whole) = (numbers(&r["sync"]), numbers(&r["whole"]));
+    println!(
+        "\nvehicle drag, 16 panels, {} moves of 0.5 m (leading axle ends at x = {} m):",
+        whole.len(),
+        r["x"]
+    );
+    println!("{:>44} {:>8} {:>8}", "", "median", "p95");
+    println!(
+        "{:>44} {:>8.2} {:>8.2}",
+        "dispatchEvent, synchronous (ms)",
+        median(sync.clone()),
+        percentile(sync, 95.0)
+    );
+    println!(
+        "{:>44} {:>8.2} {:>8.2}",
+        "dispatch to end of the work it queues (ms)",
+        median(whole.clone()),
+        percentile(whole, 95.0)
+    );
     let _ = s.wait_for("idle", "return true", WAIT);
 }

@@ -90,3 +90,48 @@ fn the_actions_block_shows_the_engines_numbers_and_follows_an_edit() {
     assert!(text_of(&s, "deflection-check").contains("span / 800"));
     assert!(severe(&s).is_empty(), "{:?}", severe(&s));
 }
+
+/// Each action has its button in the load picker: choosing one shows that action alone
+/// in the drawings and the results table (the springing forces are the engine's for the
+/// action case), and erection draws the bare rib.
+#[test]
+fn the_load_picker_shows_each_action_alone() {
+    let server = StaticServer::start(&dist());
+    let driver = Driver::start();
+    let s = driver.session(1500, 900, 1.0);
+    let mut d = Design::demo();
+    d.rib_system = RibSystem::Fixed;
+    open_url(&s, &format!("{}#{}", server.url(), permalink::encode(&d)));
+    let r = actions_of(&d);
+    for (button, case) in
+        [("case-temperature-fall", "temperature fall"), ("case-erection", "erection (bare rib)")]
+    {
+        s.exec("document.getElementById(arguments[0]).click();", vec![json!(button)]);
+        let expected = r.cases.iter().find(|c| c.case == case).expect("case");
+        s.wait_for(
+            &format!("{button} pressed"),
+            &format!(
+                "return document.getElementById({}).getAttribute('aria-pressed') === 'true'",
+                json!(button)
+            ),
+            WAIT,
+        );
+        wait_value(&s, "result-left-h", expected.left.thrust);
+        // a fixed rib's springing moment is in the table too
+        let shown_moment = s
+            .exec(
+                "const e = document.getElementById('result-left-m'); return e ? +e.dataset.value : null;",
+                vec![],
+            )
+            .as_f64();
+        if let Some(m) = shown_moment {
+            assert!((m - expected.left.moment).abs() <= 1e-6 * expected.left.moment.abs().max(1.0), "{m}");
+        }
+        let title = text_of(&s, "case-description");
+        assert!(!title.is_empty(), "the case is described");
+        let name = button.trim_start_matches("case-");
+        std::fs::write(screenshots_dir().join(format!("action-{name}.png")), s.screenshot())
+            .expect("screenshot");
+    }
+    assert!(severe(&s).is_empty(), "{:?}", severe(&s));
+}

@@ -5,14 +5,14 @@
 use crate::format::Units;
 use leptos::prelude::*;
 use springline_statics::arch::analysis::analyze_with;
-use springline_statics::arch::cases::{CaseSpec, Pattern};
+use springline_statics::arch::cases::{standard_cases, CaseSpec, Pattern};
 use springline_statics::arch::edit::{Drag, DragStop, Reading, Snapping};
 use springline_statics::arch::readout::MemberKey;
 use springline_statics::arch::traffic::TrafficReport;
-use springline_statics::arch::validate::ValidDesign;
 use springline_statics::error::{Field, Location, StaticsError};
 use springline_statics::scene::envelope::Basis;
-use springline_statics::{analyze, Analysis, Design, ModelKind};
+use springline_statics::scene::vehicle::{start_position, travel, vehicle_case, VehicleOnDeck};
+use springline_statics::{analyze_valid, Analysis, Design, ModelKind, ValidDesign};
 use std::sync::Arc;
 
 /// The analysis of the current design, or the engine's error when there is none.
@@ -82,12 +82,58 @@ pub struct DragReading {
     pub client: (f64, f64),
 }
 
+/// The validated design, or the engine's error when the design does not validate.
+pub type Validated = Result<Arc<ValidDesign>, StaticsError>;
+
+/// The analysis of `valid` with the vehicle's case after the standard ones when a vehicle
+/// stands on the deck (leading axle at `vehicle`, m), else its standard cases alone
+/// (`arch::analysis::analyze_with`, `scene::vehicle::vehicle_case`). The validation (and
+/// its form finding) is not repeated: a move of the vehicle costs the solves alone.
+///
+/// `extra`: further cases after the standard ones (a pattern, an action, the governing
+/// placements of a picked line), before the vehicle's.
+pub fn analyse(
+    valid: &ValidDesign,
+    vehicle: Option<f64>,
+    extra: &[CaseSpec],
+) -> Result<Analysis, StaticsError> {
+    let mut cases = extra.to_vec();
+    if let Some(x) = vehicle {
+        cases.push(vehicle_case(valid, x)?);
+    }
+    if cases.is_empty() {
+        analyze_valid(valid)
+    } else {
+        analyze_with(valid, &cases)
+    }
+}
+
+/// Whether a newly computed outcome differs from the last: a different analysis
+/// (another `Arc`) always does; two errors when their messages differ.
+fn analysis_changed(old: Option<&Outcome>, new: Option<&Outcome>) -> bool {
+    match (old, new) {
+        (Some(Ok(a)), Some(Ok(b))) => !Arc::ptr_eq(a, b),
+        (Some(Err(a)), Some(Err(b))) => a != b,
+        _ => true,
+    }
+}
+
+/// A design checked by [`AppState::check`]: its validation, and its analysis with the
+/// vehicle where it stood then, kept for the memos.
+type Checked = (Design, Arc<ValidDesign>, Option<f64>, Arc<Analysis>);
+
 /// Everything the components share.
 #[derive(Clone, Copy)]
 pub struct AppState {
     /// The last good design: only designs that analyse are ever stored here.
     pub design: RwSignal<Design>,
-    /// Its analysis, memoised.
+    /// Its validation (layout and form finding), memoised apart from the analysis so a
+    /// move of the vehicle does not repeat it.
+    pub valid: Memo<Validated>,
+    /// The leading axle's x (m) of the load model's vehicle on the deck, when the user has
+    /// chosen the vehicle; not part of the design (no undo step, no design link change).
+    pub vehicle: RwSignal<Option<f64>>,
+    /// Its analysis (with the vehicle's case last when a vehicle is on the deck), memoised.
     pub analysis: Memo<Outcome>,
     /// The truss member under the pointer.
     pub hovered: RwSignal<Hovered>,
@@ -138,13 +184,16 @@ pub struct AppState {
     /// A named traffic pattern chosen in the load picker (added to the analysis as an
     /// extra case).
     pub pattern: RwSignal<Option<Pattern>>,
-    /// Extra load cases for the design they were built for (a pattern, the governing
-    /// placements of the picked line): the analysis includes them while that design is
-    /// shown (`components::envelope::install`).
+    /// One of the other actions chosen in the load picker, by its case id
+    /// (`CaseKind::id`: `temperature-rise`, `erection`, ...), added as an extra case.
+    pub action: RwSignal<Option<String>>,
+    /// Extra load cases for the design they were built for (a pattern, an action, the
+    /// governing placements of the picked line): the analysis includes them while that
+    /// design is shown (`components::envelope::install`).
     pub extra: RwSignal<Option<Arc<ExtraCases>>>,
     /// The analysis just computed for a design about to be set, so the memo does not
     /// compute it a second time.
-    checked: StoredValue<Option<(Design, Arc<Analysis>)>>,
+    checked: StoredValue<Option<Checked>>,
 }
 
 /// Extra load cases and the design they were built for.
@@ -161,25 +210,50 @@ impl AppState {
     /// State holding `design`.
     pub fn new(design: Design) -> Self {
         let design = RwSignal::new(design);
-        let checked = StoredValue::new(None::<(Design, Arc<Analysis>)>);
+        let vehicle = RwSignal::new(None::<f64>);
         let extra = RwSignal::new(None::<Arc<ExtraCases>>);
-        let analysis = Memo::new(move |_| {
-            let extra = extra.get();
+        let checked = StoredValue::new(None::<Checked>);
+        let valid = Memo::new(move |_| {
             design.with(|d| {
-                // extra cases built for this very design: analysed with them
-                if let Some(e) = extra.as_ref().filter(|e| e.0 == *d && !e.1.is_empty()) {
-                    return ValidDesign::new(d).and_then(|v| analyze_with(&v, &e.1)).map(Arc::new);
-                }
                 let cached =
-                    checked.with_value(|c| c.as_ref().filter(|(cd, _)| cd == d).map(|(_, a)| a.clone()));
+                    checked.with_value(|c| c.as_ref().filter(|(cd, ..)| cd == d).map(|(_, v, ..)| v.clone()));
                 match cached {
-                    Some(a) => Ok(a),
-                    None => analyze(d).map(Arc::new),
+                    Some(v) => Ok(v),
+                    None => ValidDesign::new(d).map(Arc::new),
                 }
             })
         });
+        // a new analysis is a change: comparing two analyses field by field would cost a
+        // good part of a vehicle move's budget, and a new one is computed only when its
+        // inputs changed
+        let analysis = Memo::new_with_compare(
+            move |_| {
+                let x = vehicle.get();
+                let v = valid.get()?;
+                // extra cases built for this very design: analysed with them
+                let extra = extra.get();
+                let extra = design.with_untracked(|d| {
+                    extra.as_ref().filter(|e| e.0 == *d && !e.1.is_empty()).map(|e| e.1.clone())
+                });
+                if let Some(cases) = extra {
+                    return analyse(&v, x, &cases).map(Arc::new);
+                }
+                let cached = design.with_untracked(|d| {
+                    checked.with_value(|c| {
+                        c.as_ref().filter(|(cd, _, cx, _)| cd == d && *cx == x).map(|(.., a)| a.clone())
+                    })
+                });
+                match cached {
+                    Some(a) => Ok(a),
+                    None => analyse(&v, x, &[]).map(Arc::new),
+                }
+            },
+            analysis_changed,
+        );
         AppState {
             design,
+            valid,
+            vehicle,
             analysis,
             hovered: RwSignal::new(Hovered(None)),
             focus: RwSignal::new(None),
@@ -200,6 +274,7 @@ impl AppState {
             picked: RwSignal::new(None),
             largest: RwSignal::new(false),
             pattern: RwSignal::new(None),
+            action: RwSignal::new(None),
             extra,
             checked,
         }
@@ -223,9 +298,89 @@ impl AppState {
     /// Analyses `design`, keeping the result for the memo; the engine's error if it does
     /// not analyse.
     pub fn check(&self, design: &Design) -> Result<(), StaticsError> {
-        let analysis = analyze(design)?;
-        self.checked.set_value(Some((design.clone(), Arc::new(analysis))));
+        let valid = ValidDesign::new(design)?;
+        let x = self.vehicle.get_untracked();
+        let analysis = analyse(&valid, x, &[])?;
+        self.checked.set_value(Some((design.clone(), Arc::new(valid), x, Arc::new(analysis))));
         Ok(())
+    }
+
+    /// The vehicle on the deck (its axles and total), when one is chosen and the design
+    /// validates.
+    pub fn vehicle_on_deck(&self) -> Option<VehicleOnDeck> {
+        let x = self.vehicle.get()?;
+        self.valid.with(|v| VehicleOnDeck::from_case(&vehicle_case(v.as_ref().ok()?, x).ok()?))
+    }
+
+    /// Puts the load model's vehicle on the deck at the left quarter of the arch span and
+    /// shows its case (the last of the analysis). Nothing when the design does not
+    /// validate or a vehicle is already on the deck (it stays where it is).
+    pub fn choose_vehicle(&self) {
+        if self.vehicle.get_untracked().is_some() {
+            return;
+        }
+        let Some(x) = self.valid.with_untracked(|v| v.as_ref().ok().map(|v| start_position(v))) else {
+            return;
+        };
+        self.clear_choices();
+        // the case first, then the analysis it indexes into: an effect that follows the
+        // case's id (the link) then reads the vehicle's case (after the analysis's own)
+        let standard = self.valid.with_untracked(|v| v.as_ref().map_or(0, |v| standard_cases(v).len() + 1));
+        self.case.set(standard);
+        self.vehicle.set(Some(x));
+    }
+
+    /// Shows load case `index` of the analysis without a vehicle (the vehicle, if any,
+    /// leaves the deck: its case is the last, so `index` points at the same case after).
+    pub fn choose_case(&self, index: usize) {
+        self.clear_choices();
+        self.case.set(index);
+        if self.vehicle.get_untracked().is_some() {
+            self.vehicle.set(None);
+        }
+    }
+
+    /// Takes back the load picker's other choices (a pattern, an action, the envelope),
+    /// so one choice holds at a time.
+    pub fn clear_choices(&self) {
+        if self.pattern.with_untracked(Option::is_some) {
+            self.pattern.set(None);
+        }
+        if self.action.with_untracked(Option::is_some) {
+            self.action.set(None);
+        }
+        if self.envelope.get_untracked() {
+            self.envelope.set(false);
+        }
+    }
+
+    /// Moves the vehicle's leading axle to `x` (m), kept within its travel (the arch span,
+    /// plus its length so that it can enter and leave: `scene::vehicle::travel`); returns
+    /// the x it stands at, `None` when no vehicle is chosen or the design does not
+    /// validate. Not a design edit: no undo step.
+    pub fn move_vehicle(&self, x: f64) -> Option<f64> {
+        self.vehicle.get_untracked()?;
+        let length = self.vehicle_on_deck_untracked().map_or(0.0, |c| c.length());
+        let (lo, hi) = self.valid.with_untracked(|v| v.as_ref().ok().map(|v| travel(v, length)))?;
+        let x = if x.is_finite() { x.clamp(lo, hi) } else { lo };
+        if self.vehicle.get_untracked() != Some(x) {
+            self.vehicle.set(Some(x));
+        }
+        Some(x)
+    }
+
+    fn vehicle_on_deck_untracked(&self) -> Option<VehicleOnDeck> {
+        let x = self.vehicle.get_untracked()?;
+        self.valid.with_untracked(|v| VehicleOnDeck::from_case(&vehicle_case(v.as_ref().ok()?, x).ok()?))
+    }
+
+    /// The length of one panel of the arch span, m (the vehicle's step with Shift held),
+    /// `None` when the design does not validate.
+    pub fn panel_length(&self) -> Option<f64> {
+        self.valid.with_untracked(|v| {
+            let f = v.as_ref().ok()?.layout();
+            (f.panels > 0).then(|| f.span() / f.panels as f64)
+        })
     }
 
     /// Forgets the last refused edit (its messages leave the fields) and why the last
@@ -352,6 +507,7 @@ pub fn parse_number(text: &str) -> Result<f64, String> {
 #[cfg(test)]
 mod tests {
     use super::*;
+    use springline_statics::analyze;
     use springline_statics::error::{GroupName, SectionProperty};
 
     /// The refusal of a deck at 60 m under the demo's springings at 76 m (left) and 80 m

@@ -14,6 +14,7 @@ use springline_statics::arch::readout::MemberKey;
 use springline_statics::scene::elevation::{elevation, ElevationOptions};
 use springline_statics::scene::envelope::{envelope_elevation, EnvelopeOptions};
 use springline_statics::scene::force::{AreaView, FixedScale, ForceDrawing, ForceOptions};
+use springline_statics::scene::vehicle::{add_vehicle, VehicleGlyph};
 use springline_statics::scene::{Px, Scene, Transform};
 use springline_statics::ModelKind;
 
@@ -25,8 +26,14 @@ fn pointer_in(canvas: &web_sys::HtmlCanvasElement, ev: &web_sys::PointerEvent) -
     (ev.client_x() as f64 - r.left(), ev.client_y() as f64 - r.top())
 }
 
+/// Snap step of a dragged vehicle's leading axle, m (free with Shift), and its step with
+/// the left and right arrow keys (with Shift: one panel).
+const VEHICLE_SNAP: f64 = 0.1;
+const VEHICLE_KEY_STEP: f64 = 0.5;
+
 /// The elevation canvas: the engine's elevation scene painted, the model switch under it,
-/// hover and keyboard stepping through members, and the drag of handles.
+/// hover and keyboard stepping through members, the drag of handles, and the vehicle on
+/// the deck (dragged, or moved with the left and right arrow keys) when it is chosen.
 #[component]
 pub fn ElevationCanvas() -> impl IntoView {
     let state = expect_context::<AppState>();
@@ -34,6 +41,9 @@ pub fn ElevationCanvas() -> impl IntoView {
     // the scene on screen and the model it draws (for pointer hits)
     let shown = StoredValue::new(None::<(Scene, ModelKind)>);
     let dragging = StoredValue::new(None::<HandleDrag>);
+    // the vehicle's glyph on screen (for pointer hits) and a drag of it in progress
+    let glyph = StoredValue::new(None::<VehicleGlyph>);
+    let vehicle_drag = StoredValue::new(None::<VehicleDrag>);
     Effect::new(move |_| {
         let _ = state.resized.get();
         let focus = state.focus.get();
@@ -54,7 +64,7 @@ pub fn ElevationCanvas() -> impl IntoView {
         // the envelope view draws the frame model over the report of the design on screen
         let report = if state.envelope.get() { envelope::current_report(state) } else { None };
         let enveloped = report.is_some();
-        let scene = match report {
+        let mut scene = match report {
             Some(report) => {
                 let highlight = focus.and_then(|k| k.member_in(&a.frame.map, ModelKind::Frame));
                 let picked =
@@ -75,7 +85,24 @@ pub fn ElevationCanvas() -> impl IntoView {
             }
         };
         let model = if enveloped { ModelKind::Frame } else { model };
+        // the vehicle on the deck (never in the envelope view, which chooses no vehicle)
+        let car = if enveloped { None } else { state.vehicle_on_deck() };
+        let deck_level = state.design.with(|d| d.deck.level);
+        let drawn_car = car.as_ref().and_then(|c| add_vehicle(&mut scene, c, deck_level, units));
         paint::paint(&el, &scene);
+        // the vehicle's leading axle and grab box, for tests and assistive tools
+        match (&car, &drawn_car) {
+            (Some(c), Some(g)) => {
+                let r = g.handle;
+                let _ = el.set_attribute("data-vehicle-x", &format!("{}", c.first_axle));
+                let _ = el.set_attribute("data-vehicle-box", &format!("[{},{},{},{}]", r.x, r.y, r.w, r.h));
+            }
+            _ => {
+                let _ = el.remove_attribute("data-vehicle-x");
+                let _ = el.remove_attribute("data-vehicle-box");
+            }
+        }
+        glyph.set_value(drawn_car);
         shown.set_value(Some((scene, model)));
     });
     let transform_now = move || shown.with_value(|s| s.as_ref().and_then(|(s, _)| s.transform));
@@ -103,6 +130,18 @@ pub fn ElevationCanvas() -> impl IntoView {
         }
         let (Some(el), Some(t)) = (node.get(), transform_now()) else { return };
         let at = pointer_in(&el, &ev);
+        if vehicle_drag.with_value(Option::is_some) {
+            return;
+        }
+        // the vehicle first: it stands over the deck, whose line is a handle too
+        let on_vehicle = glyph.with_value(|g| g.as_ref().is_some_and(|g| g.grabs(Px::new(at.0, at.1))));
+        if let (true, Some(x)) = (on_vehicle, state.vehicle.get_untracked()) {
+            let _ = el.set_pointer_capture(ev.pointer_id());
+            ev.prevent_default();
+            let grab = x - t.world(Px::new(at.0, at.1)).0;
+            vehicle_drag.set_value(Some(VehicleDrag { pointer: ev.pointer_id(), grab, transform: t }));
+            return;
+        }
         let design = state.design.get_untracked();
         let grabbed = state.analysis.with_untracked(|o| {
             let a = o.as_ref().ok()?;
@@ -135,6 +174,13 @@ pub fn ElevationCanvas() -> impl IntoView {
         }
     };
     let on_up = move |ev: web_sys::PointerEvent| {
+        if vehicle_drag.with_value(|d| d.as_ref().is_some_and(|d| d.pointer == ev.pointer_id())) {
+            vehicle_drag.set_value(None);
+            if let Some(el) = node.get() {
+                let _ = el.release_pointer_capture(ev.pointer_id());
+            }
+            return;
+        }
         let ours = dragging.with_value(|d| d.as_ref().is_some_and(|d| d.pointer == ev.pointer_id()));
         if let Some(HandleDrag { before, .. }) = dragging.get_value().filter(|_| ours) {
             dragging.set_value(None);
@@ -158,6 +204,17 @@ pub fn ElevationCanvas() -> impl IntoView {
         }
         let (Some(el), Some(t)) = (node.get(), transform_now()) else { return };
         let at = pointer_in(&el, &ev);
+        // moving the vehicle: its leading axle follows the pointer along the deck, on the
+        // 0.1 m grid unless Shift is held, within its travel (not a design edit)
+        if let Some(d) = vehicle_drag.get_value() {
+            if d.pointer != ev.pointer_id() {
+                return;
+            }
+            let x = d.transform.world(Px::new(at.0, at.1)).0 + d.grab;
+            let x = if ev.shift_key() { x } else { (x / VEHICLE_SNAP).round() * VEHICLE_SNAP };
+            state.move_vehicle(x);
+            return;
+        }
         // dragging: map with the transform the drag started in, snap unless Shift is held,
         // and past a limit keep the furthest valid position and say why in the status line
         // (the drag's state is taken out for the step and put back: the step runs the
@@ -179,16 +236,36 @@ pub fn ElevationCanvas() -> impl IntoView {
             return;
         }
         // hovering: a grab cursor over handles, and the member under the pointer
-        let grabbable = state.design.with_untracked(|design| {
-            state.analysis.with_untracked(|o| {
-                o.as_ref().ok().is_some_and(|a| drag::handle_at(design, a, &t, Px::new(at.0, at.1)).is_some())
-            })
-        });
+        let on_vehicle = glyph.with_value(|g| g.as_ref().is_some_and(|g| g.grabs(Px::new(at.0, at.1))));
+        let grabbable = on_vehicle
+            || state.design.with_untracked(|design| {
+                state.analysis.with_untracked(|o| {
+                    o.as_ref()
+                        .ok()
+                        .is_some_and(|a| drag::handle_at(design, a, &t, Px::new(at.0, at.1)).is_some())
+                })
+            });
         let _ = web_sys::HtmlElement::style(&el)
             .set_property("cursor", if grabbable { "grab" } else { "default" });
         state.focus_member(key_at(at));
     };
     let on_key = move |ev: web_sys::KeyboardEvent| {
+        // with the vehicle on the deck, left and right move it (Shift: one panel); up and
+        // down still step through the members
+        let key = ev.key();
+        if state.vehicle.get_untracked().is_some() && matches!(key.as_str(), "ArrowLeft" | "ArrowRight") {
+            ev.prevent_default();
+            let step = if ev.shift_key() {
+                state.panel_length().unwrap_or(VEHICLE_KEY_STEP)
+            } else {
+                VEHICLE_KEY_STEP
+            };
+            let sign = if key == "ArrowLeft" { -1.0 } else { 1.0 };
+            if let Some(x) = state.vehicle.get_untracked() {
+                state.move_vehicle(x + sign * step);
+            }
+            return;
+        }
         let model = shown.with_value(|s| s.as_ref().map_or(ModelKind::Frame, |(_, m)| *m));
         // Enter picks the member stepped to, as a click does
         if ev.key() == "Enter" {
@@ -204,7 +281,7 @@ pub fn ElevationCanvas() -> impl IntoView {
                 class="drawing"
                 node_ref=node
                 tabindex="0"
-                aria-label="Elevation of the deck arch with member forces. Arrow keys step through the members and the readout below reads their forces; Escape clears. Drag the crown, a springing, the deck or a ground point to change the design."
+                aria-label="Elevation of the deck arch with member forces. Arrow keys step through the members and the readout below reads their forces; Escape clears. Drag the crown, a springing, the deck or a ground point to change the design. With the vehicle chosen, drag it along the deck, or move it with the left and right arrow keys (Shift: one panel)."
                 aria-describedby="member-readout"
                 on:pointerdown=on_down
                 on:pointerup=on_up
@@ -234,6 +311,17 @@ struct HandleDrag {
     /// World offset from the pointer to the handle, so the handle does not jump to the
     /// pointer.
     grab: (f64, f64),
+}
+
+/// A drag of the vehicle in progress.
+#[derive(Clone, Copy)]
+struct VehicleDrag {
+    /// The pointer that holds the vehicle.
+    pointer: i32,
+    /// World x from the pointer to the leading axle, m, so the vehicle does not jump.
+    grab: f64,
+    /// The transform the drag started in.
+    transform: Transform,
 }
 
 /// Zoom factor of one press of the zoom buttons.

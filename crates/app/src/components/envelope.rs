@@ -10,6 +10,7 @@
 use crate::format::{Quantity, Units};
 use crate::state::AppState;
 use leptos::prelude::*;
+use springline_statics::arch::actions::action_cases;
 use springline_statics::arch::cases::{pattern_case, standard_cases, CaseSpec};
 use springline_statics::arch::readout::MemberKey;
 use springline_statics::arch::traffic::{placement_case, TrafficReport};
@@ -30,12 +31,14 @@ pub fn current_report(state: AppState) -> Option<Arc<(springline_statics::Design
 }
 
 /// The load cases the analysis carries besides its own, and the case to show: a named
-/// pattern (shown), else in the envelope view the governing placements of line `picked`
+/// pattern (shown), else one of the other actions by its case id (shown; `arch::actions`),
+/// else in the envelope view the governing placements of line `picked`
 /// of `report` (largest first; the one of `largest` shown, the dead load while there is
 /// none). `standard` is the number of the analysis's own cases.
 pub fn extra_cases(
     valid: &ValidDesign,
     pattern: Option<springline_statics::arch::cases::Pattern>,
+    action: Option<&str>,
     envelope: Option<(Option<&TrafficReport>, Option<&str>, bool)>,
 ) -> (Vec<CaseSpec>, Option<usize>) {
     let standard = standard_cases(valid).len() + 1;
@@ -43,6 +46,12 @@ pub fn extra_cases(
         return match pattern_case(valid, p) {
             Ok(spec) => (vec![spec], Some(standard)),
             Err(_) => (Vec::new(), Some(0)),
+        };
+    }
+    if let Some(id) = action {
+        return match action_cases(valid.design()).into_iter().find(|c| c.kind.id() == id) {
+            Some(spec) => (vec![spec], Some(standard)),
+            None => (Vec::new(), Some(0)),
         };
     }
     let Some((report, picked, largest)) = envelope else { return (Vec::new(), None) };
@@ -65,6 +74,7 @@ pub fn install(state: AppState) {
         }
         let design = state.design.get();
         let pattern = state.pattern.get();
+        let action = state.action.get();
         let envelope = state.envelope.get();
         let picked = state.picked.get();
         let largest = state.largest.get();
@@ -73,6 +83,7 @@ pub fn install(state: AppState) {
         let (specs, case) = extra_cases(
             &valid,
             pattern,
+            action.as_deref(),
             envelope.then(|| (report.as_ref().map(|r| &r.1), picked.as_deref(), largest)),
         );
         let extra = (!specs.is_empty()).then(|| Arc::new((design, specs)));
@@ -218,16 +229,21 @@ mod tests {
     fn extra_cases_follow_the_choice() {
         let d = Design::demo();
         let valid = ValidDesign::new(&d).expect("valid");
-        let (specs, case) = extra_cases(&valid, Some(Pattern::Quarter(2)), None);
+        let (specs, case) = extra_cases(&valid, Some(Pattern::Quarter(2)), None, None);
         assert_eq!(case, Some(3));
         assert!(matches!(specs[0].kind, CaseKind::Quarter { quarter: 2, .. }), "{:?}", specs[0].kind);
+        // an action alone, by its id: the erection stage
+        let (specs, case) = extra_cases(&valid, None, Some("erection"), None);
+        assert_eq!(case, Some(3));
+        assert_eq!(specs[0].kind, CaseKind::Erection);
+        assert_eq!(extra_cases(&valid, None, Some("no-such-action"), None), (Vec::new(), Some(0)));
         let r = traffic_envelopes(&valid, ModelKind::Frame).expect("solves").expect("frame");
-        let (specs, case) = extra_cases(&valid, None, Some((Some(&r), Some("rib 3-4"), false)));
+        let (specs, case) = extra_cases(&valid, None, None, Some((Some(&r), Some("rib 3-4"), false)));
         assert_eq!(case, Some(4));
         assert_eq!(specs.len(), 2);
         assert_eq!(specs[0].kind, CaseKind::Placement { max: true });
         assert_eq!(specs[1], placement_case(&valid, r.line("rib 3-4").expect("line"), false));
-        assert_eq!(extra_cases(&valid, None, Some((Some(&r), None, true))), (Vec::new(), Some(0)));
-        assert_eq!(extra_cases(&valid, None, None), (Vec::new(), None));
+        assert_eq!(extra_cases(&valid, None, None, Some((Some(&r), None, true))), (Vec::new(), Some(0)));
+        assert_eq!(extra_cases(&valid, None, None, None), (Vec::new(), None));
     }
 }

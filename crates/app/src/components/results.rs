@@ -8,7 +8,8 @@ use crate::format::{Quantity, Units};
 use crate::state::AppState;
 use leptos::prelude::*;
 use springline_statics::arch::generate::DEAD;
-use springline_statics::{Analysis, MemberRole};
+use springline_statics::arch::readout::MemberKey;
+use springline_statics::{Analysis, MemberRole, ModelKind};
 
 /// How the springing forces read, stated once under the table (the drawings use the
 /// same `SpringingForce` values).
@@ -82,6 +83,16 @@ fn rows(a: &Analysis, case: usize, ribs: usize, units: Units) -> Vec<Row> {
             ));
         }
     }
+    // the bracing's extremes in this case: a load moving along the deck (the vehicle)
+    // turns diagonals from tension to compression, and these rows follow it
+    for (id, label, tension) in [
+        ("result-case-bracing-tension", "Bracing, most tension in this case", true),
+        ("result-case-bracing-compression", "Bracing, most compression in this case", false),
+    ] {
+        if let Some((n, key)) = case_bracing_extreme(a, case, tension) {
+            r.push(row(id, &format!("{label} (frame model, {all_ribs}): {key}"), Quantity::Force, n));
+        }
+    }
     if let Some(pole) = a.load_cases.get(case).and_then(|c| c.rib_funicular.as_ref()) {
         r.push(row("result-pole", "Pole distance H (bare rib, force diagram)", Quantity::Force, pole.thrust));
     }
@@ -135,6 +146,26 @@ fn rows(a: &Analysis, case: usize, ribs: usize, units: Units) -> Vec<Row> {
         format!("residual {:.1e} of the largest force", s.equilibrium),
     ));
     r
+}
+
+/// The bracing member of the frame model with the most tension (`tension`) or the most
+/// compression in load case `case`, and its axial force N (kN, the mean of its end
+/// forces, tension +); `None` when the design has no bracing or no member is on that
+/// side of zero.
+fn case_bracing_extreme(a: &Analysis, case: usize, tension: bool) -> Option<(f64, MemberKey)> {
+    let solved = a.frame.solution.cases.get(case)?;
+    let sign = if tension { 1.0 } else { -1.0 };
+    let (k, n) = a
+        .frame
+        .map
+        .roles
+        .iter()
+        .enumerate()
+        .filter(|(_, r)| **r == MemberRole::Bracing)
+        .filter_map(|(k, _)| solved.members.get(k).map(|m| (k, 0.5 * (m.start.n + m.end.n))))
+        .filter(|(_, n)| sign * n > 0.0)
+        .max_by(|x, y| (sign * x.1).total_cmp(&(sign * y.1)))?;
+    Some((n, MemberKey::of(&a.frame.map, ModelKind::Frame, k)?))
 }
 
 /// Why the thrusts on screen differ, in words, or `None` when the engine finds them equal
@@ -211,7 +242,7 @@ pub fn ResultsPanel() -> impl IntoView {
                 view! {
                     <table class="results">
                         <caption id="results-caption">
-                            {format!("{title}: springing forces of the frame model in this case; member forces of the frame model under dead load")}
+                            {format!("{title}: springing forces and bracing extremes of the frame model in this case; other member forces of the frame model under dead load")}
                         </caption>
                         <tbody>{table}</tbody>
                     </table>
@@ -294,5 +325,40 @@ mod tests {
         let form = r.iter().find(|r| r.id == "result-form").and_then(|r| r.text.clone()).expect("form row");
         assert!(form.contains("ft") && !form.ends_with(" m"), "{form}");
         assert!(r.iter().any(|r| r.id == "result-pole"));
+    }
+
+    /// The vehicle at the left quarter (leading axle at x = 56.6 m on the demo) pulls
+    /// hardest on the diagonal of the panel under it, d2–r3; moved to x = 110 m, that
+    /// diagonal is in compression and the one under the vehicle there, d10–r9, has the
+    /// most tension (the demo's engine solution; sign change under a moving load, as the
+    /// influence line of a panel's shear says).
+    #[test]
+    fn the_bracing_extremes_follow_the_vehicle() {
+        use springline_statics::scene::vehicle::start_position;
+        use springline_statics::ValidDesign;
+        let v = ValidDesign::new(&Design::demo()).expect("demo");
+        let mut d2_r3 = Vec::new();
+        for (x, most) in [(start_position(&v), "bracing d2–r3"), (110.0, "bracing d10–r9")] {
+            let a = crate::state::analyse(&v, Some(x), &[]).expect("analyses");
+            let case = a.load_cases.len() - 1;
+            let (n, key) = case_bracing_extreme(&a, case, true).expect("tension");
+            assert_eq!(key.to_string(), most);
+            assert!(n > 0.0);
+            let (c, _) = case_bracing_extreme(&a, case, false).expect("compression");
+            assert!(c < 0.0);
+            let rows = rows(&a, case, 2, Units::Si);
+            let row = rows.iter().find(|r| r.id == "result-case-bracing-tension").expect("row");
+            assert!(row.label.ends_with(&format!("all 2 ribs): {most}")) && row.si == n, "{}", row.label);
+            let k =
+                a.frame.map.roles.iter().enumerate().filter(|(_, r)| **r == MemberRole::Bracing).find_map(
+                    |(k, _)| {
+                        (MemberKey::of(&a.frame.map, ModelKind::Frame, k)?.to_string() == "bracing d2–r3")
+                            .then_some(k)
+                    },
+                );
+            let m = &a.frame.solution.cases[case].members[k.expect("d2–r3")];
+            d2_r3.push(0.5 * (m.start.n + m.end.n));
+        }
+        assert!(d2_r3[0] > 0.0 && d2_r3[1] < 0.0, "{d2_r3:?}");
     }
 }

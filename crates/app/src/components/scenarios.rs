@@ -1,11 +1,15 @@
 //! The load case picker: one named button per load case of the analysis, each with a
 //! small pictogram of its load pattern drawn from the case kind, the chosen one pressed.
-//! The drawings and the results table show the chosen case.
+//! The drawings and the results table show the chosen case. Then the named traffic
+//! patterns, each of the other actions alone, the envelope, and the load model's vehicle
+//! (its case joins the analysis while it is chosen, and the elevation lets it be dragged
+//! along the deck).
 
 use crate::format::Units;
 use crate::state::AppState;
 use leptos::prelude::*;
-use springline_statics::arch::cases::{CaseKind, Half, Pattern};
+use springline_statics::arch::actions::action_cases;
+use springline_statics::arch::cases::{standard_cases, CaseKind, Half, Pattern};
 
 /// Pictogram width and height (SVG user units; shown at this size in CSS pixels).
 const PICTO_W: f64 = 48.0;
@@ -137,30 +141,125 @@ fn EnvelopePictogram() -> impl IntoView {
     }
 }
 
-/// One button per load case of the analysis, then the named traffic patterns and the
-/// traffic envelope; the chosen one (aria-pressed) is what the drawings and the results
-/// show; its description, in the chosen units, is written under the row.
+/// The vehicle button's pictogram (a style of its own: the vehicle outlined on the deck
+/// with a two-headed arrow over it, as it can be moved along): deck, arch and the light
+/// dead-load arrows as in the other pictograms.
+#[component]
+fn VehiclePictogram() -> impl IntoView {
+    let (light, _) = arrows(&CaseKind::Dead, 0);
+    let arch = format!(
+        "M{ARCH_X0} {:.1}Q{:.1} {:.1} {ARCH_X1} {:.1}",
+        PICTO_H - 2.0,
+        0.5 * (ARCH_X0 + ARCH_X1),
+        DECK_Y - 4.0,
+        PICTO_H - 2.0
+    );
+    // body with its front (right) corner cut, wheels on the deck line
+    let (x0, x1, top, bottom) = (12.0, 25.0, DECK_Y - 9.5, DECK_Y - 3.5);
+    let body = format!("M{x0} {bottom}H{x1}V{:.1}L{:.1} {top}H{x0}Z", top + 2.5, x1 - 2.5);
+    let travel = format!(
+        "M{:.1} 2.5H{:.1}M{:.1} 0.8L{:.1} 2.5L{:.1} 4.2M{:.1} 0.8L{:.1} 2.5L{:.1} 4.2",
+        x0 - 4.0,
+        x1 + 4.0,
+        x0 - 2.3,
+        x0 - 4.0,
+        x0 - 2.3,
+        x1 + 2.3,
+        x1 + 4.0,
+        x1 + 2.3
+    );
+    view! {
+        <svg class="picto" aria-hidden="true" focusable="false" width=PICTO_W height=PICTO_H
+            viewBox=format!("0 0 {PICTO_W} {PICTO_H}")>
+            <path class="picto-structure" d=format!("M1 {DECK_Y}H{}", PICTO_W - 1.0) />
+            <path class="picto-structure" d=arch />
+            <path class="picto-light" d=light />
+            <path d=body fill="#ffffff" stroke="#1f2a33" stroke-width="1.3" stroke-linejoin="round" />
+            <circle cx=x0 + 2.5 cy=DECK_Y - 2.0 r="1.6" fill="#ffffff" stroke="#1f2a33" stroke-width="1.1" />
+            <circle cx=x1 - 2.5 cy=DECK_Y - 2.0 r="1.6" fill="#ffffff" stroke="#1f2a33" stroke-width="1.1" />
+            <path d=travel fill="none" stroke="#6a4c93" stroke-width="1.2" stroke-linecap="round" />
+        </svg>
+    }
+}
+
+/// The pictogram of one of the other actions (a style of its own): the arch and deck,
+/// with a thermometer for temperature (filled dark for a rise, open for a fall), the deck
+/// drawn heavy for a deck-rib difference, outward and downward arrows at the springings
+/// for their movement, an arrow along the deck for braking, the bare rib alone for
+/// erection.
+#[component]
+fn ActionPictogram(kind: CaseKind) -> impl IntoView {
+    let arch = format!(
+        "M{ARCH_X0} {:.1}Q{:.1} {:.1} {ARCH_X1} {:.1}",
+        PICTO_H - 2.0,
+        0.5 * (ARCH_X0 + ARCH_X1),
+        DECK_Y - 4.0,
+        PICTO_H - 2.0
+    );
+    let deck = format!("M1 {DECK_Y}H{}", PICTO_W - 1.0);
+    let thermometer = |warm: bool| {
+        view! {
+            <path class="picto-structure" d="M40 2.5V9" />
+            <circle cx="40" cy="10.5" r="2.2" class=if warm { "picto-fill" } else { "picto-open" } />
+        }
+    };
+    let extra = match kind {
+        CaseKind::Temperature { delta_t } => {
+            view! { <path class="picto-structure" d=deck.clone() />{thermometer(delta_t >= 0.0)} }.into_any()
+        }
+        CaseKind::DeckTemperature { delta_t } => {
+            view! { <path class="picto-heavy" d=deck.clone() />{thermometer(delta_t >= 0.0)} }.into_any()
+        }
+        CaseKind::SpringingMovement { .. } => view! {
+            <path class="picto-structure" d=deck.clone() />
+            <path class="picto-heavy" d=format!("M{ARCH_X0} {y}l-4 0m1.5 -1.5l-1.5 1.5l1.5 1.5M{ARCH_X1} {y}l4 0m-1.5 -1.5l1.5 1.5l-1.5 1.5",
+                y = PICTO_H - 3.0) />
+        }
+        .into_any(),
+        CaseKind::Braking { .. } => view! {
+            <path class="picto-structure" d=deck.clone() />
+            <path class="picto-heavy" d=format!("M14 {y}H36m-3 -2.5l3 2.5l-3 2.5", y = DECK_Y - 4.0) />
+        }
+        .into_any(),
+        _ => view! {}.into_any(),
+    };
+    let rib = if kind == CaseKind::Erection { "picto-heavy" } else { "picto-structure" };
+    view! {
+        <svg class="picto" aria-hidden="true" focusable="false" width=PICTO_W height=PICTO_H
+            viewBox=format!("0 0 {PICTO_W} {PICTO_H}")>
+            <path class=rib d=arch />
+            {extra}
+        </svg>
+    }
+}
+
+/// One button per load case of the analysis, then the named traffic patterns, the other
+/// actions, the traffic envelope and the vehicle; the chosen one (aria-pressed) is what
+/// the drawings and the results show; its description, in the chosen units, is written
+/// under the row. The extra cases a choice adds come after the analysis's own, so the
+/// own buttons stay as they are while the vehicle moves.
 #[component]
 pub fn ScenarioButtons() -> impl IntoView {
     let state = expect_context::<AppState>();
     // the analysis's own cases (the extra cases a pattern or a placement adds come after)
     let kinds = Memo::new(move |_| {
-        let extra = state
-            .extra
-            .with(|e| e.as_ref().filter(|e| state.design.with(|d| *d == e.0)).map_or(0, |e| e.1.len()));
+        let own = state.valid.with(|v| v.as_ref().map_or(0, |v| standard_cases(v).len() + 1));
         state
             .analysis
             .with(|a| {
                 a.as_ref()
-                    .map(|a| {
-                        let own = a.load_cases.len().saturating_sub(extra);
-                        a.load_cases.iter().take(own).map(|c| c.description).collect::<Vec<_>>()
-                    })
+                    .map(|a| a.load_cases.iter().take(own).map(|c| c.description).collect::<Vec<_>>())
                     .ok()
             })
             .unwrap_or_default()
     });
-    let plain = move || state.pattern.with(Option::is_none) && !state.envelope.get();
+    let vehicle_chosen = Memo::new(move |_| state.vehicle.with(Option::is_some));
+    let plain = move || {
+        state.pattern.with(Option::is_none)
+            && state.action.with(Option::is_none)
+            && !state.envelope.get()
+            && !vehicle_chosen.get()
+    };
     let panels = Memo::new(move |_| state.design.with(|d| d.panels));
     let buttons = move || {
         let units: Units = state.units.get();
@@ -178,11 +277,7 @@ pub fn ScenarioButtons() -> impl IntoView {
                         data-case-index=i.to_string()
                         aria-pressed=pressed
                         title=kind.describe(units)
-                        on:click=move |_| {
-                            state.pattern.set(None);
-                            state.envelope.set(false);
-                            state.case.set(i);
-                        }
+                        on:click=move |_| state.choose_case(i)
                     >
                         <Pictogram kind panels=panels.get() />
                         <span>{kind.title()}</span>
@@ -204,7 +299,7 @@ pub fn ScenarioButtons() -> impl IntoView {
                         id=format!("case-{}", kind.id())
                         aria-pressed=pressed
                         on:click=move |_| {
-                            state.envelope.set(false);
+                            state.choose_case(0);
                             state.pattern.set(Some(pattern));
                         }
                     >
@@ -223,13 +318,60 @@ pub fn ScenarioButtons() -> impl IntoView {
             aria-pressed=move || state.envelope.get().to_string()
             title="The largest and smallest member forces under the traffic anywhere on the deck"
             on:click=move |_| {
-                state.pattern.set(None);
+                state.choose_case(0);
                 state.envelope.set(true);
             }
         >
             <EnvelopePictogram />
             <span>"Envelope"</span>
         </button>
+    };
+    let action_kinds = Memo::new(move |_| {
+        state.design.with(|d| action_cases(d).into_iter().map(|c| c.kind).collect::<Vec<_>>())
+    });
+    let action_buttons = move || {
+        let units = state.units.get();
+        action_kinds
+            .get()
+            .into_iter()
+            .map(|kind| {
+                let id = kind.id();
+                let chosen = id.clone();
+                let pressed =
+                    move || (!state.envelope.get() && state.action.get() == Some(chosen.clone())).to_string();
+                view! {
+                    <button
+                        type="button"
+                        class="scenario action"
+                        id=format!("case-{id}")
+                        aria-pressed=pressed
+                        title=kind.describe(units)
+                        on:click=move |_| {
+                            state.choose_case(0);
+                            state.action.set(Some(id.clone()));
+                        }
+                    >
+                        <ActionPictogram kind />
+                        <span>{kind.title()}</span>
+                    </button>
+                }
+            })
+            .collect_view()
+    };
+    let vehicle_button = move || {
+        view! {
+            <button
+                type="button"
+                class="scenario"
+                id="case-vehicle"
+                aria-pressed=move || vehicle_chosen.get().to_string()
+                title="The load model's vehicle on the deck: drag it along the elevation, or focus the elevation and use the left and right arrow keys (Shift: one panel)"
+                on:click=move |_| state.choose_vehicle()
+            >
+                <VehiclePictogram />
+                <span>"Vehicle"</span>
+            </button>
+        }
     };
     let described = move || {
         let units = state.units.get();
@@ -250,7 +392,7 @@ pub fn ScenarioButtons() -> impl IntoView {
         <section class="scenarios" aria-labelledby="scenarios-title">
             <h2 id="scenarios-title">"Load case"</h2>
             <div class="scenario-row" role="group" aria-labelledby="scenarios-title">
-                {buttons}{pattern_buttons}{envelope_button}
+                {buttons}{pattern_buttons}{action_buttons}{envelope_button}{vehicle_button}
             </div>
             <p class="case-description" id="case-description">{described}</p>
         </section>

@@ -22,7 +22,13 @@ const STATUS_STYLE: &str = "height: 4.5em; line-height: 1.5em; overflow-y: auto;
 pub fn StatusLine() -> impl IntoView {
     let state = expect_context::<AppState>();
     let stopped = move || state.drag_stop.with(Option::is_some);
-    let text = move || state.drag_stop.get().unwrap_or_else(|| drag_hint(state.units.get()));
+    // with the vehicle on the deck: where its leading axle stands (it follows every move)
+    let text = move || {
+        state.drag_stop.get().unwrap_or_else(|| match state.vehicle.get() {
+            Some(x) => vehicle_words(x, state.units.get()),
+            None => drag_hint(state.units.get()),
+        })
+    };
     let style = move || {
         let tone = if stopped() {
             "background: #fdecea; color: var(--warn); border: 1px solid #f3c1bb;"
@@ -37,6 +43,16 @@ pub fn StatusLine() -> impl IntoView {
         </p>
         <PointerReadout />
     }
+}
+
+/// The status line with the vehicle on the deck: its leading axle's x in `units`, and how
+/// to move it.
+fn vehicle_words(x: f64, units: crate::format::Units) -> String {
+    format!(
+        "Vehicle: leading axle at x = {}. Drag it along the deck, or focus the elevation and use the left and \
+         right arrow keys (Shift: one panel); the crown, springings, deck and ground points drag as before.",
+        units.show(crate::format::Quantity::Length, x)
+    )
 }
 
 /// Distance of the readout from the pointer, CSS pixels (right of and above it).

@@ -6,7 +6,7 @@
 //!
 //! Results are for concept design only; local codes and a licensed engineer govern.
 
-use crate::arch::actions::{action_results, ActionsReport};
+use crate::arch::actions::{action_results, ActionsReport, ERECTION};
 use crate::arch::cases::{add_cases, standard_cases, CaseKind, CaseSpec};
 use crate::arch::design::{Design, RibSystem, Warning};
 use crate::arch::form::Form;
@@ -14,7 +14,7 @@ use crate::arch::generate::{
     bare_rib_model, frame_model, restraint, truss_model, DeckHold, Generated, MemberRole, ModelKind,
     ModelMap, Restraint, DEAD,
 };
-use crate::arch::summary::Summary;
+use crate::arch::summary::{SpringingForce, Summary};
 use crate::arch::validate::ValidDesign;
 use crate::error::StaticsError;
 use crate::frame::determinacy::{truss_determinacy, Determinacy, DeterminacyReport};
@@ -23,6 +23,7 @@ use crate::frame::solver::{solve, Solution};
 use crate::graphic::funicular::{rib_funicular, RibFunicular};
 use crate::graphic::reciprocal::{force_diagram, ForceDiagram};
 use crate::graphic::thrust_line::{thrust_line, ThrustLine};
+use crate::tolerance::ZERO_FORCE;
 use serde::Serialize;
 use std::fmt;
 
@@ -400,7 +401,21 @@ pub fn analyze_with(valid: &ValidDesign, extra: &[CaseSpec]) -> Result<Analysis,
         solution: rib_solution,
         notes: vec![ModelNote::BareRib],
     };
-    let summary = Summary::new(design, form, &rs, &frame, truss.as_ref(), &residual);
+    let mut summary = Summary::new(design, form, &rs, &frame, truss.as_ref(), &residual);
+    // the erection stage is the bare rib's (the frame model has nothing to take it): its
+    // springing forces are the bare rib's
+    for s in summary.springings.iter_mut().filter(|s| s.case == ERECTION) {
+        if let Some(c) = bare_rib.solution.case(ERECTION) {
+            let [l, r] = bare_rib.map.springings;
+            let side = |node: usize, left: bool| {
+                c.reaction(node).map(|q| SpringingForce::from_reaction(q.fx, q.fy, q.mz, left))
+            };
+            if let (Some(left), Some(right)) = (side(l, true), side(r, false)) {
+                s.left = left;
+                s.right = right;
+            }
+        }
+    }
     Ok(Analysis {
         design: design.name.clone(),
         units: UNITS.into(),
@@ -426,6 +441,16 @@ struct Figures<'a> {
     rib: (&'a Model, &'a ModelMap, &'a Solution),
 }
 
+/// Whether case `name` of `solution` leaves every member without force: all below
+/// `ZERO_FORCE` of the largest force of the dead case (the scale of the structure).
+fn idle(solution: &Solution, name: &str) -> bool {
+    let largest = |c: &crate::frame::results::CaseResult| {
+        c.members.iter().flat_map(|m| [m.start.n.abs(), m.end.n.abs()]).fold(0.0, f64::max)
+    };
+    let scale = solution.case(DEAD).map_or(0.0, largest);
+    solution.case(name).is_some_and(|c| name != DEAD && largest(c) <= ZERO_FORCE * scale)
+}
+
 /// The figures of load case `name` from the solved models of an analysis.
 fn case_figures(design: &Design, models: &Figures, name: &str, kind: CaseKind) -> CaseFigures {
     let mut notes = Vec::new();
@@ -436,6 +461,16 @@ fn case_figures(design: &Design, models: &Figures, name: &str, kind: CaseKind) -
         }
         Some((_, None)) => {
             notes.push(FigureNote::TrussIsMechanism);
+            None
+        }
+        // an action that leaves the truss idealisation unstressed (a determinate truss
+        // moved by a temperature or its supports, the bare rib's erection): no figure
+        Some((_, Some(solution))) if idle(solution, name) => {
+            notes.push(FigureNote::NoForceDiagram {
+                reason: "nothing stresses the truss idealisation in this case (it moves freely, or the case is the \
+                         bare rib's)"
+                    .into(),
+            });
             None
         }
         Some((model, Some(solution))) => match solution.case(name).map(|c| force_diagram(model, c)) {

@@ -150,8 +150,17 @@ pub fn elevation_with_overlay(
     let case_index = if opts.case < a.frame.solution.cases.len() { opts.case } else { 0 };
     let frame_case = &a.frame.solution.cases[case_index];
     let truss = a.truss.as_ref().and_then(|t| Some((t, t.solution.as_ref()?.cases.get(case_index)?)));
-    let drawn = match (opts.model, truss) {
-        (ModelKind::Truss, Some((t, c))) => {
+    // the erection stage is the bare rib's: it is drawn whatever model was chosen
+    let erection = a
+        .load_cases
+        .get(case_index)
+        .filter(|c| c.description == CaseKind::Erection)
+        .and_then(|_| a.bare_rib.solution.cases.get(case_index));
+    let drawn = match (opts.model, truss, erection) {
+        (_, _, Some(c)) => {
+            Drawn { kind: ModelKind::BareRib, model: &a.bare_rib.model, map: &a.bare_rib.map, case: c }
+        }
+        (ModelKind::Truss, Some((t, c)), None) => {
             Drawn { kind: ModelKind::Truss, model: &t.model, map: &t.map, case: c }
         }
         _ => Drawn { kind: ModelKind::Frame, model: &a.frame.model, map: &a.frame.map, case: frame_case },

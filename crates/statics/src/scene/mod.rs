@@ -12,6 +12,7 @@ pub mod elevation;
 pub mod envelope;
 pub mod force;
 pub mod place;
+pub mod vehicle;
 
 use serde::Serialize;
 
