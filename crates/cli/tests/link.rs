@@ -90,6 +90,12 @@ fn analyze_summary_prints_the_summary_of_the_full_analysis() {
     // the summary adds the traffic's key numbers, which the full report holds in full
     let traffic = summary.as_object_mut().and_then(|o| o.remove("traffic")).expect("traffic in the summary");
     assert_eq!(traffic["thrust"], full["traffic"]["frame"]["thrust"]);
+    // ... and the other actions' key numbers, which the full report holds in `actions`
+    // and in the frame's traffic report (the deflection check)
+    let actions = summary.as_object_mut().and_then(|o| o.remove("actions")).expect("actions in the summary");
+    assert_eq!(actions["braking"], full["actions"]["braking"]);
+    assert_eq!(actions["cases"], full["actions"]["cases"]);
+    assert_eq!(actions["deflection"], full["traffic"]["frame"]["deflection"]);
     assert_eq!(full["summary"], summary);
     // the form thrust is the form's pole distance: one number, one name
     assert_eq!(summary["form_thrust"], full["form"]["thrust"]);
