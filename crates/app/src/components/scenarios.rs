@@ -221,7 +221,7 @@ fn ActionPictogram(kind: CaseKind) -> impl IntoView {
             <path class="picto-heavy" d=format!("M14 {y}H36m-3 -2.5l3 2.5l-3 2.5", y = DECK_Y - 4.0) />
         }
         .into_any(),
-        _ => view! {}.into_any(),
+        _ => view! { <g></g> }.into_any(),
     };
     let rib = if kind == CaseKind::Erection { "picto-heavy" } else { "picto-structure" };
     view! {
