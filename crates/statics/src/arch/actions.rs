@@ -415,7 +415,13 @@ pub struct ActionsReport {
 ///
 /// Errors: those of the solver (a model that cannot stand) and of a case that cannot be
 /// built (a value that is not finite).
+///
+/// Worked out once per validated design and kept with it (a clone is returned).
 pub fn action_results(valid: &ValidDesign) -> Result<ActionsReport, StaticsError> {
+    valid.actions_or_init(|| solve_actions(valid)).clone()
+}
+
+fn solve_actions(valid: &ValidDesign) -> Result<ActionsReport, StaticsError> {
     let design = valid.design();
     let specs = action_cases(design);
     let mut out = Vec::new();

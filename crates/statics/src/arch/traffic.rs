@@ -550,13 +550,19 @@ pub fn placement_case(valid: &ValidDesign, line: &LineEnvelope, max: bool) -> Ca
 /// The lanes of the design's load model on its carriageway and how they are shared
 /// between its ribs (`traffic::sharing::share`): what every traffic case and envelope of
 /// the design loads.
+///
+/// Worked out once per validated design and kept with it (a clone is returned).
 pub fn traffic_of(valid: &ValidDesign) -> (LaneLayout, Sharing) {
-    let design = valid.design();
-    let t = &design.traffic;
-    let layout = t.load_model.lane_layout(t.carriageway_width, valid.layout().span());
-    let positions = rib_positions(design.deck.width, design.deck.ribs, &t.rib_positions);
-    let sharing = share(&layout, design.deck.width, t.carriageway_width, &positions);
-    (layout, sharing)
+    valid
+        .lanes_or_init(|| {
+            let design = valid.design();
+            let t = &design.traffic;
+            let layout = t.load_model.lane_layout(t.carriageway_width, valid.layout().span());
+            let positions = rib_positions(design.deck.width, design.deck.ribs, &t.rib_positions);
+            let sharing = share(&layout, design.deck.width, t.carriageway_width, &positions);
+            (layout, sharing)
+        })
+        .clone()
 }
 
 fn report(

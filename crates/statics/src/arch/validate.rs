@@ -4,11 +4,15 @@
 //! spandrel the shortest post leaves). Every later stage (generation, load cases,
 //! analysis) takes a `ValidDesign` and cannot fail on validation.
 
+use crate::arch::actions::ActionsReport;
 use crate::arch::design::{check_inputs, Design, RibSystem, Warning};
 use crate::arch::form::{find_form_for, Form, PanelLoads, RibNode};
 use crate::arch::layout::{Layout, Topology};
 use crate::error::{counted, Field, Problem, StaticsError};
 use crate::tolerance::GROUND_TOLERANCE;
+use crate::traffic::models::LaneLayout;
+use crate::traffic::sharing::Sharing;
+use std::sync::OnceLock;
 
 /// A design that passed validation, with the layout, form and topology it implies.
 ///
@@ -20,6 +24,30 @@ pub struct ValidDesign {
     form: Form,
     topology: Topology,
     warnings: Vec<Warning>,
+    /// The traffic's lanes and their sharing between the ribs, worked out once on first
+    /// use (`arch::traffic::traffic_of`): every traffic case and envelope of the design
+    /// needs them, and a vehicle dragged along the deck asks on every move.
+    lanes: Derived<(LaneLayout, Sharing)>,
+    /// What each of the other actions does alone (`arch::actions::action_results`), worked
+    /// out once: it depends on the design alone, not on the cases an analysis adds.
+    actions: Derived<Result<ActionsReport, StaticsError>>,
+}
+
+/// A value derived from the rest of a `ValidDesign`, computed at most once. It takes no
+/// part in comparisons (it follows from what is compared) and a clone keeps it.
+#[derive(Debug, Clone)]
+struct Derived<T>(OnceLock<T>);
+
+impl<T> Default for Derived<T> {
+    fn default() -> Self {
+        Derived(OnceLock::new())
+    }
+}
+
+impl<T> PartialEq for Derived<T> {
+    fn eq(&self, _: &Self) -> bool {
+        true
+    }
 }
 
 #[cfg(test)]
@@ -29,6 +57,22 @@ thread_local! {
 }
 
 impl ValidDesign {
+    /// What the other actions do, computed by `compute` the first time only.
+    pub(crate) fn actions_or_init(
+        &self,
+        compute: impl FnOnce() -> Result<ActionsReport, StaticsError>,
+    ) -> &Result<ActionsReport, StaticsError> {
+        self.actions.0.get_or_init(compute)
+    }
+
+    /// The design's lanes and sharing, computed by `compute` the first time only.
+    pub(crate) fn lanes_or_init(
+        &self,
+        compute: impl FnOnce() -> (LaneLayout, Sharing),
+    ) -> &(LaneLayout, Sharing) {
+        self.lanes.0.get_or_init(compute)
+    }
+
     /// Validates `design` and lists every problem at once.
     ///
     /// First the inputs are checked (numbers finite, springings below the deck and on the
@@ -70,7 +114,15 @@ impl ValidDesign {
             return Err(StaticsError::Invalid(problems));
         }
         let topology = Topology::with_shared(&layout, form.shared());
-        let mut valid = ValidDesign { design: design.clone(), layout, form, topology, warnings };
+        let mut valid = ValidDesign {
+            design: design.clone(),
+            layout,
+            form,
+            topology,
+            warnings,
+            lanes: Derived::default(),
+            actions: Derived::default(),
+        };
         if let Some(w) = unbraced_truss_warning(&valid) {
             valid.warnings.push(w);
         }
