@@ -133,5 +133,28 @@ fn the_load_picker_shows_each_action_alone() {
         std::fs::write(screenshots_dir().join(format!("action-{name}.png")), s.screenshot())
             .expect("screenshot");
     }
+    // the view part of the link names the action shown, and a link opens on it
+    s.wait_for(
+        "the address to name the erection case",
+        "return location.hash.endsWith('~view:c=erection')",
+        WAIT,
+    );
+    let fresh = driver.session(1500, 900, 1.0);
+    open_url(&fresh, &format!("{}#{}~view:c=braking", server.url(), permalink::encode(&d)));
+    fresh.wait_for(
+        "the braking button pressed",
+        "return document.getElementById('case-braking').getAttribute('aria-pressed') === 'true'",
+        WAIT,
+    );
+    let braking = r.cases.iter().find(|c| c.case == "braking").expect("braking");
+    wait_value(&fresh, "result-left-h", braking.left.thrust);
+    // a link naming the vehicle at x = 80 m puts it there
+    let third = driver.session(1500, 900, 1.0);
+    open_url(&third, &format!("{}#{}~view:c=vehicle-80", server.url(), permalink::encode(&d)));
+    third.wait_for(
+        "the vehicle at x = 80 m",
+        "const c = document.getElementById('elevation'); return c.dataset.vehicleX !== undefined && Math.abs(+c.dataset.vehicleX - 80) < 1e-9",
+        WAIT,
+    );
     assert!(severe(&s).is_empty(), "{:?}", severe(&s));
 }

@@ -14,7 +14,8 @@
 use crate::format::Units;
 use crate::state::AppState;
 use leptos::prelude::*;
-use springline_statics::arch::cases::{find_case, CaseKind};
+use springline_statics::arch::actions::action_cases;
+use springline_statics::arch::cases::{find_case, CaseKind, Pattern};
 use springline_statics::link::permalink::{self, split_view, with_view, ViewState};
 use springline_statics::{analyze, Design};
 use std::time::Duration;
@@ -71,6 +72,28 @@ fn show_case(state: AppState, id: &str) {
     if let Some(index) = found {
         if state.case.get_untracked() != index {
             state.case.set(index);
+        }
+        return;
+    }
+    choose_extra(state, id);
+}
+
+/// Chooses, from its link id, a case the analysis only carries once chosen in the load
+/// picker: one of the other actions (`temperature-rise`, ..., `erection`), a traffic
+/// pattern (`full`, `half-right`, `quarter-N`) or the vehicle (`vehicle-X`, its leading
+/// axle at x = X m). Anything else leaves the choice as it is.
+fn choose_extra(state: AppState, id: &str) {
+    let design = state.design.get_untracked();
+    if action_cases(&design).iter().any(|c| c.kind.id() == id) {
+        state.choose_case(0);
+        state.action.set(Some(id.to_string()));
+    } else if let Some(x) = id.strip_prefix("vehicle-").and_then(|x| x.parse::<f64>().ok()) {
+        state.choose_vehicle();
+        state.move_vehicle(x);
+    } else if let Ok(pattern) = Pattern::parse(id) {
+        if !matches!(pattern, Pattern::HeavyPanel(_) | Pattern::Vehicle(_)) {
+            state.choose_case(0);
+            state.pattern.set(Some(pattern));
         }
     }
 }
