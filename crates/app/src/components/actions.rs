@@ -156,14 +156,17 @@ fn cell(id: String, units: Units, quantity: Quantity, si: f64) -> impl IntoView 
 #[component]
 pub fn ActionsResults() -> impl IntoView {
     let state = expect_context::<AppState>();
+    // the actions depend on the design alone: a vehicle move or another case shown does
+    // not rebuild the block
+    let report = Memo::new(move |_| state.analysis.with(|a| a.as_ref().ok().map(|a| a.actions.clone())));
     let body = move || {
         let units = state.units.get();
         let fixed = state.design.with(|d| d.rib_system == RibSystem::Fixed);
-        let Ok(a) = state.analysis.get() else {
+        let Some(r) = report.get() else {
             return view! { <p class="hint">"No results for actions while the design is refused."</p> }
                 .into_any();
         };
-        let r = &a.actions;
+        let r = &r;
         let rows = action_rows(r)
             .into_iter()
             .map(|row| {
