@@ -201,7 +201,7 @@ fn dragging_the_vehicle_across_the_span_turns_a_diagonal_from_tension_to_compres
         a1.frame.map.members_with(MemberRole::Bracing).map(|m| n_of(&a1, m)).fold(f64::INFINITY, f64::min);
     assert!(close(cell(&s, "result-case-bracing-compression"), least));
 
-    // keys: right moves 0.5 m, Shift+right one panel (106.428571 m / 12 on the demo)
+    // keys: left moves 0.5 m back, Shift+left one panel (106.428571 m / 12 on the demo)
     let key_press = |shift: bool| {
         s.exec(
             "const e = document.getElementById('elevation'); e.focus();

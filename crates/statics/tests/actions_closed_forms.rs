@@ -137,6 +137,36 @@ fn two_hinged_temperature_thrust_matches_the_unit_load_equation() {
     // points right (positive fx, the outward push of SpringingForce)
     assert!((left.fx - expected).abs() < 1e-9 * expected, "{} vs {expected}", left.fx);
     assert!(expected > 10.0, "a real thrust: {expected} kN");
+    // a spread of the springings by delta (each outward by delta / 2): the same equation
+    // with alpha dT L replaced by -delta, so H = -delta / (the same flexibility): the
+    // springings moving apart take thrust away. A settlement of one springing (level
+    // springings) turns the chord, which to first order moves no hinge apart: no thrust.
+    let mut moved = bare_rib_model(&valid);
+    moved.model.load_cases.clear();
+    let spread = 0.02;
+    let movement = |name: &str, spread: f64, settle_right: f64| CaseSpec {
+        name: name.into(),
+        kind: CaseKind::SpringingMovement { spread, settlement_left: 0.0, settlement_right: settle_right },
+        with_dead: false,
+        loads: Vec::new(),
+        imposed: vec![Imposed::SpringingMovement {
+            spread,
+            settlement_left: 0.0,
+            settlement_right: settle_right,
+        }],
+    };
+    add_cases(&valid, &mut moved, &[movement("spread", spread, 0.0), movement("settle", 0.0, 0.02)])
+        .expect("cases");
+    let solved = solve(&moved.model).expect("solves");
+    let h_spread = solved.cases[0].reaction(chain[0]).expect("left").fx;
+    let expected_spread = -spread / (flexural + axial);
+    assert!(
+        (h_spread - expected_spread).abs() < 1e-9 * expected_spread.abs(),
+        "{h_spread} vs {expected_spread}"
+    );
+    assert!(expected_spread < 0.0, "a spread lowers the thrust: {expected_spread} kN");
+    let h_settle = solved.cases[1].reaction(chain[0]).expect("left").fx;
+    assert!(h_settle.abs() < 1e-6 * expected_spread.abs(), "a settlement of level springings: {h_settle}");
     // and through the action report (frame model: the deck takes part, so only the sign
     // and the order of magnitude are the rib's)
     let r = report(&d);

@@ -85,6 +85,7 @@ pub fn ActionsPanel() -> impl IntoView {
                 </select>
             </label>
             <p class="hint" id="temperature-clause">{clause}</p>
+            <p class="hint">"The temperatures stay as they are when the load model changes: choose the preset for the site here."</p>
             {action_field("Uniform rise (K)", "temperature-rise", Field::Temperature, Quantity::Count, 1.0,
                 |d| d.actions.temperature.expansion,
                 |d, v| { d.actions.temperature.expansion = v; edited(&mut d.actions.temperature) }, (0.0, 200.0))}

@@ -79,7 +79,8 @@ pub fn install(state: AppState) {
         let picked = state.picked.get();
         let largest = state.largest.get();
         let report = current_report(state);
-        let Ok(valid) = ValidDesign::new(&design) else { return };
+        // the validation the state keeps (form finding is not repeated here)
+        let Ok(valid) = state.valid.get() else { return };
         let (specs, case) = extra_cases(
             &valid,
             pattern,

@@ -200,7 +200,7 @@ mod tests {
         let object = value.as_object_mut().expect("design object");
         object.remove("actions");
         let combinations = object["traffic"]["combinations"].as_array_mut().expect("combinations");
-        combinations.retain(|c| c["name"] != "ULS gr2");
+        combinations.retain(|c| c["name"] != "ULS gr2" && c["name"] != "ULS temperature leading");
         for c in combinations {
             let c = c.as_object_mut().expect("combination");
             for key in ["temperature", "settlement", "braking"] {
@@ -281,8 +281,9 @@ mod tests {
         assert_eq!(d.traffic.carriageway_width, 11.0);
         assert!(d.traffic.rib_positions.is_empty());
         assert!(matches!(d.traffic.load_model, LoadModel::EnLm1(_)));
-        // the EN 1990 combinations and gr2 (braking), added by the step to format 4
-        assert_eq!(d.traffic.combinations.len(), 4);
+        // the EN 1990 combinations, gr2 (braking) and temperature leading, the last two
+        // added by the step to format 4
+        assert_eq!(d.traffic.combinations.len(), 5);
         assert_eq!(d, demo_without_traffic());
         // the width is the file's own deck width
         let mut value = demo_v2_value();

@@ -125,9 +125,9 @@ pub struct ActionEffect {
 /// the uniform rise and fall and the worse of the deck warmer and cooler (each where it
 /// adds), times the temperature factor; the springing movement where it adds (it never
 /// relieves), times the settlement factor; braking either way along the deck (its effect
-/// with either sign), times the braking factor. Temperature components taken together at
-/// full value is conservative (EN 1991-1-5 6.1.5 would reduce one of them; common
-/// practice at concept stage).
+/// with either sign), times the braking factor. The uniform part and the deck-rib
+/// difference are taken together at full value, no reduction (EN 1991-1-5 6.1.6 gives
+/// no simultaneity rule for them; conservative, common practice at concept stage).
 pub fn action_parts(combination: &Combination, effects: &[ActionEffect]) -> (f64, f64) {
     let (mut up, mut down) = (0.0, 0.0);
     let worst = |pick: &dyn Fn(&CaseKind) -> bool| {
@@ -177,8 +177,7 @@ pub struct TrafficReport {
     pub thrust: LineEnvelope,
     /// Every line: springing forces first, then members in model order.
     pub lines: Vec<LineEnvelope>,
-    /// The other actions combined (temperature, springing movement, braking), the
-    /// braking force's working.
+    /// The braking force of the load model with its rule and working (`arch::actions`).
     pub braking: Braking,
     /// The live-load deflection of the deck (the frame model only).
     pub deflection: Option<Deflection>,
@@ -470,10 +469,15 @@ fn deflection(valid: &ValidDesign, influence: &ArchInfluence) -> Result<Deflecti
     }
     let ratio = design.actions.deflection_limit;
     let allowed = f.span() / ratio;
-    let (at, worst) = along
-        .iter()
-        .map(|&(x, d, u)| (x, d.max(u)))
-        .fold((f64::NAN, 0.0), |(bx, bw), (x, w)| if w > bw { (x, w) } else { (bx, bw) });
+    // the first node when nothing moves (a model without loads): never an x of NaN
+    let first = along.first().map_or(f.a.x, |p| p.0);
+    let (at, worst) = along.iter().map(|&(x, d, u)| (x, d.max(u))).fold((first, 0.0), |(bx, bw), (x, w)| {
+        if w > bw {
+            (x, w)
+        } else {
+            (bx, bw)
+        }
+    });
     Ok(Deflection {
         ratio,
         span: f.span(),
@@ -726,6 +730,29 @@ mod tests {
             largest_direct = largest_direct.max(uy.abs());
         }
         assert!(defl.worst >= largest_direct && largest_direct > 1e-4, "{} vs {largest_direct}", defl.worst);
+        // ... and no more than all of the traffic at once: the uniform load over every
+        // metre of the line (its absolute ordinates, trapezoids) plus the whole vehicle
+        // at the largest ordinate
+        let node = g
+            .map
+            .deck_nodes
+            .iter()
+            .enumerate()
+            .find(|(i, n)| n.is_some() && (f.panel_x[*i] - defl.at).abs() < 1e-9)
+            .and_then(|(_, n)| *n)
+            .expect("the worst node");
+        let inf = influence_of(frame_model(&valid), Some(TRAFFIC_STEP)).expect("lines");
+        let eta = inf.lines.ordinates(Quantity::Displacement { node, dof: Dof::Y }).expect("eta");
+        let x = &inf.lines.positions;
+        let area: f64 =
+            (1..x.len()).map(|k| 0.5 * (eta[k].abs() + eta[k - 1].abs()) * (x[k] - x[k - 1])).sum();
+        let peak = eta.iter().fold(0.0_f64, |m, v| m.max(v.abs()));
+        let (layout, _) = traffic_of(&valid);
+        let vehicle: f64 = layout.vehicles.first().map_or(0.0, |v| v.axles.loads.iter().sum::<f64>())
+            * sharing.whole.vehicle_weight;
+        let bound = uniform * area + vehicle * peak;
+        assert!(vehicle > 0.0 && defl.worst <= bound * (1.0 + 1e-9), "{} vs bound {bound}", defl.worst);
+        // the limit check says what the numbers say
         assert_eq!(defl.within, defl.worst <= defl.allowed);
     }
 

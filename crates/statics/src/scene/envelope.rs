@@ -8,7 +8,7 @@
 //! (largest compression, compression ink) offset below (to its right); each band is
 //! 1 px + 7 px x sqrt(|N| / largest |N| drawn) wide, none where that extreme is not of
 //! its sign. Values are per rib line (the report's member lines), kN, tension positive,
-//! either one combination's design values (permanent + traffic, factored) or the
+//! either one combination's design values (permanent, traffic and the other actions, factored) or the
 //! characteristic traffic alone: the title says which. The largest tension and the
 //! largest compression anywhere are labelled, and the picked member with both its
 //! extremes.
@@ -41,12 +41,12 @@ pub enum Basis {
 
 impl Basis {
     /// The basis in words for a title or a menu: "characteristic traffic alone", or the
-    /// combination's name followed by "design (permanent + traffic)". A combination the
+    /// combination's name followed by "design (permanent, traffic, other actions)". A combination the
     /// report does not have reads as the characteristic traffic.
     pub fn words(self, report: &TrafficReport) -> String {
         match self {
             Basis::Design(k) => match report.combinations.get(k) {
-                Some(c) => format!("{} design (permanent + traffic)", c.name),
+                Some(c) => format!("{} design (permanent, traffic, other actions)", c.name),
                 None => Basis::Characteristic.words(report),
             },
             Basis::Characteristic => "characteristic traffic alone".into(),

@@ -47,6 +47,11 @@ pub struct Combination {
 
 /// The name of the EN combination of traffic group gr2 (braking).
 pub const BRAKING_GROUP: &str = "ULS gr2";
+/// The name of the EN combination with temperature as the leading variable action.
+pub const TEMPERATURE_LEADING: &str = "ULS temperature leading";
+/// The combinations design format 4 added to the EN presets: a design of format 3 gets
+/// them (`Combination::add_action_factors`).
+const ADDED_IN_FORMAT_4: [&str; 2] = [BRAKING_GROUP, TEMPERATURE_LEADING];
 
 /// The factors of the other actions in one combination: (temperature, settlement,
 /// braking), see [`Combination`].
@@ -78,8 +83,8 @@ impl Combination {
 
     /// Gives every combination of `combinations` that bears a preset's name of `family`
     /// that preset's factors of the other actions, and adds the family's presets that
-    /// carry braking (EN traffic group gr2) when missing: what a design written before
-    /// the other actions existed (design format 3) opens with.
+    /// came with them (EN traffic group gr2, temperature leading) when missing: what a
+    /// design written before the other actions existed (design format 3) opens with.
     pub fn add_action_factors(family: ModelFamily, combinations: &mut Vec<Combination>) {
         let presets = Combination::presets(family);
         for c in combinations.iter_mut() {
@@ -88,7 +93,8 @@ impl Combination {
             }
         }
         for p in presets {
-            if p.name == BRAKING_GROUP && !combinations.iter().any(|c| c.name == p.name) {
+            if ADDED_IN_FORMAT_4.contains(&p.name.as_str()) && !combinations.iter().any(|c| c.name == p.name)
+            {
                 combinations.push(p);
             }
         }
@@ -104,12 +110,17 @@ impl Combination {
     ///   (EN 1991-2 Table 4.4a: gr2 = Q_lk + psi_1 LM1), all times gamma_Q 1.35.
     ///   Temperature accompanies: gamma_Q psi_0 = 1.5 x 0.6 = 0.9 at ULS, psi_0 = 0.6 in
     ///   the characteristic and psi_2 = 0.5 in the frequent combination (Table A2.1,
-    ///   T_k). Springing movement (settlement): gamma_Gset = 1.20 at ULS for linear
+    ///   T_k). Eq. 6.10 takes each variable action as the leading one in turn, so ULS
+    ///   temperature leading has temperature at gamma_Q 1.5 and LM1 as accompanying at
+    ///   gamma_Q psi_0 (1.35 x 0.75 on the tandems, 1.35 x 0.40 on the UDLs, Table A2.1):
+    ///   it governs where the temperature effects are large beside the traffic's (near
+    ///   the springings of a fixed or two-hinged rib). Springing movement (settlement): gamma_Gset = 1.20 at ULS for linear
     ///   analysis (Table A2.4(B) note, from memory), 1.0 at SLS.
     /// * Footbridge crowd: ULS (Table A2.4(B), gamma_Q 1.35 for pedestrian traffic), SLS
     ///   characteristic, SLS frequent (psi_1 = 0.40, EN 1990 Table A2.2, group gr1; from
     ///   memory); temperature and settlement as above (psi_0 0.6, psi_2 0.5 for
-    ///   footbridges, Table A2.2, from memory); no braking.
+    ///   footbridges, Table A2.2, from memory), and temperature leading likewise; no
+    ///   braking.
     /// * AASHTO HL-93: Strength I (AASHTO LRFD Table 3.4.1-1, LL and BR 1.75; DC gamma_p
     ///   1.25 / 0.90, Table 3.4.1-2; TU 0.50, the value for force effects; SE 1.0) and
     ///   Service I (all 1.0, TU 1.00).
@@ -151,6 +162,17 @@ impl Combination {
                         .with_actions((0.9, 1.2, 1.35)),
                     );
                 }
+                out.push(
+                    Combination::new(
+                        TEMPERATURE_LEADING,
+                        "EN 1990 eq. 6.10 with T_k leading (gamma_Q 1.5), traffic at psi_0 (Table A2.1)",
+                        1.35,
+                        1.0,
+                        1.35 * 0.40,
+                        1.35 * 0.75,
+                    )
+                    .with_actions((1.5, 1.2, 0.0)),
+                );
                 out
             }
             ModelFamily::Crowd => vec![
@@ -167,6 +189,15 @@ impl Combination {
                     0.40,
                 )
                 .with_actions((0.5, 1.0, 0.0)),
+                Combination::new(
+                    TEMPERATURE_LEADING,
+                    "EN 1990 eq. 6.10 with T_k leading (gamma_Q 1.5), the crowd at psi_0 0.40 (Table A2.2, from memory)",
+                    1.35,
+                    1.0,
+                    1.35 * 0.40,
+                    1.35 * 0.40,
+                )
+                .with_actions((1.5, 1.2, 0.0)),
             ],
             ModelFamily::Hl93 => vec![
                 Combination::new(
@@ -235,11 +266,14 @@ mod tests {
         // ULS gr1a: gamma_Q psi_0 = 1.5 x 0.6 = 0.9 (EN 1990 Table A2.1), gamma_Gset 1.2
         assert_eq!(old[0].action_factors(), (0.9, 1.2, 0.0));
         assert_eq!(old[1].action_factors(), (0.0, 0.0, 0.0), "a renamed one is the user's");
-        // gr2 added: braking 1.35, the tandem at 1.35 x 0.75
-        assert_eq!(old.len(), 4);
+        // gr2 added: braking 1.35, the tandem at 1.35 x 0.75; temperature leading at 1.5
+        // with the tandem at psi_0 (1.35 x 0.75) and the UDL at 1.35 x 0.40
+        assert_eq!(old.len(), 5);
         assert_eq!(old[3].name, "ULS gr2");
         assert!((old[3].vehicle - 1.0125).abs() < 1e-12 && old[3].braking == 1.35);
+        assert_eq!(old[4].name, "ULS temperature leading");
+        assert!(old[4].temperature == 1.5 && (old[4].uniform - 0.54).abs() < 1e-12);
         Combination::add_action_factors(ModelFamily::EnLm1, &mut old);
-        assert_eq!(old.len(), 4, "once");
+        assert_eq!(old.len(), 5, "once");
     }
 }
