@@ -87,12 +87,18 @@ fn choosing_hl93_brings_its_combinations_and_undo_takes_them_back() {
     let s = driver.session(1500, 900, 1.0);
     open(&s, &server);
     let demo = Design::demo();
-    // the demo: EN 1991-2 LM1 and its four combinations (gr1a, SLS characteristic and frequent, gr2 with braking)
+    // the demo: EN 1991-2 LM1 and its five combinations (gr1a, SLS characteristic and frequent, gr2 with braking, temperature leading)
     let en = report_of(&demo);
     wait_model_title(&s, &en.load_model);
     assert_eq!(
         row_labels(&s)[2..],
-        ["ULS gr1a, design", "SLS characteristic, design", "SLS frequent, design", "ULS gr2, design"]
+        [
+            "ULS gr1a, design",
+            "SLS characteristic, design",
+            "SLS frequent, design",
+            "ULS gr2, design",
+            "ULS temperature leading, design"
+        ]
     );
     assert_thrust_table(&s, &en);
     let en_lanes = text_of(&s, "traffic-lanes");

@@ -73,9 +73,7 @@ fn show_case(state: AppState, id: &str) {
         if state.case.get_untracked() != index {
             state.case.set(index);
         }
-        return;
     }
-    choose_extra(state, id);
 }
 
 /// Chooses, from its link id, a case the analysis only carries once chosen in the load
@@ -109,7 +107,16 @@ fn apply_view(state: AppState, view: &ViewState, from_link: StoredValue<Option<U
         }
     }
     if let Some(id) = &view.case {
-        show_case(state, id);
+        // a case only a choice in the load picker adds (an action, a pattern, the
+        // vehicle) is chosen; one the analysis has is shown
+        let known = state.analysis.with_untracked(|a| {
+            a.as_ref().ok().and_then(|a| find_case(a.load_cases.iter().map(|c| &c.description), id)).is_some()
+        });
+        if known {
+            show_case(state, id);
+        } else {
+            choose_extra(state, id);
+        }
     }
 }
 

@@ -262,7 +262,10 @@ fn analyze_reports_traffic_envelopes() {
     assert!(frame["load_model"].as_str().is_some_and(|m| m.contains("EN 1991-2")), "{frame}");
     assert!(frame["sharing"]["rule"].as_str().is_some_and(|r| r.contains("per rib line")));
     let combinations = frame["combinations"].as_array().expect("combinations").len();
-    assert_eq!(combinations, 4, "ULS gr1a, SLS characteristic, SLS frequent, ULS gr2");
+    assert_eq!(
+        combinations, 5,
+        "ULS gr1a, SLS characteristic, SLS frequent, ULS gr2, ULS temperature leading"
+    );
     // the other actions: braking after EN 1991-2 eq. 4.6 on the demo's 164 m deck,
     // 360 + 0.10 x 9 x 3 x 164 = 802.8 kN (worked in arch::actions); the deflection check
     assert_eq!(report["actions"]["braking"]["force"].as_f64(), Some(802.8));

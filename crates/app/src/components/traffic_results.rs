@@ -224,8 +224,8 @@ mod tests {
         assert_eq!(rows.len(), 2 + r.thrust.design.len());
         assert_eq!(
             r.thrust.design.len(),
-            4,
-            "LM1 presets: ULS gr1a, SLS characteristic, SLS frequent, ULS gr2"
+            5,
+            "LM1 presets: ULS gr1a, SLS characteristic, SLS frequent, ULS gr2, ULS temperature leading"
         );
         assert_eq!(rows[0].max, r.thrust.permanent);
         assert!(rows[0].max > 0.0, "dead load pushes the springing outward: {}", rows[0].max);
