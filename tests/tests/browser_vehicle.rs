@@ -43,6 +43,18 @@ fn next_vehicle_x(s: &Session, old: Option<f64>) -> f64 {
     vehicle_x(s).expect("a vehicle x")
 }
 
+/// Waits until the results table's row of the member in focus carries `n` (kN,
+/// relative 1e-9): its sign is the member's in the shown case.
+fn wait_focus_row(s: &Session, n: f64) {
+    s.wait_for(
+        &format!("the focused member's row to read {n} kN"),
+        &format!(
+            "const e = document.getElementById('result-focus-n'); return e && Math.abs(+e.dataset.value - ({n})) <= 1e-9 * Math.max(1, Math.abs({n}));"
+        ),
+        WAIT,
+    );
+}
+
 /// The centre of the vehicle's grab box, viewport CSS pixels.
 fn vehicle_centre(s: &Session) -> (f64, f64) {
     let v = s.exec("return JSON.parse(document.getElementById('elevation').dataset.vehicleBox);", vec![]);
@@ -157,6 +169,8 @@ fn dragging_the_vehicle_across_the_span_turns_a_diagonal_from_tension_to_compres
     assert!(n0 > 0.0, "{key}: {n0}");
     let lines = read_member(&s, &a0, k);
     assert!((frame_n(&lines) - n0).abs() < 0.01 * n0.abs(), "{n0} kN: {lines:?}");
+    // the member in focus has a row of its own in the results table: tension here
+    wait_focus_row(&s, n0);
     assert!(close(cell(&s, "result-case-bracing-tension"), n0));
     let row_label = s.exec(
         "return document.getElementById('result-case-bracing-tension').parentElement.querySelector('th').textContent;",
@@ -192,6 +206,8 @@ fn dragging_the_vehicle_across_the_span_turns_a_diagonal_from_tension_to_compres
     let lines = read_member(&s, &a1, k);
     assert!((frame_n(&lines) - n1).abs() < 0.01 * n1.abs(), "{n1} kN: {lines:?}");
     assert!(lines[1].contains('−'), "compression shows its sign: {lines:?}");
+    // ... and the results table's row of the member in focus turned to compression
+    wait_focus_row(&s, n1);
     let h1 = a1.summary.springings.last().expect("vehicle case").left.thrust;
     assert!(close(cell(&s, "result-left-h"), h1), "{} vs {h1}", cell(&s, "result-left-h"));
     let k1 = most_tension(&a1);

@@ -38,8 +38,9 @@ fn text_row(id: &'static str, label: &str, text: String) -> Row {
 /// The rows for analysis `a`, springing forces in load case `case` (an index into
 /// `Analysis::load_cases`, the case the drawings show), `ribs` the design's rib count
 /// (the plane models carry every rib together), lengths of the form-finding line in
-/// `units`.
-fn rows(a: &Analysis, case: usize, ribs: usize, units: Units) -> Vec<Row> {
+/// `units`; `focus` the member pointed at or stepped to, whose force in this case gets a
+/// row of its own (so a vehicle moving along the deck shows it change sign here too).
+fn rows(a: &Analysis, case: usize, ribs: usize, units: Units, focus: Option<MemberKey>) -> Vec<Row> {
     let s = &a.summary;
     let all_ribs = if ribs == 1 { "the one rib".to_string() } else { format!("all {ribs} ribs") };
     let mut r = vec![
@@ -92,6 +93,20 @@ fn rows(a: &Analysis, case: usize, ribs: usize, units: Units) -> Vec<Row> {
         if let Some((n, key)) = case_bracing_extreme(a, case, tension) {
             r.push(row(id, &format!("{label} (frame model, {all_ribs}): {key}"), Quantity::Force, n));
         }
+    }
+    // the member in focus, in this case (frame model)
+    let focused = focus.and_then(|key| {
+        let k = key.member_in(&a.frame.map, ModelKind::Frame)?;
+        let m = a.frame.solution.cases.get(case)?.members.get(k)?;
+        Some((key, 0.5 * (m.start.n + m.end.n)))
+    });
+    if let Some((key, n)) = focused {
+        r.push(row(
+            "result-focus-n",
+            &format!("{key}: N in this case (frame model, {all_ribs})"),
+            Quantity::Force,
+            n,
+        ));
     }
     if let Some(pole) = a.load_cases.get(case).and_then(|c| c.rib_funicular.as_ref()) {
         r.push(row("result-pole", "Pole distance H (bare rib, force diagram)", Quantity::Force, pole.thrust));
@@ -225,7 +240,8 @@ pub fn ResultsPanel() -> impl IntoView {
                 let ribs = state.design.with(|d| d.deck.ribs);
                 let title = a.load_cases.get(case).map(|c| c.description.title()).unwrap_or_default();
                 let note = thrust_note(&a, case, units);
-                let table = rows(&a, case, ribs, units)
+                let focus = state.focus.get();
+                let table = rows(&a, case, ribs, units, focus)
                     .into_iter()
                     .map(|r| {
                         let shown = r.text.clone().unwrap_or_else(|| units.show(r.quantity, r.si));
@@ -319,7 +335,7 @@ mod tests {
     #[test]
     fn member_rows_say_all_ribs_and_the_form_line_converts() {
         let a = analyze(&Design::demo()).expect("demo analyses");
-        let r = rows(&a, 0, 2, Units::UsCustomary);
+        let r = rows(&a, 0, 2, Units::UsCustomary, None);
         let rib = r.iter().find(|r| r.id == "result-rib-n").expect("rib row");
         assert!(rib.label.contains("all 2 ribs"), "{}", rib.label);
         let form = r.iter().find(|r| r.id == "result-form").and_then(|r| r.text.clone()).expect("form row");
@@ -346,8 +362,8 @@ mod tests {
             assert!(n > 0.0);
             let (c, _) = case_bracing_extreme(&a, case, false).expect("compression");
             assert!(c < 0.0);
-            let rows = rows(&a, case, 2, Units::Si);
-            let row = rows.iter().find(|r| r.id == "result-case-bracing-tension").expect("row");
+            let shown = rows(&a, case, 2, Units::Si, None);
+            let row = shown.iter().find(|r| r.id == "result-case-bracing-tension").expect("row");
             assert!(row.label.ends_with(&format!("all 2 ribs): {most}")) && row.si == n, "{}", row.label);
             let k =
                 a.frame.map.roles.iter().enumerate().filter(|(_, r)| **r == MemberRole::Bracing).find_map(
@@ -356,8 +372,15 @@ mod tests {
                             .then_some(k)
                     },
                 );
-            let m = &a.frame.solution.cases[case].members[k.expect("d2–r3")];
+            let k = k.expect("d2–r3");
+            let m = &a.frame.solution.cases[case].members[k];
             d2_r3.push(0.5 * (m.start.n + m.end.n));
+            // the member in focus has its own row with its force in this case
+            let key = MemberKey::of(&a.frame.map, ModelKind::Frame, k);
+            let focused = rows(&a, case, 2, Units::Si, key);
+            let row = focused.iter().find(|r| r.id == "result-focus-n").expect("the focused member's row");
+            assert_eq!(row.si, 0.5 * (m.start.n + m.end.n));
+            assert!(row.label.starts_with("bracing d2–r3: N in this case"), "{}", row.label);
         }
         assert!(d2_r3[0] > 0.0 && d2_r3[1] < 0.0, "{d2_r3:?}");
     }
