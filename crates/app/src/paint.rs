@@ -8,7 +8,7 @@
 
 use crate::canvas::{self, Surface};
 use springline_statics::scene::place::PAD_X;
-use springline_statics::scene::{Ink, Item, Label, Px, Rect, Scene, Shape, Stroke, Viewport};
+use springline_statics::scene::{Ink, Item, Label, Pattern, Px, Rect, Scene, Shape, Stroke, Viewport};
 use web_sys::{CanvasRenderingContext2d, HtmlCanvasElement};
 
 /// The canvas's size in CSS pixels as a viewport to build a scene for; `None` while it has
@@ -25,29 +25,76 @@ pub fn paint(canvas: &HtmlCanvasElement, scene: &Scene) {
     let Surface { ctx, width, height } = &surface;
     ctx.set_fill_style_str(Ink::Background.css());
     ctx.fill_rect(0.0, 0.0, *width, *height);
+    // every setting below is made again after this: start from nothing known
+    let mut pen = Pen::default();
     for item in &scene.items {
-        paint_item(ctx, item);
+        paint_item(ctx, &mut pen, item);
     }
+    ctx.set_text_align("left");
+    ctx.set_text_baseline("middle");
     for label in &scene.labels {
-        paint_label(ctx, label);
+        paint_label(ctx, &mut pen, label);
     }
     publish(canvas, scene);
 }
 
-fn set_stroke(ctx: &CanvasRenderingContext2d, s: &Stroke) {
-    ctx.set_stroke_style_str(s.ink.css());
-    ctx.set_line_width(s.width);
-    let dashes = js_sys::Array::new();
-    for d in s.pattern.dashes(s.width) {
-        dashes.push(&d.into());
+/// What the canvas was last set to, so a scene of many shapes in few styles sets each
+/// style once: every setting is a call out of wasm, and a dash pattern an allocation.
+#[derive(Default)]
+struct Pen {
+    stroke: Option<&'static str>,
+    fill: Option<&'static str>,
+    width: Option<f64>,
+    /// The pattern and width the dashes were made for (`None`: unknown).
+    dashes: Option<(Pattern, f64)>,
+    font: Option<&'static str>,
+}
+
+impl Pen {
+    fn stroke_style(&mut self, ctx: &CanvasRenderingContext2d, css: &'static str) {
+        if self.stroke != Some(css) {
+            ctx.set_stroke_style_str(css);
+            self.stroke = Some(css);
+        }
     }
-    let _ = ctx.set_line_dash(&dashes);
-    // dots read as dots with round caps; dashes keep square ends
-    ctx.set_line_cap(if matches!(s.pattern, springline_statics::scene::Pattern::Dotted) {
-        "round"
-    } else {
-        "butt"
-    });
+    fn fill_style(&mut self, ctx: &CanvasRenderingContext2d, css: &'static str) {
+        if self.fill != Some(css) {
+            ctx.set_fill_style_str(css);
+            self.fill = Some(css);
+        }
+    }
+    fn line_width(&mut self, ctx: &CanvasRenderingContext2d, width: f64) {
+        if self.width != Some(width) {
+            ctx.set_line_width(width);
+            self.width = Some(width);
+        }
+    }
+    /// The dash pattern (and its caps) of `pattern` at `width`.
+    fn pattern(&mut self, ctx: &CanvasRenderingContext2d, pattern: Pattern, width: f64) {
+        if self.dashes == Some((pattern, width)) {
+            return;
+        }
+        let dashes = js_sys::Array::new();
+        for d in pattern.dashes(width) {
+            dashes.push(&d.into());
+        }
+        let _ = ctx.set_line_dash(&dashes);
+        // dots read as dots with round caps; dashes keep square ends
+        ctx.set_line_cap(if matches!(pattern, Pattern::Dotted) { "round" } else { "butt" });
+        self.dashes = Some((pattern, width));
+    }
+    fn font(&mut self, ctx: &CanvasRenderingContext2d, font: &'static str) {
+        if self.font != Some(font) {
+            ctx.set_font(font);
+            self.font = Some(font);
+        }
+    }
+}
+
+fn set_stroke(ctx: &CanvasRenderingContext2d, pen: &mut Pen, s: &Stroke) {
+    pen.stroke_style(ctx, s.ink.css());
+    pen.line_width(ctx, s.width);
+    pen.pattern(ctx, s.pattern, s.width);
 }
 
 fn trace(ctx: &CanvasRenderingContext2d, pts: &[Px]) {
@@ -60,11 +107,11 @@ fn trace(ctx: &CanvasRenderingContext2d, pts: &[Px]) {
     }
 }
 
-fn paint_item(ctx: &CanvasRenderingContext2d, item: &Item) {
+fn paint_item(ctx: &CanvasRenderingContext2d, pen: &mut Pen, item: &Item) {
     match &item.shape {
         Shape::Line { from, to } => {
             trace(ctx, &[*from, *to]);
-            stroke_and_fill(ctx, item, false);
+            stroke_and_fill(ctx, pen, item, false);
         }
         Shape::Path { points, closed } => {
             if points.len() < 2 {
@@ -74,17 +121,17 @@ fn paint_item(ctx: &CanvasRenderingContext2d, item: &Item) {
             if *closed {
                 ctx.close_path();
             }
-            stroke_and_fill(ctx, item, *closed);
+            stroke_and_fill(ctx, pen, item, *closed);
         }
         Shape::Circle { center, radius } => {
             ctx.begin_path();
             let _ = ctx.arc(center.x, center.y, *radius, 0.0, std::f64::consts::TAU);
-            stroke_and_fill(ctx, item, true);
+            stroke_and_fill(ctx, pen, item, true);
         }
         Shape::Box { rect } => {
             ctx.begin_path();
             ctx.rect(rect.x, rect.y, rect.w, rect.h);
-            stroke_and_fill(ctx, item, true);
+            stroke_and_fill(ctx, pen, item, true);
         }
         Shape::Arrow { tail, head, head_size } => {
             let (dx, dy) = (head.x - tail.x, head.y - tail.y);
@@ -96,12 +143,11 @@ fn paint_item(ctx: &CanvasRenderingContext2d, item: &Item) {
             let size = head_size.min(l);
             let base = Px::new(head.x - ux * size, head.y - uy * size);
             if let Some(s) = &item.stroke {
-                set_stroke(ctx, s);
+                set_stroke(ctx, pen, s);
                 trace(ctx, &[*tail, base]);
                 ctx.stroke();
-                let _ = ctx.set_line_dash(&js_sys::Array::new());
-                // the head filled in the line's ink
-                ctx.set_fill_style_str(s.ink.css());
+                // the head filled in the line's ink (a dash pattern does not touch fills)
+                pen.fill_style(ctx, s.ink.css());
                 let w = 0.45 * size;
                 trace(
                     ctx,
@@ -119,15 +165,14 @@ fn paint_item(ctx: &CanvasRenderingContext2d, item: &Item) {
 }
 
 /// Fills (closed shapes with a fill) then strokes the current path.
-fn stroke_and_fill(ctx: &CanvasRenderingContext2d, item: &Item, closed: bool) {
+fn stroke_and_fill(ctx: &CanvasRenderingContext2d, pen: &mut Pen, item: &Item, closed: bool) {
     if let (Some(fill), true) = (item.fill, closed) {
-        ctx.set_fill_style_str(fill.css());
+        pen.fill_style(ctx, fill.css());
         ctx.fill();
     }
     if let Some(s) = &item.stroke {
-        set_stroke(ctx, s);
+        set_stroke(ctx, pen, s);
         ctx.stroke();
-        let _ = ctx.set_line_dash(&js_sys::Array::new());
     }
 }
 
@@ -136,23 +181,20 @@ fn nearest_on_rect(r: &Rect, p: Px) -> Px {
     Px::new(p.x.clamp(r.x, r.right()), p.y.clamp(r.y, r.bottom()))
 }
 
-fn paint_label(ctx: &CanvasRenderingContext2d, l: &Label) {
+/// Paints a label (text left-aligned, baseline middle: set once by [`paint`]).
+fn paint_label(ctx: &CanvasRenderingContext2d, pen: &mut Pen, l: &Label) {
     if let Some(to) = l.leader {
         let from = nearest_on_rect(&l.rect, to);
-        let _ = ctx.set_line_dash(&js_sys::Array::new());
-        ctx.set_stroke_style_str(springline_statics::scene::Ink::Secondary.css());
-        ctx.set_line_width(0.8);
+        set_stroke(ctx, pen, &Stroke { ink: Ink::Secondary, width: 0.8, pattern: Pattern::Solid });
         trace(ctx, &[from, to]);
         ctx.stroke();
     }
     if l.boxed {
-        ctx.set_fill_style_str(springline_statics::scene::Ink::LabelBox.css());
+        pen.fill_style(ctx, Ink::LabelBox.css());
         ctx.fill_rect(l.rect.x, l.rect.y, l.rect.w, l.rect.h);
     }
-    ctx.set_font(l.size.css_font());
-    ctx.set_fill_style_str(l.ink.css());
-    ctx.set_text_align("left");
-    ctx.set_text_baseline("middle");
+    pen.font(ctx, l.size.css_font());
+    pen.fill_style(ctx, l.ink.css());
     let _ = ctx.fill_text(&l.text, l.rect.x + PAD_X, l.rect.y + l.rect.h / 2.0);
 }
 
