@@ -38,8 +38,9 @@ fn text_row(id: &'static str, label: &str, text: String) -> Row {
 /// The rows for analysis `a`, springing forces in load case `case` (an index into
 /// `Analysis::load_cases`, the case the drawings show), `ribs` the design's rib count
 /// (the plane models carry every rib together), lengths of the form-finding line in
-/// `units`; `focus` the member pointed at or stepped to, whose force in this case gets a
-/// row of its own (so a vehicle moving along the deck shows it change sign here too).
+/// `units`; `focus` a member (pointed at or stepped to while the vehicle is on the deck)
+/// whose force in this case gets a row of its own, so the vehicle moving along the deck
+/// shows it change sign here too.
 fn rows(a: &Analysis, case: usize, ribs: usize, units: Units, focus: Option<MemberKey>) -> Vec<Row> {
     let s = &a.summary;
     let all_ribs = if ribs == 1 { "the one rib".to_string() } else { format!("all {ribs} ribs") };
@@ -240,7 +241,10 @@ pub fn ResultsPanel() -> impl IntoView {
                 let ribs = state.design.with(|d| d.deck.ribs);
                 let title = a.load_cases.get(case).map(|c| c.description.title()).unwrap_or_default();
                 let note = thrust_note(&a, case, units);
-                let focus = state.focus.get();
+                // the member in focus gets its row while the vehicle is on the deck: the
+                // row shows it change as the vehicle moves (elsewhere the readout does,
+                // and a table that changed under a passing pointer would only distract)
+                let focus = if state.vehicle.with(Option::is_some) { state.focus.get() } else { None };
                 let table = rows(&a, case, ribs, units, focus)
                     .into_iter()
                     .map(|r| {
