@@ -21,8 +21,14 @@ pub struct Surface {
 /// returns a cleared context drawing in CSS pixels. `None` when the canvas has no size
 /// yet or no 2D context.
 pub fn prepare(canvas: &HtmlCanvasElement) -> Option<Surface> {
-    let width = canvas.client_width() as f64;
-    let height = canvas.client_height() as f64;
+    prepare_for(canvas, canvas.client_width() as f64, canvas.client_height() as f64)
+}
+
+/// [`prepare`] for a canvas known to be `width` x `height` CSS pixels (the size a scene
+/// was built for), without reading the layout: reading an element's size after the page
+/// changed forces the browser to lay the page out there and then, which took most of a
+/// vehicle move's time.
+pub fn prepare_for(canvas: &HtmlCanvasElement, width: f64, height: f64) -> Option<Surface> {
     if width <= 0.0 || height <= 0.0 {
         return None;
     }
@@ -54,4 +60,35 @@ pub fn nearest_segment<K>(
         .filter(|(_, d)| *d <= tolerance)
         .min_by(|x, y| x.1.total_cmp(&y.1))
         .map(|(key, _)| key)
+}
+
+/// The CSS size of the canvas behind `node`, kept by a `ResizeObserver`: `None` until the
+/// browser first reports it, then updated whenever the layout changes it (a window
+/// resize, a scroll bar appearing). Effects that draw read it instead of the element's
+/// size, so drawing never forces a layout.
+pub fn watch_size(
+    node: leptos::prelude::NodeRef<leptos::html::Canvas>,
+) -> leptos::prelude::RwSignal<Option<(f64, f64)>> {
+    use leptos::prelude::*;
+    use wasm_bindgen::closure::Closure;
+    let size = RwSignal::new(None::<(f64, f64)>);
+    Effect::new(move |_| {
+        let Some(el) = node.get() else { return };
+        let callback = Closure::<dyn FnMut(js_sys::Array)>::new(move |entries: js_sys::Array| {
+            let Some(entry) = entries.get(0).dyn_into::<web_sys::ResizeObserverEntry>().ok() else { return };
+            let rect = entry.content_rect();
+            let now = Some((rect.width(), rect.height()));
+            if size.get_untracked() != now {
+                size.set(now);
+            }
+        });
+        if let Ok(observer) = web_sys::ResizeObserver::new(callback.as_ref().unchecked_ref()) {
+            observer.observe(&el);
+            // the drawings' canvases live as long as the page: the observer and its
+            // callback are kept for good
+            std::mem::forget(observer);
+        }
+        callback.forget();
+    });
+    size
 }

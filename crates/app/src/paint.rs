@@ -8,20 +8,15 @@
 
 use crate::canvas::{self, Surface};
 use springline_statics::scene::place::PAD_X;
-use springline_statics::scene::{Ink, Item, Label, Pattern, Px, Rect, Scene, Shape, Stroke, Viewport};
+use springline_statics::scene::{Ink, Item, Label, Pattern, Px, Rect, Scene, Shape, Stroke};
 use web_sys::{CanvasRenderingContext2d, HtmlCanvasElement};
-
-/// The canvas's size in CSS pixels as a viewport to build a scene for; `None` while it has
-/// no size (not laid out yet).
-pub fn viewport_of(canvas: &HtmlCanvasElement) -> Option<Viewport> {
-    let (w, h) = (canvas.client_width() as f64, canvas.client_height() as f64);
-    (w > 0.0 && h > 0.0).then(|| Viewport::new(w, h))
-}
 
 /// Paints `scene` on `canvas` (sharp at the device pixel ratio) and publishes its
 /// transform and labels on the element. Does nothing while the canvas has no size.
 pub fn paint(canvas: &HtmlCanvasElement, scene: &Scene) {
-    let Some(surface) = canvas::prepare(canvas) else { return };
+    let Some(surface) = canvas::prepare_for(canvas, scene.viewport.width, scene.viewport.height) else {
+        return;
+    };
     let Surface { ctx, width, height } = &surface;
     ctx.set_fill_style_str(Ink::Background.css());
     ctx.fill_rect(0.0, 0.0, *width, *height);

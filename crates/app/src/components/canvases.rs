@@ -15,7 +15,7 @@ use springline_statics::scene::elevation::{elevation, ElevationOptions};
 use springline_statics::scene::envelope::{envelope_elevation, EnvelopeOptions};
 use springline_statics::scene::force::{AreaView, FixedScale, ForceDrawing, ForceOptions};
 use springline_statics::scene::vehicle::{add_vehicle, VehicleGlyph};
-use springline_statics::scene::{Px, Scene, Transform};
+use springline_statics::scene::{Px, Scene, Transform, Viewport};
 use springline_statics::ModelKind;
 
 /// Pixels within which the pointer picks a member.
@@ -38,6 +38,7 @@ const VEHICLE_KEY_STEP: f64 = 0.5;
 pub fn ElevationCanvas() -> impl IntoView {
     let state = expect_context::<AppState>();
     let node: NodeRef<Canvas> = NodeRef::new();
+    let size = crate::canvas::watch_size(node);
     // the scene on screen and the model it draws (for pointer hits)
     let shown = StoredValue::new(None::<(Scene, ModelKind)>);
     let dragging = StoredValue::new(None::<HandleDrag>);
@@ -53,7 +54,11 @@ pub fn ElevationCanvas() -> impl IntoView {
         // an analysis error leaves the last drawing on screen
         let Ok(a) = state.analysis.get() else { return };
         let Some(el) = node.get() else { return };
-        let Some(viewport) = paint::viewport_of(&el) else { return };
+        let Some(viewport) =
+            size.get().filter(|(w, h)| *w > 0.0 && *h > 0.0).map(|(w, h)| Viewport::new(w, h))
+        else {
+            return;
+        };
         let model = drawn_model(&a, chosen);
         let map = match (model, a.truss.as_ref()) {
             (ModelKind::Truss, Some(t)) => &t.map,
@@ -335,6 +340,7 @@ const BUTTON_ZOOM: f64 = 1.25;
 pub fn ForceCanvas() -> impl IntoView {
     let state = expect_context::<AppState>();
     let node: NodeRef<Canvas> = NodeRef::new();
+    let size = crate::canvas::watch_size(node);
     let views = RwSignal::new([AreaView::FIT; 2]);
     let drawn = StoredValue::new(None::<ForceDrawing>);
     let held = StoredValue::new(None::<FixedScale>);
@@ -357,7 +363,11 @@ pub fn ForceCanvas() -> impl IntoView {
         let Some(el) = node.get() else { return };
         // an analysis error leaves the last drawing on screen
         let Ok(a) = state.analysis.get() else { return };
-        let Some(viewport) = paint::viewport_of(&el) else { return };
+        let Some(viewport) =
+            size.get().filter(|(w, h)| *w > 0.0 && *h > 0.0).map(|(w, h)| Viewport::new(w, h))
+        else {
+            return;
+        };
         let opts = ForceOptions { units, highlight, views, fixed_scale: held.get_value() };
         let d = forces::drawing(&a, case, &opts, viewport);
         paint::paint(&el, &d.scene);
