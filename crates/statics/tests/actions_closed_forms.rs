@@ -42,6 +42,17 @@ fn largest(c: &springline_statics::arch::actions::ActionResult) -> f64 {
     .fold(0.0_f64, |m, v| m.max(v.abs()))
 }
 
+/// A case of a uniform temperature change `delta_t` (K) of every member, alone.
+fn uniform_temperature(name: &str, delta_t: f64) -> CaseSpec {
+    CaseSpec {
+        name: name.into(),
+        kind: CaseKind::Temperature { delta_t },
+        with_dead: false,
+        loads: Vec::new(),
+        imposed: vec![Imposed::Temperature { delta_t, deck_only: false }],
+    }
+}
+
 /// A three-hinged system with sliding seats is statically determinate: a uniform
 /// temperature change of every member and a springing spread (or settlement) move it
 /// without stressing it. The demo (braced, three-hinged, both seats sliding) and its bare
@@ -123,13 +134,7 @@ fn two_hinged_temperature_thrust_matches_the_unit_load_equation() {
     // the engine: the bare rib under the temperature rise alone
     let mut generated = bare_rib_model(&valid);
     generated.model.load_cases.clear();
-    let rise = CaseSpec {
-        name: "rise".into(),
-        kind: CaseKind::Temperature { delta_t: t.expansion },
-        with_dead: false,
-        loads: Vec::new(),
-        imposed: vec![Imposed::Temperature { delta_t: t.expansion, deck_only: false }],
-    };
+    let rise = uniform_temperature("rise", t.expansion);
     add_cases(&valid, &mut generated, &[rise]).expect("case");
     let solution = solve(&generated.model).expect("solves");
     let left = solution.cases[0].reaction(chain[0]).expect("left springing");
@@ -324,13 +329,7 @@ fn a_two_hinged_parabolic_rib_takes_the_handbook_temperature_thrust() {
     let handbook = 15.0 * ei * t.alpha * t.expansion / (8.0 * f * f);
     let mut generated = bare_rib_model(&valid);
     generated.model.load_cases.clear();
-    let rise = CaseSpec {
-        name: "rise".into(),
-        kind: CaseKind::Temperature { delta_t: t.expansion },
-        with_dead: false,
-        loads: Vec::new(),
-        imposed: vec![Imposed::Temperature { delta_t: t.expansion, deck_only: false }],
-    };
+    let rise = uniform_temperature("rise", t.expansion);
     add_cases(&valid, &mut generated, &[rise]).expect("case");
     let solution = solve(&generated.model).expect("solves");
     let h = solution.cases[0].reaction(rib.map.springings[0]).expect("left").fx;

@@ -75,18 +75,23 @@ fn arrows(kind: &CaseKind, panels: usize) -> (String, String) {
     (light, heavy)
 }
 
+/// SVG path data of the pictograms' arch, raised by `lift` (an envelope band beside it).
+fn arch_path(lift: f64) -> String {
+    format!(
+        "M{ARCH_X0} {:.1}Q{:.1} {:.1} {ARCH_X1} {:.1}",
+        PICTO_H - 2.0 - lift,
+        0.5 * (ARCH_X0 + ARCH_X1),
+        DECK_Y - 4.0 - lift,
+        PICTO_H - 2.0 - lift
+    )
+}
+
 /// The small drawing of a case's load pattern: deck, arch, light dead-load arrows and
 /// the case's heavier arrows. Decorative: the button's words say the same.
 #[component]
 fn Pictogram(kind: CaseKind, panels: usize) -> impl IntoView {
     let (light, heavy) = arrows(&kind, panels);
-    let arch = format!(
-        "M{ARCH_X0} {:.1}Q{:.1} {:.1} {ARCH_X1} {:.1}",
-        PICTO_H - 2.0,
-        0.5 * (ARCH_X0 + ARCH_X1),
-        DECK_Y - 4.0,
-        PICTO_H - 2.0
-    );
+    let arch = arch_path(0.0);
     view! {
         <svg class="picto" aria-hidden="true" focusable="false" width=PICTO_W height=PICTO_H
             viewBox=format!("0 0 {PICTO_W} {PICTO_H}")>
@@ -121,15 +126,7 @@ fn patterns() -> Vec<(Pattern, CaseKind)> {
 /// The envelope's pictogram: deck and arch with a band either side of the rib.
 #[component]
 fn EnvelopePictogram() -> impl IntoView {
-    let arch = |lift: f64| {
-        format!(
-            "M{ARCH_X0} {:.1}Q{:.1} {:.1} {ARCH_X1} {:.1}",
-            PICTO_H - 2.0 - lift,
-            0.5 * (ARCH_X0 + ARCH_X1),
-            DECK_Y - 4.0 - lift,
-            PICTO_H - 2.0 - lift
-        )
-    };
+    let arch = arch_path;
     view! {
         <svg class="picto" aria-hidden="true" focusable="false" width=PICTO_W height=PICTO_H
             viewBox=format!("0 0 {PICTO_W} {PICTO_H}")>
@@ -147,13 +144,7 @@ fn EnvelopePictogram() -> impl IntoView {
 #[component]
 fn VehiclePictogram() -> impl IntoView {
     let (light, _) = arrows(&CaseKind::Dead, 0);
-    let arch = format!(
-        "M{ARCH_X0} {:.1}Q{:.1} {:.1} {ARCH_X1} {:.1}",
-        PICTO_H - 2.0,
-        0.5 * (ARCH_X0 + ARCH_X1),
-        DECK_Y - 4.0,
-        PICTO_H - 2.0
-    );
+    let arch = arch_path(0.0);
     // body with its front (right) corner cut, wheels on the deck line
     let (x0, x1, top, bottom) = (12.0, 25.0, DECK_Y - 9.5, DECK_Y - 3.5);
     let body = format!("M{x0} {bottom}H{x1}V{:.1}L{:.1} {top}H{x0}Z", top + 2.5, x1 - 2.5);
@@ -189,13 +180,7 @@ fn VehiclePictogram() -> impl IntoView {
 /// erection.
 #[component]
 fn ActionPictogram(kind: CaseKind) -> impl IntoView {
-    let arch = format!(
-        "M{ARCH_X0} {:.1}Q{:.1} {:.1} {ARCH_X1} {:.1}",
-        PICTO_H - 2.0,
-        0.5 * (ARCH_X0 + ARCH_X1),
-        DECK_Y - 4.0,
-        PICTO_H - 2.0
-    );
+    let arch = arch_path(0.0);
     let deck = format!("M1 {DECK_Y}H{}", PICTO_W - 1.0);
     let thermometer = |warm: bool| {
         view! {

@@ -703,7 +703,7 @@ mod tests {
     /// the same traffic does to it (here the uniform load of the whole section over the
     /// arch span alone, solved directly), its worst within a bound it cannot pass (all
     /// of the traffic's uniform load and vehicles over the whole deck at the largest
-    /// ordinate), and the limit is span / 800 of the demo's span (106.43 m / 800 =
+    /// ordinate), and the limit is span / 800 (AASHTO LRFD 2.5.2.6.2, the preset) of the demo's span (106.43 m / 800 =
     /// 0.133 m).
     #[test]
     fn live_load_deflection_envelope_bounds_a_direct_placement() {
