@@ -4,7 +4,7 @@
 
 use crate::format::Units;
 use leptos::prelude::*;
-use springline_statics::arch::analysis::analyze_with;
+use springline_statics::arch::analysis::analyze_reusing;
 use springline_statics::arch::cases::{standard_cases, CaseSpec, Pattern};
 use springline_statics::arch::edit::{Drag, DragStop, Reading, Snapping};
 use springline_statics::arch::readout::MemberKey;
@@ -12,7 +12,7 @@ use springline_statics::arch::traffic::TrafficReport;
 use springline_statics::error::{Field, Location, StaticsError};
 use springline_statics::scene::envelope::Basis;
 use springline_statics::scene::vehicle::{start_position, travel, vehicle_case, VehicleOnDeck};
-use springline_statics::{analyze_valid, Analysis, Design, ModelKind, ValidDesign};
+use springline_statics::{Analysis, Design, ModelKind, ValidDesign};
 use std::sync::Arc;
 
 /// The analysis of the current design, or the engine's error when there is none.
@@ -87,25 +87,26 @@ pub type Validated = Result<Arc<ValidDesign>, StaticsError>;
 
 /// The analysis of `valid` with the vehicle's case after the standard ones when a vehicle
 /// stands on the deck (leading axle at `vehicle`, m), else its standard cases alone
-/// (`arch::analysis::analyze_with`, `scene::vehicle::vehicle_case`). The validation (and
+/// (`arch::analysis::analyze_reusing`, `scene::vehicle::vehicle_case`). The validation (and
 /// its form finding) is not repeated: a move of the vehicle costs the solves alone.
 ///
 /// `extra`: further cases after the standard ones (a pattern, an action, the governing
 /// placements of a picked line), before the vehicle's.
+///
+/// `previous`: the analysis on screen, whose figures of unchanged cases are kept rather
+/// than drawn again (`arch::analysis::analyze_reusing`: a vehicle move draws its own
+/// case's figures only).
 pub fn analyse(
     valid: &ValidDesign,
     vehicle: Option<f64>,
     extra: &[CaseSpec],
+    previous: Option<&Analysis>,
 ) -> Result<Analysis, StaticsError> {
     let mut cases = extra.to_vec();
     if let Some(x) = vehicle {
         cases.push(vehicle_case(valid, x)?);
     }
-    if cases.is_empty() {
-        analyze_valid(valid)
-    } else {
-        analyze_with(valid, &cases)
-    }
+    analyze_reusing(valid, &cases, previous)
 }
 
 /// Whether a newly computed outcome differs from the last: a different analysis
@@ -227,7 +228,8 @@ impl AppState {
         // good part of a vehicle move's budget, and a new one is computed only when its
         // inputs changed
         let analysis = Memo::new_with_compare(
-            move |_| {
+            move |shown: Option<&Outcome>| {
+                let previous = shown.and_then(|o| o.as_ref().ok()).map(|a| &**a);
                 let x = vehicle.get();
                 let v = valid.get()?;
                 // extra cases built for this very design: analysed with them
@@ -236,7 +238,7 @@ impl AppState {
                     extra.as_ref().filter(|e| e.0 == *d && !e.1.is_empty()).map(|e| e.1.clone())
                 });
                 if let Some(cases) = extra {
-                    return analyse(&v, x, &cases).map(Arc::new);
+                    return analyse(&v, x, &cases, previous).map(Arc::new);
                 }
                 let cached = design.with_untracked(|d| {
                     checked.with_value(|c| {
@@ -245,7 +247,7 @@ impl AppState {
                 });
                 match cached {
                     Some(a) => Ok(a),
-                    None => analyse(&v, x, &[]).map(Arc::new),
+                    None => analyse(&v, x, &[], previous).map(Arc::new),
                 }
             },
             analysis_changed,
@@ -300,7 +302,7 @@ impl AppState {
     pub fn check(&self, design: &Design) -> Result<(), StaticsError> {
         let valid = ValidDesign::new(design)?;
         let x = self.vehicle.get_untracked();
-        let analysis = analyse(&valid, x, &[])?;
+        let analysis = analyse(&valid, x, &[], None)?;
         self.checked.set_value(Some((design.clone(), Arc::new(valid), x, Arc::new(analysis))));
         Ok(())
     }

@@ -51,14 +51,15 @@ pub fn FieldProblems(
         }
         shown
     });
-    // the analysis's warnings (allowed but unusual: common-practice limits) that involve
-    // this field, beside it, until the design changes
+    // the design's warnings (allowed but unusual: common-practice limits) that involve
+    // this field, beside it, until the design changes; the validation's, so a move of the
+    // vehicle (a new analysis of the same design) leaves them be
     let cautions = Memo::new(move |_| {
         if input_only {
             return Vec::new();
         }
-        state.analysis.with(|a| match a {
-            Ok(a) => a.warnings.iter().filter(|w| w.involves(field)).map(|w| w.message.clone()).collect(),
+        state.valid.with(|v| match v {
+            Ok(v) => v.warnings().iter().filter(|w| w.involves(field)).map(|w| w.message.clone()).collect(),
             Err(_) => Vec::new(),
         })
     });

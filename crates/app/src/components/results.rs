@@ -9,7 +9,7 @@ use crate::state::AppState;
 use leptos::prelude::*;
 use springline_statics::arch::generate::DEAD;
 use springline_statics::arch::readout::MemberKey;
-use springline_statics::{Analysis, MemberRole, ModelKind};
+use springline_statics::{Analysis, MemberRole, ModelKind, Warning};
 
 /// How the springing forces read, stated once under the table (the drawings use the
 /// same `SpringingForce` values).
@@ -221,64 +221,102 @@ fn thrust_note(a: &Analysis, case: usize, units: Units) -> Option<String> {
     Some(note)
 }
 
-/// The analysis's warnings as the list under the table shows them: each named as the
+/// The design's warnings as the list under the table shows them: each named as the
 /// panels name its field ("crown level: rise / span ..."), never by its file path.
-fn warning_lines(a: &Analysis) -> Vec<String> {
-    a.warnings.iter().map(|w| w.to_string()).collect()
+fn warning_lines(warnings: &[Warning]) -> Vec<String> {
+    warnings.iter().map(|w| w.to_string()).collect()
+}
+
+/// One row as the table shows it: its cell id, label, the text shown, the SI value in
+/// `data-value` (empty for a text row) and the quantity's key.
+#[derive(Clone, PartialEq, Eq, Hash)]
+struct ShownRow {
+    id: &'static str,
+    label: String,
+    shown: String,
+    data: String,
+    kind: &'static str,
 }
 
 /// The results table.
 #[component]
 pub fn ResultsPanel() -> impl IntoView {
     let state = expect_context::<AppState>();
-    let body = move || {
+    // the rows as shown, memoised: a move of the vehicle re-creates only the rows whose
+    // text changed (the keyed list below), not the whole table
+    let shown_rows = Memo::new(move |_| {
         let units: Units = state.units.get();
-        match state.analysis.get() {
-            Ok(a) => {
-                let warnings =
-                    warning_lines(&a).into_iter().map(|line| view! { <li>{line}</li> }).collect_view();
-                let case = state.case.get();
-                let ribs = state.design.with(|d| d.deck.ribs);
-                let title = a.load_cases.get(case).map(|c| c.description.title()).unwrap_or_default();
-                let note = thrust_note(&a, case, units);
-                // the member in focus gets its row while the vehicle is on the deck: the
-                // row shows it change as the vehicle moves (elsewhere the readout does,
-                // and a table that changed under a passing pointer would only distract)
-                let focus = if state.vehicle.with(Option::is_some) { state.focus.get() } else { None };
-                let table = rows(&a, case, ribs, units, focus)
-                    .into_iter()
-                    .map(|r| {
-                        let shown = r.text.clone().unwrap_or_else(|| units.show(r.quantity, r.si));
-                        let data = if r.text.is_some() { String::new() } else { format!("{}", r.si) };
-                        let kind = if r.text.is_some() { "text" } else { r.quantity.key() };
-                        view! {
-                            <tr>
-                                <th scope="row">{r.label}</th>
-                                <td id=r.id data-value=data data-quantity=kind>{shown}</td>
-                            </tr>
-                        }
-                    })
-                    .collect_view();
-                view! {
-                    <table class="results">
-                        <caption id="results-caption">
-                            {format!("{title}: springing forces and bracing extremes of the frame model in this case; other member forces of the frame model under dead load")}
-                        </caption>
-                        <tbody>{table}</tbody>
-                    </table>
-                    <p class="convention" id="results-convention">{SPRINGING_CONVENTION}</p>
-                    {note.map(|n| view! { <p class="thrust-note" id="thrust-note">{n}</p> })}
-                    <ul class="warnings">{warnings}</ul>
-                }
-                .into_any()
+        let case = state.case.get();
+        let ribs = state.design.with(|d| d.deck.ribs);
+        // the member in focus gets its row while the vehicle is on the deck: the row
+        // shows it change as the vehicle moves (elsewhere the readout does, and a table
+        // that changed under a passing pointer would only distract)
+        let focus = if state.vehicle.with(Option::is_some) { state.focus.get() } else { None };
+        state.analysis.with(|a| {
+            let Ok(a) = a else { return Vec::new() };
+            rows(a, case, ribs, units, focus)
+                .into_iter()
+                .map(|r| ShownRow {
+                    id: r.id,
+                    shown: r.text.clone().unwrap_or_else(|| units.show(r.quantity, r.si)),
+                    data: if r.text.is_some() { String::new() } else { format!("{}", r.si) },
+                    kind: if r.text.is_some() { "text" } else { r.quantity.key() },
+                    label: r.label,
+                })
+                .collect::<Vec<_>>()
+        })
+    });
+    let caption = Memo::new(move |_| {
+        let case = state.case.get();
+        state.analysis.with(|a| {
+            a.as_ref().ok().map(|a| a.load_cases.get(case).map(|c| c.description.title()).unwrap_or_default())
+        })
+    });
+    let note = Memo::new(move |_| {
+        let (case, units) = (state.case.get(), state.units.get());
+        state.analysis.with(|a| a.as_ref().ok().and_then(|a| thrust_note(a, case, units)))
+    });
+    // the warnings are the validation's: a move of the vehicle leaves them be
+    let warnings =
+        Memo::new(move |_| state.valid.with(|v| v.as_ref().map(|v| warning_lines(v.warnings())).ok()));
+    let failure = Memo::new(move |_| state.analysis.with(|a| a.as_ref().err().map(|e| e.to_string())));
+    let table = move || {
+        caption.get().map(|title| {
+            view! {
+                <table class="results">
+                    <caption id="results-caption">
+                        {format!("{title}: springing forces and bracing extremes of the frame model in this case; other member forces of the frame model under dead load")}
+                    </caption>
+                    <tbody>
+                        <For
+                            each=move || shown_rows.get()
+                            key=|r| r.clone()
+                            children=|r| {
+                                view! {
+                                    <tr>
+                                        <th scope="row">{r.label}</th>
+                                        <td id=r.id data-value=r.data data-quantity=r.kind>{r.shown}</td>
+                                    </tr>
+                                }
+                            }
+                        />
+                    </tbody>
+                </table>
+                <p class="convention" id="results-convention">{SPRINGING_CONVENTION}</p>
+                {move || note.get().map(|n| view! { <p class="thrust-note" id="thrust-note">{n}</p> })}
+                <ul class="warnings">
+                    {move || {
+                        warnings.get().unwrap_or_default().into_iter().map(|line| view! { <li>{line}</li> }).collect_view()
+                    }}
+                </ul>
             }
-            Err(e) => view! { <p class="error">{e.to_string()}</p> }.into_any(),
-        }
+        })
     };
     view! {
         <section class="results-panel" aria-labelledby="results-title">
             <h2 id="results-title">"Results"</h2>
-            {body}
+            {table}
+            {move || failure.get().map(|e| view! { <p class="error">{e}</p> })}
             <crate::components::traffic_results::TrafficResults />
             <crate::components::actions::ActionsResults />
         </section>
@@ -299,7 +337,7 @@ mod tests {
         let mut d = Design::demo();
         d.crown = springline_statics::arch::design::Crown::Level { level: 85.0 };
         let a = analyze(&d).expect("a flat arch still analyses");
-        let lines = warning_lines(&a);
+        let lines = warning_lines(&a.warnings);
         assert!(lines.iter().any(|l| l.starts_with("crown level: rise / span = 1/")), "{lines:?}");
         assert!(lines.iter().all(|l| !l.contains("crown.level") && !l.contains('_')), "{lines:?}");
     }
@@ -359,7 +397,7 @@ mod tests {
         let v = ValidDesign::new(&Design::demo()).expect("demo");
         let mut d2_r3 = Vec::new();
         for (x, most) in [(start_position(&v), "bracing d2–r3"), (110.0, "bracing d10–r9")] {
-            let a = crate::state::analyse(&v, Some(x), &[]).expect("analyses");
+            let a = crate::state::analyse(&v, Some(x), &[], None).expect("analyses");
             let case = a.load_cases.len() - 1;
             let (n, key) = case_bracing_extreme(&a, case, true).expect("tension");
             assert_eq!(key.to_string(), most);

@@ -346,6 +346,22 @@ pub fn analyze_valid(valid: &ValidDesign) -> Result<Analysis, StaticsError> {
 /// Errors: those of [`analyze_valid`], and an extra case that cannot be built (a panel
 /// point that does not exist, a load that is not finite).
 pub fn analyze_with(valid: &ValidDesign, extra: &[CaseSpec]) -> Result<Analysis, StaticsError> {
+    analyze_reusing(valid, extra, None)
+}
+
+/// [`analyze_with`], taking the figures (force diagram, rib funicular, thrust line) of a
+/// case from `previous` instead of drawing them again when `previous` has a case of the
+/// same name and kind whose solved forces are the same in every model. `previous` should
+/// be an analysis of the same validated design (a vehicle moved along the deck keeps
+/// every other case): an analysis of another design is detected by its models and not
+/// used. The result equals [`analyze_with`]'s.
+///
+/// Errors: those of [`analyze_with`].
+pub fn analyze_reusing(
+    valid: &ValidDesign,
+    extra: &[CaseSpec],
+    previous: Option<&Analysis>,
+) -> Result<Analysis, StaticsError> {
     let design = valid.design();
     let form = valid.form();
     let rs = restraint(valid);
@@ -376,15 +392,25 @@ pub fn analyze_with(valid: &ValidDesign, extra: &[CaseSpec]) -> Result<Analysis,
     });
     let mut cases = vec![(DEAD.to_string(), CaseKind::Dead)];
     cases.extend(specs.into_iter().map(|s| (s.name, s.kind)));
+    let figures = Figures {
+        frame: (&frame.model, &frame.map, &frame_solution),
+        truss: truss.as_ref().map(|t| (&t.model, t.solution.as_ref())),
+        rib: (&rib.model, &rib.map, &rib_solution),
+    };
+    let previous = previous.filter(|p| same_models(p, &figures));
     let load_cases = cases
         .into_iter()
         .map(|(name, kind)| {
-            let figures = Figures {
-                frame: (&frame.model, &frame.map, &frame_solution),
-                truss: truss.as_ref().map(|t| (&t.model, t.solution.as_ref())),
-                rib: (&rib.model, &rib.map, &rib_solution),
-            };
-            case_figures(design, &figures, &name, kind)
+            let kept = previous.and_then(|p| {
+                let old = p.load_cases.iter().find(|c| c.case == name && c.description == kind)?;
+                // the thrust line is drawn against the rib's depth, which no model holds
+                let depth_alike = old.notes.iter().all(|n| match n {
+                    FigureNote::ThrustLine { depth } => *depth == design.groups.rib.depth,
+                    _ => true,
+                });
+                (depth_alike && same_case(p, &figures, &name)).then(|| old.clone())
+            });
+            kept.unwrap_or_else(|| case_figures(design, &figures, &name, kind))
         })
         .collect();
     let frame = ModelResult {
@@ -439,6 +465,34 @@ struct Figures<'a> {
     frame: (&'a Model, &'a ModelMap, &'a Solution),
     truss: Option<(&'a Model, Option<&'a Solution>)>,
     rib: (&'a Model, &'a ModelMap, &'a Solution),
+}
+
+/// Whether `previous` was solved on the same models (nodes, members, supports) as
+/// `figures`: the condition for taking figures from it.
+fn same_models(previous: &Analysis, figures: &Figures) -> bool {
+    let same =
+        |a: &Model, b: &Model| a.nodes == b.nodes && a.members == b.members && a.supports == b.supports;
+    let truss_same = match (&previous.truss, figures.truss) {
+        (None, None) => true,
+        (Some(t), Some((model, _))) => same(&t.model, model),
+        _ => false,
+    };
+    same(&previous.frame.model, figures.frame.0)
+        && same(&previous.bare_rib.model, figures.rib.0)
+        && truss_same
+}
+
+/// Whether case `name` has the same results in `previous` as in `figures`, model by
+/// model (a case the truss idealisation or its solution lacks in both counts as alike).
+fn same_case(previous: &Analysis, figures: &Figures, name: &str) -> bool {
+    let frame = previous.frame.solution.case(name) == figures.frame.2.case(name);
+    let rib = previous.bare_rib.solution.case(name) == figures.rib.2.case(name);
+    let old_truss = previous.truss.as_ref().and_then(|t| t.solution.as_ref()).map(|s| s.case(name));
+    let new_truss = figures.truss.and_then(|(_, s)| s).map(|s| s.case(name));
+    // the idle test scales by the dead case: it must be alike too
+    let old_dead = previous.truss.as_ref().and_then(|t| t.solution.as_ref()).map(|s| s.case(DEAD));
+    let new_dead = figures.truss.and_then(|(_, s)| s).map(|s| s.case(DEAD));
+    frame && rib && old_truss == new_truss && old_dead == new_dead
 }
 
 /// Whether case `name` of `solution` leaves every member without force: all below
@@ -592,6 +646,38 @@ mod tests {
     use crate::arch::design::{Bracing, Crown, RibSystem};
     use crate::arch::validate::VALIDATIONS;
     use crate::frame::model::{LoadDirection, MemberLoad};
+
+    /// Figures taken from a previous analysis are exactly the figures drawn afresh: a
+    /// vehicle moved along the deck (its case drawn anew, the others kept), and a previous
+    /// analysis of another design (other panels, another rib depth, another rib system),
+    /// whose figures must not be taken.
+    #[test]
+    fn reusing_figures_changes_nothing() {
+        use crate::arch::cases::{pattern_case, Pattern};
+        let demo = Design::demo();
+        let valid = ValidDesign::new(&demo).expect("demo");
+        let at = |v: &ValidDesign, x: f64| pattern_case(v, Pattern::Vehicle(x)).expect("on the deck");
+        let before = analyze_with(&valid, &[at(&valid, 50.0)]).expect("solves");
+        let fresh = analyze_with(&valid, &[at(&valid, 51.5)]).expect("solves");
+        let reused = analyze_reusing(&valid, &[at(&valid, 51.5)], Some(&before)).expect("solves");
+        assert_eq!(reused, fresh);
+        let mut others = Vec::new();
+        let mut d = demo.clone();
+        d.panels = 14;
+        others.push(d);
+        let mut d = demo.clone();
+        d.groups.rib.depth = 2.0;
+        others.push(d);
+        let mut d = demo.clone();
+        d.rib_system = RibSystem::TwoHinged;
+        others.push(d);
+        for other in others {
+            let v = ValidDesign::new(&other).expect("valid");
+            let previous = analyze_with(&v, &[at(&v, 50.0)]).expect("solves");
+            let reused = analyze_reusing(&valid, &[at(&valid, 51.5)], Some(&previous)).expect("solves");
+            assert_eq!(reused, fresh, "{:?} {:?}", other.panels, other.rib_system);
+        }
+    }
 
     #[test]
     fn demo_analysis_reports_every_model() {
