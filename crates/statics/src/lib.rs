@@ -8,6 +8,7 @@
 //! | --- | --- |
 //! | `scene` | drawings as data: shapes, styles and placed labels |
 //! | `link` | the permalink codec |
+//! | `sizing` | member resistance, section families, materials |
 //! | `arch` | the deck arch: design, layout, form, generation, cases, analysis, traffic envelopes |
 //! | `traffic` | cross-section, load models, sharing between ribs, combinations |
 //! | `graphic` | reciprocal figure, funicular, thrust line |
@@ -34,6 +35,7 @@ pub mod traffic;
 pub mod arch;
 pub mod link;
 pub mod scene;
+pub mod sizing;
 
 pub use error::{Problem, StaticsError};
 pub use frame::determinacy::{truss_determinacy, Determinacy, DeterminacyReport};
