@@ -12,6 +12,10 @@ use serde::{Deserialize, Serialize};
 /// kN/m2 per MPa.
 const MPA: f64 = 1000.0;
 
+/// The strongest concrete the rules cover, f_ck 90 MPa in kN/m2 (EN 1992-1-1 Table 3.1,
+/// C90/105).
+pub const MAX_FCK: f64 = 90.0 * MPA;
+
 /// A material of a member, with what its resistance rules need.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 #[serde(tag = "kind", rename_all = "snake_case")]
@@ -86,6 +90,9 @@ pub struct Glulam {
     pub gamma_m: f64,
 }
 
+/// A value with its name in words, for messages.
+type Named = (&'static str, f64);
+
 impl Material {
     /// The material's name as the user sees it.
     pub fn name(&self) -> &str {
@@ -122,15 +129,16 @@ impl Material {
 
     /// What is wrong with the material's values, in words a user can act on: every
     /// strength, modulus and unit weight must be a finite number above zero, every
-    /// partial factor at least 1, alpha_cc in (0, 1], k_mod in (0, 1.1] (the largest value
-    /// of EN 1995-1-1 Table 3.1, instantaneous actions). The first problem found is
+    /// partial factor at least 1, alpha_cc in (0, 1], f_ck at most 90 MPa (EN 1992-1-1
+    /// Table 3.1), k_mod in (0, 1.1] (the largest value of EN 1995-1-1 Table 3.1,
+    /// instantaneous actions), E_0,05 at most E_0,mean. The first problem found is
     /// returned.
     pub fn check(&self) -> Result<(), String> {
         let name = self.name();
         if name.trim().is_empty() {
             return Err("the material needs a name".to_string());
         }
-        let (positives, factors): (Vec<(&str, f64)>, Vec<(&str, f64)>) = match self {
+        let (positives, factors): (Vec<Named>, Vec<Named>) = match self {
             Material::Steel(s) => (
                 vec![("yield strength fy", s.fy), ("Young's modulus E", s.e), ("unit weight", s.unit_weight)],
                 vec![("gamma_M0", s.gamma_m0), ("gamma_M1", s.gamma_m1)],
@@ -172,6 +180,10 @@ impl Material {
             }
         }
         match self {
+            Material::Concrete(c) if c.fck > MAX_FCK => Err(format!(
+                "{name}: f_ck must be at most 90 MPa (it is {} MPa; EN 1992-1-1 Table 3.1 ends at C90/105)",
+                c.fck / MPA
+            )),
             Material::Concrete(c) if c.alpha_cc > 1.0 => Err(format!(
                 "{name}: alpha_cc must be at most 1 (it is {}; EN 1992-1-1 3.1.6(1))",
                 c.alpha_cc
@@ -271,4 +283,68 @@ pub fn material_presets() -> Vec<(&'static str, Material, &'static str)> {
 /// The preset of a key (see `material_presets`), or `None` for an unknown key.
 pub fn material_preset(key: &str) -> Option<Material> {
     material_presets().into_iter().find(|(k, _, _)| *k == key).map(|(_, m, _)| m)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn presets_are_valid_and_found_by_key() {
+        let presets = material_presets();
+        assert_eq!(presets.len(), 9);
+        for (key, material, source) in &presets {
+            assert_eq!(material.check(), Ok(()), "{key}");
+            assert_eq!(material_preset(key).as_ref(), Some(material));
+            assert!(!source.is_empty());
+        }
+        assert_eq!(material_preset("s999"), None);
+    }
+
+    #[test]
+    fn preset_values_in_crate_units() {
+        // EN 1993-1-1 Table 3.1 (t <= 40 mm): S355 f_y = 355 MPa; E = 210 GPa (3.2.6)
+        let Some(Material::Steel(s)) = material_preset("s355") else { panic!("steel") };
+        assert_eq!((s.fy, s.e, s.gamma_m1), (355e3, 210e6, 1.1));
+        // EN 1992-1-1 Table 3.1: C40/50 f_ck 40 MPa, E_cm 35 GPa
+        let Some(Material::Concrete(c)) = material_preset("c40-50") else { panic!("concrete") };
+        assert_eq!((c.fck, c.e_cm, c.unit_weight), (40e3, 35e6, 25.0));
+        // EN 14080 Table 5 (from memory): GL28h rho_mean 460 kg/m3 -> 4.5 kN/m3
+        let Some(Material::Glulam(g)) = material_preset("gl28h") else { panic!("glulam") };
+        assert_eq!((g.f_m_k, g.e_0_05, g.unit_weight), (28e3, 10_500e3, 4.5));
+        assert_eq!(Material::Glulam(g.clone()).e(), 12_600e3, "analysis uses the mean modulus");
+    }
+
+    #[test]
+    fn check_names_what_to_fix() {
+        let Some(Material::Steel(mut s)) = material_preset("s235") else { panic!("steel") };
+        s.gamma_m0 = 0.9;
+        let err = Material::Steel(s.clone()).check().expect_err("gamma below 1");
+        assert!(err.contains("gamma_M0") && err.contains("at least 1"), "{err}");
+        s.gamma_m0 = 1.0;
+        s.fy = f64::NAN;
+        assert!(Material::Steel(s).check().expect_err("NaN").contains("yield strength"));
+        let Some(Material::Glulam(mut g)) = material_preset("gl24h") else { panic!("glulam") };
+        g.k_mod = 1.2;
+        assert!(Material::Glulam(g.clone())
+            .check()
+            .expect_err("k_mod")
+            .contains("k_mod must be at most 1.1"));
+        g.k_mod = 0.0;
+        assert!(Material::Glulam(g).check().expect_err("k_mod").contains("above zero"));
+        let Some(Material::Concrete(mut c)) = material_preset("c30-37") else { panic!("concrete") };
+        c.alpha_cc = 1.2;
+        assert!(Material::Concrete(c.clone()).check().expect_err("alpha_cc").contains("alpha_cc"));
+        c.alpha_cc = 0.85;
+        c.fck = 100e3;
+        assert!(Material::Concrete(c).check().expect_err("fck").contains("90 MPa"));
+    }
+
+    #[test]
+    fn serde_tags_the_kind() {
+        let m = material_preset("s355").expect("preset");
+        let json = serde_json::to_string(&m).expect("serialises");
+        assert!(json.starts_with(r#"{"kind":"steel","name":"S355""#), "{json}");
+        assert_eq!(serde_json::from_str::<Material>(&json).expect("reads back"), m);
+    }
 }

@@ -2,6 +2,7 @@
 //! diameter of a tube, the outer width of a square tube, the depth of a box or a
 //! rectangle); the family's ratios give the rest. Properties in m, m2, m4, m3.
 
+use super::materials::Material;
 use serde::{Deserialize, Serialize};
 
 /// A family of sections sized by one number, `size`, m.
@@ -77,4 +78,382 @@ pub struct SectionProps {
     pub radius_out: f64,
     /// Concrete only: total longitudinal reinforcement A_s, m2.
     pub steel_area_rebar: Option<f64>,
+}
+
+/// Slack, in mm, under which a computed thickness is taken as already whole before
+/// rounding up: D / (D / t) is off by a few ulps (323.9 / 32.39 gives 10.000000000000002
+/// mm), which must stay 10 mm, not become 11 mm. A millionth of a mm is far above that
+/// rounding and far below any real thickness step.
+const WHOLE_MM_SLACK: f64 = 1e-6;
+
+/// `length` (m) rounded up to whole mm, m (steel plate and tube walls come in whole mm:
+/// common practice).
+fn up_to_whole_mm(length: f64) -> f64 {
+    (length * 1000.0 - WHOLE_MM_SLACK).ceil() / 1000.0
+}
+
+/// `length` (m) in mm for a label: to 0.1 mm, without a trailing `.0` (`323.9`, `508`).
+fn mm(length: f64) -> String {
+    let tenths = (length * 10_000.0).round() / 10.0;
+    format!("{tenths}")
+}
+
+/// Area and second moment of area (about the centroidal axis parallel to `b`) of a solid
+/// `b` x `h` rectangle whose four corners are rounded to radius `r`, m2 and m4. The
+/// piece a corner loses (the square r x r less the quarter disc) has area (1 - pi/4) r2,
+/// first moment r3 / 6 and second moment r4 (1/3 - pi/16) about the line through the
+/// disc's centre; that centre lies h/2 - r from the axis. After the formulas behind
+/// EN 10210-2 Annex B.
+fn rounded_rectangle(b: f64, h: f64, r: f64) -> (f64, f64) {
+    use std::f64::consts::PI;
+    let piece_area = (1.0 - PI / 4.0) * r * r;
+    let piece_first = r.powi(3) / 6.0;
+    let piece_second = r.powi(4) * (1.0 / 3.0 - PI / 16.0);
+    let c = h / 2.0 - r;
+    let area = b * h - 4.0 * piece_area;
+    let i = b * h.powi(3) / 12.0 - 4.0 * (c * c * piece_area + 2.0 * c * piece_first + piece_second);
+    (area, i)
+}
+
+/// Properties from area and the two second moments, with `depth` for the elastic modulus.
+#[allow(clippy::too_many_arguments)]
+fn from_parts(
+    size: f64,
+    depth: f64,
+    width: f64,
+    thickness: Option<f64>,
+    a: f64,
+    i: f64,
+    i_out: f64,
+    steel_area_rebar: Option<f64>,
+) -> SectionProps {
+    SectionProps {
+        size,
+        depth,
+        width,
+        thickness,
+        a,
+        i,
+        i_out,
+        w_el: 2.0 * i / depth,
+        radius_in: (i / a).sqrt(),
+        radius_out: (i_out / a).sqrt(),
+        steel_area_rebar,
+    }
+}
+
+/// A family's ratios: the check of one that must be finite and above `least`.
+fn ratio_above(what: &str, value: f64, least: f64, why: &str) -> Result<(), String> {
+    if !value.is_finite() {
+        return Err(format!("the {what} must be a number (it is {value})"));
+    }
+    if value <= least {
+        return Err(format!("the {what} must be above {least} ({why}; it is {value})"));
+    }
+    Ok(())
+}
+
+/// Least total reinforcement ratio A_s / A_c of a concrete rib: 0.002 (EN 1992-1-1
+/// 9.5.2(2), the 0.002 A_c floor of A_s,min).
+pub const MIN_REINFORCEMENT_RATIO: f64 = 0.002;
+/// Largest total reinforcement ratio A_s / A_c outside laps: 0.04 (EN 1992-1-1 9.5.2(3),
+/// recommended value).
+pub const MAX_REINFORCEMENT_RATIO: f64 = 0.04;
+
+impl Family {
+    /// The section of this family at `size`, m (outer diameter, outer width or depth).
+    ///
+    /// - CHS: t = D / (D/t) rounded up to whole mm; A = pi/4 (D^2 - d^2), I = pi/64 (D^4 -
+    ///   d^4) with d = D - 2t, the same both ways (EN 10210-2 Annex B).
+    /// - SHS: t = b / (b/t) rounded up to whole mm; corners rounded outside 1.5 t, inside
+    ///   1.0 t; A and I of the outer rounded square less the inner one (EN 10210-2 Annex
+    ///   B, the corner radii of its Table A.1 note).
+    /// - Welded box: flanges the full width, webs between them at the outer faces;
+    ///   t_f, t_w rounded up to whole mm; I = (b h^3 - (b - 2 t_w)(h - 2 t_f)^3) / 12 and
+    ///   likewise out of plane.
+    /// - Concrete and glulam rectangles: the gross section b h, I = b h^3 / 12 (concrete:
+    ///   uncracked, without the bars, as for analysis stiffness; A_s = rho b h in
+    ///   `steel_area_rebar`).
+    ///
+    /// Area, I and W grow with size along the family's grid. Degenerate: a size at or
+    /// below zero, or ratios `check` refuses, give meaningless (possibly NaN) numbers;
+    /// callers check the family first.
+    pub fn props(&self, size: f64) -> SectionProps {
+        use std::f64::consts::PI;
+        match *self {
+            Family::Chs { d_over_t } => {
+                let t = up_to_whole_mm(size / d_over_t);
+                let d = size - 2.0 * t;
+                let a = PI / 4.0 * (size * size - d * d);
+                let i = PI / 64.0 * (size.powi(4) - d.powi(4));
+                from_parts(size, size, size, Some(t), a, i, i, None)
+            }
+            Family::Shs { b_over_t } => {
+                let t = up_to_whole_mm(size / b_over_t);
+                let (outer_a, outer_i) = rounded_rectangle(size, size, 1.5 * t);
+                let inner = size - 2.0 * t;
+                let (inner_a, inner_i) = rounded_rectangle(inner, inner, t);
+                let i = outer_i - inner_i;
+                from_parts(size, size, size, Some(t), outer_a - inner_a, i, i, None)
+            }
+            Family::WeldedBox { width_over_depth, flange_ratio, web_ratio } => {
+                let h = size;
+                let b = width_over_depth * h;
+                let t_f = up_to_whole_mm(b / flange_ratio);
+                let t_w = up_to_whole_mm(h / web_ratio);
+                let (clear_h, clear_b) = (h - 2.0 * t_f, b - 2.0 * t_w);
+                let a = b * h - clear_b * clear_h;
+                let i = (b * h.powi(3) - clear_b * clear_h.powi(3)) / 12.0;
+                let i_out = (h * b.powi(3) - clear_h * clear_b.powi(3)) / 12.0;
+                from_parts(size, h, b, Some(t_f), a, i, i_out, None)
+            }
+            Family::ConcreteRect { width_over_depth, reinforcement_ratio, .. } => {
+                let (h, b) = (size, width_over_depth * size);
+                let a = b * h;
+                let (i, i_out) = (b * h.powi(3) / 12.0, h * b.powi(3) / 12.0);
+                from_parts(size, h, b, None, a, i, i_out, Some(reinforcement_ratio * a))
+            }
+            Family::GlulamRect { width_over_depth } => {
+                let (h, b) = (size, width_over_depth * size);
+                let (i, i_out) = (b * h.powi(3) / 12.0, h * b.powi(3) / 12.0);
+                from_parts(size, h, b, None, b * h, i, i_out, None)
+            }
+        }
+    }
+
+    /// The welded box's web thickness at `size`, m (`None` for other families): the flange
+    /// thickness is `SectionProps::thickness`.
+    pub fn web_thickness(&self, size: f64) -> Option<f64> {
+        match *self {
+            Family::WeldedBox { web_ratio, .. } => Some(up_to_whole_mm(size / web_ratio)),
+            _ => None,
+        }
+    }
+
+    /// The section in words, dimensions in mm: `CHS 323.9 x 10`, `SHS 300 x 300 x 10`,
+    /// `box 1600 x 960 (t 28/18)` (depth x width, flange/web thickness), `concrete 1500 x
+    /// 900` and `glulam 1200 x 240` (depth x width).
+    pub fn label(&self, size: f64) -> String {
+        let p = self.props(size);
+        let t = p.thickness.unwrap_or(0.0);
+        match self {
+            Family::Chs { .. } => format!("CHS {} x {}", mm(size), mm(t)),
+            Family::Shs { .. } => format!("SHS {} x {} x {}", mm(size), mm(size), mm(t)),
+            Family::WeldedBox { .. } => format!(
+                "box {} x {} (t {}/{})",
+                mm(p.depth),
+                mm(p.width),
+                mm(t),
+                mm(self.web_thickness(size).unwrap_or(0.0))
+            ),
+            Family::ConcreteRect { .. } => format!("concrete {} x {}", mm(p.depth), mm(p.width)),
+            Family::GlulamRect { .. } => format!("glulam {} x {}", mm(p.depth), mm(p.width)),
+        }
+    }
+
+    /// The family's name in words (`CHS`, `SHS`, `welded box`, `concrete rectangle`,
+    /// `glulam rectangle`).
+    pub fn name(&self) -> &'static str {
+        match self {
+            Family::Chs { .. } => "CHS",
+            Family::Shs { .. } => "SHS",
+            Family::WeldedBox { .. } => "welded box",
+            Family::ConcreteRect { .. } => "concrete rectangle",
+            Family::GlulamRect { .. } => "glulam rectangle",
+        }
+    }
+
+    /// Whether the family can be made of `material`: tubes and boxes of steel, the
+    /// concrete rectangle of concrete, the glulam rectangle of glulam.
+    pub fn suits(&self, material: &Material) -> bool {
+        matches!(
+            (self, material),
+            (Family::Chs { .. } | Family::Shs { .. } | Family::WeldedBox { .. }, Material::Steel(_))
+                | (Family::ConcreteRect { .. }, Material::Concrete(_))
+                | (Family::GlulamRect { .. }, Material::Glulam(_))
+        )
+    }
+
+    /// What is wrong with the family's ratios, in words a user can act on: every ratio
+    /// finite and above zero; walls that leave a hollow (CHS D/t above 2, SHS b/t above 4
+    /// so the inner corners fit, a box whose flanges and webs leave a clear space at the
+    /// smallest size tried); the concrete reinforcement ratio within [0.002, 0.04] (EN
+    /// 1992-1-1 9.5.2) and the cover below a quarter of the smallest depth tried. The
+    /// slenderness class depends on the grade: `resistance` checks it.
+    pub fn check(&self) -> Result<(), String> {
+        let (smallest, _, _) = self.sizes();
+        match *self {
+            Family::Chs { d_over_t } => ratio_above("CHS D/t", d_over_t, 2.0, "the wall must leave a hole"),
+            Family::Shs { b_over_t } => {
+                ratio_above("SHS b/t", b_over_t, 4.0, "the inner corners of radius t must fit")
+            }
+            Family::WeldedBox { width_over_depth, flange_ratio, web_ratio } => {
+                ratio_above("box width/depth", width_over_depth, 0.0, "a box has a width")?;
+                ratio_above("box width/flange thickness", flange_ratio, 0.0, "flanges have a thickness")?;
+                ratio_above("box depth/web thickness", web_ratio, 0.0, "webs have a thickness")?;
+                let p = self.props(smallest);
+                let t_w = self.web_thickness(smallest).unwrap_or(0.0);
+                let t_f = p.thickness.unwrap_or(0.0);
+                if p.width - 2.0 * t_w <= 0.0 || p.depth - 2.0 * t_f <= 0.0 {
+                    return Err(format!(
+                        "the box's plates fill it at the smallest depth tried, {} mm (flanges {} mm, webs {} mm): \
+                         raise the width/flange and depth/web ratios",
+                        mm(smallest),
+                        mm(t_f),
+                        mm(t_w)
+                    ));
+                }
+                Ok(())
+            }
+            Family::ConcreteRect { width_over_depth, reinforcement_ratio, cover } => {
+                ratio_above("concrete width/depth", width_over_depth, 0.0, "a rib has a width")?;
+                if !(MIN_REINFORCEMENT_RATIO..=MAX_REINFORCEMENT_RATIO).contains(&reinforcement_ratio) {
+                    return Err(format!(
+                        "the reinforcement ratio A_s/A_c must lie within {MIN_REINFORCEMENT_RATIO} and \
+                         {MAX_REINFORCEMENT_RATIO} (EN 1992-1-1 9.5.2; it is {reinforcement_ratio})"
+                    ));
+                }
+                ratio_above("cover to the bar centres", cover, 0.0, "bars sit inside the concrete")?;
+                if cover >= smallest / 4.0 {
+                    return Err(format!(
+                        "the cover to the bar centres, {} mm, must stay below a quarter of the smallest depth \
+                         tried ({} mm): below {} mm",
+                        mm(cover),
+                        mm(smallest),
+                        mm(smallest / 4.0)
+                    ));
+                }
+                Ok(())
+            }
+            Family::GlulamRect { width_over_depth } => {
+                ratio_above("glulam width/depth", width_over_depth, 0.0, "a rectangle has a width")
+            }
+        }
+    }
+
+    /// The sizes tried, m: (smallest, largest, step). Steps are common practice: tubes by
+    /// 10 mm, boxes and concrete by 50 mm, glulam by 40 mm (a lamination). Ranges (common
+    /// practice; hot-finished tubes from memory of EN 10210-2's range): CHS 100-2000 mm,
+    /// SHS 50-500 mm, welded box 300-4000 mm, concrete 300-4000 mm, glulam 200-2400 mm.
+    pub fn sizes(&self) -> (f64, f64, f64) {
+        match self {
+            Family::Chs { .. } => (0.10, 2.00, 0.010),
+            Family::Shs { .. } => (0.05, 0.50, 0.010),
+            Family::WeldedBox { .. } => (0.30, 4.00, 0.050),
+            Family::ConcreteRect { .. } => (0.30, 4.00, 0.050),
+            Family::GlulamRect { .. } => (0.20, 2.40, 0.040),
+        }
+    }
+
+    /// Every size of the grid of `sizes`, smallest first, m (each computed from its index,
+    /// so no rounding drift accumulates).
+    pub fn size_grid(&self) -> Vec<f64> {
+        let (smallest, largest, step) = self.sizes();
+        let count = ((largest - smallest) / step).round() as usize;
+        (0..=count).map(|k| smallest + k as f64 * step).collect()
+    }
+
+    /// The family presets: (key, family). Keys are ours: `chs` (D/t 40), `shs` (b/t 25),
+    /// `box` (width 0.6 of the depth, flange b/t_f 30, web h/t_w 30), `concrete` (square,
+    /// 2 % reinforcement, 60 mm to the bar centres) and `glulam` (width 0.4 of the depth).
+    /// The steel ratios stay within class 3 in compression for S235 to S460 (EN 1993-1-1
+    /// Table 5.2: CHS D/t <= 90 eps^2 = 46 for S460; SHS c/t = b/t - 3 = 22 and the box's
+    /// c/t below 42 eps = 30.0 for S460).
+    pub fn family_presets() -> Vec<(&'static str, Family)> {
+        vec![
+            ("chs", Family::Chs { d_over_t: 40.0 }),
+            ("shs", Family::Shs { b_over_t: 25.0 }),
+            ("box", Family::WeldedBox { width_over_depth: 0.6, flange_ratio: 30.0, web_ratio: 30.0 }),
+            (
+                "concrete",
+                Family::ConcreteRect { width_over_depth: 1.0, reinforcement_ratio: 0.02, cover: 0.06 },
+            ),
+            ("glulam", Family::GlulamRect { width_over_depth: 0.4 }),
+        ]
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::sizing::materials::material_preset;
+
+    #[test]
+    fn presets_are_valid_and_their_props_grow_along_the_grid() {
+        for (key, family) in Family::family_presets() {
+            assert_eq!(family.check(), Ok(()), "{key}");
+            let grid = family.size_grid();
+            let (smallest, largest, _) = family.sizes();
+            assert!(
+                (grid[0] - smallest).abs() < 1e-12 && (grid[grid.len() - 1] - largest).abs() < 1e-9,
+                "{key}"
+            );
+            for pair in grid.windows(2) {
+                let (a, b) = (family.props(pair[0]), family.props(pair[1]));
+                for (what, x, y) in
+                    [("A", a.a, b.a), ("I", a.i, b.i), ("I_out", a.i_out, b.i_out), ("W", a.w_el, b.w_el)]
+                {
+                    assert!(y > x, "{key}: {what} grows from {} to {}", pair[0], pair[1]);
+                }
+            }
+        }
+    }
+
+    #[test]
+    fn steel_walls_round_up_to_whole_mm() {
+        // 508 / 29 = 17.52 mm -> 18 mm
+        let p = Family::Chs { d_over_t: 29.0 }.props(0.508);
+        assert_eq!(p.thickness, Some(0.018));
+        assert_eq!(Family::Chs { d_over_t: 29.0 }.label(0.508), "CHS 508 x 18");
+    }
+
+    #[test]
+    fn concrete_props_carry_the_bars() {
+        let family = Family::ConcreteRect { width_over_depth: 0.5, reinforcement_ratio: 0.01, cover: 0.05 };
+        let p = family.props(1.2);
+        // b = 0.6 m: A_c = 0.72 m2, A_s = 0.0072 m2, I = 0.6 x 1.2^3 / 12 = 0.0864 m4
+        assert!((p.a - 0.72).abs() < 1e-12);
+        assert!((p.steel_area_rebar.unwrap_or(0.0) - 0.0072).abs() < 1e-12);
+        assert!((p.i - 0.0864).abs() < 1e-12);
+        assert_eq!(family.label(1.2), "concrete 1200 x 600");
+    }
+
+    #[test]
+    fn check_refuses_unusable_ratios() {
+        let err = Family::ConcreteRect { width_over_depth: 1.0, reinforcement_ratio: 0.05, cover: 0.05 }
+            .check()
+            .expect_err("too much steel");
+        assert!(err.contains("0.04") && err.contains("9.5.2"), "{err}");
+        let err = Family::ConcreteRect { width_over_depth: 1.0, reinforcement_ratio: 0.01, cover: 0.08 }
+            .check()
+            .expect_err("cover too large for 300 mm");
+        assert!(err.contains("below 75 mm"), "{err}");
+        assert!(Family::Chs { d_over_t: 2.0 }.check().is_err());
+        assert!(Family::Shs { b_over_t: f64::NAN }.check().is_err());
+        let err = Family::WeldedBox { width_over_depth: 0.2, flange_ratio: 30.0, web_ratio: 5.0 }
+            .check()
+            .expect_err("webs fill the box");
+        assert!(err.contains("plates fill it"), "{err}");
+    }
+
+    #[test]
+    fn families_suit_their_materials() {
+        let steel = material_preset("s355").expect("preset");
+        let concrete = material_preset("c40-50").expect("preset");
+        let glulam = material_preset("gl24h").expect("preset");
+        for (key, family) in Family::family_presets() {
+            let suits: Vec<bool> = [&steel, &concrete, &glulam].iter().map(|m| family.suits(m)).collect();
+            assert_eq!(suits.iter().filter(|s| **s).count(), 1, "{key} suits exactly one material");
+        }
+        assert!(Family::GlulamRect { width_over_depth: 0.3 }.suits(&glulam));
+        assert!(!Family::Chs { d_over_t: 30.0 }.suits(&concrete));
+    }
+
+    #[test]
+    fn serde_tags_the_kind() {
+        let family = Family::WeldedBox { width_over_depth: 0.6, flange_ratio: 30.0, web_ratio: 30.0 };
+        let json = serde_json::to_string(&family).expect("serialises");
+        assert!(json.starts_with(r#"{"kind":"welded_box""#), "{json}");
+        assert_eq!(serde_json::from_str::<Family>(&json).expect("reads back"), family);
+    }
 }
