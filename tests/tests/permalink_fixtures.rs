@@ -313,8 +313,45 @@ fn current_fixture_designs() -> Vec<FixtureDesign> {
     actions.traffic.combinations.remove(1);
     actions.traffic.combinations[0].temperature = 1.2;
     let at = |name, design_format, design| FixtureDesign { name, design_format, design };
-    vec![at("v2-traffic-hl93", 3, hl93), at("v2-traffic-vehicle", 3, vehicle), at("v2-actions", 4, actions)]
+    vec![
+        at("v2-traffic-hl93", 3, hl93),
+        at("v2-traffic-vehicle", 3, vehicle),
+        at("v2-actions", 4, actions),
+        at("v2-sizing", 5, sizing_fixture()),
+    ]
 }
+
+/// Design format 5 (link section 4): a concrete rib, glulam bracing, posts as typed with
+/// their own buckling length factor, the deck weighed from its cross-section, the rib's
+/// out-of-plane length, rates and ground of its own.
+fn sizing_fixture() -> Design {
+    use springline_statics::arch::sizing::{DeckWeight, GroupSizing};
+    use springline_statics::sizing::materials::material_preset;
+    use springline_statics::sizing::sections::Family;
+    let mut d = Design::demo();
+    d.name = "concrete rib, glulam bracing, deck weighed from its cross-section (invented fixture)".into();
+    let concrete = material_preset("c50-60").expect("preset");
+    let glulam = material_preset("gl28h").expect("preset");
+    let s = &mut d.sizing;
+    s.rib = GroupSizing::sized(
+        Family::ConcreteRect { width_over_depth: 0.8, reinforcement_ratio: 0.015, cover: 0.07 },
+        concrete,
+    );
+    s.bracing = GroupSizing::sized(Family::GlulamRect { width_over_depth: 0.5 }, glulam);
+    s.posts.family = None;
+    s.posts.length_factor = 0.85;
+    s.rib_out_of_plane = Some(SIZING_OUT_OF_PLANE);
+    s.deck_section.weight = DeckWeight::CrossSection;
+    s.deck_section.slab_thickness = 0.22;
+    s.deck_section.other_dead_load = 1.4;
+    s.rates.steel_per_t = 120.0;
+    s.foundation.allowable_bearing = SIZING_BEARING;
+    d
+}
+
+/// The sizing fixture's rib out-of-plane length, m, and allowable bearing, kN/m2.
+const SIZING_OUT_OF_PLANE: f64 = 12.5;
+const SIZING_BEARING: f64 = 800.0;
 
 /// The traffic of fixture `v2-traffic-hl93` (and its design file `v3-traffic-hl93`):
 /// carriageway, m, and rib positions from the deck centreline, m.
@@ -425,4 +462,35 @@ fn the_actions_fixture_keeps_its_actions() {
         assert_eq!(d.traffic.combinations[2].braking, 1.35);
     }
     assert_eq!(link, file);
+}
+
+/// The sizing fixture (design format 5, link section 4) reads back with its families,
+/// materials, factors, deck weight, rates and ground, from its link and its design file;
+/// fixtures made before the sizing keep every group as typed.
+#[test]
+fn the_sizing_fixture_keeps_its_sizing() {
+    use springline_statics::arch::sizing::{DeckWeight, SizingDesign};
+    let link = permalink::decode(&read(&folder().join("v2-sizing.link"))).expect("opens");
+    let file = read_design_file(&designs_folder().join("v5-sizing.json"));
+    for d in [&link, &file] {
+        let s = &d.sizing;
+        assert_eq!(s.rib.material.name(), "C50/60");
+        assert!(matches!(
+            s.rib.family,
+            Some(springline_statics::sizing::sections::Family::ConcreteRect { .. })
+        ));
+        assert_eq!(s.bracing.material.name(), "GL28h");
+        assert!(s.posts.family.is_none());
+        assert_eq!(s.posts.length_factor, 0.85);
+        assert_eq!(s.rib_out_of_plane, Some(SIZING_OUT_OF_PLANE));
+        assert_eq!(s.deck_section.weight, DeckWeight::CrossSection);
+        assert_eq!(s.foundation.allowable_bearing, SIZING_BEARING);
+        // the deck dead load is the cross-section's: 0.22 m x 25 kN/m3 of slab, 0.012 m2 x
+        // 77 kN/m3 of cross-girder every 4 m, and 1.4 kN/m2 other load
+        let expected = 0.22 * 25.0 + 0.012 * 77.0 / 4.0 + 1.4;
+        assert!((d.deck_dead_load() - expected).abs() < 1e-12, "{}", d.deck_dead_load());
+    }
+    assert_eq!(link, file);
+    let older = permalink::decode(&read(&folder().join("v2-actions.link"))).expect("opens");
+    assert_eq!(older.sizing, SizingDesign::as_typed(&older.groups));
 }

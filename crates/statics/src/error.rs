@@ -156,6 +156,15 @@ pub enum Field {
     SpringingMovement,
     /// The live-load deflection limit.
     DeflectionLimit,
+    /// How a member group is sized (family, material, buckling length factor; the rib's
+    /// out-of-plane length).
+    Sizing(GroupName),
+    /// The deck's cross-section (slab, cross-girders, which deck weight counts).
+    DeckCrossSection,
+    /// The unit rates of the cost index.
+    UnitRates,
+    /// The ground and thrust-block inputs.
+    Foundation,
 }
 
 impl Field {
@@ -195,6 +204,10 @@ impl Field {
             Field::Temperature => "actions.temperature",
             Field::SpringingMovement => "actions.springing",
             Field::DeflectionLimit => "actions.deflection_limit",
+            Field::Sizing(g) => return format!("sizing.{}", g.key()),
+            Field::DeckCrossSection => "sizing.deck_section",
+            Field::UnitRates => "sizing.rates",
+            Field::Foundation => "sizing.foundation",
         };
         path.to_string()
     }
@@ -237,6 +250,10 @@ impl Field {
             Field::Temperature => "temperature",
             Field::SpringingMovement => "springing movement",
             Field::DeflectionLimit => "deflection limit",
+            Field::Sizing(g) => return format!("{} sizing", g.label()),
+            Field::DeckCrossSection => "deck cross-section",
+            Field::UnitRates => "unit rates",
+            Field::Foundation => "foundations",
         };
         label.to_string()
     }

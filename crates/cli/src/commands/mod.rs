@@ -6,6 +6,7 @@ pub mod demo;
 pub mod influence;
 pub mod link;
 pub mod model;
+pub mod size;
 pub mod solve;
 
 use crate::failure::Failure;
@@ -24,6 +25,7 @@ pub enum Command {
     Model(model::Args),
     Solve(solve::Args),
     Influence(influence::Args),
+    Size(size::Args),
 }
 
 impl Command {
@@ -36,6 +38,7 @@ impl Command {
             Command::Model(args) => model::run(args),
             Command::Solve(args) => solve::run(args),
             Command::Influence(args) => influence::run(args),
+            Command::Size(args) => size::run(args),
         }
     }
 }

@@ -11,6 +11,7 @@
 //! area, and self-weights are `ribs` times unit weight times area.
 
 use crate::arch::actions::ActionsDesign;
+use crate::arch::sizing::{DeckWeight, SizingDesign};
 use crate::error::{Field, GroupName, Problem, SectionProperty};
 use crate::tolerance::{GROUND_TOLERANCE, SECTION_BOUND_ROUNDING};
 use crate::traffic::models::ModelFamily;
@@ -18,7 +19,7 @@ use crate::traffic::TrafficDesign;
 use serde::{Deserialize, Serialize};
 
 /// The version of the design format written by this engine.
-pub const DESIGN_VERSION: u32 = 4;
+pub const DESIGN_VERSION: u32 = 5;
 /// Fewest arch panels accepted (a rib needs at least one interior node).
 pub const MIN_PANELS: usize = 2;
 /// Most arch panels accepted (beyond this the panels are shorter than any real post
@@ -102,6 +103,9 @@ pub struct Design {
     /// The other actions: temperature, springing movement, deflection limit (design
     /// format 4).
     pub actions: ActionsDesign,
+    /// Sizing: each group's family and material, the deck's cross-section, unit rates
+    /// and foundation inputs (design format 5).
+    pub sizing: SizingDesign,
 }
 
 /// A point of the ground profile, m.
@@ -305,6 +309,7 @@ impl Design {
             // footways of 1.75 m each side of a 7.5 m carriageway
             traffic: TrafficDesign::preset(ModelFamily::EnLm1, 7.5),
             actions: ActionsDesign::preset(ModelFamily::EnLm1),
+            sizing: SizingDesign::steel(),
         }
     }
 
@@ -355,9 +360,21 @@ impl Design {
     }
 
     /// Deck line load over the full width, kN/m (positive down): (dead + surfacing) times
-    /// width plus the deck girders' own weight.
+    /// width plus the deck girders' own weight; the dead load is
+    /// [`Design::deck_dead_load`].
     pub fn deck_line_load(&self) -> f64 {
-        (self.deck.dead_load + self.deck.surfacing) * self.deck.width + self.weight_per_m(&self.groups.deck)
+        (self.deck_dead_load() + self.deck.surfacing) * self.deck.width + self.weight_per_m(&self.groups.deck)
+    }
+
+    /// The deck dead load that counts, kN/m2: the typed `deck.dead_load`, or with the
+    /// sizing's deck weight from the cross-section, its slab and cross-girders plus its
+    /// other dead load (`arch::sizing::DeckWeight`), so nothing is counted twice.
+    pub fn deck_dead_load(&self) -> f64 {
+        let s = &self.sizing.deck_section;
+        match s.weight {
+            DeckWeight::TypedLoad => self.deck.dead_load,
+            DeckWeight::CrossSection => s.structure_weight() + s.other_dead_load,
+        }
     }
 
     /// Self-weight per metre of a member group over all rib lines, kN/m.
@@ -781,6 +798,7 @@ pub(crate) fn check_inputs(d: &Design, problems: &mut Vec<Problem>, warnings: &m
     }
     problems.extend(d.traffic.problems(d.deck.width, d.deck.ribs));
     problems.extend(d.actions.problems());
+    problems.extend(d.sizing.problems());
 }
 
 /// The deck axis against the ground between the abutment seats: at each seat the ground

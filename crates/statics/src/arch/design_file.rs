@@ -12,6 +12,7 @@
 //! | 2 | `deck.abutment_height` (m) added; a version-1 design has 10 m (`DEFAULT_ABUTMENT_HEIGHT`) |
 //! | 3 | `traffic` added (carriageway, rib positions, load model, combinations); a version-2 design gets EN 1991-2 Load Model 1 over its whole deck width (`TrafficDesign::for_deck_width`) |
 //! | 4 | `actions` added (temperature, springing movement, deflection limit) and the combinations' `temperature`, `settlement`, `braking` factors; a version-3 design gets its load model family's presets (`ActionsDesign::preset`, `Combination::add_action_factors`, EN's gr2 added) |
+//! | 5 | `sizing` added (each group's family and material or as typed, the deck's cross-section, unit rates, foundation inputs); a version-4 design keeps every group as typed, checked as the material its E suggests (`SizingDesign::as_typed`), and counts its typed deck dead load |
 //!
 //! # Reading ([`read_design_json`])
 //!
@@ -36,7 +37,8 @@
 //!    must keep reading. The link side has its own rule (`link::sections`).
 
 use crate::arch::actions::ActionsDesign;
-use crate::arch::design::{Design, DEFAULT_ABUTMENT_HEIGHT, DESIGN_VERSION};
+use crate::arch::design::{Design, MemberGroups, DEFAULT_ABUTMENT_HEIGHT, DESIGN_VERSION};
+use crate::arch::sizing::SizingDesign;
 use crate::error::{DesignFileError, StaticsError, VersionRange};
 use crate::traffic::combination::Combination;
 use crate::traffic::TrafficDesign;
@@ -56,7 +58,7 @@ type Step = fn(&mut Map<String, Value>);
 
 /// The migration steps, oldest first: `STEPS[i]` takes version `OLDEST_DESIGN_VERSION + i`
 /// to the next.
-const STEPS: &[Step] = &[version_1_to_2, version_2_to_3, version_3_to_4];
+const STEPS: &[Step] = &[version_1_to_2, version_2_to_3, version_3_to_4, version_4_to_5];
 
 // One step per version: a new DESIGN_VERSION without its step stops the build here.
 const _: () = assert!(OLDEST_DESIGN_VERSION + STEPS.len() as u32 == DESIGN_VERSION);
@@ -85,6 +87,20 @@ fn version_3_to_4(design: &mut Map<String, Value>) {
         if let Ok(actions) = serde_json::to_value(ActionsDesign::preset(family)) {
             design.insert("actions".into(), actions);
         }
+    }
+}
+
+/// Version 4 to 5: the sizing, every group kept as typed and checked as the material its
+/// typed E suggests (`SizingDesign::as_typed`), the deck weight as typed. Groups that do
+/// not read are left for the final read to report.
+fn version_4_to_5(design: &mut Map<String, Value>) {
+    if design.contains_key("sizing") {
+        return;
+    }
+    let Some(groups) = design.get("groups").cloned() else { return };
+    let Ok(groups) = serde_json::from_value::<MemberGroups>(groups) else { return };
+    if let Ok(sizing) = serde_json::to_value(SizingDesign::as_typed(&groups)) {
+        design.insert("sizing".into(), sizing);
     }
 }
 
@@ -375,34 +391,48 @@ mod tests {
         assert!(message.contains("not a design of format 1") && message.contains("deck"), "{message}");
     }
 
-    /// The field a hypothetical version 5 adds, and its default (test only).
-    const FIELD_OF_VERSION_5: &str = "field_of_version_5";
-    const DEFAULT_OF_VERSION_5: f64 = 0.25;
+    /// The field a hypothetical version 6 adds, and its default (test only).
+    const FIELD_OF_VERSION_6: &str = "field_of_version_6";
+    const DEFAULT_OF_VERSION_6: f64 = 0.25;
 
-    fn version_4_to_5(design: &mut Map<String, Value>) {
-        design.entry(FIELD_OF_VERSION_5).or_insert(Value::from(DEFAULT_OF_VERSION_5));
+    fn version_5_to_6(design: &mut Map<String, Value>) {
+        design.entry(FIELD_OF_VERSION_6).or_insert(Value::from(DEFAULT_OF_VERSION_6));
     }
 
-    /// A format-3 file opens with its load model family's actions and factors, and
-    /// EN's gr2 combination added.
+    /// The demo as a version-4 file: no sizing.
+    fn demo_v4_text() -> String {
+        let mut value = serde_json::to_value(Design::demo()).expect("serialises");
+        value["version"] = Value::from(4);
+        value.as_object_mut().expect("design object").remove("sizing");
+        serde_json::to_string_pretty(&value).expect("serialises")
+    }
+
+    /// A format-4 file opens with every group as typed, checked as the material its E
+    /// suggests (the demo's steel E of 210 GPa: S355), and its typed deck dead load.
     #[test]
-    fn version_3_files_get_the_actions_of_their_load_model() {
-        let d = read_design_json(&demo_v3_text()).expect("reads");
-        assert_eq!(d, Design::demo(), "the demo is made of the EN presets");
+    fn version_4_files_keep_their_typed_sections() {
+        let d = read_design_json(&demo_v4_text()).expect("reads");
+        let demo = Design::demo();
+        assert_eq!(d.sizing, SizingDesign::as_typed(&demo.groups));
+        assert!(d.sizing.rib.family.is_none() && d.sizing.rib.material.name() == "S355");
+        assert_eq!(d.deck_dead_load(), demo.deck.dead_load);
+        assert_eq!(Design { sizing: demo.sizing.clone(), ..d }, demo);
     }
 
     /// How a later version adds a field without breaking older files: one more step.
-    /// Files of versions 1 to 4 reach version 5 through the whole chain with the
-    /// defaults of every step; a version-5 file keeps its value; and today's reader,
-    /// which knows no version 5, refuses such a file as made by a newer version.
+    /// Files of versions 1 to 5 reach version 6 through the whole chain with the
+    /// defaults of every step; a version-6 file keeps its value; and today's reader,
+    /// which knows no version 6, refuses such a file as made by a newer version.
     #[test]
     fn a_later_version_adds_a_field_by_one_more_step() {
-        assert_eq!(DESIGN_VERSION, 4, "model the version after today's here");
-        let steps: &[Step] = &[version_1_to_2, version_2_to_3, version_3_to_4, version_4_to_5];
+        assert_eq!(DESIGN_VERSION, 5, "model the version after today's here");
+        let steps: &[Step] =
+            &[version_1_to_2, version_2_to_3, version_3_to_4, version_4_to_5, version_5_to_6];
         let v1 = demo_v1_text();
         let v2 = demo_v2_text();
         let v3 = demo_v3_text();
-        let v4 = write_design_json(&Design::demo());
+        let v4 = demo_v4_text();
+        let v5 = write_design_json(&Design::demo());
         let demo_traffic = serde_json::to_value(Design::demo().traffic).expect("serialises");
         let default_traffic = serde_json::to_value(TrafficDesign::for_deck_width(11.0)).expect("serialises");
         for (text, declared, traffic) in [
@@ -410,25 +440,27 @@ mod tests {
             (&v2, 2, &default_traffic),
             (&v3, 3, &demo_traffic),
             (&v4, 4, &demo_traffic),
+            (&v5, 5, &demo_traffic),
         ] {
             let (version, value) = updated_json(text, steps).expect("reads");
             assert_eq!(version, declared);
-            assert_eq!(value["version"], Value::from(5));
+            assert_eq!(value["version"], Value::from(6));
             assert_eq!(value["deck"]["abutment_height"], Value::from(DEFAULT_ABUTMENT_HEIGHT));
             assert_eq!(&value["traffic"], traffic, "version {declared}");
             assert!(value["actions"]["temperature"]["alpha"].is_number(), "version {declared}");
-            assert_eq!(value[FIELD_OF_VERSION_5], Value::from(DEFAULT_OF_VERSION_5));
+            assert!(value["sizing"]["rib"]["material"]["fy"].is_number(), "version {declared}");
+            assert_eq!(value[FIELD_OF_VERSION_6], Value::from(DEFAULT_OF_VERSION_6));
         }
-        let mut v5: Value = serde_json::from_str(&v4).expect("JSON");
-        v5["version"] = Value::from(5);
-        v5[FIELD_OF_VERSION_5] = Value::from(0.5);
-        let v5 = serde_json::to_string_pretty(&v5).expect("serialises");
-        let (_, value) = updated_json(&v5, steps).expect("reads");
-        assert_eq!(value[FIELD_OF_VERSION_5], Value::from(0.5));
+        let mut v6: Value = serde_json::from_str(&v5).expect("JSON");
+        v6["version"] = Value::from(6);
+        v6[FIELD_OF_VERSION_6] = Value::from(0.5);
+        let v6 = serde_json::to_string_pretty(&v6).expect("serialises");
+        let (_, value) = updated_json(&v6, steps).expect("reads");
+        assert_eq!(value[FIELD_OF_VERSION_6], Value::from(0.5));
         // today's reader
-        let message = read_design_json(&v5).map_err(|e| e.to_string()).expect_err("refused");
+        let message = read_design_json(&v6).map_err(|e| e.to_string()).expect_err("refused");
         assert!(
-            message.contains("made by a newer version of Springline (format 5; this one reads 1 to 4)"),
+            message.contains("made by a newer version of Springline (format 6; this one reads 1 to 5)"),
             "{message}"
         );
     }

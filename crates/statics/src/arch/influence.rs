@@ -16,7 +16,8 @@ use crate::arch::generate::{model_of, Generated, MemberRole, ModelKind};
 use crate::arch::summary::SpringingForce;
 use crate::arch::validate::ValidDesign;
 use crate::error::{Location, Problem, StaticsError};
-use crate::frame::influence::{influence_lines, InfluenceLines, MemberEnd, Quantity, Stepping};
+pub use crate::frame::influence::MemberEnd;
+use crate::frame::influence::{influence_lines, InfluenceLines, Quantity, Stepping};
 use crate::frame::model::{Dof, MemberKind};
 
 /// Left or right springing.

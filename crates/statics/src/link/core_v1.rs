@@ -11,6 +11,7 @@ use crate::arch::design::{
     Bracing, Crown, Deck, Design, FormSettings, GroundPoint, MemberGroups, RibSystem, Section,
     DEFAULT_ABUTMENT_HEIGHT,
 };
+use crate::arch::sizing::SizingDesign;
 use crate::error::LinkError;
 use crate::traffic::models::ModelFamily;
 use crate::traffic::TrafficDesign;
@@ -122,6 +123,8 @@ pub(super) fn from_design(d: &Design) -> Wire {
         traffic: _,
         // the other actions travel in the actions section (design format 4)
         actions: _,
+        // the sizing travels in the sizing section (design format 5)
+        sizing: _,
     } = d;
     // the abutment height travels in the abutment section (design format 2)
     let Deck { level, left_seat_x, right_seat_x, width, ribs, dead_load, surfacing, abutment_height: _ } =
@@ -165,6 +168,13 @@ pub(super) fn from_design(d: &Design) -> Wire {
 /// them. The version is the core's, unchanged: the caller checks and updates it.
 pub(super) fn into_design(w: Wire) -> Result<Design, LinkError> {
     let [rib, deck_group, posts, piers, bracing_group] = &w.groups;
+    let groups = MemberGroups {
+        rib: back(rib),
+        deck: back(deck_group),
+        posts: back(posts),
+        piers: back(piers),
+        bracing: back(bracing_group),
+    };
     Ok(Design {
         version: w.design_version,
         name: w.name,
@@ -199,13 +209,8 @@ pub(super) fn into_design(w: Wire) -> Result<Design, LinkError> {
         },
         approach_piers_left: narrow(w.approach_piers_left, "number of left approach piers")?,
         approach_piers_right: narrow(w.approach_piers_right, "number of right approach piers")?,
-        groups: MemberGroups {
-            rib: back(rib),
-            deck: back(deck_group),
-            posts: back(posts),
-            piers: back(piers),
-            bracing: back(bracing_group),
-        },
+        sizing: SizingDesign::as_typed(&groups),
+        groups,
         form: FormSettings {
             tolerance: w.form_tolerance,
             max_iterations: narrow(w.form_max_iterations, "form-finding iteration limit")?,

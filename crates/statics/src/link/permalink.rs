@@ -397,7 +397,8 @@ fn inflate(packed: &[u8]) -> Result<Vec<u8>, LinkError> {
 mod tests {
     use super::*;
     use crate::arch::design::{Bracing, Crown, GroundPoint, RibSystem, DEFAULT_ABUTMENT_HEIGHT};
-    use crate::link::sections::{TAG_ABUTMENT, TAG_ACTIONS, TAG_RESERVED_FOR_TESTS, TAG_TRAFFIC};
+    use crate::arch::sizing::SizingDesign;
+    use crate::link::sections::{TAG_ABUTMENT, TAG_ACTIONS, TAG_RESERVED_FOR_TESTS, TAG_SIZING, TAG_TRAFFIC};
     use crate::traffic::models::{LoadModel, ModelFamily};
     use crate::traffic::TrafficDesign;
     use proptest::prelude::*;
@@ -427,8 +428,14 @@ mod tests {
 
     /// A design as a link without the traffic section opens it: the traffic of design
     /// format 2 and earlier, EN 1991-2 Load Model 1 over the whole deck width.
-    fn without_traffic(design: &Design) -> Design {
-        Design { traffic: TrafficDesign::for_deck_width(design.deck.width), ..design.clone() }
+    /// `design` as a link with the core alone opens: the traffic's default for its deck
+    /// width and every group as typed (the sections that carry them are missing).
+    fn with_core_defaults(design: &Design) -> Design {
+        Design {
+            traffic: TrafficDesign::for_deck_width(design.deck.width),
+            sizing: SizingDesign::as_typed(&design.groups),
+            ..design.clone()
+        }
     }
 
     /// The demo with an HL-93 traffic on a 9.0 m carriageway over ribs placed by hand.
@@ -486,10 +493,10 @@ mod tests {
         assert_eq!(opened.version, DESIGN_VERSION);
         assert_eq!(opened.deck.abutment_height, DEFAULT_ABUTMENT_HEIGHT);
         assert_eq!(opened.traffic, TrafficDesign::for_deck_width(11.0));
-        assert_eq!(opened, without_traffic(&demo));
+        assert_eq!(opened, with_core_defaults(&demo));
         let mut other = demo_with_hl93();
         other.deck.abutment_height = 4.0;
-        assert_eq!(decode(&s1_link(&other)), Ok(without_traffic(&demo)));
+        assert_eq!(decode(&s1_link(&other)), Ok(with_core_defaults(&demo)));
     }
 
     /// An `s2` link written before the traffic section (design format 2) opens with the
@@ -507,7 +514,7 @@ mod tests {
         assert_eq!(opened.version, DESIGN_VERSION);
         assert_eq!(opened.deck.abutment_height, 6.5);
         assert_eq!(opened.traffic.carriageway_width, 12.0);
-        assert_eq!(opened, without_traffic(&d));
+        assert_eq!(opened, with_core_defaults(&d));
     }
 
     #[test]
@@ -731,7 +738,7 @@ mod tests {
 
     /// The sections the later version knows: every shipped one, then its new one.
     fn later_kinds() -> Vec<SectionKind<Later>> {
-        assert_eq!(SECTIONS.len(), 3, "list every shipped section here");
+        assert_eq!(SECTIONS.len(), 4, "list every shipped section here");
         vec![
             SectionKind {
                 tag: TAG_ABUTMENT,
@@ -747,6 +754,11 @@ mod tests {
                 tag: TAG_ACTIONS,
                 write: shipped_write::<TAG_ACTIONS>,
                 read: shipped_read::<TAG_ACTIONS>,
+            },
+            SectionKind {
+                tag: TAG_SIZING,
+                write: shipped_write::<TAG_SIZING>,
+                read: shipped_read::<TAG_SIZING>,
             },
             SectionKind { tag: TAG_RESERVED_FOR_TESTS, write: later_write, read: later_read },
         ]
@@ -784,7 +796,7 @@ mod tests {
         let later_demo = Design { version: LATER_VERSION, ..demo.clone() };
         // old links, later reader: defaults (an s1 link lacks the traffic too)
         for (old, design) in
-            [(encode(&demo), later_demo.clone()), (s1_link(&demo), without_traffic(&later_demo))]
+            [(encode(&demo), later_demo.clone()), (s1_link(&demo), with_core_defaults(&later_demo))]
         {
             assert_eq!(later_decode(&old), Ok(Later { design, extra: LATER_DEFAULT }));
         }

@@ -6,6 +6,7 @@
 //! | 1 | 2 | the abutment height |
 //! | 2 | 3 | the traffic: carriageway, rib positions, load model, combinations |
 //! | 3 | 4 | the other actions (temperature, springing movement, deflection limit) and the combinations' factors of them |
+//! | 4 | 5 | the sizing: each group's family, material and buckling length factor, the rib's out-of-plane length, the deck's cross-section, unit rates, foundation inputs |
 //!
 //! A section on the wire is its tag (a varint) and its body: the postcard bytes of the
 //! section's struct, length-prefixed. Each section struct is FROZEN once shipped, like the
@@ -64,6 +65,8 @@ pub(super) const TAG_ABUTMENT: u32 = 1;
 pub(super) const TAG_TRAFFIC: u32 = 2;
 /// The other actions (design format 4).
 pub(super) const TAG_ACTIONS: u32 = 3;
+/// The sizing (design format 5).
+pub(super) const TAG_SIZING: u32 = 4;
 /// A tag no shipped section has: the tests use it for a section of a "later version".
 #[cfg(test)]
 pub(super) const TAG_RESERVED_FOR_TESTS: u32 = 9_999;
@@ -73,6 +76,7 @@ pub(super) const SECTIONS: &[SectionKind<Design>] = &[
     SectionKind { tag: TAG_ABUTMENT, write: abutment::write, read: abutment::read },
     SectionKind { tag: TAG_TRAFFIC, write: traffic::write, read: traffic::read },
     SectionKind { tag: TAG_ACTIONS, write: actions::write, read: actions::read },
+    SectionKind { tag: TAG_SIZING, write: sizing::write, read: sizing::read },
 ];
 
 /// The sections of a target, one per kind, in the order of `kinds` (tags ascending).
@@ -595,6 +599,266 @@ mod actions {
     }
 }
 
+/// Section 4 (design format 5): the sizing. A link without it opens with every group as
+/// typed (`SizingDesign::as_typed`, set by the core). Materials travel whole (a preset's
+/// name is text like any other: a user may have edited its values).
+mod sizing {
+    use super::*;
+    use crate::arch::sizing::{
+        DeckCrossSection, DeckWeight, FoundationDesign, GroupSizing, SizingDesign, UnitRates,
+    };
+    use crate::sizing::materials::{Concrete, Glulam, Material, Steel};
+    use crate::sizing::sections::Family;
+
+    /// FROZEN: a material.
+    #[derive(Serialize, Deserialize)]
+    enum MaterialV1 {
+        /// name, fy, e, unit weight, gamma_M0, gamma_M1
+        Steel(String, f64, f64, f64, f64, f64),
+        /// name, fck, E_cm, unit weight, gamma_C, alpha_cc, rebar f_yk, gamma_S
+        Concrete(String, f64, f64, f64, f64, f64, f64, f64),
+        /// name, f_m,k, f_t,0,k, f_c,0,k, E_0,mean, E_0,05, unit weight, k_mod, gamma_M
+        Glulam(String, f64, f64, f64, f64, f64, f64, f64, f64),
+    }
+
+    /// FROZEN: a section family.
+    #[derive(Serialize, Deserialize)]
+    enum FamilyV1 {
+        Chs(f64),
+        Shs(f64),
+        WeldedBox(f64, f64, f64),
+        ConcreteRect(f64, f64, f64),
+        GlulamRect(f64),
+    }
+
+    /// FROZEN: one group.
+    #[derive(Serialize, Deserialize)]
+    struct GroupV1 {
+        family: Option<FamilyV1>,
+        material: MaterialV1,
+        length_factor: f64,
+    }
+
+    /// FROZEN: links hold this layout. `SizingDesign`.
+    #[derive(Serialize, Deserialize)]
+    struct SizingV1 {
+        /// rib, deck, posts, piers, bracing
+        groups: Vec<GroupV1>,
+        rib_out_of_plane: Option<f64>,
+        /// the deck weight from the cross-section (else the typed load)
+        cross_section_weight: bool,
+        /// slab thickness, slab unit weight, cross-girder spacing, area, unit weight,
+        /// other dead load
+        deck: (f64, f64, f64, f64, f64, f64),
+        /// steel per t, concrete per m3, glulam per m3, foundation per m3
+        rates: (f64, f64, f64, f64),
+        /// allowable bearing, least thickness
+        foundation: (f64, f64),
+    }
+
+    fn material_out(m: &Material) -> MaterialV1 {
+        match m.clone() {
+            Material::Steel(Steel { name, fy, e, unit_weight, gamma_m0, gamma_m1 }) => {
+                MaterialV1::Steel(name, fy, e, unit_weight, gamma_m0, gamma_m1)
+            }
+            Material::Concrete(Concrete {
+                name,
+                fck,
+                e_cm,
+                unit_weight,
+                gamma_c,
+                alpha_cc,
+                rebar_fyk,
+                gamma_s,
+            }) => MaterialV1::Concrete(name, fck, e_cm, unit_weight, gamma_c, alpha_cc, rebar_fyk, gamma_s),
+            Material::Glulam(Glulam {
+                name,
+                f_m_k,
+                f_t0_k,
+                f_c0_k,
+                e_0_mean,
+                e_0_05,
+                unit_weight,
+                k_mod,
+                gamma_m,
+            }) => {
+                MaterialV1::Glulam(name, f_m_k, f_t0_k, f_c0_k, e_0_mean, e_0_05, unit_weight, k_mod, gamma_m)
+            }
+        }
+    }
+
+    fn material_in(m: MaterialV1) -> Material {
+        match m {
+            MaterialV1::Steel(name, fy, e, unit_weight, gamma_m0, gamma_m1) => {
+                Material::Steel(Steel { name, fy, e, unit_weight, gamma_m0, gamma_m1 })
+            }
+            MaterialV1::Concrete(name, fck, e_cm, unit_weight, gamma_c, alpha_cc, rebar_fyk, gamma_s) => {
+                Material::Concrete(Concrete {
+                    name,
+                    fck,
+                    e_cm,
+                    unit_weight,
+                    gamma_c,
+                    alpha_cc,
+                    rebar_fyk,
+                    gamma_s,
+                })
+            }
+            MaterialV1::Glulam(
+                name,
+                f_m_k,
+                f_t0_k,
+                f_c0_k,
+                e_0_mean,
+                e_0_05,
+                unit_weight,
+                k_mod,
+                gamma_m,
+            ) => Material::Glulam(Glulam {
+                name,
+                f_m_k,
+                f_t0_k,
+                f_c0_k,
+                e_0_mean,
+                e_0_05,
+                unit_weight,
+                k_mod,
+                gamma_m,
+            }),
+        }
+    }
+
+    fn family_out(f: &Family) -> FamilyV1 {
+        match *f {
+            Family::Chs { d_over_t } => FamilyV1::Chs(d_over_t),
+            Family::Shs { b_over_t } => FamilyV1::Shs(b_over_t),
+            Family::WeldedBox { width_over_depth, flange_ratio, web_ratio } => {
+                FamilyV1::WeldedBox(width_over_depth, flange_ratio, web_ratio)
+            }
+            Family::ConcreteRect { width_over_depth, reinforcement_ratio, cover } => {
+                FamilyV1::ConcreteRect(width_over_depth, reinforcement_ratio, cover)
+            }
+            Family::GlulamRect { width_over_depth } => FamilyV1::GlulamRect(width_over_depth),
+        }
+    }
+
+    fn family_in(f: FamilyV1) -> Family {
+        match f {
+            FamilyV1::Chs(d_over_t) => Family::Chs { d_over_t },
+            FamilyV1::Shs(b_over_t) => Family::Shs { b_over_t },
+            FamilyV1::WeldedBox(width_over_depth, flange_ratio, web_ratio) => {
+                Family::WeldedBox { width_over_depth, flange_ratio, web_ratio }
+            }
+            FamilyV1::ConcreteRect(width_over_depth, reinforcement_ratio, cover) => {
+                Family::ConcreteRect { width_over_depth, reinforcement_ratio, cover }
+            }
+            FamilyV1::GlulamRect(width_over_depth) => Family::GlulamRect { width_over_depth },
+        }
+    }
+
+    pub(super) fn write(d: &Design) -> Vec<u8> {
+        let SizingDesign {
+            rib,
+            deck,
+            posts,
+            piers,
+            bracing,
+            rib_out_of_plane,
+            deck_section,
+            rates,
+            foundation,
+        } = &d.sizing;
+        let group = |g: &GroupSizing| GroupV1 {
+            family: g.family.as_ref().map(family_out),
+            material: material_out(&g.material),
+            length_factor: g.length_factor,
+        };
+        let DeckCrossSection {
+            weight,
+            slab_thickness,
+            slab_unit_weight,
+            cross_girder_spacing,
+            cross_girder_area,
+            cross_girder_unit_weight,
+            other_dead_load,
+        } = *deck_section;
+        let UnitRates { steel_per_t, concrete_per_m3, glulam_per_m3, foundation_per_m3 } = *rates;
+        let FoundationDesign { allowable_bearing, min_thickness } = *foundation;
+        body(&SizingV1 {
+            groups: [rib, deck, posts, piers, bracing].into_iter().map(group).collect(),
+            rib_out_of_plane: *rib_out_of_plane,
+            cross_section_weight: weight == DeckWeight::CrossSection,
+            deck: (
+                slab_thickness,
+                slab_unit_weight,
+                cross_girder_spacing,
+                cross_girder_area,
+                cross_girder_unit_weight,
+                other_dead_load,
+            ),
+            rates: (steel_per_t, concrete_per_m3, glulam_per_m3, foundation_per_m3),
+            foundation: (allowable_bearing, min_thickness),
+        })
+    }
+
+    pub(super) fn read(bytes: &[u8], d: &mut Design) -> Result<(), LinkError> {
+        let SizingV1 { groups, rib_out_of_plane, cross_section_weight, deck, rates, foundation } =
+            frozen(TAG_SIZING, bytes)?;
+        let count = groups.len();
+        let mut groups = groups.into_iter().map(|g| GroupSizing {
+            family: g.family.map(family_in),
+            material: material_in(g.material),
+            length_factor: g.length_factor,
+        });
+        let mut next = || {
+            groups.next().ok_or_else(|| LinkError::DamagedSection {
+                tag: TAG_SIZING,
+                detail: format!("{count} groups where 5 are sized"),
+            })
+        };
+        let (rib, deck_group, posts, piers, bracing) = (next()?, next()?, next()?, next()?, next()?);
+        if count != 5 {
+            return Err(LinkError::DamagedSection {
+                tag: TAG_SIZING,
+                detail: format!("{count} groups where 5 are sized"),
+            });
+        }
+        let (
+            slab_thickness,
+            slab_unit_weight,
+            cross_girder_spacing,
+            cross_girder_area,
+            cross_girder_unit_weight,
+            other_dead_load,
+        ) = deck;
+        d.sizing = SizingDesign {
+            rib,
+            deck: deck_group,
+            posts,
+            piers,
+            bracing,
+            rib_out_of_plane,
+            deck_section: DeckCrossSection {
+                weight: if cross_section_weight { DeckWeight::CrossSection } else { DeckWeight::TypedLoad },
+                slab_thickness,
+                slab_unit_weight,
+                cross_girder_spacing,
+                cross_girder_area,
+                cross_girder_unit_weight,
+                other_dead_load,
+            },
+            rates: UnitRates {
+                steel_per_t: rates.0,
+                concrete_per_m3: rates.1,
+                glulam_per_m3: rates.2,
+                foundation_per_m3: rates.3,
+            },
+            foundation: FoundationDesign { allowable_bearing: foundation.0, min_thickness: foundation.1 },
+        };
+        Ok(())
+    }
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -661,7 +925,7 @@ mod tests {
             let sections = write_all(SECTIONS, &d);
             assert_eq!(
                 sections.iter().map(|s| s.tag).collect::<Vec<_>>(),
-                [TAG_ABUTMENT, TAG_TRAFFIC, TAG_ACTIONS]
+                [TAG_ABUTMENT, TAG_TRAFFIC, TAG_ACTIONS, TAG_SIZING]
             );
             let mut back = Design::demo();
             read_all(&sections, SECTIONS, &mut back).expect("reads");

@@ -55,6 +55,13 @@ pub struct Demand {
     /// The largest bending moment |M| in the arch plane, kNm, taken with either axial force
     /// (conservative: not the concurrent value).
     pub moment: f64,
+    /// The least compression that always acts, as a magnitude >= 0, kN (a member never in
+    /// tension: minus its largest axial force; 0 otherwise). A concrete section's moment
+    /// resistance grows with compression, so its bending is checked with this compression
+    /// rather than with none; steel and glulam ignore it (compression only adds to their
+    /// utilisation).
+    #[serde(default)]
+    pub least_compression: f64,
 }
 
 /// Buckling lengths of a member, m.
@@ -62,7 +69,8 @@ pub struct Demand {
 pub struct Lengths {
     /// Buckling length for buckling in the arch plane (about the axis across the deck), m.
     pub in_plane: f64,
-    /// Buckling length for buckling out of the arch plane, m.
+    /// Buckling length for buckling out of the arch plane, m; 0: held sideways along its
+    /// whole length (no buckling out of the plane).
     pub out_of_plane: f64,
 }
 
@@ -273,10 +281,18 @@ fn check_inputs(
             return Err(format!("the demand's {what} must be a number at or above zero (it is {value})"));
         }
     }
-    for (what, value) in [("in-plane", lengths.in_plane), ("out-of-plane", lengths.out_of_plane)] {
-        if !value.is_finite() || value <= 0.0 {
-            return Err(format!("the {what} buckling length must be above zero (it is {value} m)"));
-        }
+    if !lengths.in_plane.is_finite() || lengths.in_plane <= 0.0 {
+        return Err(format!(
+            "the in-plane buckling length must be above zero (it is {} m)",
+            lengths.in_plane
+        ));
+    }
+    // zero out of plane: held sideways along its whole length (a deck girder under its slab)
+    if !lengths.out_of_plane.is_finite() || lengths.out_of_plane < 0.0 {
+        return Err(format!(
+            "the out-of-plane buckling length must be zero (held along its length) or above (it is {} m)",
+            lengths.out_of_plane
+        ));
     }
     for (what, value) in [
         ("depth", props.depth),
@@ -620,7 +636,10 @@ fn check_concrete(
 
     let mut modes = Vec::new();
     let tension_mode = if demand.tension > 0.0 { Mode::Tension } else { Mode::Bending };
-    modes.push((tension_mode, in_plane.utilisation(-demand.tension, m)));
+    // the moment with the least axial force it can meet: the largest tension, or the
+    // compression that always acts on a member never in tension
+    let least = if demand.tension > 0.0 { -demand.tension } else { demand.least_compression.max(0.0) };
+    modes.push((tension_mode, in_plane.utilisation(least, m)));
     let second_in =
         concrete_second_order(concrete, props.depth, props.a, props.radius_in, cover, n, m, lengths.in_plane);
     let second_out = concrete_second_order(
@@ -762,7 +781,7 @@ mod tests {
     fn check_refuses_a_mismatch_and_bad_inputs() {
         let family = Family::Chs { d_over_t: 30.0 };
         let props = family.props(0.3);
-        let demand = Demand { tension: 10.0, compression: 0.0, moment: 0.0 };
+        let demand = Demand { tension: 10.0, compression: 0.0, moment: 0.0, least_compression: 0.0 };
         let lengths = Lengths { in_plane: 3.0, out_of_plane: 3.0 };
         let err = check(&preset("gl24h"), &family, &props, &demand, &lengths).expect_err("not glulam");
         assert!(err.contains("CHS cannot be made of GL24h"), "{err}");
@@ -778,7 +797,7 @@ mod tests {
     fn every_mode_is_listed_and_the_largest_governs() {
         let family = Family::Shs { b_over_t: 20.0 };
         let props = family.props(0.2);
-        let demand = Demand { tension: 100.0, compression: 500.0, moment: 20.0 };
+        let demand = Demand { tension: 100.0, compression: 500.0, moment: 20.0, least_compression: 0.0 };
         let c =
             check(&preset("s355"), &family, &props, &demand, &Lengths { in_plane: 4.0, out_of_plane: 8.0 })
                 .expect("checks");
@@ -815,7 +834,7 @@ mod tests {
 
     #[test]
     fn sizes_every_material() {
-        let demand = Demand { tension: 0.0, compression: 3000.0, moment: 300.0 };
+        let demand = Demand { tension: 0.0, compression: 3000.0, moment: 300.0, least_compression: 0.0 };
         let lengths = Lengths { in_plane: 8.0, out_of_plane: 8.0 };
         for (material, family) in
             [("s355", "chs"), ("s355", "shs"), ("s460", "box"), ("c40-50", "concrete"), ("gl28h", "glulam")]

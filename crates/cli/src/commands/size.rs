@@ -1,0 +1,112 @@
+//! `springline size DESIGN.json [--text | --adopted]`: member sizes and utilisations from
+//! the traffic envelopes, quantities and cost index, foundation demand and thrust blocks.
+
+use super::{print_json, print_line, read_design};
+use crate::failure::Failure;
+use springline_statics::arch::design_file::write_design_json;
+use springline_statics::arch::generate::ModelKind;
+use springline_statics::arch::sizing::{adopt_sizes, size_design, GroupOutcome, SizeReport};
+use springline_statics::arch::traffic::traffic_envelopes;
+use springline_statics::{Design, StaticsError, ValidDesign};
+use std::path::PathBuf;
+
+/// Size the member groups, weigh the design and size its thrust blocks.
+///
+/// Each group is sized in its family and material (the design's `sizing`), one section
+/// per group, from the frame model's envelopes over the ultimate combinations, per rib
+/// line; a group kept as typed is checked. Prints JSON: every group's section and largest
+/// utilisation, every member's demand, buckling lengths, utilisation, governing mode,
+/// combination and traffic placement; quantities (length, volume, mass per group; deck
+/// slab, cross-girders, thrust blocks; steel tonnage, concrete and glulam volume, cost
+/// index); foundation demand at each springing (thrust, vertical, resultant and its
+/// angle and range, a fixed rib's moment) with its thrust block. For concept design only:
+/// local codes and a licensed engineer govern.
+#[derive(clap::Args)]
+#[command(after_help = "\
+Examples:
+  springline demo | springline size -
+  springline size design.json --text
+  springline size design.json --adopted > sized.json")]
+pub struct Args {
+    /// The design file (JSON); `-` reads standard input.
+    #[arg(value_name = "DESIGN.json")]
+    design: PathBuf,
+
+    /// A short text summary instead of JSON.
+    #[arg(long, conflicts_with = "adopted")]
+    text: bool,
+
+    /// Print the design file with every sized group's section adopted (area, I, depth, E
+    /// and unit weight), instead of the report.
+    #[arg(long)]
+    adopted: bool,
+}
+
+/// Reads the design, sizes it and prints the report (or the adopted design).
+pub fn run(args: Args) -> Result<(), Failure> {
+    let design = read_design(&args.design)?;
+    let report = size(&design)?;
+    if args.adopted {
+        print_line(write_design_json(&adopt_sizes(&design, &report.sizing)).trim_end())
+    } else if args.text {
+        print_line(&text_summary(&report))
+    } else {
+        print_json(&report)
+    }
+}
+
+/// The engine's size report of a design.
+pub fn size(design: &Design) -> Result<SizeReport, StaticsError> {
+    let valid = ValidDesign::new(design)?;
+    let traffic = traffic_envelopes(&valid, ModelKind::Frame)?.ok_or_else(|| {
+        StaticsError::Invalid(vec![springline_statics::Problem::new(
+            springline_statics::error::Location::Part("frame model".into()),
+            "the frame model has no traffic envelopes to size with",
+        )])
+    })?;
+    size_design(&valid, &traffic)
+}
+
+/// A few lines for people: each group's section and utilisation, the totals, and each
+/// springing's demand and block.
+pub fn text_summary(r: &SizeReport) -> String {
+    let mut out = vec![format!("{} — sizing (per rib line, {})", r.design, r.sizing.combinations.join(", "))];
+    for g in &r.sizing.groups {
+        let section = match &g.outcome {
+            GroupOutcome::Sized { label, .. } => format!("{label} ({})", g.material),
+            GroupOutcome::AsTyped => format!("as typed ({})", g.material),
+            GroupOutcome::NotSized { reason } => format!("NOT SIZED: {reason}"),
+        };
+        let used = match (&g.utilisation, &g.governing_member) {
+            (Some(u), Some(m)) => format!("utilisation {u:.2} ({m})"),
+            _ => "no utilisation".into(),
+        };
+        out.push(format!("  {:<8} {section}; {used}", g.group));
+    }
+    let q = &r.quantities;
+    out.push(format!(
+        "quantities: steel {:.1} t, concrete {:.1} m3, glulam {:.1} m3, thrust blocks {:.1} m3; cost index {:.0}",
+        q.steel, q.concrete, q.glulam, q.foundation, q.cost_index
+    ));
+    for s in &r.foundations.springings {
+        out.push(format!(
+            "{} springing: H {:.0} kN, V {:.0} kN, R {:.0} kN at {:.1} deg (range {:.1} to {:.1} deg); block {:.1} x {:.1} \
+             x {:.1} m = {:.0} m3 ({:.1} m2 at {:.0} kN/m2)",
+            s.side,
+            s.thrust,
+            s.vertical,
+            s.resultant,
+            s.angle,
+            s.angle_range.min,
+            s.angle_range.max,
+            s.block.width,
+            s.block.length,
+            s.block.thickness,
+            s.block.volume,
+            s.block.bearing_area,
+            r.foundations.allowable_bearing
+        ));
+    }
+    out.push(format!("({}; {})", r.units, r.caution));
+    out.join("\n")
+}

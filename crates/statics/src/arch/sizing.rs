@@ -1,0 +1,899 @@
+//! Sizing of a deck arch's member groups from the traffic envelopes (design format 5).
+//!
+//! Each group (rib, deck, posts, piers, bracing) is either sized in a parametric family
+//! of a material (`sizing::sections`, `sizing::materials`), one size for the whole group
+//! (a concept design keeps one section per group), or kept "as typed" and only checked.
+//! Demands come from the frame model's envelopes (`arch::traffic`), per rib line, over
+//! the ultimate combinations (those that factor the permanent action above 1): the
+//! largest tension, the largest compression and the largest in-plane moment at either
+//! end of a member, taken together although they need not occur together
+//! (conservative, common practice at concept stage). Resistances and the search for the
+//! smallest size are `sizing::resistance`'s.
+//!
+//! Buckling lengths:
+//! - rib, in its plane: the arch buckles as a whole. The length is that of a pin-ended
+//!   strut whose Euler load is the rib's axial force at the quarter point when a
+//!   parabolic rib of the same rise and span buckles under a uniform load, q_cr = gamma
+//!   EI / L^3 (Timoshenko and Gere, Theory of Elastic Stability, ch. 7, arch tables;
+//!   coefficients from memory), so N_cr = (pi / (beta s))^2 EI as in EN 1993-2 Annex D.3
+//!   with s half the rib's length; the stability issue replaces this by the critical load
+//!   factor of the whole structure;
+//! - rib, out of its plane: an editable length, by default each rib segment's length (the
+//!   rib held sideways at every rib node by cross-girders or wind bracing, common
+//!   practice);
+//! - posts, piers, bracing: the member's length times the group's factor, both planes;
+//! - deck: the member's length times the factor in the plane; none out of the plane (the
+//!   slab holds it).
+//!
+//! The erection stage (the bare rib) is not part of the sizing: it is checked apart
+//! (`arch::actions`). Concept-design values: local codes and a licensed engineer govern.
+
+use crate::arch::analysis::CAUTION;
+use crate::arch::design::{Design, MemberGroups, Section};
+use crate::arch::generate::{frame_model, Generated, MemberRole};
+use crate::arch::influence::{ArchLine, MemberEnd};
+use crate::arch::traffic::{Governing, LineEnvelope, TrafficReport};
+use crate::arch::validate::ValidDesign;
+use crate::error::{Field, GroupName, Problem, StaticsError};
+use crate::sizing::materials::{material_preset, Material};
+use crate::sizing::resistance::{check, size_member, Demand, Lengths, Mode};
+use crate::sizing::sections::{Family, SectionProps};
+use crate::traffic::combination::Combination;
+use serde::{Deserialize, Serialize};
+
+/// How the member groups are sized, and the inputs of the quantities and foundations.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct SizingDesign {
+    /// The rib.
+    pub rib: GroupSizing,
+    /// The deck girder (over the arch and the approach spans).
+    pub deck: GroupSizing,
+    /// Spandrel and end posts.
+    pub posts: GroupSizing,
+    /// Approach piers.
+    pub piers: GroupSizing,
+    /// Bracing diagonals.
+    pub bracing: GroupSizing,
+    /// The rib's buckling length out of its plane, m; `None`: each rib segment's length.
+    pub rib_out_of_plane: Option<f64>,
+    /// The deck's cross-section: slab and cross-girders.
+    pub deck_section: DeckCrossSection,
+    /// Unit rates of the cost index.
+    pub rates: UnitRates,
+    /// Ground and thrust-block inputs.
+    pub foundation: FoundationDesign,
+}
+
+/// How one member group is sized.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct GroupSizing {
+    /// The family the group is sized in; `None`: the typed section is kept and checked.
+    pub family: Option<Family>,
+    /// The material: the sized section's, or what the typed section is checked as.
+    pub material: Material,
+    /// Buckling length factor K on each member's length (posts, piers, bracing: both
+    /// planes; deck: in its plane; the rib takes the arch's length instead).
+    pub length_factor: f64,
+}
+
+/// Which deck weight the analysis counts, so nothing is counted twice.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum DeckWeight {
+    /// The typed deck dead load (kN/m2) and the deck girder's self-weight; the slab and
+    /// cross-girders below count in the quantities only.
+    TypedLoad,
+    /// The slab, the cross-girders and `other_dead_load` replace the typed deck dead
+    /// load; the deck girder's self-weight still adds.
+    CrossSection,
+}
+
+/// The deck's cross-section for the quantities (and, with `DeckWeight::CrossSection`,
+/// for the dead load).
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct DeckCrossSection {
+    /// Which deck weight counts.
+    pub weight: DeckWeight,
+    /// Slab thickness, m (over the deck width).
+    pub slab_thickness: f64,
+    /// Slab unit weight, kN/m3 (reinforced concrete 25, EN 1991-1-1 Table A.1).
+    pub slab_unit_weight: f64,
+    /// Spacing of the cross-girders along the deck, m.
+    pub cross_girder_spacing: f64,
+    /// Steel area of one cross-girder, m2 (it spans the deck width).
+    pub cross_girder_area: f64,
+    /// Cross-girder unit weight, kN/m3 (steel 77, EN 1991-1-1 Table A.4).
+    pub cross_girder_unit_weight: f64,
+    /// Other fixed load on the deck (parapets, services), kN/m2, with `CrossSection`.
+    pub other_dead_load: f64,
+}
+
+impl DeckCrossSection {
+    /// Weight of the slab and cross-girders per m2 of deck, kN/m2: t gamma_slab + A_cg
+    /// gamma_cg / spacing (each cross-girder spans the width).
+    pub fn structure_weight(&self) -> f64 {
+        self.slab_thickness * self.slab_unit_weight
+            + self.cross_girder_area * self.cross_girder_unit_weight / self.cross_girder_spacing
+    }
+}
+
+/// Unit rates of the cost index, in cost units of the user's choosing.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct UnitRates {
+    /// Structural steel, fabricated and erected, per tonne.
+    pub steel_per_t: f64,
+    /// Structural concrete (ribs, slab), per m3, reinforcement included.
+    pub concrete_per_m3: f64,
+    /// Glulam, per m3.
+    pub glulam_per_m3: f64,
+    /// Thrust-block concrete, per m3.
+    pub foundation_per_m3: f64,
+}
+
+/// Ground and thrust-block inputs.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct FoundationDesign {
+    /// Allowable bearing pressure on the thrust block's face, kN/m2 (characteristic
+    /// loads; from the site's ground investigation).
+    pub allowable_bearing: f64,
+    /// Least thickness of a thrust block along the resultant, m.
+    pub min_thickness: f64,
+}
+
+/// Default buckling length factor K (pin-ended members, EN 1993-1-1 and any stability
+/// text: K = 1 for a member held in position at both ends).
+pub const DEFAULT_LENGTH_FACTOR: f64 = 1.0;
+
+impl GroupSizing {
+    /// The typed section kept, checked as `material`.
+    pub fn as_typed(material: Material) -> GroupSizing {
+        GroupSizing { family: None, material, length_factor: DEFAULT_LENGTH_FACTOR }
+    }
+
+    /// Sized in `family` of `material`.
+    pub fn sized(family: Family, material: Material) -> GroupSizing {
+        GroupSizing { family: Some(family), material, length_factor: DEFAULT_LENGTH_FACTOR }
+    }
+}
+
+fn preset(key: &str) -> Material {
+    // the presets are this crate's own table: a key below that it lacks is a bug caught
+    // by the tests, never user data
+    material_preset(key).unwrap_or_else(|| panic!("material preset {key}"))
+}
+
+fn family(key: &str) -> Family {
+    Family::family_presets()
+        .into_iter()
+        .find(|(k, _)| *k == key)
+        .map(|(_, f)| f)
+        .unwrap_or_else(|| panic!("family preset {key}"))
+}
+
+impl Default for DeckCrossSection {
+    /// A 250 mm concrete slab on steel cross-girders every 4 m of 0.012 m2 (about a 600
+    /// mm plate girder), the typed dead load counting (common practice, illustrative).
+    fn default() -> Self {
+        DeckCrossSection {
+            weight: DeckWeight::TypedLoad,
+            slab_thickness: 0.25,
+            slab_unit_weight: 25.0,
+            cross_girder_spacing: 4.0,
+            cross_girder_area: 0.012,
+            cross_girder_unit_weight: 77.0,
+            other_dead_load: 1.0,
+        }
+    }
+}
+
+impl Default for UnitRates {
+    /// Relative rates of our own (illustrative: steel erected per tonne some ten times
+    /// structural concrete per m3, common practice for a feel only). Set the project's.
+    fn default() -> Self {
+        UnitRates { steel_per_t: 100.0, concrete_per_m3: 10.0, glulam_per_m3: 30.0, foundation_per_m3: 5.0 }
+    }
+}
+
+impl Default for FoundationDesign {
+    /// 1,000 kN/m2 allowable bearing (a weak rock or very dense gravel, common practice,
+    /// illustrative: the site's investigation governs) and 1.0 m least block thickness.
+    fn default() -> Self {
+        FoundationDesign { allowable_bearing: 1000.0, min_thickness: 1.0 }
+    }
+}
+
+impl SizingDesign {
+    /// Every group kept as typed, each checked as the material its typed E suggests
+    /// (steel S355 for E of 150 GPa or more, glulam GL24h below 20 GPa, else concrete
+    /// C40/50): what a design of format 4 gets.
+    pub fn as_typed(groups: &MemberGroups) -> SizingDesign {
+        let guess = |s: &Section| {
+            let key = if s.e >= 150e6 {
+                "s355"
+            } else if s.e < 20e6 {
+                "gl24h"
+            } else {
+                "c40-50"
+            };
+            GroupSizing::as_typed(preset(key))
+        };
+        SizingDesign {
+            rib: guess(&groups.rib),
+            deck: guess(&groups.deck),
+            posts: guess(&groups.posts),
+            piers: guess(&groups.piers),
+            bracing: guess(&groups.bracing),
+            rib_out_of_plane: None,
+            deck_section: DeckCrossSection::default(),
+            rates: UnitRates::default(),
+            foundation: FoundationDesign::default(),
+        }
+    }
+
+    /// Steel throughout, sized: welded boxes for the rib and deck girder, square hollow
+    /// sections for the posts, circular ones for the piers and bracing, all S355 (the
+    /// demo's choice).
+    pub fn steel() -> SizingDesign {
+        let s355 = preset("s355");
+        SizingDesign {
+            rib: GroupSizing::sized(family("box"), s355.clone()),
+            deck: GroupSizing::sized(family("box"), s355.clone()),
+            posts: GroupSizing::sized(family("shs"), s355.clone()),
+            piers: GroupSizing::sized(family("chs"), s355.clone()),
+            bracing: GroupSizing::sized(family("chs"), s355),
+            rib_out_of_plane: None,
+            deck_section: DeckCrossSection::default(),
+            rates: UnitRates::default(),
+            foundation: FoundationDesign::default(),
+        }
+    }
+
+    /// The group's sizing.
+    pub fn group(&self, g: GroupName) -> &GroupSizing {
+        match g {
+            GroupName::Rib => &self.rib,
+            GroupName::Deck => &self.deck,
+            GroupName::Posts => &self.posts,
+            GroupName::Piers => &self.piers,
+            GroupName::Bracing => &self.bracing,
+        }
+    }
+
+    /// The group's sizing, to edit.
+    pub fn group_mut(&mut self, g: GroupName) -> &mut GroupSizing {
+        match g {
+            GroupName::Rib => &mut self.rib,
+            GroupName::Deck => &mut self.deck,
+            GroupName::Posts => &mut self.posts,
+            GroupName::Piers => &mut self.piers,
+            GroupName::Bracing => &mut self.bracing,
+        }
+    }
+
+    /// Problems of the inputs (each names its field).
+    pub(crate) fn problems(&self) -> Vec<Problem> {
+        let mut out = Vec::new();
+        for g in GroupName::ALL {
+            let s = self.group(g);
+            let field = Field::Sizing(g);
+            if let Err(e) = s.material.check() {
+                out.push(Problem::new(field, format!("the {} material: {e}", g.label())));
+            }
+            if let Some(f) = &s.family {
+                if let Err(e) = f.check() {
+                    out.push(Problem::new(field, format!("the {} section family: {e}", g.label())));
+                } else if !f.suits(&s.material) {
+                    out.push(Problem::new(
+                        field,
+                        format!(
+                            "the {} group: a {} cannot be made of {}; choose a family of that material or another \
+                             material",
+                            g.label(),
+                            f.name(),
+                            s.material.name()
+                        ),
+                    ));
+                }
+            }
+            if !(s.length_factor.is_finite() && (0.3..=5.0).contains(&s.length_factor)) {
+                out.push(Problem::new(
+                    field,
+                    format!(
+                        "the {} buckling length factor {} must be between 0.3 and 5 (1 for a member pinned at both \
+                         ends)",
+                        g.label(),
+                        s.length_factor
+                    ),
+                ));
+            }
+        }
+        if let Some(l) = self.rib_out_of_plane {
+            if !(l.is_finite() && l > 0.0 && l <= 2000.0) {
+                out.push(Problem::new(
+                    Field::Sizing(GroupName::Rib),
+                    format!(
+                        "the rib's out-of-plane buckling length {l} m must be above 0 and at most 2000 m"
+                    ),
+                ));
+            }
+        }
+        let d = &self.deck_section;
+        let positive = [
+            ("slab thickness", d.slab_thickness, 0.0, 2.0, "m"),
+            ("slab unit weight", d.slab_unit_weight, 0.0, 100.0, "kN/m3"),
+            ("cross-girder spacing", d.cross_girder_spacing, 0.1, 100.0, "m"),
+            ("cross-girder area", d.cross_girder_area, 0.0, 1.0, "m2"),
+            ("cross-girder unit weight", d.cross_girder_unit_weight, 0.0, 100.0, "kN/m3"),
+            ("other deck dead load", d.other_dead_load, 0.0, 100.0, "kN/m2"),
+        ];
+        for (name, v, lo, hi, unit) in positive {
+            if !(v.is_finite() && (lo..=hi).contains(&v)) {
+                out.push(Problem::new(
+                    Field::DeckCrossSection,
+                    format!("the {name} {v} {unit} must be between {lo} and {hi} {unit}"),
+                ));
+            }
+        }
+        let r = &self.rates;
+        for (name, v) in [
+            ("steel rate", r.steel_per_t),
+            ("concrete rate", r.concrete_per_m3),
+            ("glulam rate", r.glulam_per_m3),
+            ("foundation rate", r.foundation_per_m3),
+        ] {
+            if !(v.is_finite() && v >= 0.0) {
+                out.push(Problem::new(Field::UnitRates, format!("the {name} {v} must be zero or positive")));
+            }
+        }
+        let f = &self.foundation;
+        if !(f.allowable_bearing.is_finite() && (10.0..=100_000.0).contains(&f.allowable_bearing)) {
+            out.push(Problem::new(
+                Field::Foundation,
+                format!(
+                    "the allowable bearing pressure {} kN/m2 must be between 10 and 100,000 kN/m2",
+                    f.allowable_bearing
+                ),
+            ));
+        }
+        if !(f.min_thickness.is_finite() && (0.1..=50.0).contains(&f.min_thickness)) {
+            out.push(Problem::new(
+                Field::Foundation,
+                format!(
+                    "the least thrust-block thickness {} m must be between 0.1 and 50 m",
+                    f.min_thickness
+                ),
+            ));
+        }
+        out
+    }
+}
+
+/// q_cr L^3 / (E I) of a parabolic rib of constant section under a uniform load per
+/// horizontal metre, at rise / span 0.1, 0.2, 0.3, 0.4, 0.5 (Timoshenko and Gere, Theory
+/// of Elastic Stability, ch. 7 arch tables; from memory).
+const TWO_HINGED: [f64; 5] = [28.5, 45.4, 46.5, 43.9, 38.4];
+const FIXED: [f64; 5] = [60.7, 101.0, 115.0, 111.0, 97.4];
+const THREE_HINGED: [f64; 5] = [22.5, 39.6, 46.5, 43.9, 38.4];
+
+/// The rib's in-plane buckling length as a whole arch.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct ArchBuckling {
+    /// Span between the springings, m.
+    pub span: f64,
+    /// Rise above the springing chord, m.
+    pub rise: f64,
+    /// Half the rib's length along its axis, s, m.
+    pub half_length: f64,
+    /// q_cr L^3 / (E I) used (interpolated in rise / span, held at the table's ends).
+    pub coefficient: f64,
+    /// The equivalent pin-ended length l = beta s, m.
+    pub length: f64,
+    /// beta = l / s (EN 1993-2 Annex D.3 form).
+    pub beta: f64,
+    /// How it is found, with its sources.
+    pub basis: String,
+}
+
+/// The rib's in-plane buckling length (see the module doc): l = pi sqrt(8 f L / (gamma
+/// sqrt(1 + (2 f / L)^2))), from q_cr = gamma EI / L^3, H_cr = q_cr L^2 / (8 f) and the
+/// quarter-point axial force N = H sqrt(1 + (2 f / L)^2) of a parabola; independent of EI.
+/// Rise / span outside 0.1 to 0.5 takes the table's end value (the basis says so).
+pub fn arch_buckling(valid: &ValidDesign) -> ArchBuckling {
+    let design = valid.design();
+    let form = valid.form();
+    let (span, rise) = (form.span, form.rise);
+    let nodes = &form.rib;
+    let length: f64 = nodes.windows(2).map(|w| (w[1].x - w[0].x).hypot(w[1].y - w[0].y)).sum();
+    let table = match design.rib_system {
+        crate::arch::design::RibSystem::TwoHinged => TWO_HINGED,
+        crate::arch::design::RibSystem::Fixed => FIXED,
+        crate::arch::design::RibSystem::ThreeHinged => THREE_HINGED,
+    };
+    let ratio = rise / span;
+    let t = ((ratio - 0.1) / 0.1).clamp(0.0, 4.0);
+    let k = (t.floor() as usize).min(3);
+    let coefficient = table[k] + (table[k + 1] - table[k]) * (t - k as f64);
+    let slope = 2.0 * ratio;
+    let l = std::f64::consts::PI * (8.0 * rise * span / (coefficient * (1.0 + slope * slope).sqrt())).sqrt();
+    let half_length = length / 2.0;
+    let mut basis = format!(
+        "in-plane buckling of the rib as a whole arch: N_cr = (pi / (beta s))^2 EI (EN 1993-2 Annex D.3 form), \
+         beta from q_cr = {coefficient:.1} EI / L^3 of a {} parabolic rib at rise / span {ratio:.3} (Timoshenko and \
+         Gere, Theory of Elastic Stability, arch tables, from memory), N_cr being the axial force at the quarter \
+         point at buckling",
+        match design.rib_system {
+            crate::arch::design::RibSystem::TwoHinged => "two-hinged",
+            crate::arch::design::RibSystem::Fixed => "fixed",
+            crate::arch::design::RibSystem::ThreeHinged => "three-hinged",
+        }
+    );
+    if !(0.1..=0.5).contains(&ratio) {
+        basis.push_str("; rise / span outside the table's 0.1 to 0.5: its end value is used");
+    }
+    ArchBuckling { span, rise, half_length, coefficient, length: l, beta: l / half_length, basis }
+}
+
+/// One member's sizing.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct MemberSizing {
+    /// The member's name in the frame model.
+    pub member: String,
+    /// Its group (`rib`, `deck`, `posts`, `piers`, `bracing`).
+    pub group: String,
+    /// Its length, m.
+    pub length: f64,
+    /// Design demand per rib line over the ultimate combinations, kN and kNm.
+    pub demand: Demand,
+    /// Buckling lengths, m.
+    pub lengths: Lengths,
+    /// Utilisation at the group's section (<= 1 passes); `None` when the group could not
+    /// be sized.
+    pub utilisation: Option<f64>,
+    /// The governing mode at the group's section.
+    pub governs: Option<Mode>,
+    /// The combination of the governing demand (of the compression, tension or moment
+    /// as the mode asks).
+    pub combination: String,
+    /// Where the traffic stands for that demand, in words.
+    pub placement: String,
+}
+
+/// How a group came out.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+#[serde(tag = "outcome", rename_all = "snake_case")]
+pub enum GroupOutcome {
+    /// Sized in its family: the section every member of the group gets.
+    Sized {
+        /// The section in words.
+        label: String,
+        /// The family's size, m.
+        size: f64,
+        /// The section's properties.
+        props: SectionProps,
+    },
+    /// The typed section, checked.
+    AsTyped,
+    /// No size of the family works, or the family cannot be used: why, in words.
+    NotSized {
+        /// The reason (naming the member that cannot be sized).
+        reason: String,
+    },
+}
+
+/// One group's sizing.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct GroupReport {
+    /// The group (`rib`, ...).
+    pub group: String,
+    /// The material's name.
+    pub material: String,
+    /// The family's name (`None`: as typed).
+    pub family: Option<String>,
+    /// What came out.
+    pub outcome: GroupOutcome,
+    /// The largest member utilisation (`None` when not sized or no member).
+    pub utilisation: Option<f64>,
+    /// The member with it.
+    pub governing_member: Option<String>,
+    /// Members of the group in the frame model (per rib line).
+    pub members: usize,
+    /// The section per rib line the analysis would take (sized: the family's with the
+    /// material's E and unit weight; as typed: the typed one).
+    pub section: Option<Section>,
+}
+
+/// The sizing of every group.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct MemberSizingReport {
+    /// The ultimate combinations used.
+    pub combinations: Vec<String>,
+    /// The rib's in-plane buckling length.
+    pub arch_buckling: ArchBuckling,
+    /// Per group.
+    pub groups: Vec<GroupReport>,
+    /// Per member of the frame model (per rib line), in model order.
+    pub members: Vec<MemberSizing>,
+    /// The rules applied, in words.
+    pub basis: String,
+    /// Caution.
+    pub caution: String,
+}
+
+/// The group of a member role.
+pub fn group_of(role: MemberRole) -> GroupName {
+    match role {
+        MemberRole::Rib => GroupName::Rib,
+        MemberRole::Deck | MemberRole::Approach => GroupName::Deck,
+        MemberRole::Post => GroupName::Posts,
+        MemberRole::Pier => GroupName::Piers,
+        MemberRole::Bracing => GroupName::Bracing,
+    }
+}
+
+/// The typed section of `group`.
+pub fn typed_section(groups: &MemberGroups, group: GroupName) -> Section {
+    match group {
+        GroupName::Rib => groups.rib,
+        GroupName::Deck => groups.deck,
+        GroupName::Posts => groups.posts,
+        GroupName::Piers => groups.piers,
+        GroupName::Bracing => groups.bracing,
+    }
+}
+
+/// The properties a typed section is checked with: A, I and depth as typed, W = 2 I /
+/// depth, the same I out of plane (a typed section says nothing of its width), width the
+/// depth; a typed concrete section gets 1 % reinforcement at 0.1 of its depth from each
+/// face (stated in the basis).
+fn typed_props(s: &Section, material: &Material) -> (SectionProps, Family) {
+    let i = s.i.max(0.0);
+    let radius = if s.a > 0.0 { (i / s.a).sqrt() } else { 0.0 };
+    let props = SectionProps {
+        size: s.depth,
+        depth: s.depth,
+        width: s.depth,
+        thickness: None,
+        a: s.a,
+        i,
+        i_out: i,
+        w_el: if s.depth > 0.0 { 2.0 * i / s.depth } else { 0.0 },
+        radius_in: radius,
+        radius_out: radius,
+        steel_area_rebar: matches!(material, Material::Concrete(_)).then_some(0.01 * s.a),
+    };
+    // the family only picks the rules (column curve, concrete bars): a welded box takes
+    // curve b, the usual curve of a welded section
+    let family = match material {
+        Material::Steel(_) => {
+            Family::WeldedBox { width_over_depth: 1.0, flange_ratio: 30.0, web_ratio: 30.0 }
+        }
+        Material::Concrete(_) => {
+            Family::ConcreteRect { width_over_depth: 1.0, reinforcement_ratio: 0.01, cover: 0.1 * s.depth }
+        }
+        Material::Glulam(_) => Family::GlulamRect { width_over_depth: 1.0 },
+    };
+    (props, family)
+}
+
+/// Whether a combination is an ultimate one: it factors the unfavourable permanent
+/// action above 1 (every serviceability combination takes it at 1).
+pub fn is_ultimate(c: &Combination) -> bool {
+    c.permanent_unfavourable > 1.0 + 1e-9
+}
+
+/// A demand component and where it comes from.
+#[derive(Debug, Clone, Default)]
+struct Part {
+    value: f64,
+    combination: String,
+    placement: String,
+}
+
+impl Part {
+    fn take(&mut self, value: f64, combination: &str, placement: impl FnOnce() -> String) {
+        if value > self.value {
+            self.value = value;
+            self.combination = combination.to_string();
+            self.placement = placement();
+        }
+    }
+}
+
+/// The traffic placement of an extreme in words: where the uniform load lies and where
+/// the vehicle stands.
+pub fn placement_words(g: &Governing) -> String {
+    let mut parts = Vec::new();
+    if !g.loaded.is_empty() {
+        let spans: Vec<String> = g.loaded.iter().map(|(a, b)| format!("{a:.1}-{b:.1} m")).collect();
+        parts.push(format!("uniform load on x = {}", spans.join(", ")));
+    }
+    if let Some(v) = &g.vehicle {
+        parts.push(format!("{} leading axle at x = {:.1} m", g.arrangement, v.first_axle));
+    }
+    if parts.is_empty() {
+        "no traffic (permanent and other actions)".into()
+    } else {
+        parts.join("; ")
+    }
+}
+
+/// The demand on member `k` from the envelopes over the ultimate combinations, with the
+/// combination and placement of its compression, tension and moment parts.
+///
+/// Also returns the least compression that always acts (minus the largest axial force
+/// when that is a compression, else 0).
+fn member_demand(
+    report: &TrafficReport,
+    generated: &Generated,
+    k: usize,
+    ultimate: &[&Combination],
+) -> ([Part; 3], f64) {
+    let mut largest_n = f64::NEG_INFINITY;
+    let mut compression = Part::default();
+    let mut tension = Part::default();
+    let mut moment = Part::default();
+    let find = |line: ArchLine| -> Option<&LineEnvelope> { report.line(&line.name(generated)) };
+    let ranges = |l: &LineEnvelope| {
+        l.design
+            .iter()
+            .filter(|r| ultimate.iter().any(|c| c.name == r.combination))
+            .map(|r| (r.combination.clone(), r.max, r.min))
+            .collect::<Vec<_>>()
+    };
+    if let Some(l) = find(ArchLine::Axial(k)) {
+        for (name, max, min) in ranges(l) {
+            largest_n = largest_n.max(max);
+            tension.take(max, &name, || placement_words(&l.traffic_max));
+            compression.take(-min, &name, || placement_words(&l.traffic_min));
+        }
+    }
+    for end in [MemberEnd::Start, MemberEnd::End] {
+        if let Some(l) = find(ArchLine::Moment(k, end)) {
+            for (name, max, min) in ranges(l) {
+                moment.take(max, &name, || placement_words(&l.traffic_max));
+                moment.take(-min, &name, || placement_words(&l.traffic_min));
+            }
+        }
+    }
+    let least = if largest_n.is_finite() { (-largest_n).max(0.0) } else { 0.0 };
+    ([compression, tension, moment], least)
+}
+
+/// Sizes every group of `valid` from the frame model's traffic report `report` (see the
+/// module doc). Members are per rib line; each group gets one section.
+///
+/// Errors: `Invalid` when the design has no ultimate combination to size with.
+pub fn size_members(valid: &ValidDesign, report: &TrafficReport) -> Result<MemberSizingReport, StaticsError> {
+    let design = valid.design();
+    let ultimate: Vec<&Combination> = design.traffic.combinations.iter().filter(|c| is_ultimate(c)).collect();
+    if ultimate.is_empty() {
+        return Err(StaticsError::Invalid(vec![Problem::new(
+            Field::Combinations,
+            "no ultimate combination (one that factors the permanent action above 1) to size with: add one, or \
+             restore the load model's presets",
+        )]));
+    }
+    let generated = frame_model(valid);
+    let arch = arch_buckling(valid);
+    let sizing = &design.sizing;
+    // members: demand, lengths, group
+    struct Row {
+        k: usize,
+        group: GroupName,
+        length: f64,
+        demand: Demand,
+        lengths: Lengths,
+        parts: [Part; 3],
+    }
+    let model = &generated.model;
+    let rows: Vec<Row> = generated
+        .map
+        .roles
+        .iter()
+        .enumerate()
+        .map(|(k, role)| {
+            let m = &model.members[k];
+            let (a, b) = (&model.nodes[m.start], &model.nodes[m.end]);
+            let length = (b.x - a.x).hypot(b.y - a.y);
+            let group = group_of(*role);
+            let factor = sizing.group(group).length_factor;
+            let lengths = match group {
+                GroupName::Rib => {
+                    Lengths { in_plane: arch.length, out_of_plane: sizing.rib_out_of_plane.unwrap_or(length) }
+                }
+                GroupName::Deck => Lengths { in_plane: factor * length, out_of_plane: 0.0 },
+                _ => Lengths { in_plane: factor * length, out_of_plane: factor * length },
+            };
+            let (parts, least) = member_demand(report, &generated, k, &ultimate);
+            let demand = Demand {
+                compression: parts[0].value,
+                tension: parts[1].value,
+                moment: parts[2].value,
+                least_compression: least,
+            };
+            Row { k, group, length, demand, lengths, parts }
+        })
+        .collect();
+    let mut groups = Vec::new();
+    let mut at_group = vec![None; rows.len()];
+    for g in GroupName::ALL {
+        let s = sizing.group(g);
+        let mine: Vec<&Row> = rows.iter().filter(|r| r.group == g).collect();
+        let typed = typed_section(&design.groups, g);
+        let (outcome, props, family) = match &s.family {
+            None => {
+                let (props, family) = typed_props(&typed, &s.material);
+                (GroupOutcome::AsTyped, Some(props), family)
+            }
+            Some(family) => {
+                // the largest size any member needs
+                let mut need: Option<(f64, String)> = None;
+                let mut failure = None;
+                for r in &mine {
+                    match size_member(&s.material, family, &r.demand, &r.lengths) {
+                        Ok(sized) => {
+                            if need.as_ref().is_none_or(|(size, _)| sized.size > *size) {
+                                need = Some((sized.size, model.member_label(r.k)));
+                            }
+                        }
+                        Err(reason) => {
+                            failure = Some(format!("member {}: {reason}", model.member_label(r.k)));
+                            break;
+                        }
+                    }
+                }
+                match (failure, need) {
+                    (Some(reason), _) => (GroupOutcome::NotSized { reason }, None, *family),
+                    (None, Some((size, _))) => {
+                        let props = family.props(size);
+                        (GroupOutcome::Sized { label: family.label(size), size, props }, Some(props), *family)
+                    }
+                    // no member in the group: nothing to size
+                    (None, None) => (GroupOutcome::AsTyped, None, *family),
+                }
+            }
+        };
+        let mut worst: Option<(f64, String)> = None;
+        if let Some(props) = props {
+            for r in &mine {
+                if let Ok(c) = check(&s.material, &family, &props, &r.demand, &r.lengths) {
+                    if worst.as_ref().is_none_or(|(u, _)| c.utilisation > *u) {
+                        worst = Some((c.utilisation, model.member_label(r.k)));
+                    }
+                    at_group[r.k] = Some(c);
+                }
+            }
+        }
+        let section = match (&outcome, props) {
+            (GroupOutcome::AsTyped, _) => Some(typed),
+            (GroupOutcome::Sized { .. }, Some(p)) => Some(Section {
+                e: s.material.e(),
+                a: p.a,
+                i: p.i,
+                depth: p.depth,
+                unit_weight: s.material.unit_weight(),
+            }),
+            _ => None,
+        };
+        groups.push(GroupReport {
+            group: g.key().into(),
+            material: s.material.name().into(),
+            family: s.family.as_ref().map(|f| f.name().to_string()),
+            outcome,
+            utilisation: worst.as_ref().map(|w| w.0),
+            governing_member: worst.map(|w| w.1),
+            members: mine.len(),
+            section,
+        });
+    }
+    let members = rows
+        .into_iter()
+        .map(|r| {
+            let c = at_group[r.k].take();
+            let governs = c.as_ref().map(|c| c.governs);
+            // the part of the demand the governing mode is about
+            let part = match governs {
+                Some(Mode::Tension) => &r.parts[1],
+                Some(Mode::Bending) => &r.parts[2],
+                Some(Mode::Interaction) if r.parts[2].value > 0.0 && r.parts[0].value <= 0.0 => &r.parts[2],
+                _ if r.parts[0].value > 0.0 => &r.parts[0],
+                _ if r.parts[1].value > 0.0 => &r.parts[1],
+                _ => &r.parts[2],
+            };
+            MemberSizing {
+                member: model.member_label(r.k),
+                group: r.group.key().into(),
+                length: r.length,
+                demand: r.demand,
+                lengths: r.lengths,
+                utilisation: c.as_ref().map(|c| c.utilisation),
+                governs,
+                combination: part.combination.clone(),
+                placement: part.placement.clone(),
+            }
+        })
+        .collect();
+    Ok(MemberSizingReport {
+        combinations: ultimate.iter().map(|c| c.name.clone()).collect(),
+        basis: format!(
+            "Per rib line, over the ultimate combinations ({}): the largest tension, compression and in-plane \
+             moment of each member from the frame model's envelopes, taken together (conservative); one section \
+             per group, the smallest of its family that every member of the group passes. Typed sections are \
+             checked with W = 2 I / depth and the same I out of plane (a typed concrete section with 1 % \
+             reinforcement). The erection stage is checked apart. {}",
+            ultimate.iter().map(|c| c.name.as_str()).collect::<Vec<_>>().join(", "),
+            arch.basis
+        ),
+        arch_buckling: arch,
+        groups,
+        members,
+        caution: CAUTION.into(),
+    })
+}
+
+/// The design with every sized group's section adopted (the typed section replaced by
+/// the sized one: area, I, depth, E and unit weight) and kept sized: what "use these
+/// sizes" does. Groups as typed or not sized stay as they are.
+pub fn adopt_sizes(design: &Design, report: &MemberSizingReport) -> Design {
+    let mut out = design.clone();
+    for g in &report.groups {
+        let (GroupOutcome::Sized { .. }, Some(section)) = (&g.outcome, g.section) else { continue };
+        let Some(name) = GroupName::ALL.into_iter().find(|n| n.key() == g.group) else { continue };
+        let target = match name {
+            GroupName::Rib => &mut out.groups.rib,
+            GroupName::Deck => &mut out.groups.deck,
+            GroupName::Posts => &mut out.groups.posts,
+            GroupName::Piers => &mut out.groups.piers,
+            GroupName::Bracing => &mut out.groups.bracing,
+        };
+        *target = section;
+    }
+    out
+}
+
+/// Everything `springline size` reports: member sizes and utilisations, quantities and
+/// cost index, foundation demand and thrust blocks.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct SizeReport {
+    /// The design's name.
+    pub design: String,
+    /// Units of every number.
+    pub units: String,
+    /// Member sizing.
+    pub sizing: MemberSizingReport,
+    /// Quantities and cost index.
+    pub quantities: crate::arch::quantities::Quantities,
+    /// Foundation demand.
+    pub foundations: crate::arch::foundation::Foundations,
+    /// Caution.
+    pub caution: String,
+}
+
+/// Units of the size report.
+pub const SIZE_UNITS: &str = "m, m2, m3, m4, kN, kNm, kN/m2, t (tonnes), degrees; utilisation = demand / \
+                              resistance (1 = fully used); cost index in the units of the design's rates";
+
+/// Sizes `valid` from its frame model's traffic report `report` (`arch::traffic`),
+/// weighs it and sizes its thrust blocks (the module docs of `arch::sizing`,
+/// `arch::quantities` and `arch::foundation`).
+///
+/// Errors: those of [`size_members`].
+pub fn size_design(valid: &ValidDesign, report: &TrafficReport) -> Result<SizeReport, StaticsError> {
+    let sizing = size_members(valid, report)?;
+    let rib_depth = sizing
+        .groups
+        .iter()
+        .find(|g| g.group == GroupName::Rib.key())
+        .and_then(|g| g.section)
+        .map_or(valid.design().groups.rib.depth, |s| s.depth);
+    let foundations = crate::arch::foundation::foundations(valid, report, rib_depth);
+    let quantities = crate::arch::quantities::quantities(valid, &sizing, &foundations);
+    Ok(SizeReport {
+        design: valid.design().name.clone(),
+        units: SIZE_UNITS.into(),
+        sizing,
+        quantities,
+        foundations,
+        caution: CAUTION.into(),
+    })
+}
