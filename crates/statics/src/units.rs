@@ -67,12 +67,20 @@ pub enum Quantity {
     Count,
     /// Degrees.
     Angle,
+    /// m3 / yd3 (material volumes).
+    Volume,
+    /// t (tonnes, 1000 kg) / US tons (2000 lb): material masses.
+    Mass,
+    /// A ratio shown as a plain number (utilisation: demand over resistance).
+    Ratio,
 }
 
 /// 1 kip = 4.4482216152605 kN (exact by definition of the pound-force and the pound).
 pub const KN_PER_KIP: f64 = 4.448_221_615_260_5;
 /// 1 ft = 0.3048 m (exact).
 pub const M_PER_FT: f64 = 0.3048;
+/// 1 lb = 0.45359237 kg (exact).
+pub const KG_PER_LB: f64 = 0.453_592_37;
 /// 1 in = 0.0254 m (exact).
 pub const M_PER_IN: f64 = 0.0254;
 /// 1 kip = 1000 lbf: psf (lbf/ft2) per ksf (kip/ft2).
@@ -94,6 +102,9 @@ impl Quantity {
             Quantity::UnitWeight => "unit-weight",
             Quantity::Count => "count",
             Quantity::Angle => "angle",
+            Quantity::Volume => "volume",
+            Quantity::Mass => "mass",
+            Quantity::Ratio => "ratio",
         }
     }
 }
@@ -124,7 +135,11 @@ impl Units {
             (Units::UsCustomary, Quantity::Area) => (1.0 / (M_PER_IN * M_PER_IN), "in²"),
             (Units::UsCustomary, Quantity::Inertia) => (1.0 / M_PER_IN.powi(4), "in⁴"),
             (Units::UsCustomary, Quantity::UnitWeight) => (M_PER_FT.powi(3) / KN_PER_KIP * 1000.0, "pcf"),
-            (_, Quantity::Count) => (1.0, ""),
+            (Units::Si, Quantity::Volume) => (1.0, "m³"),
+            (Units::Si, Quantity::Mass) => (1.0, "t"),
+            (Units::UsCustomary, Quantity::Volume) => (1.0 / (3.0 * M_PER_FT).powi(3), "yd³"),
+            (Units::UsCustomary, Quantity::Mass) => (1.0 / (2000.0 * KG_PER_LB / 1000.0), "ton"),
+            (_, Quantity::Count | Quantity::Ratio) => (1.0, ""),
             (_, Quantity::Angle) => (1.0, "°"),
         }
     }
@@ -237,6 +252,9 @@ mod tests {
             (Quantity::Area, 6.4516e-4, "in²"),
             (Quantity::Inertia, 4.162_314_256e-7, "in⁴"),
             (Quantity::UnitWeight, 0.157_087_463_846_246_2, "pcf"),
+            // 1 yd3 = 0.764 554 857 984 m3, 1 US ton = 907.184 74 kg (NIST SP 811, Appendix B)
+            (Quantity::Volume, 0.764_554_857_984, "yd³"),
+            (Quantity::Mass, 0.907_184_74, "ton"),
         ];
         for (q, si, label) in defined {
             let shown = Units::UsCustomary.to_shown(q, si);
