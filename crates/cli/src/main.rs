@@ -8,7 +8,7 @@ use clap::Parser;
 use failure::{EXIT_SUCCESS, EXIT_USAGE};
 use std::process::ExitCode;
 
-/// Concept design of deck-arch bridges: form finding, analysis, models and permalinks.
+/// Concept design of deck-arch bridges: form finding, analysis, sizing, models and permalinks.
 #[derive(Parser)]
 #[command(
     name = "springline",

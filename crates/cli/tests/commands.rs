@@ -60,7 +60,7 @@ fn analyze_help_prints_help_and_reads_no_file() {
 /// own help, with `-h` as with `--help`, and `springline help CMD` says the same.
 #[test]
 fn every_subcommand_has_its_own_help() {
-    let cases: [(&str, &str, &str); 6] = [
+    let cases: [(&str, &str, &str); 7] = [
         ("demo", "Print the demo design as JSON", "springline demo > design.json"),
         ("analyze", "Analyse a design", "springline analyze design.json"),
         ("link", "Print the permalink fragment of a design", "springline link design.json"),
@@ -70,6 +70,11 @@ fn every_subcommand_has_its_own_help() {
             "influence",
             "Print an influence line of the frame model as CSV",
             "springline influence design.json --of thrust",
+        ),
+        (
+            "size",
+            "Size the member groups, weigh the design and size its thrust blocks",
+            "springline size design.json --text",
         ),
     ];
     for (command, description, example) in cases {
@@ -98,7 +103,7 @@ fn top_level_help_has_the_caution_and_the_exit_codes() {
         help.contains("Results are for concept design only; local codes and a licensed engineer govern."),
         "{help}"
     );
-    for command in ["demo", "analyze", "link", "model", "solve", "influence"] {
+    for command in ["demo", "analyze", "link", "model", "solve", "influence", "size"] {
         assert!(help.contains(&format!("\n  {command} ")), "{command}: {help}");
     }
     for code in ["0  success", "1  the engine refused the input", "2  usage error", "3  a file"] {
@@ -357,4 +362,46 @@ fn closed_output_pipe_is_not_an_error() {
     drop(child.stdout.take());
     let out = child.wait_with_output().expect("the springline binary finishes");
     assert_eq!(out.status.code(), Some(0), "{}", text(&out.stderr));
+}
+
+/// `size` prints the sizing report (every group sized on the demo, the thrust blocks,
+/// quantities), a text summary with `--text`, and with `--adopted` a design file whose
+/// typed sections are the sized ones; `--text` and `--adopted` conflict.
+#[test]
+fn size_reports_sizes_quantities_and_foundations() {
+    let out = run(&["size", "-"], &demo_json());
+    assert_eq!(out.status.code(), Some(0), "{}", text(&out.stderr));
+    let report: serde_json::Value = serde_json::from_slice(&out.stdout).expect("size JSON");
+    let groups = report["sizing"]["groups"].as_array().expect("groups");
+    assert_eq!(groups.len(), 5);
+    for g in groups {
+        assert_eq!(g["outcome"]["outcome"], "sized", "{g}");
+        assert!(g["utilisation"].as_f64().is_some_and(|u| u > 0.0 && u <= 1.0), "{g}");
+    }
+    let members = report["sizing"]["members"].as_array().expect("members");
+    assert!(members.iter().all(|m| m["combination"].as_str().is_some_and(|c| c.starts_with("ULS"))));
+    assert!(report["quantities"]["steel"].as_f64().is_some_and(|t| t > 100.0));
+    let left = &report["foundations"]["springings"][0];
+    // 17 023 kN / 1 000 kN/m2 (worked by hand in the engine's tests)
+    let area = left["block"]["bearing_area"].as_f64().expect("area");
+    assert!((area - 17.02).abs() < 0.02, "{area}");
+    assert!(report["caution"].as_str().is_some_and(|c| c.contains("licensed engineer")));
+    assert!(report["units"].as_str().is_some_and(|u| u.contains("t (tonnes)")));
+
+    let out = run(&["size", "--text", "-"], &demo_json());
+    assert_eq!(out.status.code(), Some(0), "{}", text(&out.stderr));
+    let summary = text(&out.stdout);
+    assert!(summary.contains("rib      box ") && summary.contains("left springing: H "), "{summary}");
+    assert!(summary.contains("licensed engineer"), "{summary}");
+
+    let out = run(&["size", "--adopted", "-"], &demo_json());
+    assert_eq!(out.status.code(), Some(0), "{}", text(&out.stderr));
+    let adopted: serde_json::Value = serde_json::from_slice(&out.stdout).expect("design JSON");
+    let rib_area = groups[0]["section"]["a"].as_f64().expect("sized rib area");
+    assert_eq!(adopted["groups"]["rib"]["a"].as_f64(), Some(rib_area));
+    let again = run(&["analyze", "--summary", "-"], &text(&out.stdout));
+    assert_eq!(again.status.code(), Some(0), "the adopted design analyses: {}", text(&again.stderr));
+
+    let err = usage_error(&["size", "--text", "--adopted", "-"]);
+    assert!(err.contains("cannot be used with"), "{err}");
 }

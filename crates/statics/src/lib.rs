@@ -8,11 +8,11 @@
 //! | --- | --- |
 //! | `scene` | drawings as data: shapes, styles and placed labels |
 //! | `link` | the permalink codec |
-//! | `sizing` | member resistance, section families, materials |
-//! | `arch` | the deck arch: design, layout, form, generation, cases, analysis, traffic envelopes |
+//! | `arch` | the deck arch: design, layout, form, generation, cases, analysis, traffic envelopes, sizing, quantities, foundations |
 //! | `traffic` | cross-section, load models, sharing between ribs, combinations |
 //! | `graphic` | reciprocal figure, funicular, thrust line |
 //! | `frame` | model, element, banded factorisation, solver, determinacy |
+//! | `sizing` | member resistance, section families, materials (for any structure) |
 //!
 //! and `error`, `geom`, `tolerance` and `units` (display units), shared by all.
 //!
@@ -29,13 +29,13 @@ pub mod units;
 
 pub mod frame;
 pub mod graphic;
+pub mod sizing;
 
 pub mod traffic;
 
 pub mod arch;
 pub mod link;
 pub mod scene;
-pub mod sizing;
 
 pub use error::{Problem, StaticsError};
 pub use frame::determinacy::{truss_determinacy, Determinacy, DeterminacyReport};
