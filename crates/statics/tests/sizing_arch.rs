@@ -234,3 +234,22 @@ fn the_arch_buckling_length_follows_its_coefficients() {
     // this rise, from memory)
     assert!((1.0..1.1).contains(&b.beta), "{}", b.beta);
 }
+
+/// A design without bracing or approach piers has no members in those groups: they say
+/// so and weigh nothing.
+#[test]
+fn groups_without_members_say_so() {
+    let mut d = Design::demo();
+    d.bracing = springline_statics::arch::design::Bracing::None;
+    d.approach_piers_left = 0;
+    d.approach_piers_right = 0;
+    let (_, _, r) = report_of(&d);
+    for name in ["bracing", "piers"] {
+        let g = group(&r, name);
+        assert_eq!(g.outcome, GroupOutcome::NoMembers, "{name}");
+        assert_eq!(g.members, 0);
+        let line = r.quantities.lines.iter().find(|l| l.item == name).expect("a line");
+        assert_eq!((line.length, line.mass), (0.0, 0.0), "{name}");
+    }
+    assert!(matches!(group(&r, "rib").outcome, GroupOutcome::Sized { .. }));
+}

@@ -75,6 +75,7 @@ pub fn text_summary(r: &SizeReport) -> String {
         let section = match &g.outcome {
             GroupOutcome::Sized { label, .. } => format!("{label} ({})", g.material),
             GroupOutcome::AsTyped => format!("as typed ({})", g.material),
+            GroupOutcome::NoMembers => "no members in this design".into(),
             GroupOutcome::NotSized { reason } => format!("NOT SIZED: {reason}"),
         };
         let used = match (&g.utilisation, &g.governing_member) {

@@ -473,6 +473,8 @@ pub enum GroupOutcome {
     },
     /// The typed section, checked.
     AsTyped,
+    /// The design has no member of this group (no bracing, no approach piers).
+    NoMembers,
     /// No size of the family works, or the family cannot be used: why, in words.
     NotSized {
         /// The reason (naming the member that cannot be sized).
@@ -721,6 +723,7 @@ pub fn size_members(valid: &ValidDesign, report: &TrafficReport) -> Result<Membe
         let mine: Vec<&Row> = rows.iter().filter(|r| r.group == g).collect();
         let typed = typed_section(&design.groups, g);
         let (outcome, props, family) = match &s.family {
+            _ if mine.is_empty() => (GroupOutcome::NoMembers, None, typed_props(&typed, &s.material).1),
             None => {
                 let (props, family) = typed_props(&typed, &s.material);
                 (GroupOutcome::AsTyped, Some(props), family)
@@ -749,7 +752,7 @@ pub fn size_members(valid: &ValidDesign, report: &TrafficReport) -> Result<Membe
                         (GroupOutcome::Sized { label: family.label(size), size, props }, Some(props), *family)
                     }
                     // no member in the group: nothing to size
-                    (None, None) => (GroupOutcome::AsTyped, None, *family),
+                    (None, None) => (GroupOutcome::NoMembers, None, *family),
                 }
             }
         };
