@@ -731,6 +731,9 @@ fn GroupSizingFields(
     });
     let chosen_material =
         Memo::new(move |_| state.design.with(|d| material_key(&d.sizing.group(group).material)));
+    // the name of a material that is no preset (a design file's own values)
+    let own_name =
+        Memo::new(move |_| state.design.with(|d| d.sizing.group(group).material.name().to_string()));
     let on_family = move |ev: leptos::ev::Event| {
         let chosen = event_target_value(&ev);
         let _ = state.try_edit(field, |d| choose_family(d.sizing.group_mut(group), &chosen));
@@ -750,8 +753,7 @@ fn GroupSizingFields(
         let family =
             Family::family_presets().into_iter().find(|(k, _)| *k == chosen_family.get()).map(|(_, f)| f);
         let own = (chosen_material.get() == OWN_MATERIAL).then(|| {
-            let words =
-                state.design.with_untracked(|d| format!("own: {}", d.sizing.group(group).material.name()));
+            let words = format!("own: {}", own_name.get());
             view! { <option value=OWN_MATERIAL selected=true disabled=true>{words}</option> }
         });
         let presets = material_presets()
@@ -899,5 +901,77 @@ fn RibOutOfPlaneField() -> impl IntoView {
             <span class="unit">{unit}</span>
             <FieldProblems field id=format!("{id}-error") local=input_error input_only=true />
         </div>
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn preset(key: &str) -> Material {
+        material_preset(key).unwrap_or_else(|| panic!("preset {key}"))
+    }
+
+    #[test]
+    fn choosing_a_family_keeps_or_switches_the_material_in_one_edit() {
+        // the demo's rib: a welded box of S355 (`SizingDesign::steel`)
+        let mut rib = Design::demo().sizing.rib;
+        choose_family(&mut rib, "chs");
+        assert_eq!(rib.family, Some(Family::Chs { d_over_t: 40.0 }));
+        assert_eq!(rib.material, preset("s355"), "a steel family keeps a steel material");
+        // concrete does not suit S355: the first concrete preset, C30/37, comes with it
+        choose_family(&mut rib, "concrete");
+        assert!(matches!(rib.family, Some(Family::ConcreteRect { .. })));
+        assert_eq!(rib.material, preset("c30-37"));
+        assert_eq!(family_key(rib.family.as_ref().expect("family")), "concrete");
+        // as typed keeps the material the typed section is checked as
+        choose_family(&mut rib, AS_TYPED);
+        assert_eq!((rib.family, rib.material.clone()), (None, preset("c30-37")));
+        // an unknown key changes nothing
+        let before = rib.clone();
+        choose_family(&mut rib, "granite");
+        assert_eq!(rib, before);
+    }
+
+    #[test]
+    fn choosing_the_same_kind_keeps_the_edited_ratios() {
+        let mut rib = Design::demo().sizing.rib;
+        rib.family = Some(Family::WeldedBox { width_over_depth: 0.8, flange_ratio: 25.0, web_ratio: 40.0 });
+        choose_family(&mut rib, "box");
+        assert_eq!(
+            rib.family,
+            Some(Family::WeldedBox { width_over_depth: 0.8, flange_ratio: 25.0, web_ratio: 40.0 })
+        );
+    }
+
+    #[test]
+    fn materials_not_among_the_presets_read_as_own() {
+        assert_eq!(material_key(&preset("gl28h")), "gl28h");
+        let Material::Steel(mut steel) = preset("s355") else { panic!("steel") };
+        steel.fy = 345e3;
+        assert_eq!(material_key(&Material::Steel(steel)), OWN_MATERIAL);
+    }
+
+    #[test]
+    fn every_family_shows_its_own_ratios() {
+        for (key, family) in Family::family_presets() {
+            let shown: Vec<&str> =
+                FAMILY_RATIOS.iter().filter(|r| (r.get)(&family).is_some()).map(|r| r.key).collect();
+            let expected: &[&str] = match key {
+                "chs" => &["d-over-t"],
+                "shs" => &["b-over-t"],
+                "box" => &["width-over-depth", "flange-ratio", "web-ratio"],
+                "concrete" => &["width-over-depth", "reinforcement", "cover"],
+                "glulam" => &["width-over-depth"],
+                other => panic!("a family preset {other} without its ratios listed here"),
+            };
+            assert_eq!(shown, expected, "{key}");
+            // each setter writes what its getter reads
+            for r in FAMILY_RATIOS.iter().filter(|r| (r.get)(&family).is_some()) {
+                let mut f = family;
+                (r.set)(&mut f, 0.123);
+                assert_eq!((r.get)(&f), Some(0.123), "{key} {}", r.key);
+            }
+        }
     }
 }
