@@ -558,6 +558,9 @@ pub fn SectionsPanel() -> impl IntoView {
 
 /// The select value of "as typed" (no family).
 const AS_TYPED: &str = "typed";
+/// Where a group's refusals show when no input of the group was edited last: under its
+/// buckling length, the last of its sizing inputs.
+const END_SLOT: &str = "end";
 /// The select value of a material that is no preset (edited in a design file).
 const OWN_MATERIAL: &str = "own";
 
@@ -714,7 +717,7 @@ const FAMILY_RATIOS: [FamilyRatio; 7] = [
 /// A group's sizing inputs above its typed section: the family ("Sized as"), the
 /// material, the family's ratios, the buckling length (factor K, or the rib's length out
 /// of its plane) and, when sized, what the analysis uses meanwhile. Every edit is
-/// `Field::Sizing(group)`; its refusals show once, under these inputs.
+/// `Field::Sizing(group)`; its refusals show once, under the input last edited.
 #[component]
 fn GroupSizingFields(
     /// The member group.
@@ -734,12 +737,24 @@ fn GroupSizingFields(
     // the name of a material that is no preset (a design file's own values)
     let own_name =
         Memo::new(move |_| state.design.with(|d| d.sizing.group(group).material.name().to_string()));
+    // where the group's refusals show: under the input last edited ("select", a ratio's
+    // key, or END_SLOT), so a message stands beside what caused it
+    let edited_at = RwSignal::new(END_SLOT);
+    let problems_at = move |slot: &'static str| {
+        move || {
+            (edited_at.get() == slot).then(|| {
+                view! { <div class="field"><FieldProblems field id=format!("sizing-{key}-error") /></div> }
+            })
+        }
+    };
     let on_family = move |ev: leptos::ev::Event| {
         let chosen = event_target_value(&ev);
+        edited_at.set("select");
         let _ = state.try_edit(field, |d| choose_family(d.sizing.group_mut(group), &chosen));
     };
     let on_material = move |ev: leptos::ev::Event| {
         if let Some(material) = material_preset(&event_target_value(&ev)) {
+            edited_at.set("select");
             let _ = state.try_edit(field, |d| d.sizing.group_mut(group).material = material);
         }
     };
@@ -777,11 +792,12 @@ fn GroupSizingFields(
             .iter()
             .filter(|r| (r.get)(&family).is_some())
             .map(|r| {
-                let (get, set) = (r.get, r.set);
+                let (get, set, slot) = (r.get, r.set, r.key);
                 let value = Signal::derive(move || {
                     state.design.with(|d| d.sizing.group(group).family.as_ref().and_then(get).unwrap_or(f64::NAN))
                 });
                 let on_commit = Callback::new(move |v: f64| {
+                    edited_at.set(slot);
                     state.try_edit(field, |d| {
                         if let Some(f) = d.sizing.group_mut(group).family.as_mut() {
                             set(f, v);
@@ -790,6 +806,7 @@ fn GroupSizingFields(
                 });
                 view! {
                     <NumberField label=r.label spoken=format!("{name}, {}", r.label) id=format!("sizing-{key}-{}", r.key) field quantity=r.quantity value on_commit min=r.range.0 max=r.range.1 shared_field=true />
+                    {problems_at(slot)}
                 }
             })
             .collect_view()
@@ -797,13 +814,14 @@ fn GroupSizingFields(
     };
     let length = if group == GroupName::Rib {
         view! {
-            <RibOutOfPlaneField />
-            <p class="hint">"In its plane the rib buckles as a whole arch: its length follows from the rise and span."</p>
+            <RibOutOfPlaneField edited_at />
+            <p class="hint">"Out of plane, empty: each rib segment (held sideways at every rib node). In its plane the rib buckles as a whole arch, over a length that follows from rise and span."</p>
         }
         .into_any()
     } else {
         let value = Signal::derive(move || state.design.with(|d| d.sizing.group(group).length_factor));
         let on_commit = Callback::new(move |v: f64| {
+            edited_at.set(END_SLOT);
             state.try_edit(field, |d| d.sizing.group_mut(group).length_factor = v)
         });
         let label = if group == GroupName::Deck {
@@ -820,7 +838,7 @@ fn GroupSizingFields(
         (chosen_family.get() != AS_TYPED).then(|| {
             view! {
                 <p class="hint" id=format!("sizing-{key}-hint")>
-                    "The analysis uses the typed values below until the sizes are adopted (Sizes view, “Use these sizes”)."
+                    "Analysed with the typed values below until the sizes are adopted (Sizes view, “Use these sizes”)."
                 </p>
             }
         })
@@ -830,7 +848,8 @@ fn GroupSizingFields(
             .then(|| view! { <p class="hint">"The typed values below are analysed and checked as this material."</p> })
     };
     view! {
-        <div class="field">
+        // wide: the family names are long ("concrete rectangle")
+        <div class="field wide">
             <label for=format!("sizing-{key}-family")>"Sized as"</label>
             <select id=format!("sizing-{key}-family") aria-label=format!("{name}, sized as") on:change=on_family>
                 {family_options}
@@ -842,11 +861,10 @@ fn GroupSizingFields(
                 {material_options}
             </select>
         </div>
+        {problems_at("select")}
         {ratios}
         {length}
-        <div class="field">
-            <FieldProblems field id=format!("sizing-{key}-error") />
-        </div>
+        {problems_at(END_SLOT)}
         {adopted_hint}
         {typed_hint}
     }
@@ -855,7 +873,10 @@ fn GroupSizingFields(
 /// The rib's buckling length out of its plane: a length, or empty for each rib
 /// segment's own length (the rib held sideways at every rib node).
 #[component]
-fn RibOutOfPlaneField() -> impl IntoView {
+fn RibOutOfPlaneField(
+    /// Where the rib group's refusals show: set to `END_SLOT` (under this field) on commit.
+    edited_at: RwSignal<&'static str>,
+) -> impl IntoView {
     let state = expect_context::<AppState>();
     let field = Field::Sizing(GroupName::Rib);
     let id = "sizing-rib-out-of-plane";
@@ -875,6 +896,7 @@ fn RibOutOfPlaneField() -> impl IntoView {
         match length {
             Ok(length) => {
                 input_error.set(None);
+                edited_at.set(END_SLOT);
                 // a refusal is recorded in the state and shown under the group's inputs
                 let _ = state.try_edit(field, |d| d.sizing.rib_out_of_plane = length);
             }
@@ -887,12 +909,12 @@ fn RibOutOfPlaneField() -> impl IntoView {
     let unit = move || state.units.get().label(Quantity::Length);
     view! {
         <div class="field" class:invalid=move || input_error.with(Option::is_some)>
-            <label for=id>"Buckling length out of plane"</label>
+            <label for=id>"Buckling length, out of plane"</label>
             <input
                 id=id
                 type="text"
                 inputmode="decimal"
-                placeholder="each segment"
+                placeholder="segment"
                 aria-label="Rib, buckling length out of its plane (empty: each rib segment)"
                 aria-describedby=format!("{id}-error")
                 prop:value=shown

@@ -106,9 +106,9 @@ pub fn MassingPanel() -> impl IntoView {
                     |d| d.sizing.deck_section.cross_girder_area, |d, v| d.sizing.deck_section.cross_girder_area = v, (0.0, 100.0))}
                 {massing_field("Cross-girder unit weight", "deck-girder-weight", Deck, UnitWeight,
                     |d| d.sizing.deck_section.cross_girder_unit_weight, |d, v| d.sizing.deck_section.cross_girder_unit_weight = v, (0.0, 1000.0))}
-                {massing_field("Other dead load (parapets, services)", "deck-other-load", Deck, Pressure,
+                {massing_field("Other dead load", "deck-other-load", Deck, Pressure,
                     |d| d.sizing.deck_section.other_dead_load, |d, v| d.sizing.deck_section.other_dead_load = v, (0.0, 1000.0))}
-                <p class="hint">"Each cross-girder spans the deck width; the other dead load counts only with the slab and cross-girders."</p>
+                <p class="hint">"Each cross-girder spans the deck width; the other dead load (parapets, services) counts only with the slab and cross-girders."</p>
                 <div class="field"><FieldProblems field=Deck id="deck-section-error" /></div>
             </fieldset>
             <fieldset class="section-group">
