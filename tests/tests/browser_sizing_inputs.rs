@@ -134,7 +134,7 @@ fn sizing_inputs_reach_the_link_are_checked_and_the_deck_weight_moves_the_thrust
     assert!(shown.contains("0.04"), "{shown}");
     // the design stays: the link still holds it and so does the analysis
     assert_eq!(
-        permalink::decode(&s.exec("return location.hash;", vec![]).as_str().unwrap_or("")),
+        permalink::decode(s.exec("return location.hash;", vec![]).as_str().unwrap_or("")),
         Ok(sized.clone())
     );
     let sized_thrust = analyze(&sized).expect("the sized design analyses").form.thrust;
