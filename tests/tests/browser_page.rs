@@ -144,7 +144,16 @@ fn every_input_and_button_says_what_it_is() {
         s.exec("return [...document.querySelectorAll('aside.controls h3')].map(h => h.textContent);", vec![]);
     assert_eq!(
         headings,
-        json!(["Ground", "Roadway", "Arch", "Loads", "Traffic", "Temperature and other actions", "Sections"])
+        json!([
+            "Ground",
+            "Roadway",
+            "Arch",
+            "Loads",
+            "Traffic",
+            "Temperature and other actions",
+            "Sections",
+            "Deck, rates and ground"
+        ])
     );
     std::fs::write(screenshots_dir().join("page-1500x900.png"), s.screenshot()).expect("screenshot");
 }

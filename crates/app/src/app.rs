@@ -91,6 +91,7 @@ fn DesignInputs() -> impl IntoView {
                 <TrafficPanel />
                 <crate::components::actions::ActionsPanel />
                 <SectionsPanel />
+                <crate::components::massing::MassingPanel />
             </div>
         </aside>
     }

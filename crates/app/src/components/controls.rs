@@ -1,5 +1,6 @@
-//! The control panels: Ground, Roadway, Arch, Loads and Sections (Traffic is in
-//! `traffic.rs`). Every field has a unit,
+//! The control panels: Ground, Roadway, Arch, Loads and Sections with each group's
+//! sizing (Traffic is in `traffic.rs`; the deck cross-section, rates and ground in
+//! `massing.rs`). Every field has a unit,
 //! a valid range and its design field (`Field`); when the engine refuses an edit, each of
 //! its problems is shown beside every field it involves (all of them beside the edited
 //! field) and the last good design stays on screen.
@@ -10,7 +11,10 @@ use leptos::prelude::*;
 use springline_statics::arch::design::{
     Bracing, Crown, GroundPoint, RibSystem, Section, MAX_APPROACH_PIERS, MAX_PANELS, MAX_RIBS, MIN_PANELS,
 };
+use springline_statics::arch::sizing::GroupSizing;
 use springline_statics::error::{Field, GroupName, SectionProperty, StaticsError};
+use springline_statics::sizing::materials::{material_preset, material_presets, Material};
+use springline_statics::sizing::sections::Family;
 use springline_statics::Design;
 
 /// Fewest ribs the engine accepts (it refuses a deck on no ribs; `MAX_RIBS` is the most).
@@ -534,14 +538,462 @@ pub fn SectionsPanel() -> impl IntoView {
                     }
                 })
                 .collect_view();
-            view! { <fieldset class="section-group"><legend>{name}</legend>{cells}</fieldset> }
+            view! {
+                <fieldset class="section-group">
+                    <legend>{name}</legend>
+                    <GroupSizingFields group name />
+                    {cells}
+                </fieldset>
+            }
         })
         .collect_view();
     view! {
         <details class="panel">
             <summary><h3>"Sections"</h3></summary>
-            <p class="hint">"Per rib line; the plane model carries all ribs together."</p>
+            <p class="hint">"Per rib line; the plane model carries all ribs together. Size a group in a family and material, or keep the typed values and have them checked."</p>
             {rows}
         </details>
+    }
+}
+
+/// The select value of "as typed" (no family).
+const AS_TYPED: &str = "typed";
+/// Where a group's refusals show when no input of the group was edited last: under its
+/// buckling length, the last of its sizing inputs.
+const END_SLOT: &str = "end";
+/// The select value of a material that is no preset (edited in a design file).
+const OWN_MATERIAL: &str = "own";
+
+/// The key of the family preset of `family`'s kind (`chs`, `shs`, `box`, `concrete`,
+/// `glulam`): the presets hold one family of each kind.
+fn family_key(family: &Family) -> &'static str {
+    Family::family_presets()
+        .into_iter()
+        .find(|(_, preset)| std::mem::discriminant(preset) == std::mem::discriminant(family))
+        .map_or(AS_TYPED, |(key, _)| key)
+}
+
+/// The key of the material preset equal to `material`, or `OWN_MATERIAL`.
+fn material_key(material: &Material) -> &'static str {
+    material_presets().into_iter().find(|(_, m, _)| m == material).map_or(OWN_MATERIAL, |(key, _, _)| key)
+}
+
+/// A group's sizing after the "Sized as" select chose `key`: `AS_TYPED` keeps the typed
+/// section (and the material it is checked as); a family keeps its ratios when the kind
+/// stays, else takes the preset's, and the material becomes the first preset the family
+/// suits when the current one does not suit it (one edit, so the design never holds a
+/// family of the wrong material).
+pub(crate) fn choose_family(sizing: &mut GroupSizing, key: &str) {
+    if key == AS_TYPED {
+        sizing.family = None;
+        return;
+    }
+    let Some(family) = Family::family_presets().into_iter().find(|(k, _)| *k == key).map(|(_, f)| f) else {
+        return;
+    };
+    if sizing.family.as_ref().map(family_key) != Some(key) {
+        sizing.family = Some(family);
+    }
+    if !family.suits(&sizing.material) {
+        if let Some((_, material, _)) = material_presets().into_iter().find(|(_, m, _)| family.suits(m)) {
+            sizing.material = material;
+        }
+    }
+}
+
+/// One ratio of a section family: its words, id suffix, unit and where it sits in the
+/// families that have it.
+struct FamilyRatio {
+    label: &'static str,
+    key: &'static str,
+    quantity: Quantity,
+    get: fn(&Family) -> Option<f64>,
+    set: fn(&mut Family, f64),
+    /// Local bounds of the typed number (the engine's checks give the real limits).
+    range: (f64, f64),
+}
+
+/// The ratios of every family, in the order shown; each family shows those whose `get`
+/// answers.
+const FAMILY_RATIOS: [FamilyRatio; 7] = [
+    FamilyRatio {
+        label: "Diameter / wall, D/t",
+        key: "d-over-t",
+        quantity: Quantity::Ratio,
+        get: |f| if let Family::Chs { d_over_t } = f { Some(*d_over_t) } else { None },
+        set: |f, v| {
+            if let Family::Chs { d_over_t } = f {
+                *d_over_t = v;
+            }
+        },
+        range: (0.0, 1000.0),
+    },
+    FamilyRatio {
+        label: "Width / wall, b/t",
+        key: "b-over-t",
+        quantity: Quantity::Ratio,
+        get: |f| if let Family::Shs { b_over_t } = f { Some(*b_over_t) } else { None },
+        set: |f, v| {
+            if let Family::Shs { b_over_t } = f {
+                *b_over_t = v;
+            }
+        },
+        range: (0.0, 1000.0),
+    },
+    FamilyRatio {
+        label: "Width / depth",
+        key: "width-over-depth",
+        quantity: Quantity::Ratio,
+        get: |f| match f {
+            Family::WeldedBox { width_over_depth, .. }
+            | Family::ConcreteRect { width_over_depth, .. }
+            | Family::GlulamRect { width_over_depth } => Some(*width_over_depth),
+            _ => None,
+        },
+        set: |f, v| match f {
+            Family::WeldedBox { width_over_depth, .. }
+            | Family::ConcreteRect { width_over_depth, .. }
+            | Family::GlulamRect { width_over_depth } => *width_over_depth = v,
+            _ => {}
+        },
+        range: (0.0, 20.0),
+    },
+    FamilyRatio {
+        label: "Width / flange thickness",
+        key: "flange-ratio",
+        quantity: Quantity::Ratio,
+        get: |f| if let Family::WeldedBox { flange_ratio, .. } = f { Some(*flange_ratio) } else { None },
+        set: |f, v| {
+            if let Family::WeldedBox { flange_ratio, .. } = f {
+                *flange_ratio = v;
+            }
+        },
+        range: (0.0, 1000.0),
+    },
+    FamilyRatio {
+        label: "Depth / web thickness",
+        key: "web-ratio",
+        quantity: Quantity::Ratio,
+        get: |f| if let Family::WeldedBox { web_ratio, .. } = f { Some(*web_ratio) } else { None },
+        set: |f, v| {
+            if let Family::WeldedBox { web_ratio, .. } = f {
+                *web_ratio = v;
+            }
+        },
+        range: (0.0, 1000.0),
+    },
+    FamilyRatio {
+        label: "Reinforcement, A_s / A_c",
+        key: "reinforcement",
+        quantity: Quantity::Ratio,
+        get: |f| {
+            if let Family::ConcreteRect { reinforcement_ratio, .. } = f {
+                Some(*reinforcement_ratio)
+            } else {
+                None
+            }
+        },
+        set: |f, v| {
+            if let Family::ConcreteRect { reinforcement_ratio, .. } = f {
+                *reinforcement_ratio = v;
+            }
+        },
+        range: (0.0, 1.0),
+    },
+    FamilyRatio {
+        label: "Cover to bar centres",
+        key: "cover",
+        quantity: Quantity::SectionDepth,
+        get: |f| if let Family::ConcreteRect { cover, .. } = f { Some(*cover) } else { None },
+        set: |f, v| {
+            if let Family::ConcreteRect { cover, .. } = f {
+                *cover = v;
+            }
+        },
+        range: (0.0, 10.0),
+    },
+];
+
+/// A group's sizing inputs above its typed section: the family ("Sized as"), the
+/// material, the family's ratios, the buckling length (factor K, or the rib's length out
+/// of its plane) and, when sized, what the analysis uses meanwhile. Every edit is
+/// `Field::Sizing(group)`; its refusals show once, under the input last edited.
+#[component]
+fn GroupSizingFields(
+    /// The member group.
+    group: GroupName,
+    /// The group's name as its fieldset heads it.
+    name: &'static str,
+) -> impl IntoView {
+    let state = expect_context::<AppState>();
+    let field = Field::Sizing(group);
+    let key = group.key();
+    // keys only: a ratio edited keeps the same fields (and focus) on screen
+    let chosen_family = Memo::new(move |_| {
+        state.design.with(|d| d.sizing.group(group).family.as_ref().map_or(AS_TYPED, family_key))
+    });
+    let chosen_material =
+        Memo::new(move |_| state.design.with(|d| material_key(&d.sizing.group(group).material)));
+    // the name of a material that is no preset (a design file's own values)
+    let own_name =
+        Memo::new(move |_| state.design.with(|d| d.sizing.group(group).material.name().to_string()));
+    // where the group's refusals show: under the input last edited ("select", a ratio's
+    // key, or END_SLOT), so a message stands beside what caused it
+    let edited_at = RwSignal::new(END_SLOT);
+    let problems_at = move |slot: &'static str| {
+        move || {
+            (edited_at.get() == slot).then(|| {
+                view! { <div class="field"><FieldProblems field id=format!("sizing-{key}-error") /></div> }
+            })
+        }
+    };
+    let on_family = move |ev: leptos::ev::Event| {
+        let chosen = event_target_value(&ev);
+        edited_at.set("select");
+        let _ = state.try_edit(field, |d| choose_family(d.sizing.group_mut(group), &chosen));
+    };
+    let on_material = move |ev: leptos::ev::Event| {
+        if let Some(material) = material_preset(&event_target_value(&ev)) {
+            edited_at.set("select");
+            let _ = state.try_edit(field, |d| d.sizing.group_mut(group).material = material);
+        }
+    };
+    let family_options = std::iter::once((AS_TYPED, "as typed"))
+        .chain(Family::family_presets().into_iter().map(|(k, f)| (k, f.name())))
+        .map(|(value, words)| {
+            view! { <option value=value prop:selected=move || chosen_family.get() == value>{words}</option> }
+        })
+        .collect_view();
+    let material_options = move || {
+        let family =
+            Family::family_presets().into_iter().find(|(k, _)| *k == chosen_family.get()).map(|(_, f)| f);
+        let own = (chosen_material.get() == OWN_MATERIAL).then(|| {
+            let words = format!("own: {}", own_name.get());
+            view! { <option value=OWN_MATERIAL selected=true disabled=true>{words}</option> }
+        });
+        let presets = material_presets()
+            .into_iter()
+            .filter(|(_, m, _)| family.is_none_or(|f| f.suits(m)))
+            .map(|(value, m, source)| {
+                view! {
+                    <option value=value title=source prop:selected=move || chosen_material.get() == value>
+                        {m.name().to_string()}
+                    </option>
+                }
+            })
+            .collect_view();
+        view! { {presets}{own} }
+    };
+    let ratios = move || {
+        let family =
+            Family::family_presets().into_iter().find(|(k, _)| *k == chosen_family.get()).map(|(_, f)| f);
+        let Some(family) = family else { return ().into_any() };
+        FAMILY_RATIOS
+            .iter()
+            .filter(|r| (r.get)(&family).is_some())
+            .map(|r| {
+                let (get, set, slot) = (r.get, r.set, r.key);
+                let value = Signal::derive(move || {
+                    state.design.with(|d| d.sizing.group(group).family.as_ref().and_then(get).unwrap_or(f64::NAN))
+                });
+                let on_commit = Callback::new(move |v: f64| {
+                    edited_at.set(slot);
+                    state.try_edit(field, |d| {
+                        if let Some(f) = d.sizing.group_mut(group).family.as_mut() {
+                            set(f, v);
+                        }
+                    })
+                });
+                view! {
+                    <NumberField label=r.label spoken=format!("{name}, {}", r.label) id=format!("sizing-{key}-{}", r.key) field quantity=r.quantity value on_commit min=r.range.0 max=r.range.1 shared_field=true />
+                    {problems_at(slot)}
+                }
+            })
+            .collect_view()
+            .into_any()
+    };
+    let length = if group == GroupName::Rib {
+        view! {
+            <RibOutOfPlaneField edited_at />
+            <p class="hint">"Out of plane, empty: each rib segment (held sideways at every rib node). In its plane the rib buckles as a whole arch, over a length that follows from rise and span."</p>
+        }
+        .into_any()
+    } else {
+        let value = Signal::derive(move || state.design.with(|d| d.sizing.group(group).length_factor));
+        let on_commit = Callback::new(move |v: f64| {
+            edited_at.set(END_SLOT);
+            state.try_edit(field, |d| d.sizing.group_mut(group).length_factor = v)
+        });
+        let label = if group == GroupName::Deck {
+            "Buckling length factor K (in plane)"
+        } else {
+            "Buckling length factor K"
+        };
+        view! {
+            <NumberField label spoken=format!("{name}, buckling length factor K") id=format!("sizing-{key}-k") field quantity=Quantity::Ratio value on_commit min=0.0 max=100.0 shared_field=true />
+        }
+        .into_any()
+    };
+    let adopted_hint = move || {
+        (chosen_family.get() != AS_TYPED).then(|| {
+            view! {
+                <p class="hint" id=format!("sizing-{key}-hint")>
+                    "Analysed with the typed values below until the sizes are adopted (Sizes view, “Use these sizes”)."
+                </p>
+            }
+        })
+    };
+    let typed_hint = move || {
+        (chosen_family.get() == AS_TYPED)
+            .then(|| view! { <p class="hint">"The typed values below are analysed and checked as this material."</p> })
+    };
+    view! {
+        // wide: the family names are long ("concrete rectangle")
+        <div class="field wide">
+            <label for=format!("sizing-{key}-family")>"Sized as"</label>
+            <select id=format!("sizing-{key}-family") aria-label=format!("{name}, sized as") on:change=on_family>
+                {family_options}
+            </select>
+        </div>
+        <div class="field">
+            <label for=format!("sizing-{key}-material")>"Material"</label>
+            <select id=format!("sizing-{key}-material") aria-label=format!("{name}, material") on:change=on_material>
+                {material_options}
+            </select>
+        </div>
+        {problems_at("select")}
+        {ratios}
+        {length}
+        {problems_at(END_SLOT)}
+        {adopted_hint}
+        {typed_hint}
+    }
+}
+
+/// The rib's buckling length out of its plane: a length, or empty for each rib
+/// segment's own length (the rib held sideways at every rib node).
+#[component]
+fn RibOutOfPlaneField(
+    /// Where the rib group's refusals show: set to `END_SLOT` (under this field) on commit.
+    edited_at: RwSignal<&'static str>,
+) -> impl IntoView {
+    let state = expect_context::<AppState>();
+    let field = Field::Sizing(GroupName::Rib);
+    let id = "sizing-rib-out-of-plane";
+    let input_error = RwSignal::new(None::<String>);
+    let shown = move || {
+        let units = state.units.get();
+        state.design.with(|d| {
+            d.sizing.rib_out_of_plane.map_or(String::new(), |l| input_text(units, Quantity::Length, l, false))
+        })
+    };
+    let commit = move |text: String| {
+        let length = if text.trim().is_empty() {
+            Ok(None)
+        } else {
+            parse_number(&text).map(|v| Some(state.units.get_untracked().to_si(Quantity::Length, v)))
+        };
+        match length {
+            Ok(length) => {
+                input_error.set(None);
+                edited_at.set(END_SLOT);
+                // a refusal is recorded in the state and shown under the group's inputs
+                let _ = state.try_edit(field, |d| d.sizing.rib_out_of_plane = length);
+            }
+            Err(e) => {
+                state.clear_refusal();
+                input_error.set(Some(e));
+            }
+        }
+    };
+    let unit = move || state.units.get().label(Quantity::Length);
+    view! {
+        <div class="field" class:invalid=move || input_error.with(Option::is_some)>
+            <label for=id>"Buckling length, out of plane"</label>
+            <input
+                id=id
+                type="text"
+                inputmode="decimal"
+                placeholder="segment"
+                aria-label="Rib, buckling length out of its plane (empty: each rib segment)"
+                aria-describedby=format!("{id}-error")
+                prop:value=shown
+                on:change=move |ev| commit(event_target_value(&ev))
+            />
+            <span class="unit">{unit}</span>
+            <FieldProblems field id=format!("{id}-error") local=input_error input_only=true />
+        </div>
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn preset(key: &str) -> Material {
+        material_preset(key).unwrap_or_else(|| panic!("preset {key}"))
+    }
+
+    #[test]
+    fn choosing_a_family_keeps_or_switches_the_material_in_one_edit() {
+        // the demo's rib: a welded box of S355 (`SizingDesign::steel`)
+        let mut rib = Design::demo().sizing.rib;
+        choose_family(&mut rib, "chs");
+        assert_eq!(rib.family, Some(Family::Chs { d_over_t: 40.0 }));
+        assert_eq!(rib.material, preset("s355"), "a steel family keeps a steel material");
+        // concrete does not suit S355: the first concrete preset, C30/37, comes with it
+        choose_family(&mut rib, "concrete");
+        assert!(matches!(rib.family, Some(Family::ConcreteRect { .. })));
+        assert_eq!(rib.material, preset("c30-37"));
+        assert_eq!(family_key(rib.family.as_ref().expect("family")), "concrete");
+        // as typed keeps the material the typed section is checked as
+        choose_family(&mut rib, AS_TYPED);
+        assert_eq!((rib.family, rib.material.clone()), (None, preset("c30-37")));
+        // an unknown key changes nothing
+        let before = rib.clone();
+        choose_family(&mut rib, "granite");
+        assert_eq!(rib, before);
+    }
+
+    #[test]
+    fn choosing_the_same_kind_keeps_the_edited_ratios() {
+        let mut rib = Design::demo().sizing.rib;
+        rib.family = Some(Family::WeldedBox { width_over_depth: 0.8, flange_ratio: 25.0, web_ratio: 40.0 });
+        choose_family(&mut rib, "box");
+        assert_eq!(
+            rib.family,
+            Some(Family::WeldedBox { width_over_depth: 0.8, flange_ratio: 25.0, web_ratio: 40.0 })
+        );
+    }
+
+    #[test]
+    fn materials_not_among_the_presets_read_as_own() {
+        assert_eq!(material_key(&preset("gl28h")), "gl28h");
+        let Material::Steel(mut steel) = preset("s355") else { panic!("steel") };
+        steel.fy = 345e3;
+        assert_eq!(material_key(&Material::Steel(steel)), OWN_MATERIAL);
+    }
+
+    #[test]
+    fn every_family_shows_its_own_ratios() {
+        for (key, family) in Family::family_presets() {
+            let shown: Vec<&str> =
+                FAMILY_RATIOS.iter().filter(|r| (r.get)(&family).is_some()).map(|r| r.key).collect();
+            let expected: &[&str] = match key {
+                "chs" => &["d-over-t"],
+                "shs" => &["b-over-t"],
+                "box" => &["width-over-depth", "flange-ratio", "web-ratio"],
+                "concrete" => &["width-over-depth", "reinforcement", "cover"],
+                "glulam" => &["width-over-depth"],
+                other => panic!("a family preset {other} without its ratios listed here"),
+            };
+            assert_eq!(shown, expected, "{key}");
+            // each setter writes what its getter reads
+            for r in FAMILY_RATIOS.iter().filter(|r| (r.get)(&family).is_some()) {
+                let mut f = family;
+                (r.set)(&mut f, 0.123);
+                assert_eq!((r.get)(&f), Some(0.123), "{key} {}", r.key);
+            }
+        }
     }
 }

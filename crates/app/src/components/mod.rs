@@ -5,6 +5,7 @@ pub mod canvases;
 pub mod controls;
 pub mod envelope;
 pub mod influence_chart;
+pub mod massing;
 pub mod readout;
 pub mod results;
 pub mod scenarios;
