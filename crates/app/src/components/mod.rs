@@ -8,6 +8,7 @@ pub mod influence_chart;
 pub mod readout;
 pub mod results;
 pub mod scenarios;
+pub mod sizing;
 pub mod status;
 pub mod toolbar;
 pub mod traffic;
