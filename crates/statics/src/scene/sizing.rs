@@ -331,10 +331,12 @@ fn blocks(
         } else {
             &[Side::BelowLeft, Side::Left, Side::Below, Side::BelowRight]
         };
+        let words = resultant_words(s, units);
         placer.place(
-            Request::new(resultant_words(s, units), TextSize::Small, Ink::Text, centre)
+            Request::new(words.clone(), TextSize::Small, Ink::Text, centre)
                 .sides(sides)
-                .short(format!("R {}", units.show(Quantity::Force, s.resultant))),
+                .short(format!("R {}", units.show(Quantity::Force, s.resultant)))
+                .detail(words),
         );
     }
 }
