@@ -91,11 +91,15 @@ fn the_sizes_view_shows_the_engines_report_and_its_sizes_can_be_used_and_undone(
         "the left block's label on the elevation",
         &format!(
             "const l = JSON.parse(document.getElementById('elevation').dataset.labels || '[]');
-             return l.some(x => x.text === {w} || x.detail === {w});",
+             return l.some(x => x.text.startsWith({w}) || (x.detail || '').startsWith({w}));",
             w = json!(words)
         ),
         WAIT,
     );
+    // the elevation at the top of the window, the panel under it
+    s.exec("document.getElementById('elevation').scrollIntoView({ block: 'start' });", vec![]);
+    std::fs::write(screenshots_dir().join("sizing.png"), s.screenshot()).expect("screenshot");
+
 
     // use the sizes: the rib's area field shows the sized area; undo brings the typed one
     wait_input(&s, "section-rib-a", demo.groups.rib.a);

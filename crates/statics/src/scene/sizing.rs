@@ -13,7 +13,7 @@
 //! (in the arch plane) is normal to the characteristic resultant, at the angle
 //! `block.face_angle` below the horizontal, and the block runs `block.thickness` along
 //! the resultant from the springing into the ground, both at the drawing's scale. Its
-//! label gives the resultant and its angle. Concept-design values: local codes and a
+//! label gives the resultant, its angle and the block's length and thickness. Concept-design values: local codes and a
 //! licensed engineer govern.
 
 use super::elevation::{elevation_with_overlay, ElevationOptions, KeyEntry, Overlay};
@@ -185,7 +185,7 @@ pub fn sizing_elevation(
         text: "thrust block to scale".into(),
         ink: Ink::Text,
     });
-    let title = format!("Sizes and utilisation, per rib line ({})", report.sizing.combinations.join(", "));
+    let title = "Sizes and utilisation per rib line, ultimate combinations".to_string();
     let draw = |t: &Transform, items: &mut Vec<Item>, placer: &mut Placer| {
         blocks(analysis, report, t, opts.units, items, placer);
         members(analysis, report, t, opts.highlight, items);
@@ -293,7 +293,8 @@ fn group_labels(analysis: &Analysis, report: &SizeReport, t: &Transform, placer:
     }
 }
 
-/// The label of a springing's block: "R 17 023 kN at 41.70°" in `units`.
+/// The resultant's words on a springing's block: "R 17 023 kN at 41.65°" in `units`
+/// (the label adds the block's length and thickness).
 pub fn resultant_words(s: &SpringingDemand, units: Units) -> String {
     format!("R {} at {}", units.show(Quantity::Force, s.resultant), units.show(Quantity::Angle, s.angle))
 }
@@ -316,10 +317,11 @@ fn blocks(
         }
         let corners = block_corners((sp.x, sp.y), left, b.face_angle, b.length, b.thickness);
         let points: Vec<Px> = corners.iter().map(|&(x, y)| t.px(x, y)).collect();
+        // dark on the elevation's light abutment, so a small block still shows
         items.push(Item {
             shape: Shape::Path { points: points.clone(), closed: true },
-            stroke: Some(Stroke::solid(Ink::Ground, 1.5)),
-            fill: Some(Ink::Concrete),
+            stroke: Some(Stroke::solid(Ink::Text, 1.0)),
+            fill: Some(Ink::Ground),
             tag: Tag::None,
         });
         let centre = Px::new(
@@ -332,11 +334,22 @@ fn blocks(
             &[Side::BelowLeft, Side::Left, Side::Below, Side::BelowRight]
         };
         let words = resultant_words(s, units);
+        // the block's size in words too: at the scale of a whole valley it is small
+        let sized = format!(
+            "{words}, block {} × {}",
+            units.show(Quantity::Length, b.length),
+            units.show(Quantity::Length, b.thickness)
+        );
         placer.place(
-            Request::new(words.clone(), TextSize::Small, Ink::Text, centre)
+            Request::new(sized, TextSize::Small, Ink::Text, centre)
                 .sides(sides)
-                .short(format!("R {}", units.show(Quantity::Force, s.resultant)))
-                .detail(words),
+                .short(words.clone())
+                .detail(format!(
+                    "{words}; block {} x {} x {} (across, in the arch plane, along R)",
+                    units.show(Quantity::Length, b.width),
+                    units.show(Quantity::Length, b.length),
+                    units.show(Quantity::Length, b.thickness)
+                )),
         );
     }
 }
@@ -438,7 +451,7 @@ mod tests {
         let blocks: Vec<&Vec<Px>> = s
             .items
             .iter()
-            .filter(|i| i.fill == Some(Ink::Concrete) && i.stroke.is_some_and(|s| s.ink == Ink::Ground))
+            .filter(|i| i.fill == Some(Ink::Ground) && i.stroke.is_some_and(|s| s.ink == Ink::Text))
             .filter_map(|i| match &i.shape {
                 Shape::Path { points, closed: true } => Some(points),
                 _ => None,
@@ -459,13 +472,14 @@ mod tests {
             assert!((angle - sp.block.face_angle).abs() < 1e-6, "{angle} vs {}", sp.block.face_angle);
             assert_eq!(dx < 0.0, sp.side == "left", "outward at the {} springing", sp.side);
             let words = resultant_words(sp, Units::Si);
-            assert!(s.labels.iter().any(|l| l.text == words), "{words}");
+            assert!(s.labels.iter().any(|l| l.text.starts_with(&words)), "{words}");
         }
         assert!(r.foundations.springings[0].resultant > 0.0);
     }
 
-    /// The key names every band, as typed and not sized; the title names the
-    /// combinations; the rib's label gives its sized section and utilisation.
+    /// The key names every band, as typed and not sized; the title says the values are
+    /// the ultimate combinations'; the rib's label gives its sized section and
+    /// utilisation.
     #[test]
     fn the_legend_and_group_labels_are_there() {
         let (d, a, r) = demo();
@@ -478,7 +492,7 @@ mod tests {
             assert!(texts.contains(&words), "{words} in {texts:?}");
         }
         let title = s.labels.iter().find(|l| l.text.starts_with("Elevation")).expect("title");
-        assert!(title.text.contains(&r.sizing.combinations[0]), "{}", title.text);
+        assert!(title.text.contains("ultimate combinations"), "{}", title.text);
         let rib = r.sizing.groups.iter().find(|g| g.group == "rib").expect("rib");
         let GroupOutcome::Sized { label, .. } = &rib.outcome else { panic!("the demo's rib is sized") };
         let (text, short) = group_words(rib);
