@@ -340,16 +340,14 @@ fn blocks(
             units.show(Quantity::Length, b.length),
             units.show(Quantity::Length, b.thickness)
         );
+        let detail = format!(
+            "{words}; block {} x {} x {} (across, in the arch plane, along R)",
+            units.show(Quantity::Length, b.width),
+            units.show(Quantity::Length, b.length),
+            units.show(Quantity::Length, b.thickness)
+        );
         placer.place(
-            Request::new(sized, TextSize::Small, Ink::Text, centre)
-                .sides(sides)
-                .short(words.clone())
-                .detail(format!(
-                    "{words}; block {} x {} x {} (across, in the arch plane, along R)",
-                    units.show(Quantity::Length, b.width),
-                    units.show(Quantity::Length, b.length),
-                    units.show(Quantity::Length, b.thickness)
-                )),
+            Request::new(sized, TextSize::Small, Ink::Text, centre).sides(sides).short(words).detail(detail),
         );
     }
 }
