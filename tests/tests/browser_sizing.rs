@@ -100,7 +100,6 @@ fn the_sizes_view_shows_the_engines_report_and_its_sizes_can_be_used_and_undone(
     s.exec("document.getElementById('elevation').scrollIntoView({ block: 'start' });", vec![]);
     std::fs::write(screenshots_dir().join("sizing.png"), s.screenshot()).expect("screenshot");
 
-
     // use the sizes: the rib's area field shows the sized area; undo brings the typed one
     wait_input(&s, "section-rib-a", demo.groups.rib.a);
     click_id(&s, "sizes-adopt");
