@@ -54,6 +54,7 @@ pub fn App() -> impl IntoView {
                 <crate::components::status::StatusLine />
                 <MemberReadout />
                 <crate::components::envelope::EnvelopePanel />
+                <crate::components::sizing::SizingPanel />
                 <crate::components::influence_chart::InfluenceChart />
             </section>
             <DesignInputs />

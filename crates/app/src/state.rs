@@ -8,6 +8,7 @@ use springline_statics::arch::analysis::analyze_reusing;
 use springline_statics::arch::cases::{standard_cases, CaseSpec, Pattern};
 use springline_statics::arch::edit::{Drag, DragStop, Reading, Snapping};
 use springline_statics::arch::readout::MemberKey;
+use springline_statics::arch::sizing::{size_design, SizeReport};
 use springline_statics::arch::traffic::TrafficReport;
 use springline_statics::error::{Field, Location, StaticsError};
 use springline_statics::scene::envelope::Basis;
@@ -174,6 +175,13 @@ pub struct AppState {
     pub traffic: RwSignal<Option<Arc<(Design, TrafficOutcome)>>>,
     /// The traffic envelope is shown on the elevation (the load picker's "Envelope").
     pub envelope: RwSignal<bool>,
+    /// The sizing view is shown (the load picker's "Sizes"): member utilisations and
+    /// thrust blocks on the elevation, the sizing panel under the drawings.
+    pub sizes: RwSignal<bool>,
+    /// The engine's size report of the design on screen while the sizing view is on
+    /// (`arch::sizing::size_design` on the validation and the traffic report of that
+    /// design), memoised: computed once per design and traffic report.
+    pub size_report: Memo<SizeView>,
     /// What the envelope shows: characteristic traffic or a combination's design values.
     pub basis: RwSignal<Basis>,
     /// The influence line picked (a frame model line name, `arch::influence::ArchLine`):
@@ -195,6 +203,35 @@ pub struct AppState {
     /// The analysis just computed for a design about to be set, so the memo does not
     /// compute it a second time.
     checked: StoredValue<Option<Checked>>,
+}
+
+/// The sizing view's report.
+#[derive(Debug, Clone, PartialEq)]
+pub enum SizeView {
+    /// The view is off: nothing computed.
+    Off,
+    /// The traffic report of the design on screen is not ready yet.
+    Waiting,
+    /// The engine's size report.
+    Ready(Arc<SizeReport>),
+    /// Why the design cannot be sized, in the engine's words.
+    Failed(String),
+}
+
+/// The size report of `valid` from the traffic outcome of the same design.
+pub fn size_view(valid: &Validated, traffic: &TrafficOutcome) -> SizeView {
+    let valid = match valid {
+        Ok(v) => v,
+        Err(e) => return SizeView::Failed(e.to_string()),
+    };
+    match traffic {
+        Ok(Some(report)) => match size_design(valid, report) {
+            Ok(r) => SizeView::Ready(Arc::new(r)),
+            Err(e) => SizeView::Failed(e.to_string()),
+        },
+        Ok(None) => SizeView::Failed("the frame model has no traffic envelopes to size with".into()),
+        Err(e) => SizeView::Failed(e.to_string()),
+    }
 }
 
 /// Extra load cases and the design they were built for.
@@ -252,6 +289,19 @@ impl AppState {
             },
             analysis_changed,
         );
+        let traffic = RwSignal::new(None::<Arc<(Design, TrafficOutcome)>>);
+        let sizes = RwSignal::new(false);
+        let size_report = Memo::new(move |_| {
+            if !sizes.get() {
+                return SizeView::Off;
+            }
+            let Some(t) = traffic.get() else { return SizeView::Waiting };
+            // the report of the design on screen only
+            if design.with(|d| *d != t.0) {
+                return SizeView::Waiting;
+            }
+            size_view(&valid.get(), &t.1)
+        });
         AppState {
             design,
             valid,
@@ -270,8 +320,10 @@ impl AppState {
             refused: RwSignal::new(None),
             drag_stop: RwSignal::new(None),
             drag_reading: RwSignal::new(None),
-            traffic: RwSignal::new(None),
+            traffic,
             envelope: RwSignal::new(false),
+            sizes,
+            size_report,
             basis: RwSignal::new(Basis::Design(0)),
             picked: RwSignal::new(None),
             largest: RwSignal::new(false),
@@ -342,8 +394,8 @@ impl AppState {
         }
     }
 
-    /// Takes back the load picker's other choices (a pattern, an action, the envelope),
-    /// so one choice holds at a time.
+    /// Takes back the load picker's other choices (a pattern, an action, the envelope,
+    /// the sizes), so one choice holds at a time.
     pub fn clear_choices(&self) {
         if self.pattern.with_untracked(Option::is_some) {
             self.pattern.set(None);
@@ -353,6 +405,9 @@ impl AppState {
         }
         if self.envelope.get_untracked() {
             self.envelope.set(false);
+        }
+        if self.sizes.get_untracked() {
+            self.sizes.set(false);
         }
     }
 

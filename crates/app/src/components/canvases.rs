@@ -7,13 +7,14 @@ use crate::components::readout::{drawn_model, step_member, ModelSwitch};
 use crate::drag::{self, Drag, Handle};
 use crate::forces;
 use crate::paint;
-use crate::state::{AppState, DragReading};
+use crate::state::{AppState, DragReading, SizeView};
 use leptos::html::Canvas;
 use leptos::prelude::*;
 use springline_statics::arch::readout::MemberKey;
 use springline_statics::scene::elevation::{elevation, ElevationOptions};
 use springline_statics::scene::envelope::{envelope_elevation, EnvelopeOptions};
 use springline_statics::scene::force::{AreaView, FixedScale, ForceDrawing, ForceOptions};
+use springline_statics::scene::sizing::{sizing_elevation, SizingOptions};
 use springline_statics::scene::vehicle::{add_vehicle, VehicleGlyph};
 use springline_statics::scene::{Px, Scene, Transform, Viewport};
 use springline_statics::ModelKind;
@@ -68,9 +69,20 @@ pub fn ElevationCanvas() -> impl IntoView {
         let transform = dragging.with_value(|d| d.as_ref().map(|d| d.transform));
         // the envelope view draws the frame model over the report of the design on screen
         let report = if state.envelope.get() { envelope::current_report(state) } else { None };
-        let enveloped = report.is_some();
-        let mut scene = match report {
-            Some(report) => {
+        // the sizing view draws the frame model over the size report of the design on
+        // screen (the plain elevation while it is computed)
+        let sized = match state.size_report.get() {
+            SizeView::Ready(r) => Some(r),
+            _ => None,
+        };
+        let enveloped = report.is_some() || sized.is_some();
+        let mut scene = match (report, sized) {
+            (_, Some(sized)) => {
+                let highlight = focus.and_then(|k| k.member_in(&a.frame.map, ModelKind::Frame));
+                let opts = SizingOptions { units, case, highlight, transform };
+                state.design.with(|d| sizing_elevation(&a, d, &sized, &opts, viewport))
+            }
+            (Some(report), None) => {
                 let highlight = focus.and_then(|k| k.member_in(&a.frame.map, ModelKind::Frame));
                 let picked =
                     state.picked.with(|p| p.as_deref().and_then(|l| envelope::member_of_line(&a, l)));
@@ -84,13 +96,14 @@ pub fn ElevationCanvas() -> impl IntoView {
                 let opts = EnvelopeOptions { units, basis, case, highlight, picked, transform };
                 state.design.with(|d| envelope_elevation(&a, d, &report.1, placement, &opts, viewport))
             }
-            None => {
+            (None, None) => {
                 let opts = ElevationOptions { units, case, model, highlight, transform };
                 state.design.with(|d| elevation(&a, d, &opts, viewport))
             }
         };
         let model = if enveloped { ModelKind::Frame } else { model };
-        // the vehicle on the deck (never in the envelope view, which chooses no vehicle)
+        // the vehicle on the deck (never in the envelope or sizing view, which choose no
+        // vehicle)
         let car = if enveloped { None } else { state.vehicle_on_deck() };
         let deck_level = state.design.with(|d| d.deck.level);
         let drawn_car = car.as_ref().and_then(|c| add_vehicle(&mut scene, c, deck_level, units));

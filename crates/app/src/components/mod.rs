@@ -9,6 +9,7 @@ pub mod massing;
 pub mod readout;
 pub mod results;
 pub mod scenarios;
+pub mod sizing;
 pub mod status;
 pub mod toolbar;
 pub mod traffic;

@@ -1,7 +1,7 @@
 //! The load case picker: one named button per load case of the analysis, each with a
 //! small pictogram of its load pattern drawn from the case kind, the chosen one pressed.
 //! The drawings and the results table show the chosen case. Then the named traffic
-//! patterns, each of the other actions alone, the envelope, and the load model's vehicle
+//! patterns, each of the other actions alone, the envelope, the sizes, and the load model's vehicle
 //! (its case joins the analysis while it is chosen, and the elevation lets it be dragged
 //! along the deck).
 
@@ -138,6 +138,25 @@ fn EnvelopePictogram() -> impl IntoView {
     }
 }
 
+/// The sizes button's pictogram (a style of its own): the rib drawn
+/// light and heavy (its left part heavier, in another ink), as the view strokes members
+/// by how much they are used, and a block under each springing.
+#[component]
+fn SizesPictogram() -> impl IntoView {
+    let arch = arch_path(0.0);
+    let block = |x: f64| format!("M{:.1} {:.1}h5v3.5h-5Z", x - 2.5, PICTO_H - 3.5);
+    view! {
+        <svg class="picto" aria-hidden="true" focusable="false" width=PICTO_W height=PICTO_H
+            viewBox=format!("0 0 {PICTO_W} {PICTO_H}")>
+            <path class="picto-structure" d=format!("M1 {DECK_Y}H{}", PICTO_W - 1.0) />
+            <path d=arch fill="none" stroke="#2f6db5" stroke-width="1.4" />
+            <path d=arch_path(0.0) fill="none" stroke="#b8560f" stroke-width="3" stroke-dasharray="15 200" />
+            <path d=block(ARCH_X0) fill="#b9b4aa" stroke="#8c7b5a" stroke-width="0.8" />
+            <path d=block(ARCH_X1) fill="#b9b4aa" stroke="#8c7b5a" stroke-width="0.8" />
+        </svg>
+    }
+}
+
 /// The vehicle button's pictogram (a style of its own: the vehicle outlined on the deck
 /// with a two-headed arrow over it, as it can be moved along): deck, arch and the light
 /// dead-load arrows as in the other pictograms.
@@ -243,6 +262,7 @@ pub fn ScenarioButtons() -> impl IntoView {
         state.pattern.with(Option::is_none)
             && state.action.with(Option::is_none)
             && !state.envelope.get()
+            && !state.sizes.get()
             && !vehicle_chosen.get()
     };
     let panels = Memo::new(move |_| state.design.with(|d| d.panels));
@@ -311,6 +331,22 @@ pub fn ScenarioButtons() -> impl IntoView {
             <span>"Envelope"</span>
         </button>
     };
+    let sizes_button = view! {
+        <button
+            type="button"
+            class="scenario"
+            id="case-sizes"
+            aria-pressed=move || state.sizes.get().to_string()
+            title="Each member group sized from the ultimate envelopes, its utilisation on the elevation, the quantities and the thrust blocks"
+            on:click=move |_| {
+                state.choose_case(0);
+                state.sizes.set(true);
+            }
+        >
+            <SizesPictogram />
+            <span>"Sizes"</span>
+        </button>
+    };
     let action_kinds = Memo::new(move |_| {
         state.design.with(|d| action_cases(d).into_iter().map(|c| c.kind).collect::<Vec<_>>())
     });
@@ -360,6 +396,11 @@ pub fn ScenarioButtons() -> impl IntoView {
     };
     let described = move || {
         let units = state.units.get();
+        if state.sizes.get() {
+            return "every member group sized from the ultimate envelopes, one section per group, drawn by how \
+                    much of its resistance it uses; the thrust blocks to scale"
+                .to_string();
+        }
         if state.envelope.get() && state.picked.with(Option::is_none) {
             return "the largest and smallest forces of every member under the load model's traffic placed where \
                     it is worst; click a member for the placement that governs it"
@@ -377,7 +418,7 @@ pub fn ScenarioButtons() -> impl IntoView {
         <section class="scenarios" aria-labelledby="scenarios-title">
             <h2 id="scenarios-title">"Load case"</h2>
             <div class="scenario-row" role="group" aria-labelledby="scenarios-title">
-                {buttons}{pattern_buttons}{action_buttons}{envelope_button}{vehicle_button}
+                {buttons}{pattern_buttons}{action_buttons}{envelope_button}{sizes_button}{vehicle_button}
             </div>
             <p class="case-description" id="case-description">{described}</p>
         </section>

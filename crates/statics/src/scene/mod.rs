@@ -12,6 +12,7 @@ pub mod elevation;
 pub mod envelope;
 pub mod force;
 pub mod place;
+pub mod sizing;
 pub mod vehicle;
 
 use serde::Serialize;
@@ -118,11 +119,23 @@ pub enum Ink {
     LabelBox,
     /// Handles the user can drag (fill).
     Handle,
+    /// A member used below half its resistance (utilisation under 0.5).
+    UseLight,
+    /// Utilisation 0.5 to 0.7.
+    UseModerate,
+    /// Utilisation 0.7 to 0.9.
+    UseHigh,
+    /// Utilisation 0.9 to 1.0: nearly fully used, still passing.
+    UseFull,
+    /// Utilisation above 1.0: the member fails.
+    UseOver,
+    /// A member of a group that could not be sized (no utilisation).
+    Unsized,
 }
 
 impl Ink {
     /// Every ink, for palette checks.
-    pub const ALL: [Ink; 19] = [
+    pub const ALL: [Ink; 25] = [
         Ink::Background,
         Ink::Text,
         Ink::Secondary,
@@ -142,12 +155,24 @@ impl Ink {
         Ink::Ray,
         Ink::LabelBox,
         Ink::Handle,
+        Ink::UseLight,
+        Ink::UseModerate,
+        Ink::UseHigh,
+        Ink::UseFull,
+        Ink::UseOver,
+        Ink::Unsized,
     ];
 
     /// Our palette (our own scheme): tension deep teal, compression burnt orange, quiet
     /// greys and earth tones for everything else so forces stand out. The zero-force grey
     /// and the highlight reach 3:1 contrast against the background (WCAG 2.1, 1.4.11
     /// non-text contrast), checked by a test.
+    ///
+    /// The utilisation scale (our own): grey-blue, blue, violet, burnt orange, deep
+    /// crimson from light use to failure. Hue runs along the blue-orange axis that the
+    /// common colour-vision deficiencies keep, lightness falls from the second band on,
+    /// and the sizing view widens the line band by band, so the order reads without
+    /// colour too; every band reaches 3:1 against the background.
     pub const fn css(self) -> &'static str {
         match self {
             Ink::Background => "#fbfaf7",
@@ -169,6 +194,12 @@ impl Ink {
             Ink::Ray => "rgba(79,91,100,0.45)",
             Ink::LabelBox => "rgba(251,250,247,0.88)",
             Ink::Handle => "#ffffff",
+            Ink::UseLight => "#5b8fae",
+            Ink::UseModerate => "#2f6db5",
+            Ink::UseHigh => "#6a45a6",
+            Ink::UseFull => "#b8560f",
+            Ink::UseOver => "#8c0f2a",
+            Ink::Unsized => "#7b858b",
         }
     }
 }
@@ -502,7 +533,20 @@ mod tests {
     #[test]
     fn drawing_inks_reach_their_contrast_against_the_background() {
         let bg = Ink::Background.css();
-        for ink in [Ink::Tension, Ink::Compression, Ink::Zero, Ink::Highlight, Ink::Load, Ink::Reaction] {
+        for ink in [
+            Ink::Tension,
+            Ink::Compression,
+            Ink::Zero,
+            Ink::Highlight,
+            Ink::Load,
+            Ink::Reaction,
+            Ink::UseLight,
+            Ink::UseModerate,
+            Ink::UseHigh,
+            Ink::UseFull,
+            Ink::UseOver,
+            Ink::Unsized,
+        ] {
             let c = contrast_ratio(ink.css(), bg).expect("opaque hex");
             assert!(c >= 3.0, "{ink:?} {} has {c:.2}:1 against the background", ink.css());
         }

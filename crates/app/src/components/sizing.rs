@@ -1,0 +1,321 @@
+//! The sizing view's panel under the drawings (the load picker's "Sizes"): each member
+//! group's section and largest utilisation with the member, combination and traffic
+//! placement that govern it; the quantities and totals; the demand at each springing
+//! and its thrust block; the report's caution; and "Use these sizes", which puts every
+//! sized group's section into the design as one undoable edit.
+//!
+//! The numbers are the engine's size report (`arch::sizing::size_design`) of the design
+//! on screen, memoised in the state (`AppState::size_report`) once its traffic report
+//! is ready. Every value is shown in the chosen units and carries its SI value in
+//! `data-value`.
+
+use crate::format::{Quantity, Units};
+use crate::state::{AppState, SizeView};
+use leptos::prelude::*;
+use springline_statics::arch::foundation::SpringingDemand;
+use springline_statics::arch::sizing::{adopt_sizes, GroupOutcome, SizeReport};
+use springline_statics::error::{Field, GroupName};
+
+/// A table cell with `si` shown in `units` as quantity `q`, the SI value in
+/// `data-value`, id `id`.
+fn value_cell(id: String, q: Quantity, si: f64, units: Units) -> impl IntoView {
+    view! { <td id=id data-value=format!("{si}") data-quantity=q.key()>{units.show(q, si)}</td> }
+}
+
+/// A value inside text (a span), as [`value_cell`].
+fn value_span(id: String, q: Quantity, si: f64, units: Units) -> impl IntoView {
+    view! { <span id=id data-value=format!("{si}") data-quantity=q.key()>{units.show(q, si)}</span> }
+}
+
+/// A group's section in words: the sized section's label, "as typed", or "not sized:"
+/// and the engine's reason.
+pub fn section_words(outcome: &GroupOutcome) -> String {
+    match outcome {
+        GroupOutcome::Sized { label, .. } => label.clone(),
+        GroupOutcome::AsTyped => "as typed".into(),
+        GroupOutcome::NotSized { reason } => format!("not sized: {reason}"),
+    }
+}
+
+/// The groups table: section, material, largest utilisation and what governs it.
+fn groups_table(r: &SizeReport, units: Units) -> impl IntoView {
+    let rows = r
+        .sizing
+        .groups
+        .iter()
+        .map(|g| {
+            let governing = g
+                .governing_member
+                .as_ref()
+                .and_then(|name| r.sizing.members.iter().find(|m| &m.member == name));
+            let used = match g.utilisation {
+                Some(u) => {
+                    value_cell(format!("sizes-{}-utilisation", g.group), Quantity::Ratio, u, units).into_any()
+                }
+                None => view! { <td id=format!("sizes-{}-utilisation", g.group)>"—"</td> }.into_any(),
+            };
+            let (member, combination, placement) = match governing {
+                Some(m) => (m.member.clone(), m.combination.clone(), m.placement.clone()),
+                None => ("—".into(), "—".into(), "—".into()),
+            };
+            let fails = g.utilisation.is_some_and(|u| u > 1.0);
+            view! {
+                <tr class:fails=fails>
+                    <th scope="row">{g.group.clone()}</th>
+                    <td id=format!("sizes-{}-section", g.group)>{section_words(&g.outcome)}</td>
+                    <td>{g.material.clone()}</td>
+                    {used}
+                    <td id=format!("sizes-{}-member", g.group)>{member}</td>
+                    <td>{combination}</td>
+                    <td class="placement">{placement}</td>
+                </tr>
+            }
+        })
+        .collect_view();
+    view! {
+        <div class="table-scroll">
+            <table class="results sizing-table" id="sizes-groups">
+                <caption>"Member groups, one section each, per rib line (utilisation = demand / resistance)"</caption>
+                <thead>
+                    <tr>
+                        <th scope="col">"group"</th><th scope="col">"section"</th><th scope="col">"material"</th>
+                        <th scope="col">"largest utilisation"</th><th scope="col">"in member"</th>
+                        <th scope="col">"combination"</th><th scope="col">"traffic placement"</th>
+                    </tr>
+                </thead>
+                <tbody>{rows}</tbody>
+            </table>
+        </div>
+    }
+}
+
+/// The quantities table and the totals, with the deck-weight sentence.
+fn quantities_table(r: &SizeReport, units: Units) -> impl IntoView {
+    let q = &r.quantities;
+    let rows = q
+        .lines
+        .iter()
+        .enumerate()
+        .map(|(i, l)| {
+            let length = if l.length > 0.0 {
+                value_cell(format!("sizes-q{i}-length"), Quantity::Length, l.length, units).into_any()
+            } else {
+                view! { <td>"—"</td> }.into_any()
+            };
+            view! {
+                <tr>
+                    <th scope="row">{l.item.clone()}</th>
+                    {length}
+                    {value_cell(format!("sizes-q{i}-volume"), Quantity::Volume, l.volume, units)}
+                    {value_cell(format!("sizes-q{i}-mass"), Quantity::Mass, l.mass, units)}
+                    {value_cell(format!("sizes-q{i}-cost"), Quantity::Count, l.cost, units)}
+                </tr>
+            }
+        })
+        .collect_view();
+    view! {
+        <div class="table-scroll">
+            <table class="results sizing-table" id="sizes-quantities">
+                <caption>"Quantities, all rib lines"</caption>
+                <thead>
+                    <tr>
+                        <th scope="col">"item"</th><th scope="col">"length"</th><th scope="col">"volume"</th>
+                        <th scope="col">"mass"</th><th scope="col">"cost"</th>
+                    </tr>
+                </thead>
+                <tbody>{rows}</tbody>
+            </table>
+        </div>
+        <p class="sizing-totals" id="sizes-totals">
+            "Steel "{value_span("sizes-steel".into(), Quantity::Mass, q.steel, units)}
+            ", concrete "{value_span("sizes-concrete".into(), Quantity::Volume, q.concrete, units)}
+            ", glulam "{value_span("sizes-glulam".into(), Quantity::Volume, q.glulam, units)}
+            ", thrust blocks "{value_span("sizes-blocks".into(), Quantity::Volume, q.foundation, units)}
+            "; cost index "{value_span("sizes-cost".into(), Quantity::Count, q.cost_index, units)}
+            " (in the units of the design's rates)."
+        </p>
+        <p class="hint" id="sizes-deck-weight">{q.deck_weight.clone()}</p>
+    }
+}
+
+/// One springing's row of the foundations table.
+fn springing_row(s: &SpringingDemand, units: Units) -> impl IntoView {
+    let id = |what: &str| format!("sizes-{}-{what}", s.side);
+    let b = &s.block;
+    let moment = match s.fixed_moment {
+        Some(m) => value_cell(id("moment"), Quantity::Moment, m, units).into_any(),
+        None => view! { <td id=id("moment")>"— (hinged)"</td> }.into_any(),
+    };
+    view! {
+        <tr>
+            <th scope="row">{s.side.clone()}</th>
+            {value_cell(id("thrust"), Quantity::Force, s.thrust, units)}
+            {value_cell(id("vertical"), Quantity::Force, s.vertical, units)}
+            {value_cell(id("resultant"), Quantity::Force, s.resultant, units)}
+            {value_cell(id("angle"), Quantity::Angle, s.angle, units)}
+            <td>
+                {value_span(id("angle-min"), Quantity::Angle, s.angle_range.min, units)}" to "
+                {value_span(id("angle-max"), Quantity::Angle, s.angle_range.max, units)}
+            </td>
+            {moment}
+            <td>
+                {value_span(id("block-width"), Quantity::Length, b.width, units)}" × "
+                {value_span(id("block-length"), Quantity::Length, b.length, units)}" × "
+                {value_span(id("block-thickness"), Quantity::Length, b.thickness, units)}
+            </td>
+            {value_cell(id("block-volume"), Quantity::Volume, b.volume, units)}
+            {value_cell(id("bearing-area"), Quantity::Area, b.bearing_area, units)}
+        </tr>
+    }
+}
+
+/// The foundations table: the demand at each springing and its thrust block.
+fn foundations_table(r: &SizeReport, units: Units) -> impl IntoView {
+    let f = &r.foundations;
+    let rows = f.springings.iter().map(|s| springing_row(s, units)).collect_view();
+    let caption = format!(
+        "Springings, whole cross-section, characteristic ({}); blocks on {}",
+        f.characteristic,
+        units.show(Quantity::Pressure, f.allowable_bearing)
+    );
+    view! {
+        <div class="table-scroll">
+            <table class="results sizing-table" id="sizes-foundations">
+                <caption>{caption}</caption>
+                <thead>
+                    <tr>
+                        <th scope="col">"springing"</th><th scope="col">"H"</th><th scope="col">"V"</th>
+                        <th scope="col">"resultant R"</th><th scope="col">"angle below horizontal"</th>
+                        <th scope="col">"angle range"</th><th scope="col">"fixed moment"</th>
+                        <th scope="col">"block B × L × t"</th><th scope="col">"volume"</th>
+                        <th scope="col">"bearing area"</th>
+                    </tr>
+                </thead>
+                <tbody>{rows}</tbody>
+            </table>
+        </div>
+    }
+}
+
+/// How the numbers are found, folded.
+fn basis(r: &SizeReport) -> impl IntoView {
+    view! {
+        <details class="sizing-basis" id="sizes-basis">
+            <summary>"How these are found"</summary>
+            <p>{r.sizing.basis.clone()}</p>
+            <p>{r.quantities.basis.clone()}</p>
+            <p>{r.foundations.basis.clone()}</p>
+        </details>
+    }
+}
+
+/// The "Use these sizes" button: every sized group's section into the design, one undo
+/// step; says so when the design already uses them, and shows the engine's refusal.
+#[component]
+fn AdoptButton() -> impl IntoView {
+    let state = expect_context::<AppState>();
+    let refusal = RwSignal::new(None::<String>);
+    // the design with the sizes adopted, when it differs from the design on screen
+    let adopted = move || match state.size_report.get() {
+        SizeView::Ready(r) => state.design.with(|d| Some(adopt_sizes(d, &r.sizing)).filter(|a| a != d)),
+        _ => None,
+    };
+    let adopt = move |_| {
+        let Some(design) = adopted() else { return };
+        match state.try_edit(Field::Sizing(GroupName::Rib), |d| *d = design) {
+            Ok(()) => refusal.set(None),
+            Err(e) => refusal.set(Some(format!("The sized design is refused: {e}"))),
+        }
+    };
+    view! {
+        <div class="sizing-adopt">
+            <button type="button" id="sizes-adopt" disabled=move || adopted().is_none() on:click=adopt>
+                "Use these sizes"
+            </button>
+            <span class="hint" id="sizes-adopt-note">
+                {move || if adopted().is_some() {
+                    "Puts each sized group's area, I, depth, E and unit weight into the design (one undo step); the self-weight then changes, so the sizes may change again."
+                } else {
+                    "The design uses these sizes."
+                }}
+            </span>
+            <Show when=move || refusal.with(Option::is_some)>
+                <p class="error" id="sizes-adopt-error" role="alert">{move || refusal.get()}</p>
+            </Show>
+        </div>
+    }
+}
+
+/// The panel of the sizing view, under the drawings.
+#[component]
+pub fn SizingPanel() -> impl IntoView {
+    let state = expect_context::<AppState>();
+    let body = move || {
+        let units = state.units.get();
+        match state.size_report.get() {
+            SizeView::Off => ().into_any(),
+            SizeView::Waiting => {
+                view! { <p class="hint" id="sizes-waiting">"Computing the traffic envelopes and sizes..."</p> }
+                    .into_any()
+            }
+            SizeView::Failed(e) => {
+                view! { <p class="error" id="sizes-error" role="alert">{format!("Cannot size this design: {e}")}</p> }
+                    .into_any()
+            }
+            SizeView::Ready(r) => view! {
+                {groups_table(&r, units)}
+                {quantities_table(&r, units)}
+                {foundations_table(&r, units)}
+                {basis(&r)}
+                <p class="caution" id="sizes-caution" role="note">{r.caution.clone()}</p>
+            }
+            .into_any(),
+        }
+    };
+    view! {
+        <Show when=move || state.sizes.get()>
+            <section class="envelope-panel sizing-panel" id="sizing-panel" aria-label="Sizes and quantities">
+                {body}
+                <AdoptButton />
+            </section>
+        </Show>
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::state::size_view;
+    use springline_statics::arch::traffic::traffic_envelopes;
+    use springline_statics::{Design, ModelKind, ValidDesign};
+    use std::sync::Arc;
+
+    /// The demo sizes (every group sized in steel, `SizingDesign::steel`): the view
+    /// holds the engine's report; a design without an ultimate combination gives the
+    /// engine's error in words, never a panic.
+    #[test]
+    fn the_size_view_is_the_engines_report_or_its_error() {
+        let d = Design::demo();
+        let valid = ValidDesign::new(&d).map(Arc::new);
+        let traffic =
+            valid.as_ref().map_err(Clone::clone).and_then(|v| traffic_envelopes(v, ModelKind::Frame));
+        let SizeView::Ready(r) = size_view(&valid, &traffic) else { panic!("the demo sizes") };
+        let rib = r.sizing.groups.iter().find(|g| g.group == "rib").expect("rib");
+        assert!(matches!(rib.outcome, GroupOutcome::Sized { .. }), "{:?}", rib.outcome);
+        assert!(!section_words(&rib.outcome).is_empty());
+        // no ultimate combination: the engine says what to do
+        let mut none = d.clone();
+        none.traffic.combinations.retain(|c| c.permanent_unfavourable <= 1.0);
+        let valid = ValidDesign::new(&none).map(Arc::new);
+        let traffic =
+            valid.as_ref().map_err(Clone::clone).and_then(|v| traffic_envelopes(v, ModelKind::Frame));
+        match size_view(&valid, &traffic) {
+            SizeView::Failed(e) => assert!(e.contains("no ultimate combination"), "{e}"),
+            other => panic!("expected the engine's error, got {other:?}"),
+        }
+        assert_eq!(
+            section_words(&GroupOutcome::NotSized { reason: "member rib 1-2: too slender".into() }),
+            "not sized: member rib 1-2: too slender"
+        );
+    }
+}
