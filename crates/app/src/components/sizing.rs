@@ -34,6 +34,7 @@ pub fn section_words(outcome: &GroupOutcome) -> String {
         GroupOutcome::Sized { label, .. } => label.clone(),
         GroupOutcome::AsTyped => "as typed".into(),
         GroupOutcome::NotSized { reason } => format!("not sized: {reason}"),
+        GroupOutcome::NoMembers => "no members in this design".into(),
     }
 }
 

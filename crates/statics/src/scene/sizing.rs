@@ -258,6 +258,7 @@ pub fn group_words(g: &GroupReport) -> (String, String) {
         GroupOutcome::Sized { label, .. } => label.clone(),
         GroupOutcome::AsTyped => "as typed".into(),
         GroupOutcome::NotSized { .. } => "not sized".into(),
+        GroupOutcome::NoMembers => "no members".into(),
     };
     let short = match g.utilisation {
         Some(u) => format!("{} {u:.2}", g.group),
