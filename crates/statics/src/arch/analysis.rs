@@ -19,6 +19,7 @@ use crate::arch::validate::ValidDesign;
 use crate::error::StaticsError;
 use crate::frame::determinacy::{truss_determinacy, Determinacy, DeterminacyReport};
 use crate::frame::model::Model;
+use crate::frame::results::CaseResult;
 use crate::frame::solver::{solve, Solution};
 use crate::graphic::funicular::{rib_funicular, RibFunicular};
 use crate::graphic::reciprocal::{force_diagram, ForceDiagram};
@@ -306,26 +307,74 @@ struct Solved {
     truss: Option<(Generated, DeterminacyReport, Option<Solution>)>,
 }
 
-fn solve_models(valid: &ValidDesign, specs: &[CaseSpec]) -> Result<Solved, StaticsError> {
+/// `previous`: an analysis whose load cases, where the same model has them with the same
+/// loads, keep their results (`solve_reusing`).
+fn solve_models(
+    valid: &ValidDesign,
+    specs: &[CaseSpec],
+    previous: Option<&Analysis>,
+) -> Result<Solved, StaticsError> {
     let mut frame = frame_model(valid);
     add_cases(valid, &mut frame, specs)?;
-    let frame_solution = solve(&frame.model)?;
+    let frame_solution = solve_reusing(&frame.model, previous.map(|p| (&p.frame.model, &p.frame.solution)))?;
     let mut rib = bare_rib_model(valid);
     add_cases(valid, &mut rib, specs)?;
-    let rib_solution = solve(&rib.model)?;
+    let rib_solution =
+        solve_reusing(&rib.model, previous.map(|p| (&p.bare_rib.model, &p.bare_rib.solution)))?;
     let truss = match truss_model(valid) {
         Some(mut truss) => {
             add_cases(valid, &mut truss, specs)?;
             let determinacy = truss_determinacy(&truss.model)?;
             let solution = match determinacy.determinacy {
                 Determinacy::Mechanism { .. } => None,
-                _ => Some(solve(&truss.model)?),
+                _ => {
+                    let old = previous
+                        .and_then(|p| p.truss.as_ref())
+                        .and_then(|t| t.solution.as_ref().map(|s| (&t.model, s)));
+                    Some(solve_reusing(&truss.model, old)?)
+                }
             };
             Some((truss, determinacy, solution))
         }
         None => None,
     };
     Ok(Solved { frame, frame_solution, rib, rib_solution, truss })
+}
+
+/// Solves `model`, taking the result of each load case that `previous` (a model and its
+/// solution) solved with the same loads on the same nodes, members and supports, so only
+/// the cases that changed are solved (a vehicle moved along the deck: its case alone).
+/// The solution equals `solve(model)`'s: each case is solved on its own.
+fn solve_reusing(model: &Model, previous: Option<(&Model, &Solution)>) -> Result<Solution, StaticsError> {
+    let Some((old_model, old)) = previous.filter(|(m, _)| {
+        m.nodes == model.nodes && m.members == model.members && m.supports == model.supports
+    }) else {
+        return solve(model);
+    };
+    let kept: Vec<Option<&CaseResult>> = model
+        .load_cases
+        .iter()
+        .map(|c| old_model.load_cases.iter().any(|o| o == c).then(|| old.case(&c.name)).flatten())
+        .collect();
+    let mut fresh_model = model.clone();
+    fresh_model.load_cases =
+        model.load_cases.iter().zip(&kept).filter(|(_, k)| k.is_none()).map(|(c, _)| c.clone()).collect();
+    if fresh_model.load_cases.is_empty() {
+        let cases = kept.into_iter().flatten().cloned().collect();
+        return Ok(Solution { cases, free_dofs: old.free_dofs, bandwidth: old.bandwidth });
+    }
+    let fresh = solve(&fresh_model)?;
+    let cases = model
+        .load_cases
+        .iter()
+        .zip(kept)
+        .map(|(c, k)| k.or_else(|| fresh.case(&c.name)).cloned())
+        .collect::<Option<Vec<_>>>();
+    match cases {
+        Some(cases) => Ok(Solution { cases, free_dofs: fresh.free_dofs, bandwidth: fresh.bandwidth }),
+        // two cases of one name: solve the whole model as it is
+        None => solve(model),
+    }
 }
 
 /// Generates the frame model, the truss idealisation (when braced) and the bare rib of a
@@ -367,7 +416,7 @@ pub fn analyze_reusing(
     let rs = restraint(valid);
     // the standard cases once (they share the traffic across the deck), then the extra
     let specs: Vec<CaseSpec> = standard_cases(valid).into_iter().chain(extra.iter().cloned()).collect();
-    let Solved { frame, frame_solution, rib, rib_solution, truss } = solve_models(valid, &specs)?;
+    let Solved { frame, frame_solution, rib, rib_solution, truss } = solve_models(valid, &specs, previous)?;
     let mut frame_notes = vec![ModelNote::Restraint { held_by: rs.held_by }];
     if design.rib_system == RibSystem::ThreeHinged {
         frame_notes.push(ModelNote::DropIn);
@@ -647,10 +696,11 @@ mod tests {
     use crate::arch::validate::VALIDATIONS;
     use crate::frame::model::{LoadDirection, MemberLoad};
 
-    /// Figures taken from a previous analysis are exactly the figures drawn afresh: a
-    /// vehicle moved along the deck (its case drawn anew, the others kept), and a previous
-    /// analysis of another design (other panels, another rib depth, another rib system),
-    /// whose figures must not be taken.
+    /// Results and figures taken from a previous analysis are exactly those computed
+    /// afresh: a vehicle moved along the deck (its case solved and drawn anew, the others
+    /// kept), and a previous analysis of another design (other panels, another rib depth,
+    /// another rib system, the same models under other loads), whose results must not be
+    /// taken.
     #[test]
     fn reusing_figures_changes_nothing() {
         use crate::arch::cases::{pattern_case, Pattern};
@@ -670,6 +720,14 @@ mod tests {
         others.push(d);
         let mut d = demo.clone();
         d.rib_system = RibSystem::TwoHinged;
+        others.push(d);
+        // the same models with other loads: no result may be taken from them
+        let mut d = demo.clone();
+        d.deck.surfacing = 3.1;
+        others.push(d);
+        let mut d = demo.clone();
+        d.traffic.load_model =
+            crate::traffic::models::LoadModel::preset(crate::traffic::models::ModelFamily::Hl93);
         others.push(d);
         for other in others {
             let v = ValidDesign::new(&other).expect("valid");
