@@ -40,8 +40,9 @@ fn group<'a>(r: &'a SizeReport, name: &str) -> &'a springline_statics::arch::siz
 /// = 41.65 degrees below the horizontal; bearing area A = R_k / q_allow = 17 022.9 / 1
 /// 000 = 17.02 m2; across the deck width B = 11.0 m, along the arch L = 17.02 / 11.0 =
 /// 1.548 m (hinged springing, no eccentricity; above the sized rib depth 1.45 m);
-/// thickness t = L - d = 0.098 m, below the least 1.0 m, so 1.0 m; volume 11.0 x 1.548 x
-/// 1.0 = 17.02 m3.
+/// thickness: along the arch L - d = 0.098 m, across B / ribs - w = 11.0 / 2 - 0.87 =
+/// 4.63 m (each of the two ribs, a box 870 mm wide, spreads its load over half the face:
+/// EN 1992-1-1 6.7(3), h >= b2 - b1), so 4.63 m; volume 11.0 x 1.548 x 4.63 = 78.8 m3.
 #[test]
 fn the_demo_thrust_block_worked_by_hand() {
     let (_, _, r) = report_of(&Design::demo());
@@ -62,8 +63,8 @@ fn the_demo_thrust_block_worked_by_hand() {
     near(b.width, 11.0, 1e-12, "width");
     near(b.length, 1.548, 1e-3, "length");
     assert_eq!(b.eccentricity, 0.0);
-    near(b.thickness, 1.0, 1e-12, "thickness");
-    near(b.volume, 17.02, 2e-3, "volume");
+    near(b.thickness, 4.63, 1e-12, "thickness");
+    near(b.volume, 78.81, 2e-3, "volume");
     assert!(left.fixed_moment.is_none(), "a hinged springing has no moment");
     // the angle ranges over every combination around the dead-load angle
     assert!(left.angle_range.min < left.dead_angle && left.dead_angle < left.angle_range.max);
@@ -80,7 +81,8 @@ fn a_fixed_rib_block_takes_its_moment_as_an_eccentricity() {
     for s in &r.foundations.springings {
         let m = s.fixed_moment.expect("a fixed springing has a moment");
         assert!(m > 0.0);
-        let e = m / s.resultant;
+        // with the dead-load resultant, the smallest the moment may meet
+        let e = m / s.dead_thrust.hypot(s.dead_vertical);
         assert!((s.block.eccentricity - e).abs() <= 1e-9 * e.max(1.0));
         let want = (s.block.bearing_area / s.block.width + 2.0 * e).max(group_depth(&r, "rib"));
         assert!((s.block.length - want).abs() <= 1e-9 * want, "{} against {want}", s.block.length);
@@ -252,4 +254,37 @@ fn groups_without_members_say_so() {
         assert_eq!((line.length, line.mass), (0.0, 0.0), "{name}");
     }
     assert!(matches!(group(&r, "rib").outcome, GroupOutcome::Sized { .. }));
+}
+
+/// The deck's span moments are checked, not only its end moments: an approach span
+/// (simply supported, released at both ends) has no end moment, but at mid-length the
+/// dead load alone gives w L^2 / 8 per rib line (any statics text), w = (6.25 + 2.4) x
+/// 11 + 78.5 x 0.050 x 2 = 103.0 kN/m over the two ribs; its traffic adds to that, and the
+/// sizing takes the envelope's design value.
+#[test]
+fn approach_spans_are_checked_at_mid_length() {
+    let d = Design::demo();
+    let (valid, traffic, r) = report_of(&d);
+    let generated = springline_statics::frame_model(&valid);
+    let k = generated.model.members.iter().position(|m| m.name == "approach R1").expect("member");
+    let m = &generated.model.members[k];
+    let (a, b) = (&generated.model.nodes[m.start], &generated.model.nodes[m.end]);
+    let span = (b.x - a.x).hypot(b.y - a.y);
+    let w = d.deck_line_load() / d.deck.ribs as f64;
+    assert!((w - 51.5).abs() < 0.01, "{w}");
+    let line = traffic.line("approach R1/m-mid").expect("a mid-length line");
+    let hand = w * span * span / 8.0;
+    assert!((line.permanent - hand).abs() < 1e-6 * hand, "{} against {hand}", line.permanent);
+    assert!(line.traffic_max.value > 0.0);
+    assert!(traffic.line("approach R1/m-start").is_none(), "released ends carry no moment line");
+    let member = r.sizing.members.iter().find(|x| x.member == "approach R1").expect("sized");
+    let largest = line.design.iter().map(|x| x.max.abs().max(x.min.abs())).fold(0.0, f64::max);
+    let ultimate_largest = line
+        .design
+        .iter()
+        .filter(|x| x.combination.starts_with("ULS"))
+        .map(|x| x.max.abs().max(x.min.abs()))
+        .fold(0.0, f64::max);
+    assert!(member.demand.moment >= ultimate_largest - 1e-9 && member.demand.moment <= largest + 1e-9);
+    assert!(member.demand.moment > 1.35 * hand, "{}", member.demand.moment);
 }

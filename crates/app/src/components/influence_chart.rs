@@ -227,7 +227,10 @@ pub fn InfluenceChart() -> impl IntoView {
             header: line.header(&inf.generated),
             x: inf.lines.positions.clone(),
             eta,
-            moment: matches!(line, ArchLine::Moment(..) | ArchLine::SpringingMoment(..)),
+            moment: matches!(
+                line,
+                ArchLine::Moment(..) | ArchLine::MidMoment(_) | ArchLine::SpringingMoment(..)
+            ),
             loaded,
             axles,
             largest,

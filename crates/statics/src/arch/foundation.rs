@@ -12,12 +12,16 @@
 //! - its bearing face is normal to the characteristic resultant R_k;
 //! - bearing area A = R_k / q_allow, the allowable bearing pressure of the ground;
 //! - across the bridge the face is the deck width B (one block ties the ribs), so along
-//!   the resultant's plane L = A / B, lengthened by 2 e for a fixed rib's moment, e = M_k
-//!   / R_k (the effective area of an eccentric load, EN 1997-1 Annex D.1 form, common
-//!   practice), and never shorter than the rib's depth;
-//! - its thickness along the resultant spreads the rib's load to the face: t = L - d, the
-//!   rib's depth d (the spread of a partially loaded area, EN 1992-1-1 6.7(3): h >= b2 -
-//!   b1), at least the design's least thickness.
+//!   the resultant's plane L = A / B, lengthened by 2 e for a fixed rib's moment (the
+//!   effective area of an eccentric load, EN 1997-1 Annex D.1 form, common practice), and
+//!   never shorter than the rib's depth;
+//! - its thickness along the resultant spreads each rib's load over its share of the face
+//!   both ways (the spread of a partially loaded area, EN 1992-1-1 6.7(3): h >= b2 - b1):
+//!   the larger of L - d (d the rib's depth) and B / ribs - w (w the rib's width), at
+//!   least the design's least thickness;
+//! - a fixed rib's moment is taken with the dead-load resultant (the smallest it may
+//!   meet), e = M_k / R_dead;
+//! - bearing only: sliding along the face, overturning and the rock's checks are not made.
 //!
 //! Concept-design values: the site's ground investigation, local codes and a licensed
 //! engineer govern.
@@ -113,10 +117,10 @@ fn range_of(line: Option<&LineEnvelope>, combination: &str) -> Option<(f64, f64)
 }
 
 /// The foundation demand of a design from its frame model's traffic report (see the
-/// module doc), for a rib of depth `rib_depth`, m (the sized rib's, or the typed one).
+/// module doc), for a rib of (depth, width) `rib`, m (the sized rib's, or the typed one).
 /// Without a serviceability combination the characteristic values are the permanent
 /// effect plus the characteristic traffic alone (the basis says so).
-pub fn foundations(valid: &ValidDesign, report: &TrafficReport, rib_depth: f64) -> Foundations {
+pub fn foundations(valid: &ValidDesign, report: &TrafficReport, rib: (f64, f64)) -> Foundations {
     let design = valid.design();
     let sizing = &design.sizing.foundation;
     let characteristic = characteristic_combination(&design.traffic.combinations);
@@ -129,7 +133,8 @@ pub fn foundations(valid: &ValidDesign, report: &TrafficReport, rib_depth: f64) 
         .map(|c| c.name.as_str())
         .collect();
     let fixed = design.rib_system == crate::arch::design::RibSystem::Fixed;
-    let depth = rib_depth;
+    let (depth, rib_width) = rib;
+    let ribs = design.deck.ribs.max(1) as f64;
     let springings =
         [("left", "thrust", "v-left", "m-left"), ("right", "thrust-right", "v-right", "m-right")]
             .into_iter()
@@ -170,12 +175,19 @@ pub fn foundations(valid: &ValidDesign, report: &TrafficReport, rib_depth: f64) 
                     ultimate.iter().filter_map(|c| range_of(h, c)).map(|(max, _)| max).fold(h_max, f64::max);
                 let bearing_area = resultant / sizing.allowable_bearing;
                 let width = design.deck.width;
+                // the moment taken with the smallest resultant it may meet, the dead load's
+                // (the envelope does not say which resultant goes with it): the larger e
+                let dead_resultant = dead_h.hypot(dead_v);
                 let eccentricity = match fixed_moment {
-                    Some(m) if resultant > 0.0 => m / resultant,
+                    Some(m) if dead_resultant > 0.0 => m / dead_resultant,
                     _ => 0.0,
                 };
                 let length = (bearing_area / width + 2.0 * eccentricity).max(depth);
-                let thickness = (length - depth).max(sizing.min_thickness);
+                // the spread from each rib to its share of the face, both ways (EN 1992-1-1
+                // 6.7(3): h >= b2 - b1): along the arch L - d, across B / ribs - rib width
+                let along = length - depth;
+                let across = width / ribs - rib_width;
+                let thickness = along.max(across).max(sizing.min_thickness);
                 SpringingDemand {
                     side: side.into(),
                     dead_thrust: dead_h,
@@ -207,10 +219,12 @@ pub fn foundations(valid: &ValidDesign, report: &TrafficReport, rib_depth: f64) 
         basis: format!(
             "Whole cross-section, frame model. Characteristic values: the combination '{name}'; largest H and \
              largest V taken together (conservative). Thrust block: bearing area R_k / q_allow on a face normal \
-             to the resultant, the deck width across, the length in the arch plane A / B + 2 e (e = M_k / R_k of a \
-             fixed rib; effective area after EN 1997-1 Annex D.1) and at least the rib depth; thickness along the \
-             resultant L - d (the spread of a partially loaded area, EN 1992-1-1 6.7(3)), at least {:.2} m. The \
-             site's ground investigation, local codes and a licensed engineer govern.",
+             to the resultant, the deck width across, the length in the arch plane A / B + 2 e (e = M_k / R_dead \
+             of a fixed rib, with the dead-load resultant; effective area after EN 1997-1 Annex D.1) and at least \
+             the rib depth; thickness along the resultant the larger of L - d and B / ribs - rib width (the \
+             spread of a partially loaded area both ways, EN 1992-1-1 6.7(3)), at least {:.2} m. Bearing only: \
+             sliding along the face, overturning and the rock's own checks are not made. The site's ground \
+             investigation, local codes and a licensed engineer govern.",
             sizing.min_thickness
         ),
     }

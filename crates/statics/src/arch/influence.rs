@@ -43,6 +43,9 @@ pub enum ArchLine {
     Axial(usize),
     /// Bending moment of a frame member at one end, kNm per kN.
     Moment(usize, MemberEnd),
+    /// Bending moment of a frame member carrying the deck at mid-length, kNm per kN (the
+    /// span moment of a deck member between posts or of an approach span).
+    MidMoment(usize),
 }
 
 impl ArchLine {
@@ -66,15 +69,11 @@ impl ArchLine {
                 if let Some(k) = by_name(name) {
                     Some(ArchLine::Axial(k))
                 } else if let Some((member, end)) = name.rsplit_once('/') {
-                    let end = match end {
-                        "m-start" => Some(MemberEnd::Start),
-                        "m-end" => Some(MemberEnd::End),
-                        _ => None,
-                    };
-                    match (by_name(member), end) {
-                        (Some(k), Some(end)) if members[k].kind == MemberKind::Frame => {
-                            Some(ArchLine::Moment(k, end))
-                        }
+                    let frame_member = by_name(member).filter(|&k| members[k].kind == MemberKind::Frame);
+                    match (frame_member, end) {
+                        (Some(k), "m-start") => Some(ArchLine::Moment(k, MemberEnd::Start)),
+                        (Some(k), "m-end") => Some(ArchLine::Moment(k, MemberEnd::End)),
+                        (Some(k), "m-mid") => Some(ArchLine::MidMoment(k)),
                         _ => None,
                     }
                 } else {
@@ -89,7 +88,7 @@ impl ArchLine {
                 format!(
                     "'{name}' names no influence line of the {}; give thrust, thrust-right, v-left, v-right, m-left, \
                      m-right, a member's name for its axial force, or a frame member's name with /m-start or /m-end \
-                     for its end moment. Members: {}",
+                     for its end moment (/m-mid: at mid-length). Members: {}",
                     generated.kind,
                     names.join(", ")
                 ),
@@ -113,12 +112,14 @@ impl ArchLine {
             ArchLine::Axial(k) => member(k),
             ArchLine::Moment(k, MemberEnd::Start) => format!("{}/m-start", member(k)),
             ArchLine::Moment(k, MemberEnd::End) => format!("{}/m-end", member(k)),
+            ArchLine::MidMoment(k) => format!("{}/m-mid", member(k)),
         }
     }
 
     /// Every line of a model: H and V at both springings, the springing moments where
-    /// the springings are fixed, every member's axial force, and both end moments of
-    /// every frame member at each end it does not release.
+    /// the springings are fixed, every member's axial force, both end moments of every
+    /// frame member at each end it does not release, and the mid-length moment of every
+    /// frame member carrying the deck (deck and approach spans).
     pub fn every(generated: &Generated) -> Vec<ArchLine> {
         let model = &generated.model;
         let mut lines = Vec::new();
@@ -138,6 +139,11 @@ impl ArchLine {
             }
             if !m.pinned_at_end() {
                 lines.push(ArchLine::Moment(k, MemberEnd::End));
+            }
+            let carries_deck =
+                matches!(generated.map.roles.get(k), Some(MemberRole::Deck | MemberRole::Approach));
+            if carries_deck && m.kind == MemberKind::Frame {
+                lines.push(ArchLine::MidMoment(k));
             }
         }
         lines
@@ -162,6 +168,7 @@ impl ArchLine {
                 format!("{} springing moment on the abutment; anticlockwise positive (kNm per kN)", side(s))
             }
             ArchLine::Axial(k) => format!("{} axial force N; tension positive (kN per kN)", member(k)),
+            ArchLine::MidMoment(k) => format!("{} moment at mid-length (kNm per kN)", member(k)),
             ArchLine::Moment(k, end) => format!(
                 "{} moment at its {} (kNm per kN)",
                 member(k),
@@ -218,6 +225,7 @@ pub fn values_of(
         ArchLine::SpringingMoment(s) => Ok(springing(s)?.iter().map(|f| f.moment).collect()),
         ArchLine::Axial(k) => lines.ordinates(Quantity::Axial { member: *k, end: MemberEnd::Start }),
         ArchLine::Moment(k, end) => lines.ordinates(Quantity::Moment { member: *k, end: *end }),
+        ArchLine::MidMoment(k) => lines.ordinates(Quantity::MidMoment { member: *k }),
     }
 }
 

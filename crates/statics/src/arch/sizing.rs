@@ -6,7 +6,7 @@
 //! Demands come from the frame model's envelopes (`arch::traffic`), per rib line, over
 //! the ultimate combinations (those that factor the permanent action above 1): the
 //! largest tension, the largest compression and the largest in-plane moment at either
-//! end of a member, taken together although they need not occur together
+//! end of a member (and at mid-length for members carrying the deck), taken together although they need not occur together
 //! (conservative, common practice at concept stage). Resistances and the search for the
 //! smallest size are `sizing::resistance`'s.
 //!
@@ -18,9 +18,10 @@
 //!   coefficients from memory), so N_cr = (pi / (beta s))^2 EI as in EN 1993-2 Annex D.3
 //!   with s half the rib's length; the stability issue replaces this by the critical load
 //!   factor of the whole structure;
-//! - rib, out of its plane: an editable length, by default each rib segment's length (the
-//!   rib held sideways at every rib node by cross-girders or wind bracing, common
-//!   practice);
+//! - rib, out of its plane: an editable length, by default each rib segment's length for
+//!   two or more ribs (held sideways at every rib node by bracing between the ribs,
+//!   common practice: assumed, neither modelled nor counted in the quantities) and the
+//!   whole rib's length for a single rib;
 //! - posts, piers, bracing: the member's length times the group's factor, both planes;
 //! - deck: the member's length times the factor in the plane; none out of the plane (the
 //!   slab holds it).
@@ -410,12 +411,28 @@ pub fn arch_buckling(valid: &ValidDesign) -> ArchBuckling {
         crate::arch::design::RibSystem::ThreeHinged => THREE_HINGED,
     };
     let ratio = rise / span;
-    let t = ((ratio - 0.1) / 0.1).clamp(0.0, 4.0);
+    // beyond the table's 0.1 to 0.5 the coefficient falls away (flat arches buckle
+    // sooner): beta = l / s is held at the table's end instead, as EN 1993-2 D.3's beta
+    // stays nearly constant for flat arches
+    let held = ratio.clamp(0.1, 0.5);
+    let t = ((held - 0.1) / 0.1).clamp(0.0, 4.0);
     let k = (t.floor() as usize).min(3);
     let coefficient = table[k] + (table[k + 1] - table[k]) * (t - k as f64);
-    let slope = 2.0 * ratio;
-    let l = std::f64::consts::PI * (8.0 * rise * span / (coefficient * (1.0 + slope * slope).sqrt())).sqrt();
+    let slope = 2.0 * held;
+    // the length at the held ratio, per unit span, scaled by the half-length ratio
+    let l_at =
+        |r: f64, sl: f64| std::f64::consts::PI * (8.0 * r / (coefficient * (1.0 + sl * sl).sqrt())).sqrt();
     let half_length = length / 2.0;
+    let l = if held == ratio {
+        span * l_at(ratio, slope)
+    } else {
+        // beta of a parabola at the held ratio: its half length is (span / 2) times
+        // (sqrt(1 + 16 r^2) / 2 + asinh(4 r) / (8 r)) (any calculus text)
+        let parabola_half =
+            |r: f64| 0.5 * ((1.0 + 16.0 * r * r).sqrt() / 2.0 + (4.0 * r).asinh() / (8.0 * r));
+        let beta = l_at(held, slope) / parabola_half(held);
+        beta * half_length
+    };
     let mut basis = format!(
         "in-plane buckling of the rib as a whole arch: N_cr = (pi / (beta s))^2 EI (EN 1993-2 Annex D.3 form), \
          beta from q_cr = {coefficient:.1} EI / L^3 of a {} parabolic rib at rise / span {ratio:.3} (Timoshenko and \
@@ -428,7 +445,7 @@ pub fn arch_buckling(valid: &ValidDesign) -> ArchBuckling {
         }
     );
     if !(0.1..=0.5).contains(&ratio) {
-        basis.push_str("; rise / span outside the table's 0.1 to 0.5: its end value is used");
+        basis.push_str("; rise / span outside the table's 0.1 to 0.5: beta is held at the table's end (the rib's length times that beta; a very flat arch may also snap through, which this does not check)");
     }
     ArchBuckling { span, rise, half_length, coefficient, length: l, beta: l / half_length, basis }
 }
@@ -649,8 +666,10 @@ fn member_demand(
             compression.take(-min, &name, || placement_words(&l.traffic_min));
         }
     }
-    for end in [MemberEnd::Start, MemberEnd::End] {
-        if let Some(l) = find(ArchLine::Moment(k, end)) {
+    let moment_lines =
+        [ArchLine::Moment(k, MemberEnd::Start), ArchLine::Moment(k, MemberEnd::End), ArchLine::MidMoment(k)];
+    for line in moment_lines {
+        if let Some(l) = find(line) {
             for (name, max, min) in ranges(l) {
                 moment.take(max, &name, || placement_words(&l.traffic_max));
                 moment.take(-min, &name, || placement_words(&l.traffic_min));
@@ -701,7 +720,14 @@ pub fn size_members(valid: &ValidDesign, report: &TrafficReport) -> Result<Membe
             let factor = sizing.group(group).length_factor;
             let lengths = match group {
                 GroupName::Rib => {
-                    Lengths { in_plane: arch.length, out_of_plane: sizing.rib_out_of_plane.unwrap_or(length) }
+                    // two or more ribs: held sideways at every rib node by bracing between
+                    // them (assumed, not modelled or counted); one rib: nothing holds it
+                    // between the springings
+                    let default = if design.deck.ribs >= 2 { length } else { 2.0 * arch.half_length };
+                    Lengths {
+                        in_plane: arch.length,
+                        out_of_plane: sizing.rib_out_of_plane.unwrap_or(default),
+                    }
                 }
                 GroupName::Deck => Lengths { in_plane: factor * length, out_of_plane: 0.0 },
                 _ => Lengths { in_plane: factor * length, out_of_plane: factor * length },
@@ -822,8 +848,11 @@ pub fn size_members(valid: &ValidDesign, report: &TrafficReport) -> Result<Membe
             "Per rib line, over the ultimate combinations ({}): the largest tension, compression and in-plane \
              moment of each member from the frame model's envelopes, taken together (conservative); one section \
              per group, the smallest of its family that every member of the group passes. Typed sections are \
-             checked with W = 2 I / depth and the same I out of plane (a typed concrete section with 1 % \
-             reinforcement). The erection stage is checked apart. {}",
+             checked with W = 2 I / depth and the same I out of plane, their wall class unchecked (a typed \
+             concrete section with 1 % reinforcement). The sizes are found for the weights and stiffnesses of the sections the analysis \
+             used: after adopting them, size again (the self-weight changes). The deck's moments are checked at \
+             the members' ends and mid-length; the three-hinged crown's drop-in deck span is not a member of the \
+             model and is not checked. The erection stage is checked apart. {}",
             ultimate.iter().map(|c| c.name.as_str()).collect::<Vec<_>>().join(", "),
             arch.basis
         ),
@@ -883,13 +912,17 @@ pub const SIZE_UNITS: &str = "m, m2, m3, m4, kN, kNm, kN/m2, t (tonnes), degrees
 /// Errors: those of [`size_members`].
 pub fn size_design(valid: &ValidDesign, report: &TrafficReport) -> Result<SizeReport, StaticsError> {
     let sizing = size_members(valid, report)?;
-    let rib_depth = sizing
-        .groups
-        .iter()
-        .find(|g| g.group == GroupName::Rib.key())
-        .and_then(|g| g.section)
-        .map_or(valid.design().groups.rib.depth, |s| s.depth);
-    let foundations = crate::arch::foundation::foundations(valid, report, rib_depth);
+    // the rib's depth and width at the springing: the sized section's, or the typed depth
+    // (a typed section gives no width: taken as its depth)
+    let rib = sizing.groups.iter().find(|g| g.group == GroupName::Rib.key());
+    let rib_size = match rib.map(|g| &g.outcome) {
+        Some(GroupOutcome::Sized { props, .. }) => (props.depth, props.width),
+        _ => {
+            let d = valid.design().groups.rib.depth;
+            (d, d)
+        }
+    };
+    let foundations = crate::arch::foundation::foundations(valid, report, rib_size);
     let quantities = crate::arch::quantities::quantities(valid, &sizing, &foundations);
     Ok(SizeReport {
         design: valid.design().name.clone(),

@@ -197,7 +197,9 @@ fn two_truck_sense(generated: &Generated, line: &ArchLine) -> Option<f64> {
     let role = |k: usize| generated.map.roles.get(k).copied();
     match line {
         // hogging: negative for a deck member drawn left to right (sagging positive)
-        ArchLine::Moment(k, _) if matches!(role(*k), Some(MemberRole::Deck | MemberRole::Approach)) => {
+        ArchLine::Moment(k, _) | ArchLine::MidMoment(k)
+            if matches!(role(*k), Some(MemberRole::Deck | MemberRole::Approach)) =>
+        {
             let m = &generated.model.members[*k];
             let (a, b) = (generated.model.nodes[m.start].x, generated.model.nodes[m.end].x);
             Some(if a <= b { -1.0 } else { 1.0 })
@@ -596,7 +598,7 @@ fn report(
             ArchLine::Thrust(_) | ArchLine::Vertical(_) | ArchLine::SpringingMoment(_) => {
                 Per::WholeCrossSection
             }
-            ArchLine::Axial(_) | ArchLine::Moment(..) => Per::RibLine,
+            ArchLine::Axial(_) | ArchLine::Moment(..) | ArchLine::MidMoment(_) => Per::RibLine,
         };
         let (traffics, g) = match per {
             Per::WholeCrossSection => (&whole, g_whole),

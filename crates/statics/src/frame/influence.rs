@@ -70,6 +70,13 @@ pub enum Quantity {
         /// Which end.
         end: MemberEnd,
     },
+    /// Bending moment of a member at mid-length, kNm per kN (solver sign convention):
+    /// read at the station there, or between the nearest stations on either side (the
+    /// diagram is straight between stations under point loads).
+    MidMoment {
+        /// Member index.
+        member: usize,
+    },
     /// A reaction component of a supported node: kN per kN for x and y (positive right,
     /// up), kNm per kN for rz (anticlockwise).
     Reaction {
@@ -122,6 +129,13 @@ impl InfluenceLines {
                     } else {
                         at.m
                     }
+                }
+                Quantity::MidMoment { member } => {
+                    let forces = case
+                        .members
+                        .get(member)
+                        .ok_or_else(|| refuse(format!("member {member} does not exist")))?;
+                    mid_moment(forces)
                 }
                 Quantity::Reaction { node, dof } => {
                     let r = case.reaction(node).ok_or_else(|| {
@@ -257,6 +271,25 @@ pub(crate) fn unit_load_case(
         }
     }
     lc
+}
+
+/// The bending moment of a member at mid-length, kNm: the station there, or a straight
+/// line between the stations either side (exact between stations under point loads; the
+/// stations include mid-length, `recovery::STATION_INTERVALS` being even).
+pub fn mid_moment(forces: &crate::frame::results::MemberForces) -> f64 {
+    let mid = 0.5 * forces.length;
+    let st = &forces.stations;
+    match st.iter().position(|s| s.s >= mid) {
+        Some(0) | None => st.first().map_or(0.0, |s| s.forces.m),
+        Some(i) => {
+            let (a, b) = (&st[i - 1], &st[i]);
+            if (b.s - mid).abs() <= 1e-12 * forces.length.max(1.0) || b.s <= a.s {
+                b.forces.m
+            } else {
+                a.forces.m + (b.forces.m - a.forces.m) * (mid - a.s) / (b.s - a.s)
+            }
+        }
+    }
 }
 
 #[cfg(test)]

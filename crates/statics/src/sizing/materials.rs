@@ -210,16 +210,18 @@ const STEEL_SOURCE: &str =
 /// Sources of the concrete presets.
 const CONCRETE_SOURCE: &str = "f_ck, E_cm: EN 1992-1-1 Table 3.1; 25 kN/m3 (reinforced, normal weight): \
      EN 1991-1-1 Table A.1; gamma_C = 1.5, gamma_S = 1.15: EN 1992-1-1 Table 2.1N (persistent and \
-     transient); alpha_cc = 1.0: recommended in EN 1992-1-1 3.1.6(1), the National Annex may set 0.85; \
+     transient); alpha_cc = 0.85: recommended for bridges in EN 1992-2 3.1.6(101)P (EN 1992-1-1 \
+     3.1.6(1) recommends 1.0 for buildings; the National Annex may differ); \
      reinforcement B500, f_yk = 500 MPa (EN 1992-1-1 Annex C)";
 
 /// Sources of the glulam presets.
 const GLULAM_SOURCE: &str = "strengths and moduli: EN 14080 Table 5, homogeneous glulam (from memory); \
      unit weight: the class's mean density rho_mean of the same table times 9.81 m/s2, rounded to \
-     0.1 kN/m3 (EN 1991-1-1 Table A.3 lists slightly lower values for the older classes); k_mod = 0.8: \
-     EN 1995-1-1 Table 3.1, service class 1 or 2, medium-term action (the combination's shortest-duration \
-     action governs: set 0.6 where permanent actions alone govern, 0.9 for short-term traffic, lower \
-     values in service class 3); gamma_M = 1.25: EN 1995-1-1 Table 2.3, glued laminated timber";
+     0.1 kN/m3 (EN 1991-1-1 Table A.3 lists slightly lower values for the older classes); k_mod = 0.55: \
+     EN 1995-1-1 Table 3.1, service class 3 (a bridge exposed to the weather), long-term: one value for \
+     every combination, below the 0.70 of short-term traffic and, while the traffic is at least a tenth \
+     of the permanent effect, at least as safe as the permanent-only check at 0.50 (conservative, common \
+     practice at concept stage; a covered bridge in service class 2 may take more); gamma_M = 1.25: EN 1995-1-1 Table 2.3, glued laminated timber";
 
 fn steel(name: &str, fy_mpa: f64) -> Material {
     Material::Steel(Steel {
@@ -239,7 +241,7 @@ fn concrete(name: &str, fck_mpa: f64, e_cm_gpa: f64) -> Material {
         e_cm: e_cm_gpa * 1000.0 * MPA,
         unit_weight: 25.0,
         gamma_c: 1.5,
-        alpha_cc: 1.0,
+        alpha_cc: 0.85,
         rebar_fyk: 500.0 * MPA,
         gamma_s: 1.15,
     })
@@ -258,7 +260,7 @@ fn glulam(name: &str, f_m: f64, f_t0: f64, f_c0: f64, e_mean: f64, e_05: f64, rh
         e_0_mean: e_mean * MPA,
         e_0_05: e_05 * MPA,
         unit_weight,
-        k_mod: 0.8,
+        k_mod: 0.55,
         gamma_m: 1.25,
     })
 }

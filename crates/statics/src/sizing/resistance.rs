@@ -35,10 +35,9 @@
 //!
 //! The demand's moment is taken with the largest tension (or, without tension, with no
 //! axial force: the Bending mode) and with the largest compression, conservatively, since
-//! the envelope does not say which axial force goes with it. For concrete, whose
-//! compression raises the moment resistance, the moment without axial force can govern a
-//! rib that is always compressed: conservative, by as much as the least concurrent
-//! compression would have helped.
+//! the envelope does not say which axial force goes with it. Concrete, whose compression
+//! raises the moment resistance, takes the moment without tension with the least
+//! compression that always acts (`Demand::least_compression`) instead of none.
 
 use super::buckling::{chi, concrete_second_order, curve_for, euler_load, glulam_kc};
 use super::materials::{Concrete, Glulam, Material, Steel};
@@ -90,6 +89,9 @@ pub enum Mode {
     Interaction,
     /// The section's slenderness class (steel walls too thin for class 3).
     Class,
+    /// A steel plate thicker than the 80 mm EN 1993-1-1 Table 3.1 covers (the ratio of
+    /// the thickest plate to 80 mm).
+    Thickness,
 }
 
 /// The result of checking one section for a demand.
@@ -146,9 +148,19 @@ impl Mode {
             Mode::Bending => "bending",
             Mode::Interaction => "compression and bending",
             Mode::Class => "slenderness class",
+            Mode::Thickness => "plate thickness",
         }
     }
 }
+
+/// Plates thicker than this, m, take the lower yield strength of EN 1993-1-1 Table 3.1.
+pub const THICK_PLATE: f64 = 0.040;
+/// How much lower, kN/m2: 20 MPa for S235 (215), S355 (335) and S460 (440) at 40 < t <= 80
+/// mm (EN 1993-1-1 Table 3.1, from memory).
+pub const THICK_PLATE_REDUCTION: f64 = 20_000.0;
+/// The thickest plate Table 3.1 covers, m: a thicker one fails the check (mode
+/// `Thickness`).
+pub const THICKEST_PLATE: f64 = 0.080;
 
 /// Reference yield strength of eps = sqrt(235 / f_y), kN/m2 (EN 1993-1-1 Table 5.2).
 const EPS_REFERENCE_FY: f64 = 235_000.0;
@@ -376,8 +388,15 @@ fn check_steel(
     demand: &Demand,
     lengths: &Lengths,
 ) -> Check {
-    let n_rk = props.a * steel.fy;
-    let m_rk = props.w_el * steel.fy;
+    // EN 1993-1-1 Table 3.1 gives f_y for t <= 40 mm and a lower value for 40 < t <= 80
+    // mm: 20 MPa less for S235, S355 and S460 (from memory); the thickest plate decides
+    let thickest = props.thickness.map(|t| t.max(family.web_thickness(props.size).unwrap_or(0.0)));
+    let fy = match thickest {
+        Some(t) if t > THICK_PLATE => steel.fy - THICK_PLATE_REDUCTION,
+        _ => steel.fy,
+    };
+    let n_rk = props.a * fy;
+    let m_rk = props.w_el * fy;
     let n_cr_in = euler_load(steel.e, props.i, lengths.in_plane);
     let n_cr_out = euler_load(steel.e, props.i_out, lengths.out_of_plane);
     let lambda_in = (n_rk / n_cr_in).sqrt();
@@ -406,18 +425,27 @@ fn check_steel(
             modes.push((Mode::Interaction, eq_6_61.max(eq_6_62).max(section)));
         }
     }
-    let walls = section_walls(family, props, steel);
-    let class = walls.iter().map(|w| w.ratio / w.limit).fold(0.0, f64::max);
-    modes.push((Mode::Class, class));
+    if let Some(t) = thickest {
+        modes.push((Mode::Thickness, t / THICKEST_PLATE));
+    }
+    // a typed section gives no wall thickness: its class is not checked (the report's
+    // basis says so)
+    if props.thickness.is_some() {
+        let walls = section_walls(family, props, steel);
+        let class = walls.iter().map(|w| w.ratio / w.limit).fold(0.0, f64::max);
+        modes.push((Mode::Class, class));
+    }
 
     let rule = format!(
         "EN 1993-1-1, {}: tension N/(A f_y/gamma_M0) + M/(W_el f_y/gamma_M0) (6.2.3, 6.2.1(7)); flexural buckling \
          N/(chi A f_y/gamma_M1) about each axis, curve {} (6.3.1, Table 6.2); compression and bending eqs. 6.61 \
          and 6.62, Annex B class 3: k_yy = C_my (1 + 0.6 lambda_y n_y) <= C_my (1 + 0.6 n_y), C_my = 1.0 \
          (conservative), k_zy = 0.8 k_yy (from memory), chi_LT = 1 (closed section), M_Rk = W_el f_y; the moment \
-         taken with either axial force; walls within class 3 in compression (Table 5.2)",
+         taken with either axial force; walls within class 3 in compression (Table 5.2); f_y {:.0} MPa for the \
+         thickest plate (Table 3.1: 20 MPa less above 40 mm, plates above 80 mm refused)",
         steel.name,
-        curve.name()
+        curve.name(),
+        fy / 1000.0
     );
     assemble(
         modes,
@@ -738,7 +766,9 @@ mod tests {
 
     #[test]
     fn rc_diagram_ends() {
-        let Material::Concrete(c) = preset("c40-50") else { panic!("concrete") };
+        let Material::Concrete(mut c) = preset("c40-50") else { panic!("concrete") };
+        // the values below take EN 1992-1-1's alpha_cc = 1.0 (the preset has the bridges' 0.85)
+        c.alpha_cc = 1.0;
         // 800 x 800, A_s = 12 800 mm2: squash load f_cd A_c + A_s E_s eps_c3
         // = 26.67 x 640 000 + 12 800 x 350 = 21 547 kN; tension A_s f_yd = 5565 kN
         let section = RcRectangle::new(&c, 0.8, 0.8, 0.0128, 0.06);
@@ -793,6 +823,26 @@ mod tests {
             .contains("in-plane"));
     }
 
+    /// A plate above 40 mm takes the lower yield strength of EN 1993-1-1 Table 3.1 (S355:
+    /// 335 MPa for 40 < t <= 80 mm): a CHS at D/t 20 has a 50 mm wall at 1000 mm, so its
+    /// tension resistance is A x 335 MPa; above 80 mm the plate fails its check.
+    #[test]
+    fn thick_plates_take_the_lower_yield_strength() {
+        let family = Family::Chs { d_over_t: 20.0 };
+        let props = family.props(1.0);
+        assert_eq!(props.thickness, Some(0.05));
+        let demand = Demand { tension: 1000.0, compression: 0.0, moment: 0.0, least_compression: 0.0 };
+        let lengths = Lengths { in_plane: 5.0, out_of_plane: 5.0 };
+        let c = check(&preset("s355"), &family, &props, &demand, &lengths).expect("checks");
+        let want = 1000.0 / (props.a * 335_000.0);
+        assert!((mode_of(&c, Mode::Tension) - want).abs() < 1e-12, "{:?}", c.modes);
+        let thick = family.props(1.8);
+        assert_eq!(thick.thickness, Some(0.09));
+        let c = check(&preset("s355"), &family, &thick, &demand, &lengths).expect("checks");
+        assert_eq!(c.governs, Mode::Thickness);
+        assert!(c.utilisation > 1.0);
+    }
+
     #[test]
     fn every_mode_is_listed_and_the_largest_governs() {
         let family = Family::Shs { b_over_t: 20.0 };
@@ -804,8 +854,17 @@ mod tests {
         let listed: Vec<Mode> = c.modes.iter().map(|(m, _)| *m).collect();
         assert_eq!(
             listed,
-            [Mode::Tension, Mode::InPlaneBuckling, Mode::OutOfPlaneBuckling, Mode::Interaction, Mode::Class]
+            [
+                Mode::Tension,
+                Mode::InPlaneBuckling,
+                Mode::OutOfPlaneBuckling,
+                Mode::Interaction,
+                Mode::Thickness,
+                Mode::Class
+            ]
         );
+        // a 10 mm wall against the 80 mm Table 3.1 covers
+        assert!((mode_of(&c, Mode::Thickness) - 0.010 / 0.080).abs() < 1e-12);
         let largest = c.modes.iter().map(|(_, u)| *u).fold(0.0, f64::max);
         assert_eq!(c.utilisation, largest);
         assert_eq!(c.governs, Mode::Interaction);
