@@ -821,10 +821,11 @@ pub fn size_members(valid: &ValidDesign, report: &TrafficReport) -> Result<Membe
             let c = at_group[r.k].take();
             let governs = c.as_ref().map(|c| c.governs);
             // the part of the demand the governing mode is about
+            // (the moment's for compression and bending: where the traffic stands for it
+            // tells more than where it stands for the axial force)
             let part = match governs {
-                Some(Mode::Tension) => &r.parts[1],
-                Some(Mode::Bending) => &r.parts[2],
-                Some(Mode::Interaction) if r.parts[2].value > 0.0 && r.parts[0].value <= 0.0 => &r.parts[2],
+                Some(Mode::Tension) if r.parts[1].value > 0.0 => &r.parts[1],
+                Some(Mode::Bending | Mode::Interaction) if r.parts[2].value > 0.0 => &r.parts[2],
                 _ if r.parts[0].value > 0.0 => &r.parts[0],
                 _ if r.parts[1].value > 0.0 => &r.parts[1],
                 _ => &r.parts[2],
