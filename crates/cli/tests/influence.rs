@@ -82,3 +82,31 @@ fn member_names_and_refusals() {
     let out = run(&["influence", "-"], &demo);
     assert_eq!(out.status.code(), Some(2), "--of is required");
 }
+
+/// A simply supported approach span's moment at mid-length: a unit load at distance d
+/// from mid-span gives (L / 2 - d) / 2 there, L / 4 at mid-span, and a load off the span
+/// nothing (any statics text); the approach span R1 of the demo is 14.79 m long.
+#[test]
+fn mid_length_moment_of_an_approach_span() {
+    let out = run(&["influence", "-", "--of", "approach R1/m-mid", "--step", "0.25"], &demo_json());
+    assert_eq!(out.status.code(), Some(0), "{}", text(&out.stderr));
+    let csv = text(&out.stdout);
+    assert!(csv.lines().next().is_some_and(|h| h.contains("approach R1 moment at mid-length")), "{csv}");
+    let values = rows(&csv);
+    let peak = values.iter().map(|(_, v)| *v).fold(f64::NEG_INFINITY, f64::max);
+    let valid = ValidDesign::new(&Design::demo()).expect("valid");
+    let g = springline_statics::frame_model(&valid);
+    let k = g.model.members.iter().position(|m| m.name == "approach R1").expect("member");
+    let m = &g.model.members[k];
+    let (x0, x1) = (g.model.nodes[m.start].x, g.model.nodes[m.end].x);
+    let (span, mid) = ((x1 - x0).abs(), 0.5 * (x0 + x1));
+    // a load at distance d from mid-span gives (L / 2 - d) / 2 there (magnitude; the sign
+    // follows the member's direction): the nearest position to mid-span gives the peak
+    let want = values.iter().map(|(x, _)| (0.5 * span - (x - mid).abs()).max(0.0) / 2.0).fold(0.0, f64::max);
+    let largest = values.iter().map(|(_, v)| v.abs()).fold(0.0, f64::max);
+    assert!((largest - want).abs() < 1e-5, "{largest} against {want}");
+    assert!(want > 0.99 * span / 4.0, "a position near mid-span");
+    assert!(peak.abs() > 0.0);
+    // well left of the span: no moment in it
+    assert!(values.iter().filter(|(x, _)| *x < 100.0).all(|(_, v)| v.abs() < 1e-6));
+}

@@ -14,9 +14,10 @@ use std::path::PathBuf;
 /// names the quantity, its sign and its units. WHAT is `thrust` (left springing H,
 /// outward push), `thrust-right`, `v-left`, `v-right` (vertical, downward push),
 /// `m-left`, `m-right` (springing moments of a fixed rib), a member's name as the model
-/// gives it (its axial force, tension positive; `springline model` lists the names), or a
-/// frame member's name with `/m-start` or `/m-end` (its end moment). Values are for the
-/// whole cross-section, for concept design only.
+/// gives it (its axial force, tension positive; `springline model` lists the names), a
+/// frame member's name with `/m-start` or `/m-end` (its end moment), or with `/m-mid` for
+/// a member carrying the deck (its moment at mid-length). Values are for the whole
+/// cross-section, for concept design only.
 #[derive(clap::Args)]
 #[command(after_help = "\
 Examples:
@@ -29,7 +30,7 @@ pub struct Args {
     design: PathBuf,
 
     /// The quantity: thrust, thrust-right, v-left, v-right, m-left, m-right, a member's
-    /// name, or a frame member's name with /m-start or /m-end.
+    /// name, or a frame member's name with /m-start, /m-end or (deck members) /m-mid.
     #[arg(long, value_name = "WHAT")]
     of: String,
 
