@@ -288,3 +288,23 @@ fn approach_spans_are_checked_at_mid_length() {
     assert!(member.demand.moment >= ultimate_largest - 1e-9 && member.demand.moment <= largest + 1e-9);
     assert!(member.demand.moment > 1.35 * hand, "{}", member.demand.moment);
 }
+
+/// A flat arch below the table (rise / span 0.07) keeps the beta of rise / span 0.1
+/// rather than the coefficient (which falls away for flat arches): its length is that
+/// beta times its own half length. At 0.1, two-hinged: q_cr = 28.5 EI / L^3, N_cr =
+/// 28.5 / 0.8 x sqrt(1.04) EI / L^2 = 36.33 EI / L^2, l = pi L / 6.027 = 0.5212 L, and the
+/// parabola's half length is 0.5127 L, so beta = 1.017.
+#[test]
+fn a_flat_arch_holds_beta_at_the_tables_end() {
+    let mut d = Design::demo();
+    d.rib_system = RibSystem::TwoHinged;
+    let valid = ValidDesign::new(&d).expect("valid");
+    let span = valid.form().span;
+    d.set_rise(0.07 * span);
+    let valid = ValidDesign::new(&d).expect("a flat arch validates, with a warning");
+    let b = arch_buckling(&valid);
+    assert!((b.rise / b.span - 0.07).abs() < 1e-9);
+    assert!((b.beta - 1.017).abs() < 2e-3, "{}", b.beta);
+    assert!((b.length - b.beta * b.half_length).abs() < 1e-9);
+    assert!(b.basis.contains("held at the table's end"), "{}", b.basis);
+}

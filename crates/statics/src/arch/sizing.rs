@@ -398,7 +398,8 @@ pub struct ArchBuckling {
 /// The rib's in-plane buckling length (see the module doc): l = pi sqrt(8 f L / (gamma
 /// sqrt(1 + (2 f / L)^2))), from q_cr = gamma EI / L^3, H_cr = q_cr L^2 / (8 f) and the
 /// quarter-point axial force N = H sqrt(1 + (2 f / L)^2) of a parabola; independent of EI.
-/// Rise / span outside 0.1 to 0.5 takes the table's end value (the basis says so).
+/// Rise / span outside 0.1 to 0.5 holds beta = l / s at the table's end (a parabola's
+/// beta there) and takes the rib's own half length s (the basis says so).
 pub fn arch_buckling(valid: &ValidDesign) -> ArchBuckling {
     let design = valid.design();
     let form = valid.form();
