@@ -815,7 +815,7 @@ fn GroupSizingFields(
     let length = if group == GroupName::Rib {
         view! {
             <RibOutOfPlaneField edited_at />
-            <p class="hint">"Out of plane, empty: each rib segment (held sideways at every rib node). In its plane the rib buckles as a whole arch, over a length that follows from rise and span."</p>
+            <p class="hint">"Out of plane, empty: each rib segment with two or more ribs (held sideways at every rib node by bracing between them, assumed), the whole rib with one. In its plane the rib buckles as a whole arch, over a length that follows from rise and span."</p>
         }
         .into_any()
     } else {
@@ -915,7 +915,7 @@ fn RibOutOfPlaneField(
                 type="text"
                 inputmode="decimal"
                 placeholder="segment"
-                aria-label="Rib, buckling length out of its plane (empty: each rib segment)"
+                aria-label="Rib, buckling length out of its plane (empty: each rib segment, or the whole rib when there is one rib)"
                 aria-describedby=format!("{id}-error")
                 prop:value=shown
                 on:change=move |ev| commit(event_target_value(&ev))
