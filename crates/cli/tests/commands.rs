@@ -405,3 +405,24 @@ fn size_reports_sizes_quantities_and_foundations() {
     let err = usage_error(&["size", "--text", "--adopted", "-"]);
     assert!(err.contains("cannot be used with"), "{err}");
 }
+
+/// `size --settle` runs the massing loop: the demo settles, every pass is listed, and the
+/// last report is the settled design's; `--passes` needs `--settle`.
+#[test]
+fn size_settle_runs_the_massing_loop() {
+    let out = run(&["size", "--settle", "-"], &demo_json());
+    assert_eq!(out.status.code(), Some(0), "{}", text(&out.stderr));
+    let m: serde_json::Value = serde_json::from_slice(&out.stdout).expect("massing JSON");
+    assert_eq!(m["converged"], true, "{}", m["last_change"]);
+    let history = m["history"].as_array().expect("history");
+    assert_eq!(history.len() as u64, m["passes"].as_u64().expect("passes"));
+    assert_eq!(history.last().and_then(|h| h["changed"].as_str()), Some("nothing"));
+    assert!(m["report"]["sizing"]["groups"].is_array());
+    let out = run(&["size", "--settle", "--passes", "1", "--text", "-"], &demo_json());
+    assert_eq!(out.status.code(), Some(0), "{}", text(&out.stderr));
+    let summary = text(&out.stdout);
+    assert!(summary.starts_with("massing loop: NOT settled after 1 pass"), "{summary}");
+    assert!(summary.contains("stopped: not settled after 1 passes (the cap)"), "{summary}");
+    let err = usage_error(&["size", "--passes", "3", "-"]);
+    assert!(err.contains("--settle"), "{err}");
+}

@@ -308,3 +308,28 @@ fn a_flat_arch_holds_beta_at_the_tables_end() {
     assert!((b.length - b.beta * b.half_length).abs() < 1e-9);
     assert!(b.basis.contains("held at the table's end"), "{}", b.basis);
 }
+
+/// The massing loop on the demo settles: the sized rib is heavier than the typed one, its
+/// weight raises the thrust, the rib grows once more and then stays; the settled
+/// design's own sizing adopts exactly its sections. Capped at one pass it stops and says
+/// why.
+#[test]
+fn the_massing_loop_settles_on_the_demo_and_stops_at_its_cap() {
+    use springline_statics::arch::massing::massing_loop;
+    let d = Design::demo();
+    let m = massing_loop(&d, 12).expect("loops");
+    assert!(m.converged, "{}", m.last_change);
+    assert!((2..=6).contains(&m.passes), "{} passes", m.passes);
+    assert_eq!(m.history.len(), m.passes);
+    assert_eq!(m.history.last().map(|h| h.changed.as_str()), Some("nothing"));
+    // the weight of the sized sections raises the form thrust pass by pass
+    assert!(m.history[1].form_thrust > m.history[0].form_thrust);
+    // settled: sizing the settled design adopts its own sections
+    let (_, _, again) = report_of(&m.design);
+    assert_eq!(adopt_sizes(&m.design, &again.sizing).groups, m.design.groups);
+    // one pass only: not settled, and the message says so
+    let capped = massing_loop(&d, 1).expect("one pass");
+    assert!(!capped.converged);
+    assert_eq!(capped.passes, 1);
+    assert!(capped.last_change.contains("not settled after 1 passes (the cap)"), "{}", capped.last_change);
+}

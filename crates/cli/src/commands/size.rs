@@ -5,6 +5,7 @@ use super::{print_json, print_line, read_design};
 use crate::failure::Failure;
 use springline_statics::arch::design_file::write_design_json;
 use springline_statics::arch::generate::ModelKind;
+use springline_statics::arch::massing::{massing_loop, MassingReport, DEFAULT_MASSING_PASSES};
 use springline_statics::arch::sizing::{adopt_sizes, size_design, GroupOutcome, SizeReport};
 use springline_statics::arch::traffic::traffic_envelopes;
 use springline_statics::{Design, StaticsError, ValidDesign};
@@ -40,11 +41,31 @@ pub struct Args {
     /// and unit weight), instead of the report.
     #[arg(long)]
     adopted: bool,
+
+    /// Size, adopt the sizes and size again (their weight changes the form and the
+    /// forces) until no section changes or PASSES passes are made; reports every pass.
+    #[arg(long)]
+    settle: bool,
+
+    /// Most passes with --settle.
+    #[arg(long, value_name = "PASSES", default_value_t = DEFAULT_MASSING_PASSES, requires = "settle")]
+    passes: usize,
 }
 
-/// Reads the design, sizes it and prints the report (or the adopted design).
+/// Reads the design, sizes it and prints the report (or the adopted design); with
+/// `--settle`, the massing loop's passes and its last report.
 pub fn run(args: Args) -> Result<(), Failure> {
     let design = read_design(&args.design)?;
+    if args.settle {
+        let settled = massing_loop(&design, args.passes)?;
+        return if args.adopted {
+            print_line(write_design_json(&settled.design).trim_end())
+        } else if args.text {
+            print_line(&settled_summary(&settled))
+        } else {
+            print_json(&settled)
+        };
+    }
     let report = size(&design)?;
     if args.adopted {
         print_line(write_design_json(&adopt_sizes(&design, &report.sizing)).trim_end())
@@ -109,5 +130,27 @@ pub fn text_summary(r: &SizeReport) -> String {
         ));
     }
     out.push(format!("({}; {})", r.units, r.caution));
+    out.join("\n")
+}
+
+/// The massing loop for people: each pass's thrust, steel and what it changed, whether it
+/// settled, then the last pass's summary.
+pub fn settled_summary(m: &MassingReport) -> String {
+    let mut out = vec![format!(
+        "massing loop: {} after {} pass{}",
+        if m.converged { "settled" } else { "NOT settled" },
+        m.passes,
+        if m.passes == 1 { "" } else { "es" }
+    )];
+    for p in &m.history {
+        out.push(format!(
+            "  pass {}: form thrust {:.0} kN, steel {:.1} t, concrete {:.1} m3; changed {}",
+            p.pass, p.form_thrust, p.steel, p.concrete, p.changed
+        ));
+    }
+    if !m.converged {
+        out.push(format!("stopped: {}", m.last_change));
+    }
+    out.push(text_summary(&m.report));
     out.join("\n")
 }

@@ -13,6 +13,7 @@ pub mod foundation;
 pub mod generate;
 pub mod influence;
 pub mod layout;
+pub mod massing;
 pub mod quantities;
 pub mod readout;
 pub mod sizing;
