@@ -106,6 +106,20 @@ fn the_sizes_view_shows_the_engines_report_and_its_sizes_can_be_used_and_undone(
     wait_input(&s, "section-rib-a", sized.a);
     click_id(&s, "undo");
     wait_input(&s, "section-rib-a", demo.groups.rib.a);
+
+    // settle the sizes: the massing loop's settled rib, in one undo step
+    let settled = springline_statics::arch::massing::massing_loop(&demo, 12).expect("the loop runs");
+    assert!(settled.converged, "{}", settled.last_change);
+    click_id(&s, "sizes-settle");
+    wait_input(&s, "section-rib-a", settled.design.groups.rib.a);
+    let note = format!("Settled after {} passes", settled.passes);
+    s.wait_for(
+        "the loop's note",
+        &format!("const n = document.getElementById('sizes-settle-note'); return !!n && n.textContent.startsWith({})", json!(note)),
+        WAIT,
+    );
+    click_id(&s, "undo");
+    wait_input(&s, "section-rib-a", demo.groups.rib.a);
     assert!(severe(&s).is_empty(), "{:?}", severe(&s));
 }
 

@@ -13,6 +13,7 @@ use crate::format::{Quantity, Units};
 use crate::state::{AppState, SizeView};
 use leptos::prelude::*;
 use springline_statics::arch::foundation::SpringingDemand;
+use springline_statics::arch::massing::{massing_loop, DEFAULT_MASSING_PASSES};
 use springline_statics::arch::sizing::{adopt_sizes, GroupOutcome, SizeReport};
 use springline_statics::error::{Field, GroupName};
 
@@ -247,6 +248,53 @@ fn AdoptButton() -> impl IntoView {
     }
 }
 
+/// The "Settle the sizes" button: the massing loop (`arch::massing`: size, adopt,
+/// analyse and size again until the sections stop changing) from the design on screen,
+/// its result put into the design as one undo step, with what the loop did in words.
+#[component]
+fn SettleButton() -> impl IntoView {
+    let state = expect_context::<AppState>();
+    let outcome = RwSignal::new(None::<(bool, String)>);
+    let settle = move |_| {
+        let design = state.design.get_untracked();
+        match massing_loop(&design, DEFAULT_MASSING_PASSES) {
+            Ok(m) => {
+                let words = if m.converged {
+                    format!(
+                        "Settled after {} pass{}: form thrust {:.0} kN, steel {:.1} t.",
+                        m.passes,
+                        if m.passes == 1 { "" } else { "es" },
+                        m.history.last().map_or(0.0, |h| h.form_thrust),
+                        m.report.quantities.steel
+                    )
+                } else {
+                    format!("Not settled: {}", m.last_change)
+                };
+                if m.design != design {
+                    if let Err(e) = state.try_edit(Field::Sizing(GroupName::Rib), |d| *d = m.design.clone()) {
+                        outcome.set(Some((false, format!("The settled design is refused: {e}"))));
+                        return;
+                    }
+                }
+                outcome.set(Some((m.converged, words)));
+            }
+            Err(e) => outcome.set(Some((false, format!("The sizes cannot be settled: {e}")))),
+        }
+    };
+    view! {
+        <div class="sizing-adopt">
+            <button type="button" id="sizes-settle" on:click=settle>"Settle the sizes"</button>
+            <span class="hint">
+                "Sizes, adopts and sizes again until no section changes (their weight changes the form and the forces); one undo step."
+            </span>
+            {move || outcome.get().map(|(ok, words)| {
+                let class = if ok { "hint" } else { "error" };
+                view! { <p class=class id="sizes-settle-note" role="status">{words}</p> }
+            })}
+        </div>
+    }
+}
+
 /// The panel of the sizing view, under the drawings.
 #[component]
 pub fn SizingPanel() -> impl IntoView {
@@ -278,6 +326,7 @@ pub fn SizingPanel() -> impl IntoView {
             <section class="envelope-panel sizing-panel" id="sizing-panel" aria-label="Sizes and quantities">
                 {body}
                 <AdoptButton />
+                <SettleButton />
             </section>
         </Show>
     }
