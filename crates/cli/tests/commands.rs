@@ -60,7 +60,7 @@ fn analyze_help_prints_help_and_reads_no_file() {
 /// own help, with `-h` as with `--help`, and `springline help CMD` says the same.
 #[test]
 fn every_subcommand_has_its_own_help() {
-    let cases: [(&str, &str, &str); 7] = [
+    let cases: [(&str, &str, &str); 8] = [
         ("demo", "Print the demo design as JSON", "springline demo > design.json"),
         ("analyze", "Analyse a design", "springline analyze design.json"),
         ("link", "Print the permalink fragment of a design", "springline link design.json"),
@@ -75,6 +75,11 @@ fn every_subcommand_has_its_own_help() {
             "size",
             "Size the member groups, weigh the design and size its thrust blocks",
             "springline size design.json --text",
+        ),
+        (
+            "sweep",
+            "Sweep one parameter of a design (or two as a grid)",
+            "springline sweep design.json --vary rise-ratio=0.10:0.20:21",
         ),
     ];
     for (command, description, example) in cases {
@@ -103,7 +108,7 @@ fn top_level_help_has_the_caution_and_the_exit_codes() {
         help.contains("Results are for concept design only; local codes and a licensed engineer govern."),
         "{help}"
     );
-    for command in ["demo", "analyze", "link", "model", "solve", "influence", "size"] {
+    for command in ["demo", "analyze", "link", "model", "solve", "influence", "size", "sweep"] {
         assert!(help.contains(&format!("\n  {command} ")), "{command}: {help}");
     }
     for code in ["0  success", "1  the engine refused the input", "2  usage error", "3  a file"] {
@@ -425,4 +430,31 @@ fn size_settle_runs_the_massing_loop() {
     assert!(summary.contains("stopped: not settled after 1 passes (the cap)"), "{summary}");
     let err = usage_error(&["size", "--passes", "3", "-"]);
     assert!(err.contains("--settle"), "{err}");
+}
+
+/// `sweep` prints CSV with unit-named columns, one line per option (a failing option with
+/// its reason), JSON with `--json`; a bad range is refused (exit 1) and `--vary` is
+/// required (exit 2).
+#[test]
+fn sweep_prints_one_row_per_option() {
+    let out = run(&["sweep", "-", "--vary", "rise-ratio=0.12,0.18,0.6"], &demo_json());
+    assert_eq!(out.status.code(), Some(0), "{}", text(&out.stderr));
+    let csv = text(&out.stdout);
+    let lines: Vec<&str> = csv.lines().collect();
+    assert_eq!(lines.len(), 4, "{csv}");
+    assert!(
+        lines[0].starts_with("rise/span set (-),feasible,") && lines[0].contains("form thrust (kN)"),
+        "{csv}"
+    );
+    assert!(lines[1].starts_with("0.12,true,") && lines[2].starts_with("0.18,true,"), "{csv}");
+    assert!(lines[3].starts_with("0.6,false,"), "{csv}");
+    let out = run(&["sweep", "-", "--vary", "ribs=1,2", "--json"], &demo_json());
+    assert_eq!(out.status.code(), Some(0), "{}", text(&out.stderr));
+    let s: serde_json::Value = serde_json::from_slice(&out.stdout).expect("sweep JSON");
+    assert_eq!(s["rows"].as_array().map(Vec::len), Some(2));
+    assert!(s["held"].as_str().is_some_and(|h| h.contains("evenly spaced")));
+    assert!(s["caution"].as_str().is_some_and(|c| c.contains("licensed engineer")));
+    let err = failed(&run(&["sweep", "-", "--vary", "height=1:2:3"], &demo_json()), 1);
+    assert!(err.contains("rise-ratio"), "{err}");
+    usage_error(&["sweep", "-"]);
 }

@@ -8,6 +8,7 @@ pub mod link;
 pub mod model;
 pub mod size;
 pub mod solve;
+pub mod sweep;
 
 use crate::failure::Failure;
 use anyhow::anyhow;
@@ -26,6 +27,7 @@ pub enum Command {
     Solve(solve::Args),
     Influence(influence::Args),
     Size(size::Args),
+    Sweep(sweep::Args),
 }
 
 impl Command {
@@ -39,6 +41,7 @@ impl Command {
             Command::Solve(args) => solve::run(args),
             Command::Influence(args) => influence::run(args),
             Command::Size(args) => size::run(args),
+            Command::Sweep(args) => sweep::run(args),
         }
     }
 }

@@ -18,5 +18,6 @@ pub mod quantities;
 pub mod readout;
 pub mod sizing;
 pub mod summary;
+pub mod sweep;
 pub mod traffic;
 pub mod validate;

@@ -1,0 +1,424 @@
+//! Option sweeps: one parameter of a design varied over a range (or two as a grid), each
+//! option validated, analysed, its traffic envelopes found and (on request) sized, and
+//! the key numbers of each put in a row.
+//!
+//! What each parameter moves and what stays fixed:
+//! - `rise-ratio`: the rise over the span between the springings; the springings (and so
+//!   the span), the deck and the valley stay, the crown level follows;
+//! - `panels`: the number of arch panels; everything else stays;
+//! - `springing-level`: the left springing's level, the right one moved by the same
+//!   amount (their difference stays); the crown keeps how it is given (by rise: it moves
+//!   with the springings; by level: it stays);
+//! - `ribs`: the number of ribs side by side over the same deck width, evenly spaced (any
+//!   rib positions given by hand are dropped: they were for another count);
+//! - `rib-system`: three-hinged, two-hinged or fixed.
+//!
+//! An option that does not validate or analyse is a row with its reason, not an error.
+//! Concept-design values: local codes and a licensed engineer govern.
+
+use crate::arch::analysis::{analyze_valid, CAUTION};
+use crate::arch::design::{Design, RibSystem};
+use crate::arch::generate::{frame_model, MemberRole, ModelKind};
+use crate::arch::influence::ArchLine;
+use crate::arch::sizing::{is_ultimate, size_design};
+use crate::arch::traffic::traffic_envelopes;
+use crate::arch::validate::ValidDesign;
+use crate::error::{Location, Problem, StaticsError};
+use serde::Serialize;
+
+/// A parameter a sweep varies.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+#[serde(rename_all = "kebab-case")]
+pub enum Parameter {
+    /// Rise over span.
+    RiseRatio,
+    /// Number of arch panels.
+    Panels,
+    /// Left springing level, m (the right one moves with it).
+    SpringingLevel,
+    /// Number of ribs.
+    Ribs,
+    /// Rib system (0 three-hinged, 1 two-hinged, 2 fixed).
+    RibSystem,
+}
+
+impl Parameter {
+    /// Every parameter with its name on the command line.
+    pub const ALL: [(Parameter, &'static str); 5] = [
+        (Parameter::RiseRatio, "rise-ratio"),
+        (Parameter::Panels, "panels"),
+        (Parameter::SpringingLevel, "springing-level"),
+        (Parameter::Ribs, "ribs"),
+        (Parameter::RibSystem, "rib-system"),
+    ];
+
+    /// The name on the command line (`rise-ratio`).
+    pub fn key(self) -> &'static str {
+        Parameter::ALL.iter().find(|(p, _)| *p == self).map_or("?", |(_, k)| k)
+    }
+
+    /// The column title with its unit.
+    pub fn column(self) -> &'static str {
+        match self {
+            Parameter::RiseRatio => "rise/span set (-)",
+            Parameter::Panels => "panels (-)",
+            Parameter::SpringingLevel => "left springing level (m)",
+            Parameter::Ribs => "ribs (-)",
+            Parameter::RibSystem => "rib system",
+        }
+    }
+}
+
+/// The rib systems by their sweep value.
+const SYSTEMS: [(RibSystem, &str); 3] = [
+    (RibSystem::ThreeHinged, "three-hinged"),
+    (RibSystem::TwoHinged, "two-hinged"),
+    (RibSystem::Fixed, "fixed"),
+];
+
+/// One varied parameter and its values.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Axis {
+    /// The parameter.
+    pub parameter: Parameter,
+    /// Its values (rib systems by index into three-hinged, two-hinged, fixed).
+    pub values: Vec<f64>,
+}
+
+fn refuse(message: String) -> StaticsError {
+    StaticsError::Invalid(vec![Problem::new(Location::Part("sweep".into()), message)])
+}
+
+/// Most values of one axis (a grid of two holds their product).
+pub const MAX_VALUES: usize = 1000;
+
+/// Reads `NAME=FROM:TO:COUNT` (COUNT values evenly from FROM to TO, both included) or
+/// `NAME=V1,V2,...` (rib systems by name: `three-hinged`, `two-hinged`, `fixed`).
+///
+/// Errors: `Invalid` naming the accepted parameters and forms.
+pub fn parse_axis(spec: &str) -> Result<Axis, StaticsError> {
+    let names: Vec<&str> = Parameter::ALL.iter().map(|(_, k)| *k).collect();
+    let Some((name, range)) = spec.split_once('=') else {
+        return Err(refuse(format!(
+            "'{spec}' is not NAME=FROM:TO:COUNT or NAME=V1,V2,...; NAME is one of {}",
+            names.join(", ")
+        )));
+    };
+    let Some(parameter) = Parameter::ALL.iter().find(|(_, k)| *k == name.trim()).map(|(p, _)| *p) else {
+        return Err(refuse(format!("'{name}' is no parameter to vary; give one of {}", names.join(", "))));
+    };
+    let values: Vec<f64> = if parameter == Parameter::RibSystem {
+        range
+            .split(',')
+            .map(|v| {
+                SYSTEMS.iter().position(|(_, n)| *n == v.trim()).map(|i| i as f64).ok_or_else(|| {
+                    refuse(format!("'{v}' is no rib system; give three-hinged, two-hinged or fixed"))
+                })
+            })
+            .collect::<Result<_, _>>()?
+    } else if let [from, to, count] = range.split(':').collect::<Vec<_>>()[..] {
+        let number = |t: &str| {
+            t.trim()
+                .parse::<f64>()
+                .ok()
+                .filter(|v| v.is_finite())
+                .ok_or_else(|| refuse(format!("'{t}' is not a number")))
+        };
+        let (from, to) = (number(from)?, number(to)?);
+        let count: usize =
+            count.trim().parse().ok().filter(|c| (1..=MAX_VALUES).contains(c)).ok_or_else(|| {
+                refuse(format!("'{count}' is not a count of values from 1 to {MAX_VALUES}"))
+            })?;
+        (0..count)
+            .map(|k| if count == 1 { from } else { from + (to - from) * k as f64 / (count - 1) as f64 })
+            .collect()
+    } else {
+        range
+            .split(',')
+            .map(|t| {
+                t.trim()
+                    .parse::<f64>()
+                    .ok()
+                    .filter(|v| v.is_finite())
+                    .ok_or_else(|| refuse(format!("'{t}' is not a number")))
+            })
+            .collect::<Result<_, _>>()?
+    };
+    if values.is_empty() || values.len() > MAX_VALUES {
+        return Err(refuse(format!("a sweep takes 1 to {MAX_VALUES} values of {name}")));
+    }
+    if matches!(parameter, Parameter::Panels | Parameter::Ribs)
+        && values.iter().any(|v| v.fract() != 0.0 || *v < 1.0)
+    {
+        return Err(refuse(format!("{name} takes whole numbers of at least 1")));
+    }
+    Ok(Axis { parameter, values })
+}
+
+/// `design` with `parameter` set to `value` (see the module doc).
+pub fn apply(design: &Design, parameter: Parameter, value: f64) -> Design {
+    let mut d = design.clone();
+    match parameter {
+        Parameter::RiseRatio => {
+            let span = match (
+                d.springing_x(d.springing_left_level, true),
+                d.springing_x(d.springing_right_level, false),
+            ) {
+                (Some(a), Some(b)) => b - a,
+                _ => f64::NAN,
+            };
+            d.set_rise(value * span);
+        }
+        Parameter::Panels => d.panels = value as usize,
+        Parameter::SpringingLevel => {
+            let delta = value - d.springing_left_level;
+            d.springing_left_level = value;
+            d.springing_right_level += delta;
+        }
+        Parameter::Ribs => {
+            d.deck.ribs = value as usize;
+            d.traffic.rib_positions.clear();
+        }
+        Parameter::RibSystem => {
+            d.rib_system = SYSTEMS.get(value as usize).map_or(d.rib_system, |(s, _)| *s);
+        }
+    }
+    d
+}
+
+/// The key numbers of one option.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct SweepRow {
+    /// The varied parameters' values, in the order of the axes.
+    pub values: Vec<f64>,
+    /// Whether the option validates and analyses (and sizes, when sizing).
+    pub feasible: bool,
+    /// Why not, in the engine's words.
+    pub reason: Option<String>,
+    /// Rise over span of the option.
+    pub rise_ratio: Option<f64>,
+    /// Form thrust, kN.
+    pub form_thrust: Option<f64>,
+    /// Least and greatest design thrust over the ultimate combinations, kN (whole
+    /// cross-section).
+    pub thrust_range: Option<[f64; 2]>,
+    /// Largest design |N| of a rib, post and bracing member per rib line over the ultimate
+    /// combinations, kN (`None` where the option has no such member).
+    pub rib_force: Option<f64>,
+    /// As `rib_force`, posts.
+    pub post_force: Option<f64>,
+    /// As `rib_force`, bracing.
+    pub bracing_force: Option<f64>,
+    /// Steel, t (with sizing).
+    pub steel: Option<f64>,
+    /// Concrete, m3 (with sizing).
+    pub concrete: Option<f64>,
+    /// Cost index (with sizing).
+    pub cost_index: Option<f64>,
+}
+
+/// A sweep's rows and what it held fixed.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Sweep {
+    /// The axes.
+    pub axes: Vec<Axis>,
+    /// What stays fixed and what follows, in words.
+    pub held: String,
+    /// One row per option (the last axis varies fastest).
+    pub rows: Vec<SweepRow>,
+    /// Whether the options were sized.
+    pub sized: bool,
+    /// Caution.
+    pub caution: String,
+}
+
+fn held_words(parameter: Parameter) -> &'static str {
+    match parameter {
+        Parameter::RiseRatio => "rise-ratio: springings, span, deck and valley fixed; the crown level follows",
+        Parameter::Panels => "panels: everything else fixed",
+        Parameter::SpringingLevel => {
+            "springing-level: the right springing moves with the left (their difference fixed); a crown given by \
+             rise moves with them, one given by level stays"
+        }
+        Parameter::Ribs => "ribs: the deck width fixed, the ribs evenly spaced across it",
+        Parameter::RibSystem => "rib-system: everything else fixed",
+    }
+}
+
+/// One option's row (see [`SweepRow`]).
+pub fn option_row(design: &Design, values: Vec<f64>, size: bool) -> SweepRow {
+    let mut row = SweepRow {
+        values,
+        feasible: false,
+        reason: None,
+        rise_ratio: None,
+        form_thrust: None,
+        thrust_range: None,
+        rib_force: None,
+        post_force: None,
+        bracing_force: None,
+        steel: None,
+        concrete: None,
+        cost_index: None,
+    };
+    let outcome = (|| {
+        let valid = ValidDesign::new(design)?;
+        let analysis = analyze_valid(&valid)?;
+        row.rise_ratio = Some(analysis.summary.rise_over_span);
+        row.form_thrust = Some(analysis.summary.form_thrust);
+        let traffic = traffic_envelopes(&valid, ModelKind::Frame)?
+            .ok_or_else(|| refuse("the frame model has no traffic envelopes".into()))?;
+        let ultimate: Vec<&str> =
+            design.traffic.combinations.iter().filter(|c| is_ultimate(c)).map(|c| c.name.as_str()).collect();
+        let uls = |l: &crate::arch::traffic::LineEnvelope| {
+            l.design
+                .iter()
+                .filter(|r| ultimate.contains(&r.combination.as_str()))
+                .map(|r| (r.max, r.min))
+                .collect::<Vec<_>>()
+        };
+        let thrust = uls(&traffic.thrust);
+        if !thrust.is_empty() {
+            let lo = thrust.iter().map(|r| r.1).fold(f64::INFINITY, f64::min);
+            let hi = thrust.iter().map(|r| r.0).fold(f64::NEG_INFINITY, f64::max);
+            row.thrust_range = Some([lo, hi]);
+        }
+        let generated = frame_model(&valid);
+        let largest = |role: MemberRole| {
+            generated
+                .map
+                .roles
+                .iter()
+                .enumerate()
+                .filter(|(_, r)| **r == role)
+                .filter_map(|(k, _)| traffic.line(&ArchLine::Axial(k).name(&generated)))
+                .flat_map(uls)
+                .map(|(max, min)| max.abs().max(min.abs()))
+                .reduce(f64::max)
+        };
+        row.rib_force = largest(MemberRole::Rib);
+        row.post_force = largest(MemberRole::Post);
+        row.bracing_force = largest(MemberRole::Bracing);
+        if size {
+            let report = size_design(&valid, &traffic)?;
+            row.steel = Some(report.quantities.steel);
+            row.concrete = Some(report.quantities.concrete);
+            row.cost_index = Some(report.quantities.cost_index);
+            let not_sized: Vec<String> = report
+                .sizing
+                .groups
+                .iter()
+                .filter_map(|g| match &g.outcome {
+                    crate::arch::sizing::GroupOutcome::NotSized { reason } => {
+                        Some(format!("{}: {reason}", g.group))
+                    }
+                    _ => None,
+                })
+                .collect();
+            if !not_sized.is_empty() {
+                return Err(refuse(format!("a group cannot be sized: {}", not_sized.join("; "))));
+            }
+        }
+        Ok::<(), StaticsError>(())
+    })();
+    match outcome {
+        Ok(()) => row.feasible = true,
+        Err(e) => row.reason = Some(e.to_string()),
+    }
+    row
+}
+
+/// Sweeps `design` over one axis or a grid of two (see the module doc); with `size`, each
+/// option is sized too (`arch::sizing`).
+///
+/// Errors: `Invalid` for no axis, more than two, the same parameter twice, or a grid of
+/// more than [`MAX_VALUES`] options.
+pub fn sweep(design: &Design, axes: &[Axis], size: bool) -> Result<Sweep, StaticsError> {
+    if axes.is_empty() || axes.len() > 2 {
+        return Err(refuse("a sweep varies one parameter, or two as a grid".into()));
+    }
+    if axes.len() == 2 && axes[0].parameter == axes[1].parameter {
+        return Err(refuse(format!("{} is varied twice", axes[0].parameter.key())));
+    }
+    let count: usize = axes.iter().map(|a| a.values.len()).product();
+    if count > MAX_VALUES {
+        return Err(refuse(format!("{count} options: a sweep takes at most {MAX_VALUES}")));
+    }
+    let mut rows = Vec::with_capacity(count);
+    let first = &axes[0];
+    for &a in &first.values {
+        let d = apply(design, first.parameter, a);
+        match axes.get(1) {
+            None => rows.push(option_row(&d, vec![a], size)),
+            Some(second) => {
+                for &b in &second.values {
+                    rows.push(option_row(&apply(&d, second.parameter, b), vec![a, b], size));
+                }
+            }
+        }
+    }
+    Ok(Sweep {
+        held: axes.iter().map(|a| held_words(a.parameter)).collect::<Vec<_>>().join("; "),
+        axes: axes.to_vec(),
+        rows,
+        sized: size,
+        caution: CAUTION.into(),
+    })
+}
+
+/// The sweep as CSV: a header with every column's unit, then one line per option
+/// (empty cells where a number does not apply; the reason in quotes).
+pub fn to_csv(s: &Sweep) -> String {
+    let mut head: Vec<String> = s.axes.iter().map(|a| a.parameter.column().to_string()).collect();
+    head.extend(
+        [
+            "feasible",
+            "rise/span (-)",
+            "form thrust (kN)",
+            "least design thrust (kN)",
+            "greatest design thrust (kN)",
+            "largest rib force per rib line (kN)",
+            "largest post force per rib line (kN)",
+            "largest bracing force per rib line (kN)",
+        ]
+        .map(String::from),
+    );
+    if s.sized {
+        head.extend(["steel (t)", "concrete (m3)", "cost index"].map(String::from));
+    }
+    head.push("reason".into());
+    let num = |v: Option<f64>, decimals: usize| v.map_or(String::new(), |v| format!("{v:.decimals$}"));
+    let mut lines = vec![head.join(",")];
+    for r in &s.rows {
+        let mut cells: Vec<String> = s
+            .axes
+            .iter()
+            .zip(&r.values)
+            .map(|(a, v)| match a.parameter {
+                Parameter::RibSystem => SYSTEMS.get(*v as usize).map_or("?", |(_, n)| n).to_string(),
+                Parameter::Panels | Parameter::Ribs => format!("{v:.0}"),
+                // six decimals at most, without trailing zeros (0.12, not 0.12000000000000001)
+                _ => {
+                    let t = format!("{v:.6}");
+                    t.trim_end_matches('0').trim_end_matches('.').to_string()
+                }
+            })
+            .collect();
+        cells.push(r.feasible.to_string());
+        cells.push(num(r.rise_ratio, 4));
+        cells.push(num(r.form_thrust, 1));
+        cells.push(num(r.thrust_range.map(|t| t[0]), 1));
+        cells.push(num(r.thrust_range.map(|t| t[1]), 1));
+        cells.push(num(r.rib_force, 1));
+        cells.push(num(r.post_force, 1));
+        cells.push(num(r.bracing_force, 1));
+        if s.sized {
+            cells.push(num(r.steel, 2));
+            cells.push(num(r.concrete, 2));
+            cells.push(num(r.cost_index, 0));
+        }
+        cells.push(r.reason.as_ref().map_or(String::new(), |t| format!("\"{}\"", t.replace('"', "'"))));
+        lines.push(cells.join(","));
+    }
+    lines.join("\n")
+}

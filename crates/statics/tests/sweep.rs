@@ -1,0 +1,111 @@
+//! Option sweeps: every row is the separate analysis (and sizing) of its option, the
+//! demo's form thrust falls as its rise grows, options that fail are rows with their
+//! reason, grids hold every pair.
+
+use springline_statics::arch::design::{Design, RibSystem};
+use springline_statics::arch::generate::ModelKind;
+use springline_statics::arch::sizing::size_design;
+use springline_statics::arch::sweep::{apply, parse_axis, sweep, to_csv, Parameter};
+use springline_statics::arch::traffic::traffic_envelopes;
+use springline_statics::{analyze, ValidDesign};
+
+/// H = M0 / f for a three-hinged arch: the thrust falls as the rise grows (any statics
+/// text; with the springings fixed the span stays, so the form thrust falls about as
+/// 1 / f). Every row equals the separate analysis of its option.
+#[test]
+fn the_demo_thrust_falls_as_the_rise_grows_and_rows_equal_separate_analyses() {
+    let demo = Design::demo();
+    let axis = parse_axis("rise-ratio=0.10:0.20:6").expect("parses");
+    assert_eq!(axis.values.len(), 6);
+    let s = sweep(&demo, std::slice::from_ref(&axis), false).expect("sweeps");
+    assert_eq!(s.rows.len(), 6);
+    assert!(s.held.contains("crown level follows"), "{}", s.held);
+    let thrusts: Vec<f64> = s.rows.iter().map(|r| r.form_thrust.expect("feasible")).collect();
+    assert!(thrusts.windows(2).all(|w| w[1] < w[0]), "{thrusts:?}");
+    // about as 1 / f: from 0.10 to 0.20 the thrust falls by about half (the dead load
+    // changes a little with the posts' lengths)
+    let ratio = thrusts[5] / thrusts[0];
+    assert!((0.45..0.55).contains(&ratio), "{ratio}");
+    for (row, v) in s.rows.iter().zip(&axis.values) {
+        let option = apply(&demo, Parameter::RiseRatio, *v);
+        let a = analyze(&option).expect("analyses");
+        assert_eq!(row.form_thrust, Some(a.summary.form_thrust));
+        assert!((row.rise_ratio.expect("ratio") - v).abs() < 1e-9);
+        let valid = ValidDesign::new(&option).expect("valid");
+        let t = traffic_envelopes(&valid, ModelKind::Frame).expect("solves").expect("report");
+        let hi = t
+            .thrust
+            .design
+            .iter()
+            .filter(|r| r.combination.starts_with("ULS"))
+            .map(|r| r.max)
+            .fold(f64::MIN, f64::max);
+        assert_eq!(row.thrust_range.map(|t| t[1]), Some(hi));
+    }
+}
+
+/// With sizing, each row's steel and cost are the option's own size report's.
+#[test]
+fn sized_rows_equal_separate_sizings() {
+    let demo = Design::demo();
+    let axis = parse_axis("panels=10,14").expect("parses");
+    let s = sweep(&demo, &[axis], true).expect("sweeps");
+    for (row, panels) in s.rows.iter().zip([10.0, 14.0]) {
+        let option = apply(&demo, Parameter::Panels, panels);
+        let valid = ValidDesign::new(&option).expect("valid");
+        let t = traffic_envelopes(&valid, ModelKind::Frame).expect("solves").expect("report");
+        let r = size_design(&valid, &t).expect("sizes");
+        assert!(row.feasible, "{:?}", row.reason);
+        assert_eq!(row.steel, Some(r.quantities.steel));
+        assert_eq!(row.cost_index, Some(r.quantities.cost_index));
+    }
+    let csv = to_csv(&s);
+    assert!(csv.lines().next().is_some_and(|h| h.contains("steel (t)") && h.contains("cost index")), "{csv}");
+}
+
+/// An option that cannot be built is a row with the engine's reason (a crown above the
+/// deck), and the other options still come; a grid holds every pair, the last axis
+/// fastest.
+#[test]
+fn failing_options_are_rows_and_grids_hold_every_pair() {
+    let demo = Design::demo();
+    let s = sweep(&demo, &[parse_axis("rise-ratio=0.15,0.6").expect("parses")], false).expect("sweeps");
+    assert!(s.rows[0].feasible);
+    assert!(!s.rows[1].feasible);
+    assert!(s.rows[1].reason.as_deref().is_some_and(|r| !r.is_empty()));
+    assert!(to_csv(&s).lines().nth(2).is_some_and(|l| l.contains("false") && l.ends_with('"')));
+    let grid = sweep(
+        &demo,
+        &[
+            parse_axis("panels=10:14:3").expect("parses"),
+            parse_axis("rib-system=three-hinged,fixed").expect("parses"),
+        ],
+        false,
+    )
+    .expect("sweeps");
+    assert_eq!(grid.rows.len(), 6);
+    assert_eq!(grid.rows[1].values, vec![10.0, 1.0 * 2.0]);
+    let fixed = apply(&apply(&demo, Parameter::Panels, 12.0), Parameter::RibSystem, 2.0);
+    assert_eq!(fixed.rib_system, RibSystem::Fixed);
+    assert_eq!(grid.rows[3].form_thrust, Some(analyze(&fixed).expect("analyses").summary.form_thrust));
+}
+
+/// Ranges that cannot be read are refused with the accepted forms.
+#[test]
+fn bad_ranges_are_refused() {
+    for bad in [
+        "rise",
+        "height=1:2:3",
+        "panels=8.5,9",
+        "rise-ratio=0.1:0.2:0",
+        "rib-system=arched",
+        "rise-ratio=a:b:3",
+    ] {
+        let e = parse_axis(bad).expect_err(bad).to_string();
+        assert!(!e.is_empty(), "{bad}");
+    }
+    let e = parse_axis("height=1:2:3").expect_err("unknown").to_string();
+    assert!(e.contains("rise-ratio") && e.contains("rib-system"), "{e}");
+    let two = [parse_axis("panels=8,10").expect("ok"), parse_axis("panels=12").expect("ok")];
+    assert!(sweep(&Design::demo(), &two, false).is_err());
+}
