@@ -457,4 +457,20 @@ fn sweep_prints_one_row_per_option() {
     let err = failed(&run(&["sweep", "-", "--vary", "height=1:2:3"], &demo_json()), 1);
     assert!(err.contains("rise-ratio"), "{err}");
     usage_error(&["sweep", "-"]);
+    // the chart: an SVG with its captions; a grid cannot be drawn (refused, exit 1)
+    let dir = empty_dir("sweep_chart");
+    let svg = dir.join("rise.svg");
+    let path = svg.to_string_lossy().to_string();
+    let out =
+        run(&["sweep", "-", "--vary", "rise-ratio=0.12:0.18:3", "--size", "--chart", &path], &demo_json());
+    assert_eq!(out.status.code(), Some(0), "{}", text(&out.stderr));
+    let drawn = std::fs::read_to_string(&svg).expect("the chart is written");
+    assert!(
+        drawn.starts_with("<svg") && drawn.contains("Thrust against the swept parameter"),
+        "{drawn:.200}"
+    );
+    assert!(drawn.contains("Steel of the sized option"));
+    let grid = ["sweep", "-", "--vary", "panels=10,12", "--vary", "ribs=1,2", "--chart", &path];
+    let err = failed(&run(&grid, &demo_json()), 1);
+    assert!(err.contains("one numeric parameter"), "{err}");
 }
