@@ -4,11 +4,8 @@
 use super::{print_json, print_line, read_design};
 use crate::failure::Failure;
 use springline_statics::arch::design_file::write_design_json;
-use springline_statics::arch::generate::ModelKind;
 use springline_statics::arch::massing::{massing_loop, MassingReport, DEFAULT_MASSING_PASSES};
-use springline_statics::arch::sizing::{adopt_sizes, size_design, GroupOutcome, SizeReport};
-use springline_statics::arch::traffic::traffic_envelopes;
-use springline_statics::{Design, StaticsError, ValidDesign};
+use springline_statics::arch::sizing::{adopt_sizes, size_of, GroupOutcome, SizeReport};
 use std::path::PathBuf;
 
 /// Size the member groups, weigh the design and size its thrust blocks.
@@ -66,7 +63,7 @@ pub fn run(args: Args) -> Result<(), Failure> {
             print_json(&settled)
         };
     }
-    let report = size(&design)?;
+    let report = size_of(&design)?;
     if args.adopted {
         print_line(write_design_json(&adopt_sizes(&design, &report.sizing)).trim_end())
     } else if args.text {
@@ -74,18 +71,6 @@ pub fn run(args: Args) -> Result<(), Failure> {
     } else {
         print_json(&report)
     }
-}
-
-/// The engine's size report of a design.
-pub fn size(design: &Design) -> Result<SizeReport, StaticsError> {
-    let valid = ValidDesign::new(design)?;
-    let traffic = traffic_envelopes(&valid, ModelKind::Frame)?.ok_or_else(|| {
-        StaticsError::Invalid(vec![springline_statics::Problem::new(
-            springline_statics::error::Location::Part("frame model".into()),
-            "the frame model has no traffic envelopes to size with",
-        )])
-    })?;
-    size_design(&valid, &traffic)
 }
 
 /// A few lines for people: each group's section and utilisation, the totals, and each

@@ -12,9 +12,7 @@
 
 use crate::arch::analysis::CAUTION;
 use crate::arch::design::Design;
-use crate::arch::generate::ModelKind;
-use crate::arch::sizing::{adopt_sizes, size_design, GroupOutcome, SizeReport};
-use crate::arch::traffic::traffic_envelopes;
+use crate::arch::sizing::{adopt_sizes, frame_traffic, size_design, GroupOutcome, SizeReport};
 use crate::arch::validate::ValidDesign;
 use crate::error::{Location, Problem, StaticsError};
 use serde::Serialize;
@@ -87,12 +85,7 @@ pub fn massing_loop(design: &Design, passes: usize) -> Result<MassingReport, Sta
     for pass in 1..=passes {
         let attempt = (|| {
             let valid = ValidDesign::new(&current)?;
-            let traffic = traffic_envelopes(&valid, ModelKind::Frame)?.ok_or_else(|| {
-                StaticsError::Invalid(vec![Problem::new(
-                    Location::Part("frame model".into()),
-                    "the frame model has no traffic envelopes to size with",
-                )])
-            })?;
+            let traffic = frame_traffic(&valid)?;
             let report = size_design(&valid, &traffic)?;
             Ok::<_, StaticsError>((valid.form().thrust, report))
         })();
@@ -112,15 +105,7 @@ pub fn massing_loop(design: &Design, passes: usize) -> Result<MassingReport, Sta
             Some(b) => now.iter().filter(|s| !b.contains(s)).cloned().collect(),
             None => now.clone(),
         };
-        let not_sized: Vec<String> = report
-            .sizing
-            .groups
-            .iter()
-            .filter_map(|g| match &g.outcome {
-                GroupOutcome::NotSized { reason } => Some(format!("{}: {reason}", g.group)),
-                _ => None,
-            })
-            .collect();
+        let not_sized = report.not_sized();
         history.push(MassingPass {
             pass,
             sections: now,

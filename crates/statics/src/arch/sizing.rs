@@ -903,6 +903,44 @@ pub struct SizeReport {
     pub caution: String,
 }
 
+impl SizeReport {
+    /// The groups that could not be sized, each as `group: reason`.
+    pub fn not_sized(&self) -> Vec<String> {
+        self.sizing
+            .groups
+            .iter()
+            .filter_map(|g| match &g.outcome {
+                GroupOutcome::NotSized { reason } => Some(format!("{}: {reason}", g.group)),
+                _ => None,
+            })
+            .collect()
+    }
+}
+
+/// The frame model's traffic report of `valid` (`arch::traffic::traffic_envelopes`),
+/// which sizing and sweeps need.
+///
+/// Errors: those of the envelopes, and `Invalid` when the frame model has none.
+pub fn frame_traffic(valid: &ValidDesign) -> Result<TrafficReport, StaticsError> {
+    crate::arch::traffic::traffic_envelopes(valid, crate::arch::generate::ModelKind::Frame)?.ok_or_else(
+        || {
+            StaticsError::Invalid(vec![Problem::new(
+                crate::error::Location::Part("frame model".into()),
+                "the frame model has no traffic envelopes to size with",
+            )])
+        },
+    )
+}
+
+/// Validates `design`, finds its frame traffic report and sizes it ([`size_design`]).
+///
+/// Errors: those of validation, [`frame_traffic`] and [`size_design`].
+pub fn size_of(design: &Design) -> Result<SizeReport, StaticsError> {
+    let valid = ValidDesign::new(design)?;
+    let traffic = frame_traffic(&valid)?;
+    size_design(&valid, &traffic)
+}
+
 /// Units of the size report.
 pub const SIZE_UNITS: &str = "m, m2, m3, m4, kN, kNm, kN/m2, t (tonnes), degrees; utilisation = demand / \
                               resistance (1 = fully used); cost index in the units of the design's rates";

@@ -18,10 +18,9 @@
 
 use crate::arch::analysis::{analyze_valid, CAUTION};
 use crate::arch::design::{Design, RibSystem};
-use crate::arch::generate::{frame_model, MemberRole, ModelKind};
+use crate::arch::generate::{frame_model, MemberRole};
 use crate::arch::influence::ArchLine;
-use crate::arch::sizing::{is_ultimate, size_design};
-use crate::arch::traffic::traffic_envelopes;
+use crate::arch::sizing::{frame_traffic, is_ultimate, size_design};
 use crate::arch::validate::ValidDesign;
 use crate::error::{Location, Problem, StaticsError};
 use serde::Serialize;
@@ -266,8 +265,7 @@ pub fn option_row(design: &Design, values: Vec<f64>, size: bool) -> SweepRow {
         let analysis = analyze_valid(&valid)?;
         row.rise_ratio = Some(analysis.summary.rise_over_span);
         row.form_thrust = Some(analysis.summary.form_thrust);
-        let traffic = traffic_envelopes(&valid, ModelKind::Frame)?
-            .ok_or_else(|| refuse("the frame model has no traffic envelopes".into()))?;
+        let traffic = frame_traffic(&valid)?;
         let ultimate: Vec<&str> =
             design.traffic.combinations.iter().filter(|c| is_ultimate(c)).map(|c| c.name.as_str()).collect();
         let uls = |l: &crate::arch::traffic::LineEnvelope| {
@@ -304,17 +302,7 @@ pub fn option_row(design: &Design, values: Vec<f64>, size: bool) -> SweepRow {
             row.steel = Some(report.quantities.steel);
             row.concrete = Some(report.quantities.concrete);
             row.cost_index = Some(report.quantities.cost_index);
-            let not_sized: Vec<String> = report
-                .sizing
-                .groups
-                .iter()
-                .filter_map(|g| match &g.outcome {
-                    crate::arch::sizing::GroupOutcome::NotSized { reason } => {
-                        Some(format!("{}: {reason}", g.group))
-                    }
-                    _ => None,
-                })
-                .collect();
+            let not_sized = report.not_sized();
             if !not_sized.is_empty() {
                 return Err(refuse(format!("a group cannot be sized: {}", not_sized.join("; "))));
             }
