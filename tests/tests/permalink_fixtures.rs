@@ -318,7 +318,16 @@ fn current_fixture_designs() -> Vec<FixtureDesign> {
         at("v2-traffic-vehicle", 3, vehicle),
         at("v2-actions", 4, actions),
         at("v2-sizing", 5, sizing_fixture()),
+        at("v2-as-built", 6, as_built_fixture()),
     ]
+}
+
+/// Design format 6 (link section 5): the demo with its form found as built.
+fn as_built_fixture() -> Design {
+    let mut d = Design::demo();
+    d.name = "Tarnvale Gorge, form found as built (invented fixture)".into();
+    d.form.basis = springline_statics::arch::form::Basis::AsBuilt;
+    d
 }
 
 /// Design format 5 (link section 4): a concrete rib, glulam bracing, posts as typed with
@@ -493,4 +502,19 @@ fn the_sizing_fixture_keeps_its_sizing() {
     assert_eq!(link, file);
     let older = permalink::decode(&read(&folder().join("v2-actions.link"))).expect("opens");
     assert_eq!(older.sizing, SizingDesign::as_typed(&older.groups));
+}
+
+/// The as-built fixture (design format 6, link section 5) reads back with its basis, from
+/// its link and its design file, and analyses on it; fixtures made before keep panel
+/// loads.
+#[test]
+fn the_as_built_fixture_keeps_its_basis() {
+    use springline_statics::arch::form::Basis;
+    let link = permalink::decode(&read(&folder().join("v2-as-built.link"))).expect("opens");
+    let file = read_design_file(&designs_folder().join("v6-as-built.json"));
+    assert_eq!(link, file);
+    assert_eq!(link.form.basis, Basis::AsBuilt);
+    assert_eq!(analyze(&link).expect("analyses").form.basis, Basis::AsBuilt);
+    let older = permalink::decode(&read(&folder().join("v2-sizing.link"))).expect("opens");
+    assert_eq!(older.form.basis, Basis::PanelLoads);
 }

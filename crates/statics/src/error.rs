@@ -404,12 +404,15 @@ impl fmt::Display for Problem {
 pub enum Iteration {
     /// Form finding: shape -> loads -> shape.
     FormFinding,
+    /// Form finding on the "as built" basis: shape -> frame analysis -> loads -> shape.
+    AsBuiltForm,
 }
 
 impl fmt::Display for Iteration {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
         f.write_str(match self {
             Iteration::FormFinding => "form finding",
+            Iteration::AsBuiltForm => "form finding on the as-built basis",
         })
     }
 }

@@ -9,7 +9,7 @@
 use crate::arch::actions::{action_results, ActionsReport, ERECTION};
 use crate::arch::cases::{add_cases, standard_cases, CaseKind, CaseSpec};
 use crate::arch::design::{Design, RibSystem, Warning};
-use crate::arch::form::Form;
+use crate::arch::form::{Basis, Form};
 use crate::arch::generate::{
     bare_rib_model, frame_model, restraint, truss_model, DeckHold, Generated, MemberRole, ModelKind,
     ModelMap, Restraint, DEAD,
@@ -53,9 +53,12 @@ pub enum ModelNote {
     DropIn,
     /// The load basis of the form.
     FormBasis {
-        /// Its name.
-        basis: &'static str,
+        /// Which.
+        basis: Basis,
     },
+    /// The truss idealisation is determinate, but the form was found as built: its
+    /// bracing carries what the frame's forces on the rib differ from its joint loads.
+    DeterminateAsBuilt,
     /// The truss idealisation leaves out the approach and drop-in spans.
     SpansLeftOut,
     /// The truss idealisation is determinate: no bracing force on the funicular.
@@ -76,7 +79,12 @@ impl fmt::Display for ModelNote {
                 "three-hinged: the halves meet only at the crown rib node; the drop-in deck span over the crown \
                  ties nothing and its reactions are loads on the neighbouring deck nodes",
             ),
-            ModelNote::FormBasis { basis } => write!(f, "form basis: {basis}"),
+            ModelNote::FormBasis { basis: Basis::PanelLoads } => f.write_str("form basis: panel loads"),
+            ModelNote::FormBasis { basis } => write!(f, "form basis: {basis} ({})", basis.describe()),
+            ModelNote::DeterminateAsBuilt => f.write_str(
+                "determinate; the form was found as built (for the frame's forces on the rib), not for these \
+                 joint loads, so the bracing carries the difference",
+            ),
             ModelNote::SpansLeftOut => {
                 f.write_str("approach spans and drop-in spans left out; their reactions are loads")
             }
@@ -421,11 +429,12 @@ pub fn analyze_reusing(
     if design.rib_system == RibSystem::ThreeHinged {
         frame_notes.push(ModelNote::DropIn);
     }
-    frame_notes.push(ModelNote::FormBasis { basis: form.basis_name() });
+    frame_notes.push(ModelNote::FormBasis { basis: form.basis });
     let residual = rib_moments(&frame.model, &frame.map, &frame_solution, form);
     let truss = truss.map(|(generated, determinacy, solution)| {
         let bracing_ratio = solution.as_ref().and_then(|s| bracing_ratio(&generated.map, s));
         let verdict = match determinacy.determinacy {
+            Determinacy::Determinate if form.basis == Basis::AsBuilt => ModelNote::DeterminateAsBuilt,
             Determinacy::Determinate => ModelNote::Determinate,
             Determinacy::Indeterminate { .. } => ModelNote::Indeterminate,
             Determinacy::Mechanism { .. } => ModelNote::Mechanism,

@@ -11,6 +11,7 @@
 //! area, and self-weights are `ribs` times unit weight times area.
 
 use crate::arch::actions::ActionsDesign;
+use crate::arch::form::Basis;
 use crate::arch::sizing::{DeckWeight, SizingDesign};
 use crate::error::{Field, GroupName, Problem, SectionProperty};
 use crate::tolerance::{GROUND_TOLERANCE, SECTION_BOUND_ROUNDING};
@@ -19,7 +20,7 @@ use crate::traffic::TrafficDesign;
 use serde::{Deserialize, Serialize};
 
 /// The version of the design format written by this engine.
-pub const DESIGN_VERSION: u32 = 5;
+pub const DESIGN_VERSION: u32 = 6;
 /// Fewest arch panels accepted (a rib needs at least one interior node).
 pub const MIN_PANELS: usize = 2;
 /// Most arch panels accepted (beyond this the panels are shorter than any real post
@@ -242,11 +243,14 @@ pub struct FormSettings {
     pub tolerance: f64,
     /// Give up after this many iterations.
     pub max_iterations: usize,
+    /// What the form is found for: the classical panel loads or the forces the rib
+    /// receives in the frame model ("as built"; design format 6).
+    pub basis: Basis,
 }
 
 impl Default for FormSettings {
     fn default() -> Self {
-        FormSettings { tolerance: 1e-10, max_iterations: 200 }
+        FormSettings { tolerance: 1e-10, max_iterations: 200, basis: Basis::PanelLoads }
     }
 }
 

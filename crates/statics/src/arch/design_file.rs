@@ -13,6 +13,7 @@
 //! | 3 | `traffic` added (carriageway, rib positions, load model, combinations); a version-2 design gets EN 1991-2 Load Model 1 over its whole deck width (`TrafficDesign::for_deck_width`) |
 //! | 4 | `actions` added (temperature, springing movement, deflection limit) and the combinations' `temperature`, `settlement`, `braking` factors; a version-3 design gets its load model family's presets (`ActionsDesign::preset`, `Combination::add_action_factors`, EN's gr2 added) |
 //! | 5 | `sizing` added (each group's family and material or as typed, the deck's cross-section, unit rates, foundation inputs); a version-4 design keeps every group as typed, checked as the material its E suggests (`SizingDesign::as_typed`), and counts its typed deck dead load |
+//! | 6 | `form.basis` added (`panel_loads` or `as_built`: what the form is found for); a version-5 design keeps `panel_loads` |
 //!
 //! # Reading ([`read_design_json`])
 //!
@@ -58,7 +59,7 @@ type Step = fn(&mut Map<String, Value>);
 
 /// The migration steps, oldest first: `STEPS[i]` takes version `OLDEST_DESIGN_VERSION + i`
 /// to the next.
-const STEPS: &[Step] = &[version_1_to_2, version_2_to_3, version_3_to_4, version_4_to_5];
+const STEPS: &[Step] = &[version_1_to_2, version_2_to_3, version_3_to_4, version_4_to_5, version_5_to_6];
 
 // One step per version: a new DESIGN_VERSION without its step stops the build here.
 const _: () = assert!(OLDEST_DESIGN_VERSION + STEPS.len() as u32 == DESIGN_VERSION);
@@ -101,6 +102,13 @@ fn version_4_to_5(design: &mut Map<String, Value>) {
     let Ok(groups) = serde_json::from_value::<MemberGroups>(groups) else { return };
     if let Ok(sizing) = serde_json::to_value(SizingDesign::as_typed(&groups)) {
         design.insert("sizing".into(), sizing);
+    }
+}
+
+/// Version 5 to 6: the form-finding basis, "panel loads" (the only one before).
+fn version_5_to_6(design: &mut Map<String, Value>) {
+    if let Some(Value::Object(form)) = design.get_mut("form") {
+        form.entry("basis").or_insert(Value::from("panel_loads"));
     }
 }
 
@@ -391,12 +399,33 @@ mod tests {
         assert!(message.contains("not a design of format 1") && message.contains("deck"), "{message}");
     }
 
-    /// The field a hypothetical version 6 adds, and its default (test only).
-    const FIELD_OF_VERSION_6: &str = "field_of_version_6";
-    const DEFAULT_OF_VERSION_6: f64 = 0.25;
+    /// The field a hypothetical version 7 adds, and its default (test only).
+    const FIELD_OF_VERSION_7: &str = "field_of_version_7";
+    const DEFAULT_OF_VERSION_7: f64 = 0.25;
 
-    fn version_5_to_6(design: &mut Map<String, Value>) {
-        design.entry(FIELD_OF_VERSION_6).or_insert(Value::from(DEFAULT_OF_VERSION_6));
+    fn version_6_to_7(design: &mut Map<String, Value>) {
+        design.entry(FIELD_OF_VERSION_7).or_insert(Value::from(DEFAULT_OF_VERSION_7));
+    }
+
+    /// The demo as a version-5 file: no form basis.
+    fn demo_v5_text() -> String {
+        let mut value = serde_json::to_value(Design::demo()).expect("serialises");
+        value["version"] = Value::from(5);
+        value["form"].as_object_mut().expect("form object").remove("basis");
+        serde_json::to_string_pretty(&value).expect("serialises")
+    }
+
+    /// A format-5 file opens with its form found for panel loads, the only basis then.
+    #[test]
+    fn version_5_files_find_their_form_for_panel_loads() {
+        let mut demo = Design::demo();
+        demo.form.basis = crate::arch::form::Basis::AsBuilt;
+        let d = read_design_json(&demo_v5_text()).expect("reads");
+        assert_eq!(d.form.basis, crate::arch::form::Basis::PanelLoads);
+        assert_eq!(d, Design::demo());
+        // and an as-built design keeps its basis through a file
+        let back = read_design_json(&write_design_json(&demo)).expect("reads");
+        assert_eq!(back, demo);
     }
 
     /// The demo as a version-4 file: no sizing.
@@ -420,19 +449,20 @@ mod tests {
     }
 
     /// How a later version adds a field without breaking older files: one more step.
-    /// Files of versions 1 to 5 reach version 6 through the whole chain with the
-    /// defaults of every step; a version-6 file keeps its value; and today's reader,
-    /// which knows no version 6, refuses such a file as made by a newer version.
+    /// Files of versions 1 to 6 reach version 7 through the whole chain with the
+    /// defaults of every step; a version-7 file keeps its value; and today's reader,
+    /// which knows no version 7, refuses such a file as made by a newer version.
     #[test]
     fn a_later_version_adds_a_field_by_one_more_step() {
-        assert_eq!(DESIGN_VERSION, 5, "model the version after today's here");
+        assert_eq!(DESIGN_VERSION, 6, "model the version after today's here");
         let steps: &[Step] =
-            &[version_1_to_2, version_2_to_3, version_3_to_4, version_4_to_5, version_5_to_6];
+            &[version_1_to_2, version_2_to_3, version_3_to_4, version_4_to_5, version_5_to_6, version_6_to_7];
         let v1 = demo_v1_text();
         let v2 = demo_v2_text();
         let v3 = demo_v3_text();
         let v4 = demo_v4_text();
-        let v5 = write_design_json(&Design::demo());
+        let v5 = demo_v5_text();
+        let v6 = write_design_json(&Design::demo());
         let demo_traffic = serde_json::to_value(Design::demo().traffic).expect("serialises");
         let default_traffic = serde_json::to_value(TrafficDesign::for_deck_width(11.0)).expect("serialises");
         for (text, declared, traffic) in [
@@ -441,26 +471,28 @@ mod tests {
             (&v3, 3, &demo_traffic),
             (&v4, 4, &demo_traffic),
             (&v5, 5, &demo_traffic),
+            (&v6, 6, &demo_traffic),
         ] {
             let (version, value) = updated_json(text, steps).expect("reads");
             assert_eq!(version, declared);
-            assert_eq!(value["version"], Value::from(6));
+            assert_eq!(value["version"], Value::from(7));
             assert_eq!(value["deck"]["abutment_height"], Value::from(DEFAULT_ABUTMENT_HEIGHT));
             assert_eq!(&value["traffic"], traffic, "version {declared}");
             assert!(value["actions"]["temperature"]["alpha"].is_number(), "version {declared}");
             assert!(value["sizing"]["rib"]["material"]["fy"].is_number(), "version {declared}");
-            assert_eq!(value[FIELD_OF_VERSION_6], Value::from(DEFAULT_OF_VERSION_6));
+            assert_eq!(value["form"]["basis"], Value::from("panel_loads"), "version {declared}");
+            assert_eq!(value[FIELD_OF_VERSION_7], Value::from(DEFAULT_OF_VERSION_7));
         }
-        let mut v6: Value = serde_json::from_str(&v5).expect("JSON");
-        v6["version"] = Value::from(6);
-        v6[FIELD_OF_VERSION_6] = Value::from(0.5);
-        let v6 = serde_json::to_string_pretty(&v6).expect("serialises");
-        let (_, value) = updated_json(&v6, steps).expect("reads");
-        assert_eq!(value[FIELD_OF_VERSION_6], Value::from(0.5));
+        let mut v7: Value = serde_json::from_str(&v6).expect("JSON");
+        v7["version"] = Value::from(7);
+        v7[FIELD_OF_VERSION_7] = Value::from(0.5);
+        let v7 = serde_json::to_string_pretty(&v7).expect("serialises");
+        let (_, value) = updated_json(&v7, steps).expect("reads");
+        assert_eq!(value[FIELD_OF_VERSION_7], Value::from(0.5));
         // today's reader
-        let message = read_design_json(&v6).map_err(|e| e.to_string()).expect_err("refused");
+        let message = read_design_json(&v7).map_err(|e| e.to_string()).expect_err("refused");
         assert!(
-            message.contains("made by a newer version of Springline (format 6; this one reads 1 to 5)"),
+            message.contains("made by a newer version of Springline (format 7; this one reads 1 to 6)"),
             "{message}"
         );
     }

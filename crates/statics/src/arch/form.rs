@@ -5,42 +5,76 @@
 //! gather the loads at the rib nodes for the current shape (`LoadBasis`); take the
 //! three-point funicular of those loads (`funicular::three_point`); repeat until the
 //! largest change of a rib node level is at most `tolerance` times the rise. The load
-//! gathering is a trait so that a later "as built" basis (the forces the rib receives in
-//! the frame model) can replace the classical "panel loads" basis without touching the
-//! loop.
+//! gathering is a trait: the classical "panel loads" basis (vertical loads) and the "as
+//! built" basis (`arch::as_built`: the forces the rib receives in the frame model, with
+//! their horizontal components, for which `funicular::three_point_inclined` generalises
+//! the construction) share the loop.
 //!
 //! Units m, kN (loads positive downward inside this module, as on a load line).
 
 use crate::arch::design::Design;
 use crate::arch::layout::{position, Joint, Layout, Topology};
 use crate::error::{Iteration, StaticsError};
-use crate::graphic::funicular::{three_point, Point, VerticalLoad};
+use crate::graphic::funicular::{three_point, three_point_inclined, NodeLoad, Point, VerticalLoad};
 use serde::{Deserialize, Serialize};
 
-/// Loads at the rib nodes for a given rib shape: the step of form finding that a later
-/// "as built" basis replaces.
+/// Loads at the rib nodes for a given rib shape: the step of form finding that differs
+/// between the bases.
 pub trait LoadBasis {
     /// Which basis this is, shown with every result.
     fn basis(&self) -> Basis;
-    /// Loads (kN, positive down) at every rib node (springings included: they go straight
-    /// into the supports) for rib levels `rib_y` and topology `topo`.
-    fn gather(&self, frame: &Layout, topo: &Topology, rib_y: &[f64]) -> Vec<f64>;
+    /// Loads at every rib node (springings included: they go straight into the supports)
+    /// for rib levels `rib_y` and topology `topo`: `x` the node's, `p` kN positive down,
+    /// `px` kN positive to the right.
+    ///
+    /// Errors: those of an analysis the basis makes to find its loads.
+    fn gather(&self, frame: &Layout, topo: &Topology, rib_y: &[f64]) -> Result<Vec<NodeLoad>, StaticsError>;
 }
 
 /// What the form was found for.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default, Serialize, Deserialize)]
 #[serde(rename_all = "snake_case")]
 pub enum Basis {
     /// Tributary deck panel loads plus lumped self-weight (the classical hand method).
+    #[default]
     PanelLoads,
+    /// The forces the rib receives in the frame model under the dead load, with their
+    /// horizontal components, all dead load acting on the completed structure.
+    AsBuilt,
 }
 
 impl Basis {
-    /// Short name for the screen ("panel loads").
+    /// Both bases, in the order a user is offered them.
+    pub const ALL: [Basis; 2] = [Basis::PanelLoads, Basis::AsBuilt];
+
+    /// Short name for the screen ("panel loads", "as built").
     pub fn name(self) -> &'static str {
         match self {
             Basis::PanelLoads => "panel loads",
+            Basis::AsBuilt => "as built",
         }
+    }
+
+    /// What the basis assumes, in a sentence for the screen and reports.
+    pub fn describe(self) -> &'static str {
+        match self {
+            Basis::PanelLoads => {
+                "the form carries the deck as simple-span panel reactions and the self-weight lumped at the \
+                 rib nodes (the classical hand method)"
+            }
+            Basis::AsBuilt => {
+                "the form carries the forces the rib receives in the frame model under the dead load, \
+                 horizontal components included; all dead load acts on the completed structure (no \
+                 erection sequence); the rib nodes that share the deck are those of the panel-load form"
+            }
+        }
+    }
+
+    /// The basis named by `text` ("panel-loads" or "as-built", as on the command line;
+    /// spaces and underscores accepted for the dash).
+    pub fn parse(text: &str) -> Option<Basis> {
+        let key = text.trim().to_ascii_lowercase().replace([' ', '_'], "-");
+        Basis::ALL.into_iter().find(|b| b.name().replace(' ', "-") == key)
     }
 }
 
@@ -130,12 +164,12 @@ impl LoadBasis for PanelLoads {
     fn basis(&self) -> Basis {
         Basis::PanelLoads
     }
-    fn gather(&self, f: &Layout, topo: &Topology, rib_y: &[f64]) -> Vec<f64> {
-        let mut p = vec![0.0; f.rib_x.len()];
+    fn gather(&self, f: &Layout, topo: &Topology, rib_y: &[f64]) -> Result<Vec<NodeLoad>, StaticsError> {
+        let mut p: Vec<NodeLoad> = f.rib_x.iter().map(|&x| NodeLoad { x, px: 0.0, p: 0.0 }).collect();
         for (j, w) in self.joint_loads(f, topo, rib_y) {
-            p[topo.rib_of(f, j)] += w;
+            p[topo.rib_of(f, j)].p += w;
         }
-        p
+        Ok(p)
     }
 }
 
@@ -148,6 +182,10 @@ pub struct RibNode {
     pub y: f64,
     /// Form-finding load at the node, kN, positive downward.
     pub load: f64,
+    /// Horizontal component of the form-finding load, kN, positive to the right (zero on
+    /// the "panel loads" basis).
+    #[serde(default)]
+    pub load_x: f64,
     /// Panel point above (`None` for the crown node of an odd panel count).
     pub panel: Option<usize>,
     /// Rib and deck share this node (the post would be shorter than the minimum).
@@ -159,7 +197,8 @@ pub struct RibNode {
 /// A support reaction on the arch, kN (x right, y up).
 #[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
 pub struct ArchReaction {
-    /// Horizontal component, kN (+H at the left springing, -H at the right).
+    /// Horizontal component, kN, to the right (+H at the left springing, -H at the
+    /// right), including horizontal loads delivered right on the springing.
     pub fx: f64,
     /// Vertical component, kN, up, including the loads delivered right on the springing
     /// (end post, approach span).
@@ -185,7 +224,9 @@ pub struct Form {
     pub rib: Vec<RibNode>,
     /// Index of the crown node in `rib`.
     pub crown_node: usize,
-    /// Horizontal thrust H, kN (the rib is in compression).
+    /// Horizontal thrust H, kN (the rib is in compression): the larger of the two
+    /// springings' horizontal reactions (they differ on the "as built" basis, where the
+    /// rib nodes receive horizontal forces; each is in its reaction).
     pub thrust: f64,
     /// Reaction at the left springing, kN.
     pub reaction_left: ArchReaction,
@@ -215,9 +256,10 @@ impl Form {
 }
 
 /// Finds the form of a frame geometry for a load basis (no design checks: `frame` must
-/// come from a checked design). Errors: `NoConvergence` when the change does not fall to
-/// `tolerance` times the rise within `max_iterations`; `Invalid` when the loads admit no
-/// compression funicular (e.g. no load at all).
+/// come from a checked design), starting from the parabola through the three points.
+/// Errors: `NoConvergence` when the change does not fall to `tolerance` times the rise
+/// within `max_iterations`; `Invalid` when the loads admit no compression funicular
+/// (e.g. no load at all); those of the basis's own analysis.
 pub fn find_form_for(
     frame: &Layout,
     basis: &dyn LoadBasis,
@@ -225,7 +267,77 @@ pub fn find_form_for(
     tolerance: f64,
     max_iterations: usize,
 ) -> Result<Form, StaticsError> {
-    let mut y: Vec<f64> = frame.rib_x.iter().map(|&x| frame.parabola(x)).collect();
+    let start: Vec<f64> = frame.rib_x.iter().map(|&x| frame.parabola(x)).collect();
+    let settings = Settings { min_post, tolerance, max_iterations, shared: None, accelerate: false };
+    iterate(frame, basis, start, &settings)
+}
+
+/// How [`iterate`] runs.
+pub(crate) struct Settings {
+    /// Shortest post, m (where a post would be shorter the rib node shares the deck).
+    pub(crate) min_post: f64,
+    /// Stop when no rib node moves more than this fraction of the rise.
+    pub(crate) tolerance: f64,
+    /// Give up after this many constructions.
+    pub(crate) max_iterations: usize,
+    /// The rib nodes that share the deck, fixed (`None`: from each shape and its post
+    /// lengths).
+    pub(crate) shared: Option<Vec<usize>>,
+    /// Take each next shape by Anderson acceleration of the loop (for a basis whose loads
+    /// follow the shape so closely that the plain loop creeps).
+    pub(crate) accelerate: bool,
+}
+
+/// How many past shapes Anderson acceleration remembers.
+const ANDERSON_MEMORY: usize = 24;
+
+/// Anderson acceleration of the fixed-point loop y -> G(y) (Walker & Ni, "Anderson
+/// acceleration for fixed-point iterations", SIAM J. Numer. Anal. 49(4), 2011, eq. 2.1 in
+/// the form of their Algorithm AA with the differences of residuals): with the residuals
+/// f_k = G(y_k) - y_k of the remembered shapes, the next shape is
+/// G(y_k) - dG gamma, where gamma minimises |f_k - dF gamma| (least squares, by singular
+/// values) and dF, dG hold the differences of successive residuals and images. For a map
+/// that is affine in the levels (the loads follow the shape linearly) it finds the fixed
+/// point in about as many steps as there are levels, where the plain loop creeps.
+fn anderson_step(shapes: &[Vec<f64>], images: &[Vec<f64>]) -> Vec<f64> {
+    let k = shapes.len() - 1;
+    let n = shapes[k].len();
+    let residual = |j: usize| -> Vec<f64> { images[j].iter().zip(&shapes[j]).map(|(g, y)| g - y).collect() };
+    if k == 0 {
+        return images[0].clone();
+    }
+    let f_k = residual(k);
+    let mut d_f = nalgebra::DMatrix::zeros(n, k);
+    let mut d_g = nalgebra::DMatrix::zeros(n, k);
+    for j in 0..k {
+        let (f0, f1) = (residual(j), residual(j + 1));
+        for i in 0..n {
+            d_f[(i, j)] = f1[i] - f0[i];
+            d_g[(i, j)] = images[j + 1][i] - images[j][i];
+        }
+    }
+    let scale = f_k.iter().fold(0.0f64, |m, v| m.max(v.abs())).max(f64::MIN_POSITIVE);
+    let gamma = d_f.svd(true, true).solve(&nalgebra::DVector::from_vec(f_k), scale * 1e-12);
+    match gamma {
+        Ok(gamma) => {
+            let step = d_g * gamma;
+            images[k].iter().zip(step.iter()).map(|(g, s)| g - s).collect()
+        }
+        Err(_) => images[k].clone(),
+    }
+}
+
+/// The form-finding loop from the rib levels `start`: gather the loads of the shape,
+/// construct the three-point funicular (vertical or, when a load has a horizontal
+/// component, inclined), repeat until no rib node moves more than the tolerance times the
+/// rise. Errors: as [`find_form_for`].
+pub(crate) fn iterate(
+    frame: &Layout,
+    basis: &dyn LoadBasis,
+    start: Vec<f64>,
+    settings: &Settings,
+) -> Result<Form, StaticsError> {
+    let mut y = start;
     let last = frame.last_rib();
     y[0] = frame.a.y;
     y[last] = frame.b.y;
@@ -238,23 +350,34 @@ pub fn find_form_for(
     // topology is frozen at the union of the sets seen since (the node shares the deck:
     // the post there would be about as short as the minimum either way).
     let mut seen: Vec<Vec<usize>> = Vec::new();
-    let mut frozen: Option<Vec<usize>> = None;
+    let mut frozen: Option<Vec<usize>> = settings.shared.clone();
+    // the shapes tried and their funiculars, for the accelerated loop
+    let (mut shapes, mut images): (Vec<Vec<f64>>, Vec<Vec<f64>>) = (Vec::new(), Vec::new());
+    let (what, hint) = match basis.basis() {
+        Basis::PanelLoads => (
+            Iteration::FormFinding,
+            "raise the tolerance or the iteration limit, or lighten the self-weight of rib and posts",
+        ),
+        Basis::AsBuilt => (
+            Iteration::AsBuiltForm,
+            "raise the tolerance or the iteration limit, or find the form for panel loads (the frame's \
+             forces on the rib keep changing with its shape)",
+        ),
+    };
     loop {
-        if iterations >= max_iterations {
+        if iterations >= settings.max_iterations {
             return Err(StaticsError::NoConvergence {
-                what: Iteration::FormFinding,
+                what,
                 iterations,
                 last_change: change,
-                hint:
-                    "raise the tolerance or the iteration limit, or lighten the self-weight of rib and posts"
-                        .into(),
+                hint: hint.into(),
             });
         }
         iterations += 1;
         let topo = match &frozen {
             Some(shared) => Topology::with_shared(frame, shared.clone()),
             None => {
-                let topo = Topology::new(frame, &y, min_post);
+                let topo = Topology::new(frame, &y, settings.min_post);
                 let back = seen.iter().rposition(|s| *s == topo.shared);
                 match back {
                     // the same set as the last shape: no flip
@@ -273,35 +396,59 @@ pub fn find_form_for(
                 }
             }
         };
-        let p = basis.gather(frame, &topo, &y);
-        let interior: Vec<VerticalLoad> =
-            (1..last).map(|r| VerticalLoad { x: frame.rib_x[r], p: p[r] }).collect();
-        let fun = three_point(a, b, frame.xc, frame.rise, &interior).map_err(|_| {
+        let p = basis.gather(frame, &topo, &y)?;
+        let no_funicular = |_| {
             StaticsError::invalid(
                 "loads",
                 "the rib between the springings carries no load that presses the crown down (for example three \
                  hinges with 2 panels and no self-weight send all deck load into the end posts); add panels or \
                  give the rib its weight",
             )
-        })?;
+        };
+        let interior = &p[1..last];
+        // (interior levels, H at A, H at B, V at A, V at B), the vertical construction
+        // exactly as by hand when no load has a horizontal component
+        let (levels, h_a, h_b, v_a, v_b) = if interior.iter().all(|q| q.px == 0.0) {
+            let vertical: Vec<VerticalLoad> =
+                interior.iter().map(|q| VerticalLoad { x: q.x, p: q.p }).collect();
+            let fun = three_point(a, b, frame.xc, frame.rise, &vertical).map_err(no_funicular)?;
+            (fun.y, fun.thrust, fun.thrust, fun.reaction_a, fun.reaction_b)
+        } else {
+            let fun = three_point_inclined(a, b, frame.xc, frame.rise, interior).map_err(no_funicular)?;
+            (fun.y, fun.thrust_a, fun.thrust_b, fun.reaction_a, fun.reaction_b)
+        };
         let mut new_y = y.clone();
-        for (k, yk) in fun.y.iter().enumerate() {
+        for (k, yk) in levels.iter().enumerate() {
             new_y[k + 1] = *yk;
         }
         // the crown node sits exactly on the crown point (identity up to round-off)
         new_y[frame.crown] = frame.chord(frame.xc) + frame.rise;
         change = y.iter().zip(&new_y).map(|(u, v)| (u - v).abs()).fold(0.0, f64::max);
-        y = new_y;
+        if settings.accelerate && change > settings.tolerance * frame.rise {
+            shapes.push(std::mem::take(&mut y));
+            images.push(new_y.clone());
+            if shapes.len() > ANDERSON_MEMORY {
+                shapes.remove(0);
+                images.remove(0);
+            }
+            let next = anderson_step(&shapes, &images);
+            // an accelerated step that leaves numbers behind falls back to the plain one
+            y = if next.iter().all(|v| v.is_finite()) { next } else { new_y };
+            if !change.is_finite() {
+                y = images.last().cloned().unwrap_or_default();
+            }
+        } else {
+            y = new_y;
+        }
         if !change.is_finite() {
             return Err(StaticsError::NoConvergence {
-                what: Iteration::FormFinding,
+                what,
                 iterations,
                 last_change: change,
                 hint: "the shape diverged; check loads and rise".into(),
             });
         }
-        if change <= tolerance * frame.rise {
-            let h = fun.thrust;
+        if change <= settings.tolerance * frame.rise {
             let shared = topo.shared.clone();
             let post_of =
                 |r: usize| topo.posts.iter().find(|&&(_, pr)| pr == r).map(|_| frame.deck_level - y[r]);
@@ -309,7 +456,8 @@ pub fn find_form_for(
                 .map(|r| RibNode {
                     x: frame.rib_x[r],
                     y: y[r],
-                    load: p[r],
+                    load: p[r].p,
+                    load_x: p[r].px,
                     panel: frame.rib_panel[r],
                     shared_with_deck: shared.contains(&r),
                     post_length: post_of(r),
@@ -324,12 +472,12 @@ pub fn find_form_for(
                 rise: frame.rise,
                 rib,
                 crown_node: frame.crown,
-                thrust: h,
-                reaction_left: ArchReaction { fx: h, fy: fun.reaction_a + p[0] },
-                reaction_right: ArchReaction { fx: -h, fy: fun.reaction_b + p[last] },
+                thrust: (h_a - p[0].px).max(h_b + p[last].px),
+                reaction_left: ArchReaction { fx: h_a - p[0].px, fy: v_a + p[0].p },
+                reaction_right: ArchReaction { fx: -h_b - p[last].px, fy: v_b + p[last].p },
                 iterations,
                 final_change: change,
-                tolerance,
+                tolerance: settings.tolerance,
             });
         }
     }

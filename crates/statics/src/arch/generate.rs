@@ -589,8 +589,8 @@ pub fn truss_model(valid: &ValidDesign) -> Option<Generated> {
 
 /// The bare rib (title [`RIB_TITLE`]): rib frame members between the rib nodes (hinged at
 /// the crown node when three-hinged), springings pinned (fixed for a fixed rib), and the
-/// form-finding loads at every rib node (those at the springings go straight into the
-/// supports).
+/// form-finding loads at every rib node, with their horizontal components on the "as
+/// built" basis (those at the springings go straight into the supports).
 pub fn bare_rib_model(valid: &ValidDesign) -> Generated {
     let mut b = Builder::new(valid, ModelKind::BareRib);
     add_rib(&mut b, valid);
@@ -598,6 +598,13 @@ pub fn bare_rib_model(valid: &ValidDesign) -> Generated {
     for (r, n) in valid.form().rib.iter().enumerate() {
         let node = b.joint(Joint::Rib(r));
         add_load(&mut lc, node, -n.load);
+        if n.load_x != 0.0 {
+            if let Some(l) = lc.nodal.iter_mut().find(|l| l.node == node) {
+                l.fx += n.load_x;
+            } else {
+                lc.nodal.push(NodalLoad { node, fx: n.load_x, fy: 0.0, mz: 0.0 });
+            }
+        }
     }
     b.model.load_cases.push(lc);
     b.finish(ModelKind::BareRib, None)

@@ -4,6 +4,7 @@
 
 pub mod actions;
 pub mod analysis;
+pub mod as_built;
 pub mod cases;
 pub mod design;
 pub mod design_file;

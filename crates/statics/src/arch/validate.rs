@@ -5,8 +5,9 @@
 //! analysis) takes a `ValidDesign` and cannot fail on validation.
 
 use crate::arch::actions::ActionsReport;
+use crate::arch::as_built::as_built_form;
 use crate::arch::design::{check_inputs, Design, RibSystem, Warning};
-use crate::arch::form::{find_form_for, Form, PanelLoads, RibNode};
+use crate::arch::form::{find_form_for, Basis, Form, PanelLoads, RibNode};
 use crate::arch::layout::{Layout, Topology};
 use crate::error::{counted, Field, Problem, StaticsError};
 use crate::tolerance::GROUND_TOLERANCE;
@@ -101,13 +102,25 @@ impl ValidDesign {
             )
             .involving([Field::SpringingLeftLevel, Field::SpringingRightLevel])])
         })?;
-        let form = find_form_for(
+        let panel_form = find_form_for(
             &layout,
             &PanelLoads::of(design),
             design.min_post_length,
             design.form.tolerance,
             design.form.max_iterations,
         )?;
+        let form = match design.form.basis {
+            Basis::PanelLoads => panel_form,
+            Basis::AsBuilt => {
+                // the panel-load form must clear ground and deck before its frame is analysed
+                check_clearances(design, &panel_form, &mut problems);
+                check_spandrel(design, &panel_form, &mut problems, &mut Vec::new());
+                if !problems.is_empty() {
+                    return Err(StaticsError::Invalid(problems));
+                }
+                as_built_form(design, &layout, &panel_form)?
+            }
+        };
         check_clearances(design, &form, &mut problems);
         check_spandrel(design, &form, &mut problems, &mut warnings);
         if !problems.is_empty() {
@@ -129,6 +142,21 @@ impl ValidDesign {
         Ok(valid)
     }
 
+    /// A design with a given form and topology, unchecked: the "as built" basis analyses
+    /// the frame of each trial shape of a design that passed every check on its
+    /// panel-load form.
+    pub(crate) fn from_parts(design: &Design, layout: Layout, form: Form, topology: Topology) -> ValidDesign {
+        ValidDesign {
+            design: design.clone(),
+            layout,
+            form,
+            topology,
+            warnings: Vec::new(),
+            lanes: Derived::default(),
+            actions: Derived::default(),
+        }
+    }
+
     /// The design as the user gave it.
     pub fn design(&self) -> &Design {
         &self.design
@@ -137,7 +165,7 @@ impl ValidDesign {
     pub fn layout(&self) -> &Layout {
         &self.layout
     }
-    /// The form found for the dead load ("panel loads" basis).
+    /// The form found for the dead load, on the design's basis (`design.form.basis`).
     pub fn form(&self) -> &Form {
         &self.form
     }

@@ -161,6 +161,177 @@ pub fn three_point(
     })
 }
 
+/// A point load with both components at a rib node: position x (m), horizontal component
+/// `px` (kN, positive to the right) and vertical component `p` (kN, positive downward).
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
+pub struct NodeLoad {
+    /// Horizontal position, m.
+    pub x: f64,
+    /// Horizontal component, kN, positive to the right.
+    pub px: f64,
+    /// Vertical component, kN, positive downward.
+    pub p: f64,
+}
+
+/// Result of the three-point funicular of loads with horizontal components.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct InclinedFunicular {
+    /// Horizontal thrust at A, kN: the force support A applies to the arch, to the right.
+    pub thrust_a: f64,
+    /// Horizontal thrust at B, kN: the force support B applies to the arch, to the left.
+    pub thrust_b: f64,
+    /// Vertical reaction at A on the arch, kN, up positive.
+    pub reaction_a: f64,
+    /// Vertical reaction at B on the arch, kN, up positive.
+    pub reaction_b: f64,
+    /// Level of the funicular under each load, m (in the order of the loads given).
+    pub y: Vec<f64>,
+}
+
+/// The funicular polygon through A, B and the crown point (`rise` above the chord at
+/// `crown_x`) for point loads with horizontal components.
+///
+/// Cut the polygon in the segment after the k-th load (loads left to right): the forces
+/// left of the cut are the reaction at A, (H_A, V_A), and the loads, so the segment runs
+/// along their resultant, with horizontal component H_k = H_A + (px_1 + ... + px_k) and
+/// vertical V_k = V_A - (p_1 + ... + p_k), slope V_k / H_k; no segment bends (the
+/// definition of a funicular; any statics text, e.g. Timoshenko & Young, Theory of
+/// Structures, on arches and cables, from memory). The thrust therefore changes by each
+/// horizontal load along the way and differs at the two springings. For a given H_A the
+/// polygon reaches B for one V_A (the slopes are linear in V_A); H_A is then found so that
+/// the polygon passes through the crown point, by bracketing and the Illinois variant of
+/// regula falsi. With no horizontal components the result is [`three_point`]'s.
+///
+/// Errors (never NaN): those of [`three_point`] for the geometry and the vertical
+/// components; no compression polygon through the three points (a segment would need a
+/// horizontal component of zero or less).
+pub fn three_point_inclined(
+    a: Point,
+    b: Point,
+    crown_x: f64,
+    rise: f64,
+    loads: &[NodeLoad],
+) -> Result<InclinedFunicular, StaticsError> {
+    let vertical: Vec<VerticalLoad> = loads.iter().map(|q| VerticalLoad { x: q.x, p: q.p }).collect();
+    if let Some(k) = loads.iter().position(|q| !q.px.is_finite()) {
+        return Err(invalid("loads", format!("load {} is not a finite number", k + 1)));
+    }
+    // the geometry checks and the first guess: the funicular of the vertical components
+    let guess = three_point(a, b, crown_x, rise, &vertical)?;
+    let l = b.x - a.x;
+    let mut order: Vec<usize> = (0..loads.len()).collect();
+    order.sort_by(|&i, &j| loads[i].x.total_cmp(&loads[j].x));
+    let sorted: Vec<NodeLoad> = order.iter().map(|&i| loads[i]).collect();
+    // x at the start of each segment (A, then each load) and its length
+    let xs: Vec<f64> = std::iter::once(a.x).chain(sorted.iter().map(|q| q.x)).collect();
+    let dx: Vec<f64> = (0..xs.len()).map(|k| xs.get(k + 1).copied().unwrap_or(b.x) - xs[k]).collect();
+    let mut sum_px = vec![0.0; xs.len()];
+    let mut sum_p = vec![0.0; xs.len()];
+    for (k, q) in sorted.iter().enumerate() {
+        sum_px[k + 1] = sum_px[k] + q.px;
+        sum_p[k + 1] = sum_p[k] + q.p;
+    }
+    let crown_y = a.y + (b.y - a.y) * (crown_x - a.x) / l + rise;
+    // V_A and the node levels for a thrust h at A
+    let polygon = |h: f64| -> (f64, Vec<f64>) {
+        let flex: f64 = dx.iter().zip(&sum_px).map(|(d, s)| d / (h + s)).sum();
+        let bent: f64 = dx.iter().zip(&sum_px).zip(&sum_p).map(|((d, s), p)| p * d / (h + s)).sum();
+        let v_a = (b.y - a.y + bent) / flex;
+        let mut y = vec![a.y; xs.len() + 1];
+        for k in 0..xs.len() {
+            y[k + 1] = y[k] + (v_a - sum_p[k]) / (h + sum_px[k]) * dx[k];
+        }
+        (v_a, y)
+    };
+    let miss = |h: f64| -> f64 {
+        let (_, y) = polygon(h);
+        // the segment holding the crown
+        let k = xs.iter().rposition(|&x| x <= crown_x).unwrap_or(0);
+        let t = if dx[k] > 0.0 { (crown_x - xs[k]) / dx[k] } else { 0.0 };
+        y[k] + t * (y[k + 1] - y[k]) - crown_y
+    };
+    // every segment needs h + sum_px > 0; the crown drops towards the chord as h grows
+    let floor = sum_px.iter().map(|s| -s).fold(0.0, f64::max);
+    let scale = guess.thrust.max(floor).max(f64::MIN_POSITIVE);
+    let none = || {
+        invalid(
+            "loads",
+            "the loads with their horizontal components admit no compression funicular through the springings \
+             and the crown point"
+                .into(),
+        )
+    };
+    let mut hi = floor + scale;
+    let mut g_hi = miss(hi);
+    let mut doublings = 0;
+    while g_hi > 0.0 {
+        doublings += 1;
+        if doublings > 200 || !g_hi.is_finite() {
+            return Err(none());
+        }
+        hi = floor + (hi - floor) * 2.0;
+        g_hi = miss(hi);
+    }
+    let mut lo = floor + (hi - floor) * 1e-9;
+    let mut g_lo = miss(lo);
+    while g_lo < 0.0 {
+        // closer to the floor, where the polygon rises without bound
+        if lo - floor <= scale * 1e-15 || !g_lo.is_finite() {
+            return Err(none());
+        }
+        (hi, g_hi) = (lo, g_lo);
+        lo = floor + (lo - floor) * 1e-3;
+        g_lo = miss(lo);
+    }
+    // Illinois regula falsi on [lo, hi] (g_lo >= 0 >= g_hi)
+    let mut h = hi;
+    let mut side = 0;
+    for _ in 0..200 {
+        if g_lo == 0.0 {
+            h = lo;
+            break;
+        }
+        if g_hi == 0.0 || hi - lo <= hi * 4.0 * f64::EPSILON {
+            h = hi;
+            break;
+        }
+        h = (lo * g_hi - hi * g_lo) / (g_hi - g_lo);
+        if !(h > lo && h < hi) {
+            h = 0.5 * (lo + hi);
+        }
+        let g = miss(h);
+        if g > 0.0 {
+            (lo, g_lo) = (h, g);
+            if side == -1 {
+                g_hi *= 0.5;
+            }
+            side = -1;
+        } else {
+            (hi, g_hi) = (h, g);
+            if side == 1 {
+                g_lo *= 0.5;
+            }
+            side = 1;
+        }
+    }
+    let (v_a, y_sorted) = polygon(h);
+    if !(h.is_finite() && v_a.is_finite()) {
+        return Err(none());
+    }
+    let mut y = vec![0.0; loads.len()];
+    for (k, &i) in order.iter().enumerate() {
+        y[i] = y_sorted[k + 1];
+    }
+    let last = xs.len() - 1;
+    Ok(InclinedFunicular {
+        thrust_a: h,
+        thrust_b: h + sum_px[last],
+        reaction_a: v_a,
+        reaction_b: sum_p[last] - v_a,
+        y,
+    })
+}
+
 /// The graphic construction for a given pole.
 ///
 /// Force-diagram coordinates (kN): the load line is vertical at force-x 0, starting at
@@ -204,39 +375,83 @@ pub fn pole_construction(
     start: Point,
     end_x: f64,
 ) -> Result<PoleConstruction, StaticsError> {
+    let loads: Vec<NodeLoad> = loads.iter().map(|q| NodeLoad { x: q.x, px: 0.0, p: q.p }).collect();
+    pole_construction_inclined(&loads, h, v_a, start, end_x)
+}
+
+/// [`pole_construction`] for loads with horizontal components: the load line is then a
+/// polygon, point k at (px_1 + ... + px_k, -(P_1 + ... + P_k)), and segment k of the
+/// funicular, parallel to ray k, has slope (V_A - P_1 - ... - P_k) / (H + px_1 + ... +
+/// px_k) (the thrust changes by each horizontal load). H is the pole's horizontal distance
+/// from the load line's first point. Errors: as [`pole_construction`], and a segment whose
+/// horizontal component is not positive (that ray points back past the pole).
+pub fn pole_construction_inclined(
+    loads: &[NodeLoad],
+    h: f64,
+    v_a: f64,
+    start: Point,
+    end_x: f64,
+) -> Result<PoleConstruction, StaticsError> {
     let end = Point { x: end_x, y: start.y };
     let l = check_span(start, end)?;
-    check_loads(start, l, loads)?;
+    let vertical: Vec<VerticalLoad> = loads.iter().map(|q| VerticalLoad { x: q.x, p: q.p }).collect();
+    check_loads(start, l, &vertical)?;
+    if let Some(k) = loads.iter().position(|q| !q.px.is_finite()) {
+        return Err(invalid("loads", format!("load {} is not a finite number", k + 1)));
+    }
     if !(h.is_finite() && h > 0.0) {
         return Err(invalid("pole", format!("pole distance H = {h} kN must be positive and finite")));
     }
     if !v_a.is_finite() {
         return Err(invalid("pole", "pole height must be finite".into()));
     }
-    let mut sorted: Vec<VerticalLoad> = loads.to_vec();
+    let mut sorted: Vec<NodeLoad> = loads.to_vec();
     sorted.sort_by(|p, q| p.x.total_cmp(&q.x));
     let mut load_line = vec![Point { x: 0.0, y: 0.0 }];
-    let mut acc = 0.0;
+    let (mut across, mut acc) = (0.0, 0.0);
     for q in &sorted {
+        across += q.px;
         acc -= q.p;
-        load_line.push(Point { x: 0.0, y: acc });
+        load_line.push(Point { x: across, y: acc });
     }
     let pole = Point { x: -h, y: -v_a };
     let rays = load_line.iter().map(|&p| (pole, p)).collect();
     let mut polygon = vec![start];
-    let (mut x, mut y, mut shear) = (start.x, start.y, v_a);
+    let (mut x, mut y, mut shear, mut thrust) = (start.x, start.y, v_a, h);
     for q in &sorted {
-        y += shear / h * (q.x - x);
+        y += shear / thrust * (q.x - x);
         x = q.x;
         polygon.push(Point { x, y });
         shear -= q.p;
+        thrust += q.px;
+        if thrust <= 0.0 {
+            return Err(invalid(
+                "loads",
+                format!(
+                    "after the load at x = {} m the thrust is {thrust:.3e} kN; a pole needs it positive",
+                    q.x
+                ),
+            ));
+        }
     }
-    y += shear / h * (end_x - x);
+    y += shear / thrust * (end_x - x);
     polygon.push(Point { x: end_x, y });
     // the ray parallel to the closing string: slope s = (y_end - y_start) / L from the
-    // pole meets the load line at -v_a + s * h
+    // pole meets the load line at -v_a + s * h (a vertical load line), else where it
+    // crosses the load polygon
     let slope = (y - start.y) / l;
-    let closing_split = -v_a + slope * h;
+    let closing_split = if sorted.iter().all(|q| q.px == 0.0) {
+        -v_a + slope * h
+    } else {
+        let off = |p: &Point| (p.y - pole.y) - slope * (p.x - pole.x);
+        load_line
+            .windows(2)
+            .find_map(|w| {
+                let (d0, d1) = (off(&w[0]), off(&w[1]));
+                (d0 * d1 <= 0.0 && d0 != d1).then(|| w[0].y + (w[1].y - w[0].y) * d0 / (d0 - d1))
+            })
+            .unwrap_or(-v_a + slope * h)
+    };
     Ok(PoleConstruction { load_line, pole, rays, polygon, horizontal_split: -v_a, closing_split })
 }
 
@@ -281,6 +496,11 @@ pub struct RibFunicular {
     pub crown: Option<Point>,
     /// The vertical loads, left to right (x m, p kN positive down): the load line.
     pub loads: Vec<VerticalLoad>,
+    /// The loads' horizontal components, kN to the right, in the order of `loads`; empty
+    /// when every load is vertical (the "panel loads" form; the "as built" form puts
+    /// horizontal forces on the rib nodes).
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    pub horizontal: Vec<f64>,
     /// Load line, pole, rays and funicular polygon (force-diagram coordinates as
     /// `PoleConstruction` says: load line down from 0, pole at (-H, -V_A)).
     pub construction: PoleConstruction,
@@ -301,6 +521,24 @@ pub struct RibFunicular {
 /// loads, couples or loads along members (the pole construction here is for vertical
 /// point loads).
 pub fn vertical_loads(model: &Model, case_name: &str) -> Result<Vec<VerticalLoad>, StaticsError> {
+    let loads = node_loads(model, case_name)?;
+    if let Some(q) = loads.iter().find(|q| q.px != 0.0) {
+        return Err(invalid(
+            "load case",
+            format!(
+                "'{case_name}' has a horizontal load at x = {} m; the pole construction needs vertical loads",
+                q.x
+            ),
+        ));
+    }
+    Ok(loads.into_iter().map(|q| VerticalLoad { x: q.x, p: q.p }).collect())
+}
+
+/// The point loads at nodes of load case `case_name` of `model`, both components (x of
+/// their nodes; `p` kN positive down, `px` kN to the right), left to right. Errors: the
+/// case does not exist, or it has couples or loads along members, temperatures or
+/// prescribed displacements.
+pub fn node_loads(model: &Model, case_name: &str) -> Result<Vec<NodeLoad>, StaticsError> {
     let lc = model
         .load_cases
         .iter()
@@ -309,7 +547,7 @@ pub fn vertical_loads(model: &Model, case_name: &str) -> Result<Vec<VerticalLoad
     if !lc.member.is_empty() || !lc.temperature.is_empty() || !lc.prescribed.is_empty() {
         return Err(invalid(
             "load case",
-            format!("'{case_name}' has member, temperature or displacement loads; the pole construction needs vertical loads at nodes"),
+            format!("'{case_name}' has member, temperature or displacement loads; the pole construction needs point loads at nodes"),
         ));
     }
     let mut loads = Vec::with_capacity(lc.nodal.len());
@@ -317,14 +555,17 @@ pub fn vertical_loads(model: &Model, case_name: &str) -> Result<Vec<VerticalLoad
         let n = model.nodes.get(l.node).ok_or_else(|| {
             invalid("load case", format!("a load acts on node {} which does not exist", l.node))
         })?;
-        if l.fx != 0.0 || l.mz != 0.0 {
+        if l.mz != 0.0 {
             return Err(invalid(
                 "load case",
-                format!("'{case_name}' has a horizontal load or a couple at node {}; the pole construction needs vertical loads", model.node_label(l.node)),
+                format!(
+                    "'{case_name}' has a couple at node {}; the pole construction needs forces",
+                    model.node_label(l.node)
+                ),
             ));
         }
-        if l.fy != 0.0 {
-            loads.push(VerticalLoad { x: n.x, p: -l.fy });
+        if l.fy != 0.0 || l.fx != 0.0 {
+            loads.push(NodeLoad { x: n.x, px: l.fx, p: -l.fy });
         }
     }
     loads.sort_by(|p, q| p.x.total_cmp(&q.x));
@@ -366,8 +607,10 @@ pub fn rib_funicular(
     };
     let (a, b) = (node(left)?, node(right)?);
     let l = check_span(a, b)?;
-    let loads = vertical_loads(model, &case.name)?;
+    let all = node_loads(model, &case.name)?;
+    let loads: Vec<VerticalLoad> = all.iter().map(|q| VerticalLoad { x: q.x, p: q.p }).collect();
     check_loads(a, l, &loads)?;
+    let inclined = all.iter().any(|q| q.px != 0.0);
     let solver = match (case.reaction(left), case.reaction(right)) {
         (Some(ra), Some(rb)) => Some(SolvedReactions { h: ra.fx, v_a: ra.fy, v_b: rb.fy }),
         _ => None,
@@ -377,8 +620,14 @@ pub fn rib_funicular(
         Some(c) => {
             let cp = node(c)?;
             let rise = cp.y - (a.y + (b.y - a.y) * (cp.x - a.x) / l);
-            let tp = three_point(a, b, cp.x, rise, &loads)?;
-            (FunicularMethod::ThreePoint, Some(cp), tp.thrust, tp.reaction_a, a)
+            let (h, v_a) = if inclined {
+                let tp = three_point_inclined(a, b, cp.x, rise, &all)?;
+                (tp.thrust_a, tp.reaction_a)
+            } else {
+                let tp = three_point(a, b, cp.x, rise, &loads)?;
+                (tp.thrust, tp.reaction_a)
+            };
+            (FunicularMethod::ThreePoint, Some(cp), h, v_a, a)
         }
         None => {
             let r = case.reaction(left).ok_or_else(|| {
@@ -394,7 +643,7 @@ pub fn rib_funicular(
             (FunicularMethod::SolvedReactions, None, r.fx, r.fy, start)
         }
     };
-    let construction = pole_construction(&loads, h, v_a, start, b.x)?;
+    let construction = pole_construction_inclined(&all, h, v_a, start, b.x)?;
     let r_a = -construction.closing_split;
     Ok(RibFunicular {
         case: case.name.clone(),
@@ -404,6 +653,7 @@ pub fn rib_funicular(
         springing_right: b,
         crown: crown_point,
         loads,
+        horizontal: if inclined { all.iter().map(|q| q.px).collect() } else { Vec::new() },
         thrust: h,
         vertical_reactions: (v_a, total - v_a),
         beam_reactions: (r_a, total - r_a),
@@ -447,6 +697,77 @@ mod tests {
         assert!((r.thrust - 20.0 * 1600.0 / 80.0).abs() < 1e-9);
         // V_A - V_B = 2 H (yB - yA) / L with equal simple-beam reactions
         assert!((r.reaction_a - r.reaction_b - 2.0 * r.thrust * 6.0 / 40.0).abs() < 1e-9);
+    }
+
+    /// With no horizontal components the inclined construction is the vertical one.
+    #[test]
+    fn inclined_funicular_of_vertical_loads_is_the_three_point_one() {
+        let (a, b) = (pt(0.0, 0.0), pt(40.0, 6.0));
+        let xs = [5.0, 12.0, 20.0, 27.0, 33.0];
+        let ps = [80.0, 120.0, 95.0, 140.0, 60.0];
+        let vertical: Vec<_> = xs.iter().zip(&ps).map(|(&x, &p)| VerticalLoad { x, p }).collect();
+        // given out of order: the result follows the order given
+        let inclined: Vec<_> = xs.iter().zip(&ps).rev().map(|(&x, &p)| NodeLoad { x, px: 0.0, p }).collect();
+        let r = three_point(a, b, 20.0, 9.0, &vertical).expect("valid");
+        let q = three_point_inclined(a, b, 20.0, 9.0, &inclined).expect("valid");
+        assert!((q.thrust_a - r.thrust).abs() < 1e-12 * r.thrust && q.thrust_a == q.thrust_b);
+        assert!((q.reaction_a - r.reaction_a).abs() < 1e-9 && (q.reaction_b - r.reaction_b).abs() < 1e-9);
+        for (k, y) in r.y.iter().enumerate() {
+            assert!((q.y[xs.len() - 1 - k] - y).abs() < 1e-10, "{k}");
+        }
+    }
+
+    /// One inclined load at the crown of a three-hinged arch: both halves are straight
+    /// struts to the crown, so each reaction lies along its half (statics of the
+    /// three-hinged arch, any statics text): H_A = P L / (4 f) - Px / 2 and
+    /// H_B = P L / (4 f) + Px / 2 for springings at one level; V_A = H_A 2 f / L.
+    #[test]
+    fn inclined_load_at_the_crown_splits_the_thrust() {
+        let (l, f, p, px) = (30.0, 6.0, 500.0, 40.0);
+        let (a, b) = (pt(0.0, 10.0), pt(l, 10.0));
+        // a weightless node on each half keeps the halves straight
+        let loads = [
+            NodeLoad { x: 7.5, px: 0.0, p: 0.0 },
+            NodeLoad { x: 15.0, px, p },
+            NodeLoad { x: 22.0, px: 0.0, p: 0.0 },
+        ];
+        let r = three_point_inclined(a, b, 15.0, f, &loads).expect("valid");
+        let (ha, hb) = (p * l / (4.0 * f) - px / 2.0, p * l / (4.0 * f) + px / 2.0);
+        assert!((r.thrust_a - ha).abs() < 1e-9 * ha, "{} vs {ha}", r.thrust_a);
+        assert!((r.thrust_b - hb).abs() < 1e-9 * hb, "{} vs {hb}", r.thrust_b);
+        assert!((r.reaction_a - ha * 2.0 * f / l).abs() < 1e-9 * p);
+        assert!((r.reaction_a + r.reaction_b - p).abs() < 1e-9 * p);
+        assert!((r.y[0] - (10.0 + f / 2.0)).abs() < 1e-9 && (r.y[1] - (10.0 + f)).abs() < 1e-12);
+    }
+
+    /// Any loads: no moment at any node of the polygon, taken by statics from the forces
+    /// on one side (the reaction at A and the loads left of the node), and overall
+    /// equilibrium with the reaction at B.
+    #[test]
+    fn inclined_funicular_has_no_moment_at_its_nodes() {
+        let (a, b) = (pt(0.0, 0.0), pt(50.0, -4.0));
+        let loads: Vec<NodeLoad> = (1..10)
+            .map(|k| {
+                let x = 5.0 * k as f64;
+                NodeLoad { x, px: 30.0 * (0.7 * x).sin(), p: 100.0 + 20.0 * (0.3 * x).cos() }
+            })
+            .collect();
+        let r = three_point_inclined(a, b, 25.0, 8.0, &loads).expect("valid");
+        for k in 0..loads.len() {
+            let at = pt(loads[k].x, r.y[k]);
+            // anticlockwise moment about the node of the forces left of it
+            let mut m = -(a.y - at.y) * r.thrust_a + (a.x - at.x) * r.reaction_a;
+            for (q, y) in loads[..k].iter().zip(&r.y) {
+                m += -(y - at.y) * q.px - (q.x - at.x) * q.p;
+            }
+            assert!(m.abs() < 1e-8 * r.thrust_a * 8.0, "node {k}: {m}");
+        }
+        let total_px: f64 = loads.iter().map(|q| q.px).sum();
+        assert!((r.thrust_b - r.thrust_a - total_px).abs() < 1e-9 * r.thrust_a);
+        let total_p: f64 = loads.iter().map(|q| q.p).sum();
+        assert!((r.reaction_a + r.reaction_b - total_p).abs() < 1e-9 * total_p);
+        // the crown point and B are on the polygon
+        assert!((r.y[4] - (-2.0 + 8.0)).abs() < 1e-9);
     }
 
     /// The error `invalid(location, message)` gives, to match a refusal exactly.
@@ -540,14 +861,11 @@ mod tests {
         // also holds, with the same thrust (statics alone)
         let solved = rib_funicular(&m, &s.cases[0], 0, 2, None).expect("pole from reactions");
         assert!((solved.thrust - 10.0 * 10.0 / 16.0).abs() < 1e-9);
-        m.load_cases[0].nodal[0].fx = 1.0;
+        m.load_cases[0].nodal[0].mz = 1.0;
         let s = crate::frame::solver::solve(&m).expect("stable");
         assert_eq!(
             rib_funicular(&m, &s.cases[0], 0, 2, Some(1)),
-            refused(
-                "load case",
-                "'p' has a horizontal load or a couple at node #1; the pole construction needs vertical loads"
-            )
+            refused("load case", "'p' has a couple at node #1; the pole construction needs forces")
         );
     }
 

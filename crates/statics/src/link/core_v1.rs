@@ -11,6 +11,7 @@ use crate::arch::design::{
     Bracing, Crown, Deck, Design, FormSettings, GroundPoint, MemberGroups, RibSystem, Section,
     DEFAULT_ABUTMENT_HEIGHT,
 };
+use crate::arch::form::Basis;
 use crate::arch::sizing::SizingDesign;
 use crate::error::LinkError;
 use crate::traffic::models::ModelFamily;
@@ -130,7 +131,8 @@ pub(super) fn from_design(d: &Design) -> Wire {
     let Deck { level, left_seat_x, right_seat_x, width, ribs, dead_load, surfacing, abutment_height: _ } =
         *deck;
     let MemberGroups { rib, deck: deck_group, posts, piers, bracing: bracing_group } = groups;
-    let FormSettings { tolerance, max_iterations } = *form;
+    // the form basis travels in the form basis section (design format 6)
+    let FormSettings { tolerance, max_iterations, basis: _ } = *form;
     Wire {
         design_version: *version,
         name: name.clone(),
@@ -214,6 +216,7 @@ pub(super) fn into_design(w: Wire) -> Result<Design, LinkError> {
         form: FormSettings {
             tolerance: w.form_tolerance,
             max_iterations: narrow(w.form_max_iterations, "form-finding iteration limit")?,
+            basis: Basis::PanelLoads,
         },
         traffic: TrafficDesign::for_deck_width(w.deck.width),
         actions: ActionsDesign::preset(ModelFamily::EnLm1),

@@ -398,7 +398,9 @@ mod tests {
     use super::*;
     use crate::arch::design::{Bracing, Crown, GroundPoint, RibSystem, DEFAULT_ABUTMENT_HEIGHT};
     use crate::arch::sizing::SizingDesign;
-    use crate::link::sections::{TAG_ABUTMENT, TAG_ACTIONS, TAG_RESERVED_FOR_TESTS, TAG_SIZING, TAG_TRAFFIC};
+    use crate::link::sections::{
+        TAG_ABUTMENT, TAG_ACTIONS, TAG_FORM_BASIS, TAG_RESERVED_FOR_TESTS, TAG_SIZING, TAG_TRAFFIC,
+    };
     use crate::traffic::models::{LoadModel, ModelFamily};
     use crate::traffic::TrafficDesign;
     use proptest::prelude::*;
@@ -738,7 +740,7 @@ mod tests {
 
     /// The sections the later version knows: every shipped one, then its new one.
     fn later_kinds() -> Vec<SectionKind<Later>> {
-        assert_eq!(SECTIONS.len(), 4, "list every shipped section here");
+        assert_eq!(SECTIONS.len(), 5, "list every shipped section here");
         vec![
             SectionKind {
                 tag: TAG_ABUTMENT,
@@ -759,6 +761,11 @@ mod tests {
                 tag: TAG_SIZING,
                 write: shipped_write::<TAG_SIZING>,
                 read: shipped_read::<TAG_SIZING>,
+            },
+            SectionKind {
+                tag: TAG_FORM_BASIS,
+                write: shipped_write::<TAG_FORM_BASIS>,
+                read: shipped_read::<TAG_FORM_BASIS>,
             },
             SectionKind { tag: TAG_RESERVED_FOR_TESTS, write: later_write, read: later_read },
         ]

@@ -7,6 +7,7 @@
 //! | 2 | 3 | the traffic: carriageway, rib positions, load model, combinations |
 //! | 3 | 4 | the other actions (temperature, springing movement, deflection limit) and the combinations' factors of them |
 //! | 4 | 5 | the sizing: each group's family, material and buckling length factor, the rib's out-of-plane length, the deck's cross-section, unit rates, foundation inputs |
+//! | 5 | 6 | the form-finding basis (panel loads or as built) |
 //!
 //! A section on the wire is its tag (a varint) and its body: the postcard bytes of the
 //! section's struct, length-prefixed. Each section struct is FROZEN once shipped, like the
@@ -67,6 +68,8 @@ pub(super) const TAG_TRAFFIC: u32 = 2;
 pub(super) const TAG_ACTIONS: u32 = 3;
 /// The sizing (design format 5).
 pub(super) const TAG_SIZING: u32 = 4;
+/// The form-finding basis (design format 6).
+pub(super) const TAG_FORM_BASIS: u32 = 5;
 /// A tag no shipped section has: the tests use it for a section of a "later version".
 #[cfg(test)]
 pub(super) const TAG_RESERVED_FOR_TESTS: u32 = 9_999;
@@ -77,6 +80,7 @@ pub(super) const SECTIONS: &[SectionKind<Design>] = &[
     SectionKind { tag: TAG_TRAFFIC, write: traffic::write, read: traffic::read },
     SectionKind { tag: TAG_ACTIONS, write: actions::write, read: actions::read },
     SectionKind { tag: TAG_SIZING, write: sizing::write, read: sizing::read },
+    SectionKind { tag: TAG_FORM_BASIS, write: form_basis::write, read: form_basis::read },
 ];
 
 /// The sections of a target, one per kind, in the order of `kinds` (tags ascending).
@@ -142,6 +146,34 @@ mod abutment {
     pub(super) fn read(bytes: &[u8], d: &mut Design) -> Result<(), LinkError> {
         let Abutment { height } = frozen(TAG_ABUTMENT, bytes)?;
         d.deck.abutment_height = height;
+        Ok(())
+    }
+}
+
+/// Section 5 (design format 6): the form-finding basis.
+mod form_basis {
+    use super::*;
+    use crate::arch::form::Basis;
+
+    /// FROZEN: links hold this layout (a postcard enum travels as its variant index).
+    #[derive(Serialize, Deserialize)]
+    enum FormBasisV1 {
+        PanelLoads,
+        AsBuilt,
+    }
+
+    pub(super) fn write(d: &Design) -> Vec<u8> {
+        body(&match d.form.basis {
+            Basis::PanelLoads => FormBasisV1::PanelLoads,
+            Basis::AsBuilt => FormBasisV1::AsBuilt,
+        })
+    }
+
+    pub(super) fn read(bytes: &[u8], d: &mut Design) -> Result<(), LinkError> {
+        d.form.basis = match frozen(TAG_FORM_BASIS, bytes)? {
+            FormBasisV1::PanelLoads => Basis::PanelLoads,
+            FormBasisV1::AsBuilt => Basis::AsBuilt,
+        };
         Ok(())
     }
 }
@@ -925,7 +957,7 @@ mod tests {
             let sections = write_all(SECTIONS, &d);
             assert_eq!(
                 sections.iter().map(|s| s.tag).collect::<Vec<_>>(),
-                [TAG_ABUTMENT, TAG_TRAFFIC, TAG_ACTIONS, TAG_SIZING]
+                [TAG_ABUTMENT, TAG_TRAFFIC, TAG_ACTIONS, TAG_SIZING, TAG_FORM_BASIS]
             );
             let mut back = Design::demo();
             read_all(&sections, SECTIONS, &mut back).expect("reads");

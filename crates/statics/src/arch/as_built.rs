@@ -1,0 +1,109 @@
+//! The "as built" form-finding basis: the form found for the forces the rib actually
+//! receives in the frame model under the dead load.
+//!
+//! The "panel loads" basis puts the deck on the rib as simple-span panel reactions. The
+//! frame model's deck is continuous over the posts, its bracing ties deck and rib
+//! together and every member shortens under load, so the rib found for panel loads still
+//! bends under its own dead load and the diagonals carry it. Here each shape of the rib
+//! is analysed as a frame under the dead load; the forces the nodes apply to the rib
+//! members (posts, diagonals, the deck where it shares a rib node, and the nodal loads)
+//! plus half of each rib segment's own weight at each of its ends are the loads, with
+//! their horizontal components; the three-point funicular of those loads
+//! (`funicular::three_point_inclined`) is the next shape. The loop starts from the
+//! panel-load form and stops when no rib node moves more than the design's form tolerance
+//! times the rise.
+//!
+//! Assumptions, shown wherever the basis is: all dead load acts on the completed
+//! structure (no erection sequence, no staged casting or jacking); the rib nodes that
+//! share the deck are those of the panel-load form. On a three-hinged rib the found form
+//! has no dead-load moment at any rib node (the rib is statically determinate for the
+//! loads it receives); between nodes each segment still bends under its own weight as a
+//! simple beam. On a two-hinged or fixed rib the rib's shortening under its thrust
+//! leaves a small moment the form cannot remove (the rib is indeterminate).
+//!
+//! Units m, kN; loads positive downward and to the right.
+
+use crate::arch::design::Design;
+use crate::arch::form::{iterate, Basis, Form, LoadBasis, Settings};
+use crate::arch::generate::{frame_model, DEAD};
+use crate::arch::layout::{Layout, Topology};
+use crate::arch::validate::ValidDesign;
+use crate::error::StaticsError;
+use crate::frame::solver::solve;
+use crate::graphic::funicular::NodeLoad;
+
+/// The "as built" basis of a design: each shape is analysed as the frame model of the
+/// design with the rib at that shape.
+struct AsBuilt<'a> {
+    design: &'a Design,
+    /// The panel-load form: its nodes, their sharing of the deck and its settings; the
+    /// levels are replaced by each shape.
+    template: &'a Form,
+}
+
+impl LoadBasis for AsBuilt<'_> {
+    fn basis(&self) -> Basis {
+        Basis::AsBuilt
+    }
+
+    fn gather(&self, frame: &Layout, topo: &Topology, rib_y: &[f64]) -> Result<Vec<NodeLoad>, StaticsError> {
+        let mut form = self.template.clone();
+        for (node, &y) in form.rib.iter_mut().zip(rib_y) {
+            node.y = y;
+        }
+        let valid = ValidDesign::from_parts(self.design, frame.clone(), form, topo.clone());
+        rib_loads(&valid)
+    }
+}
+
+/// The loads the rib of `valid` receives in its frame model under the dead load, one per
+/// rib node (springings included): the forces the node applies to the rib members there
+/// (at a springing, less the support's reaction) and half of each adjacent rib segment's
+/// self-weight. kN, `p` positive down, `px` to the right.
+///
+/// Errors: those of the frame solve.
+pub fn rib_loads(valid: &ValidDesign) -> Result<Vec<NodeLoad>, StaticsError> {
+    let generated = frame_model(valid);
+    let solution = solve(&generated.model)?;
+    let case =
+        solution.case(DEAD).ok_or_else(|| StaticsError::invalid("frame model", "has no dead load case"))?;
+    let map = &generated.map;
+    let w_rib = valid.design().weight_per_m(&valid.design().groups.rib);
+    let last = map.rib_nodes.len() - 1;
+    let mut loads: Vec<NodeLoad> =
+        valid.layout().rib_x.iter().map(|&x| NodeLoad { x, px: 0.0, p: 0.0 }).collect();
+    for (r, load) in loads.iter_mut().enumerate() {
+        let node = map.rib_nodes[r];
+        // rib member r - 1 ends at node r, member r starts there
+        let ends =
+            [r.checked_sub(1).map(|k| (map.rib_members[k], 3)), (r < last).then(|| (map.rib_members[r], 0))];
+        for (member, at) in ends.into_iter().flatten() {
+            let actions = &case.members[member].end_actions_global;
+            load.px += actions[at];
+            load.p -= actions[at + 1];
+            load.p += 0.5 * w_rib * case.members[member].length;
+        }
+        if let Some(reaction) = case.reaction(node) {
+            load.px -= reaction.fx;
+            load.p += reaction.fy;
+        }
+    }
+    Ok(loads)
+}
+
+/// The "as built" form of a design whose panel-load form is `panel` (see the module doc).
+///
+/// Errors: `NoConvergence` (`Iteration::AsBuiltForm`) when the shape does not settle
+/// within the design's tolerance and iteration limit; `Invalid` when the loads admit no
+/// compression funicular through the three points; those of the frame solves.
+pub fn as_built_form(design: &Design, layout: &Layout, panel: &Form) -> Result<Form, StaticsError> {
+    let basis = AsBuilt { design, template: panel };
+    let settings = Settings {
+        min_post: design.min_post_length,
+        tolerance: design.form.tolerance,
+        max_iterations: design.form.max_iterations,
+        shared: Some(panel.shared()),
+        accelerate: true,
+    };
+    iterate(layout, &basis, panel.rib_y(), &settings)
+}
