@@ -473,4 +473,14 @@ fn sweep_prints_one_row_per_option() {
     let grid = ["sweep", "-", "--vary", "panels=10,12", "--vary", "ribs=1,2", "--chart", &path];
     let err = failed(&run(&grid, &demo_json()), 1);
     assert!(err.contains("one numeric parameter"), "{err}");
+    // the form basis is a category: rows by name, no chart
+    let out = run(&["sweep", "-", "--vary", "form-basis=panel-loads,as-built"], &demo_json());
+    assert_eq!(out.status.code(), Some(0), "{}", text(&out.stderr));
+    let csv = text(&out.stdout);
+    let lines: Vec<&str> = csv.lines().collect();
+    assert!(lines[0].starts_with("form basis,feasible,"), "{csv}");
+    assert!(lines[1].starts_with("panel-loads,true,") && lines[2].starts_with("as-built,true,"), "{csv}");
+    let basis = ["sweep", "-", "--vary", "form-basis=as-built", "--chart", &path];
+    let err = failed(&run(&basis, &demo_json()), 1);
+    assert!(err.contains("one numeric parameter"), "{err}");
 }

@@ -132,6 +132,8 @@ pub enum Field {
     RibSystem,
     /// Bracing.
     Bracing,
+    /// What the form is found for (panel loads or as built).
+    FormBasis,
     /// Number of left approach piers.
     ApproachPiersLeft,
     /// Number of right approach piers.
@@ -192,6 +194,7 @@ impl Field {
             Field::MinPostLength => "min_post_length",
             Field::RibSystem => "rib_system",
             Field::Bracing => "bracing",
+            Field::FormBasis => "form.basis",
             Field::ApproachPiersLeft => "approach_piers_left",
             Field::ApproachPiersRight => "approach_piers_right",
             Field::Section(g, p) => return format!("groups.{}.{}", g.key(), p.key()),
@@ -238,6 +241,7 @@ impl Field {
             Field::MinPostLength => "shortest post",
             Field::RibSystem => "rib",
             Field::Bracing => "spandrel bracing",
+            Field::FormBasis => "form found for",
             Field::ApproachPiersLeft => "approach piers, left",
             Field::ApproachPiersRight => "approach piers, right",
             Field::Section(g, p) => return format!("{} section: {}", g.label(), p.label()),
@@ -809,6 +813,7 @@ mod tests {
             Field::MinPostLength,
             Field::RibSystem,
             Field::Bracing,
+            Field::FormBasis,
             Field::ApproachPiersLeft,
             Field::ApproachPiersRight,
             Field::FormTolerance,

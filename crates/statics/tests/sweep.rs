@@ -90,6 +90,28 @@ fn failing_options_are_rows_and_grids_hold_every_pair() {
     assert_eq!(grid.rows[3].form_thrust, Some(analyze(&fixed).expect("analyses").summary.form_thrust));
 }
 
+/// The form basis as a sweep parameter: each row is a separate analysis of the design on
+/// that basis (the as-built form thrust differs from the panel-load one), and a basis
+/// that does not exist is refused naming both.
+#[test]
+fn the_form_basis_sweeps_as_a_category() {
+    use springline_statics::arch::form::Basis;
+    let demo = Design::demo();
+    let s = sweep(&demo, &[parse_axis("form-basis=panel-loads,as-built").expect("parses")], false)
+        .expect("sweeps");
+    assert_eq!(s.rows.len(), 2);
+    for (row, basis) in s.rows.iter().zip([Basis::PanelLoads, Basis::AsBuilt]) {
+        let d = apply(&demo, Parameter::FormBasis, row.values[0]);
+        assert_eq!(d.form.basis, basis);
+        assert_eq!(row.form_thrust, Some(analyze(&d).expect("analyses").summary.form_thrust));
+    }
+    assert_ne!(s.rows[0].form_thrust, s.rows[1].form_thrust);
+    assert!(to_csv(&s).lines().nth(2).is_some_and(|l| l.starts_with("as-built,")), "{}", to_csv(&s));
+    assert!(!Parameter::FormBasis.is_numeric() && Parameter::RiseRatio.is_numeric());
+    let e = parse_axis("form-basis=by-eye").expect_err("refused").to_string();
+    assert!(e.contains("panel-loads, as-built"), "{e}");
+}
+
 /// Ranges that cannot be read are refused with the accepted forms.
 #[test]
 fn bad_ranges_are_refused() {

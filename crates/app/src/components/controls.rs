@@ -11,6 +11,7 @@ use leptos::prelude::*;
 use springline_statics::arch::design::{
     Bracing, Crown, GroundPoint, RibSystem, Section, MAX_APPROACH_PIERS, MAX_PANELS, MAX_RIBS, MIN_PANELS,
 };
+use springline_statics::arch::form::Basis;
 use springline_statics::arch::sizing::GroupSizing;
 use springline_statics::error::{Field, GroupName, SectionProperty, StaticsError};
 use springline_statics::sizing::materials::{material_preset, material_presets, Material};
@@ -369,7 +370,15 @@ pub fn RoadwayPanel() -> impl IntoView {
     }
 }
 
-/// Arch: springings, crown, minimum post, rib system, bracing.
+/// The select value of a form-finding basis.
+fn basis_key(basis: Basis) -> &'static str {
+    match basis {
+        Basis::PanelLoads => "panel-loads",
+        Basis::AsBuilt => "as-built",
+    }
+}
+
+/// Arch: springings, crown, minimum post, rib system, bracing, what the form is found for.
 #[component]
 pub fn ArchPanel() -> impl IntoView {
     let state = expect_context::<AppState>();
@@ -407,6 +416,26 @@ pub fn ArchPanel() -> impl IntoView {
         };
         let _ = state.try_edit(Field::Bracing, |d| d.bracing = b);
     };
+    let basis = move || state.design.with(|d| basis_key(d.form.basis));
+    let set_basis = move |ev: leptos::ev::Event| {
+        let key = event_target_value(&ev);
+        let chosen = Basis::ALL.into_iter().find(|b| basis_key(*b) == key).unwrap_or_default();
+        let _ = state.try_edit(Field::FormBasis, |d| d.form.basis = chosen);
+    };
+    let basis_words = move || {
+        state.design.with(|d| {
+            let name = d.form.basis.name();
+            let mut words = format!("{}{}: {}.", name[..1].to_uppercase(), &name[1..], d.form.basis.describe());
+            if d.form.basis == Basis::AsBuilt && d.bracing.is_braced() {
+                words.push_str(
+                    " With braced spandrels the rib is freed of dead-load bending at its nodes, but the bracing, \
+                     deck and rib then share the dead load: the diagonals may carry more of it than on panel loads \
+                     (see the elevation).",
+                );
+            }
+            words
+        })
+    };
     let crown_value = Signal::derive(move || state.design.with(|d| d.rise()));
     let set_rise = Callback::new(move |v: f64| {
         // keeps the user's choice of how the crown is given
@@ -440,6 +469,15 @@ pub fn ArchPanel() -> impl IntoView {
                 </select>
                 <FieldProblems field=Field::Bracing id="bracing-error" />
             </div>
+            <div class="field">
+                <label for="form-basis">"Form found for"</label>
+                <select id="form-basis" on:change=set_basis prop:value=basis>
+                    <option value="panel-loads">"panel loads"</option>
+                    <option value="as-built">"as built"</option>
+                </select>
+                <FieldProblems field=Field::FormBasis id="form-basis-error" />
+            </div>
+            <p class="hint" id="form-basis-words">{basis_words}</p>
         </details>
     }
 }

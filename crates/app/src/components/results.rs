@@ -7,6 +7,7 @@
 use crate::format::{Quantity, Units};
 use crate::state::AppState;
 use leptos::prelude::*;
+use springline_statics::arch::form::Basis;
 use springline_statics::arch::generate::DEAD;
 use springline_statics::arch::readout::MemberKey;
 use springline_statics::{Analysis, MemberRole, ModelKind, Warning};
@@ -201,11 +202,15 @@ fn thrust_note(a: &Analysis, case: usize, units: Units) -> Option<String> {
     let force = |v: f64| units.show(Quantity::Force, v);
     let mut note = format!(
         "Why the thrusts differ: the form thrust ({}) is the funicular of the dead load, found \
-         with the loads lumped at the rib nodes. The springing thrusts ({} left, {} right) come \
+         {}. The springing thrusts ({} left, {} right) come \
          from the frame model, where the deck is continuous with the rib, the rib shortens and \
          bends, and the deck's seats and the approach piers take {} vertically and {} \
          horizontally of this case's load.",
         force(s.form_thrust),
+        match s.form_basis {
+            Basis::PanelLoads => "with the loads lumped at the rib nodes",
+            Basis::AsBuilt => "for the forces the frame model's rib receives under the dead load alone",
+        },
         force(springs.left.thrust),
         force(springs.right.thrust),
         force(springs.seats_piers_vertical),

@@ -3,14 +3,14 @@
 
 use super::{print_json, print_line, read_design};
 use crate::failure::Failure;
-use springline_statics::arch::sweep::{parse_axis, sweep, to_csv, Axis, Parameter, Sweep, SweepRow};
+use springline_statics::arch::sweep::{parse_axis, sweep, to_csv, Axis, Sweep, SweepRow};
 use std::path::PathBuf;
 
 /// Sweep one parameter of a design (or two as a grid) and print each option's key numbers.
 ///
-/// NAME is rise-ratio, panels, springing-level, ribs or rib-system; RANGE is FROM:TO:COUNT
-/// (COUNT values, both ends included) or a list V1,V2,... (rib systems by name:
-/// three-hinged, two-hinged, fixed). Each option is validated, analysed and its traffic
+/// NAME is rise-ratio, panels, springing-level, ribs, rib-system or form-basis; RANGE is
+/// FROM:TO:COUNT (COUNT values, both ends included) or a list V1,V2,... (rib systems by
+/// name: three-hinged, two-hinged, fixed; form bases: panel-loads, as-built). Each option is validated, analysed and its traffic
 /// envelopes found: form thrust, the design thrust range and the largest design force of
 /// a rib, post and bracing member over the ultimate combinations; with --size also steel,
 /// concrete and the cost index. An option that fails is a row with its reason. What stays
@@ -22,7 +22,8 @@ use std::path::PathBuf;
 Examples:
   springline sweep design.json --vary rise-ratio=0.10:0.20:21
   springline sweep design.json --vary panels=8:16:5 --vary rib-system=two-hinged,fixed --size
-  springline demo | springline sweep - --vary ribs=1,2,3 --json")]
+  springline demo | springline sweep - --vary ribs=1,2,3 --json
+  springline sweep design.json --vary form-basis=panel-loads,as-built --size")]
 pub struct Args {
     /// The design file (JSON); `-` reads standard input.
     #[arg(value_name = "DESIGN.json")]
@@ -51,9 +52,9 @@ pub struct Args {
 pub fn run(args: Args) -> Result<(), Failure> {
     let design = read_design(&args.design)?;
     let axes: Vec<Axis> = args.vary.iter().map(|v| parse_axis(v)).collect::<Result<_, _>>()?;
-    if args.chart.is_some() && (axes.len() != 1 || axes[0].parameter == Parameter::RibSystem) {
+    if args.chart.is_some() && (axes.len() != 1 || !axes[0].parameter.is_numeric()) {
         return Err(Failure::Refused(anyhow::anyhow!(
-            "a chart takes one numeric parameter (not a grid, not the rib system)"
+            "a chart takes one numeric parameter (not a grid, not the rib system or form basis)"
         )));
     }
     let result = sweep(&design, &axes, args.size)?;
@@ -75,8 +76,10 @@ pub fn run(args: Args) -> Result<(), Failure> {
 fn chart(s: &Sweep, path: &std::path::Path) -> Result<(), String> {
     use plotters::prelude::*;
     let axis = s.axes.first().ok_or("no axis")?;
-    if s.axes.len() != 1 || axis.parameter == Parameter::RibSystem {
-        return Err("a chart takes one numeric parameter (not a grid, not the rib system)".into());
+    if s.axes.len() != 1 || !axis.parameter.is_numeric() {
+        return Err(
+            "a chart takes one numeric parameter (not a grid, not the rib system or form basis)".into()
+        );
     }
     let rows: Vec<(f64, &SweepRow)> =
         axis.values.iter().copied().zip(&s.rows).filter(|(_, r)| r.feasible).collect();

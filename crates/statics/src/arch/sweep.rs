@@ -11,13 +11,15 @@
 //!   with the springings; by level: it stays);
 //! - `ribs`: the number of ribs side by side over the same deck width, evenly spaced (any
 //!   rib positions given by hand are dropped: they were for another count);
-//! - `rib-system`: three-hinged, two-hinged or fixed.
+//! - `rib-system`: three-hinged, two-hinged or fixed;
+//! - `form-basis`: what the form is found for, `panel-loads` or `as-built`.
 //!
 //! An option that does not validate or analyse is a row with its reason, not an error.
 //! Concept-design values: local codes and a licensed engineer govern.
 
 use crate::arch::analysis::{analyze_valid, CAUTION};
 use crate::arch::design::{Design, RibSystem};
+use crate::arch::form::Basis;
 use crate::arch::generate::{frame_model, MemberRole};
 use crate::arch::influence::ArchLine;
 use crate::arch::sizing::{frame_traffic, is_ultimate, size_design};
@@ -39,21 +41,30 @@ pub enum Parameter {
     Ribs,
     /// Rib system (0 three-hinged, 1 two-hinged, 2 fixed).
     RibSystem,
+    /// Form-finding basis (0 panel loads, 1 as built).
+    FormBasis,
 }
 
 impl Parameter {
     /// Every parameter with its name on the command line.
-    pub const ALL: [(Parameter, &'static str); 5] = [
+    pub const ALL: [(Parameter, &'static str); 6] = [
         (Parameter::RiseRatio, "rise-ratio"),
         (Parameter::Panels, "panels"),
         (Parameter::SpringingLevel, "springing-level"),
         (Parameter::Ribs, "ribs"),
         (Parameter::RibSystem, "rib-system"),
+        (Parameter::FormBasis, "form-basis"),
     ];
 
     /// The name on the command line (`rise-ratio`).
     pub fn key(self) -> &'static str {
         Parameter::ALL.iter().find(|(p, _)| *p == self).map_or("?", |(_, k)| k)
+    }
+
+    /// Whether the values are numbers on a scale (a chart can plot them); the rib system
+    /// and the form basis are categories.
+    pub fn is_numeric(self) -> bool {
+        categories(self).is_none()
     }
 
     /// The column title with its unit.
@@ -64,6 +75,7 @@ impl Parameter {
             Parameter::SpringingLevel => "left springing level (m)",
             Parameter::Ribs => "ribs (-)",
             Parameter::RibSystem => "rib system",
+            Parameter::FormBasis => "form basis",
         }
     }
 }
@@ -75,12 +87,25 @@ const SYSTEMS: [(RibSystem, &str); 3] = [
     (RibSystem::Fixed, "fixed"),
 ];
 
+/// The form-finding bases by their sweep value.
+const BASES: [(Basis, &str); 2] = [(Basis::PanelLoads, "panel-loads"), (Basis::AsBuilt, "as-built")];
+
+/// The names of a categorical parameter's values (`None` for a numeric one).
+fn categories(parameter: Parameter) -> Option<Vec<&'static str>> {
+    match parameter {
+        Parameter::RibSystem => Some(SYSTEMS.iter().map(|(_, n)| *n).collect()),
+        Parameter::FormBasis => Some(BASES.iter().map(|(_, n)| *n).collect()),
+        _ => None,
+    }
+}
+
 /// One varied parameter and its values.
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct Axis {
     /// The parameter.
     pub parameter: Parameter,
-    /// Its values (rib systems by index into three-hinged, two-hinged, fixed).
+    /// Its values (rib systems by index into three-hinged, two-hinged, fixed; form bases
+    /// into panel-loads, as-built).
     pub values: Vec<f64>,
 }
 
@@ -92,7 +117,8 @@ fn refuse(message: String) -> StaticsError {
 pub const MAX_VALUES: usize = 1000;
 
 /// Reads `NAME=FROM:TO:COUNT` (COUNT values evenly from FROM to TO, both included) or
-/// `NAME=V1,V2,...` (rib systems by name: `three-hinged`, `two-hinged`, `fixed`).
+/// `NAME=V1,V2,...` (rib systems by name: `three-hinged`, `two-hinged`, `fixed`; form
+/// bases: `panel-loads`, `as-built`).
 ///
 /// Errors: `Invalid` naming the accepted parameters and forms.
 pub fn parse_axis(spec: &str) -> Result<Axis, StaticsError> {
@@ -106,12 +132,12 @@ pub fn parse_axis(spec: &str) -> Result<Axis, StaticsError> {
     let Some(parameter) = Parameter::ALL.iter().find(|(_, k)| *k == name.trim()).map(|(p, _)| *p) else {
         return Err(refuse(format!("'{name}' is no parameter to vary; give one of {}", names.join(", "))));
     };
-    let values: Vec<f64> = if parameter == Parameter::RibSystem {
+    let values: Vec<f64> = if let Some(names) = categories(parameter) {
         range
             .split(',')
             .map(|v| {
-                SYSTEMS.iter().position(|(_, n)| *n == v.trim()).map(|i| i as f64).ok_or_else(|| {
-                    refuse(format!("'{v}' is no rib system; give three-hinged, two-hinged or fixed"))
+                names.iter().position(|n| *n == v.trim()).map(|i| i as f64).ok_or_else(|| {
+                    refuse(format!("'{v}' is no {}; give {}", parameter.column(), names.join(", ")))
                 })
             })
             .collect::<Result<_, _>>()?
@@ -181,6 +207,9 @@ pub fn apply(design: &Design, parameter: Parameter, value: f64) -> Design {
         Parameter::RibSystem => {
             d.rib_system = SYSTEMS.get(value as usize).map_or(d.rib_system, |(s, _)| *s);
         }
+        Parameter::FormBasis => {
+            d.form.basis = BASES.get(value as usize).map_or(d.form.basis, |(b, _)| *b);
+        }
     }
     d
 }
@@ -241,6 +270,7 @@ fn held_words(parameter: Parameter) -> &'static str {
         }
         Parameter::Ribs => "ribs: the deck width fixed, the ribs evenly spaced across it",
         Parameter::RibSystem => "rib-system: everything else fixed",
+        Parameter::FormBasis => "form-basis: everything else fixed",
     }
 }
 
@@ -383,7 +413,10 @@ pub fn to_csv(s: &Sweep) -> String {
             .iter()
             .zip(&r.values)
             .map(|(a, v)| match a.parameter {
-                Parameter::RibSystem => SYSTEMS.get(*v as usize).map_or("?", |(_, n)| n).to_string(),
+                Parameter::RibSystem | Parameter::FormBasis => categories(a.parameter)
+                    .and_then(|names| names.get(*v as usize).copied())
+                    .unwrap_or("?")
+                    .to_string(),
                 Parameter::Panels | Parameter::Ribs => format!("{v:.0}"),
                 // six decimals at most, without trailing zeros (0.12, not 0.12000000000000001)
                 _ => {

@@ -1,0 +1,82 @@
+//! The form-finding basis in headless Chromium over WebDriver (needs `dist/` built from
+//! this tree): choosing "as built" in the Arch panel finds the form for the frame's forces
+//! (the results show the engine's as-built thrust and basis), the words under the select
+//! say what the basis assumes, the link carries the basis and reopens with it, and undo
+//! brings the panel-load form back.
+//!
+//! Expected values come from the engine (`analyze`), never from the page itself.
+
+use serde_json::json;
+use springline_statics::arch::form::Basis;
+use springline_statics::link::permalink;
+use springline_statics::{analyze, Design};
+use springline_tests::page::*;
+use springline_tests::serve::StaticServer;
+use springline_tests::webdriver::Driver;
+
+/// Waits until cell `id` carries `expected` in `data-value` (relative 1e-9).
+fn wait_value(s: &springline_tests::webdriver::Session, id: &str, expected: f64) {
+    s.wait_for(
+        &format!("#{id} to read {expected}"),
+        &format!(
+            "const e = document.getElementById({}); return e && Math.abs(+e.dataset.value - {expected}) <= 1e-9 * Math.max(1, Math.abs({expected}));",
+            json!(id)
+        ),
+        WAIT,
+    );
+}
+
+#[test]
+fn the_as_built_basis_is_chosen_shown_linked_and_undone() {
+    let server = StaticServer::start(&dist());
+    let driver = Driver::start();
+    let s = driver.session(1500, 1000, 1.0);
+    open(&s, &server);
+    s.exec("document.querySelectorAll('details.panel').forEach(d => d.open = true);", vec![]);
+    let demo = Design::demo();
+    let panel_thrust = analyze(&demo).expect("the demo analyses").form.thrust;
+    wait_value(&s, "result-thrust", panel_thrust);
+    assert!(text_of(&s, "form-basis-words").contains("Panel loads"), "{}", text_of(&s, "form-basis-words"));
+
+    set_field(&s, "form-basis", "as-built");
+    let mut built = demo.clone();
+    built.form.basis = Basis::AsBuilt;
+    let built_thrust = analyze(&built).expect("the as-built demo analyses").form.thrust;
+    assert!(
+        (built_thrust - panel_thrust).abs() > 1.0,
+        "{built_thrust} vs {panel_thrust}: the change must show"
+    );
+    wait_value(&s, "result-thrust", built_thrust);
+    let words = text_of(&s, "form-basis-words");
+    assert!(words.contains("completed structure") && words.contains("no erection sequence"), "{words}");
+    // the demo is braced: the words say what that does to the diagonals
+    assert!(words.contains("diagonals may carry more"), "{words}");
+    s.wait_for(
+        "the form-finding row to name the basis",
+        "const e = document.getElementById('result-form'); return e && e.textContent.includes('as built');",
+        WAIT,
+    );
+    // the link carries the basis, and a fresh page opens on it
+    s.wait_for(
+        "the link to carry the basis",
+        &format!(
+            "return location.hash.length > 2 && location.hash === {};",
+            json!(format!("#{}", permalink::encode(&built)))
+        ),
+        WAIT,
+    );
+    let hash = s.exec("return location.hash;", vec![]).as_str().unwrap_or("").to_string();
+    assert_eq!(permalink::decode(&hash), Ok(built.clone()));
+    let fresh = driver.session(1500, 1000, 1.0);
+    open_url(&fresh, &format!("{}{}", server.url(), hash));
+    wait_value(&fresh, "result-thrust", built_thrust);
+    assert_eq!(fresh.exec("return document.getElementById('form-basis').value;", vec![]), json!("as-built"));
+    std::fs::write(screenshots_dir().join("form-basis.png"), s.screenshot()).expect("screenshot");
+
+    // undo: the panel-load form again
+    s.exec("document.getElementById('undo').click();", vec![]);
+    wait_value(&s, "result-thrust", panel_thrust);
+    assert_eq!(s.exec("return document.getElementById('form-basis').value;", vec![]), json!("panel-loads"));
+    assert!(severe(&s).is_empty(), "{:?}", severe(&s));
+    assert!(severe(&fresh).is_empty(), "{:?}", severe(&fresh));
+}
