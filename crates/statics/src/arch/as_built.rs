@@ -18,8 +18,12 @@
 //! share the deck are those of the panel-load form. On a three-hinged rib the found form
 //! has no dead-load moment at any rib node (the rib is statically determinate for the
 //! loads it receives); between nodes each segment still bends under its own weight as a
-//! simple beam. On a two-hinged or fixed rib the rib's shortening under its thrust
-//! leaves a small moment the form cannot remove (the rib is indeterminate).
+//! simple beam. Where rib and deck share a node the continuous deck puts a couple on the
+//! rib, which no funicular of forces takes: it is replaced by the vertical pair of the
+//! same moment at the neighbouring rib nodes, so the form splits it evenly (-C/2 and
+//! +C/2 either side of that node). On a two-hinged or fixed rib the rib's shortening
+//! under its thrust leaves a small moment the form cannot remove (the rib is
+//! indeterminate).
 //!
 //! Units m, kN; loads positive downward and to the right.
 
@@ -72,6 +76,7 @@ pub fn rib_loads(valid: &ValidDesign) -> Result<Vec<NodeLoad>, StaticsError> {
     let last = map.rib_nodes.len() - 1;
     let mut loads: Vec<NodeLoad> =
         valid.layout().rib_x.iter().map(|&x| NodeLoad { x, px: 0.0, p: 0.0 }).collect();
+    let mut couples = vec![0.0; loads.len()];
     for (r, load) in loads.iter_mut().enumerate() {
         let node = map.rib_nodes[r];
         // rib member r - 1 ends at node r, member r starts there
@@ -82,11 +87,29 @@ pub fn rib_loads(valid: &ValidDesign) -> Result<Vec<NodeLoad>, StaticsError> {
             load.px += actions[at];
             load.p -= actions[at + 1];
             load.p += 0.5 * w_rib * case.members[member].length;
+            couples[r] += actions[at + 2];
         }
         if let Some(reaction) = case.reaction(node) {
             load.px -= reaction.fx;
             load.p += reaction.fy;
         }
+    }
+    // A couple on the rib (the deck's continuity moment where rib and deck share a node)
+    // has no place in a funicular of forces. Replaced by the vertical pair of the same
+    // moment at the neighbouring rib nodes, it leaves every other node's moment as it is
+    // and, at its own node, half of it: the found form then splits the couple evenly,
+    // -C/2 and +C/2 either side of the node, the least a polygon through the node can do.
+    let x = &valid.layout().rib_x;
+    for k in 1..last {
+        let c = couples[k];
+        if c == 0.0 {
+            continue;
+        }
+        // anticlockwise C = F (x_b - x_a) for F up at x_b and down at x_a
+        let (a, b) = if k - 1 > 0 { (k - 1, k + 1) } else { (k, k + 1) };
+        let f = c / (x[b] - x[a]);
+        loads[a].p += f;
+        loads[b].p -= f;
     }
     Ok(loads)
 }
