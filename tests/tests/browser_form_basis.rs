@@ -1,8 +1,9 @@
 //! The form-finding basis in headless Chromium over WebDriver (needs `dist/` built from
 //! this tree): choosing "as built" in the Arch panel finds the form for the frame's forces
 //! (the results show the engine's as-built thrust and basis), the words under the select
-//! say what the basis assumes, the link carries the basis and reopens with it, and undo
-//! brings the panel-load form back.
+//! say what the basis assumes, the link carries the basis and reopens with it, undo
+//! brings the panel-load form back, and a form whose springings take different thrusts
+//! shows each.
 //!
 //! Expected values come from the engine (`analyze`), never from the page itself.
 
@@ -77,6 +78,19 @@ fn the_as_built_basis_is_chosen_shown_linked_and_undone() {
     s.exec("document.getElementById('undo').click();", vec![]);
     wait_value(&s, "result-thrust", panel_thrust);
     assert_eq!(s.exec("return document.getElementById('form-basis').value;", vec![]), json!("panel-loads"));
+    // the demo's three-hinged form has one thrust; a two-hinged rib found as built takes
+    // horizontal forces from the deck held at its left seat: a thrust at each springing
+    assert_eq!(s.exec("return document.getElementById('result-thrust-left');", vec![]), json!(null));
+    set_field(&s, "rib-system", "two");
+    set_field(&s, "form-basis", "as-built");
+    let mut two = demo.clone();
+    two.rib_system = springline_statics::arch::design::RibSystem::TwoHinged;
+    two.form.basis = Basis::AsBuilt;
+    let form = analyze(&two).expect("the two-hinged as-built demo analyses").form;
+    assert!((form.reaction_left.fx + form.reaction_right.fx).abs() > 100.0, "{form:?}");
+    wait_value(&s, "result-thrust-left", form.reaction_left.fx);
+    wait_value(&s, "result-thrust-right", -form.reaction_right.fx);
+    wait_value(&s, "result-thrust", form.thrust);
     assert!(severe(&s).is_empty(), "{:?}", severe(&s));
     assert!(severe(&fresh).is_empty(), "{:?}", severe(&fresh));
 }

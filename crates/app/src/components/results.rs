@@ -50,6 +50,19 @@ fn rows(a: &Analysis, case: usize, ribs: usize, units: Units, focus: Option<Memb
         row("result-span", "Span", Quantity::Length, s.span),
         row("result-rise", "Rise", Quantity::Length, s.rise),
     ];
+    // the as-built form's thrust changes along the rib with the horizontal forces its
+    // nodes receive: each springing's own, when they differ
+    let [form_left, form_right] = s.form_reactions;
+    if (form_left.fx + form_right.fx).abs() > 1e-9 * s.form_thrust.abs() {
+        r.insert(
+            1,
+            row("result-thrust-left", "Form thrust at the left springing", Quantity::Force, form_left.fx),
+        );
+        r.insert(
+            2,
+            row("result-thrust-right", "Form thrust at the right springing", Quantity::Force, -form_right.fx),
+        );
+    }
     let shown = a.load_cases.get(case).map_or(DEAD, |c| c.case.as_str());
     if let Some(forces) = s.springings_of(shown) {
         for (id_h, id_v, id_a, name, f) in [
