@@ -398,6 +398,7 @@ fn size_reports_sizes_quantities_and_foundations() {
     let summary = text(&out.stdout);
     assert!(summary.contains("rib      box ") && summary.contains("left springing: H "), "{summary}");
     assert!(summary.contains("licensed engineer"), "{summary}");
+    assert!(summary.lines().next().is_some_and(|l| l.ends_with("form found for panel loads)")), "{summary}");
 
     let out = run(&["size", "--adopted", "-"], &demo_json());
     assert_eq!(out.status.code(), Some(0), "{}", text(&out.stderr));

@@ -76,7 +76,12 @@ pub fn run(args: Args) -> Result<(), Failure> {
 /// A few lines for people: each group's section and utilisation, the totals, and each
 /// springing's demand and block.
 pub fn text_summary(r: &SizeReport) -> String {
-    let mut out = vec![format!("{} — sizing (per rib line, {})", r.design, r.sizing.combinations.join(", "))];
+    let mut out = vec![format!(
+        "{} — sizing (per rib line, {}; form found for {})",
+        r.design,
+        r.sizing.combinations.join(", "),
+        r.form_basis
+    )];
     for g in &r.sizing.groups {
         let section = match &g.outcome {
             GroupOutcome::Sized { label, .. } => format!("{label} ({})", g.material),

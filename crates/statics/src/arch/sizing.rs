@@ -891,6 +891,8 @@ pub fn adopt_sizes(design: &Design, report: &MemberSizingReport) -> Design {
 pub struct SizeReport {
     /// The design's name.
     pub design: String,
+    /// What the form of the sized design was found for.
+    pub form_basis: crate::arch::form::Basis,
     /// Units of every number.
     pub units: String,
     /// Member sizing.
@@ -966,6 +968,7 @@ pub fn size_design(valid: &ValidDesign, report: &TrafficReport) -> Result<SizeRe
     let quantities = crate::arch::quantities::quantities(valid, &sizing, &foundations);
     Ok(SizeReport {
         design: valid.design().name.clone(),
+        form_basis: valid.form().basis,
         units: SIZE_UNITS.into(),
         sizing,
         quantities,
