@@ -6,7 +6,7 @@
 
 use springline_statics::sizing::buckling::{chi, euler_load, glulam_kc, Curve};
 use springline_statics::sizing::materials::{material_preset, Material};
-use springline_statics::sizing::resistance::{check, size_member, Demand, Lengths, Mode};
+use springline_statics::sizing::resistance::{check, size_member, Demand, Lengths, Mode, RcRectangle, Void};
 use springline_statics::sizing::sections::Family;
 
 /// `actual` within `relative` of `expected`.
@@ -371,4 +371,136 @@ fn size_member_refuses_walls_beyond_class_3() {
     assert!(err.contains("90 eps^2 = 59.6"), "{err}");
     // the same tube in S235 (limit 90) is fine
     assert!(size_member(&preset("s235"), &Family::Chs { d_over_t: 70.0 }, &demand, &lengths).is_ok());
+}
+
+/// The box of the hand calculations below: C40/50 (alpha_cc 1.0), 2000 deep x 3000 wide,
+/// walls 0.15 x 2000 = 300 mm, 1 % bars 80 mm from the faces.
+fn hand_box() -> Family {
+    Family::ConcreteBox {
+        width_over_depth: 1.5,
+        wall_over_depth: 0.15,
+        reinforcement_ratio: 0.01,
+        cover: 0.08,
+    }
+}
+
+#[test]
+fn concrete_box_properties_by_hand() {
+    // 2000 x 3000, t = 300 mm: void 1400 x 2400
+    // A_c = 2.0 x 3.0 - 1.4 x 2.4 = 6.0 - 3.36 = 2.64 m2; A_s = 0.01 x 2.64 = 0.0264 m2
+    // I = (3.0 x 2.0^3 - 2.4 x 1.4^3) / 12 = (24 - 6.5856) / 12 = 1.4512 m4
+    // I_out = (2.0 x 3.0^3 - 1.4 x 2.4^3) / 12 = (54 - 19.3536) / 12 = 2.8872 m4
+    // W = 2 I / h = 1.4512 m3
+    let p = hand_box().props(2.0);
+    close(p.a, 2.64, 1e-12, "A_c");
+    close(p.steel_area_rebar.unwrap_or(f64::NAN), 0.0264, 1e-12, "A_s");
+    close(p.i, 1.4512, 1e-12, "I");
+    close(p.i_out, 2.8872, 1e-12, "I_out");
+    close(p.w_el, 1.4512, 1e-12, "W");
+    assert_eq!(p.thickness, Some(0.3));
+    assert_eq!(hand_box().label(2.0), "concrete box 2000 x 3000 (t 300)");
+    // the preset (width 2 x depth, walls 0.12 x depth, 1.5 %) at 5000: 5000 x 10 000, t 600
+    // A_c = 50 - 8.8 x 3.8 = 50 - 33.44 = 16.56 m2; A_s = 0.015 x 16.56 = 0.2484 m2
+    // I = (10 x 125 - 8.8 x 3.8^3) / 12 = (1250 - 482.8736) / 12 = 63.9272 m4
+    // I_out = (5 x 1000 - 3.8 x 8.8^3) / 12 = (5000 - 2589.5936) / 12 = 200.8672 m4
+    let preset = Family::family_presets()
+        .into_iter()
+        .find(|(k, _)| *k == "concrete-box")
+        .map(|(_, f)| f)
+        .expect("concrete-box preset");
+    let p = preset.props(5.0);
+    close(p.a, 16.56, 1e-12, "preset A_c");
+    close(p.steel_area_rebar.unwrap_or(f64::NAN), 0.2484, 1e-12, "preset A_s");
+    close(p.i, 63.9272, 1e-12, "preset I");
+    close(p.i_out, 200.8672, 1e-12, "preset I_out");
+    assert_eq!(preset.label(5.0), "concrete box 5000 x 10000 (t 600)");
+}
+
+#[test]
+fn concrete_box_interaction_points_by_hand() {
+    // f_cd = 1.0 x 40 / 1.5 = 26.667 MPa; f_yd = 500 / 1.15 = 434.78 MPa, eps_yd = 2.174 per mille;
+    // A_s / 2 = 0.0132 m2 at 80 mm from each face; lambda 0.8, eps_cu3 3.5, eps_c3 1.75 per mille
+    let Material::Concrete(c) = c40_50_alpha_1() else { panic!("concrete") };
+    let section = RcRectangle::new(&c, 2.0, 3.0, 0.0264, 0.08).with_void(Void { depth: 1.4, width: 2.4 });
+    let solid = RcRectangle::new(&c, 2.0, 3.0, 0.0264, 0.08);
+    // Neutral axis in the top slab, x = 150 mm: the block 0.8 x = 120 mm < 300 mm is a
+    // rectangle of the full width 3.0 m: C = 26 667 x 3.0 x 0.12 = 9600 kN at 1.0 - 0.06 = 0.94 m
+    // (9024 kNm); top bars 3.5 x 70 / 150 = 1.633 per mille, elastic: 326.7 MPa x 0.0132 =
+    // 4312 kN at 0.92 m (3967.0 kNm); bottom bars 3.5 x (150 - 1920) / 150 = -41 per mille,
+    // yielded: -5739.1 kN at -0.92 m (+5280.0 kNm). N = 9600 + 4312 - 5739.1 = 8172.9 kN,
+    // M = 9024 + 3967.0 + 5280.0 = 18 271.0 kNm; the same as the solid rectangle's
+    let (n, m) = section.resistance_at(0.15);
+    close(n, 8172.87, 1e-5, "N, x in the slab");
+    close(m, 18_271.04, 1e-5, "M, x in the slab");
+    assert_eq!((n, m), solid.resistance_at(0.15));
+    // Neutral axis below the slab, x = 1.0 m: block 0.8 m: the full width over 0.8 m less
+    // the void's 2.4 m over 0.8 - 0.3 = 0.5 m: 26 667 x (2.4 - 1.2) = 32 000 kN;
+    // M = 26 667 x (2.4 x 0.6 - 1.2 x 0.45) = 64 000 x 0.6 - 32 000 x 0.45 = 24 000 kNm
+    // (the slab 0.9 m2 at 0.85 m and the webs 0.3 m2 at 0.45 m: 20 400 + 3600, the same);
+    // bars 3.5 x 0.92 = 3.22 per mille each side, both yielded, cancelling in N and adding
+    // 2 x 5739.1 x 0.92 = 10 560 kNm. N = 32 000 kN, M = 34 560 kNm
+    let (n, m) = section.resistance_at(1.0);
+    close(n, 32_000.0, 1e-9, "N, x below the slab");
+    close(m, 34_560.0, 1e-9, "M, x below the slab");
+    let (n_solid, _) = solid.resistance_at(1.0);
+    close(n_solid, 64_000.0, 1e-9, "the solid rectangle's block is not cut");
+    // Squash load (6.1(5)): f_cd A_c + A_s E_s eps_c3 = 26 667 x 2.64 + 0.0264 x 350 = 70 400 +
+    // 9240 = 79 640 kN; tension: A_s f_yd = 0.0264 x 434 783 = 11 478 kN
+    close(section.utilisation(79_640.0, 0.0), 1.0, 1e-9, "squash load");
+    close(section.utilisation(-11_478.26, 0.0), 1.0, 1e-6, "tension");
+    // Through the member check: N = 16 000 kN with M = 16 880 kNm over l0 = 10 m. e_i = 25 mm:
+    // M_0Ed = 16 880 + 400 = 17 280 kNm (above N h/30 = 1067 kNm). lambda = 10 / sqrt(1.4512 /
+    // 2.64) = 13.5; n = 16 000 / (2.64 x 26 667) = 0.227, lambda_lim = 10.78 / 0.477 = 22.6: no
+    // second order. M_Ed / N = 1.08 = 34 560 / 32 000: the ray meets the diagram at x = 1.0 m,
+    // N_R = 32 000 kN: utilisation 16 000 / 32 000 = 0.5
+    let family = hand_box();
+    let checked = check(
+        &c40_50_alpha_1(),
+        &family,
+        &family.props(2.0),
+        &Demand { tension: 0.0, compression: 16_000.0, moment: 16_880.0, least_compression: 16_000.0 },
+        &Lengths { in_plane: 10.0, out_of_plane: 10.0 },
+    )
+    .expect("checks");
+    close(checked.design_moment, 17_280.0, 1e-9, "M_Ed");
+    close(mode(&checked, Mode::Interaction), 0.5, 1e-9, "utilisation on the ray");
+    assert!(checked.rule.contains("box"), "{}", checked.rule);
+}
+
+#[test]
+fn a_box_whose_void_shrinks_to_nothing_is_the_solid_rectangle() {
+    let Material::Concrete(c) = c40_50_alpha_1() else { panic!("concrete") };
+    let solid = RcRectangle::new(&c, 2.0, 3.0, 0.0264, 0.08);
+    for void in [Void { depth: 0.0, width: 2.4 }, Void { depth: 1.4, width: 0.0 }] {
+        let boxed = solid.with_void(void);
+        for x in [0.05, 0.15, 0.5, 1.0, 1.9, 2.4, f64::INFINITY] {
+            assert_eq!(boxed.resistance_at(x), solid.resistance_at(x), "{void:?} at x = {x}");
+        }
+    }
+    // a void a micrometre across takes next to nothing: 26 667 kN/m2 x 1e-6 m x 1.4 m = 0.037 kN
+    let (n_hair, _) = solid.with_void(Void { depth: 1.4, width: 1e-6 }).resistance_at(f64::INFINITY);
+    let (n_solid, _) = solid.resistance_at(f64::INFINITY);
+    close(n_solid - n_hair, 26_666.67 * 1e-6 * 1.4, 1e-5, "a hairline void");
+}
+
+#[test]
+fn size_member_picks_the_smallest_box_that_passes() {
+    let concrete = preset("c50-60");
+    let family = Family::family_presets()
+        .into_iter()
+        .find(|(k, _)| *k == "concrete-box")
+        .map(|(_, f)| f)
+        .expect("concrete-box preset");
+    let demand =
+        Demand { tension: 0.0, compression: 150_000.0, moment: 60_000.0, least_compression: 80_000.0 };
+    let lengths = Lengths { in_plane: 120.0, out_of_plane: 15.0 };
+    let sized = size_member(&concrete, &family, &demand, &lengths).expect("a box carries it");
+    assert!(sized.check.utilisation <= 1.0);
+    let (smallest, _, step) = family.sizes();
+    assert!(sized.size > smallest + step, "the demand is not trivial: {}", sized.label);
+    let below = family.props(sized.size - step);
+    let failing = check(&concrete, &family, &below, &demand, &lengths).expect("checks");
+    assert!(failing.utilisation > 1.0, "the next size down fails: {}", failing.utilisation);
+    assert_eq!(sized.label, family.label(sized.size));
+    assert!(sized.label.starts_with("concrete box "), "{}", sized.label);
 }

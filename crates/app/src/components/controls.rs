@@ -603,7 +603,7 @@ const END_SLOT: &str = "end";
 const OWN_MATERIAL: &str = "own";
 
 /// The key of the family preset of `family`'s kind (`chs`, `shs`, `box`, `concrete`,
-/// `glulam`): the presets hold one family of each kind.
+/// `concrete-box`, `glulam`): the presets hold one family of each kind.
 fn family_key(family: &Family) -> &'static str {
     Family::family_presets()
         .into_iter()
@@ -653,7 +653,7 @@ struct FamilyRatio {
 
 /// The ratios of every family, in the order shown; each family shows those whose `get`
 /// answers.
-const FAMILY_RATIOS: [FamilyRatio; 7] = [
+const FAMILY_RATIOS: [FamilyRatio; 8] = [
     FamilyRatio {
         label: "Diameter / wall, D/t",
         key: "d-over-t",
@@ -685,12 +685,14 @@ const FAMILY_RATIOS: [FamilyRatio; 7] = [
         get: |f| match f {
             Family::WeldedBox { width_over_depth, .. }
             | Family::ConcreteRect { width_over_depth, .. }
+            | Family::ConcreteBox { width_over_depth, .. }
             | Family::GlulamRect { width_over_depth } => Some(*width_over_depth),
             _ => None,
         },
         set: |f, v| match f {
             Family::WeldedBox { width_over_depth, .. }
             | Family::ConcreteRect { width_over_depth, .. }
+            | Family::ConcreteBox { width_over_depth, .. }
             | Family::GlulamRect { width_over_depth } => *width_over_depth = v,
             _ => {}
         },
@@ -721,20 +723,36 @@ const FAMILY_RATIOS: [FamilyRatio; 7] = [
         range: (0.0, 1000.0),
     },
     FamilyRatio {
-        label: "Reinforcement, A_s / A_c",
-        key: "reinforcement",
+        label: "Walls / depth",
+        key: "wall-over-depth",
         quantity: Quantity::Ratio,
         get: |f| {
-            if let Family::ConcreteRect { reinforcement_ratio, .. } = f {
-                Some(*reinforcement_ratio)
+            if let Family::ConcreteBox { wall_over_depth, .. } = f {
+                Some(*wall_over_depth)
             } else {
                 None
             }
         },
         set: |f, v| {
-            if let Family::ConcreteRect { reinforcement_ratio, .. } = f {
-                *reinforcement_ratio = v;
+            if let Family::ConcreteBox { wall_over_depth, .. } = f {
+                *wall_over_depth = v;
             }
+        },
+        range: (0.0, 0.5),
+    },
+    FamilyRatio {
+        label: "Reinforcement, A_s / A_c",
+        key: "reinforcement",
+        quantity: Quantity::Ratio,
+        get: |f| match f {
+            Family::ConcreteRect { reinforcement_ratio, .. }
+            | Family::ConcreteBox { reinforcement_ratio, .. } => Some(*reinforcement_ratio),
+            _ => None,
+        },
+        set: |f, v| match f {
+            Family::ConcreteRect { reinforcement_ratio, .. }
+            | Family::ConcreteBox { reinforcement_ratio, .. } => *reinforcement_ratio = v,
+            _ => {}
         },
         range: (0.0, 1.0),
     },
@@ -742,11 +760,13 @@ const FAMILY_RATIOS: [FamilyRatio; 7] = [
         label: "Cover to bar centres",
         key: "cover",
         quantity: Quantity::SectionDepth,
-        get: |f| if let Family::ConcreteRect { cover, .. } = f { Some(*cover) } else { None },
-        set: |f, v| {
-            if let Family::ConcreteRect { cover, .. } = f {
-                *cover = v;
-            }
+        get: |f| match f {
+            Family::ConcreteRect { cover, .. } | Family::ConcreteBox { cover, .. } => Some(*cover),
+            _ => None,
+        },
+        set: |f, v| match f {
+            Family::ConcreteRect { cover, .. } | Family::ConcreteBox { cover, .. } => *cover = v,
+            _ => {}
         },
         range: (0.0, 10.0),
     },
@@ -984,6 +1004,19 @@ mod tests {
         assert!(matches!(rib.family, Some(Family::ConcreteRect { .. })));
         assert_eq!(rib.material, preset("c30-37"));
         assert_eq!(family_key(rib.family.as_ref().expect("family")), "concrete");
+        // the concrete box keeps the concrete material, and takes its preset's ratios
+        choose_family(&mut rib, "concrete-box");
+        assert_eq!(
+            rib.family,
+            Some(Family::ConcreteBox {
+                width_over_depth: 2.0,
+                wall_over_depth: 0.12,
+                reinforcement_ratio: 0.015,
+                cover: 0.07
+            })
+        );
+        assert_eq!(rib.material, preset("c30-37"));
+        assert_eq!(family_key(rib.family.as_ref().expect("family")), "concrete-box");
         // as typed keeps the material the typed section is checked as
         choose_family(&mut rib, AS_TYPED);
         assert_eq!((rib.family, rib.material.clone()), (None, preset("c30-37")));
@@ -1022,6 +1055,7 @@ mod tests {
                 "shs" => &["b-over-t"],
                 "box" => &["width-over-depth", "flange-ratio", "web-ratio"],
                 "concrete" => &["width-over-depth", "reinforcement", "cover"],
+                "concrete-box" => &["width-over-depth", "wall-over-depth", "reinforcement", "cover"],
                 "glulam" => &["width-over-depth"],
                 other => panic!("a family preset {other} without its ratios listed here"),
             };

@@ -13,7 +13,7 @@
 //! | 3 | `traffic` added (carriageway, rib positions, load model, combinations); a version-2 design gets EN 1991-2 Load Model 1 over its whole deck width (`TrafficDesign::for_deck_width`) |
 //! | 4 | `actions` added (temperature, springing movement, deflection limit) and the combinations' `temperature`, `settlement`, `braking` factors; a version-3 design gets its load model family's presets (`ActionsDesign::preset`, `Combination::add_action_factors`, EN's gr2 added) |
 //! | 5 | `sizing` added (each group's family and material or as typed, the deck's cross-section, unit rates, foundation inputs); a version-4 design keeps every group as typed, checked as the material its E suggests (`SizingDesign::as_typed`), and counts its typed deck dead load |
-//! | 6 | `form.basis` added (`panel_loads` or `as_built`: what the form is found for); a version-5 design keeps `panel_loads` |
+//! | 6 | `form.basis` added (`panel_loads` or `as_built`: what the form is found for); a version-5 design keeps `panel_loads`; the concrete box family (`concrete_box`) added, which no earlier design has |
 //!
 //! # Reading ([`read_design_json`])
 //!

@@ -399,7 +399,8 @@ mod tests {
     use crate::arch::design::{Bracing, Crown, GroundPoint, RibSystem, DEFAULT_ABUTMENT_HEIGHT};
     use crate::arch::sizing::SizingDesign;
     use crate::link::sections::{
-        TAG_ABUTMENT, TAG_ACTIONS, TAG_FORM_BASIS, TAG_RESERVED_FOR_TESTS, TAG_SIZING, TAG_TRAFFIC,
+        TAG_ABUTMENT, TAG_ACTIONS, TAG_ADDED_FAMILIES, TAG_FORM_BASIS, TAG_RESERVED_FOR_TESTS, TAG_SIZING,
+        TAG_TRAFFIC,
     };
     use crate::traffic::models::{LoadModel, ModelFamily};
     use crate::traffic::TrafficDesign;
@@ -482,6 +483,28 @@ mod tests {
         assert_eq!(opened.traffic.rib_positions, [-3.5, 3.5]);
         assert!(matches!(opened.traffic.load_model, LoadModel::Hl93(_)));
         assert_eq!(opened, hl93);
+    }
+
+    /// A concrete box rib (a family section 4 cannot hold) comes back from its link whole:
+    /// section 6 carries it.
+    #[test]
+    fn a_concrete_box_rib_round_trips_through_a_link() {
+        use crate::arch::sizing::GroupSizing;
+        use crate::sizing::materials::material_preset;
+        use crate::sizing::sections::Family;
+        let mut d = Design::demo();
+        d.sizing.rib = GroupSizing::sized(
+            Family::ConcreteBox {
+                width_over_depth: 2.0,
+                wall_over_depth: 0.12,
+                reinforcement_ratio: 0.015,
+                cover: 0.07,
+            },
+            material_preset("c50-60").expect("preset"),
+        );
+        let opened = decode(&encode(&d)).expect("opens");
+        assert_eq!(opened.sizing.rib, d.sizing.rib);
+        assert_eq!(opened, d);
     }
 
     #[test]
@@ -740,7 +763,7 @@ mod tests {
 
     /// The sections the later version knows: every shipped one, then its new one.
     fn later_kinds() -> Vec<SectionKind<Later>> {
-        assert_eq!(SECTIONS.len(), 5, "list every shipped section here");
+        assert_eq!(SECTIONS.len(), 6, "list every shipped section here");
         vec![
             SectionKind {
                 tag: TAG_ABUTMENT,
@@ -766,6 +789,11 @@ mod tests {
                 tag: TAG_FORM_BASIS,
                 write: shipped_write::<TAG_FORM_BASIS>,
                 read: shipped_read::<TAG_FORM_BASIS>,
+            },
+            SectionKind {
+                tag: TAG_ADDED_FAMILIES,
+                write: shipped_write::<TAG_ADDED_FAMILIES>,
+                read: shipped_read::<TAG_ADDED_FAMILIES>,
             },
             SectionKind { tag: TAG_RESERVED_FOR_TESTS, write: later_write, read: later_read },
         ]

@@ -8,6 +8,7 @@
 //! | 3 | 4 | the other actions (temperature, springing movement, deflection limit) and the combinations' factors of them |
 //! | 4 | 5 | the sizing: each group's family, material and buckling length factor, the rib's out-of-plane length, the deck's cross-section, unit rates, foundation inputs |
 //! | 5 | 6 | the form-finding basis (panel loads or as built) |
+//! | 6 | 6 | the families added in design format 6 (the concrete box), per group; section 4's frozen family cannot hold them, so it carries no family for such a group |
 //!
 //! A section on the wire is its tag (a varint) and its body: the postcard bytes of the
 //! section's struct, length-prefixed. Each section struct is FROZEN once shipped, like the
@@ -70,6 +71,8 @@ pub(super) const TAG_ACTIONS: u32 = 3;
 pub(super) const TAG_SIZING: u32 = 4;
 /// The form-finding basis (design format 6).
 pub(super) const TAG_FORM_BASIS: u32 = 5;
+/// The section families added in design format 6 (design format 6).
+pub(super) const TAG_ADDED_FAMILIES: u32 = 6;
 /// A tag no shipped section has: the tests use it for a section of a "later version".
 #[cfg(test)]
 pub(super) const TAG_RESERVED_FOR_TESTS: u32 = 9_999;
@@ -81,6 +84,7 @@ pub(super) const SECTIONS: &[SectionKind<Design>] = &[
     SectionKind { tag: TAG_ACTIONS, write: actions::write, read: actions::read },
     SectionKind { tag: TAG_SIZING, write: sizing::write, read: sizing::read },
     SectionKind { tag: TAG_FORM_BASIS, write: form_basis::write, read: form_basis::read },
+    SectionKind { tag: TAG_ADDED_FAMILIES, write: added_families::write, read: added_families::read },
 ];
 
 /// The sections of a target, one per kind, in the order of `kinds` (tags ascending).
@@ -175,6 +179,82 @@ mod form_basis {
             FormBasisV1::AsBuilt => Basis::AsBuilt,
         };
         Ok(())
+    }
+}
+
+/// Section 6 (design format 6): the section families added in design format 6, the
+/// concrete box, one optional family per group. Section 4's frozen `FamilyV1` has no
+/// variant for them: its writer writes no family for such a group, and this section
+/// carries it (read after section 4, over the `None` it gave). A group whose family
+/// section 4 carries has `None` here; a link with a family for a group in both is refused
+/// as damaged (no writer makes one). A family added later goes in a section of its own.
+mod added_families {
+    use super::*;
+    use crate::arch::sizing::{GroupSizing, SizingDesign};
+    use crate::sizing::sections::Family;
+
+    /// FROZEN: a concrete box: width/depth, wall/depth, reinforcement ratio, cover (m).
+    #[derive(Serialize, Deserialize)]
+    struct ConcreteBoxV1(f64, f64, f64, f64);
+
+    /// FROZEN: links hold this layout; each group's concrete box, if it has one.
+    #[derive(Serialize, Deserialize)]
+    struct AddedFamiliesV1 {
+        rib: Option<ConcreteBoxV1>,
+        deck: Option<ConcreteBoxV1>,
+        posts: Option<ConcreteBoxV1>,
+        piers: Option<ConcreteBoxV1>,
+        bracing: Option<ConcreteBoxV1>,
+    }
+
+    fn box_out(g: &GroupSizing) -> Option<ConcreteBoxV1> {
+        match g.family? {
+            Family::ConcreteBox { width_over_depth, wall_over_depth, reinforcement_ratio, cover } => {
+                Some(ConcreteBoxV1(width_over_depth, wall_over_depth, reinforcement_ratio, cover))
+            }
+            Family::Chs { .. }
+            | Family::Shs { .. }
+            | Family::WeldedBox { .. }
+            | Family::ConcreteRect { .. }
+            | Family::GlulamRect { .. } => None,
+        }
+    }
+
+    /// Sets a group's box over the `None` section 4 gave it.
+    fn box_in(b: Option<ConcreteBoxV1>, g: &mut GroupSizing, group: &str) -> Result<(), LinkError> {
+        let Some(ConcreteBoxV1(width_over_depth, wall_over_depth, reinforcement_ratio, cover)) = b else {
+            return Ok(());
+        };
+        if g.family.is_some() {
+            return Err(LinkError::DamagedSection {
+                tag: TAG_ADDED_FAMILIES,
+                detail: format!("the {group} has a family in the sizing section too"),
+            });
+        }
+        g.family =
+            Some(Family::ConcreteBox { width_over_depth, wall_over_depth, reinforcement_ratio, cover });
+        Ok(())
+    }
+
+    pub(super) fn write(d: &Design) -> Vec<u8> {
+        let SizingDesign { rib, deck, posts, piers, bracing, .. } = &d.sizing;
+        body(&AddedFamiliesV1 {
+            rib: box_out(rib),
+            deck: box_out(deck),
+            posts: box_out(posts),
+            piers: box_out(piers),
+            bracing: box_out(bracing),
+        })
+    }
+
+    pub(super) fn read(bytes: &[u8], d: &mut Design) -> Result<(), LinkError> {
+        let AddedFamiliesV1 { rib, deck, posts, piers, bracing } = frozen(TAG_ADDED_FAMILIES, bytes)?;
+        let s = &mut d.sizing;
+        box_in(rib, &mut s.rib, "rib")?;
+        box_in(deck, &mut s.deck, "deck")?;
+        box_in(posts, &mut s.posts, "posts")?;
+        box_in(piers, &mut s.piers, "piers")?;
+        box_in(bracing, &mut s.bracing, "bracing")
     }
 }
 
@@ -633,7 +713,10 @@ mod actions {
 
 /// Section 4 (design format 5): the sizing. A link without it opens with every group as
 /// typed (`SizingDesign::as_typed`, set by the core). Materials travel whole (a preset's
-/// name is text like any other: a user may have edited its values).
+/// name is text like any other: a user may have edited its values). The frozen
+/// `FamilyV1` holds the families of design format 5 only: for a group of a later family
+/// (the concrete box) this section writes no family (`None`, as typed) and section 6
+/// (`added_families`) carries it.
 mod sizing {
     use super::*;
     use crate::arch::sizing::{
@@ -653,7 +736,8 @@ mod sizing {
         Glulam(String, f64, f64, f64, f64, f64, f64, f64, f64),
     }
 
-    /// FROZEN: a section family.
+    /// FROZEN: a section family of design format 5 (a later family travels in section
+    /// 6; here its group has no family).
     #[derive(Serialize, Deserialize)]
     enum FamilyV1 {
         Chs(f64),
@@ -760,8 +844,10 @@ mod sizing {
         }
     }
 
-    fn family_out(f: &Family) -> FamilyV1 {
-        match *f {
+    /// The frozen family, or `None` for a family this section cannot hold (section 6
+    /// carries it).
+    fn family_out(f: &Family) -> Option<FamilyV1> {
+        Some(match *f {
             Family::Chs { d_over_t } => FamilyV1::Chs(d_over_t),
             Family::Shs { b_over_t } => FamilyV1::Shs(b_over_t),
             Family::WeldedBox { width_over_depth, flange_ratio, web_ratio } => {
@@ -771,7 +857,8 @@ mod sizing {
                 FamilyV1::ConcreteRect(width_over_depth, reinforcement_ratio, cover)
             }
             Family::GlulamRect { width_over_depth } => FamilyV1::GlulamRect(width_over_depth),
-        }
+            Family::ConcreteBox { .. } => return None,
+        })
     }
 
     fn family_in(f: FamilyV1) -> Family {
@@ -801,7 +888,7 @@ mod sizing {
             foundation,
         } = &d.sizing;
         let group = |g: &GroupSizing| GroupV1 {
-            family: g.family.as_ref().map(family_out),
+            family: g.family.as_ref().and_then(family_out),
             material: material_out(&g.material),
             length_factor: g.length_factor,
         };
@@ -957,7 +1044,7 @@ mod tests {
             let sections = write_all(SECTIONS, &d);
             assert_eq!(
                 sections.iter().map(|s| s.tag).collect::<Vec<_>>(),
-                [TAG_ABUTMENT, TAG_TRAFFIC, TAG_ACTIONS, TAG_SIZING, TAG_FORM_BASIS]
+                [TAG_ABUTMENT, TAG_TRAFFIC, TAG_ACTIONS, TAG_SIZING, TAG_FORM_BASIS, TAG_ADDED_FAMILIES]
             );
             let mut back = Design::demo();
             read_all(&sections, SECTIONS, &mut back).expect("reads");
@@ -979,6 +1066,60 @@ mod tests {
         assert_eq!(
             back.actions,
             crate::arch::actions::ActionsDesign::preset(crate::traffic::models::ModelFamily::Hl93)
+        );
+    }
+
+    /// A concrete box rib and piers travel in section 6 (section 4 carries no family for
+    /// them, and the other groups' families as before); a box in both is refused.
+    #[test]
+    fn concrete_boxes_travel_in_the_added_families_section() {
+        use crate::arch::sizing::GroupSizing;
+        use crate::sizing::materials::material_preset;
+        use crate::sizing::sections::Family;
+        let concrete = material_preset("c50-60").expect("preset");
+        let rib_box = Family::ConcreteBox {
+            width_over_depth: 1.8,
+            wall_over_depth: 0.11,
+            reinforcement_ratio: 0.012,
+            cover: 0.065,
+        };
+        let pier_box = Family::ConcreteBox {
+            width_over_depth: 0.9,
+            wall_over_depth: 0.15,
+            reinforcement_ratio: 0.02,
+            cover: 0.05,
+        };
+        let mut d = Design::demo();
+        d.sizing.rib = GroupSizing::sized(rib_box, concrete.clone());
+        d.sizing.piers = GroupSizing::sized(pier_box, concrete);
+        d.sizing.posts.family = Some(Family::Chs { d_over_t: 33.0 });
+        let sections = write_all(SECTIONS, &d);
+        let mut back = Design::demo();
+        read_all(&sections, SECTIONS, &mut back).expect("reads");
+        assert_eq!(back.sizing, d.sizing);
+        assert_eq!(back, d);
+        // without section 6 (as a reader of section 4 alone sees it): the boxes' groups as
+        // typed, their material kept; the CHS posts travel in section 4
+        let mut without = Design::demo();
+        let four: Vec<RawSection> =
+            sections.iter().filter(|s| s.tag != TAG_ADDED_FAMILIES).cloned().collect();
+        read_all(&four, SECTIONS, &mut without).expect("reads");
+        assert_eq!(without.sizing.rib.family, None);
+        assert_eq!(without.sizing.rib.material, d.sizing.rib.material);
+        assert_eq!(without.sizing.piers.family, None);
+        assert_eq!(without.sizing.posts.family, Some(Family::Chs { d_over_t: 33.0 }));
+        // a demo (no box) writes five `None`s: one byte each
+        assert_eq!(added_families::write(&Design::demo()), [0; 5]);
+        // a box for a group whose family section 4 carries: damaged
+        let mut both = Design::demo();
+        both.sizing.posts = d.sizing.rib.clone();
+        let mut sections = write_all(SECTIONS, &Design::demo());
+        let last = sections.len() - 1;
+        sections[last].body = added_families::write(&both);
+        let e = read_all(&sections, SECTIONS, &mut Design::demo());
+        assert!(
+            matches!(&e, Err(LinkError::DamagedSection { tag: TAG_ADDED_FAMILIES, detail }) if detail.contains("posts")),
+            "{e:?}"
         );
     }
 

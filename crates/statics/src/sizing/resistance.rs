@@ -22,7 +22,9 @@
 //!   (conservative); lateral-torsional buckling of deep glulam in bending (6.3.3) is not
 //!   checked.
 //! - Reinforced concrete (EN 1992-1-1): the N-M interaction diagram of the symmetric
-//!   rectangle (rectangular stress block 3.1.7(3), lambda = 0.8, eta = 1, eps_cu3 = 3.5
+//!   rectangle, or of the box as the rectangle less its centred void (the block's force
+//!   over the compressed depth less the void's share of it, the bars as in the
+//!   rectangle) (rectangular stress block 3.1.7(3), lambda = 0.8, eta = 1, eps_cu3 = 3.5
 //!   per mille up to C50/60 and the Table 3.1 values above it, the whole-section
 //!   compression pivot at eps_c3 (6.1(5)); steel elastic-perfectly plastic at f_yd with
 //!   E_s = 200 GPa (3.2.7); the concrete the bars displace not deducted (common
@@ -30,8 +32,8 @@
 //!   second order, `buckling::concrete_second_order`) lies along the ray from the origin
 //!   relative to the diagram's boundary. In tension the same diagram leaves the steel
 //!   alone. Out of the arch plane the same rule with the out-of-plane length and the
-//!   section turned (the width as depth, the bars still half at each face: a rib's bars
-//!   run round its perimeter), with no first-order moment.
+//!   section turned (the width as depth, the box's void turned too, the bars still half
+//!   at each face: a rib's bars run round its perimeter), with no first-order moment.
 //!
 //! The demand's moment is taken with the largest tension (or, without tension, with no
 //! axial force: the Bending mode) and with the largest compression, conservatively, since
@@ -360,8 +362,9 @@ struct Fields {
 ///
 /// Err with a reason when the material or family has invalid values, the family does not
 /// suit the material, the demand is negative or not a number, a buckling length is not
-/// above zero, the section's properties are not above zero, or a concrete section's cover
-/// reaches a quarter of its depth or width.
+/// above zero, the section's properties are not above zero, a concrete section's cover
+/// reaches a quarter of its depth or width, or a concrete box's walls are missing, fill
+/// it, or hold its cover outside their outer half.
 pub fn check(
     material: &Material,
     family: &Family,
@@ -374,7 +377,11 @@ pub fn check(
         (Material::Steel(steel), _) => Ok(check_steel(steel, family, material, props, demand, lengths)),
         (Material::Glulam(glulam), _) => Ok(check_glulam(glulam, props, demand, lengths)),
         (Material::Concrete(concrete), Family::ConcreteRect { cover, .. }) => {
-            check_concrete(concrete, *cover, props, demand, lengths)
+            check_concrete(concrete, *cover, None, props, demand, lengths)
+        }
+        (Material::Concrete(concrete), Family::ConcreteBox { cover, .. }) => {
+            let void = box_void(*cover, props)?;
+            check_concrete(concrete, *cover, Some(void), props, demand, lengths)
         }
         (Material::Concrete(_), _) => Err(format!("a {} cannot be made of concrete", family.name())),
     }
@@ -510,15 +517,54 @@ fn check_glulam(glulam: &Glulam, props: &SectionProps, demand: &Demand, lengths:
     )
 }
 
-/// A symmetrically reinforced concrete rectangle bent about one axis, with the design
-/// values of EN 1992-1-1 for its N-M interaction diagram. Compression positive; a
-/// positive moment compresses the face at y = 0.
+/// A rectangular hole centred in a concrete section, m.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Void {
+    /// Its depth in the direction of bending, m.
+    pub depth: f64,
+    /// Its width, m.
+    pub width: f64,
+}
+
+/// The void of a concrete box section checked in the arch plane, from its wall thickness
+/// (`SectionProps::thickness`): the outer depth and width less two walls each. Err when
+/// the section gives no wall, the walls fill it, or the cover to the bar centres reaches
+/// half the wall (the bars sit in the walls' outer halves).
+fn box_void(cover: f64, props: &SectionProps) -> Result<Void, String> {
+    let Some(t) = props.thickness.filter(|t| t.is_finite() && *t > 0.0) else {
+        return Err("a concrete box section needs its wall thickness above zero".into());
+    };
+    let void = Void { depth: props.depth - 2.0 * t, width: props.width - 2.0 * t };
+    if void.depth <= 0.0 || void.width <= 0.0 {
+        return Err(format!(
+            "the box's {:.0} mm walls fill its {:.0} x {:.0} mm section",
+            t * 1000.0,
+            props.depth * 1000.0,
+            props.width * 1000.0
+        ));
+    }
+    if cover >= t / 2.0 {
+        return Err(format!(
+            "the cover to the bar centres ({:.0} mm) must stay below half the box's wall ({:.0} mm)",
+            cover * 1000.0,
+            t * 1000.0
+        ));
+    }
+    Ok(void)
+}
+
+/// A symmetrically reinforced concrete rectangle, solid or with a centred rectangular
+/// void (a box), bent about one axis, with the design values of EN 1992-1-1 for its N-M
+/// interaction diagram. Compression positive; a positive moment compresses the face at
+/// y = 0.
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub struct RcRectangle {
     /// Depth in the direction of bending, m.
     pub depth: f64,
     /// Width, m.
     pub width: f64,
+    /// The centred void of a box (`None`: solid).
+    pub void: Option<Void>,
     /// Total reinforcement, m2, half at each face.
     pub steel_area: f64,
     /// Distance from each face to its bars' centres, m.
@@ -549,6 +595,7 @@ impl RcRectangle {
         RcRectangle {
             depth,
             width,
+            void: None,
             steel_area,
             cover,
             block_stress: eta * concrete.alpha_cc * concrete.fck / concrete.gamma_c,
@@ -563,10 +610,21 @@ impl RcRectangle {
         }
     }
 
+    /// The same section with a centred rectangular `void` (a box: the void's depth in the
+    /// direction of bending, its width across), m. A void of zero depth or width leaves
+    /// the solid rectangle's diagram exactly. Degenerate: a void reaching the outer faces
+    /// gives a diagram without the walls it removes (callers check the walls first).
+    pub fn with_void(self, void: Void) -> RcRectangle {
+        RcRectangle { void: Some(void), ..self }
+    }
+
     /// The resistance (N kN, M kNm) for the neutral axis at depth `x` (m) from the
     /// compressed face; `x` = infinity is the whole section at eps_c3. For x <= h the
     /// compressed face is at eps_cu3; for x > h the strain line turns about the pivot at
-    /// depth h (1 - eps_c3 / eps_cu3) at eps_c3 (EN 1992-1-1 6.1(5), Figure 6.1).
+    /// depth h (1 - eps_c3 / eps_cu3) at eps_c3 (EN 1992-1-1 6.1(5), Figure 6.1). The
+    /// block is the compressed depth lambda x (at most h) over the whole width, less, for a
+    /// box, the part of the void it covers: the void's width over the depth from the
+    /// void's top to the block's edge, acting at that strip's middle.
     pub fn resistance_at(&self, x: f64) -> (f64, f64) {
         let h = self.depth;
         let strain = |y: f64| -> f64 {
@@ -583,6 +641,15 @@ impl RcRectangle {
         let concrete = self.block_stress * self.width * block;
         let mut n = concrete;
         let mut m = concrete * (h / 2.0 - block / 2.0);
+        if let Some(void) = self.void {
+            let top = (h - void.depth) / 2.0;
+            let covered = block.min(top + void.depth) - top;
+            if covered > 0.0 {
+                let lost = self.block_stress * void.width * covered;
+                n -= lost;
+                m -= lost * (h / 2.0 - (top + covered / 2.0));
+            }
+        }
         for y in [self.cover, h - self.cover] {
             let stress = (super::buckling::REBAR_E * strain(y)).clamp(-self.f_yd, self.f_yd);
             let force = stress * self.steel_area / 2.0;
@@ -641,9 +708,12 @@ impl RcRectangle {
     }
 }
 
+/// The concrete rules of this module's doc for the rectangle of `props`, less the centred
+/// `void` (in the arch plane) for a box.
 fn check_concrete(
     concrete: &Concrete,
     cover: f64,
+    void: Option<Void>,
     props: &SectionProps,
     demand: &Demand,
     lengths: &Lengths,
@@ -658,8 +728,12 @@ fn check_concrete(
         ));
     }
     let steel_area = props.steel_area_rebar.unwrap_or(0.0);
-    let in_plane = RcRectangle::new(concrete, props.depth, props.width, steel_area, cover);
-    let turned = RcRectangle::new(concrete, props.width, props.depth, steel_area, cover);
+    let mut in_plane = RcRectangle::new(concrete, props.depth, props.width, steel_area, cover);
+    let mut turned = RcRectangle::new(concrete, props.width, props.depth, steel_area, cover);
+    if let Some(void) = void {
+        in_plane = in_plane.with_void(void);
+        turned = turned.with_void(Void { depth: void.width, width: void.depth });
+    }
     let (n, m) = (demand.compression, demand.moment);
 
     let mut modes = Vec::new();
@@ -686,7 +760,7 @@ fn check_concrete(
         modes.push((Mode::OutOfPlaneBuckling, turned.utilisation(n, second_out.moment)));
     }
     let rule = format!(
-        "EN 1992-1-1, {}: N-M interaction diagram of the symmetric rectangle (3.1.7(3) stress block, lambda {:.2}, \
+        "EN 1992-1-1, {}: N-M interaction diagram of {} (3.1.7(3) stress block, lambda {:.2}, \
          eta {:.2}, eps_cu3 {:.2} per mille; steel elastic-perfectly plastic at f_yd; 6.1), utilisation along the \
          ray from the origin; with compression the moment M + N e_i, e_i = l0/400 (5.2(7)), at least N max(h/30, \
          20 mm) (6.1(4)), plus N e2 by nominal curvature (5.8.8, K_r = 1, K_phi = 1: creep not included, c = 10, \
@@ -694,6 +768,7 @@ fn check_concrete(
          the plane the same rule on the turned section with its own length; tension on the bars alone; the \
          moment taken with either axial force",
         concrete.name,
+        if void.is_some() { "the symmetric box, the rectangle less its centred void" } else { "the symmetric rectangle" },
         in_plane.block_depth,
         in_plane.block_stress / (concrete.alpha_cc * concrete.fck / concrete.gamma_c),
         in_plane.eps_cu3 * 1000.0
@@ -805,6 +880,86 @@ mod tests {
                 assert!(last.abs() < 1e-12);
             }
         }
+    }
+
+    #[test]
+    fn box_diagram_angle_falls_monotonically() {
+        // as above, for boxes from thin walls to thick ones, each way round
+        let Material::Concrete(mut c) = preset("c50-60") else { panic!("concrete") };
+        for fck in [30e3, 50e3, 90e3] {
+            c.fck = fck;
+            for (depth, width, wall) in [(2.0, 4.0, 0.15), (4.0, 2.0, 0.15), (2.0, 2.0, 0.6), (1.2, 2.4, 0.2)]
+            {
+                for (rho, cover) in [(0.002, 0.05), (0.04, 0.05), (0.04, wall / 2.0 - 0.01)] {
+                    let area = depth * width - (depth - 2.0 * wall) * (width - 2.0 * wall);
+                    let section = RcRectangle::new(&c, depth, width, rho * area, cover)
+                        .with_void(Void { depth: depth - 2.0 * wall, width: width - 2.0 * wall });
+                    let mut last = std::f64::consts::PI;
+                    for k in 1..=2000 {
+                        let (n, m) = section.boundary(k as f64 / 1000.0);
+                        let angle = m.atan2(n);
+                        assert!(angle <= last + 1e-12, "fck {fck}, {depth} x {width} t {wall}, rho {rho}");
+                        last = angle;
+                    }
+                    assert!(last.abs() < 1e-12);
+                }
+            }
+        }
+    }
+
+    #[test]
+    fn a_void_of_no_width_or_depth_leaves_the_rectangle() {
+        let Material::Concrete(c) = preset("c40-50") else { panic!("concrete") };
+        let solid = RcRectangle::new(&c, 2.0, 3.0, 0.03, 0.1);
+        let no_width = solid.with_void(Void { depth: 1.4, width: 0.0 });
+        let no_depth = solid.with_void(Void { depth: 0.0, width: 2.4 });
+        let hairline = solid.with_void(Void { depth: 1.4, width: 1e-12 });
+        for k in 0..=400 {
+            let p = k as f64 / 200.0;
+            let (n, m) = solid.boundary(p);
+            assert_eq!(no_width.boundary(p), (n, m), "p {p}");
+            assert_eq!(no_depth.boundary(p), (n, m), "p {p}");
+            let (nh, mh) = hairline.boundary(p);
+            assert!((nh - n).abs() < 1e-6 && (mh - m).abs() < 1e-6, "p {p}");
+        }
+        assert_eq!(no_width.utilisation(30_000.0, 8_000.0), solid.utilisation(30_000.0, 8_000.0));
+    }
+
+    #[test]
+    fn a_concrete_box_is_checked_with_its_void_both_ways() {
+        let Material::Concrete(c) = preset("c40-50") else { panic!("concrete") };
+        let family = Family::ConcreteBox {
+            width_over_depth: 1.5,
+            wall_over_depth: 0.15,
+            reinforcement_ratio: 0.01,
+            cover: 0.07,
+        };
+        // 2000 x 3000, walls 300 mm: void 1400 x 2400
+        let props = family.props(2.0);
+        let demand = Demand { tension: 0.0, compression: 16_000.0, moment: 10_000.0, least_compression: 0.0 };
+        let lengths = Lengths { in_plane: 10.0, out_of_plane: 10.0 };
+        let checked =
+            check(&Material::Concrete(c.clone()), &family, &props, &demand, &lengths).expect("checks");
+        let steel = props.steel_area_rebar.unwrap_or(0.0);
+        let in_plane = RcRectangle::new(&c, 2.0, 3.0, steel, 0.07).with_void(Void { depth: 1.4, width: 2.4 });
+        let turned = RcRectangle::new(&c, 3.0, 2.0, steel, 0.07).with_void(Void { depth: 2.4, width: 1.4 });
+        // no second order at l0 = 10 m (lambda 13.5 and 9.6 below the limit): M + N l0/400
+        // in plane, N max(b/30, 20 mm) = 16 000 x 0.1 out of it
+        assert!((checked.design_moment - 10_400.0).abs() < 1e-9, "{}", checked.design_moment);
+        assert_eq!(mode_of(&checked, Mode::Interaction), in_plane.utilisation(16_000.0, 10_400.0));
+        assert_eq!(mode_of(&checked, Mode::OutOfPlaneBuckling), turned.utilisation(16_000.0, 1_600.0));
+        assert_eq!(mode_of(&checked, Mode::Bending), in_plane.utilisation(0.0, 10_000.0));
+        assert!(checked.rule.contains("the symmetric box"), "{}", checked.rule);
+        // the solid rectangle of the same outline carries more
+        let rect = Family::ConcreteRect { width_over_depth: 1.5, reinforcement_ratio: 0.01, cover: 0.07 };
+        let solid =
+            check(&Material::Concrete(c), &rect, &rect.props(2.0), &demand, &lengths).expect("checks");
+        assert!(solid.utilisation < checked.utilisation, "{} {}", solid.utilisation, checked.utilisation);
+        assert!(solid.rule.contains("the symmetric rectangle"), "{}", solid.rule);
+        // a hand-made box section whose cover reaches half its wall is refused
+        let thin = SectionProps { thickness: Some(0.14), ..props };
+        let err = check(&preset("c40-50"), &family, &thin, &demand, &lengths).expect_err("cover in the wall");
+        assert!(err.contains("half the box's wall"), "{err}");
     }
 
     #[test]

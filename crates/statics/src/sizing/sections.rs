@@ -43,6 +43,22 @@ pub enum Family {
         /// Distance from a face to the centres of its bars, m.
         cover: f64,
     },
+    /// Hollow reinforced-concrete box rib, size = outer depth h (in the arch plane); outer
+    /// width b = width_over_depth * h; every wall (top and bottom slabs, both webs) t =
+    /// wall_over_depth * h rounded up to whole 10 mm (concrete dimensions step by 10 mm:
+    /// common practice); total longitudinal reinforcement ratio rho (A_s / A_c of the
+    /// concrete the walls hold, half at each face in the arch plane), cover to bar centres
+    /// `cover` m.
+    ConcreteBox {
+        /// Outer width / outer depth.
+        width_over_depth: f64,
+        /// Wall thickness / outer depth (before rounding up to whole 10 mm).
+        wall_over_depth: f64,
+        /// A_s / A_c, total.
+        reinforcement_ratio: f64,
+        /// Distance from an outer face to the centres of its bars, m.
+        cover: f64,
+    },
     /// Glulam rectangle, size = depth h; width = width_over_depth * h.
     GlulamRect {
         /// Width / depth.
@@ -61,10 +77,10 @@ pub struct SectionProps {
     pub depth: f64,
     /// Outer width across the arch plane, m.
     pub width: f64,
-    /// Steel wall thickness (tubes) or flange thickness (welded box), m; `None` for solid
-    /// sections.
+    /// Steel wall thickness (tubes), flange thickness (welded box) or the concrete box's
+    /// wall thickness, m; `None` for solid sections.
     pub thickness: Option<f64>,
-    /// Area, m2 (the gross concrete area A_c for concrete).
+    /// Area, m2 (the gross concrete area A_c for concrete: the walls' for the box).
     pub a: f64,
     /// Second moment of area for bending in the arch plane, m4.
     pub i: f64,
@@ -90,6 +106,17 @@ const WHOLE_MM_SLACK: f64 = 1e-6;
 /// common practice).
 fn up_to_whole_mm(length: f64) -> f64 {
     (length * 1000.0 - WHOLE_MM_SLACK).ceil() / 1000.0
+}
+
+/// Slack, in 10 mm steps, under which a computed concrete wall is taken as already whole
+/// before rounding up (0.12 x 1.0 m is 120 mm give or take a few ulps): the same millionth
+/// of a mm as `WHOLE_MM_SLACK`.
+const WHOLE_10_MM_SLACK: f64 = WHOLE_MM_SLACK / 10.0;
+
+/// `length` (m) rounded up to whole 10 mm, m (concrete dimensions step by 10 mm: common
+/// practice).
+fn up_to_whole_10_mm(length: f64) -> f64 {
+    (length * 100.0 - WHOLE_10_MM_SLACK).ceil() / 100.0
 }
 
 /// `length` (m) in mm for a label: to 0.1 mm, without a trailing `.0` (`323.9`, `508`).
@@ -153,6 +180,18 @@ fn ratio_above(what: &str, value: f64, least: f64, why: &str) -> Result<(), Stri
     Ok(())
 }
 
+/// Refuses a total reinforcement ratio outside [0.002, 0.04] (EN 1992-1-1 9.5.2), or not
+/// a number.
+fn reinforcement_within_limits(ratio: f64) -> Result<(), String> {
+    if !(MIN_REINFORCEMENT_RATIO..=MAX_REINFORCEMENT_RATIO).contains(&ratio) {
+        return Err(format!(
+            "the reinforcement ratio A_s/A_c must lie within {MIN_REINFORCEMENT_RATIO} and \
+             {MAX_REINFORCEMENT_RATIO} (EN 1992-1-1 9.5.2; it is {ratio})"
+        ));
+    }
+    Ok(())
+}
+
 /// Least total reinforcement ratio A_s / A_c of a concrete rib: 0.002 (EN 1992-1-1
 /// 9.5.2(2), the 0.002 A_c floor of A_s,min).
 pub const MIN_REINFORCEMENT_RATIO: f64 = 0.002;
@@ -174,6 +213,9 @@ impl Family {
     /// - Concrete and glulam rectangles: the gross section b h, I = b h^3 / 12 (concrete:
     ///   uncracked, without the bars, as for analysis stiffness; A_s = rho b h in
     ///   `steel_area_rebar`).
+    /// - Concrete box: walls t = wall_over_depth h rounded up to whole 10 mm (`thickness`);
+    ///   the gross walls A_c = b h - (b - 2t)(h - 2t), I = (b h^3 - (b - 2t)(h - 2t)^3) /
+    ///   12 and likewise out of plane (uncracked, without the bars); A_s = rho A_c.
     ///
     /// Area, I and W grow with size along the family's grid. Degenerate: a size at or
     /// below zero, or ratios `check` refuses, give meaningless (possibly NaN) numbers;
@@ -213,11 +255,34 @@ impl Family {
                 let (i, i_out) = (b * h.powi(3) / 12.0, h * b.powi(3) / 12.0);
                 from_parts(size, h, b, None, a, i, i_out, Some(reinforcement_ratio * a))
             }
+            Family::ConcreteBox { width_over_depth, wall_over_depth, reinforcement_ratio, .. } => {
+                let (h, b) = (size, width_over_depth * size);
+                let t = up_to_whole_10_mm(wall_over_depth * h);
+                let (void_h, void_b) = (h - 2.0 * t, b - 2.0 * t);
+                let a = b * h - void_b * void_h;
+                let i = (b * h.powi(3) - void_b * void_h.powi(3)) / 12.0;
+                let i_out = (h * b.powi(3) - void_h * void_b.powi(3)) / 12.0;
+                from_parts(size, h, b, Some(t), a, i, i_out, Some(reinforcement_ratio * a))
+            }
             Family::GlulamRect { width_over_depth } => {
                 let (h, b) = (size, width_over_depth * size);
                 let (i, i_out) = (b * h.powi(3) / 12.0, h * b.powi(3) / 12.0);
                 from_parts(size, h, b, None, b * h, i, i_out, None)
             }
+        }
+    }
+
+    /// The concrete box's void at `size` as (depth in the arch plane, width across it), m:
+    /// the outer dimensions less two walls each way (`None` for other families). The void
+    /// is centred in the box.
+    pub fn void(&self, size: f64) -> Option<(f64, f64)> {
+        match *self {
+            Family::ConcreteBox { .. } => {
+                let p = self.props(size);
+                let t = p.thickness.unwrap_or(0.0);
+                Some((p.depth - 2.0 * t, p.width - 2.0 * t))
+            }
+            _ => None,
         }
     }
 
@@ -232,7 +297,8 @@ impl Family {
 
     /// The section in words, dimensions in mm: `CHS 323.9 x 10`, `SHS 300 x 300 x 10`,
     /// `box 1600 x 960 (t 28/18)` (depth x width, flange/web thickness), `concrete 1500 x
-    /// 900` and `glulam 1200 x 240` (depth x width).
+    /// 900` and `glulam 1200 x 240` (depth x width), `concrete box 5000 x 10000 (t 600)`
+    /// (depth x width, wall thickness).
     pub fn label(&self, size: f64) -> String {
         let p = self.props(size);
         let t = p.thickness.unwrap_or(0.0);
@@ -247,29 +313,33 @@ impl Family {
                 mm(self.web_thickness(size).unwrap_or(0.0))
             ),
             Family::ConcreteRect { .. } => format!("concrete {} x {}", mm(p.depth), mm(p.width)),
+            Family::ConcreteBox { .. } => {
+                format!("concrete box {} x {} (t {})", mm(p.depth), mm(p.width), mm(t))
+            }
             Family::GlulamRect { .. } => format!("glulam {} x {}", mm(p.depth), mm(p.width)),
         }
     }
 
     /// The family's name in words (`CHS`, `SHS`, `welded box`, `concrete rectangle`,
-    /// `glulam rectangle`).
+    /// `concrete box`, `glulam rectangle`).
     pub fn name(&self) -> &'static str {
         match self {
             Family::Chs { .. } => "CHS",
             Family::Shs { .. } => "SHS",
             Family::WeldedBox { .. } => "welded box",
             Family::ConcreteRect { .. } => "concrete rectangle",
+            Family::ConcreteBox { .. } => "concrete box",
             Family::GlulamRect { .. } => "glulam rectangle",
         }
     }
 
     /// Whether the family can be made of `material`: tubes and boxes of steel, the
-    /// concrete rectangle of concrete, the glulam rectangle of glulam.
+    /// concrete rectangle and box of concrete, the glulam rectangle of glulam.
     pub fn suits(&self, material: &Material) -> bool {
         matches!(
             (self, material),
             (Family::Chs { .. } | Family::Shs { .. } | Family::WeldedBox { .. }, Material::Steel(_))
-                | (Family::ConcreteRect { .. }, Material::Concrete(_))
+                | (Family::ConcreteRect { .. } | Family::ConcreteBox { .. }, Material::Concrete(_))
                 | (Family::GlulamRect { .. }, Material::Glulam(_))
         )
     }
@@ -278,7 +348,9 @@ impl Family {
     /// finite and above zero; walls that leave a hollow (CHS D/t above 2, SHS b/t above 4
     /// so the inner corners fit, a box whose flanges and webs leave a clear space at the
     /// smallest size tried); the concrete reinforcement ratio within [0.002, 0.04] (EN
-    /// 1992-1-1 9.5.2) and the cover below a quarter of the smallest depth tried. The
+    /// 1992-1-1 9.5.2) and the cover below a quarter of the smallest depth tried; the
+    /// concrete box's walls leaving a void at the smallest size tried (2t below both h and
+    /// b) and its cover below half the wall there (the bars sit within the walls). The
     /// slenderness class depends on the grade: `resistance` checks it.
     pub fn check(&self) -> Result<(), String> {
         let (smallest, _, _) = self.sizes();
@@ -307,12 +379,7 @@ impl Family {
             }
             Family::ConcreteRect { width_over_depth, reinforcement_ratio, cover } => {
                 ratio_above("concrete width/depth", width_over_depth, 0.0, "a rib has a width")?;
-                if !(MIN_REINFORCEMENT_RATIO..=MAX_REINFORCEMENT_RATIO).contains(&reinforcement_ratio) {
-                    return Err(format!(
-                        "the reinforcement ratio A_s/A_c must lie within {MIN_REINFORCEMENT_RATIO} and \
-                         {MAX_REINFORCEMENT_RATIO} (EN 1992-1-1 9.5.2; it is {reinforcement_ratio})"
-                    ));
-                }
+                reinforcement_within_limits(reinforcement_ratio)?;
                 ratio_above("cover to the bar centres", cover, 0.0, "bars sit inside the concrete")?;
                 if cover >= smallest / 4.0 {
                     return Err(format!(
@@ -321,6 +388,34 @@ impl Family {
                         mm(cover),
                         mm(smallest),
                         mm(smallest / 4.0)
+                    ));
+                }
+                Ok(())
+            }
+            Family::ConcreteBox { width_over_depth, wall_over_depth, reinforcement_ratio, cover } => {
+                ratio_above("concrete box width/depth", width_over_depth, 0.0, "a box has a width")?;
+                ratio_above("concrete box wall/depth", wall_over_depth, 0.0, "walls have a thickness")?;
+                reinforcement_within_limits(reinforcement_ratio)?;
+                ratio_above("cover to the bar centres", cover, 0.0, "bars sit inside the concrete")?;
+                let p = self.props(smallest);
+                let t = p.thickness.unwrap_or(0.0);
+                if 2.0 * t >= p.depth || 2.0 * t >= p.width {
+                    return Err(format!(
+                        "the box's walls fill it at the smallest depth tried, {} mm (walls {} mm, width {} mm): \
+                         lower the wall/depth ratio or raise the width/depth ratio",
+                        mm(smallest),
+                        mm(t),
+                        mm(p.width)
+                    ));
+                }
+                if cover >= t / 2.0 {
+                    return Err(format!(
+                        "the cover to the bar centres, {} mm, must stay below half the box's wall at the smallest \
+                         depth tried ({} mm walls at {} mm): below {} mm, or thicker walls",
+                        mm(cover),
+                        mm(t),
+                        mm(smallest),
+                        mm(t / 2.0)
                     ));
                 }
                 Ok(())
@@ -334,13 +429,17 @@ impl Family {
     /// The sizes tried, m: (smallest, largest, step). Steps are common practice: tubes by
     /// 10 mm, boxes and concrete by 50 mm, glulam by 40 mm (a lamination). Ranges (common
     /// practice; hot-finished tubes from memory of EN 10210-2's range): CHS 100-2000 mm,
-    /// SHS 50-500 mm, welded box 300-4000 mm, concrete 300-4000 mm, glulam 200-2400 mm.
+    /// SHS 50-500 mm, welded box 300-4000 mm, concrete 300-4000 mm, concrete box 1200-8000
+    /// mm by 100 mm (the long-span ribs it is for; from 1200 mm so that the preset's 0.12
+    /// walls, 150 mm there, hold its 70 mm cover within their outer half), glulam
+    /// 200-2400 mm.
     pub fn sizes(&self) -> (f64, f64, f64) {
         match self {
             Family::Chs { .. } => (0.10, 2.00, 0.010),
             Family::Shs { .. } => (0.05, 0.50, 0.010),
             Family::WeldedBox { .. } => (0.30, 4.00, 0.050),
             Family::ConcreteRect { .. } => (0.30, 4.00, 0.050),
+            Family::ConcreteBox { .. } => (1.20, 8.00, 0.100),
             Family::GlulamRect { .. } => (0.20, 2.40, 0.040),
         }
     }
@@ -355,7 +454,9 @@ impl Family {
 
     /// The family presets: (key, family). Keys are ours: `chs` (D/t 40), `shs` (b/t 25),
     /// `box` (width 0.6 of the depth, flange b/t_f 30, web h/t_w 30), `concrete` (square,
-    /// 2 % reinforcement, 60 mm to the bar centres) and `glulam` (width 0.4 of the depth).
+    /// 2 % reinforcement, 60 mm to the bar centres), `concrete-box` (width 2.0 x the depth,
+    /// walls 0.12 x the depth, 1.5 % reinforcement, 70 mm to the bar centres: common
+    /// practice for long concrete arch ribs) and `glulam` (width 0.4 of the depth).
     /// The steel ratios stay within class 3 in compression for S235 to S460 (EN 1993-1-1
     /// Table 5.2: CHS D/t <= 90 eps^2 = 46 for S460; SHS c/t = b/t - 3 = 22 and the box's
     /// c/t below 42 eps = 30.0 for S460).
@@ -367,6 +468,15 @@ impl Family {
             (
                 "concrete",
                 Family::ConcreteRect { width_over_depth: 1.0, reinforcement_ratio: 0.02, cover: 0.06 },
+            ),
+            (
+                "concrete-box",
+                Family::ConcreteBox {
+                    width_over_depth: 2.0,
+                    wall_over_depth: 0.12,
+                    reinforcement_ratio: 0.015,
+                    cover: 0.07,
+                },
             ),
             ("glulam", Family::GlulamRect { width_over_depth: 0.4 }),
         ]
@@ -419,6 +529,62 @@ mod tests {
     }
 
     #[test]
+    fn concrete_box_walls_round_up_to_whole_10_mm() {
+        let family = Family::ConcreteBox {
+            width_over_depth: 2.0,
+            wall_over_depth: 0.12,
+            reinforcement_ratio: 0.015,
+            cover: 0.07,
+        };
+        // 0.12 x 1300 = 156 mm -> 160 mm; 0.12 x 5000 = 600 mm stays 600 mm (not 610)
+        assert_eq!(family.props(1.3).thickness, Some(0.16));
+        assert_eq!(family.label(1.3), "concrete box 1300 x 2600 (t 160)");
+        assert_eq!(family.props(5.0).thickness, Some(0.6));
+        assert_eq!(family.label(5.0), "concrete box 5000 x 10000 (t 600)");
+        // the void: 5000 - 2 x 600 = 3800 deep, 10000 - 1200 = 8800 wide
+        let (depth, width) = family.void(5.0).expect("a box has a void");
+        assert!((depth - 3.8).abs() < 1e-12 && (width - 8.8).abs() < 1e-12, "{depth} x {width}");
+        assert_eq!(
+            Family::ConcreteRect { width_over_depth: 1.0, reinforcement_ratio: 0.01, cover: 0.05 }.void(1.0),
+            None
+        );
+        assert_eq!(family.name(), "concrete box");
+    }
+
+    /// A concrete box of ratios (width/depth, wall/depth, A_s/A_c, cover m).
+    fn concrete_box(width: f64, wall: f64, rho: f64, cover: f64) -> Family {
+        Family::ConcreteBox {
+            width_over_depth: width,
+            wall_over_depth: wall,
+            reinforcement_ratio: rho,
+            cover,
+        }
+    }
+
+    #[test]
+    fn concrete_box_check_refuses_full_walls_and_deep_cover() {
+        assert_eq!(concrete_box(2.0, 0.12, 0.015, 0.07).check(), Ok(()));
+        // walls 0.5 x 1200 = 600 mm: 2t = h, no void left
+        let err = concrete_box(2.0, 0.5, 0.015, 0.07).check().expect_err("walls fill it");
+        assert!(err.contains("walls fill it") && err.contains("1200"), "{err}");
+        // narrow: width 0.2 x 1200 = 240 mm against 2 x 150 mm walls
+        let err = concrete_box(0.2, 0.12, 0.015, 0.07).check().expect_err("webs meet");
+        assert!(err.contains("walls fill it"), "{err}");
+        // walls 0.1 x 1200 = 120 mm hold bars 60 mm in at most: 70 mm is refused
+        let err = concrete_box(2.0, 0.1, 0.015, 0.07).check().expect_err("cover too deep");
+        assert!(err.contains("half the box's wall") && err.contains("below 60 mm"), "{err}");
+        let err = concrete_box(2.0, 0.12, 0.001, 0.07).check().expect_err("too little steel");
+        assert!(err.contains("0.002") && err.contains("9.5.2"), "{err}");
+        for bad in [
+            concrete_box(f64::NAN, 0.12, 0.015, 0.07),
+            concrete_box(2.0, 0.0, 0.015, 0.07),
+            concrete_box(2.0, 0.12, 0.015, -0.01),
+        ] {
+            assert!(bad.check().is_err(), "{bad:?}");
+        }
+    }
+
+    #[test]
     fn check_refuses_unusable_ratios() {
         let err = Family::ConcreteRect { width_over_depth: 1.0, reinforcement_ratio: 0.05, cover: 0.05 }
             .check()
@@ -454,6 +620,18 @@ mod tests {
         let family = Family::WeldedBox { width_over_depth: 0.6, flange_ratio: 30.0, web_ratio: 30.0 };
         let json = serde_json::to_string(&family).expect("serialises");
         assert!(json.starts_with(r#"{"kind":"welded_box""#), "{json}");
+        assert_eq!(serde_json::from_str::<Family>(&json).expect("reads back"), family);
+        let family = Family::ConcreteBox {
+            width_over_depth: 2.0,
+            wall_over_depth: 0.12,
+            reinforcement_ratio: 0.015,
+            cover: 0.07,
+        };
+        let json = serde_json::to_string(&family).expect("serialises");
+        assert_eq!(
+            json,
+            r#"{"kind":"concrete_box","width_over_depth":2.0,"wall_over_depth":0.12,"reinforcement_ratio":0.015,"cover":0.07}"#
+        );
         assert_eq!(serde_json::from_str::<Family>(&json).expect("reads back"), family);
     }
 }
