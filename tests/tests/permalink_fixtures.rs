@@ -319,6 +319,7 @@ fn current_fixture_designs() -> Vec<FixtureDesign> {
         at("v2-actions", 4, actions),
         at("v2-sizing", 5, sizing_fixture()),
         at("v2-as-built", 6, as_built_fixture()),
+        at("v2-concrete-box", 6, concrete_box_fixture()),
     ]
 }
 
@@ -327,6 +328,24 @@ fn as_built_fixture() -> Design {
     let mut d = Design::demo();
     d.name = "Tarnvale Gorge, form found as built (invented fixture)".into();
     d.form.basis = springline_statics::arch::form::Basis::AsBuilt;
+    d
+}
+
+/// Design format 6 (link section 6): the demo's rib as a hollow concrete box (the
+/// `concrete-box` preset in C50/60), its posts a concrete rectangle (link section 4).
+fn concrete_box_fixture() -> Design {
+    use springline_statics::arch::sizing::GroupSizing;
+    use springline_statics::sizing::materials::material_preset;
+    use springline_statics::sizing::sections::Family;
+    let preset = |key: &str| Family::family_presets().into_iter().find(|(k, _)| *k == key).map(|(_, f)| f);
+    let mut d = Design::demo();
+    d.name = "Tarnvale Gorge, concrete box rib (invented fixture)".into();
+    d.sizing.rib = GroupSizing::sized(
+        preset("concrete-box").expect("preset"),
+        material_preset("c50-60").expect("preset"),
+    );
+    d.sizing.posts =
+        GroupSizing::sized(preset("concrete").expect("preset"), material_preset("c40-50").expect("preset"));
     d
 }
 
@@ -517,4 +536,17 @@ fn the_as_built_fixture_keeps_its_basis() {
     assert_eq!(analyze(&link).expect("analyses").form.basis, Basis::AsBuilt);
     let older = permalink::decode(&read(&folder().join("v2-sizing.link"))).expect("opens");
     assert_eq!(older.form.basis, Basis::PanelLoads);
+}
+
+/// The concrete box fixture (design format 6, link section 6) reads back with its box rib
+/// and its rectangular posts, from its link and its design file.
+#[test]
+fn the_concrete_box_fixture_keeps_its_box() {
+    use springline_statics::sizing::sections::Family;
+    let link = permalink::decode(&read(&folder().join("v2-concrete-box.link"))).expect("opens");
+    let file = read_design_file(&designs_folder().join("v6-concrete-box.json"));
+    assert_eq!(link, file);
+    assert!(matches!(link.sizing.rib.family, Some(Family::ConcreteBox { .. })), "{:?}", link.sizing.rib);
+    assert!(matches!(link.sizing.posts.family, Some(Family::ConcreteRect { .. })), "{:?}", link.sizing.posts);
+    assert_eq!(link.sizing.rib.material.name(), "C50/60");
 }
