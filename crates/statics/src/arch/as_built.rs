@@ -63,7 +63,9 @@ impl LoadBasis for AsBuilt<'_> {
 /// The loads the rib of `valid` receives in its frame model under the dead load, one per
 /// rib node (springings included): the forces the node applies to the rib members there
 /// (at a springing, less the support's reaction) and half of each adjacent rib segment's
-/// self-weight. kN, `p` positive down, `px` to the right.
+/// self-weight; a couple the node puts on the rib (where the rib shares the deck) as the
+/// vertical pair of the same moment at the neighbouring rib nodes (see the module doc).
+/// kN, `p` positive down, `px` to the right.
 ///
 /// Errors: those of the frame solve.
 pub fn rib_loads(valid: &ValidDesign) -> Result<Vec<NodeLoad>, StaticsError> {
