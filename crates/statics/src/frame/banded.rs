@@ -53,6 +53,41 @@ impl BandMatrix {
         self.data[k] += value;
         Ok(())
     }
+    /// Order of the matrix (number of equations).
+    pub(crate) fn order(&self) -> usize {
+        self.n
+    }
+    /// y = A x for the symmetric matrix A, in its own units times those of x.
+    ///
+    /// Errors (`OutOfRange`, `y` unchanged) when `x` or `y` does not have one entry per
+    /// equation.
+    pub(crate) fn mul_into(&self, x: &[f64], y: &mut [f64]) -> Result<(), StaticsError> {
+        if x.len() != self.n || y.len() != self.n {
+            return Err(StaticsError::OutOfRange {
+                location: Location::Part("matrix product".into()),
+                message: format!(
+                    "vectors of {} and {} entries for a matrix of order {}; pass one entry per equation",
+                    x.len(),
+                    y.len(),
+                    self.n
+                ),
+            });
+        }
+        y.fill(0.0);
+        for i in 0..self.n {
+            let lo = i.saturating_sub(self.bandwidth);
+            let row = &self.data[i * (self.bandwidth + 1)..(i + 1) * (self.bandwidth + 1)];
+            // row[i - j] holds entry (i, j)
+            let mut yi = row[0] * x[i];
+            for j in lo..i {
+                let v = row[i - j];
+                yi += v * x[j];
+                y[j] += v * x[i];
+            }
+            y[i] += yi;
+        }
+        Ok(())
+    }
     /// The first stored entry (i, j), by rows, that is not a finite number.
     pub(crate) fn first_non_finite(&self) -> Option<(usize, usize)> {
         let k = self.data.iter().position(|v| !v.is_finite())?;
