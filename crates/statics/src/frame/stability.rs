@@ -38,7 +38,7 @@
 use crate::error::{Iteration, Location, StaticsError};
 use crate::frame::assembly::{assemble, assemble_matrices, case_loads, elements, free_residual, Element};
 use crate::frame::banded::{BandMatrix, LdlFactor};
-use crate::frame::eigen::{dense, subspace_iteration, Modes, Operand};
+use crate::frame::eigen::{dense, subspace_iteration, Modes, Operand, Spectrum};
 use crate::frame::element::{
     is_axial_only, load_resultant_global, local_geometric_stiffness, resolve_load, LocalLoad,
 };
@@ -601,8 +601,14 @@ impl Stability {
     }
 
     fn eigenpairs(&self, a: &Operand, modes: usize, what: Iteration) -> Result<Modes, StaticsError> {
+        let spectrum = match a {
+            Operand::Band(_) => Spectrum::Indefinite,
+            Operand::Diagonal(_) => Spectrum::NonNegative,
+        };
         match self.settings.solver {
-            EigenSolver::Subspace => subspace_iteration(&self.stiffness, &self.factor, a, modes, what),
+            EigenSolver::Subspace => {
+                subspace_iteration(&self.stiffness, &self.factor, a, spectrum, modes, what)
+            }
             EigenSolver::Dense => dense(&self.stiffness, a, modes, what),
         }
     }
