@@ -72,6 +72,11 @@ pub const EMPTY_ITERATIONS: usize = 10;
 /// many iterations before the search stops.
 const SETTLE_ITERATIONS: usize = 3;
 
+/// Iterations between a restart of the subspace's other directions (after a failed
+/// Sturm check) and the next check: a random vector is dominated by the stiffest modes,
+/// and takes a few filters before the missed mode stands out in it.
+const RESTART_ITERATIONS: usize = 4;
+
 /// The Sturm check counts eigenvalues below the smallest found one less this fraction
 /// of it: far above the error of a converged value (`EIGEN_RESIDUAL` squared), so the
 /// found value itself is never counted, and a true value missed within it would equal
@@ -144,6 +149,15 @@ pub(crate) struct Modes {
     pub(crate) vectors: Vec<Vec<f64>>,
     /// Iterations used (0 for the dense solver).
     pub(crate) iterations: usize,
+    /// The whole subspace the iteration ended with (its Ritz vectors, one per column),
+    /// to start a similar problem from; empty for the dense solver.
+    pub(crate) subspace: DMatrix<f64>,
+}
+
+impl Modes {
+    fn none(iterations: usize) -> Modes {
+        Modes { values: Vec::new(), vectors: Vec::new(), iterations, subspace: DMatrix::zeros(0, 0) }
+    }
 }
 
 fn band_times(b: &BandMatrix, x: &DMatrix<f64>) -> Result<DMatrix<f64>, StaticsError> {
@@ -278,7 +292,8 @@ fn start_vectors(n: usize, a: &Operand, p: usize, state: &mut u64) -> DMatrix<f6
 /// mu > mu_q / (1 - STURM_MARGIN) of the pencil, the negative pivots of K - sigma A with
 /// sigma = (1 - STURM_MARGIN) / mu_q, must equal the number of found values above that
 /// bound; more means the subspace has missed a mode larger than the smallest one found
-/// (the iteration then goes on, the other directions restarted from random vectors). A vanishing pivot moves sigma down
+/// (the iteration then goes on, the other directions restarted from random vectors and
+/// given `RESTART_ITERATIONS` before the next check). A vanishing pivot moves sigma down
 /// by STURM_MARGIN once more; two in a row count as missed (the iteration goes on).
 fn none_missed(k: &BandMatrix, a: &Operand, found: &[f64]) -> Result<bool, StaticsError> {
     let Some(&smallest) = found.last() else { return Ok(true) };
@@ -381,7 +396,9 @@ fn filter_degree(values: &[f64], wanted: usize, (lower, upper): (f64, f64)) -> u
 
 /// The `wanted` largest positive eigenvalues mu of A x = mu K x (fewer when the pencil has
 /// fewer), by Chebyshev-filtered subspace iteration on the banded factors of K (module
-/// doc). `k` is K and `factor` its LDL^T factors.
+/// doc). `k` is K and `factor` its LDL^T factors. `warm`, the subspace a similar
+/// problem ended with (`Modes::subspace`, n rows), starts the iteration near the
+/// answer; the answer does not depend on it beyond the convergence tolerance.
 ///
 /// Errors: `NoConvergence` (`what`) when the pairs do not meet `EIGEN_RESIDUAL` within
 /// `MAX_SUBSPACE_ITERATIONS`, with the worst relative residual as the last change;
@@ -392,26 +409,36 @@ pub(crate) fn subspace_iteration(
     a: &Operand,
     spectrum: Spectrum,
     wanted: usize,
+    warm: Option<&DMatrix<f64>>,
     what: Iteration,
 ) -> Result<Modes, StaticsError> {
     let n = k.order();
     if n == 0 || wanted == 0 || a.order() != n {
-        return Ok(Modes { values: Vec::new(), vectors: Vec::new(), iterations: 0 });
+        return Ok(Modes::none(0));
     }
     let p = n.min((2 * wanted).max(wanted + 8));
     let mut state = RANDOM_SEED;
-    let start = start_vectors(n, a, p, &mut state);
+    let mut start = start_vectors(n, a, p, &mut state);
+    // a warm start: the previous subspace in all columns but the last, which stays
+    // random (the Sturm check catches what the old subspace lacks either way)
+    if let Some(previous) = warm.filter(|w| w.nrows() == n) {
+        for c in 0..previous.ncols().min(p - 1) {
+            start.set_column(c, &previous.column(c));
+        }
+    }
     // one plain step first: the Ritz values of K^-1 A X bound the spectrum for the filter
     let mut xbar = solve_columns(factor, a.times(&start)?)?;
     let mut counts: Vec<usize> = Vec::new();
     let mut worst = f64::INFINITY;
     let mut lowest_seen = 0.0f64;
+    // after a restart the fresh directions need a few filters before the next check
+    let mut next_check = 0;
     for iteration in 1..=MAX_SUBSPACE_ITERATIONS {
         let kxbar = band_times(k, &xbar)?;
         let axbar = a.times(&xbar)?;
         let ritz = rayleigh_ritz(&xbar, &kxbar, &axbar, what)?;
         if ritz.values.is_empty() {
-            return Ok(Modes { values: Vec::new(), vectors: Vec::new(), iterations: iteration });
+            return Ok(Modes::none(iteration));
         }
         let scale = ritz.values.iter().fold(0.0f64, |m, v| m.max(v.abs()));
         // the values are sorted, so the positive ones come first
@@ -435,12 +462,13 @@ pub(crate) fn subspace_iteration(
         let settled = positives == wanted
             || (counts.len() >= SETTLE_ITERATIONS
                 && counts[counts.len() - SETTLE_ITERATIONS..].iter().all(|&c| c == positives));
-        if positives > 0 && worst <= EIGEN_RESIDUAL && settled {
+        if positives > 0 && worst <= EIGEN_RESIDUAL && settled && iteration >= next_check {
             if none_missed(k, a, &ritz.values[..positives])? {
                 return Ok(Modes {
                     values: ritz.values[..positives].to_vec(),
                     vectors: (0..positives).map(|i| x.column(i).iter().copied().collect()).collect(),
                     iterations: iteration,
+                    subspace: x,
                 });
             }
             // a mode was missed: the directions beyond the pairs found start afresh from
@@ -451,9 +479,10 @@ pub(crate) fn subspace_iteration(
                 x.set_column(c, &fresh.column(c));
                 w.set_column(c, &fresh_w.column(c));
             }
+            next_check = iteration + RESTART_ITERATIONS;
         }
         if positives == 0 && iteration >= EMPTY_ITERATIONS {
-            return Ok(Modes { values: Vec::new(), vectors: Vec::new(), iterations: iteration });
+            return Ok(Modes::none(iteration));
         }
         let interval = filter_interval(&ritz.values, wanted, lowest_seen, spectrum);
         let degree = filter_degree(&ritz.values, wanted, interval);
@@ -492,7 +521,7 @@ pub(crate) fn dense(
         });
     }
     if n == 0 || wanted == 0 || a.order() != n {
-        return Ok(Modes { values: Vec::new(), vectors: Vec::new(), iterations: 0 });
+        return Ok(Modes::none(0));
     }
     let kd = DMatrix::from_fn(n, n, |i, j| k.get(i, j));
     let ad = DMatrix::from_fn(n, n, |i, j| a.entry(i, j));
@@ -524,6 +553,7 @@ pub(crate) fn dense(
         values: chosen.iter().map(|&i| decomposition.eigenvalues[i]).collect(),
         vectors,
         iterations: 0,
+        subspace: DMatrix::zeros(0, 0),
     })
 }
 
@@ -553,13 +583,53 @@ mod tests {
         let factor = LdlFactor::new(&k).expect("positive definite");
         let ones = vec![1.0; n];
         let a = Operand::Diagonal(&ones);
-        let iterative = subspace_iteration(&k, &factor, &a, Spectrum::NonNegative, 4, Iteration::Vibration)
-            .expect("converges");
+        let iterative =
+            subspace_iteration(&k, &factor, &a, Spectrum::NonNegative, 4, None, Iteration::Vibration)
+                .expect("converges");
         let oracle = dense(&k, &a, 4, Iteration::Vibration).expect("dense");
         for j in 0..4 {
             let lambda = 2.0 - 2.0 * ((j + 1) as f64 * std::f64::consts::PI / (n + 1) as f64).cos();
             assert!((iterative.values[j] * lambda - 1.0).abs() < 1e-10, "{j}: {}", iterative.values[j]);
             assert!((oracle.values[j] * lambda - 1.0).abs() < 1e-10, "{j}: {}", oracle.values[j]);
+        }
+        // started from its own answer the iteration stops at once with the same values;
+        // started from the answer of another problem (masses growing along the chain) it
+        // still finds this one's
+        let again = subspace_iteration(
+            &k,
+            &factor,
+            &a,
+            Spectrum::NonNegative,
+            4,
+            Some(&iterative.subspace),
+            Iteration::Vibration,
+        )
+        .expect("converges");
+        assert_eq!(again.iterations, 1);
+        let graded: Vec<f64> = (0..n).map(|i| 1.0 + i as f64).collect();
+        let other = subspace_iteration(
+            &k,
+            &factor,
+            &Operand::Diagonal(&graded),
+            Spectrum::NonNegative,
+            4,
+            None,
+            Iteration::Vibration,
+        )
+        .expect("converges");
+        let warmed = subspace_iteration(
+            &k,
+            &factor,
+            &a,
+            Spectrum::NonNegative,
+            4,
+            Some(&other.subspace),
+            Iteration::Vibration,
+        )
+        .expect("converges");
+        for j in 0..4 {
+            assert!((again.values[j] / iterative.values[j] - 1.0).abs() < 1e-12);
+            assert!((warmed.values[j] / iterative.values[j] - 1.0).abs() < 1e-12);
         }
     }
 
@@ -590,8 +660,9 @@ mod tests {
             .collect();
         let a = Operand::Diagonal(&d);
         for wanted in [1, 2, 5] {
-            let m = subspace_iteration(&k, &factor, &a, Spectrum::Indefinite, wanted, Iteration::Buckling)
-                .expect("converges");
+            let m =
+                subspace_iteration(&k, &factor, &a, Spectrum::Indefinite, wanted, None, Iteration::Buckling)
+                    .expect("converges");
             let expected: Vec<f64> = [2.0, 1.0].into_iter().take(wanted).collect();
             assert_eq!(m.values.len(), expected.len(), "wanted {wanted}: {:?}", m.values);
             for (v, e) in m.values.iter().zip(&expected) {
@@ -607,6 +678,7 @@ mod tests {
             &Operand::Diagonal(&none),
             Spectrum::Indefinite,
             3,
+            None,
             Iteration::Buckling,
         )
         .expect("ends");

@@ -48,7 +48,7 @@ use crate::frame::recovery::{displacement_results, node_displacements};
 use crate::frame::results::NodeDisplacement;
 use crate::frame::solver::{check_assembled_range, mechanism_error, validate, REFINEMENT_STEPS};
 use crate::tolerance::COMPRESSED_MEMBER;
-use nalgebra::{Matrix6, Vector6};
+use nalgebra::{DMatrix, Matrix6, Vector6};
 use serde::{Deserialize, Serialize};
 
 pub use crate::frame::eigen::{MAX_DENSE_FREEDOMS, MAX_SUBSPACE_ITERATIONS};
@@ -84,9 +84,9 @@ pub struct StabilitySettings {
 }
 
 impl Default for StabilitySettings {
-    /// Four parts per member (a pin-ended member's Euler load to about 0.01 %, an arch
-    /// rib between panel points likewise; measured in `tests/stability_closed_forms.rs`)
-    /// and the subspace solver.
+    /// Four parts per member (a pin-ended member's Euler load to 0.05 %, a cantilever's
+    /// to 0.003 %, a fixed-pinned one's to 0.2 %: measured in
+    /// `tests/stability_closed_forms.rs`) and the subspace solver.
     fn default() -> Self {
         StabilitySettings { parts: 4, solver: EigenSolver::Subspace }
     }
@@ -475,6 +475,17 @@ impl Stability {
     /// sideways (no positive load factor exists); `NoConvergence`
     /// (`Iteration::Buckling`) when the iteration does not settle.
     pub fn buckling(&self, case: &LoadCase, modes: usize) -> Result<CaseBuckling, StaticsError> {
+        self.buckling_from(case, modes, None).map(|(result, _)| result)
+    }
+
+    /// `buckling`, the iteration started from `warm` (the subspace of a similar case);
+    /// also returns the subspace this case ended with.
+    fn buckling_from(
+        &self,
+        case: &LoadCase,
+        modes: usize,
+        warm: Option<&DMatrix<f64>>,
+    ) -> Result<(CaseBuckling, DMatrix<f64>), StaticsError> {
         self.check_case(case, modes)?;
         let axial_forces = self.solve_axial(case)?;
         let largest = axial_forces.iter().fold(0.0f64, |m, n| m.max(n.abs()));
@@ -492,7 +503,7 @@ impl Stability {
             .map(|((m, el), &n)| -(el.t.transpose() * local_geometric_stiffness(m, &el.geometry, n) * el.t))
             .collect();
         let a = assemble_matrices(model, &self.numbering, &minus_kg)?;
-        let found = self.eigenpairs(&Operand::Band(&a), modes, Iteration::Buckling)?;
+        let found = self.eigenpairs(&Operand::Band(&a), modes, warm, Iteration::Buckling)?;
         if found.values.is_empty() {
             return Err(StaticsError::NoCompression { case: case.name.clone() });
         }
@@ -502,17 +513,33 @@ impl Stability {
             .zip(&found.vectors)
             .map(|(mu, x)| BucklingMode { load_factor: 1.0 / mu, shape: self.shape(x) })
             .collect();
-        Ok(CaseBuckling { case: case.name.clone(), modes, axial_forces, iterations: found.iterations })
+        let result =
+            CaseBuckling { case: case.name.clone(), modes, axial_forces, iterations: found.iterations };
+        Ok((result, found.subspace))
     }
 
     /// [`Stability::buckling`] of each of `cases` with the one factorisation: one result
     /// per case, in order (a case that compresses nothing is its own `NoCompression`).
+    /// Each case's iteration starts from the subspace the previous successful case ended
+    /// with, so a run of similar cases (a load moved along the deck) converges in fewer
+    /// iterations; the results equal those of separate calls to the convergence
+    /// tolerance (`tolerance::EIGEN_RESIDUAL`).
     pub fn buckling_cases(
         &self,
         cases: &[LoadCase],
         modes: usize,
     ) -> Vec<Result<CaseBuckling, StaticsError>> {
-        cases.iter().map(|c| self.buckling(c, modes)).collect()
+        let mut warm: Option<DMatrix<f64>> = None;
+        cases
+            .iter()
+            .map(|c| {
+                let (result, subspace) = self.buckling_from(c, modes, warm.as_ref())?;
+                if subspace.ncols() > 0 {
+                    warm = Some(subspace);
+                }
+                Ok(result)
+            })
+            .collect()
     }
 
     /// Lumped mass of every node of the refined model from the gravity loads of `case`
@@ -568,7 +595,7 @@ impl Stability {
         if diagonal.iter().all(|&m| m <= 0.0) {
             return Err(StaticsError::NoMass { case: case.name.clone() });
         }
-        let found = self.eigenpairs(&Operand::Diagonal(&diagonal), modes, Iteration::Vibration)?;
+        let found = self.eigenpairs(&Operand::Diagonal(&diagonal), modes, None, Iteration::Vibration)?;
         if found.values.is_empty() {
             return Err(StaticsError::NoMass { case: case.name.clone() });
         }
@@ -600,14 +627,20 @@ impl Stability {
         Ok(Vibration { case: case.name.clone(), masses, total_mass, modes, iterations: found.iterations })
     }
 
-    fn eigenpairs(&self, a: &Operand, modes: usize, what: Iteration) -> Result<Modes, StaticsError> {
+    fn eigenpairs(
+        &self,
+        a: &Operand,
+        modes: usize,
+        warm: Option<&DMatrix<f64>>,
+        what: Iteration,
+    ) -> Result<Modes, StaticsError> {
         let spectrum = match a {
             Operand::Band(_) => Spectrum::Indefinite,
             Operand::Diagonal(_) => Spectrum::NonNegative,
         };
         match self.settings.solver {
             EigenSolver::Subspace => {
-                subspace_iteration(&self.stiffness, &self.factor, a, spectrum, modes, what)
+                subspace_iteration(&self.stiffness, &self.factor, a, spectrum, modes, warm, what)
             }
             EigenSolver::Dense => dense(&self.stiffness, a, modes, what),
         }
