@@ -410,6 +410,10 @@ pub enum Iteration {
     FormFinding,
     /// Form finding on the "as built" basis: shape -> frame analysis -> loads -> shape.
     AsBuiltForm,
+    /// The subspace iteration for the critical load factors of linear buckling.
+    Buckling,
+    /// The subspace iteration for the natural frequencies.
+    Vibration,
 }
 
 impl fmt::Display for Iteration {
@@ -417,6 +421,8 @@ impl fmt::Display for Iteration {
         f.write_str(match self {
             Iteration::FormFinding => "form finding",
             Iteration::AsBuiltForm => "form finding on the as-built basis",
+            Iteration::Buckling => "the search for the critical load factors",
+            Iteration::Vibration => "the search for the natural frequencies",
         })
     }
 }
@@ -457,6 +463,28 @@ pub enum StaticsError {
         last_change: f64,
         /// What to try.
         hint: String,
+    },
+    /// A load case has no critical load factor: no member it compresses can move
+    /// sideways (every member in tension, or the compressed ones held along their
+    /// length), so no multiple of it buckles the structure.
+    #[error(
+        "load case '{case}' compresses no member that can move sideways, so it has no critical load \
+         factor: nothing buckles under it; check that its loads push the way they should (gravity is \
+         negative y) or choose a case that compresses the arch"
+    )]
+    NoCompression {
+        /// The load case's name.
+        case: String,
+    },
+    /// A load case gives no mass to any freedom that can move, so the structure has no
+    /// natural frequency to find.
+    #[error(
+        "load case '{case}' puts no weight on any node that can move, so there is no mass to vibrate; \
+         choose the case with the structure's own weight (downward loads, kN)"
+    )]
+    NoMass {
+        /// The load case's name.
+        case: String,
     },
     /// A number of the model is beyond what floating point arithmetic can carry (for
     /// example E times A overflows): the model is not a mechanism, its numbers are out

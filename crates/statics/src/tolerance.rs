@@ -41,6 +41,34 @@ pub const NONSINGULAR_MARGIN: f64 = 1e2;
 /// E A times the largest imposed strain (they are then rounding noise).
 pub const VANISHING_REACTION: f64 = 1e-6;
 
+// frame layer: stability
+/// A Ritz pair (mu, x) of A x = mu K x has converged when its residual in the energy norm,
+/// ||K^-1 A x - mu x||_K with x^T K x = 1, is below this fraction of |mu|. That residual
+/// bounds the error of mu itself (Krylov-Weinstein: |mu - mu_exact| <= residual) and the
+/// error is in fact of its square over the gap to the next eigenvalue, so critical load
+/// factors and frequencies come out near rounding; mode shapes to about this fraction
+/// over the relative gap. 1e-9 is four orders above the residual's own rounding in
+/// double precision (about sqrt(eps) n b times smaller, measured below 1e-12 on every
+/// test model), so it is always reachable.
+pub const EIGEN_RESIDUAL: f64 = 1e-9;
+
+/// An eigenvalue mu (1 / alpha_cr, 1 / omega^2) counts as zero below this fraction of
+/// the largest |mu| of the problem: the pencil's null space (freedoms without mass,
+/// members without axial force) comes out at rounding, about 1e-16 of the largest. A
+/// mode 1e10 times higher than the first (a load factor or omega^2 ratio) has no
+/// engineering meaning.
+pub const EIGENVALUE_NOISE: f64 = 1e-10;
+
+/// A direction of the iterated subspace whose energy (x^T K x, columns scaled to unit
+/// energy first) falls below this fraction of the largest is dropped: the subspace has
+/// collapsed onto fewer vectors than it holds (the pencil has fewer modes than asked).
+pub const SUBSPACE_RANK: f64 = 1e-10;
+
+/// A member counts as compressed when its axial force is below -COMPRESSED_MEMBER times
+/// the largest |N| of the case: forces that small are rounding of a member that carries
+/// nothing (the solver's equilibrium holds to about 1e-12 of the largest force).
+pub const COMPRESSED_MEMBER: f64 = 1e-9;
+
 // graphic layer: reciprocal
 /// Relative size below which a force counts as zero (its segment is a point), as a
 /// fraction of the largest force of the case: the solver's equilibrium holds to about

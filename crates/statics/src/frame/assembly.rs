@@ -53,6 +53,19 @@ pub(crate) fn assemble(
     numbering: &Numbering,
     elems: &[Element],
 ) -> Result<BandMatrix, StaticsError> {
+    assemble_matrices(model, numbering, elems.iter().map(|el| &el.k_global))
+}
+
+/// Adds one global 6 x 6 matrix per member (in member order, freedoms as
+/// `Numbering::member_equations`) into a banded matrix of the free freedoms with the
+/// band of the stiffness matrix (so a geometric stiffness or any other matrix built on
+/// the members shares its shape). Rows and columns of restrained or absent freedoms are
+/// left out.
+pub(crate) fn assemble_matrices<'a>(
+    model: &Model,
+    numbering: &Numbering,
+    matrices: impl IntoIterator<Item = &'a Matrix6<f64>>,
+) -> Result<BandMatrix, StaticsError> {
     let n = numbering.free.len();
     let mut bandwidth = 0;
     for k in 0..model.members.len() {
@@ -66,14 +79,14 @@ pub(crate) fn assemble(
         }
     }
     let mut kff = BandMatrix::zeros(n, bandwidth);
-    for (k, el) in elems.iter().enumerate() {
+    for (k, matrix) in matrices.into_iter().enumerate() {
         let eqs = numbering.member_equations(model, k);
         for r in 0..6 {
             let Equation::Free(i) = eqs[r] else { continue };
             for c in 0..6 {
                 let Equation::Free(j) = eqs[c] else { continue };
                 if i >= j {
-                    kff.add(i, j, el.k_global[(r, c)])?;
+                    kff.add(i, j, matrix[(r, c)])?;
                 }
             }
         }

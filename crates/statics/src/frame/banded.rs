@@ -53,6 +53,112 @@ impl BandMatrix {
         self.data[k] += value;
         Ok(())
     }
+    /// Order of the matrix (number of equations).
+    pub(crate) fn order(&self) -> usize {
+        self.n
+    }
+    /// y = A x for the symmetric matrix A, in its own units times those of x.
+    ///
+    /// Errors (`OutOfRange`, `y` unchanged) when `x` or `y` does not have one entry per
+    /// equation.
+    pub(crate) fn mul_into(&self, x: &[f64], y: &mut [f64]) -> Result<(), StaticsError> {
+        if x.len() != self.n || y.len() != self.n {
+            return Err(StaticsError::OutOfRange {
+                location: Location::Part("matrix product".into()),
+                message: format!(
+                    "vectors of {} and {} entries for a matrix of order {}; pass one entry per equation",
+                    x.len(),
+                    y.len(),
+                    self.n
+                ),
+            });
+        }
+        y.fill(0.0);
+        for i in 0..self.n {
+            let lo = i.saturating_sub(self.bandwidth);
+            let row = &self.data[i * (self.bandwidth + 1)..(i + 1) * (self.bandwidth + 1)];
+            // row[i - j] holds entry (i, j)
+            let mut yi = row[0] * x[i];
+            for j in lo..i {
+                let v = row[i - j];
+                yi += v * x[j];
+                y[j] += v * x[i];
+            }
+            y[i] += yi;
+        }
+        Ok(())
+    }
+    /// This matrix minus `sigma` times `other` (a matrix of the same order; the band is
+    /// the wider of the two), in the units of this one.
+    ///
+    /// Errors (`OutOfRange`) when the orders differ.
+    pub(crate) fn minus_scaled(&self, sigma: f64, other: &BandMatrix) -> Result<BandMatrix, StaticsError> {
+        if other.n != self.n {
+            return Err(StaticsError::OutOfRange {
+                location: Location::Part("matrix difference".into()),
+                message: format!(
+                    "matrices of order {} and {}; both must belong to the same equations",
+                    self.n, other.n
+                ),
+            });
+        }
+        let mut out = BandMatrix::zeros(self.n, self.bandwidth.max(other.bandwidth));
+        for (source, factor) in [(self, 1.0), (other, -sigma)] {
+            for i in 0..self.n {
+                for j in i.saturating_sub(source.bandwidth)..=i {
+                    let k = out.idx(i, j);
+                    out.data[k] += factor * source.data[source.idx(i, j)];
+                }
+            }
+        }
+        Ok(out)
+    }
+    /// This matrix minus `sigma` times the diagonal matrix `diagonal` (one entry per
+    /// equation; missing entries count as zero).
+    pub(crate) fn minus_scaled_diagonal(&self, sigma: f64, diagonal: &[f64]) -> BandMatrix {
+        let mut out = self.clone();
+        for (i, d) in diagonal.iter().enumerate().take(self.n) {
+            let k = out.idx(i, i);
+            out.data[k] -= sigma * d;
+        }
+        out
+    }
+    /// The number of negative pivots of the LDL^T factorisation without pivoting, which
+    /// by Sylvester's law of inertia is the number of negative eigenvalues; for
+    /// K - sigma A it counts the eigenvalues lambda < sigma of K x = lambda A x (the
+    /// Sturm sequence property, Bathe, Finite Element Procedures, sec. 8.2.5). `None`
+    /// when a pivot vanishes or is not finite (sigma on an eigenvalue of a leading
+    /// block): the caller moves sigma a little and asks again. O(n b^2).
+    pub(crate) fn negative_pivots(&self) -> Option<usize> {
+        let (n, bw) = (self.n, self.bandwidth);
+        let mut l = self.clone();
+        let mut d = vec![0.0; n];
+        let mut negative = 0;
+        for j in 0..n {
+            let lo = j.saturating_sub(bw);
+            let mut dj = self.data[self.idx(j, j)];
+            for k in lo..j {
+                let ljk = l.data[l.idx(j, k)];
+                dj -= ljk * ljk * d[k];
+            }
+            if dj == 0.0 || !dj.is_finite() {
+                return None;
+            }
+            if dj < 0.0 {
+                negative += 1;
+            }
+            d[j] = dj;
+            for i in (j + 1)..=(j + bw).min(n.saturating_sub(1)) {
+                let mut v = self.data[self.idx(i, j)];
+                for k in i.saturating_sub(bw).max(lo)..j {
+                    v -= l.data[l.idx(i, k)] * l.data[l.idx(j, k)] * d[k];
+                }
+                let idx = l.idx(i, j);
+                l.data[idx] = v / dj;
+            }
+        }
+        Some(negative)
+    }
     /// The first stored entry (i, j), by rows, that is not a finite number.
     pub(crate) fn first_non_finite(&self) -> Option<(usize, usize)> {
         let k = self.data.iter().position(|v| !v.is_finite())?;
@@ -431,5 +537,24 @@ mod tests {
             }
             assert_eq!(b, before);
         }
+    }
+
+    /// The second-difference matrix of order 3 has eigenvalues 2 - sqrt 2, 2, 2 + sqrt 2
+    /// (worked by hand from its characteristic polynomial): the count of negative pivots
+    /// of A - sigma I is the number of them below sigma.
+    #[test]
+    fn negative_pivots_count_the_eigenvalues_below_a_shift() {
+        let a = second_difference();
+        for (sigma, below) in [(0.5, 0), (0.8, 1), (1.9, 1), (2.1, 2), (3.3, 2), (3.5, 3)] {
+            assert_eq!(a.minus_scaled_diagonal(sigma, &[1.0; 3]).negative_pivots(), Some(below), "{sigma}");
+            let mut identity = BandMatrix::zeros(3, 0);
+            for i in 0..3 {
+                identity.add(i, i, 1.0).expect("in band");
+            }
+            let shifted = a.minus_scaled(sigma, &identity).expect("same order");
+            assert_eq!(shifted.negative_pivots(), Some(below), "{sigma}");
+        }
+        // exactly on the middle eigenvalue the first pivot of [0 -1 0; -1 0 -1; 0 -1 0] is 0
+        assert_eq!(a.minus_scaled_diagonal(2.0, &[1.0; 3]).negative_pivots(), None);
     }
 }

@@ -277,6 +277,125 @@ pub fn internal_forces(start_actions: [f64; 3], loads: &[LocalLoad], s: f64) -> 
     (n, v, m)
 }
 
+/// Local geometric stiffness of a member carrying the axial force `axial_force` (kN,
+/// tension positive), in kN/m, kN/rad and kNm/rad, releases condensed: the matrix
+/// K_G with (K + K_G) u = f the linearised equilibrium of the member in its displaced
+/// position.
+///
+/// - Frame members: the consistent geometric stiffness of the cubic beam-column (the
+///   Hermite shape functions of the elastic stiffness; K_G = N integral of v'^2), on the
+///   transverse freedoms (v1, theta1, v2, theta2): N / L [6/5, L/10, -6/5, L/10; L/10,
+///   2 L^2/15, -L/10, -L^2/30; ...] (McGuire, Gallagher & Ziemian, Matrix Structural
+///   Analysis, 2nd ed., ch. 9; Przemieniecki, Theory of Matrix Structural Analysis,
+///   ch. 15; from memory, and checked in this module against the integral). The axial
+///   terms N / L that some texts add on (u1, u2) are left out: they change a critical
+///   load by the order of N / (E A).
+/// - A member released at one end: K_G condensed with the transformation that condenses
+///   its elastic stiffness (the released rotation follows the others as the elastic
+///   member requires, `release_transformation`), the usual first-order consistent
+///   approach: K_G* = G^T K_G G, as k* = G^T k G.
+/// - Pin-ended bars (truss members and frame members released at both ends): the string
+///   stiffness N / L [1, -1; -1, 1] on the transverse translations (v1, v2); the bar stays
+///   straight, so it cannot buckle on its own, only let its ends sway.
+///
+/// A zero axial force gives the zero matrix.
+pub fn local_geometric_stiffness(member: &Member, geometry: &Geometry, axial_force: f64) -> Matrix6<f64> {
+    let l = geometry.length;
+    let n_over_l = axial_force / l;
+    let mut kg = Matrix6::zeros();
+    if is_axial_only(member) {
+        kg[(1, 1)] = n_over_l;
+        kg[(4, 4)] = n_over_l;
+        kg[(1, 4)] = -n_over_l;
+        kg[(4, 1)] = -n_over_l;
+        return kg;
+    }
+    let b = geometric_bending_block(axial_force, l);
+    for r in 0..4 {
+        for c in 0..4 {
+            kg[(BENDING[r], BENDING[c])] = b[(r, c)];
+        }
+    }
+    let (rs, re) = (member.pinned_at_start(), member.pinned_at_end());
+    if rs || re {
+        let g = release_transformation(l, rs, re);
+        kg = g.transpose() * kg * g;
+    }
+    kg
+}
+
+/// The consistent geometric stiffness of the cubic beam-column on (v1, theta1, v2,
+/// theta2) for axial force `n` (tension positive) and length `l`.
+fn geometric_bending_block(n: f64, l: f64) -> nalgebra::Matrix4<f64> {
+    let c = n / l;
+    let l2 = l * l;
+    nalgebra::Matrix4::new(
+        1.2 * c,
+        0.1 * l * c,
+        -1.2 * c,
+        0.1 * l * c,
+        0.1 * l * c,
+        2.0 * l2 / 15.0 * c,
+        -0.1 * l * c,
+        -l2 / 30.0 * c,
+        -1.2 * c,
+        -0.1 * l * c,
+        1.2 * c,
+        -0.1 * l * c,
+        0.1 * l * c,
+        -l2 / 30.0 * c,
+        -0.1 * l * c,
+        2.0 * l2 / 15.0 * c,
+    )
+}
+
+/// The transformation G (6 x 6, local freedoms) that static condensation of the released
+/// end rotations applies: u_full = G u, where each released rotation (theta1 when
+/// `release_start`, theta2 when `release_end`) takes the value that makes its end moment
+/// zero in the elastic beam (theta_c = -k_cc^-1 k_cr u_r; the bending block with unit
+/// E I, since the ratio does not depend on E I), and the released rotation's own column
+/// is zero. Then G^T k G is the condensed elastic stiffness (McGuire, Gallagher &
+/// Ziemian, 2nd ed., sec. 13.2). With no release, G is the identity.
+pub fn release_transformation(length: f64, release_start: bool, release_end: bool) -> Matrix6<f64> {
+    let mut g = Matrix6::identity();
+    let mut k = Matrix6::zeros();
+    let b = bending_block(1.0, length);
+    for r in 0..4 {
+        for c in 0..4 {
+            k[(BENDING[r], BENDING[c])] = b[(r, c)];
+        }
+    }
+    let released: Vec<usize> = [(release_start, 2usize), (release_end, 5usize)]
+        .iter()
+        .filter(|(r, _)| *r)
+        .map(|(_, d)| *d)
+        .collect();
+    let kept: Vec<usize> = (0..6).filter(|d| !released.contains(d)).collect();
+    match released.as_slice() {
+        [] => {}
+        [c] => {
+            for &r in &kept {
+                g[(*c, r)] = -k[(*c, r)] / k[(*c, *c)];
+            }
+            g[(*c, *c)] = 0.0;
+        }
+        [c, d] => {
+            // solve the 2 x 2 block [k_cc k_cd; k_dc k_dd] for both rotations
+            let (kcc, kcd, kdd) = (k[(*c, *c)], k[(*c, *d)], k[(*d, *d)]);
+            let det = kcc * kdd - kcd * kcd;
+            for &r in &kept {
+                let (fc, fd) = (k[(*c, r)], k[(*d, r)]);
+                g[(*c, r)] = -(kdd * fc - kcd * fd) / det;
+                g[(*d, r)] = -(kcc * fd - kcd * fc) / det;
+            }
+            g[(*c, *c)] = 0.0;
+            g[(*d, *d)] = 0.0;
+        }
+        _ => {}
+    }
+    g
+}
+
 /// True when the member carries axial force only: a truss member, or a frame member
 /// released at both ends (no bending stiffness to assemble).
 pub fn is_axial_only(member: &Member) -> bool {
@@ -286,7 +405,7 @@ pub fn is_axial_only(member: &Member) -> bool {
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::frame::model::frame;
+    use crate::frame::model::{frame, truss};
 
     #[test]
     fn propped_cantilever_fixed_end_moment_matches_table() {
@@ -312,5 +431,92 @@ mod tests {
         let f = fixed_end_actions(&m, &g, &LocalLoad::Point { px: 0.0, py: -10.0, a: 1.0 });
         assert!((f[1] - 8.0).abs() < 1e-12 && (f[4] - 2.0).abs() < 1e-12);
         assert!(f[2].abs() < 1e-12 && f[5].abs() < 1e-12);
+    }
+
+    /// Slopes of the four cubic Hermite shape functions (v1, theta1, v2, theta2) of a
+    /// beam of length `l` at `x` (the shapes: Przemieniecki, ch. 5; differentiated here).
+    fn hermite_slopes(l: f64, x: f64) -> [f64; 4] {
+        let xi = x / l;
+        [
+            (-6.0 * xi + 6.0 * xi * xi) / l,
+            1.0 - 4.0 * xi + 3.0 * xi * xi,
+            (6.0 * xi - 6.0 * xi * xi) / l,
+            -2.0 * xi + 3.0 * xi * xi,
+        ]
+    }
+
+    /// N times the integral of phi_i' phi_j' over a member, by three-point Gauss
+    /// quadrature (exact for the quartic integrand), with each end's released rotation
+    /// carried by the transformation `g` of the member: an independent derivation of the
+    /// consistent geometric stiffness (K_G = N integral of v'^2 over the displacement
+    /// field of the elastic member).
+    fn geometric_stiffness_by_quadrature(n: f64, l: f64, g: &Matrix6<f64>) -> Matrix6<f64> {
+        let nodes = [(-(0.6f64).sqrt(), 5.0 / 9.0), (0.0, 8.0 / 9.0), ((0.6f64).sqrt(), 5.0 / 9.0)];
+        let mut kg = Matrix6::zeros();
+        for (t, w) in nodes {
+            let x = l * (1.0 + t) / 2.0;
+            let d = hermite_slopes(l, x);
+            // slope per unit of each local freedom (u1, v1, theta1, u2, v2, theta2)
+            let slope_full = nalgebra::RowVector6::new(0.0, d[0], d[1], 0.0, d[2], d[3]);
+            let slope = slope_full * g;
+            kg += slope.transpose() * slope * (n * w * l / 2.0);
+        }
+        kg
+    }
+
+    fn close(a: &Matrix6<f64>, b: &Matrix6<f64>) -> bool {
+        let scale = a.abs().max().max(b.abs().max());
+        (a - b).abs().max() <= 1e-12 * scale
+    }
+
+    #[test]
+    fn geometric_stiffness_is_the_integral_of_the_cubic_slopes() {
+        let g = Geometry::new(0.0, 0.0, 3.0, 4.0);
+        let n = -250.0;
+        for (rs, re) in [(false, false), (true, false), (false, true)] {
+            let mut m = frame("b", "", 0, 1, 2e8, 0.01, 1e-4);
+            m.release_start = rs;
+            m.release_end = re;
+            let kg = local_geometric_stiffness(&m, &g, n);
+            let by_quadrature =
+                geometric_stiffness_by_quadrature(n, 5.0, &release_transformation(5.0, rs, re));
+            assert!(close(&kg, &by_quadrature), "releases ({rs}, {re}):\n{kg}\n{by_quadrature}");
+        }
+    }
+
+    #[test]
+    fn release_transformation_condenses_the_elastic_stiffness() {
+        let g = Geometry::new(1.0, 2.0, 7.0, -1.0);
+        for (rs, re) in [(true, false), (false, true)] {
+            let mut m = frame("b", "", 0, 1, 2e8, 0.01, 3e-4);
+            m.release_start = rs;
+            m.release_end = re;
+            let condensed = local_stiffness(&m, &g);
+            let mut rigid = m.clone();
+            rigid.release_start = false;
+            rigid.release_end = false;
+            let t = release_transformation(g.length, rs, re);
+            let transformed = t.transpose() * local_stiffness(&rigid, &g) * t;
+            assert!(close(&condensed, &transformed), "releases ({rs}, {re})");
+        }
+    }
+
+    /// With both ends released the member stays straight between its ends: the condensed
+    /// cubic gives exactly the string stiffness N / L on (v1, v2).
+    #[test]
+    fn both_ends_released_condense_to_the_string_stiffness() {
+        let l = 6.0;
+        let n = -90.0;
+        let t = release_transformation(l, true, true);
+        let mut rigid = frame("b", "", 0, 1, 2e8, 0.01, 3e-4);
+        let g = Geometry::new(0.0, 0.0, l, 0.0);
+        let condensed = t.transpose() * local_geometric_stiffness(&rigid, &g, n) * t;
+        rigid.release_start = true;
+        rigid.release_end = true;
+        let string = local_geometric_stiffness(&rigid, &g, n);
+        assert!(close(&condensed, &string), "{condensed}\n{string}");
+        assert!((string[(1, 1)] - n / l).abs() < 1e-12 && (string[(1, 4)] + n / l).abs() < 1e-12);
+        let bar = truss("t", "", 0, 1, 2e8, 0.01);
+        assert!(close(&local_geometric_stiffness(&bar, &g, n), &string));
     }
 }

@@ -1,5 +1,7 @@
 //! The general plane-frame layer: the analysis model, member stiffness, the banded
-//! factorisation (internal), the direct stiffness solver and the determinacy of pin-jointed models.
+//! factorisation (internal), the direct stiffness solver, the determinacy of pin-jointed
+//! models, and in-plane linear buckling and natural frequencies (`stability`, with the
+//! eigensolvers in the internal `eigen`).
 //! It knows nothing of arches: members carry a free-text `group`, never a role.
 //!
 //! The solver by concept: `solver` (validation and the solve), `numbering` (reverse
@@ -15,8 +17,10 @@ pub mod influence;
 pub mod model;
 pub mod results;
 pub mod solver;
+pub mod stability;
 
 mod assembly;
 mod banded;
+mod eigen;
 mod numbering;
 mod recovery;

@@ -267,7 +267,11 @@ fn check_stiffness_range(model: &Model) -> Result<(), StaticsError> {
 
 /// Checks the assembled stiffness: a sum of finite member terms can still overflow where
 /// many stiff members meet. Errors: `OutOfRange` at the node of the first such entry.
-fn check_assembled_range(model: &Model, numbering: &Numbering, kff: &BandMatrix) -> Result<(), StaticsError> {
+pub(crate) fn check_assembled_range(
+    model: &Model,
+    numbering: &Numbering,
+    kff: &BandMatrix,
+) -> Result<(), StaticsError> {
     match kff.first_non_finite() {
         None => Ok(()),
         Some((i, _)) => {
@@ -307,7 +311,7 @@ pub fn solve(model: &Model) -> Result<Solution, StaticsError> {
     Ok(Solution { cases, free_dofs: n, bandwidth })
 }
 
-fn mechanism_error(model: &Model, numbering: &Numbering, null_vector: &[f64]) -> StaticsError {
+pub(crate) fn mechanism_error(model: &Model, numbering: &Numbering, null_vector: &[f64]) -> StaticsError {
     // name the translation that moves most in the mode (rotations only if none moves)
     let lc = characteristic_length(model);
     let mut best = (0usize, 0.0f64);
