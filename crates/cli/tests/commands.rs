@@ -485,3 +485,26 @@ fn sweep_prints_one_row_per_option() {
     let err = failed(&run(&basis, &demo_json()), 1);
     assert!(err.contains("one numeric parameter"), "{err}");
 }
+
+/// `modes` prints alpha_cr and frequencies with their shapes (JSON) or a text summary
+/// naming what buckles; the same numbers as the engine; a mode count out of range is
+/// refused (exit 1).
+#[test]
+fn modes_prints_buckling_and_vibration() {
+    use springline_statics::arch::stability::arch_stability;
+    let out = run(&["modes", "-", "--modes", "2"], &demo_json());
+    assert_eq!(out.status.code(), Some(0), "{}", text(&out.stderr));
+    let s: serde_json::Value = serde_json::from_slice(&out.stdout).expect("modes JSON");
+    let valid = springline_statics::ValidDesign::new(&springline_statics::Design::demo()).expect("valid");
+    let engine = arch_stability(&valid, 2).expect("stability");
+    let alpha = s["alpha_cr"].as_f64().expect("alpha_cr");
+    assert!((alpha - engine.alpha_cr).abs() < 1e-9 * alpha, "{alpha} vs {}", engine.alpha_cr);
+    assert_eq!(s["vibration"]["modes"].as_array().map(Vec::len), Some(2));
+    assert!(s["dead"]["modes"][0]["shape"]["nodes"].as_array().is_some_and(|n| !n.is_empty()));
+    let out = run(&["modes", "-", "--text"], &demo_json());
+    let summary = text(&out.stdout);
+    assert!(summary.contains("buckling mode 1: alpha_cr ") && summary.contains("Hz"), "{summary}");
+    assert!(summary.contains("out-of-plane") && summary.contains("licensed engineer"), "{summary}");
+    let err = failed(&run(&["modes", "-", "--modes", "0"], &demo_json()), 1);
+    assert!(err.contains("1 to 50"), "{err}");
+}

@@ -6,6 +6,7 @@ pub mod demo;
 pub mod influence;
 pub mod link;
 pub mod model;
+pub mod modes;
 pub mod size;
 pub mod solve;
 pub mod sweep;
@@ -27,6 +28,7 @@ pub enum Command {
     Solve(solve::Args),
     Influence(influence::Args),
     Size(size::Args),
+    Modes(modes::Args),
     Sweep(sweep::Args),
 }
 
@@ -41,6 +43,7 @@ impl Command {
             Command::Solve(args) => solve::run(args),
             Command::Influence(args) => influence::run(args),
             Command::Size(args) => size::run(args),
+            Command::Modes(args) => modes::run(args),
             Command::Sweep(args) => sweep::run(args),
         }
     }

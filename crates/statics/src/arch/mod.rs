@@ -18,6 +18,7 @@ pub mod massing;
 pub mod quantities;
 pub mod readout;
 pub mod sizing;
+pub mod stability;
 pub mod summary;
 pub mod sweep;
 pub mod traffic;
