@@ -70,12 +70,6 @@ impl Basis {
         }
     }
 
-    /// The basis named by `text` ("panel-loads" or "as-built", as on the command line;
-    /// spaces and underscores accepted for the dash).
-    pub fn parse(text: &str) -> Option<Basis> {
-        let key = text.trim().to_ascii_lowercase().replace([' ', '_'], "-");
-        Basis::ALL.into_iter().find(|b| b.name().replace(' ', "-") == key)
-    }
 }
 
 impl std::fmt::Display for Basis {
