@@ -69,7 +69,6 @@ impl Basis {
             }
         }
     }
-
 }
 
 impl std::fmt::Display for Basis {
