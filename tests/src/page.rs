@@ -183,3 +183,16 @@ pub fn data_number(session: &Session, id: &str, key: &str) -> Option<f64> {
         )
         .as_f64()
 }
+
+/// Waits until the results cell `id` carries `expected` in its `data-value` (the SI
+/// value, relative 1e-9).
+pub fn wait_value(session: &Session, id: &str, expected: f64) {
+    session.wait_for(
+        &format!("#{id} to read {expected}"),
+        &format!(
+            "const e = document.getElementById({}); return e && Math.abs(+e.dataset.value - {expected}) <= 1e-9 * Math.max(1, Math.abs({expected}));",
+            json!(id)
+        ),
+        WAIT,
+    );
+}

@@ -30,18 +30,6 @@ fn data_value(s: &Session, id: &str) -> f64 {
     .unwrap_or_else(|| panic!("no value in #{id}"))
 }
 
-/// Waits until cell `id` carries `expected` (relative 1e-9).
-fn wait_value(s: &Session, id: &str, expected: f64) {
-    s.wait_for(
-        &format!("#{id} to read {expected}"),
-        &format!(
-            "const e = document.getElementById({}); return e && Math.abs(+e.dataset.value - {expected}) <= 1e-9 * Math.max(1, Math.abs({expected}));",
-            json!(id)
-        ),
-        WAIT,
-    );
-}
-
 #[test]
 fn the_actions_block_shows_the_engines_numbers_and_follows_an_edit() {
     let server = StaticServer::start(&dist());

@@ -15,18 +15,6 @@ use springline_tests::page::*;
 use springline_tests::serve::StaticServer;
 use springline_tests::webdriver::Driver;
 
-/// Waits until cell `id` carries `expected` in `data-value` (relative 1e-9).
-fn wait_value(s: &springline_tests::webdriver::Session, id: &str, expected: f64) {
-    s.wait_for(
-        &format!("#{id} to read {expected}"),
-        &format!(
-            "const e = document.getElementById({}); return e && Math.abs(+e.dataset.value - {expected}) <= 1e-9 * Math.max(1, Math.abs({expected}));",
-            json!(id)
-        ),
-        WAIT,
-    );
-}
-
 #[test]
 fn the_as_built_basis_is_chosen_shown_linked_and_undone() {
     let server = StaticServer::start(&dist());

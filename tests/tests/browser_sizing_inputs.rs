@@ -55,18 +55,6 @@ fn wait_link(s: &Session, expected: &Design) -> String {
     }
 }
 
-/// Waits until cell `id` carries `expected` in `data-value` (relative 1e-9).
-fn wait_value(s: &Session, id: &str, expected: f64) {
-    s.wait_for(
-        &format!("#{id} to read {expected}"),
-        &format!(
-            "const e = document.getElementById({}); return e && Math.abs(+e.dataset.value - {expected}) <= 1e-9 * Math.max(1, Math.abs({expected}));",
-            json!(id)
-        ),
-        WAIT,
-    );
-}
-
 fn family_preset(key: &str) -> Family {
     Family::family_presets().into_iter().find(|(k, _)| *k == key).map(|(_, f)| f).expect("family preset")
 }
