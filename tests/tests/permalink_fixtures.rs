@@ -320,7 +320,16 @@ fn current_fixture_designs() -> Vec<FixtureDesign> {
         at("v2-sizing", 5, sizing_fixture()),
         at("v2-as-built", 6, as_built_fixture()),
         at("v2-concrete-box", 6, concrete_box_fixture()),
+        at("v2-first-order-rib", 7, first_order_rib_fixture()),
     ]
+}
+
+/// Design format 7 (link section 7): the demo with its rib sized for alpha_cr >= 10.
+fn first_order_rib_fixture() -> Design {
+    let mut d = Design::demo();
+    d.name = "Tarnvale Gorge, rib sized for a first-order analysis (invented fixture)".into();
+    d.sizing.rib_for_first_order = true;
+    d
 }
 
 /// Design format 6 (link section 5): the demo with its form found as built.
@@ -549,4 +558,16 @@ fn the_concrete_box_fixture_keeps_its_box() {
     assert!(matches!(link.sizing.rib.family, Some(Family::ConcreteBox { .. })), "{:?}", link.sizing.rib);
     assert!(matches!(link.sizing.posts.family, Some(Family::ConcreteRect { .. })), "{:?}", link.sizing.posts);
     assert_eq!(link.sizing.rib.material.name(), "C50/60");
+}
+
+/// The first-order rib fixture (design format 7, link section 7) reads back with the
+/// option on, from its link and its design file; fixtures made before have it off.
+#[test]
+fn the_first_order_rib_fixture_keeps_its_option() {
+    let link = permalink::decode(&read(&folder().join("v2-first-order-rib.link"))).expect("opens");
+    let file = read_design_file(&designs_folder().join("v7-first-order-rib.json"));
+    assert_eq!(link, file);
+    assert!(link.sizing.rib_for_first_order);
+    let older = permalink::decode(&read(&folder().join("v2-concrete-box.link"))).expect("opens");
+    assert!(!older.sizing.rib_for_first_order);
 }

@@ -62,6 +62,16 @@ pub fn text_summary(name: &str, s: &ArchStability) -> String {
         };
         out.push(format!("  buckling mode {}: alpha_cr {:.3} ({what})", k + 1, m.load_factor));
     }
+    match s.arch.mode {
+        Some(_) => out.push(format!(
+            "  the arch's own lowest mode (posts and diagonals kept whole): alpha_cr {:.3}",
+            s.arch.alpha_cr
+        )),
+        None => out.push(format!(
+            "  the arch's own lowest mode (posts and diagonals kept whole): alpha_cr above {:.3}",
+            s.arch.alpha_cr
+        )),
+    }
     for (k, m) in s.vibration.modes.iter().enumerate() {
         let kind = if m.vertical_share > 0.5 { "vertical" } else { "horizontal" };
         out.push(format!(

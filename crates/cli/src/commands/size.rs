@@ -95,6 +95,7 @@ pub fn text_summary(r: &SizeReport) -> String {
         };
         out.push(format!("  {:<8} {section}; {used}", g.group));
     }
+    out.extend(stability_lines(r));
     let q = &r.quantities;
     out.push(format!(
         "quantities: steel {:.1} t, concrete {:.1} m3, glulam {:.1} m3, thrust blocks {:.1} m3; cost index {:.0}",
@@ -121,6 +122,62 @@ pub fn text_summary(r: &SizeReport) -> String {
     }
     out.push(format!("({}; {})", r.units, r.caution));
     out.join("\n")
+}
+
+/// The stability part of the text summary: the arch's alpha_cr at the rib's section,
+/// each analysed case's, the dead load's and the lowest frequencies.
+fn stability_lines(r: &SizeReport) -> Vec<String> {
+    let mut out = Vec::new();
+    match (&r.sizing.rib_stability, &r.sizing.rib_stability_failure) {
+        (Some(st), _) => {
+            let at_section = r.sizing.rib_alpha_cr.unwrap_or(st.alpha_cr);
+            out.push(format!(
+                "rib stability: the arch's alpha_cr {at_section:.2} with the rib's section (analysed {:.2}; at least \
+                 {} accepted); per case analysed:",
+                st.alpha_cr, st.least
+            ));
+            for c in &st.cases {
+                let arch = match c.arch.mode {
+                    Some(_) => format!("{:.2}", c.arch.alpha_cr),
+                    None => format!("above {:.2}", c.arch.alpha_cr),
+                };
+                out.push(format!(
+                    "  arch alpha_cr {arch}; lowest {:.2} ({}) — {}: {}",
+                    c.alpha_cr, c.first_mode, c.combination, c.placement
+                ));
+            }
+        }
+        (None, Some(why)) => {
+            out.push(format!("rib stability not analysed ({why}): the arch table's length is used"))
+        }
+        (None, None) => {}
+    }
+    match (&r.stability, &r.stability_failure) {
+        (Some(s), _) => {
+            out.push(format!("dead load: {}", s.verdict));
+            let f: Vec<String> = s
+                .frequencies
+                .iter()
+                .map(|f| {
+                    format!(
+                        "{:.2} Hz ({})",
+                        f.hz,
+                        if f.vertical_share > 0.5 { "vertical" } else { "horizontal" }
+                    )
+                })
+                .collect();
+            out.push(format!("natural frequencies: {}", f.join(", ")));
+            if let Some(flag) = &s.footbridge {
+                out.push(format!("footbridge: {flag}"));
+            }
+            out.push(
+                "out-of-plane buckling and lateral sway are beyond this plane model: not covered".into(),
+            );
+        }
+        (None, Some(why)) => out.push(format!("buckling and frequencies not found: {why}")),
+        (None, None) => {}
+    }
+    out
 }
 
 /// The massing loop for people: each pass's thrust, steel and what it changed, whether it

@@ -32,7 +32,7 @@ use crate::arch::form::{iterate, Basis, Form, LoadBasis, Settings};
 use crate::arch::generate::{frame_model, DEAD};
 use crate::arch::layout::{Layout, Topology};
 use crate::arch::validate::ValidDesign;
-use crate::error::StaticsError;
+use crate::error::{Field, Problem, StaticsError};
 use crate::frame::solver::solve;
 use crate::graphic::funicular::NodeLoad;
 
@@ -130,5 +130,16 @@ pub fn as_built_form(design: &Design, layout: &Layout, panel: &Form) -> Result<F
         shared: Some(panel.shared()),
         accelerate: true,
     };
-    iterate(layout, &basis, panel.rib_y(), &settings)
+    iterate(layout, &basis, panel.rib_y(), &settings).map_err(|e| match e {
+        // a braced frame carries much of the deck on its bracing and deck, whatever the
+        // rib's shape: with a slender rib the iteration can reach a shape on which the
+        // rib's own loads no longer press its crown down
+        StaticsError::Invalid(_) if design.bracing.is_braced() => StaticsError::Invalid(vec![Problem::new(
+            Field::FormBasis,
+            "the as-built form cannot be found: on a trial shape the braced frame carries the deck on its \
+             bracing and deck, and the rib's own loads no longer press its crown down; find the form for panel \
+             loads, stiffen the rib against the deck, or leave the bracing out",
+        )]),
+        other => other,
+    })
 }

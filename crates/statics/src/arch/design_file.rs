@@ -14,6 +14,7 @@
 //! | 4 | `actions` added (temperature, springing movement, deflection limit) and the combinations' `temperature`, `settlement`, `braking` factors; a version-3 design gets its load model family's presets (`ActionsDesign::preset`, `Combination::add_action_factors`, EN's gr2 added) |
 //! | 5 | `sizing` added (each group's family and material or as typed, the deck's cross-section, unit rates, foundation inputs); a version-4 design keeps every group as typed, checked as the material its E suggests (`SizingDesign::as_typed`), and counts its typed deck dead load |
 //! | 6 | `form.basis` added (`panel_loads` or `as_built`: what the form is found for); a version-5 design keeps `panel_loads`; the concrete box family (`concrete_box`) added, which no earlier design has |
+//! | 7 | `sizing.rib_for_first_order` added (size the rib for alpha_cr >= 10); a version-6 design has it off |
 //!
 //! # Reading ([`read_design_json`])
 //!
@@ -59,7 +60,8 @@ type Step = fn(&mut Map<String, Value>);
 
 /// The migration steps, oldest first: `STEPS[i]` takes version `OLDEST_DESIGN_VERSION + i`
 /// to the next.
-const STEPS: &[Step] = &[version_1_to_2, version_2_to_3, version_3_to_4, version_4_to_5, version_5_to_6];
+const STEPS: &[Step] =
+    &[version_1_to_2, version_2_to_3, version_3_to_4, version_4_to_5, version_5_to_6, version_6_to_7];
 
 // One step per version: a new DESIGN_VERSION without its step stops the build here.
 const _: () = assert!(OLDEST_DESIGN_VERSION + STEPS.len() as u32 == DESIGN_VERSION);
@@ -109,6 +111,14 @@ fn version_4_to_5(design: &mut Map<String, Value>) {
 fn version_5_to_6(design: &mut Map<String, Value>) {
     if let Some(Value::Object(form)) = design.get_mut("form") {
         form.entry("basis").or_insert(Value::from("panel_loads"));
+    }
+}
+
+/// Version 6 to 7: the rib sized for alpha_cr >= 10, off (every rib before was sized
+/// for alpha_cr >= 3, or rather by the arch table's buckling length).
+fn version_6_to_7(design: &mut Map<String, Value>) {
+    if let Some(Value::Object(sizing)) = design.get_mut("sizing") {
+        sizing.entry("rib_for_first_order").or_insert(Value::from(false));
     }
 }
 
@@ -342,11 +352,11 @@ mod tests {
     fn newer_unknown_and_missing_versions_are_refused_with_reasons() {
         let with_version =
             |v: &str| demo_v1_text().replacen("\"version\": 1", &format!("\"version\": {v}"), 1);
-        let e = file_error(read_design_json(&with_version("7")));
-        assert_eq!(e, DesignFileError::NewerVersion { version: 7, readable: READABLE_DESIGN_VERSIONS });
+        let e = file_error(read_design_json(&with_version("8")));
+        assert_eq!(e, DesignFileError::NewerVersion { version: 8, readable: READABLE_DESIGN_VERSIONS });
         let message = StaticsError::DesignFile(e).to_string();
         let expected =
-            format!("made by a newer version of Springline (format 7; this one reads 1 to {DESIGN_VERSION})");
+            format!("made by a newer version of Springline (format 8; this one reads 1 to {DESIGN_VERSION})");
         assert!(message.contains(&expected), "{message}");
         assert!(matches!(
             file_error(read_design_json(&with_version("0"))),
@@ -399,12 +409,28 @@ mod tests {
         assert!(message.contains("not a design of format 1") && message.contains("deck"), "{message}");
     }
 
-    /// The field a hypothetical version 7 adds, and its default (test only).
-    const FIELD_OF_VERSION_7: &str = "field_of_version_7";
-    const DEFAULT_OF_VERSION_7: f64 = 0.25;
+    /// The field a hypothetical version 8 adds, and its default (test only).
+    const FIELD_OF_VERSION_8: &str = "field_of_version_8";
+    const DEFAULT_OF_VERSION_8: f64 = 0.25;
 
-    fn version_6_to_7(design: &mut Map<String, Value>) {
-        design.entry(FIELD_OF_VERSION_7).or_insert(Value::from(DEFAULT_OF_VERSION_7));
+    fn version_7_to_8(design: &mut Map<String, Value>) {
+        design.entry(FIELD_OF_VERSION_8).or_insert(Value::from(DEFAULT_OF_VERSION_8));
+    }
+
+    /// The demo as a version-6 file: no first-order rib option.
+    fn demo_v6_text() -> String {
+        let mut value = serde_json::to_value(Design::demo()).expect("serialises");
+        value["version"] = Value::from(6);
+        value["sizing"].as_object_mut().expect("sizing object").remove("rib_for_first_order");
+        serde_json::to_string_pretty(&value).expect("serialises")
+    }
+
+    /// A format-6 file opens with the rib sized for alpha_cr >= 3 (the option off).
+    #[test]
+    fn version_6_files_size_the_rib_for_amplified_moments() {
+        let d = read_design_json(&demo_v6_text()).expect("reads");
+        assert!(!d.sizing.rib_for_first_order);
+        assert_eq!(d, Design::demo());
     }
 
     /// The demo as a version-5 file: no form basis.
@@ -449,20 +475,28 @@ mod tests {
     }
 
     /// How a later version adds a field without breaking older files: one more step.
-    /// Files of versions 1 to 6 reach version 7 through the whole chain with the
-    /// defaults of every step; a version-7 file keeps its value; and today's reader,
-    /// which knows no version 7, refuses such a file as made by a newer version.
+    /// Files of versions 1 to 7 reach version 8 through the whole chain with the
+    /// defaults of every step; a version-8 file keeps its value; and today's reader,
+    /// which knows no version 8, refuses such a file as made by a newer version.
     #[test]
     fn a_later_version_adds_a_field_by_one_more_step() {
-        assert_eq!(DESIGN_VERSION, 6, "model the version after today's here");
-        let steps: &[Step] =
-            &[version_1_to_2, version_2_to_3, version_3_to_4, version_4_to_5, version_5_to_6, version_6_to_7];
+        assert_eq!(DESIGN_VERSION, 7, "model the version after today's here");
+        let steps: &[Step] = &[
+            version_1_to_2,
+            version_2_to_3,
+            version_3_to_4,
+            version_4_to_5,
+            version_5_to_6,
+            super::version_6_to_7,
+            version_7_to_8,
+        ];
         let v1 = demo_v1_text();
         let v2 = demo_v2_text();
         let v3 = demo_v3_text();
         let v4 = demo_v4_text();
         let v5 = demo_v5_text();
-        let v6 = write_design_json(&Design::demo());
+        let v6 = demo_v6_text();
+        let v7 = write_design_json(&Design::demo());
         let demo_traffic = serde_json::to_value(Design::demo().traffic).expect("serialises");
         let default_traffic = serde_json::to_value(TrafficDesign::for_deck_width(11.0)).expect("serialises");
         for (text, declared, traffic) in [
@@ -472,27 +506,29 @@ mod tests {
             (&v4, 4, &demo_traffic),
             (&v5, 5, &demo_traffic),
             (&v6, 6, &demo_traffic),
+            (&v7, 7, &demo_traffic),
         ] {
             let (version, value) = updated_json(text, steps).expect("reads");
             assert_eq!(version, declared);
-            assert_eq!(value["version"], Value::from(7));
+            assert_eq!(value["version"], Value::from(8));
             assert_eq!(value["deck"]["abutment_height"], Value::from(DEFAULT_ABUTMENT_HEIGHT));
             assert_eq!(&value["traffic"], traffic, "version {declared}");
             assert!(value["actions"]["temperature"]["alpha"].is_number(), "version {declared}");
             assert!(value["sizing"]["rib"]["material"]["fy"].is_number(), "version {declared}");
             assert_eq!(value["form"]["basis"], Value::from("panel_loads"), "version {declared}");
-            assert_eq!(value[FIELD_OF_VERSION_7], Value::from(DEFAULT_OF_VERSION_7));
+            assert_eq!(value["sizing"]["rib_for_first_order"], Value::from(false), "version {declared}");
+            assert_eq!(value[FIELD_OF_VERSION_8], Value::from(DEFAULT_OF_VERSION_8));
         }
-        let mut v7: Value = serde_json::from_str(&v6).expect("JSON");
-        v7["version"] = Value::from(7);
-        v7[FIELD_OF_VERSION_7] = Value::from(0.5);
-        let v7 = serde_json::to_string_pretty(&v7).expect("serialises");
-        let (_, value) = updated_json(&v7, steps).expect("reads");
-        assert_eq!(value[FIELD_OF_VERSION_7], Value::from(0.5));
+        let mut v8: Value = serde_json::from_str(&v7).expect("JSON");
+        v8["version"] = Value::from(8);
+        v8[FIELD_OF_VERSION_8] = Value::from(0.5);
+        let v8 = serde_json::to_string_pretty(&v8).expect("serialises");
+        let (_, value) = updated_json(&v8, steps).expect("reads");
+        assert_eq!(value[FIELD_OF_VERSION_8], Value::from(0.5));
         // today's reader
-        let message = read_design_json(&v7).map_err(|e| e.to_string()).expect_err("refused");
+        let message = read_design_json(&v8).map_err(|e| e.to_string()).expect_err("refused");
         assert!(
-            message.contains("made by a newer version of Springline (format 7; this one reads 1 to 6)"),
+            message.contains("made by a newer version of Springline (format 8; this one reads 1 to 7)"),
             "{message}"
         );
     }

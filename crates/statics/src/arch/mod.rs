@@ -17,6 +17,7 @@ pub mod layout;
 pub mod massing;
 pub mod quantities;
 pub mod readout;
+pub mod second_order;
 pub mod sizing;
 pub mod stability;
 pub mod summary;

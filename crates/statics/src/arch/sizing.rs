@@ -11,13 +11,16 @@
 //! smallest size are `sizing::resistance`'s.
 //!
 //! Buckling lengths:
-//! - rib, in its plane: the arch buckles as a whole. The length is that of a pin-ended
-//!   strut whose Euler load is the rib's axial force at the quarter point when a
-//!   parabolic rib of the same rise and span buckles under a uniform load, q_cr = gamma
+//! - rib, in its plane: the arch buckles as a whole. The length comes from the arch's
+//!   critical load factor in the case of the member's largest compression, l = pi sqrt(E
+//!   I / (alpha_cr N_Ed)), the steel and glulam rib's moments are amplified by 1 / (1 -
+//!   1/alpha_cr) and the arch's alpha_cr must reach 3 (or 10 when the design asks for a
+//!   first-order rib): `arch::second_order`. Where that analysis fails, the length of a
+//!   pin-ended strut whose Euler load is the rib's axial force at the quarter point when
+//!   a parabolic rib of the same rise and span buckles under a uniform load, q_cr = gamma
 //!   EI / L^3 (Timoshenko and Gere, Theory of Elastic Stability, ch. 7, arch tables;
 //!   coefficients from memory), so N_cr = (pi / (beta s))^2 EI as in EN 1993-2 Annex D.3
-//!   with s half the rib's length; the stability issue replaces this by the critical load
-//!   factor of the whole structure;
+//!   with s half the rib's length ([`arch_buckling`]), and the basis says so;
 //! - rib, out of its plane: an editable length, by default each rib segment's length for
 //!   two or more ribs (held sideways at every rib node by bracing between the ribs,
 //!   common practice: assumed, neither modelled nor counted in the quantities) and the
@@ -33,11 +36,13 @@ use crate::arch::analysis::CAUTION;
 use crate::arch::design::{Design, MemberGroups, Section};
 use crate::arch::generate::{frame_model, Generated, MemberRole};
 use crate::arch::influence::{ArchLine, MemberEnd};
+use crate::arch::second_order::{rib_stability, RibSection, RibSources, RibStability, RibTrial};
+use crate::arch::stability::{arch_stability, StabilitySummary};
 use crate::arch::traffic::{Governing, LineEnvelope, TrafficReport};
 use crate::arch::validate::ValidDesign;
 use crate::error::{Field, GroupName, Problem, StaticsError};
 use crate::sizing::materials::{material_preset, Material};
-use crate::sizing::resistance::{check, size_member, Demand, Lengths, Mode};
+use crate::sizing::resistance::{check, size_member_by, Check, Demand, Lengths, Mode};
 use crate::sizing::sections::{Family, SectionProps};
 use crate::traffic::combination::Combination;
 use serde::{Deserialize, Serialize};
@@ -57,6 +62,11 @@ pub struct SizingDesign {
     pub bracing: GroupSizing,
     /// The rib's buckling length out of its plane, m; `None`: each rib segment's length.
     pub rib_out_of_plane: Option<f64>,
+    /// Size the rib so that the arch's alpha_cr is at least 10, where a first-order
+    /// analysis is acceptable (EN 1993-1-1 5.2.1(3)); otherwise at least 3, with its
+    /// moments amplified (5.2.2). Design format 7.
+    #[serde(default)]
+    pub rib_for_first_order: bool,
     /// The deck's cross-section: slab and cross-girders.
     pub deck_section: DeckCrossSection,
     /// Unit rates of the cost index.
@@ -225,6 +235,7 @@ impl SizingDesign {
             piers: guess(&groups.piers),
             bracing: guess(&groups.bracing),
             rib_out_of_plane: None,
+            rib_for_first_order: false,
             deck_section: DeckCrossSection::default(),
             rates: UnitRates::default(),
             foundation: FoundationDesign::default(),
@@ -243,6 +254,7 @@ impl SizingDesign {
             piers: GroupSizing::sized(family("chs"), s355.clone()),
             bracing: GroupSizing::sized(family("chs"), s355),
             rib_out_of_plane: None,
+            rib_for_first_order: false,
             deck_section: DeckCrossSection::default(),
             rates: UnitRates::default(),
             foundation: FoundationDesign::default(),
@@ -474,6 +486,9 @@ pub struct MemberSizing {
     pub combination: String,
     /// Where the traffic stands for that demand, in words.
     pub placement: String,
+    /// A rib member's second-order numbers at the group's section (`arch::second_order`);
+    /// `None` for other members or when the rib's stability could not be analysed.
+    pub second_order: Option<RibTrial>,
 }
 
 /// How a group came out.
@@ -527,8 +542,17 @@ pub struct GroupReport {
 pub struct MemberSizingReport {
     /// The ultimate combinations used.
     pub combinations: Vec<String>,
-    /// The rib's in-plane buckling length.
+    /// The rib's in-plane buckling length by the arch table: what the rib is checked with
+    /// when its stability could not be analysed (`rib_stability_failure`).
     pub arch_buckling: ArchBuckling,
+    /// The rib's in-plane stability from the buckling of the governing placements
+    /// (`arch::second_order`), at the analysed sections.
+    pub rib_stability: Option<RibStability>,
+    /// Why the rib's stability could not be analysed (the arch table's length is used).
+    pub rib_stability_failure: Option<String>,
+    /// The arch's least alpha_cr with the rib group's section (scaled from the analysed
+    /// one by E I).
+    pub rib_alpha_cr: Option<f64>,
     /// Per group.
     pub groups: Vec<GroupReport>,
     /// Per member of the frame model (per rib line), in model order.
@@ -607,14 +631,17 @@ struct Part {
     value: f64,
     combination: String,
     placement: String,
+    /// The envelope line and extreme (true: its largest) it comes from.
+    source: Option<(String, bool)>,
 }
 
 impl Part {
-    fn take(&mut self, value: f64, combination: &str, placement: impl FnOnce() -> String) {
+    fn take(&mut self, value: f64, combination: &str, line: &LineEnvelope, max: bool) {
         if value > self.value {
             self.value = value;
             self.combination = combination.to_string();
-            self.placement = placement();
+            self.placement = placement_words(if max { &line.traffic_max } else { &line.traffic_min });
+            self.source = Some((line.line.clone(), max));
         }
     }
 }
@@ -663,8 +690,8 @@ fn member_demand(
     if let Some(l) = find(ArchLine::Axial(k)) {
         for (name, max, min) in ranges(l) {
             largest_n = largest_n.max(max);
-            tension.take(max, &name, || placement_words(&l.traffic_max));
-            compression.take(-min, &name, || placement_words(&l.traffic_min));
+            tension.take(max, &name, l, true);
+            compression.take(-min, &name, l, false);
         }
     }
     let moment_lines =
@@ -672,8 +699,8 @@ fn member_demand(
     for line in moment_lines {
         if let Some(l) = find(line) {
             for (name, max, min) in ranges(l) {
-                moment.take(max, &name, || placement_words(&l.traffic_max));
-                moment.take(-min, &name, || placement_words(&l.traffic_min));
+                moment.take(max, &name, l, true);
+                moment.take(-min, &name, l, false);
             }
         }
     }
@@ -708,7 +735,7 @@ pub fn size_members(valid: &ValidDesign, report: &TrafficReport) -> Result<Membe
         parts: [Part; 3],
     }
     let model = &generated.model;
-    let rows: Vec<Row> = generated
+    let mut rows: Vec<Row> = generated
         .map
         .roles
         .iter()
@@ -743,7 +770,46 @@ pub fn size_members(valid: &ValidDesign, report: &TrafficReport) -> Result<Membe
             Row { k, group, length, demand, lengths, parts }
         })
         .collect();
+    // the rib's stability from the buckling of the placements that govern its members
+    let source = |p: &Part| p.source.clone().map(|(line, max)| (p.combination.clone(), line, max));
+    let sources: Vec<RibSources> = rows
+        .iter()
+        .filter(|r| r.group == GroupName::Rib)
+        .map(|r| RibSources { member: r.k, compression: source(&r.parts[0]), moment: source(&r.parts[2]) })
+        .collect();
+    let (stability, stability_failure) = if sources.is_empty() {
+        (None, None)
+    } else {
+        match rib_stability(valid, &generated, report, &ultimate, &sources) {
+            Ok(s) => (Some(s), None),
+            Err(e) => (None, Some(e.to_string())),
+        }
+    };
+    let mut rib_index = vec![None; model.members.len()];
+    for (i, s) in sources.iter().enumerate() {
+        rib_index[s.member] = Some(i);
+    }
+    // a rib member's in-plane buckling length is alpha_cr's (what the report shows)
+    if let Some(st) = &stability {
+        for r in &mut rows {
+            if let Some(l) = rib_index[r.k].and_then(|i| st.members[i].length) {
+                r.lengths.in_plane = l;
+            }
+        }
+    }
+    // one member's check at a section of E I `ei`: a rib member's with its stability
+    let check_member = |material: &Material, family: &Family, props: &SectionProps, ei: f64, r: &Row| match (
+        &stability,
+        rib_index[r.k],
+    ) {
+        (Some(st), Some(i)) => {
+            st.check(&st.members[i], &RibSection { material, family, props, ei }, &r.demand, &r.lengths)
+        }
+        _ => check(material, family, props, &r.demand, &r.lengths),
+    };
     let mut groups = Vec::new();
+    let mut rib_alpha_cr = None;
+    let mut trials = vec![None; rows.len()];
     let mut at_group = vec![None; rows.len()];
     for g in GroupName::ALL {
         let s = sizing.group(g);
@@ -760,7 +826,15 @@ pub fn size_members(valid: &ValidDesign, report: &TrafficReport) -> Result<Membe
                 let mut need: Option<(f64, String)> = None;
                 let mut failure = None;
                 for r in &mine {
-                    match size_member(&s.material, family, &r.demand, &r.lengths) {
+                    let e = s.material.e();
+                    let sized = size_member_by(
+                        &s.material,
+                        family,
+                        &|props: &SectionProps| -> Result<Check, String> {
+                            check_member(&s.material, family, props, e * props.i, r)
+                        },
+                    );
+                    match sized {
                         Ok(sized) => {
                             if need.as_ref().is_none_or(|(size, _)| sized.size > *size) {
                                 need = Some((sized.size, model.member_label(r.k)));
@@ -785,8 +859,19 @@ pub fn size_members(valid: &ValidDesign, report: &TrafficReport) -> Result<Membe
         };
         let mut worst: Option<(f64, String)> = None;
         if let Some(props) = props {
+            // E I per rib line of the group's section: the typed E, or the material's
+            let e = if matches!(outcome, GroupOutcome::AsTyped) { typed.e } else { s.material.e() };
+            let ei = e * props.i;
+            if let (GroupName::Rib, Some(st)) = (g, &stability) {
+                rib_alpha_cr = Some(st.alpha_cr * ei / st.analysed_ei);
+                for r in &mine {
+                    if let Some(i) = rib_index[r.k] {
+                        trials[r.k] = Some(st.trial(&st.members[i], ei, &s.material));
+                    }
+                }
+            }
             for r in &mine {
-                if let Ok(c) = check(&s.material, &family, &props, &r.demand, &r.lengths) {
+                if let Ok(c) = check_member(&s.material, &family, &props, ei, r) {
                     if worst.as_ref().is_none_or(|(u, _)| c.utilisation > *u) {
                         worst = Some((c.utilisation, model.member_label(r.k)));
                     }
@@ -841,6 +926,7 @@ pub fn size_members(valid: &ValidDesign, report: &TrafficReport) -> Result<Membe
                 governs,
                 combination: part.combination.clone(),
                 placement: part.placement.clone(),
+                second_order: trials[r.k],
             }
         })
         .collect();
@@ -856,9 +942,19 @@ pub fn size_members(valid: &ValidDesign, report: &TrafficReport) -> Result<Membe
              the members' ends and mid-length; the three-hinged crown's drop-in deck span is not a member of the \
              model and is not checked. The erection stage is checked apart. {}",
             ultimate.iter().map(|c| c.name.as_str()).collect::<Vec<_>>().join(", "),
-            arch.basis
+            match (&stability, &stability_failure) {
+                (Some(st), _) => format!("Rib: {}.", st.basis()),
+                (None, Some(why)) => format!(
+                    "Rib: its stability could not be analysed ({why}); {} instead.",
+                    arch.basis
+                ),
+                (None, None) => arch.basis.clone(),
+            }
         ),
         arch_buckling: arch,
+        rib_stability: stability,
+        rib_stability_failure: stability_failure,
+        rib_alpha_cr,
         groups,
         members,
         caution: CAUTION.into(),
@@ -901,6 +997,12 @@ pub struct SizeReport {
     pub quantities: crate::arch::quantities::Quantities,
     /// Foundation demand.
     pub foundations: crate::arch::foundation::Foundations,
+    /// Buckling under the dead load and the natural frequencies of the analysed design
+    /// (`arch::stability`; the governing placements' alpha_cr are in
+    /// `sizing.rib_stability`); `None` when they could not be found.
+    pub stability: Option<StabilitySummary>,
+    /// Why they could not be found.
+    pub stability_failure: Option<String>,
     /// Caution.
     pub caution: String,
 }
@@ -943,6 +1045,9 @@ pub fn size_of(design: &Design) -> Result<SizeReport, StaticsError> {
     size_design(&valid, &traffic)
 }
 
+/// How many natural frequencies the size report lists.
+pub const SUMMARY_MODES: usize = 4;
+
 /// Units of the size report.
 pub const SIZE_UNITS: &str = "m, m2, m3, m4, kN, kNm, kN/m2, t (tonnes), degrees; utilisation = demand / \
                               resistance (1 = fully used); cost index in the units of the design's rates";
@@ -966,7 +1071,13 @@ pub fn size_design(valid: &ValidDesign, report: &TrafficReport) -> Result<SizeRe
     };
     let foundations = crate::arch::foundation::foundations(valid, report, rib_size);
     let quantities = crate::arch::quantities::quantities(valid, &sizing, &foundations);
+    let (stability, stability_failure) = match arch_stability(valid, SUMMARY_MODES) {
+        Ok(s) => (Some(s.summary()), None),
+        Err(e) => (None, Some(e.to_string())),
+    };
     Ok(SizeReport {
+        stability,
+        stability_failure,
         design: valid.design().name.clone(),
         form_basis: valid.form().basis,
         units: SIZE_UNITS.into(),

@@ -399,8 +399,8 @@ mod tests {
     use crate::arch::design::{Bracing, Crown, GroundPoint, RibSystem, DEFAULT_ABUTMENT_HEIGHT};
     use crate::arch::sizing::SizingDesign;
     use crate::link::sections::{
-        TAG_ABUTMENT, TAG_ACTIONS, TAG_ADDED_FAMILIES, TAG_FORM_BASIS, TAG_RESERVED_FOR_TESTS, TAG_SIZING,
-        TAG_TRAFFIC,
+        TAG_ABUTMENT, TAG_ACTIONS, TAG_ADDED_FAMILIES, TAG_FIRST_ORDER_RIB, TAG_FORM_BASIS,
+        TAG_RESERVED_FOR_TESTS, TAG_SIZING, TAG_TRAFFIC,
     };
     use crate::traffic::models::{LoadModel, ModelFamily};
     use crate::traffic::TrafficDesign;
@@ -763,7 +763,7 @@ mod tests {
 
     /// The sections the later version knows: every shipped one, then its new one.
     fn later_kinds() -> Vec<SectionKind<Later>> {
-        assert_eq!(SECTIONS.len(), 6, "list every shipped section here");
+        assert_eq!(SECTIONS.len(), 7, "list every shipped section here");
         vec![
             SectionKind {
                 tag: TAG_ABUTMENT,
@@ -794,6 +794,11 @@ mod tests {
                 tag: TAG_ADDED_FAMILIES,
                 write: shipped_write::<TAG_ADDED_FAMILIES>,
                 read: shipped_read::<TAG_ADDED_FAMILIES>,
+            },
+            SectionKind {
+                tag: TAG_FIRST_ORDER_RIB,
+                write: shipped_write::<TAG_FIRST_ORDER_RIB>,
+                read: shipped_read::<TAG_FIRST_ORDER_RIB>,
             },
             SectionKind { tag: TAG_RESERVED_FOR_TESTS, write: later_write, read: later_read },
         ]

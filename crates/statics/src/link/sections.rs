@@ -9,6 +9,7 @@
 //! | 4 | 5 | the sizing: each group's family, material and buckling length factor, the rib's out-of-plane length, the deck's cross-section, unit rates, foundation inputs |
 //! | 5 | 6 | the form-finding basis (panel loads or as built) |
 //! | 6 | 6 | the families added in design format 6 (the concrete box), per group; section 4's frozen family cannot hold them, so it carries no family for such a group |
+//! | 7 | 7 | the rib sized for a first-order analysis (alpha_cr >= 10) |
 //!
 //! A section on the wire is its tag (a varint) and its body: the postcard bytes of the
 //! section's struct, length-prefixed. Each section struct is FROZEN once shipped, like the
@@ -73,6 +74,8 @@ pub(super) const TAG_SIZING: u32 = 4;
 pub(super) const TAG_FORM_BASIS: u32 = 5;
 /// The section families added in design format 6 (design format 6).
 pub(super) const TAG_ADDED_FAMILIES: u32 = 6;
+/// The rib sized for a first-order analysis (design format 7).
+pub(super) const TAG_FIRST_ORDER_RIB: u32 = 7;
 /// A tag no shipped section has: the tests use it for a section of a "later version".
 #[cfg(test)]
 pub(super) const TAG_RESERVED_FOR_TESTS: u32 = 9_999;
@@ -85,6 +88,7 @@ pub(super) const SECTIONS: &[SectionKind<Design>] = &[
     SectionKind { tag: TAG_SIZING, write: sizing::write, read: sizing::read },
     SectionKind { tag: TAG_FORM_BASIS, write: form_basis::write, read: form_basis::read },
     SectionKind { tag: TAG_ADDED_FAMILIES, write: added_families::write, read: added_families::read },
+    SectionKind { tag: TAG_FIRST_ORDER_RIB, write: first_order_rib::write, read: first_order_rib::read },
 ];
 
 /// The sections of a target, one per kind, in the order of `kinds` (tags ascending).
@@ -178,6 +182,28 @@ mod form_basis {
             FormBasisV1::PanelLoads => Basis::PanelLoads,
             FormBasisV1::AsBuilt => Basis::AsBuilt,
         };
+        Ok(())
+    }
+}
+
+/// Section 7 (design format 7): whether the rib is sized for alpha_cr >= 10.
+mod first_order_rib {
+    use super::*;
+
+    /// FROZEN: links hold this layout.
+    #[derive(Serialize, Deserialize)]
+    struct FirstOrderRibV1 {
+        /// `sizing.rib_for_first_order`.
+        on: bool,
+    }
+
+    pub(super) fn write(d: &Design) -> Vec<u8> {
+        body(&FirstOrderRibV1 { on: d.sizing.rib_for_first_order })
+    }
+
+    pub(super) fn read(bytes: &[u8], d: &mut Design) -> Result<(), LinkError> {
+        let FirstOrderRibV1 { on } = frozen(TAG_FIRST_ORDER_RIB, bytes)?;
+        d.sizing.rib_for_first_order = on;
         Ok(())
     }
 }
@@ -883,6 +909,8 @@ mod sizing {
             piers,
             bracing,
             rib_out_of_plane,
+            // carried by section 7
+            rib_for_first_order: _,
             deck_section,
             rates,
             foundation,
@@ -957,6 +985,8 @@ mod sizing {
             piers,
             bracing,
             rib_out_of_plane,
+            // section 7's, read after this one
+            rib_for_first_order: d.sizing.rib_for_first_order,
             deck_section: DeckCrossSection {
                 weight: if cross_section_weight { DeckWeight::CrossSection } else { DeckWeight::TypedLoad },
                 slab_thickness,
@@ -1005,8 +1035,8 @@ mod tests {
         let mut short = one;
         short[0].body.pop();
         assert!(matches!(read_all(&short, SECTIONS, &mut d), Err(LinkError::DamagedSection { .. })));
-        let unknown = [RawSection { tag: 7, body: vec![] }];
-        assert_eq!(read_all(&unknown, SECTIONS, &mut d), Err(LinkError::NewerSection { tag: 7 }));
+        let unknown = [RawSection { tag: 8, body: vec![] }];
+        assert_eq!(read_all(&unknown, SECTIONS, &mut d), Err(LinkError::NewerSection { tag: 8 }));
     }
 
     /// A traffic of every load model family, each with values off its preset (and the
@@ -1044,7 +1074,15 @@ mod tests {
             let sections = write_all(SECTIONS, &d);
             assert_eq!(
                 sections.iter().map(|s| s.tag).collect::<Vec<_>>(),
-                [TAG_ABUTMENT, TAG_TRAFFIC, TAG_ACTIONS, TAG_SIZING, TAG_FORM_BASIS, TAG_ADDED_FAMILIES]
+                [
+                    TAG_ABUTMENT,
+                    TAG_TRAFFIC,
+                    TAG_ACTIONS,
+                    TAG_SIZING,
+                    TAG_FORM_BASIS,
+                    TAG_ADDED_FAMILIES,
+                    TAG_FIRST_ORDER_RIB
+                ]
             );
             let mut back = Design::demo();
             read_all(&sections, SECTIONS, &mut back).expect("reads");
@@ -1071,6 +1109,30 @@ mod tests {
 
     /// A concrete box rib and piers travel in section 6 (section 4 carries no family for
     /// them, and the other groups' families as before); a box in both is refused.
+    /// The first-order rib option travels in section 7, one byte (postcard's bool); a
+    /// link without the section opens with the option off.
+    #[test]
+    fn the_first_order_rib_travels_in_section_7() {
+        let mut d = Design::demo();
+        d.sizing.rib_for_first_order = true;
+        let sections = write_all(SECTIONS, &d);
+        let seven = sections.iter().find(|s| s.tag == TAG_FIRST_ORDER_RIB).expect("written");
+        assert_eq!(seven.body, [1]);
+        let mut back = Design::demo();
+        read_all(&sections, SECTIONS, &mut back).expect("reads");
+        assert_eq!(back, d);
+        let without: Vec<RawSection> =
+            sections.iter().filter(|s| s.tag != TAG_FIRST_ORDER_RIB).cloned().collect();
+        let mut old = Design::demo();
+        read_all(&without, SECTIONS, &mut old).expect("reads");
+        assert!(!old.sizing.rib_for_first_order);
+        let damaged = [RawSection { tag: TAG_FIRST_ORDER_RIB, body: vec![2] }];
+        assert!(matches!(
+            read_all(&damaged, SECTIONS, &mut Design::demo()),
+            Err(LinkError::DamagedSection { tag: TAG_FIRST_ORDER_RIB, .. })
+        ));
+    }
+
     #[test]
     fn concrete_boxes_travel_in_the_added_families_section() {
         use crate::arch::sizing::GroupSizing;
@@ -1114,8 +1176,8 @@ mod tests {
         let mut both = Design::demo();
         both.sizing.posts = d.sizing.rib.clone();
         let mut sections = write_all(SECTIONS, &Design::demo());
-        let last = sections.len() - 1;
-        sections[last].body = added_families::write(&both);
+        let at = sections.iter().position(|s| s.tag == TAG_ADDED_FAMILIES).expect("written");
+        sections[at].body = added_families::write(&both);
         let e = read_all(&sections, SECTIONS, &mut Design::demo());
         assert!(
             matches!(&e, Err(LinkError::DamagedSection { tag: TAG_ADDED_FAMILIES, detail }) if detail.contains("posts")),

@@ -11,6 +11,7 @@
 pub mod elevation;
 pub mod envelope;
 pub mod force;
+pub mod modes;
 pub mod place;
 pub mod sizing;
 pub mod vehicle;
@@ -131,11 +132,13 @@ pub enum Ink {
     UseOver,
     /// A member of a group that could not be sized (no utilisation).
     Unsized,
+    /// A mode shape (buckled or vibrating) drawn over the elevation.
+    ModeShape,
 }
 
 impl Ink {
     /// Every ink, for palette checks.
-    pub const ALL: [Ink; 25] = [
+    pub const ALL: [Ink; 26] = [
         Ink::Background,
         Ink::Text,
         Ink::Secondary,
@@ -161,6 +164,7 @@ impl Ink {
         Ink::UseFull,
         Ink::UseOver,
         Ink::Unsized,
+        Ink::ModeShape,
     ];
 
     /// Our palette (our own scheme): tension deep teal, compression burnt orange, quiet
@@ -200,6 +204,7 @@ impl Ink {
             Ink::UseFull => "#b8560f",
             Ink::UseOver => "#8c0f2a",
             Ink::Unsized => "#7b858b",
+            Ink::ModeShape => "#2a6e3f",
         }
     }
 }
@@ -546,6 +551,7 @@ mod tests {
             Ink::UseFull,
             Ink::UseOver,
             Ink::Unsized,
+            Ink::ModeShape,
         ] {
             let c = contrast_ratio(ink.css(), bg).expect("opaque hex");
             assert!(c >= 3.0, "{ink:?} {} has {c:.2}:1 against the background", ink.css());

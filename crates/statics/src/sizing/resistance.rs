@@ -94,6 +94,10 @@ pub enum Mode {
     /// A steel plate thicker than the 80 mm EN 1993-1-1 Table 3.1 covers (the ratio of
     /// the thickest plate to 80 mm).
     Thickness,
+    /// The arch's critical load factor against the least the sizing accepts: the least
+    /// over alpha_cr (3 for amplified first-order moments, EN 1993-1-1 5.2.2; 10 for a
+    /// first-order analysis, 5.2.1(3)); a rib's mode only (`arch::sizing`).
+    ArchStability,
 }
 
 /// The result of checking one section for a demand.
@@ -151,6 +155,7 @@ impl Mode {
             Mode::Interaction => "compression and bending",
             Mode::Class => "slenderness class",
             Mode::Thickness => "plate thickness",
+            Mode::ArchStability => "arch stability (alpha_cr)",
         }
     }
 }
@@ -321,6 +326,19 @@ fn check_inputs(
         }
     }
     Ok(())
+}
+
+impl Check {
+    /// This check with one more mode: listed last, governing when its utilisation is the
+    /// largest (an earlier mode keeps governing on a tie).
+    pub fn with_mode(mut self, mode: Mode, utilisation: f64) -> Check {
+        self.modes.push((mode, utilisation));
+        if utilisation > self.utilisation {
+            self.utilisation = utilisation;
+            self.governs = mode;
+        }
+        self
+    }
 }
 
 /// A check from its modes: the largest utilisation governs (the first listed on a tie).
@@ -801,6 +819,17 @@ pub fn size_member(
     demand: &Demand,
     lengths: &Lengths,
 ) -> Result<Sized, String> {
+    size_member_by(material, family, &|props| check(material, family, props, demand, lengths))
+}
+
+/// [`size_member`] with a check of its own for each size: the smallest size on the
+/// family's grid whose `check_size` gives a utilisation <= 1 (for a demand that depends
+/// on the section, as a rib's amplified moments do on its stiffness). The same errors.
+pub fn size_member_by(
+    material: &Material,
+    family: &Family,
+    check_size: &dyn Fn(&SectionProps) -> Result<Check, String>,
+) -> Result<Sized, String> {
     material.check()?;
     family.check()?;
     if !family.suits(material) {
@@ -810,7 +839,7 @@ pub fn size_member(
     let mut last = None;
     for size in family.size_grid() {
         let props = family.props(size);
-        let check = check(material, family, &props, demand, lengths)?;
+        let check = check_size(&props)?;
         if check.utilisation <= 1.0 {
             return Ok(Sized { size, label: family.label(size), props, check });
         }

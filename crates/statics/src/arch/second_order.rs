@@ -1,0 +1,260 @@
+//! The rib's in-plane stability in sizing: critical load factors of the governing
+//! placements, the second-order amplification of the rib's moments and the rib's
+//! buckling length from alpha_cr.
+//!
+//! Each rib member's compression and moment come from an envelope extreme under one
+//! ultimate combination (`arch::sizing`). Each such placement (deduplicated), and the
+//! factored dead load alone, is a load case of the frame model
+//! (`arch::stability::factored_placement`); its linear buckling gives the arch's alpha_cr
+//! for it (local buckling of posts and diagonals set aside: their member checks cover it,
+//! `arch::stability`). Then, per rib member (EN 1993-1-1 5.2.2 and 6.3.1; EN 1992-1-1
+//! 5.8.3.2(6); from memory):
+//!
+//! - the buckling length in the arch plane is l = pi sqrt(E I / (alpha_cr N_Ed)), N_Ed its
+//!   compression in the case of its largest compression: so lambda_bar = sqrt(N_Rk /
+//!   (alpha_cr N_Ed)) for steel, and the concrete rib's nominal-curvature second order
+//!   (which carries its own imperfection, EN 1992-1-1 5.2(7)) takes this l_0. The buckling
+//!   curve carries the rib's equivalent imperfection in the mode's shape, antisymmetric
+//!   for the usual arch (EN 1993-1-1 5.3.2(11));
+//! - steel and glulam ribs: the moment of the case of its largest moment is amplified by
+//!   1 / (1 - 1 / alpha_cr) of that case (the concrete rib's second order is in its
+//!   nominal curvature);
+//! - the arch's least alpha_cr over the cases must reach 3 (below it amplified
+//!   first-order moments are not acceptable: too slender for this method) or, when the
+//!   design asks, 10 (a first-order analysis acceptable, 5.2.1(3)): the rib's mode
+//!   `ArchStability`, utilisation the least over alpha_cr.
+//!
+//! The analysis is of the sections it was given. A trial size of the rib scales the
+//! arch's alpha_cr by its E I over the analysed one (the arch's modes are the rib's
+//! bending: common practice, close where the deck is much less stiff than the rib), and
+//! leaves the buckling length as it is (N_cr scales with E I too). After adopting the
+//! sizes, analyse again: the report then gives the analysed values.
+
+use crate::arch::generate::{Generated, MemberRole};
+use crate::arch::sizing::placement_words;
+use crate::arch::stability::{
+    factored_dead, factored_placement, placement_stability, CaseStability, FactoredCase,
+};
+use crate::arch::traffic::TrafficReport;
+use crate::arch::validate::ValidDesign;
+use crate::error::StaticsError;
+use crate::sizing::materials::Material;
+use crate::sizing::resistance::{check, Check, Demand, Lengths, Mode};
+use crate::sizing::sections::{Family, SectionProps};
+use crate::traffic::combination::Combination;
+use serde::Serialize;
+
+/// The least alpha_cr for amplified first-order moments (EN 1993-1-1 5.2.2, from memory).
+pub const LEAST_AMPLIFIED: f64 = crate::arch::stability::AMPLIFICATION_LEAST_ALPHA;
+/// The least alpha_cr for a first-order analysis (EN 1993-1-1 5.2.1(3)).
+pub const LEAST_FIRST_ORDER: f64 = crate::arch::stability::FIRST_ORDER_ALPHA;
+
+/// Where one rib member's compression and moment come from: (combination, envelope line,
+/// largest extreme) each, `None` when the member has none.
+#[derive(Debug, Clone, Default)]
+pub struct RibSources {
+    /// Model index of the member.
+    pub member: usize,
+    /// The source of its largest compression.
+    pub compression: Option<(String, String, bool)>,
+    /// The source of its largest moment.
+    pub moment: Option<(String, String, bool)>,
+}
+
+/// The second-order numbers of one rib member at the analysed section.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct RibMemberStability {
+    /// The member's name.
+    pub member: String,
+    /// Index in `RibStability::cases` of the case of its largest compression.
+    pub compression_case: Option<usize>,
+    /// Index of the case of its largest moment.
+    pub moment_case: Option<usize>,
+    /// Its compression per rib line in the compression case, kN (>= 0).
+    pub n_ed: f64,
+    /// The arch's critical axial force of it, alpha_cr N_Ed, kN (per rib line).
+    pub n_cr: f64,
+    /// The buckling length in the arch plane from it, m (`None`: not compressed in its
+    /// case; the arch table's length is kept).
+    pub length: Option<f64>,
+    /// The arch's alpha_cr in the moment case (infinite without one).
+    pub alpha_moment: f64,
+}
+
+/// The rib's in-plane stability for sizing (module doc).
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct RibStability {
+    /// The cases analysed: the factored dead load alone first, then each governing
+    /// placement once.
+    pub cases: Vec<CaseStability>,
+    /// The arch's least alpha_cr over the cases, at the analysed sections.
+    pub alpha_cr: f64,
+    /// The least alpha_cr the sizing accepts: 3, or 10 when the design asks for a
+    /// first-order rib.
+    pub least: f64,
+    /// E I of the rib per rib line in the analysis, kNm2.
+    pub analysed_ei: f64,
+    /// Per rib member (per rib line), in model order.
+    pub members: Vec<RibMemberStability>,
+}
+
+/// 1 / (1 - 1 / alpha) for alpha >= 3; at 3 (1.5) below it, where the method no longer
+/// applies and the rib fails its `ArchStability` mode anyway.
+pub fn amplification(alpha: f64) -> f64 {
+    let a = alpha.max(LEAST_AMPLIFIED);
+    1.0 / (1.0 - 1.0 / a)
+}
+
+/// The rib's stability of `valid` for the sources of its members' demands (module doc):
+/// the frame model `generated`, the traffic `report` and the `ultimate` combinations.
+///
+/// Errors: those of building the cases and of `arch::stability::placement_stability`,
+/// and a case whose buckling fails (nothing compressed, no convergence).
+pub fn rib_stability(
+    valid: &ValidDesign,
+    generated: &Generated,
+    report: &TrafficReport,
+    ultimate: &[&Combination],
+    sources: &[RibSources],
+) -> Result<RibStability, StaticsError> {
+    let design = valid.design();
+    let combination = |name: &str| ultimate.iter().find(|c| c.name == name).copied();
+    let first = ultimate.first().ok_or_else(|| StaticsError::invalid("sizing", "no ultimate combination"))?;
+    let mut cases = vec![FactoredCase {
+        combination: first.name.clone(),
+        placement: "dead load alone".into(),
+        case: factored_dead(generated, first)?,
+    }];
+    let mut find_or_add = |source: &Option<(String, String, bool)>| -> Result<Option<usize>, StaticsError> {
+        let Some((name, line_name, max)) = source else { return Ok(None) };
+        let (Some(c), Some(line)) = (combination(name), report.line(line_name)) else { return Ok(None) };
+        let case = factored_placement(valid, generated, line, *max, c)?;
+        let same = |f: &FactoredCase| f.case.nodal == case.nodal && f.case.member == case.member;
+        if let Some(i) = cases.iter().position(same) {
+            return Ok(Some(i));
+        }
+        let extreme = if *max { &line.traffic_max } else { &line.traffic_min };
+        cases.push(FactoredCase { combination: c.name.clone(), placement: placement_words(extreme), case });
+        Ok(Some(cases.len() - 1))
+    };
+    let mut picked = Vec::new();
+    for s in sources {
+        picked.push((s.member, find_or_add(&s.compression)?, find_or_add(&s.moment)?));
+    }
+    let analysed = placement_stability(generated, &cases)?.into_iter().collect::<Result<Vec<_>, _>>()?;
+    let ribs = design.deck.ribs.max(1) as f64;
+    let rib = design.groups.rib;
+    let analysed_ei = rib.e * rib.i;
+    let alpha_of =
+        |i: Option<usize>| i.and_then(|i| analysed.get(i)).map_or(f64::INFINITY, |c| c.arch.alpha_cr);
+    let members = picked
+        .into_iter()
+        .map(|(k, compression_case, moment_case)| {
+            let (n_ed, alpha) = match compression_case.and_then(|i| analysed.get(i)) {
+                Some(c) => {
+                    ((-c.member_axial.get(k).copied().unwrap_or(0.0) / ribs).max(0.0), c.arch.alpha_cr)
+                }
+                None => (0.0, f64::INFINITY),
+            };
+            let n_cr = alpha * n_ed;
+            let length = (n_cr.is_finite() && n_cr > 0.0 && analysed_ei > 0.0)
+                .then(|| std::f64::consts::PI * (analysed_ei / n_cr).sqrt());
+            RibMemberStability {
+                member: generated.model.member_label(k),
+                compression_case,
+                moment_case,
+                n_ed,
+                n_cr,
+                length,
+                alpha_moment: alpha_of(moment_case),
+            }
+        })
+        .collect();
+    let alpha_cr = analysed.iter().map(|c| c.arch.alpha_cr).fold(f64::INFINITY, f64::min);
+    let least = if design.sizing.rib_for_first_order { LEAST_FIRST_ORDER } else { LEAST_AMPLIFIED };
+    Ok(RibStability { cases: analysed, alpha_cr, least, analysed_ei, members })
+}
+
+/// The rib members of `generated`, in model order.
+pub fn rib_members(generated: &Generated) -> Vec<usize> {
+    generated.map.roles.iter().enumerate().filter(|(_, r)| **r == MemberRole::Rib).map(|(k, _)| k).collect()
+}
+
+/// A rib section to check: its material, family, properties and E I per rib line
+/// (kNm2: the typed E for a typed section, the material's for a sized one).
+#[derive(Debug, Clone, Copy)]
+pub struct RibSection<'a> {
+    /// The material.
+    pub material: &'a Material,
+    /// The family (the rules of the check).
+    pub family: &'a Family,
+    /// The section's properties.
+    pub props: &'a SectionProps,
+    /// E I per rib line, kNm2.
+    pub ei: f64,
+}
+
+/// What a trial rib section changes (module doc).
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+pub struct RibTrial {
+    /// The arch's least alpha_cr with this section.
+    pub alpha_cr: f64,
+    /// The moment case's alpha_cr with this section.
+    pub alpha_moment: f64,
+    /// The factor on the first-order moment (1 for concrete).
+    pub amplification: f64,
+}
+
+impl RibStability {
+    /// The numbers of member `member` (its index among the rib members) with a section
+    /// of stiffness `ei` (kNm2 per rib line).
+    pub fn trial(&self, member: &RibMemberStability, ei: f64, material: &Material) -> RibTrial {
+        let scale = if self.analysed_ei > 0.0 { ei / self.analysed_ei } else { 1.0 };
+        let alpha_moment = member.alpha_moment * scale;
+        let amplification = match material {
+            Material::Concrete(_) => 1.0,
+            _ if alpha_moment.is_finite() => amplification(alpha_moment),
+            _ => 1.0,
+        };
+        RibTrial { alpha_cr: self.alpha_cr * scale, alpha_moment, amplification }
+    }
+
+    /// The check of a rib member at `section`: `check` with the moment amplified and the
+    /// in-plane buckling length from alpha_cr, plus the `ArchStability` mode (module doc).
+    pub fn check(
+        &self,
+        member: &RibMemberStability,
+        section: &RibSection,
+        demand: &Demand,
+        lengths: &Lengths,
+    ) -> Result<Check, String> {
+        let RibSection { material, family, props, ei } = *section;
+        let t = self.trial(member, ei, material);
+        let demand = Demand { moment: demand.moment * t.amplification, ..*demand };
+        let lengths = Lengths { in_plane: member.length.unwrap_or(lengths.in_plane), ..*lengths };
+        Ok(check(material, family, props, &demand, &lengths)?
+            .with_mode(Mode::ArchStability, self.least / t.alpha_cr))
+    }
+
+    /// The basis in words.
+    pub fn basis(&self) -> String {
+        format!(
+            "the rib's in-plane stability from linear buckling of the frame model under the factored dead load and \
+             each governing placement ({} cases; local buckling of posts and diagonals set aside, their member \
+             checks cover it): buckling length l = pi sqrt(E I / (alpha_cr N_Ed)) of the case of the member's \
+             largest compression, so lambda_bar = sqrt(N_Rk / (alpha_cr N_Ed)) (EN 1993-1-1 6.3.1; EN 1992-1-1 \
+             5.8.3.2(6) for concrete, whose nominal curvature carries the second order); steel and glulam moments \
+             times 1 / (1 - 1 / alpha_cr) of the case of the largest moment (EN 1993-1-1 5.2.2, from memory); the \
+             arch's alpha_cr at least {} ({}); a trial size scales alpha_cr by its E I over the analysed {:.4e} \
+             kNm2 (common practice), so after adopting sizes analyse again",
+            self.cases.len(),
+            self.least,
+            if self.least >= LEAST_FIRST_ORDER {
+                "first-order analysis acceptable, EN 1993-1-1 5.2.1(3), as the design asks"
+            } else {
+                "below 3 too slender for amplified first-order moments"
+            },
+            self.analysed_ei
+        )
+    }
+}

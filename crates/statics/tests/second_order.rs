@@ -1,0 +1,196 @@
+//! The rib's in-plane stability in sizing (`arch::second_order`): alpha_cr of the
+//! governing placements, the buckling length from it, the amplification of the rib's
+//! moments, the least alpha_cr and the first-order option.
+
+use springline_statics::arch::design::Design;
+use springline_statics::arch::massing::massing_loop;
+use springline_statics::arch::second_order::{amplification, LEAST_AMPLIFIED, LEAST_FIRST_ORDER};
+use springline_statics::arch::sizing::{size_of, GroupOutcome, SizeReport};
+use springline_statics::arch::stability::arch_stability;
+use springline_statics::sizing::materials::material_preset;
+use springline_statics::sizing::resistance::{check, Demand, Mode};
+use springline_statics::sizing::sections::Family;
+use springline_statics::ValidDesign;
+
+fn sized(d: &Design) -> SizeReport {
+    size_of(d).unwrap_or_else(|e| panic!("{}: {e}", d.name))
+}
+
+fn rib_i(r: &SizeReport) -> f64 {
+    match &r.sizing.groups[0].outcome {
+        GroupOutcome::Sized { props, .. } => props.i,
+        other => panic!("rib not sized: {other:?}"),
+    }
+}
+
+/// The demo with every group as typed (checked, not sized).
+fn demo_as_typed() -> Design {
+    let mut d = Design::demo();
+    for g in [
+        &mut d.sizing.rib,
+        &mut d.sizing.deck,
+        &mut d.sizing.posts,
+        &mut d.sizing.piers,
+        &mut d.sizing.bracing,
+    ] {
+        g.family = None;
+    }
+    d
+}
+
+/// Linear buckling scales with the load: the factored dead load alone (gamma_G = 1.35,
+/// EN 1990 Table A2.4(B)) buckles at the dead load's alpha_cr over 1.35 (the geometric
+/// stiffness is linear in the axial forces; any text on linear buckling, e.g. Bazant and
+/// Cedolin, Stability of Structures, ch. 1). Every governing placement adds traffic, so
+/// none has a higher alpha_cr than the dead load alone, and the least is the report's.
+#[test]
+fn the_factored_dead_load_buckles_at_the_dead_loads_alpha_over_gamma_g() {
+    let d = Design::demo();
+    let r = sized(&d);
+    let st = r.sizing.rib_stability.as_ref().expect("analysed");
+    let valid = ValidDesign::new(&d).expect("valid");
+    let dead = arch_stability(&valid, 3).expect("buckles");
+    let gamma = d.traffic.combinations[0].permanent_unfavourable;
+    assert_eq!(gamma, 1.35);
+    let factored = st.cases[0].arch.alpha_cr;
+    assert!(st.cases[0].arch.mode.is_some(), "the arch's mode is found");
+    assert!(
+        (factored * gamma / dead.arch.alpha_cr - 1.0).abs() < 1e-6,
+        "{factored} x {gamma} vs {}",
+        dead.arch.alpha_cr
+    );
+    assert!(st.cases.len() > 3, "{} cases", st.cases.len());
+    for c in &st.cases[1..] {
+        assert!(
+            c.arch.alpha_cr < factored,
+            "{}: {} above the dead load's {factored}",
+            c.placement,
+            c.arch.alpha_cr
+        );
+    }
+    let least = st.cases.iter().map(|c| c.arch.alpha_cr).fold(f64::INFINITY, f64::min);
+    assert_eq!(st.alpha_cr, least);
+    assert_eq!(st.least, LEAST_AMPLIFIED);
+}
+
+/// The rib's in-plane check takes lambda_bar = sqrt(N_Rk / (alpha_cr N_Ed)) (EN 1993-1-1
+/// 6.3.1.2 with N_cr = alpha_cr N_Ed): for the typed rib the buckling length the sizing
+/// uses gives back N_cr = alpha_cr N_Ed of the member's compression case, per rib line;
+/// the moments are those of the envelope times 1 / (1 - 1/alpha_cr) of the moment case
+/// (EN 1993-1-1 5.2.2, from memory); and the arch-stability mode is 3 / alpha_cr.
+#[test]
+fn a_typed_steel_rib_is_checked_with_its_alpha_cr() {
+    let d = demo_as_typed();
+    let r = sized(&d);
+    let st = r.sizing.rib_stability.as_ref().expect("analysed");
+    let rib = d.groups.rib;
+    let ribs = d.deck.ribs as f64;
+    let mut checked = 0;
+    for (m, s) in r.sizing.members.iter().filter(|m| m.group == "rib").zip(&st.members) {
+        assert_eq!(m.member, s.member);
+        let case = &st.cases[s.compression_case.expect("compressed")];
+        let k = r.sizing.members.iter().position(|x| x.member == m.member).expect("member");
+        let n_ed = -case.member_axial[k] / ribs;
+        assert!((n_ed / s.n_ed - 1.0).abs() < 1e-12);
+        // the envelope's compression is the case's (the placement reproduces the extreme)
+        assert!(
+            (m.demand.compression / n_ed - 1.0).abs() < 0.03,
+            "{}: {} vs {n_ed}",
+            m.member,
+            m.demand.compression
+        );
+        let l = m.lengths.in_plane;
+        assert!((s.length.expect("a length") / l - 1.0).abs() < 1e-12);
+        let n_cr = std::f64::consts::PI.powi(2) * rib.e * rib.i / (l * l);
+        assert!((n_cr / (case.arch.alpha_cr * n_ed) - 1.0).abs() < 1e-9, "{}", m.member);
+        let trial = m.second_order.expect("second order");
+        assert!((trial.amplification - 1.0 / (1.0 - 1.0 / s.alpha_moment)).abs() < 1e-12);
+        assert!(trial.amplification > 1.0);
+        checked += 1;
+    }
+    assert_eq!(checked, d.panels);
+    // the amplified moment is what the check used: one member by hand
+    let m = r.sizing.members.iter().find(|m| m.group == "rib").expect("a rib member");
+    let trial = m.second_order.expect("second order");
+    let material = material_preset("s355").expect("preset");
+    let family = Family::WeldedBox { width_over_depth: 1.0, flange_ratio: 30.0, web_ratio: 30.0 };
+    let props = springline_statics::sizing::sections::SectionProps {
+        size: rib.depth,
+        depth: rib.depth,
+        width: rib.depth,
+        thickness: None,
+        a: rib.a,
+        i: rib.i,
+        i_out: rib.i,
+        w_el: 2.0 * rib.i / rib.depth,
+        radius_in: (rib.i / rib.a).sqrt(),
+        radius_out: (rib.i / rib.a).sqrt(),
+        steel_area_rebar: None,
+    };
+    let amplified = Demand { moment: m.demand.moment * trial.amplification, ..m.demand };
+    let c = check(&material, &family, &props, &amplified, &m.lengths).expect("checks");
+    let stability = LEAST_AMPLIFIED / trial.alpha_cr;
+    assert!((m.utilisation.expect("checked") - c.utilisation.max(stability)).abs() < 1e-12);
+}
+
+/// A rib a twentieth as stiff: its alpha_cr falls below 3 and the rib fails its
+/// arch-stability mode (too slender for amplified first-order moments, EN 1993-1-1
+/// 5.2.2, from memory), utilisation 3 / alpha_cr.
+#[test]
+fn a_slender_typed_rib_fails_its_arch_stability() {
+    let mut d = demo_as_typed();
+    d.groups.rib.i /= 20.0;
+    let r = sized(&d);
+    let st = r.sizing.rib_stability.as_ref().expect("analysed");
+    assert!(st.alpha_cr < LEAST_AMPLIFIED, "alpha_cr {}", st.alpha_cr);
+    let rib = r.sizing.members.iter().filter(|m| m.group == "rib");
+    let mut stability_governs = 0;
+    for m in rib {
+        let u = m.utilisation.expect("checked");
+        assert!(u >= LEAST_AMPLIFIED / st.alpha_cr - 1e-12 && u > 1.0, "{}: {u}", m.member);
+        if m.governs == Some(Mode::ArchStability) {
+            stability_governs += 1;
+        }
+    }
+    assert!(stability_governs > 0);
+}
+
+/// The first-order option sizes the rib for alpha_cr >= 10 (EN 1993-1-1 5.2.1(3)): a
+/// stiffer rib than without it, estimated at 10 or more with its section; and once the
+/// massing loop has settled (every size adopted and analysed again), the analysed
+/// alpha_cr of the settled design is at least 10.
+#[test]
+fn the_first_order_option_sizes_the_rib_for_alpha_cr_10() {
+    let plain = sized(&Design::demo());
+    let mut d = Design::demo();
+    d.sizing.rib_for_first_order = true;
+    let first = sized(&d);
+    let st = first.sizing.rib_stability.as_ref().expect("analysed");
+    assert_eq!(st.least, LEAST_FIRST_ORDER);
+    assert!(first.sizing.rib_alpha_cr.expect("estimated") >= LEAST_FIRST_ORDER);
+    assert!(plain.sizing.rib_alpha_cr.expect("estimated") < LEAST_FIRST_ORDER);
+    assert!(rib_i(&first) > rib_i(&plain), "{} vs {}", rib_i(&first), rib_i(&plain));
+    let settled = massing_loop(&d, 12).expect("loops");
+    assert!(settled.converged, "{}", settled.last_change);
+    let again = sized(&settled.design);
+    let analysed = again.sizing.rib_stability.as_ref().expect("analysed").alpha_cr;
+    assert!(analysed >= LEAST_FIRST_ORDER, "analysed alpha_cr {analysed}");
+}
+
+/// A concrete rib's second order is its nominal curvature's (EN 1992-1-1 5.8.8), with the
+/// buckling length from alpha_cr (5.8.3.2(6)): no amplification on top.
+#[test]
+fn a_concrete_rib_is_not_amplified_twice() {
+    let mut d = Design::demo();
+    let preset = Family::family_presets().into_iter().find(|(k, _)| *k == "concrete-box").map(|(_, f)| f);
+    d.sizing.rib = springline_statics::arch::sizing::GroupSizing::sized(
+        preset.expect("preset"),
+        material_preset("c50-60").expect("preset"),
+    );
+    let r = sized(&d);
+    for m in r.sizing.members.iter().filter(|m| m.group == "rib") {
+        assert_eq!(m.second_order.expect("second order").amplification, 1.0, "{}", m.member);
+    }
+    assert!((amplification(4.0) - 4.0 / 3.0).abs() < 1e-15);
+    assert!((amplification(2.0) - 1.5).abs() < 1e-15, "held at alpha_cr = 3 below it");
+}
