@@ -23,6 +23,7 @@ pub fn App() -> impl IntoView {
     provide_context(state);
     permalink_sync::install(state, view);
     crate::components::traffic_results::install(state);
+    crate::components::stability::install(state);
     crate::components::envelope::install(state);
     // canvases follow the window size
     let handle =

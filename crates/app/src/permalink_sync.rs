@@ -12,7 +12,7 @@
 //! colleague's US link does not change one's own default.
 
 use crate::format::Units;
-use crate::state::AppState;
+use crate::state::{AppState, ModeView};
 use leptos::prelude::*;
 use springline_statics::arch::actions::action_cases;
 use springline_statics::arch::cases::{find_case, CaseKind, Pattern};
@@ -78,11 +78,13 @@ fn show_case(state: AppState, id: &str) {
 
 /// Chooses, from its link id, a case the analysis only carries once chosen in the load
 /// picker: one of the other actions (`temperature-rise`, ..., `erection`), a traffic
-/// pattern (`full`, `half-right`, `quarter-N`) or the vehicle (`vehicle-X`, its leading
-/// axle at x = X m). Anything else leaves the choice as it is.
+/// pattern (`full`, `half-right`, `quarter-N`), the vehicle (`vehicle-X`, its leading
+/// axle at x = X m) or a mode drawn over the elevation (`buckling`, `vibration`). Anything else leaves the choice as it is.
 fn choose_extra(state: AppState, id: &str) {
     let design = state.design.get_untracked();
-    if action_cases(&design).iter().any(|c| c.kind.id() == id) {
+    if let Some((view, _)) = MODE_IDS.iter().find(|(_, m)| *m == id) {
+        state.choose_mode(*view);
+    } else if action_cases(&design).iter().any(|c| c.kind.id() == id) {
         state.choose_case(0);
         state.action.set(Some(id.to_string()));
     } else if let Some(x) = id.strip_prefix("vehicle-").and_then(|x| x.parse::<f64>().ok()) {
@@ -156,6 +158,7 @@ pub fn install(state: AppState, view: ViewState) {
         state.design.track();
         state.case.track();
         state.units.track();
+        state.mode_view.track();
         generation.update_value(|g| *g += 1);
         let mine = generation.get_value();
         set_timeout(
@@ -212,8 +215,15 @@ pub fn install(state: AppState, view: ViewState) {
     on_cleanup(move || handle.remove());
 }
 
-/// The stable id of the case shown, if the design analyses.
+/// The link ids of the mode views (`choose_extra` reads them back).
+const MODE_IDS: [(ModeView, &str); 2] = [(ModeView::Buckled, "buckling"), (ModeView::Vibration, "vibration")];
+
+/// The stable id of the case shown (or of the mode drawn), if the design analyses.
 fn case_id(state: AppState) -> Option<String> {
+    let mode = state.mode_view.get_untracked();
+    if let Some((_, id)) = MODE_IDS.iter().find(|(v, _)| *v == mode) {
+        return Some((*id).to_string());
+    }
     let index = state.case.get_untracked();
     state.analysis.with_untracked(|a| a.as_ref().ok()?.load_cases.get(index).map(|c| c.description.id()))
 }

@@ -9,6 +9,7 @@ use springline_statics::arch::cases::{standard_cases, CaseSpec, Pattern};
 use springline_statics::arch::edit::{Drag, DragStop, Reading, Snapping};
 use springline_statics::arch::readout::MemberKey;
 use springline_statics::arch::sizing::{size_design, SizeReport};
+use springline_statics::arch::stability::ArchStability;
 use springline_statics::arch::traffic::TrafficReport;
 use springline_statics::error::{Field, Location, StaticsError};
 use springline_statics::scene::envelope::Basis;
@@ -173,6 +174,12 @@ pub struct AppState {
     /// once edits pause and not while dragging (`components::traffic_results::install`);
     /// `None` until the first.
     pub traffic: RwSignal<Option<Arc<(Design, TrafficOutcome)>>>,
+    /// The dead load's buckling and natural frequencies (`arch::stability::arch_stability`)
+    /// with the design they are for, computed once edits pause and not while dragging
+    /// (`components::stability::install`); `None` until the first.
+    pub stability: RwSignal<Option<Arc<(Design, StabilityOutcome)>>>,
+    /// Which mode shape is drawn over the elevation, on request.
+    pub mode_view: RwSignal<ModeView>,
     /// The traffic envelope is shown on the elevation (the load picker's "Envelope").
     pub envelope: RwSignal<bool>,
     /// The sizing view is shown (the load picker's "Sizes"): member utilisations and
@@ -232,6 +239,21 @@ pub fn size_view(valid: &Validated, traffic: &TrafficOutcome) -> SizeView {
         Ok(None) => SizeView::Failed("the frame model has no traffic envelopes to size with".into()),
         Err(e) => SizeView::Failed(e.to_string()),
     }
+}
+
+/// The stability results of a design, or the engine's error in words.
+pub type StabilityOutcome = Result<ArchStability, String>;
+
+/// Which mode shape the elevation shows over the members.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
+pub enum ModeView {
+    /// None: the elevation as the other views draw it.
+    #[default]
+    Off,
+    /// The arch's lowest buckled shape under the dead load.
+    Buckled,
+    /// The first mode of free vibration.
+    Vibration,
 }
 
 /// Extra load cases and the design they were built for.
@@ -321,6 +343,8 @@ impl AppState {
             drag_stop: RwSignal::new(None),
             drag_reading: RwSignal::new(None),
             traffic,
+            stability: RwSignal::new(None),
+            mode_view: RwSignal::new(ModeView::Off),
             envelope: RwSignal::new(false),
             sizes,
             size_report,
@@ -395,7 +419,7 @@ impl AppState {
     }
 
     /// Takes back the load picker's other choices (a pattern, an action, the envelope,
-    /// the sizes), so one choice holds at a time.
+    /// the sizes, a mode shape), so one choice holds at a time.
     pub fn clear_choices(&self) {
         if self.pattern.with_untracked(Option::is_some) {
             self.pattern.set(None);
@@ -409,6 +433,16 @@ impl AppState {
         if self.sizes.get_untracked() {
             self.sizes.set(false);
         }
+        if self.mode_view.get_untracked() != ModeView::Off {
+            self.mode_view.set(ModeView::Off);
+        }
+    }
+
+    /// Draws mode `view` over the elevation (the dead-load elevation under it), one
+    /// choice of the load picker like the others.
+    pub fn choose_mode(&self, view: ModeView) {
+        self.choose_case(0);
+        self.mode_view.set(view);
     }
 
     /// Moves the vehicle's leading axle to `x` (m), kept within its travel (the arch span,

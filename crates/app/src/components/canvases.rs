@@ -7,13 +7,14 @@ use crate::components::readout::{drawn_model, step_member, ModelSwitch};
 use crate::drag::{self, Drag, Handle};
 use crate::forces;
 use crate::paint;
-use crate::state::{AppState, DragReading, SizeView};
+use crate::state::{AppState, DragReading, ModeView, SizeView};
 use leptos::html::Canvas;
 use leptos::prelude::*;
 use springline_statics::arch::readout::MemberKey;
 use springline_statics::scene::elevation::{elevation, ElevationOptions};
 use springline_statics::scene::envelope::{envelope_elevation, EnvelopeOptions};
 use springline_statics::scene::force::{AreaView, FixedScale, ForceDrawing, ForceOptions};
+use springline_statics::scene::modes::{mode_elevation, ModeOptions};
 use springline_statics::scene::sizing::{sizing_elevation, SizingOptions};
 use springline_statics::scene::vehicle::{add_vehicle, VehicleGlyph};
 use springline_statics::scene::{Px, Scene, Transform, Viewport};
@@ -75,14 +76,34 @@ pub fn ElevationCanvas() -> impl IntoView {
             SizeView::Ready(r) => Some(r),
             _ => None,
         };
-        let enveloped = report.is_some() || sized.is_some();
-        let mut scene = match (report, sized) {
-            (_, Some(sized)) => {
+        // a mode shape asked for, of the design on screen (computed once edits pause)
+        let mode_view = state.mode_view.get();
+        let mode = match mode_view {
+            ModeView::Off => None,
+            _ => crate::components::stability::current(state).and_then(|s| {
+                let r = s.1.as_ref().ok()?;
+                let drawing =
+                    if mode_view == ModeView::Buckled { &r.buckled_shape } else { &r.vibration_shape };
+                drawing.clone()
+            }),
+        };
+        let enveloped = report.is_some() || sized.is_some() || mode.is_some();
+        if let Some(drawing) = &mode {
+            let _ = el.set_attribute("data-mode", &drawing.title);
+        } else {
+            let _ = el.remove_attribute("data-mode");
+        }
+        let mut scene = match (mode.as_ref(), report, sized) {
+            (Some(drawing), _, _) => {
+                let opts = ModeOptions { units, case, transform };
+                state.design.with(|d| mode_elevation(&a, d, drawing, &opts, viewport))
+            }
+            (None, _, Some(sized)) => {
                 let highlight = focus.and_then(|k| k.member_in(&a.frame.map, ModelKind::Frame));
                 let opts = SizingOptions { units, case, highlight, transform };
                 state.design.with(|d| sizing_elevation(&a, d, &sized, &opts, viewport))
             }
-            (Some(report), None) => {
+            (None, Some(report), None) => {
                 let highlight = focus.and_then(|k| k.member_in(&a.frame.map, ModelKind::Frame));
                 let picked =
                     state.picked.with(|p| p.as_deref().and_then(|l| envelope::member_of_line(&a, l)));
@@ -96,7 +117,7 @@ pub fn ElevationCanvas() -> impl IntoView {
                 let opts = EnvelopeOptions { units, basis, case, highlight, picked, transform };
                 state.design.with(|d| envelope_elevation(&a, d, &report.1, placement, &opts, viewport))
             }
-            (None, None) => {
+            (None, None, None) => {
                 let opts = ElevationOptions { units, case, model, highlight, transform };
                 state.design.with(|d| elevation(&a, d, &opts, viewport))
             }

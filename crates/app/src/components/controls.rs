@@ -873,6 +873,7 @@ fn GroupSizingFields(
     let length = if group == GroupName::Rib {
         view! {
             <RibOutOfPlaneField edited_at />
+            <FirstOrderRibField edited_at />
             <p class="hint">"Out of plane, empty: each rib segment with two or more ribs (held sideways at every rib node by bracing between them, assumed), the whole rib with one. In its plane the rib buckles as a whole arch, over a length that follows from rise and span."</p>
         }
         .into_any()
@@ -980,6 +981,29 @@ fn RibOutOfPlaneField(
             />
             <span class="unit">{unit}</span>
             <FieldProblems field id=format!("{id}-error") local=input_error input_only=true />
+        </div>
+    }
+}
+
+/// Whether the rib is sized so that the arch's alpha_cr reaches 10 (a first-order
+/// analysis acceptable, EN 1993-1-1 5.2.1(3)) rather than 3 with amplified moments.
+#[component]
+fn FirstOrderRibField(
+    /// Where the rib group's refusals show: set to `END_SLOT` (under this field) on commit.
+    edited_at: RwSignal<&'static str>,
+) -> impl IntoView {
+    let state = expect_context::<AppState>();
+    let id = "sizing-rib-first-order";
+    let checked = move || state.design.with(|d| d.sizing.rib_for_first_order);
+    let toggle = move |ev: leptos::ev::Event| {
+        let on = event_target_checked(&ev);
+        edited_at.set(END_SLOT);
+        let _ = state.try_edit(Field::Sizing(GroupName::Rib), |d| d.sizing.rib_for_first_order = on);
+    };
+    view! {
+        <div class="field checkbox-field">
+            <input id=id type="checkbox" prop:checked=checked on:change=toggle />
+            <label for=id>"Size the rib for alpha_cr ≥ 10 (first-order analysis acceptable)"</label>
         </div>
     }
 }

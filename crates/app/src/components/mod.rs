@@ -10,6 +10,7 @@ pub mod readout;
 pub mod results;
 pub mod scenarios;
 pub mod sizing;
+pub mod stability;
 pub mod status;
 pub mod toolbar;
 pub mod traffic;

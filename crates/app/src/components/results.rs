@@ -336,6 +336,7 @@ pub fn ResultsPanel() -> impl IntoView {
             {table}
             {move || failure.get().map(|e| view! { <p class="error">{e}</p> })}
             <crate::components::traffic_results::TrafficResults />
+            <crate::components::stability::StabilityResults />
             <crate::components::actions::ActionsResults />
         </section>
     }

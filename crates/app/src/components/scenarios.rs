@@ -6,7 +6,7 @@
 //! along the deck).
 
 use crate::format::Units;
-use crate::state::AppState;
+use crate::state::{AppState, ModeView};
 use leptos::prelude::*;
 use springline_statics::arch::actions::action_cases;
 use springline_statics::arch::cases::{standard_cases, CaseKind, Half, Pattern};
@@ -157,6 +157,40 @@ fn SizesPictogram() -> impl IntoView {
     }
 }
 
+/// A mode button's pictogram (a style of its own): the arch at rest, light, and moved
+/// in the mode's shape (an S for the antisymmetric buckled shape, a sag for the first
+/// vertical vibration), in the mode ink.
+#[component]
+fn ModePictogram(buckled: bool) -> impl IntoView {
+    let rest = arch_path(0.0);
+    let (x0, x1, y0) = (ARCH_X0, ARCH_X1, PICTO_H - 2.0);
+    let xm = 0.5 * (x0 + x1);
+    let top = DECK_Y - 4.0;
+    let moved = if buckled {
+        // the left half lifted, the right half pressed down
+        format!(
+            "M{x0} {y0}C{:.1} {:.1} {:.1} {:.1} {xm:.1} {:.1}S{:.1} {:.1} {x1} {y0}",
+            x0 + 4.0,
+            top - 10.0,
+            xm - 8.0,
+            top - 2.0,
+            top + 5.0,
+            x1 - 4.0,
+            top + 14.0
+        )
+    } else {
+        format!("M{x0} {y0}Q{xm:.1} {:.1} {x1} {y0}", top + 9.0)
+    };
+    view! {
+        <svg class="picto" aria-hidden="true" focusable="false" width=PICTO_W height=PICTO_H
+            viewBox=format!("0 0 {PICTO_W} {PICTO_H}")>
+            <path class="picto-structure" d=format!("M1 {DECK_Y}H{}", PICTO_W - 1.0) />
+            <path class="picto-light" d=rest stroke-dasharray="2 2" />
+            <path d=moved fill="none" stroke="#2a6e3f" stroke-width="1.8" />
+        </svg>
+    }
+}
+
 /// The vehicle button's pictogram (a style of its own: the vehicle outlined on the deck
 /// with a two-headed arrow over it, as it can be moved along): deck, arch and the light
 /// dead-load arrows as in the other pictograms.
@@ -263,6 +297,7 @@ pub fn ScenarioButtons() -> impl IntoView {
             && state.action.with(Option::is_none)
             && !state.envelope.get()
             && !state.sizes.get()
+            && state.mode_view.get() == ModeView::Off
             && !vehicle_chosen.get()
     };
     let panels = Memo::new(move |_| state.design.with(|d| d.panels));
@@ -347,6 +382,27 @@ pub fn ScenarioButtons() -> impl IntoView {
             <span>"Sizes"</span>
         </button>
     };
+    let mode_button = move |view: ModeView, id: &'static str, words: &'static str, title: &'static str| {
+        view! {
+            <button
+                type="button"
+                class="scenario"
+                id=id
+                aria-pressed=move || (state.mode_view.get() == view).to_string()
+                title=title
+                on:click=move |_| state.choose_mode(view)
+            >
+                <ModePictogram buckled=view == ModeView::Buckled />
+                <span>{words}</span>
+            </button>
+        }
+    };
+    let mode_buttons = view! {
+        {mode_button(ModeView::Buckled, "case-buckling", "Buckling",
+            "The arch's lowest buckled shape under the dead load, with its critical load factor alpha_cr")}
+        {mode_button(ModeView::Vibration, "case-vibration", "Vibration",
+            "The first mode of free vibration with the dead load's masses, with its frequency")}
+    };
     let action_kinds = Memo::new(move |_| {
         state.design.with(|d| action_cases(d).into_iter().map(|c| c.kind).collect::<Vec<_>>())
     });
@@ -396,6 +452,19 @@ pub fn ScenarioButtons() -> impl IntoView {
     };
     let described = move || {
         let units = state.units.get();
+        match state.mode_view.get() {
+            ModeView::Buckled => {
+                return "the arch's lowest buckled shape under the dead load (posts and diagonals held straight: \
+                        their own buckling is their member check's), in its plane; its size is not to scale"
+                    .to_string()
+            }
+            ModeView::Vibration => {
+                return "the first mode of free vibration with the dead load's masses, in the arch plane; its \
+                        size is not to scale"
+                    .to_string()
+            }
+            ModeView::Off => {}
+        }
         if state.sizes.get() {
             return "every member group sized from the ultimate envelopes, one section per group, drawn by how \
                     much of its resistance it uses; the thrust blocks to scale"
@@ -418,7 +487,7 @@ pub fn ScenarioButtons() -> impl IntoView {
         <section class="scenarios" aria-labelledby="scenarios-title">
             <h2 id="scenarios-title">"Load case"</h2>
             <div class="scenario-row" role="group" aria-labelledby="scenarios-title">
-                {buttons}{pattern_buttons}{action_buttons}{envelope_button}{sizes_button}{vehicle_button}
+                {buttons}{pattern_buttons}{action_buttons}{envelope_button}{sizes_button}{mode_buttons}{vehicle_button}
             </div>
             <p class="case-description" id="case-description">{described}</p>
         </section>

@@ -199,6 +199,81 @@ fn foundations_table(r: &SizeReport, units: Units) -> impl IntoView {
     }
 }
 
+/// The rib's in-plane stability: the arch's alpha_cr with the rib's section, the least
+/// accepted, each analysed case's alpha_cr (the factored dead load and every governing
+/// placement), and the dead load's frequencies and footbridge flag.
+fn stability_table(r: &SizeReport, units: Units) -> impl IntoView {
+    let rib = match (&r.sizing.rib_stability, &r.sizing.rib_stability_failure) {
+        (Some(st), _) => {
+            let at_section = r.sizing.rib_alpha_cr.unwrap_or(st.alpha_cr);
+            let rows = st
+                .cases
+                .iter()
+                .enumerate()
+                .map(|(i, c)| {
+                    let arch = if c.arch.mode.is_some() {
+                        value_cell(format!("sizes-case{i}-alpha"), Quantity::Ratio, c.arch.alpha_cr, units).into_any()
+                    } else {
+                        view! { <td id=format!("sizes-case{i}-alpha") data-value=format!("{}", c.arch.alpha_cr)>
+                            {format!("above {:.2}", c.arch.alpha_cr)}</td> }
+                        .into_any()
+                    };
+                    view! {
+                        <tr class:fails=c.arch.alpha_cr < st.least>
+                            <th scope="row">{c.combination.clone()}</th>
+                            <td class="placement">{c.placement.clone()}</td>
+                            {arch}
+                        </tr>
+                    }
+                })
+                .collect_view();
+            let fails = at_section < st.least;
+            view! {
+                <p class="sizing-totals" id="sizes-alpha" class:fails=fails>
+                    "The arch's alpha_cr with the rib's section: "
+                    {value_span("sizes-alpha-cr".into(), Quantity::Ratio, at_section, units)}
+                    {format!(" (at least {} accepted{}); analysed with the sections on screen: ", st.least,
+                        if st.least >= 10.0 { ", first-order analysis" } else { ", moments amplified" })}
+                    {value_span("sizes-alpha-analysed".into(), Quantity::Ratio, st.alpha_cr, units)}
+                    "."
+                </p>
+                <details class="sizing-basis" id="sizes-cases">
+                    <summary>{format!("alpha_cr of the {} cases analysed", st.cases.len())}</summary>
+                    <div class="table-scroll">
+                        <table class="results sizing-table" id="sizes-alpha-cases">
+                            <caption>"The arch's critical load factor per factored case (posts and diagonals kept whole)"</caption>
+                            <thead>
+                                <tr><th scope="col">"combination"</th><th scope="col">"traffic placement"</th>
+                                    <th scope="col">"alpha_cr"</th></tr>
+                            </thead>
+                            <tbody>{rows}</tbody>
+                        </table>
+                    </div>
+                </details>
+            }
+            .into_any()
+        }
+        (None, Some(why)) => view! {
+            <p class="hint" id="sizes-alpha">{format!("The rib's stability could not be analysed ({why}): the arch table's buckling length is used.")}</p>
+        }
+        .into_any(),
+        (None, None) => ().into_any(),
+    };
+    let dynamics = r.stability.as_ref().map(|s| {
+        let frequencies = s
+            .frequencies
+            .iter()
+            .map(|f| format!("{:.2} Hz ({})", f.hz, if f.vertical_share > 0.5 { "vertical" } else { "horizontal" }))
+            .collect::<Vec<_>>()
+            .join(", ");
+        view! {
+            <p class="hint" id="sizes-frequencies">{format!("Natural frequencies with the dead load's masses: {frequencies}.")}</p>
+            {s.footbridge.clone().map(|f| view! { <p class="warning" id="sizes-footbridge">{format!("Footbridge: {f}")}</p> })}
+        }
+    });
+    view! { {rib} {dynamics} }
+}
+
 /// How the numbers are found, folded.
 fn basis(r: &SizeReport) -> impl IntoView {
     view! {
@@ -313,6 +388,7 @@ pub fn SizingPanel() -> impl IntoView {
             }
             SizeView::Ready(r) => view! {
                 {groups_table(&r, units)}
+                {stability_table(&r, units)}
                 {quantities_table(&r, units)}
                 {foundations_table(&r, units)}
                 {basis(&r)}
