@@ -126,17 +126,21 @@ fn demo_sources(panels: usize) -> (ValidDesign, Generated, TrafficReport, Vec<Ri
     let report = frame_traffic(&valid).expect("traffic");
     let generated = frame_model(&valid);
     let uls = d.traffic.combinations[0].name.clone();
-    let larger = |line: &str| {
-        let l = report.line(line).expect("a line");
-        let (max, min) = (l.design[0].max, l.design[0].min);
-        (uls.clone(), line.to_string(), max.abs() >= min.abs())
+    // the member's end moment line with the larger extreme (a hinged end has none)
+    let larger = |k: usize| {
+        [MemberEnd::Start, MemberEnd::End]
+            .into_iter()
+            .filter_map(|end| report.line(&ArchLine::Moment(k, end).name(&generated)))
+            .map(|l| (l.line.clone(), l.design[0].max, l.design[0].min))
+            .max_by(|a, b| a.1.abs().max(a.2.abs()).total_cmp(&b.1.abs().max(b.2.abs())))
+            .map(|(line, max, min)| (uls.clone(), line, max.abs() >= min.abs()))
     };
     let sources = rib_members(&generated)
         .into_iter()
         .map(|k| RibSources {
             member: k,
             compression: Some((uls.clone(), ArchLine::Axial(k).name(&generated), false)),
-            moment: Some(larger(&ArchLine::Moment(k, MemberEnd::Start).name(&generated))),
+            moment: larger(k),
         })
         .collect();
     (valid, generated, report, sources)

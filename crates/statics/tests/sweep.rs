@@ -44,7 +44,7 @@ fn the_demo_thrust_falls_as_the_rise_grows_and_rows_equal_separate_analyses() {
     }
 }
 
-/// With sizing, each row's steel and cost are the option's own size report's.
+/// With sizing, each row's steel, cost and alpha_cr are the option's own size report's.
 #[test]
 fn sized_rows_equal_separate_sizings() {
     let demo = Design::demo();
@@ -58,9 +58,12 @@ fn sized_rows_equal_separate_sizings() {
         assert!(row.feasible, "{:?}", row.reason);
         assert_eq!(row.steel, Some(r.quantities.steel));
         assert_eq!(row.cost_index, Some(r.quantities.cost_index));
+        assert_eq!(row.alpha_cr, r.sizing.rib_alpha_cr);
+        assert!(row.alpha_cr.is_some_and(|a| a >= 3.0), "{:?}", row.alpha_cr);
     }
     let csv = to_csv(&s);
-    assert!(csv.lines().next().is_some_and(|h| h.contains("steel (t)") && h.contains("cost index")), "{csv}");
+    let head = csv.lines().next().unwrap_or_default();
+    assert!(head.contains("steel (t)") && head.contains("cost index") && head.contains("alpha_cr"), "{csv}");
 }
 
 /// An option that cannot be built is a row with the engine's reason (a crown above the

@@ -243,6 +243,9 @@ pub struct SweepRow {
     pub concrete: Option<f64>,
     /// Cost index (with sizing).
     pub cost_index: Option<f64>,
+    /// The arch's least alpha_cr over the sizing's cases with the rib's sized section
+    /// (with sizing; `arch::second_order`).
+    pub alpha_cr: Option<f64>,
 }
 
 /// A sweep's rows and what it held fixed.
@@ -289,6 +292,7 @@ pub fn option_row(design: &Design, values: Vec<f64>, size: bool) -> SweepRow {
         steel: None,
         concrete: None,
         cost_index: None,
+        alpha_cr: None,
     };
     let outcome = (|| {
         let valid = ValidDesign::new(design)?;
@@ -332,6 +336,7 @@ pub fn option_row(design: &Design, values: Vec<f64>, size: bool) -> SweepRow {
             row.steel = Some(report.quantities.steel);
             row.concrete = Some(report.quantities.concrete);
             row.cost_index = Some(report.quantities.cost_index);
+            row.alpha_cr = report.sizing.rib_alpha_cr;
             let not_sized = report.not_sized();
             if !not_sized.is_empty() {
                 return Err(refuse(format!("a group cannot be sized: {}", not_sized.join("; "))));
@@ -402,7 +407,7 @@ pub fn to_csv(s: &Sweep) -> String {
         .map(String::from),
     );
     if s.sized {
-        head.extend(["steel (t)", "concrete (m3)", "cost index"].map(String::from));
+        head.extend(["steel (t)", "concrete (m3)", "cost index", "alpha_cr"].map(String::from));
     }
     head.push("reason".into());
     let num = |v: Option<f64>, decimals: usize| v.map_or(String::new(), |v| format!("{v:.decimals$}"));
@@ -437,6 +442,7 @@ pub fn to_csv(s: &Sweep) -> String {
             cells.push(num(r.steel, 2));
             cells.push(num(r.concrete, 2));
             cells.push(num(r.cost_index, 0));
+            cells.push(num(r.alpha_cr, 2));
         }
         cells.push(r.reason.as_ref().map_or(String::new(), |t| format!("\"{}\"", t.replace('"', "'"))));
         lines.push(cells.join(","));
