@@ -114,12 +114,18 @@ fn the_sizing_view_shows_alpha_cr_and_the_first_order_option_stiffens_the_rib() 
     let analysed = plain.sizing.rib_stability.as_ref().expect("analysed");
     wait_value(&s, "sizes-alpha-analysed", analysed.alpha_cr);
     wait_value(&s, "sizes-case0-alpha", analysed.cases[0].arch.alpha_cr);
+    assert!(text_of(&s, "sizes-alpha").contains("at least 3 accepted"), "{}", text_of(&s, "sizes-alpha"));
     // the option: one edit, a stiffer rib with alpha_cr >= 10
     s.exec("document.querySelectorAll('details.panel').forEach(d => d.open = true);", vec![]);
     click_id(&s, "sizing-rib-first-order");
     let at_section = stiff.sizing.rib_alpha_cr.expect("estimated");
     assert!(at_section >= 10.0, "{at_section}");
     wait_value(&s, "sizes-alpha-cr", at_section);
+    s.wait_for(
+        "the least alpha_cr of 10",
+        "const e = document.getElementById('sizes-alpha'); return !!e && e.textContent.includes('at least 10 accepted');",
+        WAIT,
+    );
     let hash = s.exec("return location.hash;", vec![]).as_str().unwrap_or("").to_string();
     s.wait_for(
         "the link to carry the option",

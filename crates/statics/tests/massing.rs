@@ -128,11 +128,11 @@ fn a_solid_concrete_rib_is_driven_by_its_own_weight() {
 }
 
 /// The demo's massing loop settles on panel loads, and without its bracing on either
-/// form basis, in a few passes (the as-built loop's settled design keeps its basis). With
-/// its bracing the as-built form of the sized design cannot be found (the braced frame
-/// carries the deck on its bracing and deck once the rib is slender against the deck:
-/// the rib's own loads stop pressing its crown down), and the loop stops saying so and
-/// what to do.
+/// form basis, in a few passes (the as-built loop's settled design keeps its basis).
+/// With its bracing the as-built loop does not settle on this demo (the braced frame
+/// carries much of the deck on its bracing and deck, and as the rib is sized slender
+/// against the deck the frame's forces on the rib, and the end posts' compression, keep
+/// changing): it stops saying why and what to do.
 #[test]
 fn the_demo_settles_on_either_basis() {
     use springline_statics::arch::design::Bracing;
@@ -152,9 +152,11 @@ fn the_demo_settles_on_either_basis() {
     }
     let mut d = Design::demo();
     d.form.basis = Basis::AsBuilt;
-    match massing_loop(&d, 12) {
-        Ok(m) if m.converged => {}
-        Ok(m) => assert!(m.last_change.contains("stiffen the rib against the deck"), "{}", m.last_change),
-        Err(e) => assert!(e.to_string().contains("stiffen the rib against the deck"), "{e}"),
-    }
+    let why = match massing_loop(&d, 12) {
+        Ok(m) if m.converged => return,
+        Ok(m) => m.last_change,
+        Err(e) => e.to_string(),
+    };
+    let says_what_to_do = ["stiffen the rib against the deck", "use a stronger material"];
+    assert!(says_what_to_do.iter().any(|w| why.contains(w)), "{why}");
 }

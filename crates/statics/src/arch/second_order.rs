@@ -19,6 +19,14 @@
 //! - steel and glulam ribs: the moment of the case of its largest moment is amplified by
 //!   1 / (1 - 1 / alpha_cr) of that case (the concrete rib's second order is in its
 //!   nominal curvature);
+//! - steel ribs also take the second-order analysis with the arch's antisymmetric
+//!   in-plane imperfection as a check of its own (EN 1993-2 Annex D.3, Table D.8, from
+//!   memory: a sine over each half of the rib of amplitude e0 = s/300, s/250, s/200,
+//!   s/150 for buckling curves a, b, c, d, s half the rib's length): M_II = M / (1 -
+//!   1/alpha_cr,M) + N e0 / (1 - 1/alpha_cr,N) against the cross-section (EN 1993-1-1
+//!   6.2.1(7)), mode `SecondOrder`. The member check above is the other route EN 1993-1-1
+//!   5.2.2(3) allows (the imperfection in the buckling curve); the worse of the two
+//!   governs (conservative: each alone would do);
 //! - the arch's least alpha_cr over the cases must reach 3 (below it amplified
 //!   first-order moments are not acceptable: too slender for this method) or, when the
 //!   design asks, 10 (a first-order analysis acceptable, 5.2.1(3)): the rib's mode
@@ -38,8 +46,9 @@ use crate::arch::stability::{
 use crate::arch::traffic::TrafficReport;
 use crate::arch::validate::ValidDesign;
 use crate::error::StaticsError;
+use crate::sizing::buckling::{curve_for, Curve};
 use crate::sizing::materials::Material;
-use crate::sizing::resistance::{check, Check, Demand, Lengths, Mode};
+use crate::sizing::resistance::{check, steel_section_utilisation, Check, Demand, Lengths, Mode};
 use crate::sizing::sections::{Family, SectionProps};
 use crate::traffic::combination::Combination;
 use serde::Serialize;
@@ -79,6 +88,8 @@ pub struct RibMemberStability {
     pub length: Option<f64>,
     /// The arch's alpha_cr in the moment case (infinite without one).
     pub alpha_moment: f64,
+    /// The arch's alpha_cr in the compression case (infinite without one).
+    pub alpha_compression: f64,
 }
 
 /// The rib's in-plane stability for sizing (module doc).
@@ -94,6 +105,8 @@ pub struct RibStability {
     pub least: f64,
     /// E I of the rib per rib line in the analysis, kNm2.
     pub analysed_ei: f64,
+    /// Half the rib's length along its axis, s, m (the imperfection's half wave).
+    pub half_length: f64,
     /// Per rib member (per rib line), in model order.
     pub members: Vec<RibMemberStability>,
 }
@@ -167,12 +180,16 @@ pub fn rib_stability(
                 n_cr,
                 length,
                 alpha_moment: alpha_of(moment_case),
+                alpha_compression: alpha,
             }
         })
         .collect();
     let alpha_cr = analysed.iter().map(|c| c.arch.alpha_cr).fold(f64::INFINITY, f64::min);
     let least = if design.sizing.rib_for_first_order { LEAST_FIRST_ORDER } else { LEAST_AMPLIFIED };
-    Ok(RibStability { cases: analysed, alpha_cr, least, analysed_ei, members })
+    let rib_nodes = &valid.form().rib;
+    let half_length =
+        0.5 * rib_nodes.windows(2).map(|w| (w[1].x - w[0].x).hypot(w[1].y - w[0].y)).sum::<f64>();
+    Ok(RibStability { cases: analysed, alpha_cr, least, analysed_ei, half_length, members })
 }
 
 /// The rib members of `generated`, in model order.
@@ -194,6 +211,19 @@ pub struct RibSection<'a> {
     pub ei: f64,
 }
 
+/// The amplitude e0 of the arch's in-plane imperfection for buckling curve `curve`, m,
+/// with `s` half the rib's length (EN 1993-2 Annex D.3, Table D.8, from memory: s/300 for
+/// curve a, s/250 for b, s/200 for c, s/150 for d; a0 taken as a).
+pub fn imperfection(curve: Curve, s: f64) -> f64 {
+    let divisor = match curve {
+        Curve::A0 | Curve::A => 300.0,
+        Curve::B => 250.0,
+        Curve::C => 200.0,
+        Curve::D => 150.0,
+    };
+    s / divisor
+}
+
 /// What a trial rib section changes (module doc).
 #[derive(Debug, Clone, Copy, PartialEq, Serialize)]
 pub struct RibTrial {
@@ -201,8 +231,12 @@ pub struct RibTrial {
     pub alpha_cr: f64,
     /// The moment case's alpha_cr with this section.
     pub alpha_moment: f64,
+    /// The compression case's alpha_cr with this section.
+    pub alpha_compression: f64,
     /// The factor on the first-order moment (1 for concrete).
     pub amplification: f64,
+    /// A steel rib's imperfection amplitude e0, m (`None` for other materials).
+    pub imperfection: Option<f64>,
 }
 
 impl RibStability {
@@ -216,7 +250,13 @@ impl RibStability {
             _ if alpha_moment.is_finite() => amplification(alpha_moment),
             _ => 1.0,
         };
-        RibTrial { alpha_cr: self.alpha_cr * scale, alpha_moment, amplification }
+        RibTrial {
+            alpha_cr: self.alpha_cr * scale,
+            alpha_moment,
+            alpha_compression: member.alpha_compression * scale,
+            amplification,
+            imperfection: None,
+        }
     }
 
     /// The check of a rib member at `section`: `check` with the moment amplified and the
@@ -230,10 +270,31 @@ impl RibStability {
     ) -> Result<Check, String> {
         let RibSection { material, family, props, ei } = *section;
         let t = self.trial(member, ei, material);
-        let demand = Demand { moment: demand.moment * t.amplification, ..*demand };
+        let amplified = Demand { moment: demand.moment * t.amplification, ..*demand };
         let lengths = Lengths { in_plane: member.length.unwrap_or(lengths.in_plane), ..*lengths };
-        Ok(check(material, family, props, &demand, &lengths)?
-            .with_mode(Mode::ArchStability, self.least / t.alpha_cr))
+        let mut c = check(material, family, props, &amplified, &lengths)?;
+        if let Material::Steel(steel) = material {
+            let e0 = imperfection(curve_for(family, material), self.half_length);
+            let along =
+                if t.alpha_compression.is_finite() { amplification(t.alpha_compression) } else { 1.0 };
+            let m_ii = amplified.moment + demand.compression * e0 * along;
+            c = c.with_mode(
+                Mode::SecondOrder,
+                steel_section_utilisation(steel, family, props, demand.compression, m_ii),
+            );
+        }
+        Ok(c.with_mode(Mode::ArchStability, self.least / t.alpha_cr))
+    }
+
+    /// [`RibStability::trial`] with the imperfection a steel rib of the section's family
+    /// takes.
+    pub fn trial_of(&self, member: &RibMemberStability, section: &RibSection) -> RibTrial {
+        let mut t = self.trial(member, section.ei, section.material);
+        if matches!(section.material, Material::Steel(_)) {
+            t.imperfection =
+                Some(imperfection(curve_for(section.family, section.material), self.half_length));
+        }
+        t
     }
 
     /// The basis in words.
@@ -244,10 +305,14 @@ impl RibStability {
              checks cover it): buckling length l = pi sqrt(E I / (alpha_cr N_Ed)) of the case of the member's \
              largest compression, so lambda_bar = sqrt(N_Rk / (alpha_cr N_Ed)) (EN 1993-1-1 6.3.1; EN 1992-1-1 \
              5.8.3.2(6) for concrete, whose nominal curvature carries the second order); steel and glulam moments \
-             times 1 / (1 - 1 / alpha_cr) of the case of the largest moment (EN 1993-1-1 5.2.2, from memory); the \
+             times 1 / (1 - 1 / alpha_cr) of the case of the largest moment (EN 1993-1-1 5.2.2, from memory); \
+             steel ribs also checked in section for M / (1 - 1/alpha_cr) + N e0 / (1 - 1/alpha_cr) with the \
+             arch's antisymmetric imperfection e0 = s/300 to s/150 by buckling curve, s = {:.1} m half the rib \
+             (EN 1993-2 Annex D.3 Table D.8, from memory), the worse of the two routes governing; the \
              arch's alpha_cr at least {} ({}); a trial size scales alpha_cr by its E I over the analysed {:.4e} \
              kNm2 (common practice), so after adopting sizes analyse again",
             self.cases.len(),
+            self.half_length,
             self.least,
             if self.least >= LEAST_FIRST_ORDER {
                 "first-order analysis acceptable, EN 1993-1-1 5.2.1(3), as the design asks"

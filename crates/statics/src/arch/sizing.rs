@@ -866,7 +866,9 @@ pub fn size_members(valid: &ValidDesign, report: &TrafficReport) -> Result<Membe
                 rib_alpha_cr = Some(st.alpha_cr * ei / st.analysed_ei);
                 for r in &mine {
                     if let Some(i) = rib_index[r.k] {
-                        trials[r.k] = Some(st.trial(&st.members[i], ei, &s.material));
+                        let section =
+                            RibSection { material: &s.material, family: &family, props: &props, ei };
+                        trials[r.k] = Some(st.trial_of(&st.members[i], &section));
                     }
                 }
             }

@@ -94,6 +94,10 @@ pub enum Mode {
     /// A steel plate thicker than the 80 mm EN 1993-1-1 Table 3.1 covers (the ratio of
     /// the thickest plate to 80 mm).
     Thickness,
+    /// A steel rib's cross-section under its second-order moment with the arch's
+    /// antisymmetric in-plane imperfection (EN 1993-2 Annex D.3, EN 1993-1-1 5.3.2(11));
+    /// a rib's mode only (`arch::second_order`).
+    SecondOrder,
     /// The arch's critical load factor against the least the sizing accepts: the least
     /// over alpha_cr (3 for amplified first-order moments, EN 1993-1-1 5.2.2; 10 for a
     /// first-order analysis, 5.2.1(3)); a rib's mode only (`arch::sizing`).
@@ -156,6 +160,7 @@ impl Mode {
             Mode::Class => "slenderness class",
             Mode::Thickness => "plate thickness",
             Mode::ArchStability => "arch stability (alpha_cr)",
+            Mode::SecondOrder => "second order with imperfection",
         }
     }
 }
@@ -405,6 +410,33 @@ pub fn check(
     }
 }
 
+/// The yield strength a steel section is checked with, kN/m2, and its thickest plate
+/// (m; `None` for a typed section): EN 1993-1-1 Table 3.1 gives f_y for t <= 40 mm and a
+/// lower value for 40 < t <= 80 mm, 20 MPa less for S235, S355 and S460 (from memory);
+/// the thickest plate decides.
+fn steel_fy(steel: &Steel, family: &Family, props: &SectionProps) -> (f64, Option<f64>) {
+    let thickest = props.thickness.map(|t| t.max(family.web_thickness(props.size).unwrap_or(0.0)));
+    let fy = match thickest {
+        Some(t) if t > THICK_PLATE => steel.fy - THICK_PLATE_REDUCTION,
+        _ => steel.fy,
+    };
+    (fy, thickest)
+}
+
+/// The utilisation of a steel section's cross-section under compression `n` (kN, >= 0)
+/// and in-plane moment `m` (kNm, >= 0): N / (A f_y / gamma_M0) + M / (W_el f_y /
+/// gamma_M0) (EN 1993-1-1 6.2.1(7), class 3), f_y as the member checks take it.
+pub fn steel_section_utilisation(
+    steel: &Steel,
+    family: &Family,
+    props: &SectionProps,
+    n: f64,
+    m: f64,
+) -> f64 {
+    let (fy, _) = steel_fy(steel, family, props);
+    n / (props.a * fy / steel.gamma_m0) + m / (props.w_el * fy / steel.gamma_m0)
+}
+
 fn check_steel(
     steel: &Steel,
     family: &Family,
@@ -413,13 +445,7 @@ fn check_steel(
     demand: &Demand,
     lengths: &Lengths,
 ) -> Check {
-    // EN 1993-1-1 Table 3.1 gives f_y for t <= 40 mm and a lower value for 40 < t <= 80
-    // mm: 20 MPa less for S235, S355 and S460 (from memory); the thickest plate decides
-    let thickest = props.thickness.map(|t| t.max(family.web_thickness(props.size).unwrap_or(0.0)));
-    let fy = match thickest {
-        Some(t) if t > THICK_PLATE => steel.fy - THICK_PLATE_REDUCTION,
-        _ => steel.fy,
-    };
+    let (fy, thickest) = steel_fy(steel, family, props);
     let n_rk = props.a * fy;
     let m_rk = props.w_el * fy;
     let n_cr_in = euler_load(steel.e, props.i, lengths.in_plane);
