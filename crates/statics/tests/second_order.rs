@@ -219,3 +219,50 @@ fn a_concrete_rib_is_not_amplified_twice() {
     assert!((amplification(4.0) - 4.0 / 3.0).abs() < 1e-15);
     assert!((amplification(2.0) - 1.5).abs() < 1e-15, "held at alpha_cr = 3 below it");
 }
+
+/// The subspace iteration agrees with nalgebra's dense symmetric eigen-decomposition
+/// (`EigenSolver::Dense`, the oracle) on the demo's arch model (posts and diagonals kept
+/// whole, two elements per member) under the factored dead load and the first governing
+/// placement: every mode's alpha_cr to 1e-6 relative.
+#[test]
+fn the_arch_modes_agree_with_the_dense_oracle() {
+    use springline_statics::arch::generate::frame_model;
+    use springline_statics::arch::stability::{arch_only, ARCH_MODES, ARCH_SETTINGS};
+    use springline_statics::frame::stability::{EigenSolver, Stability, StabilitySettings};
+    let d = Design::demo();
+    let valid = ValidDesign::new(&d).expect("valid");
+    let generated = frame_model(&valid);
+    let r = sized(&d);
+    let st = r.sizing.rib_stability.as_ref().expect("analysed");
+    let model = arch_only(&generated);
+    let subspace = Stability::new(&model, ARCH_SETTINGS).expect("prepares");
+    let dense = Stability::new(&model, StabilitySettings { solver: EigenSolver::Dense, ..ARCH_SETTINGS })
+        .expect("prepares");
+    let uls = &d.traffic.combinations[0];
+    let dead = springline_statics::arch::stability::factored_dead(&generated, uls).expect("a dead case");
+    // the largest compression of the rib's first member, under ULS gr1a
+    let traffic = springline_statics::arch::sizing::frame_traffic(&valid).expect("traffic");
+    let k = springline_statics::arch::second_order::rib_members(&generated)[0];
+    let line = springline_statics::arch::influence::ArchLine::Axial(k).name(&generated);
+    let envelope = traffic.line(&line).expect("the rib's axial line");
+    let placed =
+        springline_statics::arch::stability::factored_placement(&valid, &generated, envelope, false, uls)
+            .expect("a placement case");
+    for (i, case) in [dead, placed].into_iter().enumerate() {
+        let a = subspace.buckling(&case, ARCH_MODES).expect("buckles");
+        let b = dense.buckling(&case, ARCH_MODES).expect("buckles");
+        assert_eq!(a.modes.len(), b.modes.len());
+        for (x, y) in a.modes.iter().zip(&b.modes) {
+            assert!(
+                (x.load_factor / y.load_factor - 1.0).abs() < 1e-6,
+                "{} vs {}",
+                x.load_factor,
+                y.load_factor
+            );
+        }
+        // the sizing's first case is the factored dead load
+        if i == 0 {
+            assert!((st.cases[0].arch.alpha_cr / a.modes[0].load_factor - 1.0).abs() < 1e-6);
+        }
+    }
+}

@@ -269,6 +269,7 @@ fn stability_table(r: &SizeReport, units: Units) -> impl IntoView {
         view! {
             <p class="hint" id="sizes-frequencies">{format!("Natural frequencies with the dead load's masses: {frequencies}.")}</p>
             {s.footbridge.clone().map(|f| view! { <p class="warning" id="sizes-footbridge">{format!("Footbridge: {f}")}</p> })}
+            <p class="hint" id="sizes-plane">"In the arch plane only: out-of-plane buckling and lateral sway are beyond this plane model and are not covered."</p>
         }
     });
     view! { {rib} {dynamics} }
