@@ -89,6 +89,7 @@ fn DesignInputs() -> impl IntoView {
                 <GroundPanel />
                 <RoadwayPanel />
                 <ArchPanel />
+                <crate::components::seek::SeekPanel />
                 <LoadsPanel />
                 <TrafficPanel />
                 <crate::components::actions::ActionsPanel />

@@ -508,3 +508,31 @@ fn modes_prints_buckling_and_vibration() {
     let err = failed(&run(&["modes", "-", "--modes", "0"], &demo_json()), 1);
     assert!(err.contains("1 to 50"), "{err}");
 }
+
+/// `seek` prints the design found on standard output (it pipes into `analyze -`, whose
+/// form thrust meets the goal) and the report on standard error; a goal no rise meets
+/// exits 1 with the nearest value and prints no design; one goal exactly is required
+/// (exit 2).
+#[test]
+fn seek_prints_the_design_found_and_fails_when_unmet() {
+    let out = run(&["seek", "-", "--max-thrust", "7500"], &demo_json());
+    assert_eq!(out.status.code(), Some(0), "{}", text(&out.stderr));
+    let report = text(&out.stderr);
+    assert!(report.contains("met: rise") && report.contains("licensed engineer"), "{report}");
+    let analysed = run(&["analyze", "-", "--summary"], &text(&out.stdout));
+    assert_eq!(analysed.status.code(), Some(0), "{}", text(&analysed.stderr));
+    let summary: serde_json::Value = serde_json::from_slice(&analysed.stdout).expect("summary JSON");
+    let thrust = summary["form_thrust"].as_f64().expect("thrust");
+    assert!(thrust <= 7500.0 && thrust > 7499.0, "{thrust}");
+
+    let out = run(&["seek", "-", "--max-thrust", "10"], &demo_json());
+    assert_eq!(out.status.code(), Some(1));
+    assert!(out.stdout.is_empty());
+    let err = text(&out.stderr);
+    assert!(err.contains("no rise") && err.contains("nearest"), "{err}");
+
+    let err = usage_error(&["seek", "-"]);
+    assert!(err.contains("--max-thrust"), "{err}");
+    let err = usage_error(&["seek", "-", "--max-thrust", "1", "--min-clearance", "2"]);
+    assert!(err.contains("cannot be used with"), "{err}");
+}

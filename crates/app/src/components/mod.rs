@@ -9,6 +9,7 @@ pub mod massing;
 pub mod readout;
 pub mod results;
 pub mod scenarios;
+pub mod seek;
 pub mod sizing;
 pub mod stability;
 pub mod status;

@@ -7,6 +7,7 @@ pub mod influence;
 pub mod link;
 pub mod model;
 pub mod modes;
+pub mod seek;
 pub mod size;
 pub mod solve;
 pub mod sweep;
@@ -30,6 +31,7 @@ pub enum Command {
     Size(size::Args),
     Modes(modes::Args),
     Sweep(sweep::Args),
+    Seek(seek::Args),
 }
 
 impl Command {
@@ -45,6 +47,7 @@ impl Command {
             Command::Size(args) => size::run(args),
             Command::Modes(args) => modes::run(args),
             Command::Sweep(args) => sweep::run(args),
+            Command::Seek(args) => seek::run(args),
         }
     }
 }

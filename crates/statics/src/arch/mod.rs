@@ -18,6 +18,7 @@ pub mod massing;
 pub mod quantities;
 pub mod readout;
 pub mod second_order;
+pub mod seek;
 pub mod sizing;
 pub mod stability;
 pub mod summary;

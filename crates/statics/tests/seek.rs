@@ -1,0 +1,127 @@
+//! Goal seek on the rise (`arch::seek`), each goal checked by analysing the returned
+//! design again, and the least-cost goal against the sweep function over the same range.
+
+use springline_statics::arch::design::Design;
+use springline_statics::arch::seek::{clearance, seek, Goal, Measure, Side, RISE_RESOLUTION, SCAN_STEPS};
+use springline_statics::arch::sweep::{sweep, Axis, Parameter};
+use springline_statics::ValidDesign;
+
+fn valid(d: &Design) -> ValidDesign {
+    ValidDesign::new(d).unwrap_or_else(|e| panic!("{}: {e}", d.name))
+}
+
+fn with_rise(d: &Design, rise: f64) -> Design {
+    let mut o = d.clone();
+    o.set_rise(rise);
+    o
+}
+
+/// The lowest rise whose form thrust is at most 90 % of the demo's: the returned design,
+/// analysed again, has a thrust at or under the target and within the bisection's
+/// resolution of it (a three-hinged arch's H = M0 / f, any statics text: dH/df = -H / f,
+/// so 0.1 mm of rise is about 1e-5 of H); a rise 1 mm lower is over the target.
+#[test]
+fn the_thrust_goal_finds_the_lowest_rise_under_the_target() {
+    let demo = Design::demo();
+    let h0 = valid(&demo).form().thrust;
+    let target = 0.9 * h0;
+    let r = seek(&demo, Goal::MaxThrust { thrust: target }).expect("seeks");
+    assert!(r.met, "{}", r.message);
+    let h = valid(&r.design).form().thrust;
+    assert!(h <= target && h >= target * (1.0 - 1e-4), "{h} vs {target}");
+    assert!((h - r.value).abs() < 1e-9 * h);
+    assert!(r.rise > demo.rise(), "a lower thrust takes a higher rise");
+    let lower = valid(&with_rise(&demo, r.rise - 1e-3)).form().thrust;
+    assert!(lower > target, "{lower}");
+    // the returned design differs from the demo in its rise only
+    assert_eq!(with_rise(&demo, r.rise), r.design);
+}
+
+/// The dead-load resultant at each springing at 40 degrees below the horizontal (the
+/// demo's are 41.7 and 39.3): analysed again, atan(V / H) of the returned design's form
+/// reaction is 40 degrees to 0.01 (the bisection's 0.1 mm of rise is far finer).
+#[test]
+fn the_springing_angle_goal_is_met_to_a_hundredth_of_a_degree() {
+    let demo = Design::demo();
+    for side in [Side::Left, Side::Right] {
+        let r = seek(&demo, Goal::SpringingAngle { degrees: 40.0, side }).expect("seeks");
+        assert!(r.met, "{}", r.message);
+        let v = valid(&r.design);
+        let reaction = if side == Side::Left { v.form().reaction_left } else { v.form().reaction_right };
+        let angle = reaction.fy.atan2(reaction.fx.abs()).to_degrees();
+        assert!((angle - 40.0).abs() < 0.01, "{side:?}: {angle}");
+    }
+}
+
+/// The largest rise keeping 2 m between the rib's top and the deck's underside: analysed
+/// again, the least gap is at least 2 m and within 1 cm of it; 1 mm more rise closes it
+/// below 2 m. The gap itself, by hand at the crown of the demo with level springings
+/// (symmetric: the crown node is the rib's highest): deck underside = deck level - deck
+/// depth; the crown node's extrados is its level plus half the rib depth over the cosine
+/// of the steeper adjacent segment.
+#[test]
+fn the_clearance_goal_keeps_the_gap() {
+    let demo = Design::demo();
+    let r = seek(&demo, Goal::MinClearance { gap: 2.0 }).expect("seeks");
+    assert!(r.met, "{}", r.message);
+    let gap = clearance(&valid(&r.design));
+    assert!((2.0..2.01).contains(&gap), "{gap}");
+    let higher = clearance(&valid(&with_rise(&demo, r.rise + 1e-3)));
+    assert!(higher < 2.0, "{higher}");
+    // by hand at the crown node
+    let mut level = demo.clone();
+    level.springing_right_level = level.springing_left_level;
+    let v = valid(&level);
+    let rib = &v.form().rib;
+    let c = v.form().crown_node;
+    let slope = |a: usize, b: usize| ((rib[b].y - rib[a].y) / (rib[b].x - rib[a].x)).abs();
+    let steeper = slope(c - 1, c).max(slope(c, c + 1));
+    let crown_gap = demo.deck.level
+        - demo.groups.deck.depth
+        - (rib[c].y + 0.5 * demo.groups.rib.depth * (1.0 + steeper * steeper).sqrt());
+    assert!((clearance(&v) - crown_gap).abs() < 1e-9, "{} vs {crown_gap}", clearance(&v));
+}
+
+/// The least cost index: no higher than the cost of every option of a 31-step sweep
+/// (`arch::sweep`) over the same range of rises, the returned design sized again to the
+/// same cost.
+#[test]
+fn the_least_cost_goal_beats_every_point_of_the_sweep() {
+    let mut demo = Design::demo();
+    demo.panels = 8;
+    let r = seek(&demo, Goal::Least { measure: Measure::Cost }).expect("seeks");
+    assert!(r.met, "{}", r.message);
+    let again = springline_statics::arch::sizing::size_of(&r.design).expect("sizes");
+    assert!((again.quantities.cost_index - r.value).abs() < 1e-9 * r.value);
+    let span = valid(&demo).form().span;
+    let values: Vec<f64> = (0..SCAN_STEPS)
+        .map(|i| (r.range[0] + (r.range[1] - r.range[0]) * i as f64 / (SCAN_STEPS - 1) as f64) / span)
+        .collect();
+    let s = sweep(&demo, &[Axis { parameter: Parameter::RiseRatio, values }], true).expect("sweeps");
+    let feasible: Vec<f64> =
+        s.rows.iter().filter(|row| row.feasible).filter_map(|row| row.cost_index).collect();
+    assert!(feasible.len() > SCAN_STEPS / 2, "{} feasible", feasible.len());
+    for c in feasible {
+        assert!(r.value <= c + 1e-9 * c, "{} above a swept {c}", r.value);
+    }
+}
+
+/// A thrust no rise can reach: not met, the nearest value (the least thrust, at the
+/// largest rise) and the range in the message. Bad targets are refused with a reason.
+#[test]
+fn an_unreachable_goal_says_so_with_the_nearest_value() {
+    let demo = Design::demo();
+    let r = seek(&demo, Goal::MaxThrust { thrust: 1.0 }).expect("seeks");
+    assert!(!r.met);
+    assert!((r.rise - r.range[1]).abs() < RISE_RESOLUTION + 1e-9, "the nearest is at the largest rise");
+    assert!(r.message.contains("no rise") && r.message.contains("nearest"), "{}", r.message);
+    assert!((valid(&r.design).form().thrust - r.value).abs() < 1e-9 * r.value);
+    for bad in [
+        Goal::MaxThrust { thrust: -1.0 },
+        Goal::SpringingAngle { degrees: 95.0, side: Side::Left },
+        Goal::MinClearance { gap: f64::NAN },
+    ] {
+        let e = seek(&demo, bad).expect_err("refused");
+        assert!(e.to_string().contains("give"), "{e}");
+    }
+}
