@@ -125,3 +125,59 @@ fn an_unreachable_goal_says_so_with_the_nearest_value() {
         assert!(e.to_string().contains("give"), "{e}");
     }
 }
+
+/// Shaping by the thrust (what the pole drag asks), a three-hinged rib: the found design's
+/// bare rib, solved by the stiffness solver under its form-finding loads (the dead case
+/// of the bare-rib model), pushes on its left springing with H = the thrust asked, to
+/// 1e-6 relative (a three-hinged funicular carries its loads by thrust alone: the
+/// solver's H equals the form's).
+#[test]
+fn a_rib_shaped_to_a_thrust_carries_that_thrust_in_the_solver() {
+    use springline_statics::analyze;
+    let demo = Design::demo();
+    for asked in [7_500.0, 9_000.0] {
+        let shaped = springline_statics::arch::seek::shape_for_thrust(&demo, asked).expect("shapes");
+        assert!(shaped.stopped.is_none(), "{:?}", shaped.stopped);
+        assert!((shaped.thrust / asked - 1.0).abs() < 1e-9);
+        let a = analyze(&shaped.design).expect("analyses");
+        let dead = a.bare_rib.solution.case("dead").expect("dead case");
+        let left = a.bare_rib.map.springings[0];
+        let h = dead.reaction(left).expect("a reaction").fx.abs();
+        assert!((h / asked - 1.0).abs() < 1e-6, "{h} vs {asked}");
+        assert!((shaped.design.rise() - shaped.rise).abs() < 1e-12);
+    }
+    // beyond the largest rise: the pole stops there and says why
+    let far = springline_statics::arch::seek::shape_for_thrust(&demo, 1_000.0).expect("shapes");
+    let why = far.stopped.expect("stopped");
+    assert!(why.contains("largest rise"), "{why}");
+    assert!(far.thrust > 1_000.0);
+}
+
+/// A rib carrying only its own weight (level springings, no deck load, weightless deck
+/// and posts), shaped to H by the pole: its rise is the catenary's f = (H / q)(cosh(q L /
+/// (2H)) - 1) (any statics text on cables, e.g. Timoshenko & Young, Theory of
+/// Structures, from memory) within the panel discretisation's error, 0.15 / n^2 relative
+/// (stated and measured for the form's polygon in `as_built.rs`).
+#[test]
+fn a_self_weight_rib_shaped_by_the_pole_is_the_catenary() {
+    for panels in [16, 32] {
+        let mut d = Design::demo();
+        d.springing_right_level = d.springing_left_level;
+        d.panels = panels;
+        d.bracing = springline_statics::arch::design::Bracing::None;
+        d.deck.dead_load = 0.0;
+        d.deck.surfacing = 0.0;
+        d.groups.deck.unit_weight = 0.0;
+        d.groups.posts.unit_weight = 0.0;
+        let q = d.groups.rib.unit_weight * d.groups.rib.a * d.deck.ribs as f64;
+        let h0 = valid(&d).form().thrust;
+        let asked = 1.2 * h0;
+        let shaped = springline_statics::arch::seek::shape_for_thrust(&d, asked).expect("shapes");
+        assert!(shaped.stopped.is_none(), "{:?}", shaped.stopped);
+        let v = valid(&shaped.design);
+        let (l, f) = (v.form().span, v.form().rise);
+        let catenary = asked / q * ((q * l / (2.0 * asked)).cosh() - 1.0);
+        let error = (catenary - f).abs() / f;
+        assert!(error <= 0.15 / (panels * panels) as f64, "{panels} panels: {error:e}");
+    }
+}

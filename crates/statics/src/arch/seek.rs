@@ -414,3 +414,89 @@ fn golden(
     }
     best
 }
+
+/// A design shaped to a form thrust: what dragging the pole of the rib's force diagram
+/// asks for.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct ShapedByThrust {
+    /// The thrust asked for, kN.
+    pub asked: f64,
+    /// The form thrust of the design, kN (the asked one unless a limit stopped it).
+    pub thrust: f64,
+    /// Its rise, m.
+    pub rise: f64,
+    /// Fixed-point steps taken.
+    pub steps: usize,
+    /// Why the thrust asked for cannot be reached (the pole stops at the limit of the
+    /// rise), in words (SI); `None` when it is reached.
+    pub stopped: Option<String>,
+    /// The limit that stopped it (to say it in other units).
+    #[serde(skip)]
+    pub limit: Option<crate::arch::edit::RiseLimit>,
+    /// The design.
+    #[serde(skip)]
+    pub design: Design,
+}
+
+/// Relative thrust tolerance of [`shape_for_thrust`].
+pub const THRUST_TOLERANCE: f64 = 1e-10;
+
+/// The rise of `design` whose form thrust is `thrust` (kN), everything else held: the
+/// pole of the rib's load line moved to distance H from it, the funicular through the
+/// springings and the crown point following (f = M0 / H with M0 the simple-beam moment
+/// at the crown x of the loads, for a three-point funicular; any graphic statics text).
+/// The loads follow the shape (the rib's self-weight, the posts' lengths), so the rise
+/// is found by the fixed point f_(k+1) = f_k H(f_k) / H, exact where M0 does not depend
+/// on the shape, to [`THRUST_TOLERANCE`] relative. A thrust below what the largest
+/// rise gives (or above what the least gives) stops at that rise, saying why.
+///
+/// Errors: `design` does not validate, or the thrust is not a positive number.
+pub fn shape_for_thrust(design: &Design, thrust: f64) -> Result<ShapedByThrust, StaticsError> {
+    if !(thrust.is_finite() && thrust > 0.0) {
+        return Err(StaticsError::invalid(
+            "thrust",
+            format!("a thrust of {thrust} kN: give a positive number"),
+        ));
+    }
+    let mut rise = design.rise();
+    let mut current = ValidDesign::new(design)?.form().thrust;
+    let mut steps = 0;
+    let mut stopped = None;
+    let mut limit_reached = None;
+    let mut shaped = design.clone();
+    for _ in 0..MAX_STEPS {
+        if (current - thrust).abs() <= THRUST_TOLERANCE * thrust {
+            break;
+        }
+        steps += 1;
+        let next = rise * current / thrust;
+        let candidate = with_rise(design, next);
+        match ValidDesign::new(&candidate) {
+            Ok(v) => {
+                rise = next;
+                current = v.form().thrust;
+                shaped = candidate;
+            }
+            Err(_) => {
+                // beyond what the layout accepts: stop at its limit
+                let limit = if next > rise { largest_rise(design)? } else { least_rise(design)? };
+                let at = with_rise(design, limit.rise);
+                current = ValidDesign::new(&at)?.form().thrust;
+                rise = limit.rise;
+                shaped = at;
+                stopped = Some(limit.describe(crate::units::Units::Si));
+                limit_reached = Some(limit);
+                break;
+            }
+        }
+    }
+    Ok(ShapedByThrust {
+        asked: thrust,
+        thrust: current,
+        rise,
+        steps,
+        stopped,
+        limit: limit_reached,
+        design: shaped,
+    })
+}
