@@ -32,7 +32,7 @@ pub fn drag_hint(units: Units) -> String {
     };
     format!(
         "Drag the crown, a springing, the deck or a ground point: {grid}; hold Shift while dragging to \
-         move freely."
+         move freely. Drag the pole of the force diagram to set the thrust: the rise follows."
     )
 }
 

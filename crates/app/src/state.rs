@@ -528,6 +528,18 @@ impl AppState {
         step.stop
     }
 
+    /// Shows `design` during a drag without recording a step (the drag records one when
+    /// it ends), if it analyses; otherwise leaves the design on screen and returns why.
+    pub fn show_during_drag(&self, design: Design) -> Result<(), StaticsError> {
+        if self.design.with_untracked(|d| *d == design) {
+            return Ok(());
+        }
+        self.check(&design)?;
+        self.clear_refusal();
+        self.design.set(design);
+        Ok(())
+    }
+
     /// Sets the truss member under the pointer (only when it changes, so canvases redraw
     /// once per change, not per pointer move).
     pub fn hover(&self, member: Option<usize>) {

@@ -11,9 +11,10 @@ use crate::state::{AppState, DragReading, ModeView, SizeView};
 use leptos::html::Canvas;
 use leptos::prelude::*;
 use springline_statics::arch::readout::MemberKey;
+use springline_statics::arch::seek::shape_for_thrust;
 use springline_statics::scene::elevation::{elevation, ElevationOptions};
 use springline_statics::scene::envelope::{envelope_elevation, EnvelopeOptions};
-use springline_statics::scene::force::{AreaView, FixedScale, ForceDrawing, ForceOptions};
+use springline_statics::scene::force::{AreaKind, AreaView, FixedScale, ForceDrawing, ForceOptions};
 use springline_statics::scene::modes::{mode_elevation, ModeOptions};
 use springline_statics::scene::sizing::{sizing_elevation, SizingOptions};
 use springline_statics::scene::vehicle::{add_vehicle, VehicleGlyph};
@@ -366,6 +367,40 @@ struct VehicleDrag {
 /// Zoom factor of one press of the zoom buttons.
 const BUTTON_ZOOM: f64 = 1.25;
 
+/// A drag of the pole of the rib's pole construction in progress.
+#[derive(Clone)]
+struct PoleDrag {
+    /// The pointer that holds the pole.
+    pointer: i32,
+    /// The design when the drag started (what the shapes are found from, and the undo
+    /// step's).
+    before: springline_statics::Design,
+    /// The pole area's transform when the drag started (kN).
+    transform: Transform,
+    /// World x from the pointer to the pole, kN, so the pole does not jump.
+    grab: f64,
+}
+
+/// The pole of the rib's pole construction on the force canvas (CSS pixels) with its
+/// area's transform, when the drawing shows it for the dead load (the case the pole
+/// drag shapes).
+fn pole_on_canvas(
+    a: &springline_statics::Analysis,
+    case: usize,
+    d: &ForceDrawing,
+) -> Option<(Px, Transform)> {
+    let figs = a.load_cases.get(case)?;
+    if figs.description != springline_statics::arch::cases::CaseKind::Dead {
+        return None;
+    }
+    let pole = figs.rib_funicular.as_ref()?.construction.pole;
+    let area = d.areas.iter().find(|x| x.kind == AreaKind::Pole)?;
+    let p = area.transform.px(pole.x, pole.y);
+    area.rect
+        .contains(&springline_statics::scene::Rect::new(p.x, p.y, 0.0, 0.0))
+        .then_some((p, area.transform))
+}
+
 /// The force-diagram canvas with its zoom buttons. Wheel zooms about the pointer, two
 /// pointers pinch, one pointer drags to pan the area it started in; "fit" restores the
 /// fitted view. While the elevation is being dragged (`state.dragging`) the force scale
@@ -380,6 +415,7 @@ pub fn ForceCanvas() -> impl IntoView {
     let held = StoredValue::new(None::<FixedScale>);
     // pointers down on the canvas: (id, last position), and whether the pointer moved
     let pointers = StoredValue::new(Vec::<(i32, Px)>::new());
+    let pole_drag = StoredValue::new(None::<PoleDrag>);
     Effect::new(move |_| {
         let _ = state.resized.get();
         let highlight = state.hovered.get().0;
@@ -405,6 +441,17 @@ pub fn ForceCanvas() -> impl IntoView {
         let opts = ForceOptions { units, highlight, views, fixed_scale: held.get_value() };
         let d = forces::drawing(&a, case, &opts, viewport);
         paint::paint(&el, &d.scene);
+        // the pole one can drag, for tests and assistive tools
+        match pole_on_canvas(&a, case, &d) {
+            Some((p, _)) => {
+                let _ = el.set_attribute("data-pole", &format!("[{},{}]", p.x, p.y));
+                let _ = el.set_attribute("data-pole-thrust", &format!("{}", a.form.thrust));
+            }
+            None => {
+                let _ = el.remove_attribute("data-pole");
+                let _ = el.remove_attribute("data-pole-thrust");
+            }
+        }
         drawn.set_value(Some(d));
     });
     // zoom every area about its centre (buttons), or reset
@@ -434,6 +481,26 @@ pub fn ForceCanvas() -> impl IntoView {
         if let Some(el) = node.get() {
             let _ = el.set_pointer_capture(ev.pointer_id());
         }
+        // on the pole: drag it (the thrust, and the shape with it)
+        let case = state.case.get_untracked();
+        let pole = state.analysis.with_untracked(|o| {
+            let a = o.as_ref().ok()?;
+            drawn.with_value(|d| d.as_ref().and_then(|d| pole_on_canvas(a, case, d)))
+        });
+        if let Some((p, t)) = pole.filter(|(p, _)| (p.x - at.x).hypot(p.y - at.y) <= drag::POINT_REACH) {
+            ev.prevent_default();
+            let (wx, _) = t.world(at);
+            let (px, _) = t.world(p);
+            state.drag_stop.set(None);
+            state.dragging.set(true);
+            pole_drag.set_value(Some(PoleDrag {
+                pointer: ev.pointer_id(),
+                before: state.design.get_untracked(),
+                transform: t,
+                grab: px - wx,
+            }));
+            return;
+        }
         pointers.update_value(|p| {
             p.retain(|(id, _)| *id != ev.pointer_id());
             p.push((ev.pointer_id(), at));
@@ -442,6 +509,14 @@ pub fn ForceCanvas() -> impl IntoView {
     // up, cancelled or capture lost (a touch the browser took over): the pointer is gone,
     // so a later single pointer pans instead of pinching with a stale one
     let on_up = move |ev: web_sys::PointerEvent| {
+        if let Some(d) = pole_drag.get_value().filter(|d| d.pointer == ev.pointer_id()) {
+            pole_drag.set_value(None);
+            state.dragging.set(false);
+            if state.design.with_untracked(|now| *now != d.before) {
+                state.remember(d.before);
+            }
+            state.resized.update(|n| *n = n.wrapping_add(1));
+        }
         pointers.update_value(|p| p.retain(|(id, _)| *id != ev.pointer_id()));
         if let Some(el) = node.get() {
             if el.has_pointer_capture(ev.pointer_id()) {
@@ -451,6 +526,30 @@ pub fn ForceCanvas() -> impl IntoView {
     };
     let on_move = move |ev: web_sys::PointerEvent| {
         let Some(at) = px_of(&ev) else { return };
+        // dragging the pole: its distance from the load line is the thrust H; the rise
+        // follows (`arch::seek::shape_for_thrust`), stopping at the layout's limits
+        if let Some(d) = pole_drag.get_value() {
+            if d.pointer != ev.pointer_id() {
+                return;
+            }
+            let thrust = -(d.transform.world(at).0 + d.grab);
+            if thrust <= 0.0 {
+                return;
+            }
+            let units = state.units.get_untracked();
+            match shape_for_thrust(&d.before, thrust) {
+                Ok(shaped) => {
+                    let stopped = shaped.limit.as_ref().map(|l| format!("Pole held: {}", l.describe(units)));
+                    if let Err(e) = state.show_during_drag(shaped.design) {
+                        state.drag_stop.set(Some(format!("Pole held: {e}")));
+                    } else if let Some(words) = stopped {
+                        state.drag_stop.set(Some(words));
+                    }
+                }
+                Err(e) => state.drag_stop.set(Some(format!("Pole held: {e}"))),
+            }
+            return;
+        }
         let down = pointers.get_value();
         let id = ev.pointer_id();
         if let Some(k) = down.iter().position(|(p, _)| *p == id) {
@@ -495,6 +594,17 @@ pub fn ForceCanvas() -> impl IntoView {
             }
         }
         state.hover(member);
+        // a grab cursor over the pole
+        let case = state.case.get_untracked();
+        let near_pole = state.analysis.with_untracked(|o| {
+            let a = o.as_ref().ok()?;
+            drawn.with_value(|d| d.as_ref().and_then(|d| pole_on_canvas(a, case, d)))
+        });
+        let grab = near_pole.is_some_and(|(p, _)| (p.x - at.x).hypot(p.y - at.y) <= drag::POINT_REACH);
+        if let Some(el) = node.get() {
+            let _ = web_sys::HtmlElement::style(&el)
+                .set_property("cursor", if grab { "grab" } else { "default" });
+        }
     };
     let on_wheel = move |ev: web_sys::WheelEvent| {
         let Some(el) = node.get() else { return };
@@ -517,7 +627,7 @@ pub fn ForceCanvas() -> impl IntoView {
                 class="drawing"
                 node_ref=node
                 tabindex="0"
-                aria-label="Force diagram: reciprocal figure and pole construction, or the thrust line; wheel or pinch to zoom, drag to pan. Arrow keys step through the members of the truss idealisation and the readout below reads their forces; Escape clears."
+                aria-label="Force diagram: reciprocal figure and pole construction, or the thrust line; wheel or pinch to zoom, drag to pan; under dead load, drag the pole to set the thrust (the rise follows). Arrow keys step through the members of the truss idealisation and the readout below reads their forces; Escape clears."
                 aria-describedby="member-readout"
                 on:keydown=move |ev| step_member(state, &ev, ModelKind::Truss)
                 on:pointerdown=on_down

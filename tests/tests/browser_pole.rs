@@ -1,0 +1,73 @@
+//! Dragging the pole of the rib's pole construction in headless Chromium over WebDriver
+//! (needs `dist/` built from this tree): the thrust follows the pole's distance from the
+//! load line and the rise follows the thrust (the engine's `shape_for_thrust` of the
+//! thrust shown gives the rise shown), the link follows, and one undo brings the demo
+//! back.
+//!
+//! Expected values come from the engine, never from the page itself.
+
+use springline_statics::arch::seek::shape_for_thrust;
+use springline_statics::link::permalink;
+use springline_statics::{analyze, Design};
+use springline_tests::page::*;
+use springline_tests::serve::StaticServer;
+use springline_tests::webdriver::Driver;
+
+fn data_value(s: &springline_tests::webdriver::Session, id: &str) -> f64 {
+    data_number(s, id, "value").unwrap_or_else(|| panic!("#{id} has no value"))
+}
+
+#[test]
+fn dragging_the_pole_sets_the_thrust_and_the_rise_follows() {
+    let server = StaticServer::start(&dist());
+    let driver = Driver::start();
+    let s = driver.session(1500, 1000, 1.0);
+    open(&s, &server);
+    let demo = Design::demo();
+    let demo_a = analyze(&demo).expect("analyses");
+    wait_value(&s, "result-thrust", demo_a.form.thrust);
+    s.wait_for(
+        "the pole on the force canvas",
+        "return !!document.getElementById('forces').dataset.pole;",
+        WAIT,
+    );
+    let pole: Vec<f64> = serde_json::from_str(
+        s.exec("return document.getElementById('forces').dataset.pole;", vec![]).as_str().unwrap_or("[]"),
+    )
+    .expect("a pole position");
+    let origin = canvas_origin(&s, "forces");
+    let from = (origin.0 + pole[0], origin.1 + pole[1]);
+    let hash_before = s.exec("return location.hash;", vec![]).as_str().unwrap_or("").to_string();
+    // the pole moved away from the load line (to the left): a larger thrust, a lower rise
+    s.drag(from, (from.0 - 30.0, from.1), 8);
+    s.wait_for(
+        "a larger thrust",
+        &format!(
+            "return +document.getElementById('result-thrust').dataset.value > {} + 1;",
+            demo_a.form.thrust
+        ),
+        WAIT,
+    );
+    let thrust = data_value(&s, "result-thrust");
+    let rise = data_value(&s, "result-rise");
+    assert!(rise < demo.rise(), "{rise}");
+    let shaped = shape_for_thrust(&demo, thrust).expect("shapes");
+    assert!((shaped.rise - rise).abs() < 1e-6, "{} vs {rise}", shaped.rise);
+    // the link follows once the edits pause: it opens to the rise shown
+    let deadline = std::time::Instant::now() + WAIT;
+    loop {
+        let hash = s.exec("return location.hash;", vec![]).as_str().unwrap_or("").to_string();
+        let linked = (hash != hash_before).then(|| permalink::decode(&hash).ok()).flatten();
+        if linked.is_some_and(|d| (d.rise() - rise).abs() < 1e-6) {
+            break;
+        }
+        assert!(std::time::Instant::now() < deadline, "the link did not follow the drag: {hash}");
+        std::thread::sleep(std::time::Duration::from_millis(100));
+    }
+    std::fs::write(screenshots_dir().join("pole-drag.png"), s.screenshot()).expect("screenshot");
+    // one drag, one undo step
+    click_id(&s, "undo");
+    wait_value(&s, "result-thrust", demo_a.form.thrust);
+    wait_value(&s, "result-rise", demo_a.form.rise);
+    assert!(severe(&s).is_empty(), "{:?}", severe(&s));
+}
