@@ -181,3 +181,64 @@ fn a_self_weight_rib_shaped_by_the_pole_is_the_catenary() {
         assert!(error <= 0.15 / (panels * panels) as f64, "{panels} panels: {error:e}");
     }
 }
+
+/// Every rib system with every bracing option (the demo's unequal springings kept): the
+/// thrust goal at 95 % of the design's own form thrust is met, checked by analysing the
+/// returned design again, and shaping by the same thrust (the pole drag) reaches it to
+/// 1e-9.
+#[test]
+fn every_rib_system_and_bracing_takes_the_thrust_goal_and_the_pole() {
+    use springline_statics::arch::design::{Bracing, RibSystem};
+    use springline_statics::arch::seek::shape_for_thrust;
+    for system in [RibSystem::ThreeHinged, RibSystem::TwoHinged, RibSystem::Fixed] {
+        for bracing in [Bracing::None, Bracing::Single { flipped: false }, Bracing::Crossed] {
+            let mut d = Design::demo();
+            d.rib_system = system;
+            d.bracing = bracing;
+            let own = valid(&d).form().thrust;
+            let target = 0.95 * own;
+            let r = seek(&d, Goal::MaxThrust { thrust: target }).expect("seeks");
+            assert!(r.met, "{system:?}, {bracing:?}: {}", r.message);
+            let h = valid(&r.design).form().thrust;
+            assert!(h <= target && h >= target * (1.0 - 1e-4), "{system:?}, {bracing:?}: {h} vs {target}");
+            let shaped = shape_for_thrust(&d, target).expect("shapes");
+            assert!(shaped.stopped.is_none(), "{system:?}, {bracing:?}: {:?}", shaped.stopped);
+            assert!(
+                (valid(&shaped.design).form().thrust / target - 1.0).abs() < 1e-9,
+                "{system:?}, {bracing:?}"
+            );
+        }
+    }
+}
+
+/// A two-hinged or fixed rib's force diagram shows the form's pole beside the solver's:
+/// its distance from the load line is the form thrust (the three-point construction
+/// through the crown under the bare rib's loads, any graphic statics text), to 1e-9; a
+/// three-hinged rib has one pole only.
+#[test]
+fn a_hingeless_rib_shows_the_forms_pole_at_the_form_thrust() {
+    use springline_statics::analyze;
+    use springline_statics::arch::design::RibSystem;
+    use springline_statics::scene::force::{force_drawing, ForceOptions};
+    use springline_statics::scene::Viewport;
+    for system in [RibSystem::TwoHinged, RibSystem::Fixed, RibSystem::ThreeHinged] {
+        let mut d = Design::demo();
+        d.rib_system = system;
+        let a = analyze(&d).expect("analyses");
+        let dead = &a.load_cases[0];
+        match (system, dead.form_pole) {
+            (RibSystem::ThreeHinged, pole) => assert!(pole.is_none()),
+            (_, Some(p)) => {
+                assert!(
+                    (-p.x / a.form.thrust - 1.0).abs() < 1e-9,
+                    "{system:?}: {} vs {}",
+                    -p.x,
+                    a.form.thrust
+                );
+                let drawing = force_drawing(&a, 0, &ForceOptions::default(), Viewport::new(900.0, 500.0));
+                assert!(drawing.scene.labels.iter().any(|l| l.text.starts_with("form's pole")), "{system:?}");
+            }
+            (_, None) => panic!("{system:?}: no form's pole"),
+        }
+    }
+}

@@ -383,7 +383,8 @@ struct PoleDrag {
 
 /// The pole of the rib's pole construction on the force canvas (CSS pixels) with its
 /// area's transform, when the drawing shows it for the dead load (the case the pole
-/// drag shapes).
+/// drag shapes): the form's pole, which for a two-hinged or fixed rib is drawn beside
+/// the solver's.
 fn pole_on_canvas(
     a: &springline_statics::Analysis,
     case: usize,
@@ -393,7 +394,8 @@ fn pole_on_canvas(
     if figs.description != springline_statics::arch::cases::CaseKind::Dead {
         return None;
     }
-    let pole = figs.rib_funicular.as_ref()?.construction.pole;
+    // a rib that is not three-hinged: the form's pole (the one the drag sets)
+    let pole = figs.form_pole.or_else(|| figs.rib_funicular.as_ref().map(|r| r.construction.pole))?;
     let area = d.areas.iter().find(|x| x.kind == AreaKind::Pole)?;
     let p = area.transform.px(pole.x, pole.y);
     area.rect

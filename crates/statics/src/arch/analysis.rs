@@ -291,6 +291,12 @@ pub struct CaseFigures {
     /// nodes: the three-point construction for a three-hinged rib, the pole from the
     /// solved reactions otherwise.
     pub rib_funicular: Option<RibFunicular>,
+    /// For a rib that is not three-hinged, whose `rib_funicular` takes its pole from the
+    /// solved reactions: the pole of the three-point construction through the crown under
+    /// the same loads, kN (the form's pole: its distance from the load line is the form
+    /// thrust, what dragging the pole sets). `None` for a three-hinged rib (the two are
+    /// one) or when it cannot be drawn.
+    pub form_pole: Option<crate::geom::Point>,
     /// Thrust line of the frame model's rib (checked with the rib section depth).
     pub thrust_line: Option<ThrustLine>,
     /// Which model each figure belongs to, and why a figure is missing.
@@ -613,6 +619,15 @@ fn case_figures(design: &Design, models: &Figures, name: &str, kind: CaseKind) -
             }
         }
     });
+    let form_pole = (!three_hinged)
+        .then(|| {
+            let case = rib_solution.case(name)?;
+            let [left, right] = rib_map.springings;
+            crate::graphic::funicular::rib_funicular(rib, case, left, right, Some(rib_map.crown))
+                .ok()
+                .map(|f| f.construction.pole)
+        })
+        .flatten();
     let (frame, frame_map, frame_solution) = models.frame;
     let depth = design.groups.rib.depth;
     let thrust = frame_solution.case(name).and_then(|case| {
@@ -632,6 +647,7 @@ fn case_figures(design: &Design, models: &Figures, name: &str, kind: CaseKind) -
         description: kind,
         force_diagram,
         rib_funicular,
+        form_pole,
         thrust_line: thrust,
         notes,
     }

@@ -250,7 +250,7 @@ pub fn force_drawing(
         match &figs.force_diagram {
             Some(figure) => braced(
                 figure,
-                figs.rib_funicular.as_ref().map(|r| &r.construction),
+                figs.rib_funicular.as_ref().map(|r| (&r.construction, figs.form_pole)),
                 (&case_words.0, &case_words.1),
                 opts,
                 viewport,
@@ -604,7 +604,7 @@ fn open_area(area: Rect, captions: &[String]) -> (Item, Label, Placer) {
 
 fn braced(
     figure: &ForceDiagram,
-    pole: Option<&PoleConstruction>,
+    pole: Option<(&PoleConstruction, Option<crate::geom::Point>)>,
     case_words: (&str, &str),
     opts: &ForceOptions,
     viewport: Viewport,
@@ -633,8 +633,18 @@ fn braced(
     let body = body_below(h.y, viewport);
     let fig_box =
         bounds(figure.spaces.iter().map(|s| (s.point.x, s.point.y))).unwrap_or((0.0, 1.0, 0.0, 1.0));
+    let (pole, form_pole) = match pole {
+        Some((pc, form)) => (Some(pc), form),
+        None => (None, None),
+    };
     let pole_box = pole.and_then(|pc| {
-        bounds(pc.load_line.iter().map(|q| (q.x, q.y)).chain(std::iter::once((pc.pole.x, pc.pole.y))))
+        bounds(
+            pc.load_line
+                .iter()
+                .map(|q| (q.x, q.y))
+                .chain(std::iter::once((pc.pole.x, pc.pole.y)))
+                .chain(form_pole.map(|f| (f.x, f.y))),
+        )
     });
     let (fig_rect, pole_rect) = match pole_box {
         Some(pb) => {
@@ -763,6 +773,22 @@ fn braced(
         let foot = tp.px(0.0, pc.pole.y);
         pen.line(pp, foot, Stroke::solid(Ink::Reaction, 2.0), Tag::None);
         pen.circle(pp, 3.5, None, Some(Ink::Text), Tag::None);
+        // a rib that is not three-hinged: the form's pole too (the three-point construction
+        // through the crown), hollow, with its thrust; the one the drag moves
+        if let Some(f) = form_pole {
+            let fp = at(f);
+            pen.line(fp, tp.px(0.0, f.y), Stroke::patterned(Ink::Reaction, 1.2, Pattern::Dashed), Tag::None);
+            pen.circle(fp, 4.5, Some(Stroke::solid(Ink::Text, 1.5)), Some(Ink::Background), Tag::None);
+            if pen.inside(fp) {
+                let text = format!("form's pole, H = {}", units.show(Quantity::Force, -f.x));
+                let req = Request::new(text.clone(), TextSize::Small, Ink::Text, fp)
+                    .sides(&[Side::Below, Side::BelowLeft, Side::Above, Side::AboveLeft])
+                    .short("form's pole".to_string());
+                if placer.place(req).is_none() {
+                    dropped.push(text);
+                }
+            }
+        }
         if pen.inside(pp) {
             let req = Request::new(POLE_NAME, TextSize::Small, Ink::Text, pp).sides(&[
                 Side::Left,
