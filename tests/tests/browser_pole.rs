@@ -72,40 +72,47 @@ fn dragging_the_pole_sets_the_thrust_and_the_rise_follows() {
     assert!(severe(&s).is_empty(), "{:?}", severe(&s));
 }
 
-/// A two-hinged rib: the handle is the form's pole (drawn beside the solver's); dragging
-/// it towards the load line lowers the form thrust and raises the rise, as the engine
-/// shapes it.
+/// A two-hinged rib: the handle is the form's pole (drawn beside the solver's); an
+/// unbraced rib: the pole construction beside the thrust line. Dragging the pole towards
+/// the load line lowers the form thrust and raises the rise, as the engine shapes it.
 #[test]
-fn a_two_hinged_ribs_form_pole_is_dragged() {
+fn a_two_hinged_and_an_unbraced_ribs_pole_is_dragged() {
     let server = StaticServer::start(&dist());
     let driver = Driver::start();
-    let s = driver.session(1500, 1000, 1.0);
     let mut two = Design::demo();
     two.rib_system = springline_statics::arch::design::RibSystem::TwoHinged;
-    let a = analyze(&two).expect("analyses");
-    open_url(&s, &format!("{}#{}", server.url(), permalink::encode(&two)));
-    wait_value(&s, "result-thrust", a.form.thrust);
-    s.wait_for(
-        "the pole on the force canvas",
-        "return !!document.getElementById('forces').dataset.pole;",
-        WAIT,
-    );
-    let pole: Vec<f64> = serde_json::from_str(
-        s.exec("return document.getElementById('forces').dataset.pole;", vec![]).as_str().unwrap_or("[]"),
-    )
-    .expect("a pole position");
-    let origin = canvas_origin(&s, "forces");
-    let from = (origin.0 + pole[0], origin.1 + pole[1]);
-    s.drag(from, (from.0 + 12.0, from.1), 6);
-    s.wait_for(
-        "a smaller thrust",
-        &format!("return +document.getElementById('result-thrust').dataset.value < {} - 1;", a.form.thrust),
-        WAIT,
-    );
-    let thrust = data_value(&s, "result-thrust");
-    let rise = data_value(&s, "result-rise");
-    assert!(rise > two.rise(), "{rise}");
-    let shaped = shape_for_thrust(&two, thrust).expect("shapes");
-    assert!((shaped.rise - rise).abs() < 1e-6, "{} vs {rise}", shaped.rise);
-    assert!(severe(&s).is_empty(), "{:?}", severe(&s));
+    let mut unbraced = Design::demo();
+    unbraced.bracing = springline_statics::arch::design::Bracing::None;
+    for design in [two, unbraced] {
+        let s = driver.session(1500, 1000, 1.0);
+        let a = analyze(&design).expect("analyses");
+        open_url(&s, &format!("{}#{}", server.url(), permalink::encode(&design)));
+        wait_value(&s, "result-thrust", a.form.thrust);
+        s.wait_for(
+            "the pole on the force canvas",
+            "return !!document.getElementById('forces').dataset.pole;",
+            WAIT,
+        );
+        let pole: Vec<f64> = serde_json::from_str(
+            s.exec("return document.getElementById('forces').dataset.pole;", vec![]).as_str().unwrap_or("[]"),
+        )
+        .expect("a pole position");
+        let origin = canvas_origin(&s, "forces");
+        let from = (origin.0 + pole[0], origin.1 + pole[1]);
+        s.drag(from, (from.0 + 12.0, from.1), 6);
+        s.wait_for(
+            "a smaller thrust",
+            &format!(
+                "return +document.getElementById('result-thrust').dataset.value < {} - 1;",
+                a.form.thrust
+            ),
+            WAIT,
+        );
+        let thrust = data_value(&s, "result-thrust");
+        let rise = data_value(&s, "result-rise");
+        assert!(rise > design.rise(), "{rise}");
+        let shaped = shape_for_thrust(&design, thrust).expect("shapes");
+        assert!((shaped.rise - rise).abs() < 1e-6, "{} vs {rise}", shaped.rise);
+        assert!(severe(&s).is_empty(), "{:?}", severe(&s));
+    }
 }

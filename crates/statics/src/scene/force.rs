@@ -212,11 +212,11 @@ impl ForceDrawing {
     }
 
     /// The force scales now drawn (before zoom), to keep fixed during a drag; `None`
-    /// when no force area is drawn (thrust line or message). A missing pole area keeps
-    /// the figure's scale for both.
+    /// when no force area is drawn (a thrust line alone, or a message). A missing pole
+    /// area keeps the figure's scale for both, a missing figure the pole's.
     pub fn fixed_scale(&self) -> Option<FixedScale> {
         let per_px = |k: AreaKind| self.areas.iter().find(|a| a.kind == k).map(|a| 1.0 / a.base_scale);
-        let figure = per_px(AreaKind::Figure)?;
+        let figure = per_px(AreaKind::Figure).or_else(|| per_px(AreaKind::Pole))?;
         Some(FixedScale { figure, pole: per_px(AreaKind::Pole).unwrap_or(figure) })
     }
 }
@@ -259,7 +259,13 @@ pub fn force_drawing(
         }
     } else {
         match &figs.thrust_line {
-            Some(tl) => thrust(tl, (&case_words.0, &case_words.1), opts, viewport),
+            Some(tl) => thrust(
+                tl,
+                figs.rib_funicular.as_ref().map(|r| (&r.construction, figs.form_pole)),
+                (&case_words.0, &case_words.1),
+                opts,
+                viewport,
+            ),
             None => message(viewport, "Thrust line not available", &why()),
         }
     }
@@ -637,15 +643,7 @@ fn braced(
         Some((pc, form)) => (Some(pc), form),
         None => (None, None),
     };
-    let pole_box = pole.and_then(|pc| {
-        bounds(
-            pc.load_line
-                .iter()
-                .map(|q| (q.x, q.y))
-                .chain(std::iter::once((pc.pole.x, pc.pole.y)))
-                .chain(form_pole.map(|f| (f.x, f.y))),
-        )
-    });
+    let pole_box = pole.and_then(|pc| pole_bounds(pc, form_pole));
     let (fig_rect, pole_rect) = match pole_box {
         Some(pb) => {
             let (a, b) = split(body, fig_box, pb);
@@ -748,92 +746,11 @@ fn braced(
 
     // the pole construction
     if let (Some(pc), Some(rect), Some(pb)) = (pole, pole_rect, pole_box) {
-        let fit = fitted(pb, inner_of(rect, caption_h), opts.fixed_scale.map(|f| f.pole));
-        let tp = opts.views[1].apply(fit, rect);
-        areas.push(ForceArea { kind: AreaKind::Pole, rect, transform: tp, base_scale: fit.scale });
-        let per50 = units.show(Quantity::Force, 50.0 / tp.scale);
-        let captions = [
-            format!("rib's pole construction · bare rib · 50 px = {per50}"),
-            format!("bare rib's poles · 50 px = {per50}"),
-            format!("bare rib · 50 px = {per50}"),
-            format!("50 px = {per50}"),
-        ];
-        let (frame, caption, mut placer) = open_area(rect, &captions);
-        drawing_items.push(frame);
-        labels.push(caption);
-        let mut pen = Painter { clip: rect, items: Vec::new() };
-        let at = |p: crate::geom::Point| tp.px(p.x, p.y);
-        let pp = at(pc.pole);
-        for (_, q) in &pc.rays {
-            pen.line(pp, at(*q), Stroke::solid(Ink::Ray, 0.8), Tag::None);
-        }
-        let ll: Vec<Px> = pc.load_line.iter().map(|q| at(*q)).collect();
-        pen.path(&ll, Stroke::solid(Ink::Load, 2.5));
-        // the pole distance H: from the pole across to the load line
-        let foot = tp.px(0.0, pc.pole.y);
-        pen.line(pp, foot, Stroke::solid(Ink::Reaction, 2.0), Tag::None);
-        pen.circle(pp, 3.5, None, Some(Ink::Text), Tag::None);
-        // a rib that is not three-hinged: the form's pole too (the three-point construction
-        // through the crown), hollow, with its thrust; the one the drag moves
-        if let Some(f) = form_pole {
-            let fp = at(f);
-            pen.line(fp, tp.px(0.0, f.y), Stroke::patterned(Ink::Reaction, 1.2, Pattern::Dashed), Tag::None);
-            pen.circle(fp, 4.5, Some(Stroke::solid(Ink::Text, 1.5)), Some(Ink::Background), Tag::None);
-            if pen.inside(fp) {
-                let text = format!("form's pole, H = {}", units.show(Quantity::Force, -f.x));
-                let req = Request::new(text.clone(), TextSize::Small, Ink::Text, fp)
-                    .sides(&[Side::Below, Side::BelowLeft, Side::Above, Side::AboveLeft])
-                    .short("form's pole".to_string());
-                if placer.place(req).is_none() {
-                    dropped.push(text);
-                }
-            }
-        }
-        if pen.inside(pp) {
-            let req = Request::new(POLE_NAME, TextSize::Small, Ink::Text, pp).sides(&[
-                Side::Left,
-                Side::BelowLeft,
-                Side::AboveLeft,
-                Side::Below,
-                Side::Above,
-            ]);
-            if placer.place(req).is_none() {
-                dropped.push(POLE_NAME.to_string());
-            }
-        }
-        let mid = Px::new((pp.x + foot.x) / 2.0, pp.y);
-        if pen.inside(mid) {
-            let h_text = format!("pole distance H = {}", units.show(Quantity::Force, -pc.pole.x));
-            let req = Request::new(h_text.clone(), TextSize::Small, Ink::Reaction, mid)
-                .sides(&[
-                    Side::Above,
-                    Side::Below,
-                    Side::AboveRight,
-                    Side::BelowRight,
-                    Side::AboveLeft,
-                    Side::BelowLeft,
-                ])
-                .short(format!("H = {}", units.show(Quantity::Force, -pc.pole.x)));
-            if placer.place(req).is_none() {
-                dropped.push(h_text);
-            }
-        }
-        if let (Some(top), Some(bottom)) = (ll.first(), ll.last()) {
-            let total = pc.load_line.first().map(|a| a.y).unwrap_or(0.0)
-                - pc.load_line.last().map(|b| b.y).unwrap_or(0.0);
-            let mid = Px::new(top.x, (top.y + bottom.y) / 2.0);
-            if pen.inside(mid) {
-                let text = format!("rib loads ΣP = {}", units.show(Quantity::Force, total));
-                let req = Request::new(text.clone(), TextSize::Small, Ink::Load, mid)
-                    .sides(&[Side::Right, Side::AboveRight, Side::BelowRight])
-                    .short(format!("ΣP = {}", units.show(Quantity::Force, total)));
-                if placer.place(req).is_none() {
-                    dropped.push(text);
-                }
-            }
-        }
-        drawing_items.extend(pen.items);
-        labels.extend(placer.finish());
+        let (area, items, placed, lost) = pole_area(pc, form_pole, rect, pb, opts);
+        areas.push(area);
+        drawing_items.extend(items);
+        labels.extend(placed);
+        dropped.extend(lost);
     }
     let mut scene = Scene::new(viewport);
     scene.world_unit = "kN";
@@ -939,8 +856,124 @@ fn space_groups(figure: &ForceDiagram, at: impl Fn(crate::geom::Point) -> Px) ->
 // ---------------------------------------------------------------------------------------
 // unbraced: the thrust line
 
+/// Draws the rib's pole construction `pc` (and, for a rib that is not three-hinged, the
+/// form's pole `form_pole` beside the solver's) in `rect`, fitted to `pb` (its bounds)
+/// with the second area view; returns the area, its items, labels and dropped texts.
+fn pole_area(
+    pc: &PoleConstruction,
+    form_pole: Option<crate::geom::Point>,
+    rect: Rect,
+    pb: (f64, f64, f64, f64),
+    opts: &ForceOptions,
+) -> (ForceArea, Vec<Item>, Vec<Label>, Vec<String>) {
+    let units = opts.units;
+    let caption_h = TextSize::Small.box_height();
+    let mut drawing_items = Vec::new();
+    let mut labels = Vec::new();
+    let mut dropped = Vec::new();
+    let fit = fitted(pb, inner_of(rect, caption_h), opts.fixed_scale.map(|f| f.pole));
+    let tp = opts.views[1].apply(fit, rect);
+    let area = ForceArea { kind: AreaKind::Pole, rect, transform: tp, base_scale: fit.scale };
+    let per50 = units.show(Quantity::Force, 50.0 / tp.scale);
+    let captions = [
+        format!("rib's pole construction · bare rib · 50 px = {per50}"),
+        format!("bare rib's poles · 50 px = {per50}"),
+        format!("bare rib · 50 px = {per50}"),
+        format!("50 px = {per50}"),
+    ];
+    let (frame, caption, mut placer) = open_area(rect, &captions);
+    drawing_items.push(frame);
+    labels.push(caption);
+    let mut pen = Painter { clip: rect, items: Vec::new() };
+    let at = |p: crate::geom::Point| tp.px(p.x, p.y);
+    let pp = at(pc.pole);
+    for (_, q) in &pc.rays {
+        pen.line(pp, at(*q), Stroke::solid(Ink::Ray, 0.8), Tag::None);
+    }
+    let ll: Vec<Px> = pc.load_line.iter().map(|q| at(*q)).collect();
+    pen.path(&ll, Stroke::solid(Ink::Load, 2.5));
+    // the pole distance H: from the pole across to the load line
+    let foot = tp.px(0.0, pc.pole.y);
+    pen.line(pp, foot, Stroke::solid(Ink::Reaction, 2.0), Tag::None);
+    pen.circle(pp, 3.5, None, Some(Ink::Text), Tag::None);
+    // a rib that is not three-hinged: the form's pole too (the three-point construction
+    // through the crown), hollow, with its thrust; the one the drag moves
+    if let Some(f) = form_pole {
+        let fp = at(f);
+        pen.line(fp, tp.px(0.0, f.y), Stroke::patterned(Ink::Reaction, 1.2, Pattern::Dashed), Tag::None);
+        pen.circle(fp, 4.5, Some(Stroke::solid(Ink::Text, 1.5)), Some(Ink::Background), Tag::None);
+        if pen.inside(fp) {
+            let text = format!("form's pole, H = {}", units.show(Quantity::Force, -f.x));
+            let req = Request::new(text.clone(), TextSize::Small, Ink::Text, fp)
+                .sides(&[Side::Below, Side::BelowLeft, Side::Above, Side::AboveLeft])
+                .short("form's pole".to_string());
+            if placer.place(req).is_none() {
+                dropped.push(text);
+            }
+        }
+    }
+    if pen.inside(pp) {
+        let req = Request::new(POLE_NAME, TextSize::Small, Ink::Text, pp).sides(&[
+            Side::Left,
+            Side::BelowLeft,
+            Side::AboveLeft,
+            Side::Below,
+            Side::Above,
+        ]);
+        if placer.place(req).is_none() {
+            dropped.push(POLE_NAME.to_string());
+        }
+    }
+    let mid = Px::new((pp.x + foot.x) / 2.0, pp.y);
+    if pen.inside(mid) {
+        let h_text = format!("pole distance H = {}", units.show(Quantity::Force, -pc.pole.x));
+        let req = Request::new(h_text.clone(), TextSize::Small, Ink::Reaction, mid)
+            .sides(&[
+                Side::Above,
+                Side::Below,
+                Side::AboveRight,
+                Side::BelowRight,
+                Side::AboveLeft,
+                Side::BelowLeft,
+            ])
+            .short(format!("H = {}", units.show(Quantity::Force, -pc.pole.x)));
+        if placer.place(req).is_none() {
+            dropped.push(h_text);
+        }
+    }
+    if let (Some(top), Some(bottom)) = (ll.first(), ll.last()) {
+        let total = pc.load_line.first().map(|a| a.y).unwrap_or(0.0)
+            - pc.load_line.last().map(|b| b.y).unwrap_or(0.0);
+        let mid = Px::new(top.x, (top.y + bottom.y) / 2.0);
+        if pen.inside(mid) {
+            let text = format!("rib loads ΣP = {}", units.show(Quantity::Force, total));
+            let req = Request::new(text.clone(), TextSize::Small, Ink::Load, mid)
+                .sides(&[Side::Right, Side::AboveRight, Side::BelowRight])
+                .short(format!("ΣP = {}", units.show(Quantity::Force, total)));
+            if placer.place(req).is_none() {
+                dropped.push(text);
+            }
+        }
+    }
+    drawing_items.extend(pen.items);
+    labels.extend(placer.finish());
+    (area, drawing_items, labels, dropped)
+}
+
+/// The bounds of a pole construction with the form's pole, kN.
+fn pole_bounds(pc: &PoleConstruction, form_pole: Option<crate::geom::Point>) -> Option<(f64, f64, f64, f64)> {
+    bounds(
+        pc.load_line
+            .iter()
+            .map(|q| (q.x, q.y))
+            .chain(std::iter::once((pc.pole.x, pc.pole.y)))
+            .chain(form_pole.map(|f| (f.x, f.y))),
+    )
+}
+
 fn thrust(
     tl: &ThrustLine,
+    pole: Option<(&PoleConstruction, Option<crate::geom::Point>)>,
     case_words: (&str, &str),
     opts: &ForceOptions,
     viewport: Viewport,
@@ -990,7 +1023,19 @@ fn thrust(
         TextSize::Small,
         Ink::Secondary,
     );
-    let rect = body_below(h.y, viewport);
+    let body = body_below(h.y, viewport);
+    // the rib's pole construction beside it (the pole one drags), in a third of the width
+    let pole = pole.and_then(|(pc, form)| Some((pc, form, pole_bounds(pc, form)?)));
+    let (rect, pole_rect) = match pole {
+        Some(_) => {
+            let w = (body.w * POLE_SHARE).max(0.0);
+            (
+                Rect::new(body.x, body.y, body.w - w - AREA_GAP, body.h),
+                Some(Rect::new(body.x + body.w - w, body.y, w, body.h)),
+            )
+        }
+        None => (body, None),
+    };
     let fit = Transform::fit(padded(b), inner_of(rect, 0.0));
     let t = opts.views[0].apply(fit, rect);
     let normals = tl.section_normals();
@@ -1026,17 +1071,24 @@ fn thrust(
     items.extend(pen.items);
     let mut labels = h.labels;
     labels.extend(placer.finish());
+    let mut areas = vec![ForceArea { kind: AreaKind::ThrustLine, rect, transform: t, base_scale: fit.scale }];
+    if let (Some((pc, form, pb)), Some(r)) = (pole, pole_rect) {
+        let (area, more, placed, lost) = pole_area(pc, form, r, pb, opts);
+        areas.push(area);
+        items.extend(more);
+        labels.extend(placed);
+        dropped.extend(lost);
+    }
     let mut scene = Scene::new(viewport);
     scene.world_unit = "m";
     scene.transform = Some(t);
     scene.items = items;
     scene.labels = labels;
-    ForceDrawing {
-        scene,
-        areas: vec![ForceArea { kind: AreaKind::ThrustLine, rect, transform: t, base_scale: fit.scale }],
-        dropped,
-    }
+    ForceDrawing { scene, areas, dropped }
 }
+
+/// The share of the width the pole construction takes beside the thrust line.
+const POLE_SHARE: f64 = 0.34;
 
 // ---------------------------------------------------------------------------------------
 // geometry: clipping to an area and distances
