@@ -69,7 +69,39 @@ fn dragging_the_pole_sets_the_thrust_and_the_rise_follows() {
     click_id(&s, "undo");
     wait_value(&s, "result-thrust", demo_a.form.thrust);
     wait_value(&s, "result-rise", demo_a.form.rise);
+    // towards the load line, past the thrust of the largest rise the layout takes: the
+    // pole stops there and the status line says why
+    let largest = springline_statics::arch::edit::largest_rise(&demo).expect("a largest rise");
+    let limit_thrust = analyze(&with_rise(&demo, largest.rise)).expect("analyses").form.thrust;
+    let per_px = 1.0 / pole_scale(&s);
+    let dx = (demo_a.form.thrust - 0.5 * limit_thrust) / per_px;
+    s.drag(from, (from.0 + dx.min(400.0), from.1), 8);
+    s.wait_for(
+        "the stop in the status line",
+        "const e = document.getElementById('drag-status'); return !!e && e.textContent.includes('Pole held') && e.textContent.includes('largest rise');",
+        WAIT,
+    );
+    let rise = data_value(&s, "result-rise");
+    assert!((rise - largest.rise).abs() < 1e-6, "{rise} vs {}", largest.rise);
     assert!(severe(&s).is_empty(), "{:?}", severe(&s));
+}
+
+fn with_rise(d: &Design, rise: f64) -> Design {
+    let mut o = d.clone();
+    o.set_rise(rise);
+    o
+}
+
+/// The pole area's scale, px per kN: the pole's distance from the load line (both
+/// published on the canvas) over the thrust it stands for.
+fn pole_scale(s: &springline_tests::webdriver::Session) -> f64 {
+    let v = s.exec(
+        "const c = document.getElementById('forces'); return [JSON.parse(c.dataset.pole)[0], +c.dataset.poleThrust, +(c.dataset.loadLineX || 'NaN')];",
+        vec![],
+    );
+    let (pole_x, thrust, line_x) =
+        (v[0].as_f64().unwrap_or(0.0), v[1].as_f64().unwrap_or(1.0), v[2].as_f64().unwrap_or(f64::NAN));
+    (line_x - pole_x) / thrust
 }
 
 /// A two-hinged rib: the handle is the form's pole (drawn beside the solver's); an

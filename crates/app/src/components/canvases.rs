@@ -445,13 +445,15 @@ pub fn ForceCanvas() -> impl IntoView {
         paint::paint(&el, &d.scene);
         // the pole one can drag, for tests and assistive tools
         match pole_on_canvas(&a, case, &d) {
-            Some((p, _)) => {
+            Some((p, t)) => {
                 let _ = el.set_attribute("data-pole", &format!("[{},{}]", p.x, p.y));
                 let _ = el.set_attribute("data-pole-thrust", &format!("{}", a.form.thrust));
+                let _ = el.set_attribute("data-load-line-x", &format!("{}", t.px(0.0, 0.0).x));
             }
             None => {
-                let _ = el.remove_attribute("data-pole");
-                let _ = el.remove_attribute("data-pole-thrust");
+                for name in ["data-pole", "data-pole-thrust", "data-load-line-x"] {
+                    let _ = el.remove_attribute(name);
+                }
             }
         }
         drawn.set_value(Some(d));
