@@ -91,7 +91,10 @@ impl Goal {
     pub fn words(&self) -> String {
         match *self {
             Goal::MaxThrust { thrust } => {
-                format!("form thrust at most {thrust:.1} kN (the lowest such rise)")
+                format!(
+                    "form thrust (the larger springing's horizontal reaction, dead load) at most {thrust:.1} kN (the \
+                     lowest such rise)"
+                )
             }
             Goal::SpringingAngle { degrees, side } => format!(
                 "dead-load resultant at the {} springing {degrees:.2} degrees below the horizontal",
