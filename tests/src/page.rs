@@ -130,13 +130,16 @@ pub fn screenshots_dir() -> std::path::PathBuf {
 
 /// The whole results panel as text (what a user reads).
 ///
-/// The traffic block is computed once edits pause: this waits (up to 20 s) until it is for
-/// the design on screen, unless a drag holds it.
+/// The traffic and stability blocks are computed once edits pause: this waits (up to 20 s)
+/// until both are for the design on screen, unless a drag holds them.
 pub fn results_text(session: &Session) -> String {
     session.wait_for(
-        "the traffic block to follow the design",
+        "the traffic and stability blocks to follow the design",
         "const t = document.getElementById('traffic-results');
-         return !t || t.dataset.current === 'true' || document.getElementById('traffic-pending') !== null",
+         const s = document.getElementById('stability-results');
+         const traffic = !t || t.dataset.current === 'true' || document.getElementById('traffic-pending') !== null;
+         const stability = !s || s.dataset.current === 'true' || document.getElementById('stability-pending') !== null;
+         return traffic && stability;",
         std::time::Duration::from_secs(20),
     );
     session

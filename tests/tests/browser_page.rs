@@ -148,6 +148,7 @@ fn every_input_and_button_says_what_it_is() {
             "Ground",
             "Roadway",
             "Arch",
+            "Find the rise",
             "Loads",
             "Traffic",
             "Temperature and other actions",

@@ -151,7 +151,7 @@ pub fn StabilityResults() -> impl IntoView {
             class:stale=move || !is_current() data-current=move || is_current().to_string()>
             <h3 id="stability-title">"Stability and vibration, in the arch plane"</h3>
             <Show when=move || state.dragging.get()>
-                <p class="hint">"Shown for the design before the drag: updates when you let go."</p>
+                <p class="hint" id="stability-pending">"Shown for the design before the drag: updates when you let go."</p>
             </Show>
             {body}
             <ModeChoice />
