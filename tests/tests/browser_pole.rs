@@ -26,17 +26,7 @@ fn dragging_the_pole_sets_the_thrust_and_the_rise_follows() {
     let demo = Design::demo();
     let demo_a = analyze(&demo).expect("analyses");
     wait_value(&s, "result-thrust", demo_a.form.thrust);
-    s.wait_for(
-        "the pole on the force canvas",
-        "return !!document.getElementById('forces').dataset.pole;",
-        WAIT,
-    );
-    let pole: Vec<f64> = serde_json::from_str(
-        s.exec("return document.getElementById('forces').dataset.pole;", vec![]).as_str().unwrap_or("[]"),
-    )
-    .expect("a pole position");
-    let origin = canvas_origin(&s, "forces");
-    let from = (origin.0 + pole[0], origin.1 + pole[1]);
+    let from = pole_position(&s);
     let hash_before = s.exec("return location.hash;", vec![]).as_str().unwrap_or("").to_string();
     // the pole moved away from the load line (to the left): a larger thrust, a lower rise
     s.drag(from, (from.0 - 30.0, from.1), 8);
@@ -86,6 +76,21 @@ fn dragging_the_pole_sets_the_thrust_and_the_rise_follows() {
     assert!(severe(&s).is_empty(), "{:?}", severe(&s));
 }
 
+/// The pole's position in viewport CSS pixels, once the force canvas publishes it.
+fn pole_position(s: &springline_tests::webdriver::Session) -> (f64, f64) {
+    s.wait_for(
+        "the pole on the force canvas",
+        "return !!document.getElementById('forces').dataset.pole;",
+        WAIT,
+    );
+    let pole: Vec<f64> = serde_json::from_str(
+        s.exec("return document.getElementById('forces').dataset.pole;", vec![]).as_str().unwrap_or("[]"),
+    )
+    .expect("a pole position");
+    let origin = canvas_origin(s, "forces");
+    (origin.0 + pole[0], origin.1 + pole[1])
+}
+
 fn with_rise(d: &Design, rise: f64) -> Design {
     let mut o = d.clone();
     o.set_rise(rise);
@@ -120,17 +125,7 @@ fn a_two_hinged_and_an_unbraced_ribs_pole_is_dragged() {
         let a = analyze(&design).expect("analyses");
         open_url(&s, &format!("{}#{}", server.url(), permalink::encode(&design)));
         wait_value(&s, "result-thrust", a.form.thrust);
-        s.wait_for(
-            "the pole on the force canvas",
-            "return !!document.getElementById('forces').dataset.pole;",
-            WAIT,
-        );
-        let pole: Vec<f64> = serde_json::from_str(
-            s.exec("return document.getElementById('forces').dataset.pole;", vec![]).as_str().unwrap_or("[]"),
-        )
-        .expect("a pole position");
-        let origin = canvas_origin(&s, "forces");
-        let from = (origin.0 + pole[0], origin.1 + pole[1]);
+        let from = pole_position(&s);
         s.drag(from, (from.0 + 12.0, from.1), 6);
         s.wait_for(
             "a smaller thrust",

@@ -8,6 +8,7 @@ mod drag;
 mod forces;
 mod format;
 mod paint;
+mod pause;
 mod permalink_sync;
 mod state;
 

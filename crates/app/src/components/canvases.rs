@@ -480,18 +480,22 @@ pub fn ForceCanvas() -> impl IntoView {
         let (x, y) = pointer_in(&el, ev);
         Some(Px::new(x, y))
     };
+    // the pole of the drawing on screen, if it shows one to drag
+    let pole_now = move || {
+        let case = state.case.get_untracked();
+        state.analysis.with_untracked(|o| {
+            let a = o.as_ref().ok()?;
+            drawn.with_value(|d| d.as_ref().and_then(|d| pole_on_canvas(a, case, d)))
+        })
+    };
     let on_down = move |ev: web_sys::PointerEvent| {
         let Some(at) = px_of(&ev) else { return };
         if let Some(el) = node.get() {
             let _ = el.set_pointer_capture(ev.pointer_id());
         }
         // on the pole: drag it (the thrust, and the shape with it)
-        let case = state.case.get_untracked();
-        let pole = state.analysis.with_untracked(|o| {
-            let a = o.as_ref().ok()?;
-            drawn.with_value(|d| d.as_ref().and_then(|d| pole_on_canvas(a, case, d)))
-        });
-        if let Some((p, t)) = pole.filter(|(p, _)| (p.x - at.x).hypot(p.y - at.y) <= drag::POINT_REACH) {
+        if let Some((p, t)) = pole_now().filter(|(p, _)| (p.x - at.x).hypot(p.y - at.y) <= drag::POINT_REACH)
+        {
             ev.prevent_default();
             let (wx, _) = t.world(at);
             let (px, _) = t.world(p);
@@ -599,12 +603,7 @@ pub fn ForceCanvas() -> impl IntoView {
         }
         state.hover(member);
         // a grab cursor over the pole
-        let case = state.case.get_untracked();
-        let near_pole = state.analysis.with_untracked(|o| {
-            let a = o.as_ref().ok()?;
-            drawn.with_value(|d| d.as_ref().and_then(|d| pole_on_canvas(a, case, d)))
-        });
-        let grab = near_pole.is_some_and(|(p, _)| (p.x - at.x).hypot(p.y - at.y) <= drag::POINT_REACH);
+        let grab = pole_now().is_some_and(|(p, _)| (p.x - at.x).hypot(p.y - at.y) <= drag::POINT_REACH);
         if let Some(el) = node.get() {
             let _ = web_sys::HtmlElement::style(&el)
                 .set_property("cursor", if grab { "grab" } else { "default" });

@@ -20,31 +20,16 @@ const STABILITY_DELAY: std::time::Duration = std::time::Duration::from_millis(30
 /// How many modes of each kind are found.
 pub const SHOWN_MODES: usize = 3;
 
-/// Keeps `state.stability` for the design on screen (module doc). Installed once, with
-/// the state.
+/// Keeps `state.stability` for the design on screen (module doc): computed once the
+/// edits pause (`pause::when_edits_pause`). Installed once, with the state.
 pub fn install(state: AppState) {
-    let generation = StoredValue::new(0u64);
-    Effect::new(move |_| {
-        if state.dragging.get() {
-            return;
-        }
-        let design = state.design.get();
-        let this = generation.get_value().wrapping_add(1);
-        generation.set_value(this);
-        set_timeout(
-            move || {
-                if generation.get_value() != this {
-                    return;
-                }
-                // the validation on screen is the design's (no edit since: same generation)
-                let outcome = match state.valid.get_untracked() {
-                    Ok(valid) => arch_stability(&valid, SHOWN_MODES).map_err(|e| e.to_string()),
-                    Err(e) => Err(e.to_string()),
-                };
-                state.stability.set(Some(Arc::new((design, outcome))));
-            },
-            STABILITY_DELAY,
-        );
+    crate::pause::when_edits_pause(state, STABILITY_DELAY, move |design| {
+        // the validation on screen is the design's (no edit since the task was scheduled)
+        let outcome = match state.valid.get_untracked() {
+            Ok(valid) => arch_stability(&valid, SHOWN_MODES).map_err(|e| e.to_string()),
+            Err(e) => Err(e.to_string()),
+        };
+        state.stability.set(Some(Arc::new((design, outcome))));
     });
 }
 

@@ -140,28 +140,12 @@ fn thrust_table(report: &TrafficReport, ribs: usize, units: Units) -> impl IntoV
 }
 
 /// Keeps `state.traffic` for the design. The envelopes take longer than an edit's redraw
-/// (tens of ms, more with many panels), so they are computed in a task of their own once
-/// the edits pause (`TRAFFIC_DELAY`): an effect schedules it, and a newer edit makes an
-/// older pending one skip. While dragging, the last report stays (the design is not even
-/// read). Installed once, with the state, so the report outlives any redraw of the block.
+/// (tens of ms, more with many panels), so they are computed once the edits pause
+/// (`TRAFFIC_DELAY`, `pause::when_edits_pause`); while dragging, the last report stays.
 pub fn install(state: AppState) {
-    let generation = StoredValue::new(0u64);
-    Effect::new(move |_| {
-        if state.dragging.get() {
-            return;
-        }
-        let design = state.design.get();
-        let this = generation.get_value().wrapping_add(1);
-        generation.set_value(this);
-        set_timeout(
-            move || {
-                if generation.get_value() == this {
-                    let outcome = traffic_of(&design);
-                    state.traffic.set(Some(Arc::new((design, outcome))));
-                }
-            },
-            TRAFFIC_DELAY,
-        );
+    crate::pause::when_edits_pause(state, TRAFFIC_DELAY, move |design| {
+        let outcome = traffic_of(&design);
+        state.traffic.set(Some(Arc::new((design, outcome))));
     });
 }
 

@@ -26,7 +26,7 @@
 use crate::arch::analysis::CAUTION;
 use crate::arch::design::Design;
 use crate::arch::edit::{largest_rise, least_rise};
-use crate::arch::sizing::{size_of, GroupOutcome};
+use crate::arch::sizing::{frame_traffic, size_design, GroupOutcome};
 use crate::arch::validate::ValidDesign;
 use crate::error::StaticsError;
 use serde::Serialize;
@@ -181,7 +181,9 @@ fn quantity(design: &Design, goal: &Goal) -> Result<f64, String> {
         }
         Goal::MinClearance { .. } => Ok(clearance(&valid)),
         Goal::Least { measure } => {
-            let report = size_of(design).map_err(|e| e.to_string())?;
+            // sized from the validation above (`size_of` would validate again)
+            let traffic = frame_traffic(&valid).map_err(|e| e.to_string())?;
+            let report = size_design(&valid, &traffic).map_err(|e| e.to_string())?;
             for g in &report.sizing.groups {
                 if let GroupOutcome::NotSized { reason } = &g.outcome {
                     return Err(format!("{}: {reason}", g.group));

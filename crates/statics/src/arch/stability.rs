@@ -278,12 +278,7 @@ pub fn arch_stability(valid: &ValidDesign, modes: usize) -> Result<ArchStability
     let generated = frame_model(valid);
     let settings = StabilitySettings::default();
     let prepared = Stability::new(&generated.model, settings)?;
-    let dead_case = generated
-        .model
-        .load_cases
-        .iter()
-        .find(|c| c.name == DEAD)
-        .ok_or_else(|| StaticsError::invalid("frame model", "has no dead load case"))?;
+    let dead_case = dead_of(&generated)?;
     let dead = prepared.buckling(dead_case, modes)?;
     let alpha_cr = dead.critical().unwrap_or(f64::INFINITY);
     let buckling_members = dead
@@ -419,13 +414,7 @@ pub fn factored_placement(
         })
         .collect();
     let traffic = build_case(valid, generated, &CaseSpec { with_dead: false, loads, ..spec.clone() })?;
-    let dead = generated
-        .model
-        .load_cases
-        .iter()
-        .find(|c| c.name == DEAD)
-        .ok_or_else(|| StaticsError::invalid("frame model", "has no dead load case"))?;
-    let mut case = scaled(dead, combination.permanent_unfavourable);
+    let mut case = factored_dead(generated, combination)?;
     case.name = format!("{}: {}", combination.name, spec.name);
     case.nodal.extend(traffic.nodal);
     case.member.extend(traffic.member);
@@ -437,15 +426,21 @@ pub fn factored_placement(
 ///
 /// Errors: `Invalid` when the model has no dead case.
 pub fn factored_dead(generated: &Generated, combination: &Combination) -> Result<LoadCase, StaticsError> {
-    let dead = generated
+    let mut case = scaled(dead_of(generated)?, combination.permanent_unfavourable);
+    case.name = format!("{}: dead load alone", combination.name);
+    Ok(case)
+}
+
+/// The dead load case of the frame model `generated`.
+///
+/// Errors: `Invalid` when the model has none.
+fn dead_of(generated: &Generated) -> Result<&LoadCase, StaticsError> {
+    generated
         .model
         .load_cases
         .iter()
         .find(|c| c.name == DEAD)
-        .ok_or_else(|| StaticsError::invalid("frame model", "has no dead load case"))?;
-    let mut case = scaled(dead, combination.permanent_unfavourable);
-    case.name = format!("{}: dead load alone", combination.name);
-    Ok(case)
+        .ok_or_else(|| StaticsError::invalid("frame model", "has no dead load case"))
 }
 
 /// `case` with every force, moment, temperature change and imposed displacement times
