@@ -654,6 +654,46 @@ pub enum LinkError {
     /// does not converge).
     #[error("the design it holds cannot be used: {0}")]
     Unusable(Box<StaticsError>),
+    /// A comparison link where one design was expected.
+    #[error(
+        "it is a link to a comparison of design options, not to one design; open it in the \
+         app, where it shows the options side by side"
+    )]
+    ComparisonNotDesign,
+    /// A comparison holding no option, or more than the comparison shows.
+    #[error("it holds {count} design options; a comparison holds 1 to {limit}")]
+    OptionCount {
+        /// How many options it holds.
+        count: usize,
+        /// Most options compared.
+        limit: usize,
+    },
+    /// The comparison's open option is not one of its options.
+    #[error("it opens option {open} of {count}, which it does not hold; copy the link again")]
+    OpenOutOfRange {
+        /// The 1-based option it names.
+        open: usize,
+        /// How many options it holds.
+        count: usize,
+    },
+    /// An option's name is empty, too long or holds control characters.
+    #[error("the name of option {index} {problem}")]
+    OptionName {
+        /// 1-based option number.
+        index: usize,
+        /// What is wrong with the name.
+        problem: String,
+    },
+    /// One option's design cannot be opened.
+    #[error("option {index} ('{name}'): {source}")]
+    OptionDesign {
+        /// 1-based option number.
+        index: usize,
+        /// The option's name.
+        name: String,
+        /// Why its design cannot be opened.
+        source: Box<LinkError>,
+    },
 }
 
 /// Why a design file could not be read. Each message says what the user can do; it

@@ -5,6 +5,7 @@ use super::{print_json, print_line, read_design};
 use crate::failure::Failure;
 use springline_statics::arch::design_file::write_design_json;
 use springline_statics::arch::massing::{massing_loop, MassingReport, DEFAULT_MASSING_PASSES};
+use springline_statics::arch::options::key_numbers;
 use springline_statics::arch::sizing::{adopt_sizes, size_of, GroupOutcome, SizeReport};
 use std::path::PathBuf;
 
@@ -24,7 +25,8 @@ use std::path::PathBuf;
 Examples:
   springline demo | springline size -
   springline size design.json --text
-  springline size design.json --adopted > sized.json")]
+  springline size design.json --adopted > sized.json
+  springline size design.json --key-numbers")]
 pub struct Args {
     /// The design file (JSON); `-` reads standard input.
     #[arg(value_name = "DESIGN.json")]
@@ -38,6 +40,12 @@ pub struct Args {
     /// and unit weight), instead of the report.
     #[arg(long)]
     adopted: bool,
+
+    /// Print only the design's key numbers as the app's comparison of options shows them
+    /// (geometry, thrusts, springing demand, largest forces, alpha_cr, quantities,
+    /// feasible or why not).
+    #[arg(long, conflicts_with_all = ["text", "adopted", "settle"])]
+    key_numbers: bool,
 
     /// Size, adopt the sizes and size again (their weight changes the form and the
     /// forces) until no section changes or PASSES passes are made; reports every pass.
@@ -53,6 +61,9 @@ pub struct Args {
 /// `--settle`, the massing loop's passes and its last report.
 pub fn run(args: Args) -> Result<(), Failure> {
     let design = read_design(&args.design)?;
+    if args.key_numbers {
+        return print_json(&key_numbers(&design, true));
+    }
     if args.settle {
         let settled = massing_loop(&design, args.passes)?;
         return if args.adopted {

@@ -15,6 +15,7 @@ pub mod generate;
 pub mod influence;
 pub mod layout;
 pub mod massing;
+pub mod options;
 pub mod quantities;
 pub mod readout;
 pub mod second_order;

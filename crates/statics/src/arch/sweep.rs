@@ -17,18 +17,15 @@
 //! An option that does not validate or analyse is a row with its reason, not an error.
 //! Concept-design values: local codes and a licensed engineer govern.
 
-use crate::arch::analysis::{analyze_valid, CAUTION};
+use crate::arch::analysis::CAUTION;
 use crate::arch::design::{Design, RibSystem};
 use crate::arch::form::Basis;
-use crate::arch::generate::{frame_model, MemberRole};
-use crate::arch::influence::ArchLine;
-use crate::arch::sizing::{frame_traffic, is_ultimate, size_design};
-use crate::arch::validate::ValidDesign;
+use crate::arch::options::key_numbers;
 use crate::error::{Location, Problem, StaticsError};
-use serde::Serialize;
+use serde::{Deserialize, Serialize};
 
 /// A parameter a sweep varies.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
 #[serde(rename_all = "kebab-case")]
 pub enum Parameter {
     /// Rise over span.
@@ -100,7 +97,7 @@ fn categories(parameter: Parameter) -> Option<Vec<&'static str>> {
 }
 
 /// One varied parameter and its values.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct Axis {
     /// The parameter.
     pub parameter: Parameter,
@@ -215,7 +212,7 @@ pub fn apply(design: &Design, parameter: Parameter, value: f64) -> Design {
 }
 
 /// The key numbers of one option.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct SweepRow {
     /// The varied parameters' values, in the order of the axes.
     pub values: Vec<f64>,
@@ -249,7 +246,7 @@ pub struct SweepRow {
 }
 
 /// A sweep's rows and what it held fixed.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct Sweep {
     /// The axes.
     pub axes: Vec<Axis>,
@@ -277,78 +274,25 @@ fn held_words(parameter: Parameter) -> &'static str {
     }
 }
 
-/// One option's row (see [`SweepRow`]).
+/// One option's row (see [`SweepRow`]): the option's key numbers
+/// (`arch::options::key_numbers`) that a sweep reports.
 pub fn option_row(design: &Design, values: Vec<f64>, size: bool) -> SweepRow {
-    let mut row = SweepRow {
+    let n = key_numbers(design, size);
+    SweepRow {
         values,
-        feasible: false,
-        reason: None,
-        rise_ratio: None,
-        form_thrust: None,
-        thrust_range: None,
-        rib_force: None,
-        post_force: None,
-        bracing_force: None,
-        steel: None,
-        concrete: None,
-        cost_index: None,
-        alpha_cr: None,
-    };
-    let outcome = (|| {
-        let valid = ValidDesign::new(design)?;
-        let analysis = analyze_valid(&valid)?;
-        row.rise_ratio = Some(analysis.summary.rise_over_span);
-        row.form_thrust = Some(analysis.summary.form_thrust);
-        let traffic = frame_traffic(&valid)?;
-        let ultimate: Vec<&str> =
-            design.traffic.combinations.iter().filter(|c| is_ultimate(c)).map(|c| c.name.as_str()).collect();
-        let uls = |l: &crate::arch::traffic::LineEnvelope| {
-            l.design
-                .iter()
-                .filter(|r| ultimate.contains(&r.combination.as_str()))
-                .map(|r| (r.max, r.min))
-                .collect::<Vec<_>>()
-        };
-        let thrust = uls(&traffic.thrust);
-        if !thrust.is_empty() {
-            let lo = thrust.iter().map(|r| r.1).fold(f64::INFINITY, f64::min);
-            let hi = thrust.iter().map(|r| r.0).fold(f64::NEG_INFINITY, f64::max);
-            row.thrust_range = Some([lo, hi]);
-        }
-        let generated = frame_model(&valid);
-        let largest = |role: MemberRole| {
-            generated
-                .map
-                .roles
-                .iter()
-                .enumerate()
-                .filter(|(_, r)| **r == role)
-                .filter_map(|(k, _)| traffic.line(&ArchLine::Axial(k).name(&generated)))
-                .flat_map(uls)
-                .map(|(max, min)| max.abs().max(min.abs()))
-                .reduce(f64::max)
-        };
-        row.rib_force = largest(MemberRole::Rib);
-        row.post_force = largest(MemberRole::Post);
-        row.bracing_force = largest(MemberRole::Bracing);
-        if size {
-            let report = size_design(&valid, &traffic)?;
-            row.steel = Some(report.quantities.steel);
-            row.concrete = Some(report.quantities.concrete);
-            row.cost_index = Some(report.quantities.cost_index);
-            row.alpha_cr = report.sizing.rib_alpha_cr;
-            let not_sized = report.not_sized();
-            if !not_sized.is_empty() {
-                return Err(refuse(format!("a group cannot be sized: {}", not_sized.join("; "))));
-            }
-        }
-        Ok::<(), StaticsError>(())
-    })();
-    match outcome {
-        Ok(()) => row.feasible = true,
-        Err(e) => row.reason = Some(e.to_string()),
+        feasible: n.feasible,
+        reason: n.reason,
+        rise_ratio: n.rise_ratio,
+        form_thrust: n.form_thrust,
+        thrust_range: n.thrust_range,
+        rib_force: n.rib_force,
+        post_force: n.post_force,
+        bracing_force: n.bracing_force,
+        steel: n.steel,
+        concrete: n.concrete,
+        cost_index: n.cost_index,
+        alpha_cr: n.alpha_cr,
     }
-    row
 }
 
 /// Sweeps `design` over one axis or a grid of two (see the module doc); with `size`, each
@@ -357,6 +301,20 @@ pub fn option_row(design: &Design, values: Vec<f64>, size: bool) -> SweepRow {
 /// Errors: `Invalid` for no axis, more than two, the same parameter twice, or a grid of
 /// more than [`MAX_VALUES`] options.
 pub fn sweep(design: &Design, axes: &[Axis], size: bool) -> Result<Sweep, StaticsError> {
+    sweep_each(design, axes, size, |_, _, _| true)
+}
+
+/// [`sweep`], calling `on_row(done, total, row)` after each option (`done` counts from 1)
+/// so a caller can show progress; when `on_row` returns `false` the sweep stops there and
+/// returns the rows made so far (a cancelled sweep is a shorter one, not an error).
+///
+/// Errors: as [`sweep`].
+pub fn sweep_each(
+    design: &Design,
+    axes: &[Axis],
+    size: bool,
+    mut on_row: impl FnMut(usize, usize, &SweepRow) -> bool,
+) -> Result<Sweep, StaticsError> {
     if axes.is_empty() || axes.len() > 2 {
         return Err(refuse("a sweep varies one parameter, or two as a grid".into()));
     }
@@ -369,14 +327,18 @@ pub fn sweep(design: &Design, axes: &[Axis], size: bool) -> Result<Sweep, Static
     }
     let mut rows = Vec::with_capacity(count);
     let first = &axes[0];
-    for &a in &first.values {
+    'options: for &a in &first.values {
         let d = apply(design, first.parameter, a);
-        match axes.get(1) {
-            None => rows.push(option_row(&d, vec![a], size)),
+        let options: Vec<(Design, Vec<f64>)> = match axes.get(1) {
+            None => vec![(d, vec![a])],
             Some(second) => {
-                for &b in &second.values {
-                    rows.push(option_row(&apply(&d, second.parameter, b), vec![a, b], size));
-                }
+                second.values.iter().map(|&b| (apply(&d, second.parameter, b), vec![a, b])).collect()
+            }
+        };
+        for (option, values) in options {
+            rows.push(option_row(&option, values, size));
+            if !rows.last().is_some_and(|row| on_row(rows.len(), count, row)) {
+                break 'options;
             }
         }
     }

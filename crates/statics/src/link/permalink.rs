@@ -103,9 +103,26 @@ const B64: base64::engine::GeneralPurpose = base64::engine::general_purpose::URL
 
 /// Link format `s2` on the wire: the frozen core, then the tagged sections.
 #[derive(Serialize, Deserialize)]
-struct WireS2 {
+pub(super) struct WireS2 {
     core: core_v1::Wire,
     sections: Vec<RawSection>,
+}
+
+impl WireS2 {
+    /// The wire form of `design` (what [`encode`] packs).
+    pub(super) fn of(design: &Design) -> WireS2 {
+        WireS2 { core: core_v1::from_design(design), sections: sections::write_all(SECTIONS, design) }
+    }
+
+    /// The design it holds, updated to the current design version (not validated).
+    pub(super) fn into_design(self) -> Result<Design, LinkError> {
+        let found = self.core.design_version;
+        let version = updated_version(found, "s2", S2_FIRST_DESIGN_VERSION..=DESIGN_VERSION, DESIGN_VERSION)?;
+        let mut design = core_v1::into_design(self.core)?;
+        design.version = version;
+        sections::read_all(&self.sections, SECTIONS, &mut design)?;
+        Ok(design)
+    }
 }
 
 /// Encodes a design as a link payload `s2.xxxx` (put it after `#` in a URL).
@@ -116,8 +133,7 @@ struct WireS2 {
 /// that share links should validate first. The result is ASCII (`[A-Za-z0-9._-]`);
 /// a typical design gives a few hundred characters. Never panics.
 pub fn encode(design: &Design) -> String {
-    let wire = WireS2 { core: core_v1::from_design(design), sections: sections::write_all(SECTIONS, design) };
-    pack(CURRENT_FORMAT, &postcard_bytes(&wire))
+    pack(CURRENT_FORMAT, &postcard_bytes(&WireS2::of(design)))
 }
 
 /// Decodes a link into a valid design of the current design format version.
@@ -149,6 +165,7 @@ fn decode_unchecked(link: &str) -> Result<Design, LinkError> {
     match tag {
         "s1" => read_s1(&unpack(data)?),
         "s2" => read_s2(&unpack(data)?, DESIGN_VERSION, SECTIONS, |design| design),
+        _ if tag.starts_with(super::comparison::TAG_LETTER) => Err(LinkError::ComparisonNotDesign),
         _ => Err(LinkError::UnknownFormat { tag: tag.to_string(), readable: READABLE_FORMATS }),
     }
 }
@@ -246,7 +263,7 @@ pub fn with_view(design_part: &str, view: &ViewState) -> String {
 
 /// The format tag and the data of a link, after the caps on its length and shape. A view
 /// part (after `~`) is not the design's: it is left out here.
-fn payload(link: &str) -> Result<(&str, &str), LinkError> {
+pub(super) fn payload(link: &str) -> Result<(&str, &str), LinkError> {
     if link.len() > MAX_LINK_LEN {
         return Err(LinkError::TooLong { length: link.len(), limit: MAX_LINK_LEN });
     }
@@ -259,9 +276,11 @@ fn payload(link: &str) -> Result<(&str, &str), LinkError> {
     if payload.is_empty() {
         return Err(LinkError::Empty);
     }
-    // a format tag is 's' and a number; "s" or "s2" without the dot is a link cut there
+    // a format tag is 's' (one design) or 'o' (a comparison of options) and a number;
+    // "s" or "s2" without the dot is a link cut there
     let is_tag = |tag: &str, digits_needed: bool| {
         tag.strip_prefix('s')
+            .or_else(|| tag.strip_prefix(super::comparison::TAG_LETTER))
             .is_some_and(|n| n.bytes().all(|b| b.is_ascii_digit()) && !(digits_needed && n.is_empty()))
     };
     match payload.split_once('.') {
@@ -272,25 +291,25 @@ fn payload(link: &str) -> Result<(&str, &str), LinkError> {
 }
 
 /// The inflated bytes of a link's data.
-fn unpack(data: &str) -> Result<Vec<u8>, LinkError> {
+pub(super) fn unpack(data: &str) -> Result<Vec<u8>, LinkError> {
     inflate(&unbase64(data)?)
 }
 
 /// A link of `bytes` in format `tag` (zlib, then base64url).
-fn pack(tag: &str, bytes: &[u8]) -> String {
+pub(super) fn pack(tag: &str, bytes: &[u8]) -> String {
     let packed = miniz_oxide::deflate::compress_to_vec_zlib(bytes, DEFLATE_LEVEL);
     format!("{tag}.{}", B64.encode(packed))
 }
 
 /// The postcard bytes of a wire value.
-fn postcard_bytes<T: Serialize>(wire: &T) -> Vec<u8> {
+pub(super) fn postcard_bytes<T: Serialize>(wire: &T) -> Vec<u8> {
     // Serialising into a growable vector fails only for sequences of unknown length,
     // which the wire types do not have.
     postcard::to_allocvec(wire).unwrap_or_default()
 }
 
 /// A wire value from postcard bytes; the bytes must be used up exactly.
-fn from_postcard<T: serde::de::DeserializeOwned>(bytes: &[u8]) -> Result<T, LinkError> {
+pub(super) fn from_postcard<T: serde::de::DeserializeOwned>(bytes: &[u8]) -> Result<T, LinkError> {
     let (wire, rest) = postcard::take_from_bytes::<T>(bytes)
         .map_err(|e| LinkError::DamagedDesign { detail: e.to_string() })?;
     if !rest.is_empty() {
