@@ -17,11 +17,13 @@ use leptos::prelude::*;
 /// The whole app.
 #[component]
 pub fn App() -> impl IntoView {
-    let (design, notice, view) = permalink_sync::initial_design();
-    let state = AppState::new(design);
-    state.notice.set(notice);
+    let opening = permalink_sync::initial_design();
+    let state = AppState::new(opening.design);
+    state.notice.set(opening.notice);
     provide_context(state);
-    permalink_sync::install(state, view);
+    let options = crate::options::OptionsState::install(opening.shared);
+    provide_context(options);
+    permalink_sync::install(state, options, opening.view);
     crate::components::traffic_results::install(state);
     crate::components::stability::install(state);
     crate::components::envelope::install(state);
@@ -35,6 +37,7 @@ pub fn App() -> impl IntoView {
             <h1 class="brand">"Springline"</h1>
             <div class="design-name">{name}</div>
             <Toolbar />
+            <crate::components::shortcuts::ShortcutList />
             <p class="caution" role="note">
                 "Concept design only: local codes and a licensed engineer govern."
             </p>
@@ -57,6 +60,8 @@ pub fn App() -> impl IntoView {
                 <crate::components::envelope::EnvelopePanel />
                 <crate::components::sizing::SizingPanel />
                 <crate::components::influence_chart::InfluenceChart />
+                <crate::components::options::OptionsPanel />
+                <crate::components::sweep::SweepPanel />
             </section>
             <DesignInputs />
             <ResultsPanel />

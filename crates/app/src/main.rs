@@ -7,10 +7,12 @@ mod components;
 mod drag;
 mod forces;
 mod format;
+mod options;
 mod paint;
 mod pause;
 mod permalink_sync;
 mod state;
+mod worker_job;
 
 fn main() {
     console_error_panic_hook::set_once();

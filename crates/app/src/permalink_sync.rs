@@ -12,10 +12,12 @@
 //! colleague's US link does not change one's own default.
 
 use crate::format::Units;
+use crate::options::OptionsState;
 use crate::state::{AppState, ModeView};
 use leptos::prelude::*;
 use springline_statics::arch::actions::action_cases;
 use springline_statics::arch::cases::{find_case, CaseKind, Pattern};
+use springline_statics::link::comparison::{decode_comparison, is_comparison_link, Comparison};
 use springline_statics::link::permalink::{self, split_view, with_view, ViewState};
 use springline_statics::{analyze, Design};
 use std::time::Duration;
@@ -25,28 +27,56 @@ const URL_DEBOUNCE: Duration = Duration::from_millis(300);
 /// The browser storage key of the unit choice (`si` or `us`).
 const UNITS_KEY: &str = "springline.units";
 
-/// The design to open first (the link's, or the demo with a notice when the link is
-/// bad) and what the link says about the view (kept even when its design part is bad:
-/// the view part is read on its own).
-pub fn initial_design() -> (Design, Option<String>, ViewState) {
+/// What the page opens with: the link's design (or the demo with a notice when the link
+/// is bad), what the link says about the view (kept even when its design part is bad:
+/// the view part is read on its own), and the comparison a meeting link carries.
+pub struct Opening {
+    /// The design to open.
+    pub design: Design,
+    /// Why the link could not be opened, if it could not.
+    pub notice: Option<String>,
+    /// The link's view part.
+    pub view: ViewState,
+    /// The comparison of a meeting link (`o1.`), its open option being `design`.
+    pub shared: Option<Comparison>,
+}
+
+/// Reads the address bar's fragment: a design link, a comparison link, or nothing.
+pub fn initial_design() -> Opening {
     let hash = web_sys::window().and_then(|w| w.location().hash().ok()).unwrap_or_default();
     let (design_part, view) = split_view(&hash);
+    let demo = |notice: Option<String>, view: ViewState| Opening {
+        design: Design::demo(),
+        notice,
+        view,
+        shared: None,
+    };
     if design_part.trim_start_matches('#').is_empty() {
-        return (Design::demo(), None, view);
+        return demo(None, view);
     }
-    // a link must hold a design that analyses, not only one that validates
-    let opened = permalink::decode(design_part).map_err(|e| e.to_string()).and_then(|d| match analyze(&d) {
-        Ok(_) => Ok(d),
-        Err(e) => Err(format!("its design cannot be analysed: {e}")),
-    });
-    match opened {
-        Ok(d) => (d, None, view),
-        Err(e) => (
-            Design::demo(),
-            Some(format!("This link could not be opened ({e}). Showing the demo design instead.")),
-            view,
-        ),
+    match open_link(design_part, |d| analyze(d).map(|_| ())) {
+        Ok((design, shared)) => Opening { design, notice: None, view, shared },
+        Err(e) => {
+            demo(Some(format!("This link could not be opened ({e}). Showing the demo design instead.")), view)
+        }
     }
+}
+
+/// Opens a design or comparison link: the design to show and, for a comparison, the
+/// comparison. `check` must pass for the design shown (a link must hold a design that
+/// analyses, not only one that validates).
+fn open_link(
+    link: &str,
+    check: impl Fn(&Design) -> Result<(), springline_statics::StaticsError>,
+) -> Result<(Design, Option<Comparison>), String> {
+    let (design, shared) = if is_comparison_link(link) {
+        let comparison = decode_comparison(link).map_err(|e| e.to_string())?;
+        (comparison.options[comparison.open].design.clone(), Some(comparison))
+    } else {
+        (permalink::decode(link).map_err(|e| e.to_string())?, None)
+    };
+    check(&design).map_err(|e| format!("its design cannot be analysed: {e}"))?;
+    Ok((design, shared))
 }
 
 /// The unit choice kept in the browser's storage; `None` when there is none or storage
@@ -123,7 +153,7 @@ fn apply_view(state: AppState, view: &ViewState, from_link: StoredValue<Option<U
 }
 
 /// Installs the two-way sync; `view` is what the opening link said about the view.
-pub fn install(state: AppState, view: ViewState) {
+pub fn install(state: AppState, options: OptionsState, view: ViewState) {
     // units: the link's, else the stored choice, else SI. A change the user makes is
     // stored; units a link brought are not (the effect skips the change `from_link` marks)
     let from_link = StoredValue::new(view.units);
@@ -156,6 +186,7 @@ pub fn install(state: AppState, view: ViewState) {
     let generation = StoredValue::new(0u64);
     Effect::new(move |_| {
         state.design.track();
+        options.shared.track();
         state.case.track();
         state.units.track();
         state.mode_view.track();
@@ -167,7 +198,7 @@ pub fn install(state: AppState, view: ViewState) {
                     return;
                 }
                 // encoded once the edits pause, not on every pointer move of a drag
-                let fragment = current_fragment(state);
+                let fragment = current_fragment(state, options);
                 let Some(w) = web_sys::window() else { return };
                 if w.location().hash().ok().as_deref() == Some(fragment.as_str()) {
                     return;
@@ -182,22 +213,21 @@ pub fn install(state: AppState, view: ViewState) {
     // pasted link -> design (one undo step) and view; a bad link leaves the open design
     let handle = window_event_listener(leptos::ev::hashchange, move |_| {
         let hash = web_sys::window().and_then(|w| w.location().hash().ok()).unwrap_or_default();
-        let current = current_fragment(state);
+        let current = current_fragment(state, options);
         if hash == current {
             return;
         }
         let (design_part, view) = split_view(&hash);
-        if design_part == design_fragment(state) {
+        if design_part == design_fragment(state, options) {
             apply_view(state, &view, from_link);
             return;
         }
-        let opened = permalink::decode(design_part).map_err(|e| e.to_string()).and_then(|d| {
-            state.check(&d).map_err(|e| format!("its design cannot be analysed: {e}"))?;
-            Ok(d)
-        });
-        match opened {
-            Ok(d) => {
+        match open_link(design_part, |d| state.check(d)) {
+            Ok((d, shared)) => {
                 state.notice.set(None);
+                if shared.is_some() {
+                    options.shared.set(shared);
+                }
                 state.commit(d);
                 apply_view(state, &view, from_link);
             }
@@ -229,23 +259,49 @@ fn case_id(state: AppState) -> Option<String> {
 }
 
 /// The fragment of the open design alone (`#s2.xxxx`).
-fn design_fragment(state: AppState) -> String {
-    state.design.with_untracked(|d| format!("#{}", permalink::encode(d)))
+fn design_fragment(state: AppState, options: OptionsState) -> String {
+    state.design.with_untracked(|d| {
+        // a comparison from a link stays in the address bar while one of its options is open
+        let shared = options
+            .shared
+            .with_untracked(|s| s.as_ref().is_some_and(|c| c.options.iter().any(|o| o.design == *d)));
+        match shared.then(|| options.comparison_payload(d)).flatten() {
+            Some(payload) => format!("#{payload}"),
+            None => format!("#{}", permalink::encode(d)),
+        }
+    })
 }
 
-/// The URL fragment of the open design with the view part (case shown, units), each
-/// left out when it is the default (dead-load case, SI units): a default link carries no
-/// view part at all and reads as before the view part existed.
-fn current_fragment(state: AppState) -> String {
+/// What the fragment's view part says: the case shown and the units, each left out
+/// when it is the default (dead-load case, SI units), so a default link carries no view
+/// part at all and reads as before the view part existed.
+fn view_of(state: AppState) -> ViewState {
     let case = case_id(state).filter(|id| id != &CaseKind::Dead.id());
     let units = Some(state.units.get_untracked()).filter(|u| *u != Units::Si);
-    with_view(&design_fragment(state), &ViewState { case, units })
+    ViewState { case, units }
 }
 
-/// The whole link of the design on screen: this page's address with the design encoded
-/// now, not the address bar's fragment, which follows an edit only after a pause.
+/// The URL fragment of the open design (or of the comparison from a link holding it) with
+/// the view part.
+fn current_fragment(state: AppState, options: OptionsState) -> String {
+    with_view(&design_fragment(state, options), &view_of(state))
+}
+
+/// The whole link of the design on screen alone (never a comparison): this page's
+/// address with the design encoded now, not the address bar's fragment, which follows an
+/// edit only after a pause.
 pub fn link_to_open_design(state: AppState) -> Option<String> {
     let href = web_sys::window()?.location().href().ok()?;
     let page = href.split('#').next().unwrap_or_default();
-    Some(format!("{page}{}", current_fragment(state)))
+    let design = state.design.with_untracked(|d| format!("#{}", permalink::encode(d)));
+    Some(format!("{page}{}", with_view(&design, &view_of(state))))
+}
+
+/// The whole meeting link: this page's address with the comparison of the options shown,
+/// opening the design on screen when it is one of them (else the first).
+pub fn link_to_comparison(state: AppState, options: OptionsState) -> Option<String> {
+    let href = web_sys::window()?.location().href().ok()?;
+    let page = href.split('#').next().unwrap_or_default();
+    let payload = state.design.with_untracked(|d| options.comparison_payload(d))?;
+    Some(format!("{page}#{payload}"))
 }

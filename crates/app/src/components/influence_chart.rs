@@ -70,7 +70,7 @@ pub struct ChartData {
 }
 
 /// The colour of an opaque ink of our palette (`Ink::css`, `#rrggbb`).
-fn rgb(ink: Ink) -> RGBColor {
+pub(crate) fn rgb(ink: Ink) -> RGBColor {
     let hex = ink.css().trim_start_matches('#');
     let part = |i: usize| hex.get(i..i + 2).and_then(|h| u8::from_str_radix(h, 16).ok()).unwrap_or(0);
     RGBColor(part(0), part(2), part(4))

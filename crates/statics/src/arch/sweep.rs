@@ -211,6 +211,38 @@ pub fn apply(design: &Design, parameter: Parameter, value: f64) -> Design {
     d
 }
 
+/// The value `parameter` has in `design`, in the units a sweep gives it (rise over span
+/// as a ratio, the left springing level in m, counts, a rib system or form basis as its
+/// index): where a chart marks the design on screen. `None` when it cannot be found (the
+/// springings miss the valley, a zero span).
+pub fn current_value(design: &Design, parameter: Parameter) -> Option<f64> {
+    match parameter {
+        Parameter::RiseRatio => {
+            let a = design.springing_x(design.springing_left_level, true)?;
+            let b = design.springing_x(design.springing_right_level, false)?;
+            let span = b - a;
+            (span.abs() > 1e-9).then(|| design.rise() / span)
+        }
+        Parameter::Panels => Some(design.panels as f64),
+        Parameter::SpringingLevel => Some(design.springing_left_level),
+        Parameter::Ribs => Some(design.deck.ribs as f64),
+        Parameter::RibSystem => SYSTEMS.iter().position(|(s, _)| *s == design.rib_system).map(|k| k as f64),
+        Parameter::FormBasis => BASES.iter().position(|(b, _)| *b == design.form.basis).map(|k| k as f64),
+    }
+}
+
+/// The names of a categorical parameter's values, in the order of their values (0, 1,
+/// ...); `None` for a numeric parameter.
+pub fn category_names(parameter: Parameter) -> Option<Vec<&'static str>> {
+    categories(parameter)
+}
+
+/// What a sweep over `axes` holds fixed and what follows the varied parameters, in words
+/// (the `held` of [`Sweep`]).
+pub fn held(axes: &[Axis]) -> String {
+    axes.iter().map(|a| held_words(a.parameter)).collect::<Vec<_>>().join("; ")
+}
+
 /// The key numbers of one option.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct SweepRow {
@@ -342,13 +374,7 @@ pub fn sweep_each(
             }
         }
     }
-    Ok(Sweep {
-        held: axes.iter().map(|a| held_words(a.parameter)).collect::<Vec<_>>().join("; "),
-        axes: axes.to_vec(),
-        rows,
-        sized: size,
-        caution: CAUTION.into(),
-    })
+    Ok(Sweep { held: held(axes), axes: axes.to_vec(), rows, sized: size, caution: CAUTION.into() })
 }
 
 /// The sweep as CSV: a header with every column's unit, then one line per option

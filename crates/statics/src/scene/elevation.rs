@@ -110,6 +110,34 @@ pub fn bounds(design: &Design) -> (f64, f64, f64, f64) {
     (x0, x1, y0 - 2.0 * pad, y1 + pad)
 }
 
+/// A small elevation for options side by side: the ground, the abutments and the frame
+/// model's members under the dead load (tension and compression inks, line weight by
+/// force), with no title, key, loads, labels or dimensions, drawn with `transform`
+/// (`Transform::fit_all` over [`thumbnail_area`] puts several at one scale).
+pub fn thumbnail(analysis: &Analysis, design: &Design, transform: Transform, viewport: Viewport) -> Scene {
+    let a = analysis;
+    let drawn = Drawn {
+        kind: ModelKind::Frame,
+        model: &a.frame.model,
+        map: &a.frame.map,
+        case: &a.frame.solution.cases[0],
+    };
+    let mut scene = Scene::new(viewport);
+    scene.items.push(Item::filled(Shape::Box { rect: viewport.frame() }, Ink::Background));
+    scene.transform = Some(transform);
+    scene.world_unit = "m";
+    ground(&mut scene, design, &transform, viewport);
+    abutments(&mut scene, design, &a.form, &transform);
+    members(&mut scene, &drawn, &transform, None);
+    joints(&mut scene, &drawn, &transform);
+    scene
+}
+
+/// The part of a thumbnail's canvas the drawing takes (a small margin all round).
+pub fn thumbnail_area(viewport: Viewport) -> Rect {
+    Rect::new(4.0, 4.0, (viewport.width - 8.0).max(10.0), (viewport.height - 8.0).max(10.0))
+}
+
 /// The model drawn: its kind, model, map and the solved case.
 struct Drawn<'a> {
     kind: ModelKind,
@@ -206,30 +234,7 @@ pub fn elevation_with_overlay(
     let p = |x: f64, y: f64| t.px(x, y);
 
     ground(&mut scene, design, &t, viewport);
-    let f = &a.form;
-    let (x_min, x_max) = design
-        .valley
-        .iter()
-        .fold((f64::INFINITY, f64::NEG_INFINITY), |(lo, hi), g| (lo.min(g.x), hi.max(g.x)));
-    let block = 0.035 * (x_max - x_min).max(1.0);
-    for (sp, dir) in [(f.springing_left, -1.0), (f.springing_right, 1.0)] {
-        let pts = vec![
-            p(sp.x - dir * block * 0.3, sp.y + block * 0.25),
-            p(sp.x + dir * block * 0.9, sp.y + block * 0.25),
-            p(sp.x + dir * block * 1.1, sp.y - block * 0.9),
-            p(sp.x - dir * block * 0.5, sp.y - block * 0.9),
-        ];
-        scene.items.push(Item::filled(Shape::Path { points: pts, closed: true }, Ink::Concrete));
-    }
-    for x in [design.deck.left_seat_x, design.deck.right_seat_x] {
-        let top = design.deck.level - 0.2 * block;
-        let r0 = p(x - 0.5 * block, top);
-        let r1 = p(x + 0.5 * block, top - block);
-        scene.items.push(Item::filled(
-            Shape::Box { rect: Rect::new(r0.x, r0.y, r1.x - r0.x, r1.y - r0.y) },
-            Ink::Concrete,
-        ));
-    }
+    abutments(&mut scene, design, &a.form, &t);
 
     // members the drawn truss idealisation leaves out: faint, named in the key
     if frame_only {
@@ -259,6 +264,7 @@ pub fn elevation_with_overlay(
     }
 
     // handles: crown and springings (squares), kept free of labels
+    let f = &a.form;
     for q in [f.crown, f.springing_left, f.springing_right] {
         let c = p(q.x, q.y);
         let rect = Rect::new(c.x - HANDLE, c.y - HANDLE, 2.0 * HANDLE, 2.0 * HANDLE);
@@ -741,6 +747,34 @@ fn dimensions(
         .gap(10.0)
         .short(format!("deck {}", units.show(Quantity::Length, design.deck.level))),
     );
+}
+
+/// The springing blocks and the deck's seats, in concrete.
+fn abutments(scene: &mut Scene, design: &Design, f: &crate::arch::form::Form, t: &Transform) {
+    let p = |x: f64, y: f64| t.px(x, y);
+    let (x_min, x_max) = design
+        .valley
+        .iter()
+        .fold((f64::INFINITY, f64::NEG_INFINITY), |(lo, hi), g| (lo.min(g.x), hi.max(g.x)));
+    let block = 0.035 * (x_max - x_min).max(1.0);
+    for (sp, dir) in [(f.springing_left, -1.0), (f.springing_right, 1.0)] {
+        let pts = vec![
+            p(sp.x - dir * block * 0.3, sp.y + block * 0.25),
+            p(sp.x + dir * block * 0.9, sp.y + block * 0.25),
+            p(sp.x + dir * block * 1.1, sp.y - block * 0.9),
+            p(sp.x - dir * block * 0.5, sp.y - block * 0.9),
+        ];
+        scene.items.push(Item::filled(Shape::Path { points: pts, closed: true }, Ink::Concrete));
+    }
+    for x in [design.deck.left_seat_x, design.deck.right_seat_x] {
+        let top = design.deck.level - 0.2 * block;
+        let r0 = p(x - 0.5 * block, top);
+        let r1 = p(x + 0.5 * block, top - block);
+        scene.items.push(Item::filled(
+            Shape::Box { rect: Rect::new(r0.x, r0.y, r1.x - r0.x, r1.y - r0.y) },
+            Ink::Concrete,
+        ));
+    }
 }
 
 /// Labels of a scene by text, for tests: the first label whose text starts with `prefix`.

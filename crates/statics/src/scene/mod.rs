@@ -444,6 +444,25 @@ impl Transform {
         let origin_y = area.y + (ah - scale * bh) / 2.0 + scale * y1;
         Transform { scale, origin_x, origin_y }
     }
+    /// One transform per world box, all at one scale (the largest at which every box
+    /// fits `area`), each box centred in `area`: drawings side by side at a common scale,
+    /// so a longer span looks longer. Empty for no boxes; boxes of zero size as in
+    /// [`Transform::fit`].
+    pub fn fit_all(bounds: &[(f64, f64, f64, f64)], area: Rect) -> Vec<Transform> {
+        let scale = bounds.iter().map(|b| Transform::fit(*b, area).scale).fold(f64::INFINITY, f64::min);
+        bounds
+            .iter()
+            .map(|&(x0, x1, y0, y1)| {
+                let (bw, bh) = ((x1 - x0).max(1e-9), (y1 - y0).max(1e-9));
+                let (aw, ah) = (area.w.max(10.0), area.h.max(10.0));
+                Transform {
+                    scale,
+                    origin_x: area.x + (aw - scale * bw) / 2.0 - scale * x0,
+                    origin_y: area.y + (ah - scale * bh) / 2.0 + scale * y1,
+                }
+            })
+            .collect()
+    }
     /// World point to CSS pixels.
     pub fn px(&self, x: f64, y: f64) -> Px {
         Px::new(self.origin_x + self.scale * x, self.origin_y - self.scale * y)
@@ -519,6 +538,21 @@ fn relative_luminance(hex: &str) -> Option<f64> {
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    /// Two boxes, 100 m and 50 m wide, in a 220 x 120 area: the wider one sets the scale
+    /// (200 px / 100 m = 2 px/m; the height would allow 120 / 40 = 3), and
+    /// both are centred at it.
+    #[test]
+    fn fit_all_draws_every_box_at_the_scale_of_the_largest() {
+        let area = Rect::new(10.0, 0.0, 200.0, 120.0);
+        let t = Transform::fit_all(&[(0.0, 100.0, 0.0, 40.0), (0.0, 50.0, 0.0, 20.0)], area);
+        assert_eq!(t.len(), 2);
+        assert!((t[0].scale - 2.0).abs() < 1e-12 && (t[1].scale - 2.0).abs() < 1e-12, "{t:?}");
+        // the small box's centre (25, 10) at the area's centre (110, 60)
+        let c = t[1].px(25.0, 10.0);
+        assert!((c.x - 110.0).abs() < 1e-9 && (c.y - 60.0).abs() < 1e-9, "{c:?}");
+        assert!(Transform::fit_all(&[], area).is_empty());
+    }
 
     /// Known ratios: black on white is 21:1, white on white 1:1 (WCAG 2.1 definition).
     #[test]
