@@ -122,9 +122,17 @@ fn saved_options_compare_with_the_cli_survive_a_reload_and_travel_in_one_link() 
     assert_eq!(text_of(&s, "cmp-name-1"), "Higher");
     assert_column(&s, 0, &Design::demo());
     assert_column(&s, 1, &higher());
-    // the lower cost is marked best, and the second column says how it differs
-    let best = s.exec("return document.querySelectorAll('#comparison td.best').length;", vec![]);
-    assert!(best.as_u64().unwrap_or(0) >= 3, "{best}");
+    // the cheaper option by the CLI's numbers is the one marked best, and the second
+    // column says how it differs
+    let cost = |d: &Design| cli_numbers(d)["cost_index"].as_f64().expect("cost index");
+    let cheaper = if cost(&higher()) < cost(&Design::demo()) { 1 } else { 0 };
+    let is_best = |k: usize| {
+        s.exec(
+            "return document.getElementById(arguments[0]).classList.contains('best');",
+            vec![json!(format!("cmp-cost-index-{k}"))],
+        )
+    };
+    assert_eq!((is_best(cheaper), is_best(1 - cheaper)), (json!(true), json!(false)));
     assert!(text_of(&s, "cmp-rise-1").contains('+'), "{}", text_of(&s, "cmp-rise-1"));
     std::fs::write(screenshots_dir().join("options.png"), s.screenshot()).expect("screenshot");
 
@@ -208,5 +216,58 @@ fn unreadable_stored_options_are_set_aside_with_a_message_and_the_app_goes_on() 
     wait_value(&s, "result-thrust", analyze(&higher()).expect("analyses").form.thrust);
     click_id(&s, "save-option");
     wait_comparison(&s, 2);
+    assert!(severe(&s).is_empty(), "{:?}", severe(&s));
+}
+
+/// Presses a key on the page (a keydown on the body, as a keyboard gives it).
+fn press(s: &Session, key: &str, code: &str, alt: bool) {
+    s.exec(
+        "document.body.dispatchEvent(new KeyboardEvent('keydown', {key: arguments[0], code: arguments[1], altKey: arguments[2], bubbles: true}));",
+        vec![json!(key), json!(code), json!(alt)],
+    );
+}
+
+#[test]
+fn the_keyboard_saves_and_opens_options_and_lists_the_shortcuts() {
+    let server = StaticServer::start(&dist());
+    let driver = Driver::start();
+    let s = driver.session(1400, 1000, 1.0);
+    open(&s, &server);
+    let saved = |n: usize| {
+        format!(
+            "const v = JSON.parse(localStorage.getItem('springline.options') || '{{}}'); return !!v.options && v.options.length === {n};"
+        )
+    };
+    press(&s, "s", "KeyS", true);
+    s.wait_for("one option saved", &saved(1), WAIT);
+    set_field(&s, "rise", "21");
+    wait_value(&s, "result-thrust", analyze(&higher()).expect("analyses").form.thrust);
+    press(&s, "s", "KeyS", true);
+    s.wait_for("two options saved", &saved(2), WAIT);
+    // Alt+P opens the previous option (the demo), Alt+N the next again
+    press(&s, "p", "KeyP", true);
+    wait_value(&s, "result-thrust", analyze(&Design::demo()).expect("analyses").form.thrust);
+    press(&s, "n", "KeyN", true);
+    wait_value(&s, "result-thrust", analyze(&higher()).expect("analyses").form.thrust);
+    // a letter typed in a field is not a command
+    s.exec(
+        "document.getElementById('option-name').dispatchEvent(new KeyboardEvent('keydown', {key: 's', code: 'KeyS', altKey: true, bubbles: true}));",
+        vec![],
+    );
+    std::thread::sleep(std::time::Duration::from_millis(300));
+    assert!(s.exec(&saved(2), vec![]).as_bool().unwrap_or(false), "typing must not save");
+    // "?" shows the list, with every shortcut of the page
+    let hidden = "return document.getElementById('shortcuts').classList.contains('hidden');";
+    assert_eq!(s.exec(hidden, vec![]), json!(true));
+    press(&s, "?", "Slash", false);
+    s.wait_for(
+        "the shortcut list",
+        "return !document.getElementById('shortcuts').classList.contains('hidden');",
+        WAIT,
+    );
+    let list = text_of(&s, "shortcuts");
+    for key in ["Alt+S", "Alt+N / Alt+P", "Alt+L", "Alt+A", "Alt+W", "Escape", "Ctrl+Z"] {
+        assert!(list.contains(key), "{key} missing from the list: {list}");
+    }
     assert!(severe(&s).is_empty(), "{:?}", severe(&s));
 }

@@ -38,6 +38,9 @@ pub struct OptionsState {
     pub message: RwSignal<Option<String>>,
     /// The job working out key numbers (dropping it ends its worker).
     job: StoredValue<Option<Job>, LocalStorage>,
+    /// Whether the list may be written to storage (not when unreadable content could not
+    /// be copied aside: writing would lose it).
+    writable: StoredValue<bool>,
 }
 
 impl OptionsState {
@@ -45,17 +48,21 @@ impl OptionsState {
     /// aside) and the comparison a link opened, if any; installs the storage sync and the
     /// key-numbers job.
     pub fn install(shared: Option<Comparison>) -> OptionsState {
-        let (saved, message) = load_saved();
+        let (saved, message, writable) = load_saved();
         let options = OptionsState {
             saved: RwSignal::new(saved),
             shared: RwSignal::new(shared),
             numbers: RwSignal::new(HashMap::new()),
             message: RwSignal::new(message),
             job: StoredValue::new_local(None),
+            writable: StoredValue::new(writable),
         };
         // the list follows into storage (after anything unreadable was set aside)
         Effect::new(move |_| {
             let text = options.saved.with(|s| write_saved(s));
+            if !options.writable.get_value() {
+                return;
+            }
             if let Some(storage) = storage() {
                 if storage.set_item(OPTIONS_KEY, &text).is_err() {
                     options.message.set(Some(
@@ -83,8 +90,26 @@ impl OptionsState {
                             n.insert(link.clone(), numbers);
                         });
                     }
+                    // the last answer ends the worker (dropping the job)
+                    if index + 1 == asked.len() {
+                        options.job.set_value(None);
+                    }
                 }
-                Reply::Failed { message } => options.message.set(Some(format!("The key numbers: {message}"))),
+                Reply::Failed { message } => {
+                    // every option still waiting shows why, instead of waiting for ever
+                    let reason = format!(
+                        "its numbers could not be worked out: {message}; reload the page to try again"
+                    );
+                    options.numbers.update(|n| {
+                        for link in &asked {
+                            n.entry(link.clone()).or_insert_with(|| KeyNumbers {
+                                reason: Some(reason.clone()),
+                                ..KeyNumbers::default()
+                            });
+                        }
+                    });
+                    options.job.set_value(None);
+                }
                 _ => {}
             });
             match job {
@@ -143,34 +168,52 @@ fn storage() -> Option<web_sys::Storage> {
     web_sys::window()?.local_storage().ok()?
 }
 
-/// The saved options, and a message when some (or all) stored content was set aside.
-fn load_saved() -> (Vec<NamedDesign>, Option<String>) {
-    let Some(storage) = storage() else { return (Vec::new(), None) };
-    let Ok(Some(text)) = storage.get_item(OPTIONS_KEY) else { return (Vec::new(), None) };
+/// The saved options, a message when some (or all) stored content was set aside, and
+/// whether the list may be written back (not when the content could not be copied aside).
+fn load_saved() -> (Vec<NamedDesign>, Option<String>, bool) {
+    let Some(storage) = storage() else { return (Vec::new(), None, true) };
+    let Ok(Some(text)) = storage.get_item(OPTIONS_KEY) else { return (Vec::new(), None, true) };
+    let kept_in_place = |why: String| {
+        (
+            Vec::new(),
+            Some(format!(
+                "{why} They could not be copied aside (the browser's storage is full or blocked), so they are left \
+                 where they are and options saved now last only until the page is closed."
+            )),
+            false,
+        )
+    };
     match read_saved(&text) {
-        Ok(read) if read.set_aside.is_empty() => (read.options, None),
+        Ok(read) if read.set_aside.is_empty() => (read.options, None, true),
         Ok(read) => {
-            let key = set_aside(&storage, &set_aside_text(&read.set_aside));
             let names: Vec<String> =
                 read.set_aside.iter().map(|s| format!("'{}' ({})", s.name, s.reason)).collect();
+            let count =
+                springline_statics::error::counted(read.set_aside.len(), "saved option", "saved options");
+            let Some(key) = set_aside(&storage, &set_aside_text(&read.set_aside)) else {
+                return kept_in_place(format!("{count} could not be opened: {}.", names.join("; ")));
+            };
             (
                 read.options,
                 Some(format!(
-                    "{} could not be opened and {} set aside, kept in this browser's storage under '{key}': {}.",
-                    springline_statics::error::counted(read.set_aside.len(), "saved option", "saved options"),
+                    "{count} could not be opened and {} set aside, kept in this browser's storage under '{key}': {}.",
                     if read.set_aside.len() == 1 { "is" } else { "are" },
                     names.join("; ")
                 )),
+                true,
             )
         }
         Err(e) => {
-            let key = set_aside(&storage, &text);
+            let Some(key) = set_aside(&storage, &text) else {
+                return kept_in_place(format!("The saved options could not be read ({e})."));
+            };
             (
                 Vec::new(),
                 Some(format!(
                     "The saved options could not be read ({e}). They are kept, untouched, in this browser's storage \
                      under '{key}'; the list starts empty."
                 )),
+                true,
             )
         }
     }
@@ -185,17 +228,14 @@ fn set_aside_text(entries: &[SetAside]) -> String {
     serde_json::Value::Array(list).to_string()
 }
 
-/// Keeps `text` under the first free set-aside key and returns the key.
-fn set_aside(storage: &web_sys::Storage, text: &str) -> String {
-    let mut n = 1u32;
-    loop {
+/// Keeps `text` under the first free set-aside key and returns the key; `None` when the
+/// storage refuses it (full or blocked) or a thousand keys are taken.
+fn set_aside(storage: &web_sys::Storage, text: &str) -> Option<String> {
+    for n in 1..=1000u32 {
         let key = format!("{SET_ASIDE_PREFIX}{n}");
-        match storage.get_item(&key) {
-            Ok(Some(_)) if n < 1000 => n += 1,
-            _ => {
-                let _ = storage.set_item(&key, text);
-                return key;
-            }
+        if let Ok(None) = storage.get_item(&key) {
+            return storage.set_item(&key, text).ok().map(|()| key);
         }
     }
+    None
 }

@@ -71,7 +71,9 @@ fn open_link(
 ) -> Result<(Design, Option<Comparison>), String> {
     let (design, shared) = if is_comparison_link(link) {
         let comparison = decode_comparison(link).map_err(|e| e.to_string())?;
-        (comparison.options[comparison.open].design.clone(), Some(comparison))
+        // the reader checks the open option is one of them
+        let open = comparison.options.get(comparison.open).ok_or("it opens an option it does not hold")?;
+        (open.design.clone(), Some(comparison))
     } else {
         (permalink::decode(link).map_err(|e| e.to_string())?, None)
     };

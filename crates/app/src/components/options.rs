@@ -20,7 +20,7 @@ use springline_statics::link::comparison::NamedDesign;
 use springline_statics::link::permalink;
 use springline_statics::scene::elevation::{bounds, thumbnail, thumbnail_area};
 use springline_statics::scene::{Transform, Viewport};
-use springline_statics::{analyze, Design};
+use springline_statics::analyze;
 
 /// The size of each small elevation, CSS pixels.
 const THUMB: (f64, f64) = (300.0, 120.0);
@@ -52,6 +52,21 @@ fn difference(units: Units, q: Quantity, d: f64) -> String {
     }
 }
 
+/// Makes `option` the design on screen (one undo step) when it analyses; otherwise the
+/// panel says why and the design on screen stays.
+fn open_option(state: AppState, options: OptionsState, option: &NamedDesign) {
+    if state.design.with_untracked(|d| *d == option.design) {
+        return;
+    }
+    match state.check(&option.design) {
+        Ok(()) => state.commit(option.design.clone()),
+        Err(e) => options.message.set(Some(format!(
+            "'{}' cannot be opened: its design does not analyse ({e}). The design on screen is unchanged.",
+            option.name
+        ))),
+    }
+}
+
 /// The panel.
 #[component]
 pub fn OptionsPanel() -> impl IntoView {
@@ -64,15 +79,28 @@ pub fn OptionsPanel() -> impl IntoView {
         let n = options.saved.with_untracked(Vec::len) + 1;
         let chosen = if typed.trim().is_empty() { format!("Option {n}") } else { typed };
         let design = state.design.get_untracked();
+        let from_link = options.shared.with_untracked(Option::is_some);
         match options.save(&chosen, &design) {
             Ok(saved) => {
-                options.message.set(Some(format!("Saved '{saved}'.")));
+                // a saved option belongs to one's own list: show it
+                options.shared.set(None);
+                options.message.set(Some(if from_link {
+                    format!("Saved '{saved}' to your options, shown now in place of the link's comparison (open the link again to see that).")
+                } else {
+                    format!("Saved '{saved}'.")
+                }));
                 name.set(String::new());
             }
             Err(e) => options.message.set(Some(e)),
         }
     };
-    let meeting_link = Memo::new(move |_| {
+    // encoded once a drag ends, not on every pointer move
+    let meeting_link = Memo::new(move |previous: Option<&String>| {
+        if state.dragging.get() {
+            if let Some(p) = previous {
+                return p.clone();
+            }
+        }
         state.design.track();
         options.saved.track();
         options.shared.track();
@@ -84,9 +112,26 @@ pub fn OptionsPanel() -> impl IntoView {
         if link.is_empty() {
             return;
         }
-        let _ = w.navigator().clipboard().write_text(&link);
-        copied.set(true);
-        set_timeout(move || copied.set(false), std::time::Duration::from_millis(1500));
+        // the field shows the link selected, for Ctrl+C where the page may not write the
+        // clipboard (a page served over plain http from another machine)
+        if let Some(field) = w
+            .document()
+            .and_then(|d| d.get_element_by_id("meeting-link"))
+            .and_then(|e| wasm_bindgen::JsCast::dyn_into::<web_sys::HtmlInputElement>(e).ok())
+        {
+            let _ = field.focus();
+            field.select();
+        }
+        let navigator = w.navigator();
+        let has_clipboard =
+            js_sys::Reflect::get(&navigator, &"clipboard".into()).is_ok_and(|c| !c.is_undefined());
+        if has_clipboard {
+            let _ = navigator.clipboard().write_text(&link);
+            copied.set(true);
+            set_timeout(move || copied.set(false), std::time::Duration::from_millis(1500));
+        } else {
+            options.message.set(Some("This page cannot write the clipboard here: the link is selected in the field above, press Ctrl+C (Cmd+C) to copy it.".into()));
+        }
     };
     let shown = Memo::new(move |_| options.shown());
     // Alt+S saves, Alt+L copies the link, Alt+N / Alt+P open the next / previous option,
@@ -104,7 +149,7 @@ pub fn OptionsPanel() -> impl IntoView {
             None => n - 1,
         };
         if let Some(option) = list.get(next as usize) {
-            state.commit(option.design.clone());
+            open_option(state, options, option);
         }
     };
     let keys = window_event_listener(leptos::ev::keydown, move |ev: web_sys::KeyboardEvent| {
@@ -285,12 +330,8 @@ fn Thumb(index: usize, option: NamedDesign, transform: Transform, from_link: boo
             paint(&el, &scene);
         }
     });
-    let opened: Design = option.design.clone();
-    let open = move |_| {
-        if state.design.with_untracked(|d| *d != opened) {
-            state.commit(opened.clone());
-        }
-    };
+    let opened = option.clone();
+    let open = move |_| open_option(state, options, &opened);
     let is_open = {
         let d = option.design.clone();
         Memo::new(move |_| state.design.with(|current| *current == d))
@@ -307,7 +348,7 @@ fn Thumb(index: usize, option: NamedDesign, transform: Transform, from_link: boo
             <figcaption>
                 <span class="option-label">{format!("{}. {}", index + 1, option.name)}</span>
                 <button type="button" class="small" id=format!("open-option-{index}")
-                    title=format!("Open this option (Alt+{})", index + 1)
+                    title="Open this option (Alt+N / Alt+P step through them)"
                     prop:disabled=move || is_open.get() on:click=open>"open"</button>
                 {(!from_link).then(|| view! {
                     <button type="button" class="small" id=format!("remove-option-{index}") on:click=remove>"remove"</button>

@@ -8,7 +8,8 @@ use leptos::prelude::*;
 /// other keys, and for any key while a text field or a select has the focus (typing is not
 /// a command).
 pub fn page_key(ev: &web_sys::KeyboardEvent) -> Option<&'static str> {
-    if typing(ev) {
+    // a held key repeats: one press, one action
+    if typing(ev) || ev.repeat() {
         return None;
     }
     let code = ev.code();
@@ -54,7 +55,9 @@ pub fn ShortcutList() -> impl IntoView {
             open.update(|o| *o = !*o);
             ev.prevent_default();
         } else if ev.key() == "Escape" && open.get_untracked() {
+            // Escape closes the list only (a running sweep waits for the next press)
             open.set(false);
+            ev.stop_immediate_propagation();
         }
     });
     on_cleanup(move || keys.remove());

@@ -226,7 +226,14 @@ pub fn SweepPanel() -> impl IntoView {
         });
         match started {
             Ok(j) => job.set_value(Some(j)),
-            Err(e) => error.set(Some(format!("The sweep cannot start: {e}"))),
+            Err(e) => {
+                error.set(Some(format!("The sweep cannot start: {e}")));
+                run.update(|r| {
+                    if let Some(r) = r {
+                        r.finished = true;
+                    }
+                });
+            }
         }
     };
     let cancel = move || {
@@ -409,7 +416,11 @@ fn SweepChart(
                     publish(&el, &g, r.rows.len());
                     failed.set(None);
                 }
-                Err(e) => failed.set(Some(e)),
+                Err(e) => {
+                    // a click must not map through a drawing that is not there
+                    geometry.set_value(None);
+                    failed.set(Some(e));
+                }
             }
         });
     });
@@ -419,7 +430,11 @@ fn SweepChart(
         run.with_untracked(|r| nearest_option(r.as_ref()?, &g, x, y))
     };
     let on_move = move |ev: web_sys::PointerEvent| {
-        pointed.set(nearest(ev.offset_x() as f64, ev.offset_y() as f64));
+        let k = nearest(ev.offset_x() as f64, ev.offset_y() as f64);
+        // every chart redraws when the pointed option changes, not on every move
+        if pointed.get_untracked() != k {
+            pointed.set(k);
+        }
     };
     let on_click = move |ev: web_sys::MouseEvent| {
         if let Some(k) = nearest(ev.offset_x() as f64, ev.offset_y() as f64) {
@@ -428,14 +443,22 @@ fn SweepChart(
         }
     };
     let on_key = move |ev: web_sys::KeyboardEvent| {
-        let count = run.with_untracked(|r| r.as_ref().map_or(0, |r| r.rows.len()));
+        let (count, stride) = run.with_untracked(|r| {
+            r.as_ref().map_or((0, 1), |r| (r.rows.len(), r.axes.get(1).map_or(1, |a| a.values.len().max(1))))
+        });
         if count == 0 {
             return;
         }
         let k = pointed.get_untracked().unwrap_or(0).min(count - 1);
+        // rows run along the second axis fastest: left and right step the first axis (a
+        // grid's columns), up and down the second (its rows; along a line, the same as
+        // right and left)
+        let to = |next: Option<usize>| pointed.set(Some(next.filter(|n| *n < count).unwrap_or(k)));
         match ev.key().as_str() {
-            "ArrowRight" | "ArrowDown" => pointed.set(Some((k + 1).min(count - 1))),
-            "ArrowLeft" | "ArrowUp" => pointed.set(Some(k.saturating_sub(1))),
+            "ArrowRight" => to(k.checked_add(stride)),
+            "ArrowLeft" => to(k.checked_sub(stride)),
+            "ArrowUp" => to(k.checked_add(1)),
+            "ArrowDown" => to(k.checked_sub(1)),
             "Home" => pointed.set(Some(0)),
             "End" => pointed.set(Some(count - 1)),
             "Enter" | " " => adopt(k),
@@ -447,7 +470,7 @@ fn SweepChart(
         <figure class="sweep-chart">
             <canvas id=format!("sweep-chart-{id}") class="chart" node_ref=node tabindex="0" role="img"
                 aria-label=format!("{title} against the varied parameter; arrows pick an option, Enter opens it")
-                on:pointermove=on_move on:pointerleave=move |_| pointed.set(None) on:click=on_click on:keydown=on_key></canvas>
+                on:pointermove=on_move on:pointerleave=move |_| if pointed.get_untracked().is_some() { pointed.set(None) } on:click=on_click on:keydown=on_key></canvas>
             {move || failed.get().map(|e| view! { <p class="error" role="alert">{format!("The chart could not be drawn: {e}")}</p> })}
         </figure>
     }
@@ -544,9 +567,13 @@ fn draw(
     let caption = if unit.is_empty() { title.to_string() } else { format!("{title} ({unit})") };
     let values: Vec<Option<f64>> =
         r.rows.iter().map(|row| if row.feasible { pick(row) } else { None }).collect();
+    // a cross marks an option that fails; a feasible one without this number (not sized)
+    // is simply not drawn
+    let failing = |row: &SweepRow| !row.feasible;
+    let none_sized = !r.rows.is_empty() && r.rows.iter().all(|row| row.feasible && pick(row).is_none());
+    let caption = if none_sized { format!("{caption}: size each option to chart it") } else { caption };
     let mark = |axis: &Axis| current_value(current, axis.parameter);
-    let geometry;
-    if r.axes.len() == 1 {
+    let geometry = if r.axes.len() == 1 {
         let shown: Vec<f64> = values.iter().flatten().map(|v| units.to_shown(q, *v)).collect();
         let lo = shown.iter().copied().fold(f64::INFINITY, f64::min);
         let hi = shown.iter().copied().fold(f64::NEG_INFINITY, f64::max);
@@ -605,7 +632,7 @@ fn draw(
         // failing options: a cross on the axis
         let bad = rgb(Ink::Compression);
         chart
-            .draw_series(r.rows.iter().zip(&values).filter(|(_, v)| v.is_none()).map(|(row, _)| {
+            .draw_series(r.rows.iter().filter(|row| failing(row)).map(|row| {
                 Cross::new((row.values[0], y0 + 0.04 * (y1 - y0)), px(5.0), bad.stroke_width(px(2.0)))
             }))
             .map_err(|e| e.to_string())?;
@@ -622,14 +649,14 @@ fn draw(
             }
         }
         let (xr, yr) = chart.plotting_area().get_pixel_range();
-        geometry = Geometry {
+        Geometry {
             left: xr.start as f64 / dpr,
             right: xr.end as f64 / dpr,
             top: yr.start as f64 / dpr,
             bottom: yr.end as f64 / dpr,
             x: (x0, x1),
             y: (y0, y1),
-        };
+        }
     } else {
         let second = &r.axes[1];
         let (y0, y1) = span_of(&second.values);
@@ -701,7 +728,7 @@ fn draw(
                         )])
                         .map_err(|e| e.to_string())?;
                 }
-                None => {
+                None if failing(row) => {
                     chart
                         .draw_series([Cross::new(
                             (a, b),
@@ -710,6 +737,7 @@ fn draw(
                         )])
                         .map_err(|e| e.to_string())?;
                 }
+                None => {}
             }
         }
         if let (Some(a), Some(b)) = (mark(first), mark(second)) {
@@ -725,15 +753,15 @@ fn draw(
             }
         }
         let (xr, yr) = chart.plotting_area().get_pixel_range();
-        geometry = Geometry {
+        Geometry {
             left: xr.start as f64 / dpr,
             right: xr.end as f64 / dpr,
             top: yr.start as f64 / dpr,
             bottom: yr.end as f64 / dpr,
             x: (x0, x1),
             y: (y0, y1),
-        };
-    }
+        }
+    };
     root.present().map_err(|e| e.to_string())?;
     Ok(geometry)
 }

@@ -12,7 +12,7 @@ use crate::arch::analysis::analyze_valid;
 use crate::arch::design::Design;
 use crate::arch::generate::{frame_model, MemberRole};
 use crate::arch::influence::ArchLine;
-use crate::arch::sizing::{frame_traffic, is_ultimate, size_design};
+use crate::arch::sizing::{frame_traffic, is_ultimate, size_and_weigh};
 use crate::arch::traffic::{LineEnvelope, TrafficReport};
 use crate::arch::validate::ValidDesign;
 use crate::error::{Location, Problem, StaticsError};
@@ -23,17 +23,18 @@ use serde::{Deserialize, Serialize};
 pub const MAX_COMPARED: usize = 4;
 
 /// One springing's characteristic demand (the foundations' SLS characteristic
-/// combination, `arch::foundation`): horizontal and vertical reaction of the whole
-/// cross-section, kN, and the resultant's angle above the horizontal, degrees.
+/// combination, `arch::foundation`): the rib's largest push on the abutment for the whole
+/// cross-section, its horizontal part outward positive and its vertical part downward
+/// positive, kN, and the resultant's angle below the horizontal, degrees.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct SpringingNumbers {
     /// `left` or `right`.
     pub side: String,
-    /// Horizontal reaction (thrust), kN.
+    /// Horizontal push (thrust), outward positive, kN.
     pub thrust: f64,
-    /// Vertical reaction, kN.
+    /// Vertical push, downward positive, kN.
     pub vertical: f64,
-    /// The resultant's angle above the horizontal, degrees.
+    /// The resultant's angle below the horizontal, degrees.
     pub angle: f64,
 }
 
@@ -57,19 +58,21 @@ pub struct KeyNumbers {
     /// Form thrust (the dead load's horizontal thrust of the form), kN.
     pub form_thrust: Option<f64>,
     /// Least and greatest design thrust over the ultimate combinations, kN (whole
-    /// cross-section).
+    /// cross-section; the horizontal push on the abutment, outward positive).
     pub thrust_range: Option<[f64; 2]>,
-    /// Characteristic springing demand, left then right (with sizing).
+    /// Characteristic springing demand, left then right (with sizing; empty without).
     pub springings: Vec<SpringingNumbers>,
-    /// Largest design |N| of a rib member per rib line over the ultimate combinations, kN.
+    /// Largest design |N| of a rib member per rib line over the ultimate combinations, kN
+    /// (a magnitude: tension or compression).
     pub rib_force: Option<f64>,
     /// As `rib_force`, posts.
     pub post_force: Option<f64>,
     /// As `rib_force`, bracing (`None` for an unbraced arch).
     pub bracing_force: Option<f64>,
-    /// The arch's least alpha_cr over the sizing's cases with the sized rib.
+    /// The arch's least alpha_cr over the sizing's cases with the sized rib (`None`
+    /// without sizing, or when the buckling analysis found none).
     pub alpha_cr: Option<f64>,
-    /// Steel, t (with sizing).
+    /// Steel, t (with sizing; `None` without, as are concrete and the cost index).
     pub steel: Option<f64>,
     /// Concrete, m3 (with sizing).
     pub concrete: Option<f64>,
@@ -78,7 +81,7 @@ pub struct KeyNumbers {
 }
 
 /// The key numbers of `design`: validated, analysed, its traffic envelopes found on the
-/// frame model and, with `size`, every group sized (`arch::sizing::size_design`).
+/// frame model and, with `size`, every group sized (`arch::sizing::size_and_weigh`: `size_design` without its modes).
 ///
 /// Never fails: an option that does not validate, analyse or size is `feasible: false`
 /// with the reason, keeping the numbers found before the step that failed. A sized
@@ -113,9 +116,10 @@ fn fill(design: &Design, size: bool, n: &mut KeyNumbers) -> Result<(), StaticsEr
     n.post_force = largest_force(&valid, &traffic, MemberRole::Post);
     n.bracing_force = largest_force(&valid, &traffic, MemberRole::Bracing);
     if size {
-        let report = size_design(&valid, &traffic)?;
-        n.springings = report
-            .foundations
+        // the same sizing, foundations and quantities as `springline size`, without its
+        // dead-load modes and frequencies (no key number comes from them)
+        let (sizing, foundations, quantities) = size_and_weigh(&valid, &traffic)?;
+        n.springings = foundations
             .springings
             .iter()
             .map(|s| SpringingNumbers {
@@ -125,11 +129,11 @@ fn fill(design: &Design, size: bool, n: &mut KeyNumbers) -> Result<(), StaticsEr
                 angle: s.angle,
             })
             .collect();
-        n.steel = Some(report.quantities.steel);
-        n.concrete = Some(report.quantities.concrete);
-        n.cost_index = Some(report.quantities.cost_index);
-        n.alpha_cr = report.sizing.rib_alpha_cr;
-        let not_sized = report.not_sized();
+        n.steel = Some(quantities.steel);
+        n.concrete = Some(quantities.concrete);
+        n.cost_index = Some(quantities.cost_index);
+        n.alpha_cr = sizing.rib_alpha_cr;
+        let not_sized = sizing.not_sized();
         if !not_sized.is_empty() {
             return Err(StaticsError::Invalid(vec![Problem::new(
                 Location::Part("sizing".into()),
@@ -202,7 +206,8 @@ pub const METRICS: [Metric; 20] = [
     metric("rise-ratio", "rise / span", Quantity::Ratio, Better::Neither),
     metric("panels", "panels", Quantity::Count, Better::Neither),
     metric("form-thrust", "form thrust", Quantity::Force, Better::Lower),
-    metric("thrust-min", "least design thrust (ULS)", Quantity::Force, Better::Lower),
+    // the least thrust is a check (the arch stays in compression), not a score
+    metric("thrust-min", "least design thrust (ULS)", Quantity::Force, Better::Neither),
     metric("thrust-max", "greatest design thrust (ULS)", Quantity::Force, Better::Lower),
     metric("left-h", "left springing H (characteristic)", Quantity::Force, Better::Lower),
     metric("left-v", "left springing V (characteristic)", Quantity::Force, Better::Lower),

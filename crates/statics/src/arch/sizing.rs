@@ -1012,8 +1012,14 @@ pub struct SizeReport {
 impl SizeReport {
     /// The groups that could not be sized, each as `group: reason`.
     pub fn not_sized(&self) -> Vec<String> {
-        self.sizing
-            .groups
+        self.sizing.not_sized()
+    }
+}
+
+impl MemberSizingReport {
+    /// The groups that could not be sized, each as `group: reason`.
+    pub fn not_sized(&self) -> Vec<String> {
+        self.groups
             .iter()
             .filter_map(|g| match &g.outcome {
                 GroupOutcome::NotSized { reason } => Some(format!("{}: {reason}", g.group)),
@@ -1054,12 +1060,20 @@ pub const SUMMARY_MODES: usize = 4;
 pub const SIZE_UNITS: &str = "m, m2, m3, m4, kN, kNm, kN/m2, t (tonnes), degrees; utilisation = demand / \
                               resistance (1 = fully used); cost index in the units of the design's rates";
 
-/// Sizes `valid` from its frame model's traffic report `report` (`arch::traffic`),
-/// weighs it and sizes its thrust blocks (the module docs of `arch::sizing`,
-/// `arch::quantities` and `arch::foundation`).
+/// The parts of [`size_design`] that sizing and weighing need, without the dead-load
+/// modes and frequencies of its stability summary: every group sized
+/// ([`size_members`], the rib's alpha_cr of the governing placements included), the
+/// foundations with the sized rib's springing section, and the quantities. What option
+/// sweeps and comparisons use (the same numbers as the whole report, sooner).
 ///
 /// Errors: those of [`size_members`].
-pub fn size_design(valid: &ValidDesign, report: &TrafficReport) -> Result<SizeReport, StaticsError> {
+pub fn size_and_weigh(
+    valid: &ValidDesign,
+    report: &TrafficReport,
+) -> Result<
+    (MemberSizingReport, crate::arch::foundation::Foundations, crate::arch::quantities::Quantities),
+    StaticsError,
+> {
     let sizing = size_members(valid, report)?;
     // the rib's depth and width at the springing: the sized section's, or the typed depth
     // (a typed section gives no width: taken as its depth)
@@ -1073,6 +1087,16 @@ pub fn size_design(valid: &ValidDesign, report: &TrafficReport) -> Result<SizeRe
     };
     let foundations = crate::arch::foundation::foundations(valid, report, rib_size);
     let quantities = crate::arch::quantities::quantities(valid, &sizing, &foundations);
+    Ok((sizing, foundations, quantities))
+}
+
+/// Sizes `valid` from its frame model's traffic report `report` (`arch::traffic`),
+/// weighs it and sizes its thrust blocks (the module docs of `arch::sizing`,
+/// `arch::quantities` and `arch::foundation`).
+///
+/// Errors: those of [`size_members`].
+pub fn size_design(valid: &ValidDesign, report: &TrafficReport) -> Result<SizeReport, StaticsError> {
+    let (sizing, foundations, quantities) = size_and_weigh(valid, report)?;
     let (stability, stability_failure) = match arch_stability(valid, SUMMARY_MODES) {
         Ok(s) => (Some(s.summary()), None),
         Err(e) => (None, Some(e.to_string())),

@@ -133,7 +133,8 @@ pub fn thumbnail(analysis: &Analysis, design: &Design, transform: Transform, vie
     scene
 }
 
-/// The part of a thumbnail's canvas the drawing takes (a small margin all round).
+/// The part of a thumbnail's canvas the drawing takes, CSS pixels (4 px margin all round;
+/// at least 10 px each way).
 pub fn thumbnail_area(viewport: Viewport) -> Rect {
     Rect::new(4.0, 4.0, (viewport.width - 8.0).max(10.0), (viewport.height - 8.0).max(10.0))
 }

@@ -444,10 +444,11 @@ impl Transform {
         let origin_y = area.y + (ah - scale * bh) / 2.0 + scale * y1;
         Transform { scale, origin_x, origin_y }
     }
-    /// One transform per world box, all at one scale (the largest at which every box
-    /// fits `area`), each box centred in `area`: drawings side by side at a common scale,
-    /// so a longer span looks longer. Empty for no boxes; boxes of zero size as in
-    /// [`Transform::fit`].
+    /// One transform per world box `(x0, x1, y0, y1)` (world units, m for an elevation),
+    /// all at one scale (the largest at which every box fits `area`, CSS pixels), each
+    /// box centred in `area`: drawings side by side at a common scale, so a longer span
+    /// looks longer. Empty for no boxes; boxes of zero size as in [`Transform::fit`]. The
+    /// boxes must be finite (an elevation's `bounds` of a validated design are).
     pub fn fit_all(bounds: &[(f64, f64, f64, f64)], area: Rect) -> Vec<Transform> {
         let scale = bounds.iter().map(|b| Transform::fit(*b, area).scale).fold(f64::INFINITY, f64::min);
         bounds
@@ -539,9 +540,9 @@ fn relative_luminance(hex: &str) -> Option<f64> {
 mod tests {
     use super::*;
 
-    /// Two boxes, 100 m and 50 m wide, in a 220 x 120 area: the wider one sets the scale
-    /// (200 px / 100 m = 2 px/m; the height would allow 120 / 40 = 3), and
-    /// both are centred at it.
+    /// Two boxes, 100 m and 50 m wide, in a 200 x 120 px area: the wider one sets the
+    /// scale (200 px / 100 m = 2 px/m; the height would allow 120 / 40 = 3), and both are
+    /// centred at it.
     #[test]
     fn fit_all_draws_every_box_at_the_scale_of_the_largest() {
         let area = Rect::new(10.0, 0.0, 200.0, 120.0);
