@@ -1,6 +1,7 @@
 //! Long engine work for the browser, run off the page's thread in a web worker: an option
-//! sweep (one row at a time, each row posted as it is made, so the page shows progress)
-//! and the key numbers of saved options (each sized, `arch::options::key_numbers`).
+//! sweep (one row at a time, each row posted as it is made, so the page shows progress),
+//! the key numbers of saved options (each sized, `arch::options::key_numbers`), and goal
+//! seek on the rise (`arch::seek`; the least-cost goal sizes every rise it tries).
 //!
 //! The page and the worker talk in JSON text: the page posts one [`Request`], the worker
 //! posts [`Reply`] values back (first [`Reply::Ready`] once loaded). Designs travel as
@@ -10,6 +11,7 @@
 
 use serde::{Deserialize, Serialize};
 use springline_statics::arch::options::{key_numbers, KeyNumbers};
+use springline_statics::arch::seek::{seek, Goal};
 use springline_statics::arch::sweep::{sweep_each, Axis, Sweep, SweepRow};
 use springline_statics::link::permalink;
 
@@ -29,6 +31,13 @@ pub enum Request {
         axes: Vec<Axis>,
         /// Size every option.
         size: bool,
+    },
+    /// The rise of a design that meets one goal.
+    Seek {
+        /// The design's link.
+        link: String,
+        /// The goal.
+        goal: Goal,
     },
 }
 
@@ -57,6 +66,18 @@ pub enum Reply {
     Swept {
         /// The sweep.
         sweep: Sweep,
+    },
+    /// What a seek found: whether the goal is met, the outcome in words, the designs
+    /// tried, and the design at the rise found (or the nearest) as its link.
+    Sought {
+        /// Whether a rise meets the goal.
+        met: bool,
+        /// The outcome in words.
+        message: String,
+        /// Designs evaluated.
+        evaluations: usize,
+        /// The design found, as its link.
+        link: String,
     },
     /// The request could not be carried out; the words say why.
     Failed {
@@ -93,6 +114,21 @@ pub fn run(request: Request, post: &mut dyn FnMut(Reply)) {
             });
             match swept {
                 Ok(sweep) => post(Reply::Swept { sweep }),
+                Err(e) => post(Reply::Failed { message: e.to_string() }),
+            }
+        }
+        Request::Seek { link, goal } => {
+            let design = match permalink::decode(&link) {
+                Ok(design) => design,
+                Err(e) => return post(Reply::Failed { message: format!("cannot read the design: {e}") }),
+            };
+            match seek(&design, goal) {
+                Ok(r) => post(Reply::Sought {
+                    met: r.met,
+                    message: r.message,
+                    evaluations: r.evaluations,
+                    link: permalink::encode(&r.design),
+                }),
                 Err(e) => post(Reply::Failed { message: e.to_string() }),
             }
         }
@@ -150,6 +186,31 @@ mod tests {
         assert!(
             numbers.reason.as_deref().is_some_and(|r| r.starts_with("cannot read the option")),
             "{numbers:?}"
+        );
+    }
+
+    #[test]
+    fn a_seek_posts_the_engines_design_as_its_link() {
+        let design = Design::demo();
+        let goal = Goal::MaxThrust { thrust: 7500.0 };
+        let out = replies(&Request::Seek { link: permalink::encode(&design), goal });
+        let found = seek(&design, goal).expect("seeks");
+        assert_eq!(
+            out,
+            [Reply::Sought {
+                met: true,
+                message: found.message,
+                evaluations: found.evaluations,
+                link: permalink::encode(&found.design)
+            }]
+        );
+        let refused = replies(&Request::Seek {
+            link: permalink::encode(&design),
+            goal: Goal::MaxThrust { thrust: -1.0 },
+        });
+        assert!(
+            matches!(&refused[0], Reply::Failed { message } if message.contains("positive")),
+            "{refused:?}"
         );
     }
 

@@ -15,12 +15,12 @@ use crate::permalink_sync::link_to_comparison;
 use crate::state::AppState;
 use leptos::html::Canvas;
 use leptos::prelude::*;
+use springline_statics::analyze;
 use springline_statics::arch::options::{compare, Better, KeyNumbers, Row};
 use springline_statics::link::comparison::NamedDesign;
 use springline_statics::link::permalink;
 use springline_statics::scene::elevation::{bounds, thumbnail, thumbnail_area};
 use springline_statics::scene::{Transform, Viewport};
-use springline_statics::analyze;
 
 /// The size of each small elevation, CSS pixels.
 const THUMB: (f64, f64) = (300.0, 120.0);

@@ -3,14 +3,18 @@
 //! the nearest value and changes nothing.
 //!
 //! The thrust, angle and clearance goals take a few dozen validations (milliseconds);
-//! the least cost and least steel goals size every rise they try (a few seconds): the
-//! panel says so, and shows "Finding..." before it starts.
+//! the least cost and least steel goals size every rise they try (seconds): every goal
+//! runs in the background worker, so the page keeps answering, and "Finding..." shows
+//! until the answer comes. An edit made meanwhile wins: the answer is then dropped.
 
 use crate::format::{Quantity, Units};
 use crate::state::{parse_number, AppState};
+use crate::worker_job::Job;
 use leptos::prelude::*;
-use springline_statics::arch::seek::{seek, Goal, Measure, Side};
+use springline_statics::arch::seek::{Goal, Measure, Side};
 use springline_statics::error::Field;
+use springline_statics::link::permalink;
+use springline_worker::{Reply, Request};
 
 /// The goals the select offers: value, words, the target's quantity (none for least).
 const GOALS: [(&str, &str, Option<Quantity>); 6] = [
@@ -43,6 +47,7 @@ pub fn SeekPanel() -> impl IntoView {
     let target = RwSignal::new(String::new());
     let outcome = RwSignal::new(None::<(bool, String)>);
     let working = RwSignal::new(false);
+    let job = StoredValue::new_local(None::<Job>);
     let quantity = move || chosen.with(|c| GOALS.iter().find(|g| g.0 == c).and_then(|g| g.2));
     let unit = move || quantity().map(|q| state.units.get().label(q)).unwrap_or_default();
     let run = move |_| {
@@ -61,29 +66,52 @@ pub fn SeekPanel() -> impl IntoView {
         let Some(goal) = goal_of(&key, si) else { return };
         working.set(true);
         outcome.set(None);
-        // let "Finding..." paint before the search holds the page
-        set_timeout(
-            move || {
-                let design = state.design.get_untracked();
-                let result = seek(&design, goal);
-                working.set(false);
-                match result {
-                    Ok(r) if r.met => {
-                        let message = format!("{} ({} designs tried).", r.message, r.evaluations);
-                        if r.design != design {
-                            if let Err(e) = state.try_edit(Field::CrownRise, |d| *d = r.design.clone()) {
-                                outcome.set(Some((false, format!("The design found is refused: {e}"))));
-                                return;
-                            }
-                        }
-                        outcome.set(Some((true, message)));
+        // in the background worker: the least-cost goal sizes every rise it tries
+        let design = state.design.get_untracked();
+        let request = Request::Seek { link: permalink::encode(&design), goal };
+        let started = Job::start(&request, move |reply| {
+            working.set(false);
+            job.set_value(None);
+            match reply {
+                Reply::Sought { met, message, evaluations, link } => {
+                    if state.design.with_untracked(|d| *d != design) {
+                        outcome.set(Some((
+                            false,
+                            "The design changed while the rise was sought; nothing changed. Find again."
+                                .into(),
+                        )));
+                        return;
                     }
-                    Ok(r) => outcome.set(Some((false, format!("{} Nothing changed.", r.message)))),
-                    Err(e) => outcome.set(Some((false, format!("Cannot seek: {e}")))),
+                    if !met {
+                        outcome.set(Some((false, format!("{message} Nothing changed."))));
+                        return;
+                    }
+                    let found = match permalink::decode(&link) {
+                        Ok(found) => found,
+                        Err(e) => {
+                            return outcome
+                                .set(Some((false, format!("The design found cannot be read: {e}"))))
+                        }
+                    };
+                    if found != design {
+                        if let Err(e) = state.try_edit(Field::CrownRise, |d| *d = found.clone()) {
+                            outcome.set(Some((false, format!("The design found is refused: {e}"))));
+                            return;
+                        }
+                    }
+                    outcome.set(Some((true, format!("{message} ({evaluations} designs tried)."))));
                 }
-            },
-            std::time::Duration::from_millis(30),
-        );
+                Reply::Failed { message } => outcome.set(Some((false, format!("Cannot seek: {message}")))),
+                _ => {}
+            }
+        });
+        match started {
+            Ok(j) => job.set_value(Some(j)),
+            Err(e) => {
+                working.set(false);
+                outcome.set(Some((false, format!("Cannot seek: {e}"))));
+            }
+        }
     };
     let options =
         GOALS.iter().map(|(key, words, _)| view! { <option value=*key>{*words}</option> }).collect_view();

@@ -29,7 +29,7 @@ use crate::arch::edit::{largest_rise, least_rise};
 use crate::arch::sizing::{frame_traffic, size_design, GroupOutcome};
 use crate::arch::validate::ValidDesign;
 use crate::error::StaticsError;
-use serde::Serialize;
+use serde::{Deserialize, Serialize};
 
 /// Rises the scan evaluates, evenly spaced from the least to the largest.
 pub const SCAN_STEPS: usize = 31;
@@ -39,7 +39,7 @@ pub const RISE_RESOLUTION: f64 = 1e-4;
 const MAX_STEPS: usize = 60;
 
 /// Which springing.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
 #[serde(rename_all = "snake_case")]
 pub enum Side {
     /// The left springing.
@@ -49,7 +49,7 @@ pub enum Side {
 }
 
 /// What the least-cost goal minimises.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
 #[serde(rename_all = "snake_case")]
 pub enum Measure {
     /// The cost index (`arch::quantities`).
@@ -59,7 +59,7 @@ pub enum Measure {
 }
 
 /// One goal (module doc).
-#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
 #[serde(tag = "goal", rename_all = "snake_case")]
 pub enum Goal {
     /// The form thrust at most this, kN.
