@@ -191,6 +191,20 @@ impl Session {
             })
             .unwrap_or_default()
     }
+    /// The page printed to PDF (WebDriver "Print Page") on paper `width` x `height` cm,
+    /// backgrounds printed; the PDF's bytes.
+    pub fn print_pdf(&self, width_cm: f64, height_cm: f64) -> Vec<u8> {
+        let v = self.cmd(
+            "POST",
+            "/print",
+            Some(&json!({ "page": { "width": width_cm, "height": height_cm }, "background": true })),
+        );
+        base64_decode(v.as_str().unwrap_or(""))
+    }
+    /// Runs a Chromium DevTools command through ChromeDriver (`goog/cdp/execute`).
+    pub fn cdp(&self, command: &str, params: Value) -> Value {
+        self.cmd("POST", "/goog/cdp/execute", Some(&json!({ "cmd": command, "params": params })))
+    }
     /// A PNG screenshot of the viewport.
     pub fn screenshot(&self) -> Vec<u8> {
         let v = self.cmd("GET", "/screenshot", None);

@@ -38,6 +38,7 @@ pub fn App() -> impl IntoView {
             <div class="design-name">{name}</div>
             <Toolbar />
             <crate::components::shortcuts::ShortcutList />
+            <crate::components::shortcuts::ProjectorToggle />
             <p class="caution" role="note">
                 "Concept design only: local codes and a licensed engineer govern."
             </p>
@@ -62,10 +63,12 @@ pub fn App() -> impl IntoView {
                 <crate::components::influence_chart::InfluenceChart />
                 <crate::components::options::OptionsPanel />
                 <crate::components::sweep::SweepPanel />
+                <crate::components::exports::FilesPanel />
             </section>
             <DesignInputs />
             <ResultsPanel />
         </main>
+        <crate::components::print_sheet::PrintSheet />
     }
 }
 

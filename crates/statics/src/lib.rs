@@ -34,6 +34,7 @@ pub mod sizing;
 pub mod traffic;
 
 pub mod arch;
+pub mod export;
 pub mod link;
 pub mod scene;
 

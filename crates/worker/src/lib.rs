@@ -13,6 +13,7 @@ use serde::{Deserialize, Serialize};
 use springline_statics::arch::options::{key_numbers, KeyNumbers};
 use springline_statics::arch::seek::{seek, Goal};
 use springline_statics::arch::sweep::{sweep_each, Axis, Sweep, SweepRow};
+use springline_statics::export::{export, Export};
 use springline_statics::link::permalink;
 
 /// What the page asks of the worker.
@@ -31,6 +32,13 @@ pub enum Request {
         axes: Vec<Axis>,
         /// Size every option.
         size: bool,
+    },
+    /// A file of the design (`springline_statics::export`).
+    Export {
+        /// The design's link.
+        link: String,
+        /// Which file.
+        export: Export,
     },
     /// The rise of a design that meets one goal.
     Seek {
@@ -79,6 +87,13 @@ pub enum Reply {
         /// The design found, as its link.
         link: String,
     },
+    /// A file made: its name and its text.
+    Exported {
+        /// A file name from the design's name and the export's ending.
+        file_name: String,
+        /// The file's text.
+        text: String,
+    },
     /// The request could not be carried out; the words say why.
     Failed {
         /// Why, for the user.
@@ -114,6 +129,16 @@ pub fn run(request: Request, post: &mut dyn FnMut(Reply)) {
             });
             match swept {
                 Ok(sweep) => post(Reply::Swept { sweep }),
+                Err(e) => post(Reply::Failed { message: e.to_string() }),
+            }
+        }
+        Request::Export { link, export: what } => {
+            let design = match permalink::decode(&link) {
+                Ok(design) => design,
+                Err(e) => return post(Reply::Failed { message: format!("cannot read the design: {e}") }),
+            };
+            match export(&design, what) {
+                Ok(text) => post(Reply::Exported { file_name: what.file_name(&design.name), text }),
                 Err(e) => post(Reply::Failed { message: e.to_string() }),
             }
         }
@@ -211,6 +236,17 @@ mod tests {
         assert!(
             matches!(&refused[0], Reply::Failed { message } if message.contains("positive")),
             "{refused:?}"
+        );
+    }
+
+    #[test]
+    fn an_export_is_the_engines_file_with_its_name() {
+        let design = Design::demo();
+        let out = replies(&Request::Export { link: permalink::encode(&design), export: Export::MemberTable });
+        let text = export(&design, Export::MemberTable).expect("exports");
+        assert_eq!(
+            out,
+            [Reply::Exported { file_name: "tarnvale-gorge-road-bridge-members.csv".into(), text }]
         );
     }
 

@@ -19,7 +19,7 @@ pub fn page_key(ev: &web_sys::KeyboardEvent) -> Option<&'static str> {
     if !ev.alt_key() || ev.ctrl_key() || ev.meta_key() {
         return None;
     }
-    ["KeyS", "KeyL", "KeyN", "KeyP", "KeyA", "KeyW"].into_iter().find(|k| *k == code)
+    ["KeyS", "KeyL", "KeyN", "KeyP", "KeyA", "KeyW", "KeyB"].into_iter().find(|k| *k == code)
 }
 
 /// Whether the key went to a text field or a select.
@@ -30,7 +30,7 @@ fn typing(ev: &web_sys::KeyboardEvent) -> bool {
 }
 
 /// Every shortcut: keys, what it does.
-pub const SHORTCUTS: [(&str, &str); 13] = [
+pub const SHORTCUTS: [(&str, &str); 14] = [
     ("Ctrl+Z", "undo"),
     ("Ctrl+Shift+Z or Ctrl+Y", "redo"),
     ("Alt+S", "save the design on screen as an option"),
@@ -39,6 +39,7 @@ pub const SHORTCUTS: [(&str, &str); 13] = [
     ("Alt+A", "add a linked comparison's options to yours"),
     ("Alt+W", "run the sweep"),
     ("Escape", "cancel the sweep"),
+    ("Alt+B", "projector mode on or off: large type, high contrast, controls hidden"),
     ("Arrows, then Enter", "on a sweep chart: pick an option, open it"),
     ("Tab / Shift+Tab", "move between controls, drawings and charts"),
     ("Arrows on the elevation", "step through the members (vehicle chosen: move it; Shift: a panel)"),
@@ -74,5 +75,36 @@ pub fn ShortcutList() -> impl IntoView {
             <table><caption>"Keyboard shortcuts"</caption><tbody>{rows}</tbody></table>
             <button type="button" class="small" on:click=move |_| open.set(false)>"close"</button>
         </div>
+    }
+}
+
+/// The projector mode button: large type, high contrast, the controls hidden and the
+/// drawings enlarged (a class on the page's body, `web/style.css`); Alt+B toggles it too.
+#[component]
+pub fn ProjectorToggle() -> impl IntoView {
+    let on = RwSignal::new(false);
+    let keys = window_event_listener(leptos::ev::keydown, move |ev: web_sys::KeyboardEvent| {
+        if page_key(&ev) == Some("KeyB") {
+            on.update(|o| *o = !*o);
+            ev.prevent_default();
+        }
+    });
+    on_cleanup(move || keys.remove());
+    // the body's class follows (outside the app's own elements)
+    Effect::new(move |_| {
+        let wanted = on.get();
+        if let Some(body) = web_sys::window().and_then(|w| w.document()).and_then(|d| d.body()) {
+            let _ = body.class_list().toggle_with_force("projector", wanted);
+        }
+        // the canvases take their new size
+        if let (Some(w), Ok(resize)) = (web_sys::window(), web_sys::Event::new("resize")) {
+            let _ = w.dispatch_event(&resize);
+        }
+    });
+    view! {
+        <button type="button" id="projector-toggle" class="small" aria-pressed=move || on.get().to_string()
+            title="Projector mode: large type, controls hidden (Alt+B)" on:click=move |_| on.update(|o| *o = !*o)>
+            {move || if on.get() { "leave projector mode" } else { "projector" }}
+        </button>
     }
 }

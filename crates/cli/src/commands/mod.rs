@@ -3,6 +3,7 @@
 
 pub mod analyze;
 pub mod demo;
+pub mod export;
 pub mod influence;
 pub mod link;
 pub mod model;
@@ -32,6 +33,7 @@ pub enum Command {
     Modes(modes::Args),
     Sweep(sweep::Args),
     Seek(seek::Args),
+    Export(export::Args),
 }
 
 impl Command {
@@ -48,6 +50,7 @@ impl Command {
             Command::Modes(args) => modes::run(args),
             Command::Sweep(args) => sweep::run(args),
             Command::Seek(args) => seek::run(args),
+            Command::Export(args) => export::run(args),
         }
     }
 }

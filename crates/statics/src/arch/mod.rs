@@ -24,5 +24,6 @@ pub mod sizing;
 pub mod stability;
 pub mod summary;
 pub mod sweep;
+pub mod tables;
 pub mod traffic;
 pub mod validate;

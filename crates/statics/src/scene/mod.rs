@@ -14,6 +14,7 @@ pub mod force;
 pub mod modes;
 pub mod place;
 pub mod sizing;
+pub mod svg;
 pub mod vehicle;
 
 use serde::Serialize;

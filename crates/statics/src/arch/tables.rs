@@ -1,0 +1,177 @@
+//! Tables and files to take the design out of the meeting, one code path for the app and
+//! the command line (so both write the same bytes): the member table and the options
+//! comparison as CSV (RFC 4180: comma separated, CRLF-free lines ending in `\n`, fields
+//! with a comma, quote or line break quoted, quotes doubled; every column's unit in its
+//! header), and the design file with a summary of its key results.
+//!
+//! Concept-design values: local codes and a licensed engineer govern.
+
+use crate::arch::analysis::{Analysis, CAUTION};
+use crate::arch::design::Design;
+use crate::arch::design_file::write_design_json;
+use crate::arch::options::{KeyNumbers, METRICS};
+use crate::arch::sizing::{GroupOutcome, SizeReport};
+use crate::units::{Quantity, Units};
+use serde_json::json;
+
+/// One CSV field: as is, or quoted with its quotes doubled when it holds a comma, a quote
+/// or a line break (RFC 4180, 2.6-2.7).
+pub fn csv_field(text: &str) -> String {
+    if text.contains([',', '"', '\n', '\r']) {
+        format!("\"{}\"", text.replace('"', "\"\""))
+    } else {
+        text.to_string()
+    }
+}
+
+/// A number for a table: `decimals` places, empty for none or a value that is not finite.
+fn number(v: Option<f64>, decimals: usize) -> String {
+    v.filter(|v| v.is_finite()).map_or(String::new(), |v| {
+        let t = format!("{v:.decimals$}");
+        // "-0.000" reads as zero
+        if t.trim_start_matches('-').chars().all(|c| c == '0' || c == '.') {
+            t.trim_start_matches('-').to_string()
+        } else {
+            t
+        }
+    })
+}
+
+fn line(fields: &[String]) -> String {
+    fields.iter().map(|f| csv_field(f)).collect::<Vec<_>>().join(",")
+}
+
+/// The member table of a design as CSV: one row per member of the frame model, in model
+/// order, with
+/// - `member`, `group`, `length (m)`;
+/// - the axial force at mid-length under each load case of `analysis` (kN, all ribs
+///   together, tension positive; the case's title in the header);
+/// - from `report` (per rib line, over the ultimate combinations): the largest tension,
+///   the largest compression (a magnitude) and the largest |M| (kNm); the group's section
+///   (its words, or `as typed`), the utilisation, the governing mode, the combination and
+///   the traffic placement of the governing demand.
+///
+/// `analysis` and `report` must be of the same design (the member names match; a member
+/// the report does not list has empty sizing cells). Never fails.
+pub fn member_table_csv(analysis: &Analysis, report: &SizeReport) -> String {
+    let model = &analysis.frame.model;
+    let cases = &analysis.frame.solution.cases;
+    let mut head: Vec<String> = vec!["member".into(), "group".into(), "length (m)".into()];
+    for (k, _) in cases.iter().enumerate() {
+        let title =
+            analysis.load_cases.get(k).map_or_else(|| format!("case {}", k + 1), |c| c.description.title());
+        head.push(format!("N {title} (kN; all ribs; tension +)"));
+    }
+    head.extend(
+        [
+            "ULS tension per rib (kN)",
+            "ULS compression per rib (kN)",
+            "ULS |M| per rib (kNm)",
+            "section",
+            "utilisation (-)",
+            "governing mode",
+            "combination",
+            "traffic placement",
+        ]
+        .map(String::from),
+    );
+    let mut out = vec![line(&head)];
+    for (m, member) in model.members.iter().enumerate() {
+        let sized = report.sizing.members.iter().find(|s| s.member == member.name);
+        let length = cases.first().and_then(|c| c.members.get(m)).map(|f| f.length);
+        let mut row = vec![member.name.clone(), member.group.clone(), number(length, 3)];
+        for case in cases {
+            let n = case.members.get(m).map(|f| 0.5 * (f.start.n + f.end.n));
+            row.push(number(n, 2));
+        }
+        match sized {
+            Some(s) => {
+                let section =
+                    report.sizing.groups.iter().find(|g| g.group == s.group).map_or(String::new(), |g| {
+                        match &g.outcome {
+                            GroupOutcome::Sized { label, .. } => label.clone(),
+                            GroupOutcome::AsTyped => "as typed".into(),
+                            GroupOutcome::NoMembers => String::new(),
+                            GroupOutcome::NotSized { .. } => "not sized".into(),
+                        }
+                    });
+                let mode = s
+                    .governs
+                    .and_then(|g| serde_json::to_value(g).ok())
+                    .and_then(|v| v.as_str().map(str::to_string))
+                    .unwrap_or_default();
+                row.extend([
+                    number(Some(s.demand.tension), 2),
+                    number(Some(s.demand.compression), 2),
+                    number(Some(s.demand.moment), 2),
+                    section,
+                    number(s.utilisation, 4),
+                    mode,
+                    s.combination.clone(),
+                    s.placement.clone(),
+                ]);
+            }
+            None => row.extend(std::iter::repeat_n(String::new(), 8)),
+        }
+        out.push(line(&row));
+    }
+    out.join("\n") + "\n"
+}
+
+/// The options comparison as CSV: a header `quantity,unit,NAME...`, then one row per
+/// comparison metric (`arch::options::METRICS`, SI values: m, kN, degrees, t, m3) and a
+/// last row `feasible` (`yes`, or `no: reason`). `names` and `numbers` are the options in
+/// order (a name missing for an option reads `option K`). Never fails.
+pub fn comparison_csv(names: &[String], numbers: &[KeyNumbers]) -> String {
+    let mut head = vec!["quantity".to_string(), "unit".to_string()];
+    head.extend(
+        (0..numbers.len()).map(|k| names.get(k).cloned().unwrap_or_else(|| format!("option {}", k + 1))),
+    );
+    let mut out = vec![line(&head)];
+    for metric in METRICS {
+        let decimals = match metric.quantity {
+            Quantity::Ratio | Quantity::Angle => 4,
+            Quantity::Count => 0,
+            _ => 2,
+        };
+        let mut row = vec![metric.label.to_string(), Units::Si.label(metric.quantity).to_string()];
+        row.extend(numbers.iter().map(|n| number(metric.value(n), decimals)));
+        out.push(line(&row));
+    }
+    let mut feasible = vec!["feasible".to_string(), String::new()];
+    feasible.extend(numbers.iter().map(|n| {
+        if n.feasible {
+            "yes".to_string()
+        } else {
+            format!("no: {}", n.reason.clone().unwrap_or_default())
+        }
+    }));
+    out.push(line(&feasible));
+    out.join("\n") + "\n"
+}
+
+/// The design file of `design` (as `write_design_json` writes it: any version of
+/// Springline reads it back) with a `summary` object after the design's fields: the key
+/// numbers (`arch::options::key_numbers`, sized), the quantities and the foundation demand
+/// of `report`, the arch's stability summary when there is one, and the caution. Readers
+/// ignore the summary: it is what the design gave when written, for people and
+/// spreadsheets. `report` must be `design`'s size report.
+pub fn design_json_with_summary(design: &Design, numbers: &KeyNumbers, report: &SizeReport) -> String {
+    let text = write_design_json(design);
+    let summary = json!({
+        "note": "results of this design when the file was written; Springline ignores them on reading",
+        "key_numbers": numbers,
+        "quantities": report.quantities,
+        "foundations": report.foundations,
+        "stability": report.stability,
+        "caution": CAUTION,
+    });
+    // the design's fields stay in the order and layout of a design file; the summary
+    // (serialised by serde, indented one level) goes last
+    let (Some(body), Ok(summary)) =
+        (text.trim_end().strip_suffix('}'), serde_json::to_string_pretty(&summary))
+    else {
+        return text;
+    };
+    format!("{},\n  \"summary\": {}\n}}\n", body.trim_end(), summary.replace('\n', "\n  "))
+}
