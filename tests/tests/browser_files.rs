@@ -91,15 +91,18 @@ fn exports_are_complete_and_the_design_file_comes_back() {
     // PNG: decodes (its header) to the canvas's backing-store size
     let (name, url) = download(&s, "export-elevation-png");
     assert!(name.ends_with("-elevation.png"), "{name}");
-    let png = base64_decode(url.trim_start_matches("data:image/png;base64,"));
-    assert_eq!(&png[..8], b"\x89PNG\r\n\x1a\n", "a PNG");
-    let size = |at: usize| u32::from_be_bytes([png[at], png[at + 1], png[at + 2], png[at + 3]]);
+    let bytes = base64_decode(url.trim_start_matches("data:image/png;base64,"));
+    let mut reader = png::Decoder::new(std::io::Cursor::new(bytes)).read_info().expect("a PNG");
+    let mut pixels = vec![0; reader.output_buffer_size()];
+    let frame = reader.next_frame(&mut pixels).expect("it decodes");
     let canvas =
         s.exec("const c = document.getElementById('elevation'); return [c.width, c.height];", vec![]);
     assert_eq!(
-        (size(16) as u64, size(20) as u64),
-        (canvas[0].as_u64().unwrap_or(0), canvas[1].as_u64().unwrap_or(0))
+        (frame.width as u64, frame.height as u64),
+        (canvas[0].as_u64().unwrap_or(0), canvas[1].as_u64().unwrap_or(0)),
+        "the canvas's backing store, at the screen's pixel ratio"
     );
+    assert!(pixels.chunks(4).any(|p| p[0] < 100), "not a blank image");
 
     // CSV: the same bytes as the command line's
     let (name, csv) = download(&s, "export-members-csv");
@@ -145,6 +148,17 @@ fn exports_are_complete_and_the_design_file_comes_back() {
         "{}",
         text_of(&s, "files-message")
     );
+
+    // a design file of design format 1 (the oldest ever written) opens, updated
+    let v1 = std::fs::read_to_string(
+        springline_tests::workspace_root().join("tests/fixtures/designs/v1-demo.json"),
+    )
+    .expect("fixture");
+    let v1_design = springline_statics::arch::design_file::read_design_json(&v1).expect("reads");
+    drop_file(&s, "v1-demo.json", &v1);
+    wait_value(&s, "result-thrust", analyze(&v1_design).expect("analyses").form.thrust);
+    click_id(&s, "undo");
+    wait_value(&s, "result-thrust", thrust);
 
     // a corrupt file: a message, and the design stays
     drop_file(&s, "broken.json", "{\"version\": 7, \"name\": ");

@@ -60,7 +60,7 @@ fn analyze_help_prints_help_and_reads_no_file() {
 /// own help, with `-h` as with `--help`, and `springline help CMD` says the same.
 #[test]
 fn every_subcommand_has_its_own_help() {
-    let cases: [(&str, &str, &str); 8] = [
+    let cases: [(&str, &str, &str); 9] = [
         ("demo", "Print the demo design as JSON", "springline demo > design.json"),
         ("analyze", "Analyse a design", "springline analyze design.json"),
         ("link", "Print the permalink fragment of a design", "springline link design.json"),
@@ -80,6 +80,11 @@ fn every_subcommand_has_its_own_help() {
             "sweep",
             "Sweep one parameter of a design (or two as a grid)",
             "springline sweep design.json --vary rise-ratio=0.10:0.20:21",
+        ),
+        (
+            "export",
+            "Write the design's drawings (SVG), member table (CSV) and design file",
+            "springline export design.json --svg elevation.svg --csv members.csv",
         ),
     ];
     for (command, description, example) in cases {
@@ -535,4 +540,47 @@ fn seek_prints_the_design_found_and_fails_when_unmet() {
     assert!(err.contains("--max-thrust"), "{err}");
     let err = usage_error(&["seek", "-", "--max-thrust", "1", "--min-clearance", "2"]);
     assert!(err.contains("cannot be used with"), "{err}");
+}
+
+/// `springline export` writes what the engine's export makes (the app's Files panel makes
+/// the same through its worker), asks for at least one file, and refuses a bad design.
+#[test]
+fn export_writes_the_engines_files() {
+    use springline_statics::export::{export, Export, DRAWING_SIZE};
+    let dir = empty_dir("export");
+    std::fs::write(dir.join("demo.json"), demo_json()).expect("design file");
+    let out = run_in(
+        &dir,
+        &[
+            "export",
+            "demo.json",
+            "--svg",
+            "e.svg",
+            "--force-svg",
+            "f.svg",
+            "--csv",
+            "m.csv",
+            "--json",
+            "d.json",
+        ],
+    );
+    assert_eq!(out.status.code(), Some(0), "{}", text(&out.stderr));
+    let demo = springline_statics::Design::demo();
+    let (w, h) = DRAWING_SIZE;
+    for (file, what) in [
+        ("e.svg", Export::ElevationSvg { width: w, height: h }),
+        ("f.svg", Export::ForceSvg { width: w, height: h }),
+        ("m.csv", Export::MemberTable),
+        ("d.json", Export::DesignFile),
+    ] {
+        let written = std::fs::read_to_string(dir.join(file)).expect(file);
+        assert_eq!(written, export(&demo, what).expect("exports"), "{file}");
+    }
+    let none = run_in(&dir, &["export", "demo.json"]);
+    assert_eq!(none.status.code(), Some(1));
+    assert!(text(&none.stderr).contains("nothing to export"), "{}", text(&none.stderr));
+    std::fs::write(dir.join("bad.json"), "{\"version\": 7, \"name\": 3}").expect("bad file");
+    let bad = run_in(&dir, &["export", "bad.json", "--csv", "x.csv"]);
+    assert_eq!(bad.status.code(), Some(1), "{}", text(&bad.stderr));
+    assert!(!dir.join("x.csv").exists(), "nothing written for a refused design");
 }
