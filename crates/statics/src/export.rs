@@ -46,8 +46,10 @@ pub enum Export {
 }
 
 impl Export {
-    /// The file name for a design named `design` (its letters and digits, `-` between
-    /// words) with this export's ending: `tarnvale-gorge-members.csv`.
+    /// The file name for a design named `design` (the first four of its words of letters
+    /// and digits, lower case, `-` between them; `springline` when it has none) with this
+    /// export's ending: `tarnvale-gorge-road-bridge-members.csv`. Designs whose names start
+    /// alike get the same name (the browser numbers repeated downloads).
     pub fn file_name(&self, design: &str) -> String {
         let stem: String = design
             .split(|c: char| !c.is_alphanumeric())
@@ -83,13 +85,20 @@ pub fn export(design: &Design, what: Export) -> Result<String, StaticsError> {
         }
     };
     match what {
+        // a design that cannot be sized still gives its table (without the sizing
+        // columns) and its file (the summary says why)
         Export::MemberTable => {
             let analysis = analyze(design)?;
-            Ok(member_table_csv(&analysis, &size_of(design)?))
+            Ok(member_table_csv(&analysis, size_of(design).ok().as_ref()))
         }
         Export::DesignFile => {
-            let report = size_of(design)?;
-            Ok(design_json_with_summary(design, &key_numbers(design, true), &report))
+            crate::arch::validate::validate_design(design)?;
+            let report = size_of(design).map_err(|e| e.to_string());
+            let report = match &report {
+                Ok(r) => Ok(r),
+                Err(why) => Err(why.as_str()),
+            };
+            Ok(design_json_with_summary(design, &key_numbers(design, true), report))
         }
         Export::ElevationSvg { width, height } => {
             let analysis = analyze(design)?;

@@ -23,6 +23,26 @@ fn ids(text: &str) -> Vec<String> {
         .collect()
 }
 
+/// The fields of one CSV line (RFC 4180: a quoted field may hold commas and doubled
+/// quotes).
+fn fields(line: &str) -> Vec<String> {
+    let (mut out, mut field, mut quoted, mut chars) =
+        (Vec::new(), String::new(), false, line.chars().peekable());
+    while let Some(c) = chars.next() {
+        match (c, quoted) {
+            ('"', true) if chars.peek() == Some(&'"') => {
+                field.push('"');
+                chars.next();
+            }
+            ('"', _) => quoted = !quoted,
+            (',', false) => out.push(std::mem::take(&mut field)),
+            (c, _) => field.push(c),
+        }
+    }
+    out.push(field);
+    out
+}
+
 #[test]
 fn the_elevation_svg_holds_every_member_once() {
     let demo = Design::demo();
@@ -59,13 +79,22 @@ fn the_member_table_has_a_row_per_member_with_the_analysis_forces() {
     assert_eq!(lines.len(), 1 + analysis.frame.model.members.len());
     let head = lines[0];
     assert!(head.starts_with("member,group,length (m),N Dead load (kN; all ribs; tension +)"), "{head}");
-    assert!(head.ends_with("section,utilisation (-),governing mode,combination,traffic placement"), "{head}");
+    assert!(
+        head.ends_with("section (mm),utilisation (-),governing mode,combination,traffic placement"),
+        "{head}"
+    );
+    // every row has as many fields as the header (quoted commas are one field)
+    let width = fields(head).len();
+    for l in &lines {
+        assert_eq!(fields(l).len(), width, "{l}");
+    }
     // the first rib member's dead-load force is the solver's, at mid-length, to 0.01 kN
     let f = &analysis.frame.solution.cases[0].members[0];
     let n = 0.5 * (f.start.n + f.end.n);
-    let cells: Vec<&str> = lines[1].split(',').collect();
+    let cells = fields(lines[1]);
     assert_eq!(cells[0], analysis.frame.model.members[0].name);
-    assert_eq!(cells[3], format!("{n:.2}"));
+    let shown: f64 = cells[3].parse().expect("a number");
+    assert!((shown - n).abs() <= 0.0051, "{shown} vs {n}");
     assert!(n < 0.0, "the rib is in compression");
 }
 
@@ -101,6 +130,8 @@ fn csv_fields_are_quoted_as_rfc_4180_says() {
         },
     ];
     let text = comparison_csv(&["Base".into(), "High, 21 m".into()], &numbers);
+    // a name a spreadsheet would run as a formula is kept as text
+    assert!(comparison_csv(&["=SUM(A1)".into()], &numbers[..1]).starts_with("quantity,unit,'=SUM(A1)\n"));
     let lines: Vec<&str> = text.lines().collect();
     assert_eq!(lines[0], "quantity,unit,Base,\"High, 21 m\"");
     assert_eq!(lines[1], "span,m,106.50,");

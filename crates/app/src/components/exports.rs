@@ -28,7 +28,10 @@ fn download_text(file_name: &str, text: &str, mime: &str) -> Result<(), String> 
         .map_err(|_| "the browser refused to make the file".to_string())?;
     let url =
         web_sys::Url::create_object_url_with_blob(&blob).map_err(|_| "the browser refused a file link")?;
-    download_url(file_name, &url)?;
+    if let Err(e) = download_url(file_name, &url) {
+        let _ = web_sys::Url::revoke_object_url(&url);
+        return Err(e);
+    }
     // the link is freed once the download has surely started
     let freed = url.clone();
     set_timeout(
@@ -84,8 +87,11 @@ pub fn open_design_text(state: AppState, text: &str, source: &str) -> Result<(),
     Ok(())
 }
 
+/// The callbacks of the last file read (kept alive until the next).
+type Held = StoredValue<Option<(Closure<dyn FnMut(JsValue)>, Closure<dyn FnMut(JsValue)>)>, LocalStorage>;
+
 /// Reads `file` and opens it; the outcome goes to `message`.
-fn open_file(state: AppState, file: web_sys::File, message: RwSignal<Option<(bool, String)>>) {
+fn open_file(state: AppState, file: web_sys::File, message: RwSignal<Option<(bool, String)>>, held: Held) {
     let name = file.name();
     if file.size() > 4.0 * 1024.0 * 1024.0 {
         message.set(Some((
@@ -106,9 +112,8 @@ fn open_file(state: AppState, file: web_sys::File, message: RwSignal<Option<(boo
         message.set(Some((false, "The file could not be read. The design on screen is unchanged.".into())))
     });
     let _ = file.text().then2(&done, &failed);
-    // the closures live until the promise settles
-    done.forget();
-    failed.forget();
+    // the callbacks live until the next file is opened (by then this promise has settled)
+    held.set_value(Some((done, failed)));
 }
 
 /// The panel.
@@ -118,6 +123,7 @@ pub fn FilesPanel() -> impl IntoView {
     let options = expect_context::<OptionsState>();
     let message = RwSignal::new(None::<(bool, String)>);
     let job = StoredValue::new_local(None::<Job>);
+    let held: Held = StoredValue::new_local(None);
     let working = RwSignal::new(false);
     let make = move |what: Export| {
         let link = state.design.with_untracked(permalink::encode);
@@ -178,7 +184,10 @@ pub fn FilesPanel() -> impl IntoView {
             shown.iter().map(|o| n.get(&permalink::encode(&o.design)).cloned()).collect()
         });
         match numbers {
-            Some(numbers) if !numbers.is_empty() => {
+            _ if shown.is_empty() => {
+                message.set(Some((false, "No options yet: save one first (Alt+S), then export them.".into())))
+            }
+            Some(numbers) => {
                 let names: Vec<String> = shown.iter().map(|o| o.name.clone()).collect();
                 let name = format!("{}-options.csv", stem());
                 match download_text(&name, &comparison_csv(&names, &numbers), "text/csv") {
@@ -186,29 +195,43 @@ pub fn FilesPanel() -> impl IntoView {
                     Err(e) => message.set(Some((false, format!("{name} could not be saved: {e}.")))),
                 }
             }
-            _ => message.set(Some((
+            None => message.set(Some((
                 false,
-                "No options to compare yet, or their numbers are still being worked out.".into(),
+                "The options' numbers are still being worked out; export again in a moment.".into(),
             ))),
         }
     };
     let on_file = move |ev: leptos::ev::Event| {
         let input = ev.target().and_then(|t| t.dyn_into::<web_sys::HtmlInputElement>().ok());
         if let Some(file) = input.as_ref().and_then(|i| i.files()).and_then(|f| f.get(0)) {
-            open_file(state, file, message);
+            open_file(state, file, message, held);
         }
         if let Some(i) = input {
             // the same file can be chosen again
             i.set_value("");
         }
     };
-    // a design file dropped anywhere on the page opens
-    let over =
-        window_event_listener(leptos::ev::dragover, move |ev: web_sys::DragEvent| ev.prevent_default());
+    // a design file dropped anywhere on the page opens; other drops (text into a field)
+    // keep the browser's own handling
+    let carries_files = |ev: &web_sys::DragEvent| {
+        ev.data_transfer().is_some_and(|d| d.types().includes(&JsValue::from_str("Files"), 0))
+    };
+    let over = window_event_listener(leptos::ev::dragover, move |ev: web_sys::DragEvent| {
+        if carries_files(&ev) {
+            ev.prevent_default();
+        }
+    });
     let drop = window_event_listener(leptos::ev::drop, move |ev: web_sys::DragEvent| {
+        if !carries_files(&ev) {
+            return;
+        }
         ev.prevent_default();
-        if let Some(file) = ev.data_transfer().and_then(|d| d.files()).and_then(|f| f.get(0)) {
-            open_file(state, file, message);
+        let Some(files) = ev.data_transfer().and_then(|d| d.files()) else { return };
+        if let Some(file) = files.get(0) {
+            open_file(state, file, message, held);
+            if files.length() > 1 {
+                message.set(Some((true, "Several files were dropped: the first one is opened.".into())));
+            }
         }
     });
     on_cleanup(move || {

@@ -201,7 +201,7 @@ pub fn OptionsPanel() -> impl IntoView {
                 </button>
             </div>
             <input type="text" id="meeting-link" class="meeting-link" readonly aria-label="The comparison's link"
-                prop:value=move || meeting_link.get() />
+                class:hidden=move || shown.with(Vec::is_empty) prop:value=move || meeting_link.get() />
             {shared_banner}
             {move || options.message.get().map(|m| view! {
                 <p class="hint" id="options-message" role="status">{m}

@@ -1,10 +1,10 @@
 //! The print sheet: what the page prints (A4 or US Letter, one page; `web/style.css`'s
 //! print rules hide the controls): the design's name, the elevation and the force diagram
-//! as on screen, key numbers, the design's link as text and, when it fits in one, as a QR
-//! code (`qrcode` crate, low error correction: up to 2,953 bytes), the date and the
-//! cautions. On screen the sheet is hidden.
+//! as on screen, key numbers (and the design's warnings), the design's link as text and,
+//! when it fits in one, as a QR code (`qrcode` crate, low error correction: up to 2,953
+//! bytes; printed 40 mm wide), the date it is printed and the cautions. On screen the sheet
+//! is hidden.
 
-use crate::canvas;
 use crate::format::Quantity;
 use crate::permalink_sync::link_to_open_design;
 use crate::state::AppState;
@@ -13,8 +13,9 @@ use leptos::prelude::*;
 use qrcode::{Color, EcLevel, QrCode};
 use springline_statics::scene::Ink;
 
-/// The QR code's side on the sheet, CSS pixels (about 50 mm printed).
-const QR_SIDE: f64 = 190.0;
+/// Backing-store pixels per QR module: whole pixels keep the modules sharp when the
+/// canvas is printed at 40 mm (`web/style.css`).
+const QR_MODULE_PX: u32 = 6;
 
 /// The sheet.
 #[component]
@@ -36,27 +37,59 @@ pub fn PrintSheet() -> impl IntoView {
     Effect::new(move |_| {
         let text = link.get();
         let Some(el) = node.get() else { return };
-        let code = QrCode::with_error_correction_level(text.as_bytes(), EcLevel::L);
-        fits.set(code.is_ok());
-        let Ok(code) = code else { return };
-        let Some(s) = canvas::prepare_for(&el, QR_SIDE, QR_SIDE) else { return };
-        let n = code.width();
+        let code = QrCode::with_error_correction_level(text.as_bytes(), EcLevel::L).ok();
+        fits.set(code.is_some());
+        let Some(ctx) = el
+            .get_context("2d")
+            .ok()
+            .flatten()
+            .and_then(|c| wasm_bindgen::JsCast::dyn_into::<web_sys::CanvasRenderingContext2d>(c).ok())
+        else {
+            return;
+        };
+        let Some(code) = code else {
+            // a link too long for a code: no code at all, never the last design's
+            el.set_width(1);
+            el.set_height(1);
+            let _ = el.remove_attribute("data-modules");
+            return;
+        };
+        let n = code.width() as u32;
         // a quiet zone of four modules all round (ISO/IEC 18004)
-        let module = QR_SIDE / (n + 8) as f64;
-        s.ctx.set_fill_style_str("#ffffff");
-        s.ctx.fill_rect(0.0, 0.0, QR_SIDE, QR_SIDE);
-        s.ctx.set_fill_style_str("#000000");
+        let side = (n + 8) * QR_MODULE_PX;
+        el.set_width(side);
+        el.set_height(side);
+        ctx.set_fill_style_str("#ffffff");
+        ctx.fill_rect(0.0, 0.0, side as f64, side as f64);
+        ctx.set_fill_style_str("#000000");
+        let m = QR_MODULE_PX as f64;
         for (k, color) in code.to_colors().into_iter().enumerate() {
             if color == Color::Dark {
-                let (x, y) = ((k % n + 4) as f64, (k / n + 4) as f64);
-                s.ctx.fill_rect(x * module, y * module, module + 0.02, module + 0.02);
+                let (x, y) = ((k as u32 % n + 4) as f64, (k as u32 / n + 4) as f64);
+                ctx.fill_rect(x * m, y * m, m, m);
             }
         }
         let _ = el.set_attribute("data-modules", &n.to_string());
     });
-    let date = move || {
+    // the date the sheet is printed (not when the page was opened)
+    let today = || {
         let d = js_sys::Date::new_0();
         format!("{:04}-{:02}-{:02}", d.get_full_year(), d.get_month() + 1, d.get_date())
+    };
+    let printed = RwSignal::new(today());
+    let before_print =
+        window_event_listener(leptos::ev::Custom::new("beforeprint"), move |_: web_sys::Event| {
+            printed.set(today());
+        });
+    on_cleanup(move || before_print.remove());
+    let warnings = move || {
+        state.analysis.with(|a| {
+            let a = a.as_ref().ok()?;
+            (!a.warnings.is_empty()).then(|| {
+                let items = a.warnings.iter().map(|w| view! { <li>{w.to_string()}</li> }).collect_view();
+                view! { <ul class="print-warnings">{items}</ul> }
+            })
+        })
     };
     let numbers = move || {
         let units = state.units.get();
@@ -104,12 +137,13 @@ pub fn PrintSheet() -> impl IntoView {
             <div class="print-columns">
                 <div>
                     <h2>{move || state.design.with(|d| d.name.clone())}</h2>
-                    <p>{move || format!("Springline concept design sheet, printed {}", date())}</p>
+                    <p>{move || format!("Springline concept design sheet, printed {}", printed.get())}</p>
                     <table class="print-numbers"><tbody>{numbers}</tbody></table>
+                    {warnings}
                     <p class="print-caution">"Concept design only: these are first numbers for choosing between options. Local codes and a licensed engineer govern every design decision."</p>
                 </div>
                 <figure class="print-qr" style:background=Ink::Background.css()>
-                    <canvas id="print-qr" node_ref=node style=format!("width:{QR_SIDE}px;height:{QR_SIDE}px")></canvas>
+                    <canvas id="print-qr" node_ref=node style="width:150px;height:150px"></canvas>
                     <figcaption>{move || if fits.get() { "the design's link" } else { "the link is too long for a QR code" }}</figcaption>
                 </figure>
             </div>

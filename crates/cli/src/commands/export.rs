@@ -63,8 +63,12 @@ pub fn run(args: Args) -> Result<(), Failure> {
         )));
     }
     let design = read_design(&args.design)?;
-    for (path, what) in wanted {
-        let text = export(&design, what)?;
+    // every file made before any is written: a refused export leaves no partial set
+    let texts: Vec<(&Path, String)> = wanted
+        .into_iter()
+        .map(|(path, what)| Ok((path, export(&design, what)?)))
+        .collect::<Result<_, Failure>>()?;
+    for (path, text) in texts {
         std::fs::write(path, text)
             .map_err(|e| Failure::Io(anyhow::anyhow!("cannot write '{}': {e}", path.display())))?;
     }

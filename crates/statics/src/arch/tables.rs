@@ -11,7 +11,7 @@ use crate::arch::design::Design;
 use crate::arch::design_file::write_design_json;
 use crate::arch::options::{KeyNumbers, METRICS};
 use crate::arch::sizing::{GroupOutcome, SizeReport};
-use crate::units::{Quantity, Units};
+use crate::units::Quantity;
 use serde_json::json;
 
 /// One CSV field: as is, or quoted with its quotes doubled when it holds a comma, a quote
@@ -21,6 +21,53 @@ pub fn csv_field(text: &str) -> String {
         format!("\"{}\"", text.replace('"', "\"\""))
     } else {
         text.to_string()
+    }
+}
+
+/// A text cell from people (an option's name): with a leading `'` when it starts with
+/// `=`, `+`, `-` or `@`, so a spreadsheet shows it as text and never runs it as a formula
+/// (OWASP, "CSV Injection"); quoting is [`csv_field`]'s.
+pub fn csv_text(text: &str) -> String {
+    if text.starts_with(['=', '+', '-', '@']) {
+        format!("'{text}")
+    } else {
+        text.to_string()
+    }
+}
+
+/// The SI unit of a quantity as CSV headers write it, in ASCII (spreadsheets of any
+/// locale read it): `m`, `kN`, `kNm`, `deg`, `t`, `m3`, `-` for ratios, empty for counts.
+fn ascii_unit(q: Quantity) -> &'static str {
+    match q {
+        Quantity::Length | Quantity::SectionDepth => "m",
+        Quantity::Force => "kN",
+        Quantity::Moment => "kNm",
+        Quantity::Angle => "deg",
+        Quantity::Mass => "t",
+        Quantity::Volume => "m3",
+        Quantity::Ratio => "-",
+        Quantity::Area => "m2",
+        Quantity::Inertia => "m4",
+        Quantity::Pressure | Quantity::Modulus => "kN/m2",
+        Quantity::LineLoad => "kN/m",
+        Quantity::UnitWeight => "kN/m3",
+        Quantity::Count => "",
+    }
+}
+
+/// The axial force at mid-length of a solved member, kN (tension positive): interpolated
+/// between the stations either side of L/2, or the mean of the end forces when the member
+/// has no stations there.
+fn mid_length_n(f: &crate::frame::results::MemberForces) -> f64 {
+    let half = 0.5 * f.length;
+    match f.stations.iter().position(|st| st.s >= half) {
+        Some(k) if k > 0 => {
+            let (a, b) = (&f.stations[k - 1], &f.stations[k]);
+            let t = if b.s > a.s { (half - a.s) / (b.s - a.s) } else { 0.0 };
+            a.forces.n + t * (b.forces.n - a.forces.n)
+        }
+        Some(0) if f.stations.first().is_some_and(|st| st.s == half) => f.stations[0].forces.n,
+        _ => 0.5 * (f.start.n + f.end.n),
     }
 }
 
@@ -48,12 +95,14 @@ fn line(fields: &[String]) -> String {
 ///   together, tension positive; the case's title in the header);
 /// - from `report` (per rib line, over the ultimate combinations): the largest tension,
 ///   the largest compression (a magnitude) and the largest |M| (kNm); the group's section
-///   (its words, or `as typed`), the utilisation, the governing mode, the combination and
-///   the traffic placement of the governing demand.
+///   (its words, dimensions in mm, or `as typed`), the utilisation, the governing mode,
+///   the combination and the traffic placement of the governing demand.
 ///
 /// `analysis` and `report` must be of the same design (the member names match; a member
-/// the report does not list has empty sizing cells). Never fails.
-pub fn member_table_csv(analysis: &Analysis, report: &SizeReport) -> String {
+/// the report does not list has empty sizing cells). Without a report (a design that
+/// cannot be sized, for example one without an ultimate combination) every sizing cell is
+/// empty. Never fails.
+pub fn member_table_csv(analysis: &Analysis, report: Option<&SizeReport>) -> String {
     let model = &analysis.frame.model;
     let cases = &analysis.frame.solution.cases;
     let mut head: Vec<String> = vec!["member".into(), "group".into(), "length (m)".into()];
@@ -65,9 +114,9 @@ pub fn member_table_csv(analysis: &Analysis, report: &SizeReport) -> String {
     head.extend(
         [
             "ULS tension per rib (kN)",
-            "ULS compression per rib (kN)",
+            "ULS compression per rib (kN; magnitude)",
             "ULS |M| per rib (kNm)",
-            "section",
+            "section (mm)",
             "utilisation (-)",
             "governing mode",
             "combination",
@@ -77,15 +126,16 @@ pub fn member_table_csv(analysis: &Analysis, report: &SizeReport) -> String {
     );
     let mut out = vec![line(&head)];
     for (m, member) in model.members.iter().enumerate() {
-        let sized = report.sizing.members.iter().find(|s| s.member == member.name);
+        let sized =
+            report.and_then(|r| r.sizing.members.iter().find(|s| s.member == member.name).map(|s| (r, s)));
         let length = cases.first().and_then(|c| c.members.get(m)).map(|f| f.length);
         let mut row = vec![member.name.clone(), member.group.clone(), number(length, 3)];
         for case in cases {
-            let n = case.members.get(m).map(|f| 0.5 * (f.start.n + f.end.n));
+            let n = case.members.get(m).map(mid_length_n);
             row.push(number(n, 2));
         }
         match sized {
-            Some(s) => {
+            Some((report, s)) => {
                 let section =
                     report.sizing.groups.iter().find(|g| g.group == s.group).map_or(String::new(), |g| {
                         match &g.outcome {
@@ -119,13 +169,14 @@ pub fn member_table_csv(analysis: &Analysis, report: &SizeReport) -> String {
 }
 
 /// The options comparison as CSV: a header `quantity,unit,NAME...`, then one row per
-/// comparison metric (`arch::options::METRICS`, SI values: m, kN, degrees, t, m3) and a
+/// comparison metric (`arch::options::METRICS`, SI values in the `unit` column's units:
+/// m, kN, deg, t, m3, `-` for ratios; names made safe by [`csv_text`]) and a
 /// last row `feasible` (`yes`, or `no: reason`). `names` and `numbers` are the options in
 /// order (a name missing for an option reads `option K`). Never fails.
 pub fn comparison_csv(names: &[String], numbers: &[KeyNumbers]) -> String {
     let mut head = vec!["quantity".to_string(), "unit".to_string()];
     head.extend(
-        (0..numbers.len()).map(|k| names.get(k).cloned().unwrap_or_else(|| format!("option {}", k + 1))),
+        (0..numbers.len()).map(|k| names.get(k).map_or_else(|| format!("option {}", k + 1), |n| csv_text(n))),
     );
     let mut out = vec![line(&head)];
     for metric in METRICS {
@@ -134,17 +185,15 @@ pub fn comparison_csv(names: &[String], numbers: &[KeyNumbers]) -> String {
             Quantity::Count => 0,
             _ => 2,
         };
-        let mut row = vec![metric.label.to_string(), Units::Si.label(metric.quantity).to_string()];
+        let mut row = vec![metric.label.to_string(), ascii_unit(metric.quantity).to_string()];
         row.extend(numbers.iter().map(|n| number(metric.value(n), decimals)));
         out.push(line(&row));
     }
     let mut feasible = vec!["feasible".to_string(), String::new()];
-    feasible.extend(numbers.iter().map(|n| {
-        if n.feasible {
-            "yes".to_string()
-        } else {
-            format!("no: {}", n.reason.clone().unwrap_or_default())
-        }
+    feasible.extend(numbers.iter().map(|n| match (n.feasible, &n.reason) {
+        (true, _) => "yes".to_string(),
+        (false, Some(reason)) => format!("no: {reason}"),
+        (false, None) => "no".to_string(),
     }));
     out.push(line(&feasible));
     out.join("\n") + "\n"
@@ -155,17 +204,28 @@ pub fn comparison_csv(names: &[String], numbers: &[KeyNumbers]) -> String {
 /// numbers (`arch::options::key_numbers`, sized), the quantities and the foundation demand
 /// of `report`, the arch's stability summary when there is one, and the caution. Readers
 /// ignore the summary: it is what the design gave when written, for people and
-/// spreadsheets. `report` must be `design`'s size report.
-pub fn design_json_with_summary(design: &Design, numbers: &KeyNumbers, report: &SizeReport) -> String {
+/// spreadsheets. `report` is `design`'s size report, or why it could not be sized (the
+/// summary then says so in `sizing_failure`, beside the key numbers found before sizing).
+pub fn design_json_with_summary(
+    design: &Design,
+    numbers: &KeyNumbers,
+    report: Result<&SizeReport, &str>,
+) -> String {
     let text = write_design_json(design);
-    let summary = json!({
-        "note": "results of this design when the file was written; Springline ignores them on reading",
-        "key_numbers": numbers,
-        "quantities": report.quantities,
-        "foundations": report.foundations,
-        "stability": report.stability,
-        "caution": CAUTION,
-    });
+    let note = "results of this design when the file was written; Springline ignores them on reading";
+    let summary = match report {
+        Ok(report) => json!({
+            "note": note,
+            "key_numbers": numbers,
+            "quantities": report.quantities,
+            "foundations": report.foundations,
+            "stability": report.stability,
+            "caution": CAUTION,
+        }),
+        Err(why) => {
+            json!({ "note": note, "key_numbers": numbers, "sizing_failure": why, "caution": CAUTION })
+        }
+    };
     // the design's fields stay in the order and layout of a design file; the summary
     // (serialised by serde, indented one level) goes last
     let (Some(body), Ok(summary)) =

@@ -104,7 +104,9 @@ pub fn scene_svg(scene: &Scene, members: &[MemberName], title: &str, caution: &s
 }
 
 /// The element id of a member: `member-` and its name with every character other than a
-/// letter, digit, `-` or `.` made `_` (an XML name: `rib 0-1` is `member-rib_0-1`).
+/// letter or digit (of any script), `-` or `.` made `_`, so an XML name (`rib 0-1` is
+/// `member-rib_0-1`). Model names are unique and never differ only by such characters
+/// (the generated models' names are letters, digits, spaces and `-`).
 pub fn element_id(name: &str) -> String {
     let safe: String =
         name.chars().map(|c| if c.is_alphanumeric() || c == '-' || c == '.' { c } else { '_' }).collect();
@@ -302,7 +304,9 @@ pub fn elevation_svg(
 }
 
 /// The force diagram of load case `case` as SVG (`scene::force`): the truss
-/// idealisation's members (braced designs) named as in that model.
+/// idealisation's members (braced designs) named as in that model; an unbraced design's
+/// thrust line has no member groups; a case out of range draws the scene's message. The
+/// footer gives no scale: each area states its own in its header.
 pub fn force_svg(
     analysis: &crate::arch::analysis::Analysis,
     design: &crate::arch::design::Design,
@@ -310,7 +314,9 @@ pub fn force_svg(
     opts: &crate::scene::force::ForceOptions,
     viewport: super::Viewport,
 ) -> String {
-    let scene = crate::scene::force::force_scene(analysis, case, opts, viewport);
+    let mut scene = crate::scene::force::force_scene(analysis, case, opts, viewport);
+    // two areas at two scales: their headers say them, the footer must not say one
+    scene.transform = None;
     let names = analysis.truss.as_ref().map(|t| member_names(&t.model)).unwrap_or_default();
     scene_svg(&scene, &names, &format!("{}: force diagram", design.name), crate::arch::analysis::CAUTION)
 }
