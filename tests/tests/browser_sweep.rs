@@ -13,7 +13,12 @@ use springline_statics::{analyze, Design};
 use springline_tests::page::*;
 use springline_tests::serve::StaticServer;
 use springline_tests::webdriver::{Driver, Session};
+use std::sync::Mutex;
 use std::time::{Duration, Instant};
+
+/// One sweep at a time: each runs a worker at full speed, and two at once on a 2-core
+/// machine would measure the machine, not the page.
+static ONE_SWEEP_AT_A_TIME: Mutex<()> = Mutex::new(());
 
 /// Sets the first axis of the sweep: rise over span from `from` to `to` in `count` steps.
 fn set_rise_sweep(s: &Session, from: &str, to: &str, count: &str) {
@@ -45,6 +50,7 @@ fn answer_time(s: &Session) -> f64 {
 
 #[test]
 fn a_sized_sweep_keeps_the_page_answering_and_a_click_opens_the_option() {
+    let _one = ONE_SWEEP_AT_A_TIME.lock().unwrap_or_else(|e| e.into_inner());
     let server = StaticServer::start(&dist());
     let driver = Driver::start();
     let s = driver.session(1500, 1100, 1.0);
@@ -100,6 +106,7 @@ fn a_sized_sweep_keeps_the_page_answering_and_a_click_opens_the_option() {
 
 #[test]
 fn cancel_stops_the_sweep_and_keeps_what_it_found() {
+    let _one = ONE_SWEEP_AT_A_TIME.lock().unwrap_or_else(|e| e.into_inner());
     let server = StaticServer::start(&dist());
     let driver = Driver::start();
     let s = driver.session(1400, 1000, 1.0);

@@ -169,6 +169,20 @@ pub fn SweepPanel() -> impl IntoView {
         second.key.track();
         second.reset(&state.design.get_untracked(), state.units.get_untracked());
     });
+    // the charts draw what has arrived at most once an animation frame, however fast the
+    // rows come: the page's thread stays free for the user between frames
+    let drawn = RwSignal::new(None::<Run>);
+    let frame_pending = StoredValue::new(false);
+    Effect::new(move |_| {
+        run.track();
+        if !frame_pending.get_value() {
+            frame_pending.set_value(true);
+            request_animation_frame(move || {
+                frame_pending.set_value(false);
+                drawn.set(run.get_untracked());
+            });
+        }
+    });
     let running = move || run.with(|r| r.as_ref().is_some_and(|r| !r.finished));
     let start = move || {
         if running() {
@@ -331,7 +345,7 @@ pub fn SweepPanel() -> impl IntoView {
     };
     let charts = CHARTS
         .iter()
-        .map(|&(id, title, q, pick)| view! { <SweepChart id=id title=title quantity=q pick=pick run=run pointed=pointed adopt=adopt /> })
+        .map(|&(id, title, q, pick)| view! { <SweepChart id=id title=title quantity=q pick=pick run=drawn pointed=pointed adopt=adopt /> })
         .collect_view();
     view! {
         <section class="sweep-panel" id="sweep-panel" aria-labelledby="sweep-title">
