@@ -149,6 +149,43 @@ struct Geometry {
     y: (f64, f64),
 }
 
+impl Geometry {
+    /// From a plotting area's backing-store pixel ranges (plotters) and the axis ranges.
+    fn of(
+        (xr, yr): (std::ops::Range<i32>, std::ops::Range<i32>),
+        dpr: f64,
+        x: (f64, f64),
+        y: (f64, f64),
+    ) -> Geometry {
+        Geometry {
+            left: xr.start as f64 / dpr,
+            right: xr.end as f64 / dpr,
+            top: yr.start as f64 / dpr,
+            bottom: yr.end as f64 / dpr,
+            x,
+            y,
+        }
+    }
+}
+
+/// A tick label of a sweep axis: a category's name at its whole-number value (nothing in
+/// between), or the number in the user's units without trailing zeros.
+fn tick_label(units: Units, p: Parameter, names: Option<&[&str]>, v: f64) -> String {
+    match names {
+        Some(n) => n
+            .get(v.round() as usize)
+            .filter(|_| (v - v.round()).abs() < 1e-6)
+            .copied()
+            .unwrap_or("")
+            .to_string(),
+        None => {
+            let shown = units.to_shown(quantity_of(p).unwrap_or(Quantity::Count), v);
+            let t = format!("{shown:.3}");
+            t.trim_end_matches('0').trim_end_matches('.').to_string()
+        }
+    }
+}
+
 /// The panel.
 #[component]
 pub fn SweepPanel() -> impl IntoView {
@@ -558,19 +595,7 @@ fn draw(
     let x_values: Vec<f64> = first.values.clone();
     let (x0, x1) = span_of(&x_values);
     let names_x = category_names(first.parameter);
-    let x_label = |v: &f64| match &names_x {
-        Some(n) => n
-            .get(v.round() as usize)
-            .filter(|_| (v - v.round()).abs() < 1e-6)
-            .copied()
-            .unwrap_or("")
-            .to_string(),
-        None => {
-            let shown = units.to_shown(quantity_of(first.parameter).unwrap_or(Quantity::Count), *v);
-            let t = format!("{shown:.3}");
-            t.trim_end_matches('0').trim_end_matches('.').to_string()
-        }
-    };
+    let x_label = |v: &f64| tick_label(units, first.parameter, names_x.as_deref(), *v);
     let x_desc = match quantity_of(first.parameter) {
         Some(fq) if !units.label(fq).is_empty() => {
             format!("{} ({})", words_of(first.parameter), units.label(fq))
@@ -662,32 +687,12 @@ fn draw(
                     .map_err(|e| e.to_string())?;
             }
         }
-        let (xr, yr) = chart.plotting_area().get_pixel_range();
-        Geometry {
-            left: xr.start as f64 / dpr,
-            right: xr.end as f64 / dpr,
-            top: yr.start as f64 / dpr,
-            bottom: yr.end as f64 / dpr,
-            x: (x0, x1),
-            y: (y0, y1),
-        }
+        Geometry::of(chart.plotting_area().get_pixel_range(), dpr, (x0, x1), (y0, y1))
     } else {
         let second = &r.axes[1];
         let (y0, y1) = span_of(&second.values);
         let names_y = category_names(second.parameter);
-        let y_label = |v: &f64| match &names_y {
-            Some(n) => n
-                .get(v.round() as usize)
-                .filter(|_| (v - v.round()).abs() < 1e-6)
-                .copied()
-                .unwrap_or("")
-                .to_string(),
-            None => {
-                let shown = units.to_shown(quantity_of(second.parameter).unwrap_or(Quantity::Count), *v);
-                let t = format!("{shown:.3}");
-                t.trim_end_matches('0').trim_end_matches('.').to_string()
-            }
-        };
+        let y_label = |v: &f64| tick_label(units, second.parameter, names_y.as_deref(), *v);
         let lo = values.iter().flatten().copied().fold(f64::INFINITY, f64::min);
         let hi = values.iter().flatten().copied().fold(f64::NEG_INFINITY, f64::max);
         let scale_words = if lo.is_finite() && hi.is_finite() {
@@ -766,15 +771,7 @@ fn draw(
                     .map_err(|e| e.to_string())?;
             }
         }
-        let (xr, yr) = chart.plotting_area().get_pixel_range();
-        Geometry {
-            left: xr.start as f64 / dpr,
-            right: xr.end as f64 / dpr,
-            top: yr.start as f64 / dpr,
-            bottom: yr.end as f64 / dpr,
-            x: (x0, x1),
-            y: (y0, y1),
-        }
+        Geometry::of(chart.plotting_area().get_pixel_range(), dpr, (x0, x1), (y0, y1))
     };
     root.present().map_err(|e| e.to_string())?;
     Ok(geometry)
