@@ -22,8 +22,6 @@ pub(crate) struct Element {
     pub(crate) geometry: Geometry,
     /// Stiffness in local axes, releases condensed.
     pub(crate) k_local: Matrix6<f64>,
-    /// Rotation from global to local freedoms.
-    pub(crate) t: Matrix6<f64>,
     /// Stiffness in global axes, T^T k_local T.
     pub(crate) k_global: Matrix6<f64>,
 }
@@ -37,9 +35,8 @@ pub(crate) fn elements(model: &Model) -> Vec<Element> {
             let (a, b) = (&model.nodes[m.start], &model.nodes[m.end]);
             let geometry = Geometry::new(a.x, a.y, b.x, b.y);
             let k_local = local_stiffness(m, &geometry);
-            let t = geometry.transform();
-            let k_global = t.transpose() * k_local * t;
-            Element { geometry, k_local, t, k_global }
+            let k_global = geometry.to_global_matrix(&k_local);
+            Element { geometry, k_local, k_global }
         })
         .collect()
 }
@@ -69,12 +66,14 @@ pub(crate) fn assemble_matrices<'a>(
     let n = numbering.free.len();
     let mut bandwidth = 0;
     for k in 0..model.members.len() {
-        let free: Vec<usize> = numbering
-            .member_equations(model, k)
-            .iter()
-            .filter_map(|e| if let Equation::Free(i) = e { Some(*i) } else { None })
-            .collect();
-        if let (Some(lo), Some(hi)) = (free.iter().min(), free.iter().max()) {
+        let (mut lo, mut hi) = (usize::MAX, 0);
+        for e in numbering.member_equations(model, k) {
+            if let Equation::Free(i) = e {
+                lo = lo.min(i);
+                hi = hi.max(i);
+            }
+        }
+        if lo <= hi {
             bandwidth = bandwidth.max(hi - lo);
         }
     }
@@ -102,6 +101,8 @@ pub(crate) struct CaseLoads {
     pub(crate) local_loads: Vec<Vec<LocalLoad>>,
     /// Fixed-end actions per member (member loads and temperature), local axes.
     pub(crate) fixed: Vec<Vector6<f64>>,
+    /// The same in global axes (T^T times them), for the residual.
+    pub(crate) fixed_global: Vec<Vector6<f64>>,
     /// Prescribed displacements per node (m, m, rad); zero where none is given.
     pub(crate) prescribed: Vec<[f64; 3]>,
     /// Largest force an imposed strain causes in a fully held member, kN: E A times the
@@ -150,7 +151,8 @@ pub(crate) fn case_loads(model: &Model, elems: &[Element], lc: &LoadCase) -> Cas
             .fold(0.0, f64::max);
         imposed_strain_force = imposed_strain_force.max(largest_at_node);
     }
-    CaseLoads { applied, local_loads, fixed, prescribed, imposed_strain_force }
+    let fixed_global = fixed.iter().zip(elems).map(|(f, el)| el.geometry.to_global_vector(f)).collect();
+    CaseLoads { applied, local_loads, fixed, fixed_global, prescribed, imposed_strain_force }
 }
 
 /// Out-of-balance force at every free freedom for the free displacements `u_free`:
@@ -176,7 +178,8 @@ pub(crate) fn free_residual(
                 Equation::Absent => 0.0,
             };
         }
-        let f = el.t.transpose() * (el.k_local * (el.t * ue) + loads.fixed[k]);
+        // T^T (k T u + f0) with T^T k T and T^T f0 formed once
+        let f = el.k_global * ue + loads.fixed_global[k];
         for (c, eq) in eqs.iter().enumerate() {
             if let Equation::Free(i) = eq {
                 r[*i] -= f[c];

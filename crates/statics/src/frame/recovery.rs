@@ -80,8 +80,8 @@ pub(crate) fn member_forces(
             u[m.end][1],
             if m.pinned_at_end() { 0.0 } else { u[m.end][2] },
         );
-        let f_local = el.k_local * (el.t * ue) + loads.fixed[k];
-        let f_global = el.t.transpose() * f_local;
+        let f_local = el.k_local * el.geometry.to_local_vector(&ue) + loads.fixed[k];
+        let f_global = el.geometry.to_global_vector(&f_local);
         for r in 0..3 {
             sum_actions[m.start][r] += f_global[r];
             sum_actions[m.end][r] += f_global[r + 3];
@@ -120,23 +120,24 @@ pub(crate) fn member_forces(
 /// Internal forces at `STATION_INTERVALS` equal intervals of a member of length `l` and
 /// at each point load, from its start end actions (local axes) and its loads.
 fn stations(start_actions: [f64; 3], loads: &[LocalLoad], l: f64) -> Vec<Station> {
-    let mut positions: Vec<f64> =
-        (0..=STATION_INTERVALS).map(|i| l * i as f64 / STATION_INTERVALS as f64).collect();
-    for ll in loads {
-        if let LocalLoad::Point { a, .. } = ll {
-            positions.push(*a);
-        }
+    let at = |s: f64| {
+        let (n, v, m) = internal_forces(start_actions, loads, s);
+        Station { s, forces: SectionForces { n, v, m } }
+    };
+    let equal = (0..=STATION_INTERVALS).map(|i| l * i as f64 / STATION_INTERVALS as f64);
+    let points = loads.iter().filter_map(|ll| match ll {
+        LocalLoad::Point { a, .. } => Some(*a),
+        LocalLoad::Uniform { .. } => None,
+    });
+    if points.clone().next().is_none() {
+        // the usual member: the equal intervals alone, already in order
+        return equal.map(at).collect();
     }
+    let mut positions: Vec<f64> = equal.chain(points).collect();
     positions.sort_by(|a, b| a.total_cmp(b));
     // a point load at a station is one station (closer than rounding of the length)
     positions.dedup_by(|a, b| (*a - *b).abs() < 1e-12 * l.max(1.0));
-    positions
-        .iter()
-        .map(|&s| {
-            let (n, v, mm) = internal_forces(start_actions, loads, s);
-            Station { s, forces: SectionForces { n, v, m: mm } }
-        })
-        .collect()
+    positions.into_iter().map(at).collect()
 }
 
 /// The reaction of every support: it closes each restrained freedom (sum of member end

@@ -36,7 +36,7 @@
 //! of a real, imperfect structure; local codes and a licensed engineer govern.
 
 use crate::error::{Iteration, Location, StaticsError};
-use crate::frame::assembly::{assemble, assemble_matrices, case_loads, elements, free_residual, Element};
+use crate::frame::assembly::{assemble, assemble_matrices, case_loads, elements, Element};
 use crate::frame::banded::{BandMatrix, LdlFactor};
 use crate::frame::eigen::{dense, subspace_iteration, Modes, Operand, Spectrum};
 use crate::frame::element::{
@@ -46,7 +46,7 @@ use crate::frame::model::{Dof, LoadCase, Member, MemberKind, MemberLoad, Model, 
 use crate::frame::numbering::{number, Numbering};
 use crate::frame::recovery::{displacement_results, node_displacements};
 use crate::frame::results::NodeDisplacement;
-use crate::frame::solver::{check_assembled_range, mechanism_error, validate, REFINEMENT_STEPS};
+use crate::frame::solver::{check_assembled_range, mechanism_error, refined_solve, validate};
 use crate::tolerance::COMPRESSED_MEMBER;
 use nalgebra::{DMatrix, Matrix6, Vector6};
 use serde::{Deserialize, Serialize};
@@ -438,14 +438,7 @@ impl Stability {
         let model = &self.refined.model;
         let mapped = self.refined.map_case(case);
         let loads = case_loads(model, &self.elems, &mapped);
-        let mut u_free = vec![0.0; self.numbering.free.len()];
-        for _ in 0..=REFINEMENT_STEPS {
-            let mut r = free_residual(model, &self.numbering, &self.elems, &loads, &u_free);
-            self.factor.solve_in_place(&mut r)?;
-            for (u, d) in u_free.iter_mut().zip(&r) {
-                *u += d;
-            }
-        }
+        let u_free = refined_solve(model, &self.numbering, &self.elems, &self.factor, &loads)?;
         let u = node_displacements(&self.numbering, &u_free, &loads.prescribed);
         Ok(model
             .members
@@ -462,7 +455,7 @@ impl Stability {
                     u[m.end][2],
                 );
                 // released rotations have zero stiffness terms, so their value is irrelevant
-                let f = el.k_local * (el.t * ue) + loads.fixed[k];
+                let f = el.k_local * el.geometry.to_local_vector(&ue) + loads.fixed[k];
                 (f[3] - f[0]) / 2.0
             })
             .collect())
@@ -500,7 +493,9 @@ impl Stability {
             .iter()
             .zip(&self.elems)
             .zip(&axial_forces)
-            .map(|((m, el), &n)| -(el.t.transpose() * local_geometric_stiffness(m, &el.geometry, n) * el.t))
+            .map(|((m, el), &n)| {
+                -el.geometry.to_global_matrix(&local_geometric_stiffness(m, &el.geometry, n))
+            })
             .collect();
         let a = assemble_matrices(model, &self.numbering, &minus_kg)?;
         let found = self.eigenpairs(&Operand::Band(&a), modes, warm, Iteration::Buckling)?;
