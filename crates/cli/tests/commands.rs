@@ -584,3 +584,26 @@ fn export_writes_the_engines_files() {
     assert_eq!(bad.status.code(), Some(1), "{}", text(&bad.stderr));
     assert!(!dir.join("x.csv").exists(), "nothing written for a refused design");
 }
+
+/// `solve --time N` prints the same solution as `solve`, and on standard error the time
+/// per solve over N more solves: a median no faster than the fastest, both positive.
+#[test]
+fn solve_time_reports_the_time_per_solve_and_changes_nothing_else() {
+    let model = run(&["model", "--truss", "-"], &demo_json());
+    assert_eq!(model.status.code(), Some(0), "{}", text(&model.stderr));
+    let model = text(&model.stdout);
+    let plain = run(&["solve", "-"], &model);
+    let timed = run(&["solve", "--time", "25", "-"], &model);
+    assert_eq!(timed.status.code(), Some(0), "{}", text(&timed.stderr));
+    assert_eq!(text(&timed.stdout), text(&plain.stdout), "the same solution");
+    let err = text(&timed.stderr);
+    let number = |after: &str| -> f64 {
+        let rest = err.split(after).nth(1).unwrap_or_else(|| panic!("no '{after}' in: {err}"));
+        rest.split_whitespace().next().and_then(|v| v.parse().ok()).unwrap_or(f64::NAN)
+    };
+    assert!(err.starts_with("solve time over 25 solves in this process"), "{err}");
+    let (median, fastest) = (number("median "), number("fastest "));
+    assert!(fastest > 0.0 && median >= fastest, "median {median} us, fastest {fastest} us");
+    // 0 solves is a usage error (exit 2), like any value out of range
+    assert_eq!(run(&["solve", "--time", "0", "-"], &model).status.code(), Some(2));
+}
