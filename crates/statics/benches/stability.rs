@@ -9,15 +9,10 @@
 //! - `frequencies`: preparation and the four lowest natural frequencies with the dead
 //!   case's masses.
 //!
-//! - `arch_governing`: the demo deck arch (`Design::demo`, 16 and 32 panels): the
-//!   factored dead load and the governing placements of its rib members (each member's
-//!   largest compression and its larger end moment under ULS gr1a, deduplicated), built
-//!   as load cases and buckled with the posts and diagonals kept whole, six modes each
-//!   (`arch::second_order::rib_stability`, what sizing runs);
-//! - `arch_dead_and_frequencies`: the demo's dead-load buckling (every member split, and
-//!   the arch's own mode) and its four lowest frequencies (`arch::stability::arch_stability`).
+//! The demo's own stability (the rib's governing placements, the dead load's modes) is
+//! timed by the `stages` bench.
 //!
-//! The frame of the first three is built here from `frame::model` alone: a parabolic rib and a deck as frame
+//! The frame is built here from `frame::model` alone: a parabolic rib and a deck as frame
 //! members, posts and single diagonals as pin-ended bars with an I of their own (so they
 //! can buckle on their own once split), pinned springings, the deck held vertically at
 //! its ends.
@@ -25,16 +20,7 @@
 //! Run: `cargo bench -p springline-statics --bench stability`.
 
 use criterion::{criterion_group, criterion_main, BenchmarkId, Criterion};
-use springline_statics::arch::design::Design;
-use springline_statics::arch::generate::{frame_model, Generated};
-use springline_statics::arch::influence::{ArchLine, MemberEnd};
-use springline_statics::arch::second_order::{rib_members, rib_stability, RibSources};
-use springline_statics::arch::sizing::{frame_traffic, is_ultimate};
-use springline_statics::arch::stability::arch_stability;
-use springline_statics::arch::traffic::TrafficReport;
 use springline_statics::frame::stability::{Stability, StabilitySettings};
-use springline_statics::traffic::combination::Combination;
-use springline_statics::ValidDesign;
 use springline_statics::{frame, truss, LoadCase, Model, NodalLoad, Support};
 use std::hint::black_box;
 
@@ -117,56 +103,5 @@ fn stability(c: &mut Criterion) {
     group.finish();
 }
 
-/// The demo at `panels` panels, validated, with its frame model, traffic report and the
-/// sources of its rib members' demands under ULS gr1a.
-fn demo_sources(panels: usize) -> (ValidDesign, Generated, TrafficReport, Vec<RibSources>) {
-    let mut d = Design::demo();
-    d.panels = panels;
-    let valid = ValidDesign::new(&d).expect("demo is valid");
-    let report = frame_traffic(&valid).expect("traffic");
-    let generated = frame_model(&valid);
-    let uls = d.traffic.combinations[0].name.clone();
-    // the member's end moment line with the larger extreme (a hinged end has none)
-    let larger = |k: usize| {
-        [MemberEnd::Start, MemberEnd::End]
-            .into_iter()
-            .filter_map(|end| report.line(&ArchLine::Moment(k, end).name(&generated)))
-            .map(|l| (l.line.clone(), l.design[0].max, l.design[0].min))
-            .max_by(|a, b| a.1.abs().max(a.2.abs()).total_cmp(&b.1.abs().max(b.2.abs())))
-            .map(|(line, max, min)| (uls.clone(), line, max.abs() >= min.abs()))
-    };
-    let sources = rib_members(&generated)
-        .into_iter()
-        .map(|k| RibSources {
-            member: k,
-            compression: Some((uls.clone(), ArchLine::Axial(k).name(&generated), false)),
-            moment: larger(k),
-        })
-        .collect();
-    (valid, generated, report, sources)
-}
-
-fn arch(c: &mut Criterion) {
-    let mut group = c.benchmark_group("arch_stability");
-    group.sample_size(10);
-    for panels in [16usize, 32] {
-        let (valid, generated, report, sources) = demo_sources(panels);
-        let design = valid.design().clone();
-        let ultimate: Vec<&Combination> =
-            design.traffic.combinations.iter().filter(|c| is_ultimate(c)).collect();
-        group.bench_function(BenchmarkId::new("arch_governing", panels), |b| {
-            b.iter(|| {
-                rib_stability(black_box(&valid), &generated, &report, &ultimate, &sources)
-                    .expect("buckles")
-                    .alpha_cr
-            })
-        });
-        group.bench_function(BenchmarkId::new("arch_dead_and_frequencies", panels), |b| {
-            b.iter(|| arch_stability(black_box(&valid), 4).expect("buckles").arch.alpha_cr)
-        });
-    }
-    group.finish();
-}
-
-criterion_group!(benches, stability, arch);
+criterion_group!(benches, stability);
 criterion_main!(benches);
