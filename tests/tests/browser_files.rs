@@ -214,7 +214,13 @@ fn projector_mode_enlarges_and_hides_and_the_sheet_prints_on_one_page() {
     assert_eq!(s.exec(style, vec![])[1], before[1]);
     assert!(text_of(&s, "shortcuts").contains("Alt+B"));
 
-    // an image of the sheet as printed (print media, the A4 width at 96 px per inch)
+    // an image of the sheet as printed (print media, the A4 width at 96 px per inch), its
+    // QR code drawn once the link has rested
+    s.wait_for(
+        "the QR code drawn",
+        "return document.getElementById('print-qr').dataset.modules !== undefined;",
+        WAIT,
+    );
     s.set_window(794, 1123);
     s.cdp("Emulation.setEmulatedMedia", json!({ "media": "print" }));
     std::thread::sleep(std::time::Duration::from_millis(500));

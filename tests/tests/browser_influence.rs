@@ -16,20 +16,26 @@ use springline_tests::page::*;
 use springline_tests::serve::StaticServer;
 use springline_tests::webdriver::{Driver, Session};
 
-/// The peak (x, value) of the CLI's influence line `what` of the demo, the unit load
-/// every 1 m (the app's step, `arch::traffic::TRAFFIC_STEP`) and at every node: the row
-/// of largest magnitude, the first of equals.
-fn cli_peak(what: &str) -> (f64, f64) {
+/// The CLI's influence line `what` of the demo, the unit load every 1 m (the app's step,
+/// `arch::traffic::TRAFFIC_STEP`) and at every node: its peak value (the row of largest
+/// magnitude, the first of equals) and every x where the line reaches it to rounding (a
+/// symmetric line, the thrust's, peaks twice; which of the two rounds highest may differ
+/// between the page's WebAssembly and the native build, whose libm differ in the last
+/// bit).
+fn cli_peak(what: &str) -> (Vec<f64>, f64) {
     let demo = cli::run(&["demo"], "");
     let csv = cli::run(&["influence", "-", "--of", what, "--step", "1"], &demo);
     let rows = cli::influence_rows(&csv);
     assert!(rows.len() > 50, "{what}: {} rows from the CLI", rows.len());
-    rows.into_iter()
-        .fold(None, |best: Option<(f64, f64)>, (x, v)| match best {
-            Some((_, b)) if b.abs() >= v.abs() => best,
-            _ => Some((x, v)),
+    let peak = rows
+        .iter()
+        .fold(None, |best: Option<f64>, &(_, v)| match best {
+            Some(b) if b.abs() >= v.abs() => best,
+            _ => Some(v),
         })
-        .expect("rows")
+        .expect("rows");
+    let at = rows.iter().filter(|(_, v)| (v - peak).abs() <= 1e-12 * peak.abs()).map(|(x, _)| *x).collect();
+    (at, peak)
 }
 
 /// Waits until the chart shows line `line` and returns its published peak (x, value).
@@ -48,10 +54,16 @@ fn chart_peak(s: &Session, line: &str) -> (f64, f64) {
     (x, v)
 }
 
-/// The peak agrees with the CLI's within its printing (6 decimals, x to 1 mm).
-fn assert_same_peak(what: &str, shown: (f64, f64), cli: (f64, f64)) {
+/// The peak agrees with the CLI's within its printing (6 decimals), at one of the places
+/// the CLI's line peaks (x to 1 mm).
+fn assert_same_peak(what: &str, shown: (f64, f64), cli: (Vec<f64>, f64)) {
     assert!((shown.1 - cli.1).abs() <= 1e-6, "{what}: chart peak {} vs CLI {}", shown.1, cli.1);
-    assert!((shown.0 - cli.0).abs() <= 1e-3, "{what}: chart peak at x = {} vs CLI {}", shown.0, cli.0);
+    assert!(
+        cli.0.iter().any(|x| (shown.0 - x).abs() <= 1e-3),
+        "{what}: chart peak at x = {} vs CLI {:?}",
+        shown.0,
+        cli.0
+    );
 }
 
 #[test]

@@ -12,6 +12,7 @@ mod paint;
 mod pause;
 mod permalink_sync;
 mod state;
+mod timing;
 mod worker_job;
 
 fn main() {

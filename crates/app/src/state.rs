@@ -3,6 +3,7 @@
 //! helpers, shared through context.
 
 use crate::format::Units;
+use crate::timing::{timed, Step};
 use leptos::prelude::*;
 use springline_statics::arch::analysis::analyze_reusing;
 use springline_statics::arch::cases::{standard_cases, CaseSpec, Pattern};
@@ -279,7 +280,7 @@ impl AppState {
                     checked.with_value(|c| c.as_ref().filter(|(cd, ..)| cd == d).map(|(_, v, ..)| v.clone()));
                 match cached {
                     Some(v) => Ok(v),
-                    None => ValidDesign::new(d).map(Arc::new),
+                    None => timed(Step::Compute, || ValidDesign::new(d).map(Arc::new)),
                 }
             })
         });
@@ -297,7 +298,7 @@ impl AppState {
                     extra.as_ref().filter(|e| e.0 == *d && !e.1.is_empty()).map(|e| e.1.clone())
                 });
                 if let Some(cases) = extra {
-                    return analyse(&v, x, &cases, previous).map(Arc::new);
+                    return timed(Step::Compute, || analyse(&v, x, &cases, previous).map(Arc::new));
                 }
                 let cached = design.with_untracked(|d| {
                     checked.with_value(|c| {
@@ -306,7 +307,7 @@ impl AppState {
                 });
                 match cached {
                     Some(a) => Ok(a),
-                    None => analyse(&v, x, &[], previous).map(Arc::new),
+                    None => timed(Step::Compute, || analyse(&v, x, &[], previous).map(Arc::new)),
                 }
             },
             analysis_changed,
@@ -376,9 +377,12 @@ impl AppState {
     /// Analyses `design`, keeping the result for the memo; the engine's error if it does
     /// not analyse.
     pub fn check(&self, design: &Design) -> Result<(), StaticsError> {
-        let valid = ValidDesign::new(design)?;
         let x = self.vehicle.get_untracked();
-        let analysis = analyse(&valid, x, &[], None)?;
+        let (valid, analysis) = timed(Step::Compute, || {
+            let valid = ValidDesign::new(design)?;
+            let analysis = analyse(&valid, x, &[], None)?;
+            Ok::<_, StaticsError>((valid, analysis))
+        })?;
         self.checked.set_value(Some((design.clone(), Arc::new(valid), x, Arc::new(analysis))));
         Ok(())
     }

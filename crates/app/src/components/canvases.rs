@@ -8,6 +8,7 @@ use crate::drag::{self, Drag, Handle};
 use crate::forces;
 use crate::paint;
 use crate::state::{AppState, DragReading, ModeView, SizeView};
+use crate::timing::{timed, Step};
 use leptos::html::Canvas;
 use leptos::prelude::*;
 use springline_statics::arch::readout::MemberKey;
@@ -94,7 +95,7 @@ pub fn ElevationCanvas() -> impl IntoView {
         } else {
             let _ = el.remove_attribute("data-mode");
         }
-        let mut scene = match (mode.as_ref(), report, sized) {
+        let mut scene = timed(Step::Scene, || match (mode.as_ref(), report, sized) {
             (Some(drawing), _, _) => {
                 let opts = ModeOptions { units, case, transform };
                 state.design.with(|d| mode_elevation(&a, d, drawing, &opts, viewport))
@@ -122,14 +123,14 @@ pub fn ElevationCanvas() -> impl IntoView {
                 let opts = ElevationOptions { units, case, model, highlight, transform };
                 state.design.with(|d| elevation(&a, d, &opts, viewport))
             }
-        };
+        });
         let model = if enveloped { ModelKind::Frame } else { model };
         // the vehicle on the deck (never in the envelope or sizing view, which choose no
         // vehicle)
         let car = if enveloped { None } else { state.vehicle_on_deck() };
         let deck_level = state.design.with(|d| d.deck.level);
         let drawn_car = car.as_ref().and_then(|c| add_vehicle(&mut scene, c, deck_level, units));
-        paint::paint(&el, &scene);
+        timed(Step::Paint("elevation"), || paint::paint(&el, &scene));
         // the vehicle's leading axle and grab box, for tests and assistive tools
         match (&car, &drawn_car) {
             (Some(c), Some(g)) => {
@@ -441,8 +442,8 @@ pub fn ForceCanvas() -> impl IntoView {
             return;
         };
         let opts = ForceOptions { units, highlight, views, fixed_scale: held.get_value() };
-        let d = forces::drawing(&a, case, &opts, viewport);
-        paint::paint(&el, &d.scene);
+        let d = timed(Step::Scene, || forces::drawing(&a, case, &opts, viewport));
+        timed(Step::Paint("forces"), || paint::paint(&el, &d.scene));
         // the pole one can drag, for tests and assistive tools
         match pole_on_canvas(&a, case, &d) {
             Some((p, t)) => {

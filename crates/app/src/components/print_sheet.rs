@@ -17,6 +17,9 @@ use springline_statics::scene::Ink;
 /// canvas is printed at 40 mm (`web/style.css`).
 const QR_MODULE_PX: u32 = 6;
 
+/// How long the link rests before its QR code is drawn.
+const QR_DELAY: std::time::Duration = std::time::Duration::from_millis(400);
+
 /// The sheet.
 #[component]
 pub fn PrintSheet() -> impl IntoView {
@@ -33,9 +36,26 @@ pub fn PrintSheet() -> impl IntoView {
         state.units.track();
         link_to_open_design(state).unwrap_or_default()
     });
-    let fits = RwSignal::new(true);
+    // The code is drawn once the link has rested (choosing its mask takes about 10 ms
+    // for a design link, too long for every edit's frame) and again just before printing.
+    let coded = RwSignal::new(String::new());
+    let generation = StoredValue::new(0u64);
     Effect::new(move |_| {
         let text = link.get();
+        let this = generation.get_value().wrapping_add(1);
+        generation.set_value(this);
+        set_timeout(
+            move || {
+                if generation.get_value() == this {
+                    coded.set(text);
+                }
+            },
+            QR_DELAY,
+        );
+    });
+    let fits = RwSignal::new(true);
+    Effect::new(move |_| {
+        let text = coded.get();
         let Some(el) = node.get() else { return };
         let code = QrCode::with_error_correction_level(text.as_bytes(), EcLevel::L).ok();
         fits.set(code.is_some());
@@ -80,6 +100,8 @@ pub fn PrintSheet() -> impl IntoView {
     let before_print =
         window_event_listener(leptos::ev::Custom::new("beforeprint"), move |_: web_sys::Event| {
             printed.set(today());
+            // the code of the design as printed, without waiting for the rest
+            coded.set(link.get_untracked());
         });
     on_cleanup(move || before_print.remove());
     let warnings = move || {
