@@ -18,8 +18,9 @@ pub struct Surface {
 }
 
 /// Sizes the backing store to the element's CSS size times the device pixel ratio and
-/// returns a cleared context drawing in CSS pixels. `None` when the canvas has no size
-/// yet or no 2D context.
+/// returns a context drawing in CSS pixels, not cleared: whoever paints fills the whole
+/// background first (a clear before that fill only cost time). `None` when the canvas has
+/// no size yet or no 2D context.
 pub fn prepare(canvas: &HtmlCanvasElement) -> Option<Surface> {
     prepare_for(canvas, canvas.client_width() as f64, canvas.client_height() as f64)
 }
@@ -43,7 +44,6 @@ pub fn prepare_for(canvas: &HtmlCanvasElement, width: f64, height: f64) -> Optio
     }
     let ctx = canvas.get_context("2d").ok()??.dyn_into::<CanvasRenderingContext2d>().ok()?;
     let _ = ctx.set_transform(dpr, 0.0, 0.0, dpr, 0.0, 0.0);
-    ctx.clear_rect(0.0, 0.0, width, height);
     Some(Surface { ctx, width, height })
 }
 

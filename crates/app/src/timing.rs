@@ -6,7 +6,7 @@
 //! boolean.
 
 use std::cell::Cell;
-use wasm_bindgen::JsValue;
+use wasm_bindgen::{JsCast, JsValue};
 
 thread_local! {
     /// Whether timings are recorded: unknown until first asked, then fixed for the page.
@@ -72,7 +72,8 @@ pub fn timed<T>(step: Step, work: impl FnOnce() -> T) -> T {
 fn record(step: Step, ms: f64, at: f64) {
     let Some(w) = web_sys::window() else { return };
     let Ok(list) = js_sys::Reflect::get(&w, &"springlineTimings".into()) else { return };
-    let list: js_sys::Array = list.into();
+    // whatever else a script may have put there is left alone
+    let Ok(list) = list.dyn_into::<js_sys::Array>() else { return };
     let entry = js_sys::Object::new();
     let _ = js_sys::Reflect::set(&entry, &"what".into(), &step.name().into());
     let _ = js_sys::Reflect::set(&entry, &"ms".into(), &JsValue::from_f64(ms));

@@ -42,14 +42,15 @@ fn demo(panels: usize) -> Design {
 }
 
 /// The demo at `panels` panels, validated, with its frame model, traffic report and the
-/// sources of its rib members' demands under the first ultimate combination (each rib
+/// sources of its rib members' demands under its first ultimate combination (each rib
 /// member's largest compression and its larger end moment, as sizing picks them).
 fn demo_sources(panels: usize) -> (ValidDesign, Generated, TrafficReport, Vec<RibSources>) {
     let d = demo(panels);
     let valid = ValidDesign::new(&d).expect("demo is valid");
     let report = frame_traffic(&valid).expect("traffic");
     let generated = frame_model(&valid);
-    let uls = d.traffic.combinations[0].name.clone();
+    let uls =
+        d.traffic.combinations.iter().find(|c| is_ultimate(c)).expect("an ultimate combination").name.clone();
     // the member's end moment line with the larger extreme (a hinged end has none)
     let larger = |k: usize| {
         [MemberEnd::Start, MemberEnd::End]

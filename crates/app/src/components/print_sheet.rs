@@ -54,11 +54,21 @@ pub fn PrintSheet() -> impl IntoView {
         );
     });
     let fits = RwSignal::new(true);
+    // the text of the code on the canvas (none until the link first rests)
+    let drawn = StoredValue::new(String::new());
     Effect::new(move |_| {
         let text = coded.get();
         let Some(el) = node.get() else { return };
-        let code = QrCode::with_error_correction_level(text.as_bytes(), EcLevel::L).ok();
-        fits.set(code.is_some());
+        // the same text is not coded twice (the link at rest again, or a print)
+        if drawn.with_value(|d| *d == text) {
+            return;
+        }
+        drawn.set_value(text.clone());
+        // no link (yet) draws no code, as a link too long for one
+        let code = (!text.is_empty())
+            .then(|| QrCode::with_error_correction_level(text.as_bytes(), EcLevel::L).ok())
+            .flatten();
+        fits.set(text.is_empty() || code.is_some());
         let Some(ctx) = el
             .get_context("2d")
             .ok()

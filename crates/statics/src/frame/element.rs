@@ -455,8 +455,8 @@ mod tests {
     use super::*;
     use crate::frame::model::{frame, truss};
 
-    /// The rotations by 2 x 2 blocks equal the full products with T (the definition,
-    /// McGuire, Gallagher & Ziemian, Matrix Structural Analysis, 2nd ed., sec. 5.1), for a
+    /// The rotations by 2 x 2 blocks equal the full products with T (its definition in
+    /// McGuire, Gallagher & Ziemian, Matrix Structural Analysis, 2nd ed., ch. 4-5), for a
     /// member in every quadrant, with a released end and a general (unsymmetric) matrix.
     #[test]
     fn block_rotations_equal_the_products_with_t() {

@@ -33,9 +33,6 @@ pub use crate::frame::results::{
 /// one back-substitution).
 pub const REFINEMENT_STEPS: usize = 2;
 
-/// A correction at most this fraction of the largest displacement ends the refinement.
-const REFINED: f64 = 1e3 * f64::EPSILON;
-
 /// Checks a model and lists every problem found (indices, lengths, properties, loads).
 ///
 /// Each problem names where it is: `Location::Node` or `Location::Member` (index and
@@ -339,13 +336,14 @@ pub fn solve(model: &Model) -> Result<Solution, StaticsError> {
 /// displacements: the next would change them by about one rounding (measured: 2e-14 then
 /// 1e-15 of the largest on the demo's models), while an ill-conditioned model (EA far
 /// above EI / L^2) still takes every step, at most [`REFINEMENT_STEPS`].
+/// (`crate::tolerance::REFINED`). Returns the displacements and the refinement steps taken.
 pub(crate) fn refined_solve(
     model: &Model,
     numbering: &Numbering,
     elems: &[Element],
     factor: &LdlFactor,
     loads: &CaseLoads,
-) -> Result<Vec<f64>, StaticsError> {
+) -> Result<(Vec<f64>, usize), StaticsError> {
     let mut u_free = vec![0.0; numbering.free.len()];
     for step in 0..=REFINEMENT_STEPS {
         let mut r = free_residual(model, numbering, elems, loads, &u_free);
@@ -356,11 +354,11 @@ pub(crate) fn refined_solve(
             largest_u = largest_u.max(u.abs());
             largest_d = largest_d.max(d.abs());
         }
-        if step > 0 && largest_d <= REFINED * largest_u {
-            break;
+        if step > 0 && largest_d <= crate::tolerance::REFINED * largest_u {
+            return Ok((u_free, step));
         }
     }
-    Ok(u_free)
+    Ok((u_free, REFINEMENT_STEPS))
 }
 
 pub(crate) fn mechanism_error(model: &Model, numbering: &Numbering, null_vector: &[f64]) -> StaticsError {
@@ -393,7 +391,7 @@ fn solve_case(
     lc: &LoadCase,
 ) -> Result<CaseResult, StaticsError> {
     let loads = case_loads(model, elems, lc);
-    let u_free = refined_solve(model, numbering, elems, factor, &loads)?;
+    let (u_free, _) = refined_solve(model, numbering, elems, factor, &loads)?;
     let u = node_displacements(numbering, &u_free, &loads.prescribed);
     let lchar = characteristic_length(model);
     let recovered = member_forces(model, elems, &u, &loads, lchar);
@@ -411,4 +409,57 @@ fn solve_case(
         reactions,
         equilibrium,
     })
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::frame::model::{frame, truss, NodalLoad, Support};
+
+    /// The steps of refinement `refined_solve` takes on the first load case of `model`.
+    fn refinement_steps(model: &Model) -> usize {
+        check_problems(model).expect("valid");
+        let elems = elements(model);
+        let numbering = number(model);
+        let kff = assemble(model, &numbering, &elems).expect("assembles");
+        let Ok(factor) = LdlFactor::new(&kff) else { panic!("the model is stable") };
+        let loads = case_loads(model, &elems, &model.load_cases[0]);
+        refined_solve(model, &numbering, &elems, &factor, &loads).expect("solves").1
+    }
+
+    fn loaded(mut m: Model, node: usize) -> Model {
+        m.load_cases = vec![LoadCase {
+            name: "load".into(),
+            nodal: vec![NodalLoad { node, fx: 10.0, fy: -100.0, mz: 0.0 }],
+            ..Default::default()
+        }];
+        m
+    }
+
+    /// A well-conditioned model stops after one correction (`tolerance::REFINED`); a
+    /// fixed arch of bars whose axial stiffness E A / L is about 5e6 times their bending
+    /// stiffness 12 E I / L^3 keeps a larger correction and takes every step.
+    #[test]
+    fn refinement_stops_early_only_when_well_conditioned() {
+        let mut triangle = Model::default();
+        for (x, y) in [(0.0, 0.0), (4.0, 3.0), (8.0, 0.0)] {
+            triangle.add_node("", x, y);
+        }
+        triangle.add_member(truss("", "", 0, 1, 2.1e8, 0.01));
+        triangle.add_member(truss("", "", 1, 2, 2.1e8, 0.01));
+        triangle.supports = vec![Support::pinned(0), Support::pinned(2)];
+        assert_eq!(refinement_steps(&loaded(triangle, 1)), 1);
+
+        // a fixed arch of slender, very stiff bars (inclined: axial and bending couple)
+        let mut arch = Model::default();
+        for k in 0..=8 {
+            let x = 2.5 * k as f64;
+            arch.add_node("", x, 0.2 * x * (20.0 - x) / 5.0);
+        }
+        for k in 0..8 {
+            arch.add_member(frame("", "", k, k + 1, 2.1e8, 10.0, 1e-6));
+        }
+        arch.supports = vec![Support::fixed(0), Support::fixed(8)];
+        assert_eq!(refinement_steps(&loaded(arch, 3)), REFINEMENT_STEPS);
+    }
 }

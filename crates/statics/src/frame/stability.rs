@@ -438,7 +438,7 @@ impl Stability {
         let model = &self.refined.model;
         let mapped = self.refined.map_case(case);
         let loads = case_loads(model, &self.elems, &mapped);
-        let u_free = refined_solve(model, &self.numbering, &self.elems, &self.factor, &loads)?;
+        let (u_free, _) = refined_solve(model, &self.numbering, &self.elems, &self.factor, &loads)?;
         let u = node_displacements(&self.numbering, &u_free, &loads.prescribed);
         Ok(model
             .members
