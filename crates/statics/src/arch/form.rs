@@ -111,11 +111,26 @@ impl PanelLoads {
     /// load; summed per rib node it is the form-finding load.
     pub fn joint_loads(&self, f: &Layout, topo: &Topology, rib_y: &[f64]) -> Vec<(Joint, f64)> {
         let mut out: Vec<(Joint, f64)> = Vec::new();
+        // where each joint's entry is in `out` (joints listed in the order first loaded);
+        // a search of `out` instead made this grow as the square of the panel count
+        let mut deck_at: Vec<Option<usize>> = vec![None; f.panels + 1];
+        let mut rib_at: Vec<Option<usize>> = vec![None; f.last_rib() + 1];
         let mut add = |j: Joint, p: f64| {
-            if let Some(e) = out.iter_mut().find(|e| e.0 == j) {
-                e.1 += p;
-            } else {
-                out.push((j, p));
+            let slot = match j {
+                Joint::Deck(i) => deck_at.get_mut(i),
+                Joint::Rib(r) => rib_at.get_mut(r),
+            };
+            match slot {
+                Some(Some(k)) => out[*k].1 += p,
+                Some(at) => {
+                    *at = Some(out.len());
+                    out.push((j, p));
+                }
+                // a joint beyond the layout's (not made by a layout): kept all the same
+                None => match out.iter_mut().find(|e| e.0 == j) {
+                    Some(e) => e.1 += p,
+                    None => out.push((j, p)),
+                },
             }
         };
         // deck: simple-span reactions of every span over the arch and the two last

@@ -98,6 +98,38 @@ pub fn simple_beam_moment(xa: f64, xb: f64, loads: &[VerticalLoad], x: f64) -> f
     m
 }
 
+/// [`simple_beam_moment`] at each of the points `at`, in their order: the same values (to
+/// rounding) in O((n + m) log n) rather than n m: with the loads sorted by position,
+/// M(x) = (x_B - x) / L sum_{x_i <= x} P_i (x_i - x_A) + (x - x_A) / L sum_{x_i > x} P_i (x_B - x_i)
+/// from a running sum each way.
+pub fn simple_beam_moments(xa: f64, xb: f64, loads: &[VerticalLoad], at: &[f64]) -> Vec<f64> {
+    let l = xb - xa;
+    if l.is_nan() || l <= 0.0 {
+        return vec![0.0; at.len()];
+    }
+    let mut sorted: Vec<(f64, f64)> = loads.iter().map(|q| (q.x.clamp(xa, xb), q.p)).collect();
+    sorted.sort_by(|a, b| a.0.total_cmp(&b.0));
+    // before[k]: sum of P_i (x_i - x_A) over the first k loads; after[k]: of P_i (x_B - x_i)
+    // over the loads from k on
+    let mut before = vec![0.0; sorted.len() + 1];
+    let mut after = vec![0.0; sorted.len() + 1];
+    for (k, (xi, p)) in sorted.iter().enumerate() {
+        before[k + 1] = before[k] + p * (xi - xa);
+    }
+    for (k, (xi, p)) in sorted.iter().enumerate().rev() {
+        after[k] = after[k + 1] + p * (xb - xi);
+    }
+    at.iter()
+        .map(|&x| {
+            if x.is_nan() || x <= xa || x >= xb {
+                return 0.0;
+            }
+            let k = sorted.partition_point(|(xi, _)| *xi <= x);
+            ((xb - x) * before[k] + (x - xa) * after[k]) / l
+        })
+        .collect()
+}
+
 /// Simple-beam reactions (R_A, R_B), kN up, of vertical loads (kN down) on a beam from
 /// `xa` to `xb`; (0, 0) for a zero-length span.
 pub fn simple_beam_reactions(xa: f64, xb: f64, loads: &[VerticalLoad]) -> (f64, f64) {
@@ -149,7 +181,9 @@ pub fn three_point(
     }
     let h = mc / rise;
     let chord = |x: f64| a.y + (b.y - a.y) * (x - a.x) / l;
-    let y = loads.iter().map(|q| chord(q.x) + simple_beam_moment(a.x, b.x, loads, q.x) / h).collect();
+    let at: Vec<f64> = loads.iter().map(|q| q.x).collect();
+    let y =
+        at.iter().zip(simple_beam_moments(a.x, b.x, loads, &at)).map(|(&x, m)| chord(x) + m / h).collect();
     let (ra, rb) = simple_beam_reactions(a.x, b.x, loads);
     let shift = h * (b.y - a.y) / l;
     Ok(ThreePointFunicular {
@@ -677,6 +711,28 @@ mod tests {
         assert!((simple_beam_moment(0.0, 10.0, &loads, 3.0) - 10.0 * 3.0 * 7.0 / 10.0).abs() < 1e-12);
         assert!((simple_beam_moment(0.0, 10.0, &loads, 8.0) - 10.0 * 3.0 * 2.0 / 10.0).abs() < 1e-12);
         assert_eq!(simple_beam_moment(0.0, 10.0, &loads, 0.0), 0.0);
+    }
+
+    /// The running-sum moments equal the direct sum at every point: loads unsorted, two
+    /// at one place, one past a support (clamped to it), points at and beyond the
+    /// supports and at the loads themselves.
+    #[test]
+    fn moments_by_running_sums_equal_the_direct_sum() {
+        let loads = [
+            VerticalLoad { x: 7.5, p: 12.0 },
+            VerticalLoad { x: 2.0, p: 5.0 },
+            VerticalLoad { x: 7.5, p: -3.0 },
+            VerticalLoad { x: 11.0, p: 4.0 },
+            VerticalLoad { x: 0.0, p: 9.0 },
+            VerticalLoad { x: 4.25, p: 1.5 },
+        ];
+        let at = [-1.0, 0.0, 2.0, 3.0, 4.25, 5.0, 7.5, 9.99, 10.0, 12.0];
+        let fast = simple_beam_moments(0.0, 10.0, &loads, &at);
+        for (x, m) in at.iter().zip(&fast) {
+            let direct = simple_beam_moment(0.0, 10.0, &loads, *x);
+            assert!((m - direct).abs() <= 1e-12 * 100.0, "x = {x}: {m} against {direct}");
+        }
+        assert_eq!(simple_beam_moments(3.0, 3.0, &loads, &at), vec![0.0; at.len()]);
     }
 
     #[test]
