@@ -26,6 +26,7 @@ use springline_statics::arch::analysis::analyze;
 use springline_statics::Design;
 use springline_tests::page::{canvas_origin, dist, open_url, to_px, transform, WAIT};
 use springline_tests::serve::StaticServer;
+use springline_tests::stats::percentile;
 use springline_tests::webdriver::{Driver, Session};
 use springline_tests::workspace_root;
 use std::fmt::Write as _;
@@ -144,12 +145,6 @@ fn step(s: &Session, arg: Value) -> Sample {
         }
     }
     sample
-}
-
-fn percentile(mut v: Vec<f64>, p: f64) -> f64 {
-    v.sort_by(f64::total_cmp);
-    let rank = ((p / 100.0) * v.len() as f64).ceil().max(1.0) as usize;
-    v.get(rank.min(v.len()).saturating_sub(1)).copied().unwrap_or(f64::NAN)
 }
 
 fn mean(v: &[f64]) -> f64 {

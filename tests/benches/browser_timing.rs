@@ -9,6 +9,7 @@
 use serde_json::json;
 use springline_tests::page::{dist, open, set_field, WAIT};
 use springline_tests::serve::StaticServer;
+use springline_tests::stats::percentile;
 use springline_tests::webdriver::Driver;
 use std::time::Instant;
 
@@ -84,13 +85,6 @@ const SWEEP_RUN: &str = "
 fn median(mut v: Vec<f64>) -> f64 {
     v.sort_by(|a, b| a.total_cmp(b));
     v[v.len() / 2]
-}
-
-/// The `p`-th percentile (0 to 100) of `v`, nearest rank.
-fn percentile(mut v: Vec<f64>, p: f64) -> f64 {
-    v.sort_by(|a, b| a.total_cmp(b));
-    let rank = ((p / 100.0) * v.len() as f64).ceil().max(1.0) as usize;
-    v[rank.min(v.len()) - 1]
 }
 
 fn numbers(v: &serde_json::Value) -> Vec<f64> {

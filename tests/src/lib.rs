@@ -4,6 +4,7 @@
 pub mod cli;
 pub mod page;
 pub mod serve;
+pub mod stats;
 pub mod webdriver;
 
 /// The workspace root (the folder holding the root Cargo.toml).

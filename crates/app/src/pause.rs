@@ -12,21 +12,46 @@ use std::time::Duration;
 /// dragging nothing is scheduled (the design is not even read), so the last results
 /// stay. Installed once, with the state, so the results outlive any redraw.
 pub fn when_edits_pause(state: AppState, delay: Duration, task: impl Fn(Design) + Copy + 'static) {
+    when_rested(move || (!state.dragging.get()).then(|| state.design.get()), delay, task);
+}
+
+/// Runs `task` with the value `watch` gives once that value has rested for `delay`: an
+/// effect reads it on every change it tracks and schedules the run, and a newer change
+/// makes an older pending run skip. `None` schedules nothing.
+pub fn when_rested<T: 'static>(
+    watch: impl Fn() -> Option<T> + 'static,
+    delay: Duration,
+    task: impl Fn(T) + Copy + 'static,
+) {
     let generation = StoredValue::new(0u64);
     Effect::new(move |_| {
-        if state.dragging.get() {
-            return;
-        }
-        let design = state.design.get();
+        let Some(value) = watch() else { return };
         let this = generation.get_value().wrapping_add(1);
         generation.set_value(this);
         set_timeout(
             move || {
                 if generation.get_value() == this {
-                    task(design);
+                    task(value);
                 }
             },
             delay,
         );
     });
+}
+
+/// `make`'s value, recomputed when what it reads changes except while a point is
+/// dragged: then the value from before the drag stays (a link, say, is encoded once the
+/// drag ends rather than on every pointer move).
+pub fn held_while_dragging<T: Clone + PartialEq + Send + Sync + 'static>(
+    state: AppState,
+    make: impl Fn() -> T + Send + Sync + 'static,
+) -> Memo<T> {
+    Memo::new(move |previous: Option<&T>| {
+        if state.dragging.get() {
+            if let Some(p) = previous {
+                return p.clone();
+            }
+        }
+        make()
+    })
 }

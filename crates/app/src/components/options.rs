@@ -95,12 +95,7 @@ pub fn OptionsPanel() -> impl IntoView {
         }
     };
     // encoded once a drag ends, not on every pointer move
-    let meeting_link = Memo::new(move |previous: Option<&String>| {
-        if state.dragging.get() {
-            if let Some(p) = previous {
-                return p.clone();
-            }
-        }
+    let meeting_link = crate::pause::held_while_dragging(state, move || {
         state.design.track();
         options.saved.track();
         options.shared.track();

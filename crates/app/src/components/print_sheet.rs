@@ -26,12 +26,7 @@ pub fn PrintSheet() -> impl IntoView {
     let state = expect_context::<AppState>();
     let node: NodeRef<Canvas> = NodeRef::new();
     // the link once a drag ends (not on every pointer move)
-    let link = Memo::new(move |previous: Option<&String>| {
-        if state.dragging.get() {
-            if let Some(p) = previous {
-                return p.clone();
-            }
-        }
+    let link = crate::pause::held_while_dragging(state, move || {
         state.design.track();
         state.units.track();
         link_to_open_design(state).unwrap_or_default()
@@ -39,20 +34,7 @@ pub fn PrintSheet() -> impl IntoView {
     // The code is drawn once the link has rested (choosing its mask takes about 10 ms
     // for a design link, too long for every edit's frame) and again just before printing.
     let coded = RwSignal::new(String::new());
-    let generation = StoredValue::new(0u64);
-    Effect::new(move |_| {
-        let text = link.get();
-        let this = generation.get_value().wrapping_add(1);
-        generation.set_value(this);
-        set_timeout(
-            move || {
-                if generation.get_value() == this {
-                    coded.set(text);
-                }
-            },
-            QR_DELAY,
-        );
-    });
+    crate::pause::when_rested(move || Some(link.get()), QR_DELAY, move |text| coded.set(text));
     let fits = RwSignal::new(true);
     // the text of the code on the canvas (none until the link first rests)
     let drawn = StoredValue::new(String::new());
