@@ -21,6 +21,13 @@
 //! (looking from a member's start to its end) is in tension (sagging for members drawn
 //! left to right).
 #![warn(missing_docs)]
+// User data must never panic the engine: every problem is returned as a `StaticsError`.
+// The few exceptions (indexing in the numeric kernels) are listed in the module docs of
+// `frame` and `graphic`.
+#![cfg_attr(
+    not(test),
+    deny(clippy::unwrap_used, clippy::expect_used, clippy::panic, clippy::indexing_slicing)
+)]
 
 pub mod error;
 pub mod geom;

@@ -165,3 +165,40 @@ fn rib_member_naming_a_missing_node_is_an_error() {
     // the valid member alone is a chain of one, run forwards from the left end
     assert_eq!(rib_chain(&m, &[0]), Ok(vec![(0, true)]));
 }
+
+/// An axle group whose spacings are each finite but sum beyond floating point (1e308 +
+/// 1e308) passed the envelope's checks, placed an axle at NaN and indexed an influence
+/// line before its start: a panic. Now such an axle reads a zero ordinate.
+#[test]
+fn axle_spacings_that_overflow_do_not_panic_the_envelope() {
+    use springline_statics::frame::envelope::{envelope, AxleGroup, Traffic};
+    let x = [0.0, 5.0, 10.0];
+    let eta = [0.0, 1.0, 0.0];
+    let axles = AxleGroup {
+        loads: vec![100.0, 100.0, 100.0],
+        spacings: vec![1e308, 1e308],
+        variable: None,
+        neglect_relieving: false,
+    };
+    let traffic = Traffic { uniform: 1.0, axles: Some(axles) };
+    if let Ok(e) = envelope(&x, &eta, &traffic) {
+        let text = format!("{e:?}");
+        assert!(!text.contains("NaN"), "{text}");
+    }
+}
+
+/// A load path through a node whose y is not a number panicked in `f64::clamp` (NaN
+/// bound) while the unit load cases were built, before validation could refuse it.
+#[test]
+fn an_influence_path_through_a_nan_node_is_refused_not_a_panic() {
+    use springline_statics::frame::influence::{influence_lines, Stepping};
+    let mut m = Model::default();
+    let a = m.add_node("A", 0.0, 0.0);
+    let b = m.add_node("B", 4.0, f64::NAN);
+    let c = m.add_node("C", 10.0, 0.0);
+    m.add_member(frame("AB", "deck", a, b, 2.0e8, 0.01, 1.0e-3));
+    m.add_member(frame("BC", "deck", b, c, 2.0e8, 0.01, 1.0e-3));
+    m.supports = vec![Support::pinned(a), Support::roller_along_x(c)];
+    let refused = influence_lines(&m, &[a, b, c], Stepping::Every(0.5)).expect_err("a NaN node is refused");
+    assert!(refused.to_string().contains("B"), "{refused}");
+}

@@ -448,7 +448,8 @@ fn solve_actions(valid: &ValidDesign) -> Result<ActionsReport, StaticsError> {
                 .map
                 .rib_members
                 .iter()
-                .flat_map(|&k| [case.members[k].start.m, case.members[k].end.m])
+                .filter_map(|&k| case.members.get(k))
+                .flat_map(|m| [m.start.m, m.end.m])
                 .fold(0.0_f64, |m, v| if v.abs() > m.abs() { v } else { m });
             let n = case.members.iter().flat_map(|m| [m.start.n, m.end.n]);
             let (max_tension, max_compression) = n.fold((0.0_f64, 0.0_f64), |(t, c), v| (t.max(v), c.min(v)));

@@ -79,17 +79,19 @@ pub fn rib_loads(valid: &ValidDesign) -> Result<Vec<NodeLoad>, StaticsError> {
     let mut loads: Vec<NodeLoad> =
         valid.layout().rib_x.iter().map(|&x| NodeLoad { x, px: 0.0, p: 0.0 }).collect();
     let mut couples = vec![0.0; loads.len()];
-    for (r, load) in loads.iter_mut().enumerate() {
-        let node = map.rib_nodes[r];
-        // rib member r - 1 ends at node r, member r starts there
-        let ends =
-            [r.checked_sub(1).map(|k| (map.rib_members[k], 3)), (r < last).then(|| (map.rib_members[r], 0))];
-        for (member, at) in ends.into_iter().flatten() {
-            let actions = &case.members[member].end_actions_global;
-            load.px += actions[at];
-            load.p -= actions[at + 1];
-            load.p += 0.5 * w_rib * case.members[member].length;
-            couples[r] += actions[at + 2];
+    for ((r, load), couple) in loads.iter_mut().enumerate().zip(couples.iter_mut()) {
+        let Some(&node) = map.rib_nodes.get(r) else { continue };
+        // rib member r - 1 ends at node r (true: its end), member r starts there
+        let before = r.checked_sub(1).and_then(|k| map.rib_members.get(k)).map(|&m| (m, true));
+        let after = if r < last { map.rib_members.get(r).map(|&m| (m, false)) } else { None };
+        for (member, at_end) in [before, after].into_iter().flatten() {
+            let Some(forces) = case.members.get(member) else { continue };
+            let a = &forces.end_actions_global;
+            let (fx, fy, mz) = if at_end { (a[3], a[4], a[5]) } else { (a[0], a[1], a[2]) };
+            load.px += fx;
+            load.p -= fy;
+            load.p += 0.5 * w_rib * forces.length;
+            *couple += mz;
         }
         if let Some(reaction) = case.reaction(node) {
             load.px -= reaction.fx;
@@ -102,16 +104,20 @@ pub fn rib_loads(valid: &ValidDesign) -> Result<Vec<NodeLoad>, StaticsError> {
     // and, at its own node, half of it: the found form then splits the couple evenly,
     // -C/2 and +C/2 either side of the node, the least a polygon through the node can do.
     let x = &valid.layout().rib_x;
-    for k in 1..last {
-        let c = couples[k];
+    for (k, &c) in couples.iter().enumerate().take(last).skip(1) {
         if c == 0.0 {
             continue;
         }
         // anticlockwise C = F (x_b - x_a) for F up at x_b and down at x_a
         let (a, b) = if k - 1 > 0 { (k - 1, k + 1) } else { (k, k + 1) };
-        let f = c / (x[b] - x[a]);
-        loads[a].p += f;
-        loads[b].p -= f;
+        let (Some(&xa), Some(&xb)) = (x.get(a), x.get(b)) else { continue };
+        let f = c / (xb - xa);
+        if let Some(load) = loads.get_mut(a) {
+            load.p += f;
+        }
+        if let Some(load) = loads.get_mut(b) {
+            load.p -= f;
+        }
     }
     Ok(loads)
 }

@@ -480,12 +480,15 @@ pub fn doubled_panel(valid: &ValidDesign, panel: usize) -> Result<CaseSpec, Stat
     Ok(doubled_panel_spec(valid, panel))
 }
 
+/// The doubled panel case at `panel`, which must lie inside the arch (1 to panels - 1).
 fn doubled_panel_spec(valid: &ValidDesign, panel: usize) -> CaseSpec {
     let f = valid.layout();
     let p = valid.design().deck_line_load() * f.span() / f.panels as f64;
+    // the panel point's x (a layout has every panel point from 0 to panels)
+    let x = f.panel_x.get(panel).copied().unwrap_or(f64::NAN);
     CaseSpec {
         name: DOUBLED_PANEL.into(),
-        kind: CaseKind::DoubledPanel { panel, load: p, x: f.panel_x[panel] },
+        kind: CaseKind::DoubledPanel { panel, load: p, x },
         with_dead: true,
         loads: vec![DeckLoad::PanelPoint { panel, p }],
         imposed: Vec::new(),
@@ -766,14 +769,17 @@ fn add_imposed(
                 return Ok(());
             }
             let path = load_path(generated);
-            let x: Vec<f64> = path.iter().map(|&n| model.nodes[n].x).collect();
+            let x: Vec<f64> = path.iter().map(|&n| model.nodes.get(n).map_or(f64::NAN, |p| p.x)).collect();
             let length = match (x.first(), x.last()) {
                 (Some(a), Some(b)) if b > a => b - a,
                 _ => return Ok(()),
             };
-            for (i, &node) in path.iter().enumerate() {
-                let before = if i > 0 { x[i] - x[i - 1] } else { 0.0 };
-                let after = if i + 1 < x.len() { x[i + 1] - x[i] } else { 0.0 };
+            // each node's x with its neighbours' (its own where it has none)
+            let before = std::iter::once(None).chain(x.iter().map(Some));
+            let after = x.iter().skip(1).map(Some).chain(std::iter::repeat(None));
+            for ((&node, &xi), (left, right)) in path.iter().zip(&x).zip(before.zip(after)) {
+                let before = left.map_or(0.0, |l| xi - l);
+                let after = right.map_or(0.0, |r| r - xi);
                 let fx = force * 0.5 * (before + after) / length;
                 match lc.nodal.iter_mut().find(|l| l.node == node) {
                     Some(l) => l.fx += fx,
@@ -787,7 +793,8 @@ fn add_imposed(
             }
             let unit_weight = valid.design().groups.rib.unit_weight;
             for &member in &generated.map.rib_members {
-                let w = -unit_weight * model.members[member].a;
+                let Some(m) = model.members.get(member) else { continue };
+                let w = -unit_weight * m.a;
                 lc.member.push(MemberLoad::Uniform {
                     member,
                     w,

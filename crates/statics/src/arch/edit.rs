@@ -611,8 +611,11 @@ fn rise_limit(design: &Design, largest: bool) -> Result<RiseLimit, StaticsError>
         .unwrap_or(form.crown);
     // a rib node off the crown at the deck: that is what refused the next rise
     if largest && matches!(bound, RiseBound::Refused(_)) {
-        let at_deck = form.rib[1..last.max(1)]
+        let at_deck = form
+            .rib
             .iter()
+            .take(last.max(1))
+            .skip(1)
             .enumerate()
             .filter(|&(k, n)| k + 1 != form.crown_node && design.deck.level - n.y <= AT_DECK)
             .map(|(_, n)| n.x)

@@ -121,7 +121,11 @@ impl PanelLoads {
                 Joint::Rib(r) => rib_at.get_mut(r),
             };
             match slot {
-                Some(Some(k)) => out[*k].1 += p,
+                Some(Some(k)) => {
+                    if let Some(entry) = out.get_mut(*k) {
+                        entry.1 += p;
+                    }
+                }
                 Some(at) => {
                     *at = Some(out.len());
                     out.push((j, p));
@@ -155,7 +159,7 @@ impl PanelLoads {
         }
         // posts (deck to rib, vertical)
         for &(i, r) in &topo.posts {
-            let w = self.post * (f.deck_level - rib_y[r]).max(0.0);
+            let w = self.post * (f.deck_level - position(f, rib_y, Joint::Rib(r)).y).max(0.0);
             add(Joint::Deck(i), 0.5 * w);
             add(Joint::Rib(r), 0.5 * w);
         }
@@ -175,7 +179,9 @@ impl LoadBasis for PanelLoads {
     fn gather(&self, f: &Layout, topo: &Topology, rib_y: &[f64]) -> Result<Vec<NodeLoad>, StaticsError> {
         let mut p: Vec<NodeLoad> = f.rib_x.iter().map(|&x| NodeLoad { x, px: 0.0, p: 0.0 }).collect();
         for (j, w) in self.joint_loads(f, topo, rib_y) {
-            p[topo.rib_of(f, j)].p += w;
+            if let Some(q) = p.get_mut(topo.rib_of(f, j)) {
+                q.p += w;
+            }
         }
         Ok(p)
     }
@@ -308,30 +314,30 @@ const ANDERSON_MEMORY: usize = 24;
 /// that is affine in the levels (the loads follow the shape linearly) it finds the fixed
 /// point in about as many steps as there are levels, where the plain loop creeps.
 fn anderson_step(shapes: &[Vec<f64>], images: &[Vec<f64>]) -> Vec<f64> {
-    let k = shapes.len() - 1;
-    let n = shapes[k].len();
-    let residual = |j: usize| -> Vec<f64> { images[j].iter().zip(&shapes[j]).map(|(g, y)| g - y).collect() };
+    // f_j = G(y_j) - y_j for each remembered shape (shapes and images are kept in pairs)
+    let residuals: Vec<Vec<f64>> =
+        images.iter().zip(shapes).map(|(g, y)| g.iter().zip(y).map(|(g, y)| g - y).collect()).collect();
+    let (Some(f_k), Some(image_k)) = (residuals.last(), images.last()) else { return Vec::new() };
+    let k = residuals.len() - 1;
     if k == 0 {
-        return images[0].clone();
+        return image_k.clone();
     }
-    let f_k = residual(k);
-    let mut d_f = nalgebra::DMatrix::zeros(n, k);
-    let mut d_g = nalgebra::DMatrix::zeros(n, k);
-    for j in 0..k {
-        let (f0, f1) = (residual(j), residual(j + 1));
-        for i in 0..n {
-            d_f[(i, j)] = f1[i] - f0[i];
-            d_g[(i, j)] = images[j + 1][i] - images[j][i];
-        }
-    }
+    let n = f_k.len();
+    // the differences of successive vectors, column after column (column-major)
+    let differences = |v: &[Vec<f64>]| -> nalgebra::DMatrix<f64> {
+        let columns = v.iter().zip(v.iter().skip(1));
+        let data: Vec<f64> = columns.flat_map(|(a, b)| b.iter().zip(a).map(|(b, a)| b - a)).collect();
+        nalgebra::DMatrix::from_vec(n, k, data)
+    };
+    let (d_f, d_g) = (differences(&residuals), differences(images));
     let scale = f_k.iter().fold(0.0f64, |m, v| m.max(v.abs())).max(f64::MIN_POSITIVE);
-    let gamma = d_f.svd(true, true).solve(&nalgebra::DVector::from_vec(f_k), scale * 1e-12);
+    let gamma = d_f.svd(true, true).solve(&nalgebra::DVector::from_vec(f_k.clone()), scale * 1e-12);
     match gamma {
         Ok(gamma) => {
             let step = d_g * gamma;
-            images[k].iter().zip(step.iter()).map(|(g, s)| g - s).collect()
+            image_k.iter().zip(step.iter()).map(|(g, s)| g - s).collect()
         }
-        Err(_) => images[k].clone(),
+        Err(_) => image_k.clone(),
     }
 }
 
@@ -347,8 +353,14 @@ pub(crate) fn iterate(
 ) -> Result<Form, StaticsError> {
     let mut y = start;
     let last = frame.last_rib();
-    y[0] = frame.a.y;
-    y[last] = frame.b.y;
+    if let Some(left) = y.first_mut() {
+        *left = frame.a.y;
+    }
+    if let Some(right) = y.get_mut(last) {
+        *right = frame.b.y;
+    }
+    // the crown node sits exactly on the crown point
+    let crown_y = frame.chord(frame.xc) + frame.rise;
     let (a, b) = (frame.a, frame.b);
     let mut change = f64::INFINITY;
     let mut iterations = 0;
@@ -391,7 +403,7 @@ pub(crate) fn iterate(
                     // the same set as the last shape: no flip
                     Some(k) if k + 1 == seen.len() => topo,
                     Some(k) => {
-                        let mut union: Vec<usize> = seen[k..].iter().flatten().copied().collect();
+                        let mut union: Vec<usize> = seen.iter().skip(k).flatten().copied().collect();
                         union.sort_unstable();
                         union.dedup();
                         frozen = Some(union.clone());
@@ -413,7 +425,8 @@ pub(crate) fn iterate(
                  give the rib its weight",
             )
         };
-        let interior = &p[1..last];
+        // the springings' loads go straight into the supports
+        let interior = p.get(1..last).unwrap_or_default();
         // (interior levels, H at A, H at B, V at A, V at B), the vertical construction
         // exactly as by hand when no load has a horizontal component
         let (levels, h_a, h_b, v_a, v_b) = if interior.iter().all(|q| q.px == 0.0) {
@@ -426,11 +439,13 @@ pub(crate) fn iterate(
             (fun.y, fun.thrust_a, fun.thrust_b, fun.reaction_a, fun.reaction_b)
         };
         let mut new_y = y.clone();
-        for (k, yk) in levels.iter().enumerate() {
-            new_y[k + 1] = *yk;
+        for (slot, yk) in new_y.iter_mut().skip(1).zip(&levels) {
+            *slot = *yk;
         }
         // the crown node sits exactly on the crown point (identity up to round-off)
-        new_y[frame.crown] = frame.chord(frame.xc) + frame.rise;
+        if let Some(crown) = new_y.get_mut(frame.crown) {
+            *crown = crown_y;
+        }
         change = y.iter().zip(&new_y).map(|(u, v)| (u - v).abs()).fold(0.0, f64::max);
         if settings.accelerate && change > settings.tolerance * frame.rise {
             shapes.push(std::mem::take(&mut y));
@@ -458,31 +473,47 @@ pub(crate) fn iterate(
         }
         if change <= settings.tolerance * frame.rise {
             let shared = topo.shared.clone();
-            let post_of =
-                |r: usize| topo.posts.iter().find(|&&(_, pr)| pr == r).map(|_| frame.deck_level - y[r]);
-            let rib = (0..=last)
-                .map(|r| RibNode {
-                    x: frame.rib_x[r],
-                    y: y[r],
-                    load: p[r].p,
-                    load_x: p[r].px,
-                    panel: frame.rib_panel[r],
+            let post_of = |r: usize| {
+                topo.posts
+                    .iter()
+                    .find(|&&(_, pr)| pr == r)
+                    .and_then(|_| y.get(r))
+                    .map(|y_r| frame.deck_level - y_r)
+            };
+            // one entry per rib node in each list
+            let rib = frame
+                .rib_x
+                .iter()
+                .zip(&y)
+                .zip(&p)
+                .zip(&frame.rib_panel)
+                .enumerate()
+                .take(last + 1)
+                .map(|(r, (((&x, &y_r), load), &panel))| RibNode {
+                    x,
+                    y: y_r,
+                    load: load.p,
+                    load_x: load.px,
+                    panel,
                     shared_with_deck: shared.contains(&r),
                     post_length: post_of(r),
                 })
                 .collect();
+            // (horizontal, vertical) load at each springing (none when it has no entry)
+            let springing = |r: usize| p.get(r).map_or((0.0, 0.0), |q| (q.px, q.p));
+            let ((px_a, p_a), (px_b, p_b)) = (springing(0), springing(last));
             return Ok(Form {
                 basis: basis.basis(),
                 springing_left: a,
                 springing_right: b,
-                crown: Point { x: frame.xc, y: y[frame.crown] },
+                crown: Point { x: frame.xc, y: crown_y },
                 span: frame.span(),
                 rise: frame.rise,
                 rib,
                 crown_node: frame.crown,
-                thrust: (h_a - p[0].px).max(h_b + p[last].px),
-                reaction_left: ArchReaction { fx: h_a - p[0].px, fy: v_a + p[0].p },
-                reaction_right: ArchReaction { fx: -h_b - p[last].px, fy: v_b + p[last].p },
+                thrust: (h_a - px_a).max(h_b + px_b),
+                reaction_left: ArchReaction { fx: h_a - px_a, fy: v_a + p_a },
+                reaction_right: ArchReaction { fx: -h_b - px_b, fy: v_b + p_b },
                 iterations,
                 final_change: change,
                 tolerance: settings.tolerance,

@@ -298,7 +298,7 @@ impl<'a> Builder<'a> {
         let last = self.f.last_rib();
         match j {
             Joint::Rib(r) => {
-                if let Some(k) = self.rib[r] {
+                if let Some(&Some(k)) = self.rib.get(r) {
                     return k;
                 }
                 let name = if r == 0 {
@@ -310,17 +310,22 @@ impl<'a> Builder<'a> {
                 } else {
                     format!("r{r}")
                 };
-                let k = self.model.add_node(name, self.f.rib_x[r], self.y[r]);
-                self.rib[r] = Some(k);
+                let at = position(self.f, &self.y, j);
+                let k = self.model.add_node(name, at.x, at.y);
+                if let Some(slot) = self.rib.get_mut(r) {
+                    *slot = Some(k);
+                }
                 k
             }
             Joint::Deck(i) => {
-                if let Some(k) = self.deck[i] {
+                if let Some(&Some(k)) = self.deck.get(i) {
                     return k;
                 }
                 let at = position(self.f, &self.y, j);
                 let k = self.model.add_node(format!("d{i}"), at.x, at.y);
-                self.deck[i] = Some(k);
+                if let Some(slot) = self.deck.get_mut(i) {
+                    *slot = Some(k);
+                }
                 k
             }
         }
@@ -350,22 +355,20 @@ impl<'a> Builder<'a> {
         let rib_nodes: Vec<usize> = self.rib.iter().map(|k| k.unwrap_or(usize::MAX)).collect();
         // model node -> layout joint, to name every member by the joints at its ends
         let mut joint_at: Vec<Option<Joint>> = vec![None; self.model.nodes.len()];
-        for (r, k) in self.rib.iter().enumerate() {
-            if let Some(k) = *k {
-                joint_at[k] = Some(Joint::Rib(r));
+        let joints = self.rib.iter().enumerate().map(|(r, k)| (*k, Joint::Rib(r)));
+        for (k, joint) in joints.chain(self.deck.iter().enumerate().map(|(i, k)| (*k, Joint::Deck(i)))) {
+            if let Some(slot) = k.and_then(|k| joint_at.get_mut(k)) {
+                *slot = Some(joint);
             }
         }
-        for (i, k) in self.deck.iter().enumerate() {
-            if let Some(k) = *k {
-                joint_at[k] = Some(Joint::Deck(i));
-            }
-        }
+        let joint_of = |node: usize| joint_at.get(node).copied().flatten();
         let member_joints =
-            self.model.members.iter().map(|m| Some([joint_at[m.start]?, joint_at[m.end]?])).collect();
+            self.model.members.iter().map(|m| Some([joint_of(m.start)?, joint_of(m.end)?])).collect();
+        let rib_node = |r: usize| rib_nodes.get(r).copied().unwrap_or(usize::MAX);
         let map = ModelMap {
             roles: self.roles,
-            springings: [rib_nodes[0], rib_nodes[last]],
-            crown: rib_nodes[self.f.crown],
+            springings: [rib_node(0), rib_node(last)],
+            crown: rib_node(self.f.crown),
             rib_nodes,
             deck_nodes: self.deck,
             rib_members: self.rib_members,
@@ -396,9 +399,9 @@ fn add_rib(b: &mut Builder, valid: &ValidDesign) {
     for r in 0..last {
         let (p, q) = (b.joint(Joint::Rib(r)), b.joint(Joint::Rib(r + 1)));
         let k = b.frame_member(format!("rib {}-{}", r, r + 1), MemberRole::Rib, p, q, &design.groups.rib);
-        if design.rib_system == RibSystem::ThreeHinged {
-            b.model.members[k].release_start = r == f.crown;
-            b.model.members[k].release_end = r + 1 == f.crown;
+        if let (RibSystem::ThreeHinged, Some(m)) = (design.rib_system, b.model.members.get_mut(k)) {
+            m.release_start = r == f.crown;
+            m.release_end = r + 1 == f.crown;
         }
         b.rib_members.push(k);
     }
@@ -497,7 +500,9 @@ pub fn frame_model(valid: &ValidDesign) -> Generated {
             (f.seats.1, &f.piers_right, Joint::Deck(f.panels), "R")
         };
         let seat = b.model.add_node(format!("seat {side}"), seat_x, f.deck_level);
-        seats[side_index] = seat;
+        if let Some(slot) = seats.get_mut(side_index) {
+            *slot = seat;
+        }
         let mut chain = vec![seat];
         // piers from the seat towards the arch (`piers_right` runs from the arch outwards)
         let from_seat: Vec<Point> = if left { piers.clone() } else { piers.iter().rev().copied().collect() };
@@ -514,16 +519,14 @@ pub fn frame_model(valid: &ValidDesign) -> Generated {
         if !left {
             chain.reverse();
         }
-        for (k, w) in chain.windows(2).enumerate() {
-            let m = b.frame_member(
-                format!("approach {side}{}", k + 1),
-                MemberRole::Approach,
-                w[0],
-                w[1],
-                &g.deck,
-            );
-            b.model.members[m].release_start = true;
-            b.model.members[m].release_end = true;
+        for (k, (&from, &to)) in chain.iter().zip(chain.iter().skip(1)).enumerate() {
+            let m =
+                b.frame_member(format!("approach {side}{}", k + 1), MemberRole::Approach, from, to, &g.deck);
+            if let Some(member) = b.model.members.get_mut(m) {
+                // a simple span: released at both ends
+                member.release_start = true;
+                member.release_end = true;
+            }
             if w_deck > 0.0 {
                 lc.member.push(gravity(m, w_deck, false));
             }

@@ -69,7 +69,8 @@ impl ArchLine {
                 if let Some(k) = by_name(name) {
                     Some(ArchLine::Axial(k))
                 } else if let Some((member, end)) = name.rsplit_once('/') {
-                    let frame_member = by_name(member).filter(|&k| members[k].kind == MemberKind::Frame);
+                    let frame_member = by_name(member)
+                        .filter(|&k| members.get(k).is_some_and(|m| m.kind == MemberKind::Frame));
                     match (frame_member, end) {
                         (Some(k), "m-start") => Some(ArchLine::Moment(k, MemberEnd::Start)),
                         (Some(k), "m-end") => Some(ArchLine::Moment(k, MemberEnd::End)),
@@ -210,12 +211,16 @@ pub fn values_of(
     line: &ArchLine,
 ) -> Result<Vec<f64>, StaticsError> {
     let springing = |side: &Side| {
-        let node = generated.map.springings[if *side == Side::Left { 0 } else { 1 }];
+        let [left, right] = generated.map.springings;
+        let node = if *side == Side::Left { left } else { right };
         let reaction = |dof| lines.ordinates(Quantity::Reaction { node, dof });
         let (fx, fy, mz) = (reaction(Dof::X)?, reaction(Dof::Y)?, reaction(Dof::Rz)?);
+        // one value per case in each
         Ok::<Vec<SpringingForce>, StaticsError>(
-            (0..fx.len())
-                .map(|k| SpringingForce::from_reaction(fx[k], fy[k], mz[k], *side == Side::Left))
+            fx.iter()
+                .zip(&fy)
+                .zip(&mz)
+                .map(|((&fx, &fy), &mz)| SpringingForce::from_reaction(fx, fy, mz, *side == Side::Left))
                 .collect(),
         )
     };
@@ -250,7 +255,8 @@ pub fn load_path(generated: &Generated) -> Vec<usize> {
         n.dedup();
         n
     };
-    nodes.sort_by(|a, b| model.nodes[*a].x.total_cmp(&model.nodes[*b].x));
+    let x = |node: &usize| model.nodes.get(*node).map_or(f64::NAN, |n| n.x);
+    nodes.sort_by(|a, b| x(a).total_cmp(&x(b)));
     nodes
 }
 

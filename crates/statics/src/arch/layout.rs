@@ -179,8 +179,9 @@ impl Topology {
                     return false; // nothing crosses the three-hinged crown
                 }
                 // a post of (nearly) zero length is no post: share the node even when the
-                // user's minimum is zero
-                let gap = f.deck_level - rib_y[r];
+                // user's minimum is zero (a rib node without a level shares nothing)
+                let Some(&y) = rib_y.get(r) else { return false };
+                let gap = f.deck_level - y;
                 gap < min_post || gap <= SHARED_NODE_GAP * (f.b.x - f.a.x).abs()
             })
             .collect();
@@ -216,8 +217,7 @@ impl Topology {
         let mut deck = Vec::new();
         let mut drop_in = None;
         let (dl, dr) = if n % 2 == 0 { (n / 2 - 1, n / 2 + 1) } else { (n / 2, n / 2 + 1) };
-        for w in line.windows(2) {
-            let pair = (w[0], w[1]);
+        for pair in line.iter().copied().zip(line.iter().copied().skip(1)) {
             if three && pair == (deck_joint(dl), deck_joint(dr)) {
                 drop_in = Some(pair);
             } else {
@@ -328,11 +328,14 @@ impl Topology {
     }
 }
 
-/// Position of a joint, m.
+/// Position of a joint, m, with the rib at levels `rib_y` (one per rib node). A joint the
+/// layout does not have (or a rib node without a level) has NaN coordinates, which model
+/// validation and form finding then refuse.
 pub fn position(f: &Layout, rib_y: &[f64], j: Joint) -> Point {
+    let or_nan = |v: Option<&f64>| v.copied().unwrap_or(f64::NAN);
     match j {
-        Joint::Rib(r) => Point::new(f.rib_x[r], rib_y[r]),
-        Joint::Deck(i) => Point::new(f.panel_x[i], f.deck_level),
+        Joint::Rib(r) => Point::new(or_nan(f.rib_x.get(r)), or_nan(rib_y.get(r))),
+        Joint::Deck(i) => Point::new(or_nan(f.panel_x.get(i)), f.deck_level),
     }
 }
 

@@ -111,11 +111,7 @@ pub fn quantities(valid: &ValidDesign, sizing: &MemberSizingReport, foundations:
             .iter()
             .enumerate()
             .filter(|(_, r)| group_of(**r) == g)
-            .map(|(k, _)| {
-                let m = &model.members[k];
-                let (a, b) = (&model.nodes[m.start], &model.nodes[m.end]);
-                (b.x - a.x).hypot(b.y - a.y)
-            })
+            .map(|(k, _)| model.member_length(k))
             .sum::<f64>()
             * ribs;
         let report = sizing.groups.iter().find(|r| r.group == g.key());

@@ -164,9 +164,10 @@ fn clean(v: f64, reference: f64) -> f64 {
     }
 }
 
-fn forces_in(kind: ModelKind, member: usize, case: &CaseResult, role: MemberRole) -> ModelForces {
+/// What `member` carries in `case`; `None` when the case has no such member.
+fn forces_in(kind: ModelKind, member: usize, case: &CaseResult, role: MemberRole) -> Option<ModelForces> {
     let EquilibriumCheck { reference, characteristic_length, .. } = case.equilibrium;
-    let f = &case.members[member];
+    let f = case.members.get(member)?;
     let bends = kind == ModelKind::Frame && matches!(role, MemberRole::Rib | MemberRole::Deck);
     let m_ref = reference * characteristic_length;
     let moments = bends.then(|| {
@@ -179,13 +180,13 @@ fn forces_in(kind: ModelKind, member: usize, case: &CaseResult, role: MemberRole
             .unwrap_or(0.0);
         Moments { start: clean(f.start.m, m_ref), end: clean(f.end.m, m_ref), largest: clean(largest, m_ref) }
     });
-    ModelForces {
+    Some(ModelForces {
         model: kind,
         member,
         n_start: clean(f.start.n, reference),
         n_end: clean(f.end.n, reference),
         moments,
-    }
+    })
 }
 
 /// What member `key` carries in load case `case` (index into `Analysis::load_cases`; the
@@ -197,13 +198,15 @@ pub fn readout(analysis: &Analysis, ribs: usize, key: &MemberKey, case: usize) -
     let case = if case < frame_cases.len() { case } else { 0 };
     let role = key.role();
     let frame = match (key.member_in(&analysis.frame.map, ModelKind::Frame), frame_cases.get(case)) {
-        (Some(k), Some(c)) => InModel::Carries(forces_in(ModelKind::Frame, k, c, role)),
+        (Some(k), Some(c)) => {
+            forces_in(ModelKind::Frame, k, c, role).map_or(InModel::Absent, InModel::Carries)
+        }
         _ => InModel::Absent,
     };
     let truss = analysis.truss.as_ref().map(|t| match key.member_in(&t.map, ModelKind::Truss) {
         None => InModel::Absent,
         Some(k) => match t.solution.as_ref().and_then(|s| s.cases.get(case)) {
-            Some(c) => InModel::Carries(forces_in(ModelKind::Truss, k, c, role)),
+            Some(c) => forces_in(ModelKind::Truss, k, c, role).map_or(InModel::Absent, InModel::Carries),
             None => InModel::Unsolved,
         },
     });

@@ -158,13 +158,14 @@ pub fn clearance(valid: &ValidDesign) -> f64 {
     let underside = d.deck.level - d.groups.deck.depth;
     let half = 0.5 * d.groups.rib.depth;
     let rib = &valid.form().rib;
-    rib.windows(2)
-        .flat_map(|w| {
-            let (dx, dy) = (w[1].x - w[0].x, w[1].y - w[0].y);
+    rib.iter()
+        .zip(rib.iter().skip(1))
+        .flat_map(|(a, b)| {
+            let (dx, dy) = (b.x - a.x, b.y - a.y);
             let length = dx.hypot(dy);
             let up = if length > 0.0 { half * length / dx.abs().max(1e-12) } else { half };
             // vertical offset of the extrados: half the depth over the cosine
-            [underside - (w[0].y + up), underside - (w[1].y + up)]
+            [underside - (a.y + up), underside - (b.y + up)]
         })
         .fold(f64::INFINITY, f64::min)
 }
@@ -235,16 +236,16 @@ pub fn seek(design: &Design, goal: Goal) -> Result<SeekReport, StaticsError> {
         (0..SCAN_STEPS).map(|i| low + (high - low) * i as f64 / (SCAN_STEPS - 1) as f64).collect();
     let scan: Vec<(f64, Result<f64, String>)> = rises.iter().map(|&r| (r, eval(r))).collect();
     let ok: Vec<(f64, f64)> = scan.iter().filter_map(|(r, v)| v.as_ref().ok().map(|v| (*r, *v))).collect();
-    if ok.is_empty() {
+    let Some(&first) = ok.first() else {
         let why = scan.iter().find_map(|(_, v)| v.as_ref().err().cloned()).unwrap_or_default();
         return Err(refuse(format!("no rise from {low:.3} to {high:.3} m can be evaluated: {why}")));
-    }
+    };
     // the outcome: (met, rise, value, how)
     let (met, rise, value) = match goal {
         Goal::MaxThrust { thrust } => {
             // the lowest rise at or below the thrust: the first scan point that is, and
             // the boundary between it and the point before
-            match ok.iter().position(|(_, h)| *h <= thrust) {
+            match ok.iter().enumerate().find(|(_, (_, h))| *h <= thrust) {
                 None => {
                     let (r, h) =
                         ok.iter()
@@ -252,19 +253,22 @@ pub fn seek(design: &Design, goal: Goal) -> Result<SeekReport, StaticsError> {
                             .fold((f64::NAN, f64::INFINITY), |b, p| if p.1 < b.1 { p } else { b });
                     (false, r, h)
                 }
-                Some(0) => (true, ok[0].0, ok[0].1),
-                Some(i) => {
-                    let (r, h) = boundary(ok[i - 1], ok[i], &mut eval, |h| h <= thrust);
-                    (true, r, h)
-                }
+                Some((i, &at)) => match i.checked_sub(1).and_then(|before| ok.get(before)) {
+                    None => (true, at.0, at.1),
+                    Some(&before) => {
+                        let (r, h) = boundary(before, at, &mut eval, |h| h <= thrust);
+                        (true, r, h)
+                    }
+                },
             }
         }
         Goal::SpringingAngle { degrees, .. } => {
-            let crossing = ok.windows(2).find(|w| (w[0].1 - degrees) * (w[1].1 - degrees) <= 0.0);
+            let crossing =
+                ok.iter().zip(ok.iter().skip(1)).find(|(p, q)| (p.1 - degrees) * (q.1 - degrees) <= 0.0);
             match crossing {
-                Some(w) => {
-                    let rising = w[1].1 >= w[0].1;
-                    let (a, b) = boundary(w[0], w[1], &mut eval, |v| (v >= degrees) == rising);
+                Some((&p, &q)) => {
+                    let rising = q.1 >= p.1;
+                    let (a, b) = boundary(p, q, &mut eval, |v| (v >= degrees) == rising);
                     // the nearer of the two sides of the final bracket is within it
                     (true, a, b)
                 }
@@ -280,7 +284,7 @@ pub fn seek(design: &Design, goal: Goal) -> Result<SeekReport, StaticsError> {
                 }
             }
         }
-        Goal::MinClearance { gap } => match ok.iter().rposition(|(_, g)| *g >= gap) {
+        Goal::MinClearance { gap } => match ok.iter().enumerate().rev().find(|(_, (_, g))| *g >= gap) {
             None => {
                 let p = ok
                     .iter()
@@ -288,18 +292,24 @@ pub fn seek(design: &Design, goal: Goal) -> Result<SeekReport, StaticsError> {
                     .fold((f64::NAN, f64::NEG_INFINITY), |b, p| if p.1 > b.1 { p } else { b });
                 (false, p.0, p.1)
             }
-            Some(i) if i + 1 == ok.len() => (true, ok[i].0, ok[i].1),
-            Some(i) => {
-                // the last rise keeping the gap: the boundary from the other side
-                let (r, g) = boundary(ok[i + 1], ok[i], &mut eval, |g| g >= gap);
-                (true, r, g)
-            }
+            Some((i, &at)) => match ok.get(i + 1) {
+                None => (true, at.0, at.1),
+                Some(&after) => {
+                    // the last rise keeping the gap: the boundary from the other side
+                    let (r, g) = boundary(after, at, &mut eval, |g| g >= gap);
+                    (true, r, g)
+                }
+            },
         },
         Goal::Least { .. } => {
-            let i = (0..ok.len()).fold(0, |b, i| if ok[i].1 < ok[b].1 { i } else { b });
-            let lo = if i > 0 { ok[i - 1].0 } else { ok[i].0 };
-            let hi = if i + 1 < ok.len() { ok[i + 1].0 } else { ok[i].0 };
-            let (r, v) = golden(lo, hi, ok[i], &mut eval);
+            // the first least value
+            let (i, best) = ok
+                .iter()
+                .enumerate()
+                .fold((0, first), |(b, bp), (i, &p)| if p.1 < bp.1 { (i, p) } else { (b, bp) });
+            let lo = i.checked_sub(1).and_then(|before| ok.get(before)).unwrap_or(&best).0;
+            let hi = ok.get(i + 1).unwrap_or(&best).0;
+            let (r, v) = golden(lo, hi, best, &mut eval);
             (true, r, v)
         }
     };

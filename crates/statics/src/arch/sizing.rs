@@ -41,7 +41,7 @@ use crate::arch::stability::{arch_stability, StabilitySummary};
 use crate::arch::traffic::{Governing, LineEnvelope, TrafficReport};
 use crate::arch::validate::ValidDesign;
 use crate::error::{Field, GroupName, Problem, StaticsError};
-use crate::sizing::materials::{material_preset, Material};
+use crate::sizing::materials::{c40_50, gl24h, s355, Material};
 use crate::sizing::resistance::{check, size_member_by, Check, Demand, Lengths, Mode};
 use crate::sizing::sections::{Family, SectionProps};
 use crate::traffic::combination::Combination;
@@ -167,20 +167,6 @@ impl GroupSizing {
     }
 }
 
-fn preset(key: &str) -> Material {
-    // the presets are this crate's own table: a key below that it lacks is a bug caught
-    // by the tests, never user data
-    material_preset(key).unwrap_or_else(|| panic!("material preset {key}"))
-}
-
-fn family(key: &str) -> Family {
-    Family::family_presets()
-        .into_iter()
-        .find(|(k, _)| *k == key)
-        .map(|(_, f)| f)
-        .unwrap_or_else(|| panic!("family preset {key}"))
-}
-
 impl Default for DeckCrossSection {
     /// A 250 mm concrete slab on steel cross-girders every 4 m of 0.012 m2 (about a 600
     /// mm plate girder), the typed dead load counting (common practice, illustrative).
@@ -219,14 +205,14 @@ impl SizingDesign {
     /// C40/50): what a design of format 4 gets.
     pub fn as_typed(groups: &MemberGroups) -> SizingDesign {
         let guess = |s: &Section| {
-            let key = if s.e >= 150e6 {
-                "s355"
+            let material = if s.e >= 150e6 {
+                s355()
             } else if s.e < 20e6 {
-                "gl24h"
+                gl24h()
             } else {
-                "c40-50"
+                c40_50()
             };
-            GroupSizing::as_typed(preset(key))
+            GroupSizing::as_typed(material)
         };
         SizingDesign {
             rib: guess(&groups.rib),
@@ -246,13 +232,13 @@ impl SizingDesign {
     /// sections for the posts, circular ones for the piers and bracing, all S355 (the
     /// demo's choice).
     pub fn steel() -> SizingDesign {
-        let s355 = preset("s355");
+        let s355 = s355();
         SizingDesign {
-            rib: GroupSizing::sized(family("box"), s355.clone()),
-            deck: GroupSizing::sized(family("box"), s355.clone()),
-            posts: GroupSizing::sized(family("shs"), s355.clone()),
-            piers: GroupSizing::sized(family("chs"), s355.clone()),
-            bracing: GroupSizing::sized(family("chs"), s355),
+            rib: GroupSizing::sized(Family::BOX, s355.clone()),
+            deck: GroupSizing::sized(Family::BOX, s355.clone()),
+            posts: GroupSizing::sized(Family::SHS, s355.clone()),
+            piers: GroupSizing::sized(Family::CHS, s355.clone()),
+            bracing: GroupSizing::sized(Family::CHS, s355),
             rib_out_of_plane: None,
             rib_for_first_order: false,
             deck_section: DeckCrossSection::default(),
@@ -417,7 +403,7 @@ pub fn arch_buckling(valid: &ValidDesign) -> ArchBuckling {
     let form = valid.form();
     let (span, rise) = (form.span, form.rise);
     let nodes = &form.rib;
-    let length: f64 = nodes.windows(2).map(|w| (w[1].x - w[0].x).hypot(w[1].y - w[0].y)).sum();
+    let length: f64 = nodes.iter().zip(nodes.iter().skip(1)).map(|(a, b)| (b.x - a.x).hypot(b.y - a.y)).sum();
     let table = match design.rib_system {
         crate::arch::design::RibSystem::TwoHinged => TWO_HINGED,
         crate::arch::design::RibSystem::Fixed => FIXED,
@@ -430,7 +416,15 @@ pub fn arch_buckling(valid: &ValidDesign) -> ArchBuckling {
     let held = ratio.clamp(0.1, 0.5);
     let t = ((held - 0.1) / 0.1).clamp(0.0, 4.0);
     let k = (t.floor() as usize).min(3);
-    let coefficient = table[k] + (table[k + 1] - table[k]) * (t - k as f64);
+    // the table's values either side of the held ratio
+    let [c1, c2, c3, c4, c5] = table;
+    let (lo, hi) = match k {
+        0 => (c1, c2),
+        1 => (c2, c3),
+        2 => (c3, c4),
+        _ => (c4, c5),
+    };
+    let coefficient = lo + (hi - lo) * (t - k as f64);
     let slope = 2.0 * held;
     // the length at the held ratio, per unit span, scaled by the half-length ratio
     let l_at =
@@ -741,9 +735,7 @@ pub fn size_members(valid: &ValidDesign, report: &TrafficReport) -> Result<Membe
         .iter()
         .enumerate()
         .map(|(k, role)| {
-            let m = &model.members[k];
-            let (a, b) = (&model.nodes[m.start], &model.nodes[m.end]);
-            let length = (b.x - a.x).hypot(b.y - a.y);
+            let length = model.member_length(k);
             let group = group_of(*role);
             let factor = sizing.group(group).length_factor;
             let lengths = match group {
@@ -787,25 +779,29 @@ pub fn size_members(valid: &ValidDesign, report: &TrafficReport) -> Result<Membe
     };
     let mut rib_index = vec![None; model.members.len()];
     for (i, s) in sources.iter().enumerate() {
-        rib_index[s.member] = Some(i);
+        if let Some(slot) = rib_index.get_mut(s.member) {
+            *slot = Some(i);
+        }
     }
+    // the stability of row `r`'s member, when it is a rib member and the rib's was found
+    let stability_of = |r: &Row| {
+        let st = stability.as_ref()?;
+        Some((st, st.members.get(rib_index.get(r.k).copied().flatten()?)?))
+    };
     // a rib member's in-plane buckling length is alpha_cr's (what the report shows)
-    if let Some(st) = &stability {
-        for r in &mut rows {
-            if let Some(l) = rib_index[r.k].and_then(|i| st.members[i].length) {
-                r.lengths.in_plane = l;
-            }
+    for r in &mut rows {
+        if let Some(l) = stability_of(r).and_then(|(_, m)| m.length) {
+            r.lengths.in_plane = l;
         }
     }
     // one member's check at a section of E I `ei`: a rib member's with its stability
-    let check_member = |material: &Material, family: &Family, props: &SectionProps, ei: f64, r: &Row| match (
-        &stability,
-        rib_index[r.k],
-    ) {
-        (Some(st), Some(i)) => {
-            st.check(&st.members[i], &RibSection { material, family, props, ei }, &r.demand, &r.lengths)
+    let check_member = |material: &Material, family: &Family, props: &SectionProps, ei: f64, r: &Row| {
+        match stability_of(r) {
+            Some((st, member)) => {
+                st.check(member, &RibSection { material, family, props, ei }, &r.demand, &r.lengths)
+            }
+            None => check(material, family, props, &r.demand, &r.lengths),
         }
-        _ => check(material, family, props, &r.demand, &r.lengths),
     };
     let mut groups = Vec::new();
     let mut rib_alpha_cr = None;
@@ -865,10 +861,10 @@ pub fn size_members(valid: &ValidDesign, report: &TrafficReport) -> Result<Membe
             if let (GroupName::Rib, Some(st)) = (g, &stability) {
                 rib_alpha_cr = Some(st.alpha_cr * ei / st.analysed_ei);
                 for r in &mine {
-                    if let Some(i) = rib_index[r.k] {
+                    if let (Some((_, member)), Some(slot)) = (stability_of(r), trials.get_mut(r.k)) {
                         let section =
                             RibSection { material: &s.material, family: &family, props: &props, ei };
-                        trials[r.k] = Some(st.trial_of(&st.members[i], &section));
+                        *slot = Some(st.trial_of(member, &section));
                     }
                 }
             }
@@ -877,7 +873,9 @@ pub fn size_members(valid: &ValidDesign, report: &TrafficReport) -> Result<Membe
                     if worst.as_ref().is_none_or(|(u, _)| c.utilisation > *u) {
                         worst = Some((c.utilisation, model.member_label(r.k)));
                     }
-                    at_group[r.k] = Some(c);
+                    if let Some(slot) = at_group.get_mut(r.k) {
+                        *slot = Some(c);
+                    }
                 }
             }
         }
@@ -903,10 +901,11 @@ pub fn size_members(valid: &ValidDesign, report: &TrafficReport) -> Result<Membe
             section,
         });
     }
+    // rows, checks and trials are all in member order
     let members = rows
         .into_iter()
-        .map(|r| {
-            let c = at_group[r.k].take();
+        .zip(at_group.into_iter().zip(trials))
+        .map(|(r, (c, trial))| {
             let governs = c.as_ref().map(|c| c.governs);
             // the part of the demand the governing mode is about
             // (the moment's for compression and bending: where the traffic stands for it
@@ -928,7 +927,7 @@ pub fn size_members(valid: &ValidDesign, report: &TrafficReport) -> Result<Membe
                 governs,
                 combination: part.combination.clone(),
                 placement: part.placement.clone(),
-                second_order: trials[r.k],
+                second_order: trial,
             }
         })
         .collect();

@@ -118,9 +118,9 @@ pub fn is_arch_mode(generated: &Generated, mode: &BucklingMode) -> bool {
 
 /// The arch's lowest mode among `buckling`'s (see [`ArchMode`]); `None` without modes.
 pub fn arch_mode(generated: &Generated, buckling: &CaseBuckling) -> Option<ArchMode> {
-    let found = buckling.modes.iter().position(|m| is_arch_mode(generated, m));
+    let found = buckling.modes.iter().enumerate().find(|(_, m)| is_arch_mode(generated, m));
     match found {
-        Some(i) => Some(ArchMode { alpha_cr: buckling.modes[i].load_factor, mode: Some(i) }),
+        Some((i, m)) => Some(ArchMode { alpha_cr: m.load_factor, mode: Some(i) }),
         None => buckling.modes.last().map(|m| ArchMode { alpha_cr: m.load_factor, mode: None }),
     }
 }

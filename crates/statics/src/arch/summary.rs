@@ -195,7 +195,8 @@ impl Summary {
                 let n = frame
                     .map
                     .members_with(role)
-                    .flat_map(|k| [case.members[k].start.n, case.members[k].end.n])
+                    .filter_map(|k| case.members.get(k))
+                    .flat_map(|m| [m.start.n, m.end.n])
                     .max_by(|x, y| x.abs().total_cmp(&y.abs()))?;
                 Some(RoleForce { role, n: clean(n) })
             })

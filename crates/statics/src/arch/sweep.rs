@@ -347,18 +347,19 @@ pub fn sweep_each(
     size: bool,
     mut on_row: impl FnMut(usize, usize, &SweepRow) -> bool,
 ) -> Result<Sweep, StaticsError> {
-    if axes.is_empty() || axes.len() > 2 {
-        return Err(refuse("a sweep varies one parameter, or two as a grid".into()));
-    }
-    if axes.len() == 2 && axes[0].parameter == axes[1].parameter {
-        return Err(refuse(format!("{} is varied twice", axes[0].parameter.key())));
-    }
+    let first = match axes {
+        [first] => first,
+        [first, second] if first.parameter == second.parameter => {
+            return Err(refuse(format!("{} is varied twice", first.parameter.key())));
+        }
+        [first, _] => first,
+        _ => return Err(refuse("a sweep varies one parameter, or two as a grid".into())),
+    };
     let count: usize = axes.iter().map(|a| a.values.len()).product();
     if count > MAX_VALUES {
         return Err(refuse(format!("{count} options: a sweep takes at most {MAX_VALUES}")));
     }
     let mut rows = Vec::with_capacity(count);
-    let first = &axes[0];
     'options: for &a in &first.values {
         let d = apply(design, first.parameter, a);
         let options: Vec<(Design, Vec<f64>)> = match axes.get(1) {

@@ -60,13 +60,15 @@ fn ascii_unit(q: Quantity) -> &'static str {
 /// has no stations there.
 fn mid_length_n(f: &crate::frame::results::MemberForces) -> f64 {
     let half = 0.5 * f.length;
-    match f.stations.iter().position(|st| st.s >= half) {
-        Some(k) if k > 0 => {
-            let (a, b) = (&f.stations[k - 1], &f.stations[k]);
+    // the first station at or past L/2 and the one before it
+    let at = f.stations.iter().position(|st| st.s >= half);
+    let around = at.map(|k| (k.checked_sub(1).and_then(|j| f.stations.get(j)), f.stations.get(k)));
+    match around {
+        Some((Some(a), Some(b))) => {
             let t = if b.s > a.s { (half - a.s) / (b.s - a.s) } else { 0.0 };
             a.forces.n + t * (b.forces.n - a.forces.n)
         }
-        Some(0) if f.stations.first().is_some_and(|st| st.s == half) => f.stations[0].forces.n,
+        Some((None, Some(first))) if first.s == half => first.forces.n,
         _ => 0.5 * (f.start.n + f.end.n),
     }
 }

@@ -200,9 +200,8 @@ fn two_truck_sense(generated: &Generated, line: &ArchLine) -> Option<f64> {
         ArchLine::Moment(k, _) | ArchLine::MidMoment(k)
             if matches!(role(*k), Some(MemberRole::Deck | MemberRole::Approach)) =>
         {
-            let m = &generated.model.members[*k];
-            let (a, b) = (generated.model.nodes[m.start].x, generated.model.nodes[m.end].x);
-            Some(if a <= b { -1.0 } else { 1.0 })
+            let (a, b) = generated.model.members.get(*k).and_then(|m| generated.model.ends(m))?;
+            Some(if a.x <= b.x { -1.0 } else { 1.0 })
         }
         // the deck's interior reactions: compression in its posts and piers
         ArchLine::Axial(k) if matches!(role(*k), Some(MemberRole::Post | MemberRole::Pier)) => Some(-1.0),
@@ -325,16 +324,16 @@ fn line_envelope(
             if c.counts_for_min && c.envelope.min.value < min.value.min(-noise) {
                 min = governing(&c.envelope.min, &c, *rib, (x, eta), -1.0);
             }
-            for (k, comb) in combinations.iter().enumerate() {
+            for (comb, range) in combinations.iter().zip(design.iter_mut()) {
                 if c.counts_for_max {
                     let v =
                         comb.uniform * c.envelope.max.uniform_part + comb.vehicle * c.envelope.max.axle_part;
-                    design[k].0 = design[k].0.max(v);
+                    range.0 = range.0.max(v);
                 }
                 if c.counts_for_min {
                     let v =
                         comb.uniform * c.envelope.min.uniform_part + comb.vehicle * c.envelope.min.axle_part;
-                    design[k].1 = design[k].1.min(v);
+                    range.1 = range.1.min(v);
                 }
             }
         }

@@ -211,8 +211,7 @@ fn check_clearances(d: &Design, form: &Form, problems: &mut Vec<Problem>) {
     }
     // rib segment against ground: both piecewise linear, so compare at the segment ends
     // and at every ground vertex in between
-    for r in 0..last {
-        let (p, q) = (&form.rib[r], &form.rib[r + 1]);
+    for (r, (p, q)) in form.rib.iter().zip(form.rib.iter().skip(1)).enumerate() {
         let mut xs = vec![p.x, q.x];
         xs.extend(d.valley.iter().map(|g| g.x).filter(|&x| x > p.x && x < q.x));
         let mut worst: Option<(f64, f64)> = None;
@@ -256,8 +255,11 @@ fn check_spandrel(d: &Design, form: &Form, problems: &mut Vec<Problem>, warnings
     let three_hinged = d.rib_system == RibSystem::ThreeHinged;
     // interior rib nodes under a panel point that may carry a post (not a three-hinged
     // crown, which never has one)
-    let candidates: Vec<&RibNode> = form.rib[1..last]
+    let candidates: Vec<&RibNode> = form
+        .rib
         .iter()
+        .take(last)
+        .skip(1)
         .enumerate()
         .filter(|&(k, n)| n.panel.is_some() && !(three_hinged && k + 1 == form.crown_node))
         .map(|(_, n)| n)
@@ -317,8 +319,13 @@ fn unbraced_truss_warning(valid: &ValidDesign) -> Option<Warning> {
     if !matches!(report.determinacy, crate::frame::determinacy::Determinacy::Mechanism { .. }) {
         return None;
     }
-    let shared: Vec<String> =
-        valid.form.shared().iter().map(|r| format!("{:.3}", valid.layout.rib_x[*r])).collect();
+    let shared: Vec<String> = valid
+        .form
+        .shared()
+        .iter()
+        .filter_map(|r| valid.layout.rib_x.get(*r))
+        .map(|x| format!("{x:.3}"))
+        .collect();
     Some(
         Warning::new(
             Field::MinPostLength,

@@ -258,7 +258,9 @@ fn uniform_part(x: &[f64], eta: &[f64], q: f64, sign: f64) -> (f64, Vec<(f64, f6
 
 /// Each axle's effect P_j eta(x_j) with the group at `placement` on the line (`x`, `eta`
 /// as for [`envelope`]), first axle first: which axles add to an extreme and which a
-/// group that neglects relieving axles leaves off. Units: those of the line times kN.
+/// group that neglects relieving axles leaves off. Units: those of the line times kN. An
+/// axle with no ordinate (a line `envelope` would refuse, or a position that is not a
+/// number) has no effect (0).
 pub fn axle_effects(x: &[f64], eta: &[f64], group: &AxleGroup, placement: &AxlePlacement) -> Vec<f64> {
     let d = offsets(group, placement.spacing);
     let sense = if placement.travel == Travel::Rightward { -1.0 } else { 1.0 };
@@ -274,23 +276,28 @@ pub fn axle_effects(x: &[f64], eta: &[f64], group: &AxleGroup, placement: &AxleP
 /// the line's length of an end counts as on the line: an axle placed on the end vertex
 /// through its offset from the first axle must not fall off by rounding (an axle meant
 /// to be off stands 1e-9 of the length beyond, see `search_axles`).
+///
+/// Never panics: a position that is not a number (offsets that overflowed, or a placement
+/// given by the caller) is on no line, and a line `envelope` would refuse (lengths that
+/// differ, positions out of order) gives 0 where it has no ordinate.
 fn ordinate(x: &[f64], eta: &[f64], at: f64) -> f64 {
-    let n = x.len();
-    if n == 0 {
+    let (Some(&first), Some(&last)) = (x.first(), x.last()) else { return 0.0 };
+    let snap = 1e-12 * (last - first).max(1.0);
+    if at.is_nan() || at < first - snap || at > last + snap {
         return 0.0;
     }
-    let snap = 1e-12 * (x[n - 1] - x[0]).max(1.0);
-    if at < x[0] - snap || at > x[n - 1] + snap {
-        return 0.0;
-    }
-    let at = at.clamp(x[0], x[n - 1]);
+    // `clamp` for a line whose positions increase (and no panic for one whose do not)
+    let at = at.max(first).min(last);
     // first position >= at
     let k = x.partition_point(|&xi| xi < at);
-    if x[k] == at {
-        return eta[k];
+    let (Some(&xk), Some(&ek)) = (x.get(k), eta.get(k)) else { return 0.0 };
+    if xk == at {
+        return ek;
     }
-    let t = (at - x[k - 1]) / (x[k] - x[k - 1]);
-    eta[k - 1] + t * (eta[k] - eta[k - 1])
+    let before = k.checked_sub(1).and_then(|j| x.get(j).zip(eta.get(j)));
+    let Some((&xj, &ej)) = before else { return 0.0 };
+    let t = (at - xj) / (xk - xj);
+    ej + t * (ek - ej)
 }
 
 /// Offsets of the axles behind the first one, m, for the variable spacing `s`.

@@ -256,7 +256,10 @@ pub(crate) fn unit_load_case(
             let m = &model.members[member];
             let (xs_start, xs_end) = (model.nodes[m.start].x, model.nodes[m.end].x);
             let fraction = (x - xs_start) / (xs_end - xs_start);
-            let a_along = (fraction * model.member_length(member)).clamp(0.0, model.member_length(member));
+            // not `clamp`, which panics on a length that is not a number (a node's y not
+            // finite: the solve's validation reports it)
+            let length = model.member_length(member);
+            let a_along = (fraction * length).max(0.0).min(length);
             lc.member.push(MemberLoad::Point {
                 member,
                 p: -1.0,

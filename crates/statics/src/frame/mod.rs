@@ -8,6 +8,16 @@
 //! Cuthill-McKee order and equation numbers), `assembly` (stiffness matrix and load
 //! vectors), `recovery` (member end forces, stations, reactions), `equilibrium` (the
 //! independent check) and `results` (what a solve returns).
+//!
+//! Exception to the crate's no-panic lints: indexing (`clippy::indexing_slicing`) is
+//! allowed in this layer, its numeric kernels, because every index comes from a model
+//! checked first.
+
+// why: every index comes from a model `solver::validate` (or the model's own construction)
+// has checked: node indices of members, supports and loads in range, the freedom numbering
+// built from the node count, the band width from that numbering; `envelope` indexes lines
+// its `check` has matched (positions and ordinates of one length, increasing)
+#![allow(clippy::indexing_slicing)]
 
 pub mod determinacy;
 pub mod element;

@@ -303,6 +303,11 @@ impl Model {
             _ => 0.0,
         }
     }
+    /// The start and end nodes of `member` (a member of this model or one like it), or
+    /// `None` when either index names no node.
+    pub fn ends(&self, member: &Member) -> Option<(&Node, &Node)> {
+        self.nodes.get(member.start).zip(self.nodes.get(member.end))
+    }
     /// Adds a node and returns its index.
     pub fn add_node(&mut self, name: impl Into<String>, x: f64, y: f64) -> usize {
         self.nodes.push(Node { name: name.into(), x, y });

@@ -116,20 +116,18 @@ pub fn bounds(design: &Design) -> (f64, f64, f64, f64) {
 /// (`Transform::fit_all` over [`thumbnail_area`] puts several at one scale).
 pub fn thumbnail(analysis: &Analysis, design: &Design, transform: Transform, viewport: Viewport) -> Scene {
     let a = analysis;
-    let drawn = Drawn {
-        kind: ModelKind::Frame,
-        model: &a.frame.model,
-        map: &a.frame.map,
-        case: &a.frame.solution.cases[0],
-    };
     let mut scene = Scene::new(viewport);
     scene.items.push(Item::filled(Shape::Box { rect: viewport.frame() }, Ink::Background));
     scene.transform = Some(transform);
     scene.world_unit = "m";
     ground(&mut scene, design, &transform, viewport);
     abutments(&mut scene, design, &a.form, &transform);
-    members(&mut scene, &drawn, &transform, None);
-    joints(&mut scene, &drawn, &transform);
+    // the dead load is the first case solved (an analysis without it has no members to draw)
+    if let Some(case) = a.frame.solution.cases.first() {
+        let drawn = Drawn { kind: ModelKind::Frame, model: &a.frame.model, map: &a.frame.map, case };
+        members(&mut scene, &drawn, &transform, None);
+        joints(&mut scene, &drawn, &transform);
+    }
     scene
 }
 
@@ -177,7 +175,12 @@ pub fn elevation_with_overlay(
     let a = analysis;
     let units = opts.units;
     let case_index = if opts.case < a.frame.solution.cases.len() { opts.case } else { 0 };
-    let frame_case = &a.frame.solution.cases[case_index];
+    let Some(frame_case) = a.frame.solution.cases.get(case_index) else {
+        // an analysis always solves the dead load; without any case there is nothing to draw
+        let mut scene = Scene::new(viewport);
+        scene.items.push(Item::filled(Shape::Box { rect: viewport.frame() }, Ink::Background));
+        return (scene, Vec::new());
+    };
     let truss = a.truss.as_ref().and_then(|t| Some((t, t.solution.as_ref()?.cases.get(case_index)?)));
     // the erection stage is the bare rib's: it is drawn whatever model was chosen
     let erection = a
@@ -243,8 +246,7 @@ pub fn elevation_with_overlay(
         for (k, m) in fm.members.iter().enumerate() {
             let in_truss = MemberKey::of(&a.frame.map, ModelKind::Frame, k)
                 .is_some_and(|key| key.member_in(drawn.map, ModelKind::Truss).is_some());
-            if !in_truss {
-                let (na, nb) = (&fm.nodes[m.start], &fm.nodes[m.end]);
+            if let (false, Some((na, nb))) = (in_truss, fm.ends(m)) {
                 scene.items.push(Item::stroked(
                     Shape::Line { from: p(na.x, na.y), to: p(nb.x, nb.y) },
                     Stroke::solid(Ink::Concrete, 2.0),
@@ -445,16 +447,16 @@ fn members(scene: &mut Scene, d: &Drawn, t: &Transform, highlight: Option<usize>
     let zero = ZERO_FORCE * d.case.equilibrium.reference;
     let n_max = (0..d.model.members.len()).map(|k| mean_n(d.case, k).abs()).fold(0.0, f64::max);
     for (k, m) in d.model.members.iter().enumerate() {
-        let (na, nb) = (&d.model.nodes[m.start], &d.model.nodes[m.end]);
+        let Some((na, nb)) = d.model.ends(m) else { continue };
         let stroke = member_stroke(mean_n(d.case, k), n_max, zero);
         scene.items.push(
             Item::stroked(Shape::Line { from: t.px(na.x, na.y), to: t.px(nb.x, nb.y) }, stroke)
                 .tagged(Tag::Member { member: k }),
         );
     }
-    if let Some(m) = highlight.and_then(|k| d.model.members.get(k).map(|m| (k, m))) {
-        let (k, m) = m;
-        let (na, nb) = (&d.model.nodes[m.start], &d.model.nodes[m.end]);
+    let highlighted =
+        highlight.and_then(|k| d.model.members.get(k).and_then(|m| d.model.ends(m)).map(|e| (k, e)));
+    if let Some((k, (na, nb))) = highlighted {
         let line = Shape::Line { from: t.px(na.x, na.y), to: t.px(nb.x, nb.y) };
         scene.items.push(
             Item::stroked(line.clone(), Stroke::solid(Ink::HighlightHalo, 11.0))
@@ -469,16 +471,15 @@ fn members(scene: &mut Scene, d: &Drawn, t: &Transform, highlight: Option<usize>
 /// Deck joints (dots), rib hinges (open rings) and supports (triangles; a bar under a
 /// roller, a thick bar under a fixed support).
 fn joints(scene: &mut Scene, d: &Drawn, t: &Transform) {
-    let node = |k: usize| t.px(d.model.nodes[k].x, d.model.nodes[k].y);
-    for &k in d.map.deck_nodes.iter().flatten() {
-        scene.items.push(Item::filled(Shape::Circle { center: node(k), radius: 2.6 }, Ink::Text));
+    let node = |k: usize| d.model.nodes.get(k).map(|n| t.px(n.x, n.y));
+    for center in d.map.deck_nodes.iter().flatten().filter_map(|&k| node(k)) {
+        scene.items.push(Item::filled(Shape::Circle { center, radius: 2.6 }, Ink::Text));
     }
-    for &k in &d.map.rib_members {
-        let m = &d.model.members[k];
+    for m in d.map.rib_members.iter().filter_map(|&k| d.model.members.get(k)) {
         for (released, n) in [(m.release_start, m.start), (m.release_end, m.end)] {
-            if released {
+            if let (true, Some(center)) = (released, node(n)) {
                 scene.items.push(Item {
-                    shape: Shape::Circle { center: node(n), radius: 4.0 },
+                    shape: Shape::Circle { center, radius: 4.0 },
                     stroke: Some(Stroke::solid(Ink::Text, 1.5)),
                     fill: Some(Ink::Background),
                     tag: Tag::None,
@@ -487,7 +488,7 @@ fn joints(scene: &mut Scene, d: &Drawn, t: &Transform) {
         }
     }
     for s in &d.model.supports {
-        let c = node(s.node);
+        let Some(c) = node(s.node) else { continue };
         let tri = vec![c, Px::new(c.x - 6.0, c.y + 10.0), Px::new(c.x + 6.0, c.y + 10.0)];
         scene.items.push(Item::filled(Shape::Path { points: tri, closed: true }, Ink::Text));
         if !s.x {
@@ -509,14 +510,16 @@ fn loads(scene: &mut Scene, d: &Drawn, t: &Transform) {
     let Some(lc) = d.model.load_cases.iter().find(|l| l.name == d.case.name) else { return };
     let mut on_deck = vec![false; d.model.nodes.len()];
     for &k in d.map.deck_nodes.iter().flatten() {
-        on_deck[k] = true;
+        if let Some(slot) = on_deck.get_mut(k) {
+            *slot = true;
+        }
     }
     let f_max = lc.nodal.iter().map(|l| l.fy.abs()).fold(0.0, f64::max);
     for l in &lc.nodal {
+        let Some(n) = d.model.nodes.get(l.node) else { continue };
         if !on_deck.get(l.node).copied().unwrap_or(false) || l.fy >= 0.0 || f_max <= 0.0 {
             continue;
         }
-        let n = &d.model.nodes[l.node];
         let head = t.px(n.x, n.y);
         let len = 8.0 + 14.0 * l.fy.abs() / f_max;
         scene.items.push(Item::stroked(
@@ -534,11 +537,8 @@ fn loads(scene: &mut Scene, d: &Drawn, t: &Transform) {
         if !on_road || w >= 0.0 {
             continue;
         }
-        let m = &d.model.members[member];
-        let (a, b) = (
-            t.px(d.model.nodes[m.start].x, d.model.nodes[m.start].y),
-            t.px(d.model.nodes[m.end].x, d.model.nodes[m.end].y),
-        );
+        let Some((na, nb)) = d.model.members.get(member).and_then(|m| d.model.ends(m)) else { continue };
+        let (a, b) = (t.px(na.x, na.y), t.px(nb.x, nb.y));
         let lift = 14.0;
         scene.items.push(Item::stroked(
             Shape::Line { from: Px::new(a.x, a.y - lift), to: Px::new(b.x, b.y - lift) },
@@ -580,7 +580,8 @@ fn springing_forces(
         let s = SpringingForce::from_reaction(r.fx, r.fy, r.mz, left);
         let (h, v) = (clean(s.thrust, reference), clean(s.vertical, reference));
         let m = clean(s.moment, reference * case.equilibrium.characteristic_length);
-        let c = t.px(model.nodes[node].x, model.nodes[node].y);
+        let Some(at) = model.nodes.get(node) else { continue };
+        let c = t.px(at.x, at.y);
         // the push on the abutment: outward by H, down by V (pixels: y down)
         let (dx, dy) = (if left { -h } else { h }, v);
         let mag = dx.hypot(dy);

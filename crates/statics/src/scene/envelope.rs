@@ -181,12 +181,11 @@ fn bands(
     let model = &analysis.frame.model;
     let largest = ranges.iter().flatten().flat_map(|(max, min)| [max.abs(), min.abs()]).fold(0.0, f64::max);
     let ends = |k: usize| {
-        let m = &model.members[k];
-        let (na, nb) = (&model.nodes[m.start], &model.nodes[m.end]);
-        (t.px(na.x, na.y), t.px(nb.x, nb.y))
+        let (na, nb) = model.members.get(k).and_then(|m| model.ends(m))?;
+        Some((t.px(na.x, na.y), t.px(nb.x, nb.y)))
     };
     for (k, range) in ranges.iter().enumerate() {
-        let (a, b) = ends(k);
+        let Some((a, b)) = ends(k) else { continue };
         let tag = Tag::Member { member: k };
         items.push(
             Item::stroked(Shape::Line { from: a, to: b }, Stroke::solid(Ink::Secondary, 1.0)).tagged(tag),
@@ -213,7 +212,7 @@ fn bands(
         .into_iter()
         .filter_map(|(k, ink, w)| Some((k.filter(|k| *k < ranges.len())?, ink, w)))
     {
-        let (a, b) = ends(k);
+        let Some((a, b)) = ends(k) else { continue };
         items.push(
             Item::stroked(Shape::Line { from: a, to: b }, Stroke::solid(ink, width))
                 .tagged(Tag::Member { member: k }),
@@ -243,20 +242,19 @@ fn extremes_labels(
 ) {
     let model = &analysis.frame.model;
     let mid = |k: usize| {
-        let m = &model.members[k];
-        let (na, nb) = (&model.nodes[m.start], &model.nodes[m.end]);
-        t.px(0.5 * (na.x + nb.x), 0.5 * (na.y + nb.y))
+        let (na, nb) = model.members.get(k).and_then(|m| model.ends(m))?;
+        Some(t.px(0.5 * (na.x + nb.x), 0.5 * (na.y + nb.y)))
     };
     let show = |v: f64| opts.units.show(Quantity::Force, v);
-    if let Some(k) = opts.picked.filter(|k| *k < ranges.len()) {
-        if let Some((max, min)) = ranges[k] {
+    if let Some(k) = opts.picked {
+        if let (Some((max, min)), Some(at)) = (ranges.get(k).copied().flatten(), mid(k)) {
             let name = model.member_label(k);
             placer.place(
                 Request::new(
                     format!("{name}: N from {} to {}", show(min), show(max)),
                     TextSize::Body,
                     Ink::Highlight,
-                    mid(k),
+                    at,
                 )
                 .sides(&[Side::Below, Side::BelowRight, Side::BelowLeft, Side::Above])
                 .short(format!("{} to {}", show(min), show(max))),
@@ -264,14 +262,15 @@ fn extremes_labels(
         }
     }
     for (tension, words) in [(false, "largest compression"), (true, "largest tension")] {
-        if let Some((k, v)) = extreme_member(ranges, tension) {
+        if let Some(((k, v), at)) = extreme_member(ranges, tension).and_then(|(k, v)| Some(((k, v), mid(k)?)))
+        {
             let ink = if tension { Ink::Tension } else { Ink::Compression };
             placer.place(
                 Request::new(
                     format!("{words} {} ({})", show(v), model.member_label(k)),
                     TextSize::Small,
                     ink,
-                    mid(k),
+                    at,
                 )
                 .short(show(v)),
             );

@@ -19,9 +19,10 @@
 use super::place::{self, Placer, Request, Side, PAD_X};
 use super::{Ink, Item, Label, Pattern, Px, Rect, Scene, Shape, Stroke, Tag, TextSize, Transform, Viewport};
 use crate::arch::analysis::Analysis;
+use crate::geom::Vector;
 use crate::graphic::funicular::PoleConstruction;
-use crate::graphic::reciprocal::{ForceDiagram, SegmentOf, SpaceKind};
-use crate::graphic::thrust_line::ThrustLine;
+use crate::graphic::reciprocal::{ForceDiagram, Segment, SegmentOf, SpaceKind};
+use crate::graphic::thrust_line::{PressurePoint, ThrustLine};
 use crate::tolerance::ZERO_FORCE;
 use crate::units::{Quantity, Units};
 use serde::Serialize;
@@ -517,10 +518,16 @@ fn say_hidden(
     // the note grows with the count it says; a few rounds settle it
     for _ in 0..4 {
         let (text, rect) = hidden_note(hidden, area);
-        let under: Vec<usize> =
-            (0..placed.len()).filter(|&i| placed[i].rect.grown(1.0).overlaps(&rect)).collect();
+        let under: Vec<usize> = placed
+            .iter()
+            .enumerate()
+            .filter(|(_, l)| l.rect.grown(1.0).overlaps(&rect))
+            .map(|(i, _)| i)
+            .collect();
         // an area too narrow for the note, or another kind of label under it: no note
-        if rect.right() > area.right() - 2.0 || under.iter().any(|&i| !is_space[i]) {
+        if rect.right() > area.right() - 2.0
+            || under.iter().any(|&i| !is_space.get(i).copied().unwrap_or(false))
+        {
             return;
         }
         if under.is_empty() {
@@ -672,9 +679,13 @@ fn braced(
     labels.push(caption);
     let mut pen = Painter { clip: fig_rect, items: Vec::new() };
     let at = |p: crate::geom::Point| t.px(p.x, p.y);
+    // a segment's two ends on the canvas (its spaces are the figure's own)
+    let ends = |seg: &Segment| {
+        Some((at(figure.spaces.get(seg.left)?.point), at(figure.spaces.get(seg.right)?.point)))
+    };
     for seg in &figure.segments {
         let SegmentOf::Member { member } = seg.of else { continue };
-        let (l, r) = (at(figure.spaces[seg.left].point), at(figure.spaces[seg.right].point));
+        let Some((l, r)) = ends(seg) else { continue };
         let tag = Tag::Member { member };
         if opts.highlight == Some(member) {
             pen.line(l, r, Stroke::solid(Ink::HighlightHalo, 11.0), Tag::None);
@@ -696,15 +707,14 @@ fn braced(
             SegmentOf::Reaction { .. } => Ink::Reaction,
             SegmentOf::Member { .. } => continue,
         };
-        let (l, r) = (at(figure.spaces[seg.left].point), at(figure.spaces[seg.right].point));
+        let Some((l, r)) = ends(seg) else { continue };
         pen.line(r, l, Stroke::solid(ink, 3.0), Tag::None);
     }
     // the highlighted member's force first: it is what the user is looking at
     if let Some(k) = opts.highlight {
         let segs: Vec<_> =
             figure.segments.iter().filter(|s| s.of == SegmentOf::Member { member: k }).collect();
-        if let Some(seg) = segs.first() {
-            let (l, r) = (at(figure.spaces[seg.left].point), at(figure.spaces[seg.right].point));
+        if let Some((seg, (l, r))) = segs.first().and_then(|seg| Some((seg, ends(seg)?))) {
             let mid = Px::new((l.x + r.x) / 2.0, (l.y + r.y) / 2.0);
             let n = if seg.zero || seg.force.abs() <= ZERO_FORCE * largest { 0.0 } else { seg.force };
             let text = format!("{} N = {} · all ribs together", seg.name, signed(units, n));
@@ -774,21 +784,26 @@ fn signed(units: Units, n: f64) -> String {
 /// Returns each run's text and how many names it holds.
 fn runs(mut items: Vec<(usize, String)>) -> Vec<(String, usize)> {
     items.sort_by_key(|i| i.0);
-    let mut out = Vec::new();
-    let mut i = 0;
-    while i < items.len() {
-        let mut j = i;
-        while j + 1 < items.len() && items[j + 1].0 == items[j].0 + 1 {
-            j += 1;
+    // each run: its first and last item and how many it holds
+    type Keyed = (usize, String);
+    let mut found: Vec<(&Keyed, &Keyed, usize)> = Vec::new();
+    for item in &items {
+        match found.last_mut() {
+            Some((_, last, count)) if item.0 == last.0 + 1 => {
+                *last = item;
+                *count += 1;
+            }
+            _ => found.push((item, item, 1)),
         }
-        out.push(match j - i {
-            0 => (items[i].1.clone(), 1),
-            1 => (format!("{}, {}", items[i].1, items[j].1), 2),
-            n => (format!("{}–{}", items[i].1, items[j].1), n + 1),
-        });
-        i = j + 1;
     }
-    out
+    found
+        .into_iter()
+        .map(|(first, last, count)| match count {
+            1 => (first.1.clone(), 1),
+            2 => (format!("{}, {}", first.1, last.1), 2),
+            n => (format!("{}–{}", first.1, last.1), n),
+        })
+        .collect()
 }
 
 /// Spaces written as one label: those at one point of the figure, or so close on screen
@@ -811,7 +826,10 @@ impl SpaceGroup {
         let mut parts = runs(self.outside.clone());
         parts.extend(runs(self.inside.clone()));
         let text = parts.iter().map(|p| p.0.as_str()).collect::<Vec<_>>().join(", ");
-        let short = (parts.len() > 1).then(|| format!("{} +{}", parts[0].0, total - parts[0].1));
+        let short = parts
+            .first()
+            .filter(|_| parts.len() > 1)
+            .map(|first| format!("{} +{}", first.0, total - first.1));
         (text, short)
     }
 }
@@ -841,13 +859,14 @@ fn space_groups(figure: &ForceDiagram, at: impl Fn(crate::geom::Point) -> Px) ->
                 groups.len() - 1
             }
         };
+        let Some((group, _)) = groups.get_mut(k) else { continue };
         if sp.kind == SpaceKind::Outside {
-            groups[k].0.outside.push((n_out, sp.label.clone()));
+            group.outside.push((n_out, sp.label.clone()));
             n_out += 1;
         } else {
             // inside faces are numbered in order, so the number is the key
             let key = sp.label.parse::<usize>().unwrap_or(index);
-            groups[k].0.inside.push((key, sp.label.clone()));
+            group.inside.push((key, sp.label.clone()));
         }
     }
     groups.into_iter().map(|(g, _)| g).collect()
@@ -1040,20 +1059,20 @@ fn thrust(
     let t = opts.views[0].apply(fit, rect);
     let normals = tl.section_normals();
     // offsets drawn larger by the exaggeration, in world metres along the normals
-    let off = |i: usize, e: f64| {
-        let (a, n) = (tl.sections[i].axis, normals[i]);
+    // each section with its normal (one normal per section)
+    let along = || tl.sections.iter().zip(&normals);
+    let off = |(section, n): (&PressurePoint, &Vector), e: f64| {
+        let a = section.axis;
         t.px(a.x + n.x * e * exaggeration, a.y + n.y * e * exaggeration)
     };
-    let band = |e: f64| -> Vec<Px> {
-        let n = tl.sections.len();
-        (0..n).map(|i| off(i, e)).chain((0..n).rev().map(|i| off(i, -e))).collect()
-    };
+    let band =
+        |e: f64| -> Vec<Px> { along().map(|s| off(s, e)).chain(along().rev().map(|s| off(s, -e))).collect() };
     let mut pen = Painter { clip: rect, items: Vec::new() };
     pen.polygon(&band(tl.depth / 2.0), Ink::DepthBand);
     pen.polygon(&band(tl.depth / 6.0), Ink::MiddleThird);
-    let ax: Vec<Px> = (0..tl.sections.len()).map(|i| off(i, 0.0)).collect();
+    let ax: Vec<Px> = along().map(|s| off(s, 0.0)).collect();
     pen.path(&ax, Stroke::solid(Ink::Compression, 1.0));
-    let line: Vec<Px> = (0..tl.sections.len()).map(|i| off(i, tl.sections[i].offset)).collect();
+    let line: Vec<Px> = along().map(|s| off(s, s.0.offset)).collect();
     pen.path(&line, Stroke::solid(Ink::ThrustLine, 2.2));
     let mut placer = Placer::new(rect);
     let mut dropped = Vec::new();
@@ -1130,8 +1149,8 @@ fn clip_segment(a: Px, b: Px, r: Rect) -> Option<(Px, Px)> {
 fn clip_polyline(points: &[Px], r: Rect) -> Vec<Vec<Px>> {
     let mut runs: Vec<Vec<Px>> = Vec::new();
     let mut current: Vec<Px> = Vec::new();
-    for w in points.windows(2) {
-        match clip_segment(w[0], w[1], r) {
+    for (&a, &b) in points.iter().zip(points.iter().skip(1)) {
+        match clip_segment(a, b, r) {
             Some((p, q)) => {
                 if current.last() != Some(&p) {
                     if current.len() >= 2 {
@@ -1171,7 +1190,7 @@ fn clip_polygon(points: &[Px], r: Rect) -> Vec<Px> {
             break;
         }
         let input = std::mem::take(&mut out);
-        let mut prev = input[input.len() - 1];
+        let Some(mut prev) = input.last().copied() else { break };
         for &p in &input {
             match (inside(p, r), inside(prev, r)) {
                 (true, true) => out.push(p),

@@ -499,9 +499,9 @@ impl Scene {
     /// Pairs of labels whose boxes overlap (indices), for tests and debugging.
     pub fn overlapping_labels(&self) -> Vec<(usize, usize)> {
         let mut out = Vec::new();
-        for i in 0..self.labels.len() {
-            for j in i + 1..self.labels.len() {
-                if self.labels[i].rect.overlaps(&self.labels[j].rect) {
+        for (i, a) in self.labels.iter().enumerate() {
+            for (j, b) in self.labels.iter().enumerate().skip(i + 1) {
+                if a.rect.overlaps(&b.rect) {
                     out.push((i, j));
                 }
             }
@@ -511,7 +511,7 @@ impl Scene {
     /// Labels whose box is not wholly inside the canvas (indices).
     pub fn labels_outside(&self) -> Vec<usize> {
         let frame = self.viewport.frame();
-        (0..self.labels.len()).filter(|&i| !frame.contains(&self.labels[i].rect)).collect()
+        self.labels.iter().enumerate().filter(|(_, l)| !frame.contains(&l.rect)).map(|(i, _)| i).collect()
     }
 }
 

@@ -79,7 +79,7 @@ pub fn mode_elevation(
     let model = &analysis.frame.model;
     let draw = |t: &Transform, items: &mut Vec<Item>, placer: &mut Placer| {
         for (k, m) in model.members.iter().enumerate() {
-            let (a, b) = (&model.nodes[m.start], &model.nodes[m.end]);
+            let Some((a, b)) = model.ends(m) else { continue };
             items.push(
                 Item::stroked(
                     Shape::Line { from: t.px(a.x, a.y), to: t.px(b.x, b.y) },

@@ -314,7 +314,8 @@ pub fn fit_text(text: &str, size: TextSize, width: f64) -> String {
     }
     let words: Vec<&str> = text.split(' ').collect();
     for n in (1..words.len()).rev() {
-        let candidate = format!("{}…", words[..n].join(" ").trim_end_matches([' ', '·', ',']));
+        let kept = words.iter().take(n).copied().collect::<Vec<_>>().join(" ");
+        let candidate = format!("{}…", kept.trim_end_matches([' ', '·', ',']));
         if text_width(&candidate, size) + 2.0 * PAD_X <= width {
             return candidate;
         }

@@ -228,19 +228,17 @@ fn members(
 ) {
     let model = &analysis.frame.model;
     let ends = |k: usize| {
-        let m = &model.members[k];
-        let (a, b) = (&model.nodes[m.start], &model.nodes[m.end]);
-        (t.px(a.x, a.y), t.px(b.x, b.y))
+        let (a, b) = model.members.get(k).and_then(|m| model.ends(m))?;
+        Some((t.px(a.x, a.y), t.px(b.x, b.y)))
     };
-    if let Some(k) = highlight.filter(|k| *k < model.members.len()) {
-        let (a, b) = ends(k);
+    if let Some((k, (a, b))) = highlight.and_then(|k| Some((k, ends(k)?))) {
         items.push(
             Item::stroked(Shape::Line { from: a, to: b }, Stroke::solid(Ink::HighlightHalo, 13.0))
                 .tagged(Tag::Member { member: k }),
         );
     }
     for (k, row) in member_rows(analysis, report).into_iter().enumerate() {
-        let (a, b) = ends(k);
+        let Some((a, b)) = ends(k) else { continue };
         let stroke = match row {
             Some((g, u)) => member_stroke(u, g.outcome == GroupOutcome::AsTyped),
             // a member the report does not know: a thin line, nothing claimed
@@ -271,22 +269,21 @@ fn group_labels(analysis: &Analysis, report: &SizeReport, t: &Transform, placer:
     let model = &analysis.frame.model;
     let rows = member_rows(analysis, report);
     let mid = |k: usize| {
-        let m = &model.members[k];
-        let (a, b) = (&model.nodes[m.start], &model.nodes[m.end]);
-        t.px(0.5 * (a.x + b.x), 0.5 * (a.y + b.y))
+        let (a, b) = model.members.get(k).and_then(|m| model.ends(m))?;
+        Some(t.px(0.5 * (a.x + b.x), 0.5 * (a.y + b.y)))
     };
     for g in &report.sizing.groups {
         // at the governing member, else at the group's first member
         let at = (0..model.members.len())
             .find(|&k| g.governing_member.as_deref() == Some(model.member_label(k).as_str()))
             .or_else(|| rows.iter().position(|r| r.is_some_and(|(rg, _)| rg.group == g.group)));
-        let Some(k) = at else { continue };
+        let Some(label_at) = at.and_then(mid) else { continue };
         let (text, short) = group_words(g);
         let ink = match g.utilisation {
             Some(u) if UseBand::of(u) == UseBand::Over => Ink::UseOver,
             _ => Ink::Text,
         };
-        let mut req = Request::new(text, TextSize::Small, ink, mid(k)).short(short);
+        let mut req = Request::new(text, TextSize::Small, ink, label_at).short(short);
         if let GroupOutcome::NotSized { reason } = &g.outcome {
             req = req.detail(reason.clone());
         }

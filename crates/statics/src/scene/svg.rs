@@ -53,24 +53,26 @@ pub fn scene_svg(scene: &Scene, members: &[MemberName], title: &str, caution: &s
     let mut order: Vec<Slot> = Vec::new();
     for item in &scene.items {
         let Some(element) = item_element(item) else { continue };
-        match item.tag {
-            Tag::Member { member } if members.get(member).is_some() => {
-                match groups.iter_mut().find(|(m, _)| *m == member) {
-                    Some((_, g)) => *g = std::mem::take(g).add(element),
-                    None => {
-                        let name = &members[member];
-                        let g = Group::new()
-                            .set("id", element_id(&name.name))
-                            .set("class", "member")
-                            .set("data-member", name.name.as_str())
-                            .set("data-group", name.group.as_str())
-                            .add(element);
-                        order.push(Slot::Member(groups.len()));
-                        groups.push((member, g));
-                    }
-                }
+        let named = match item.tag {
+            Tag::Member { member } => members.get(member).map(|name| (member, name)),
+            _ => None,
+        };
+        let Some((member, name)) = named else {
+            order.push(Slot::Shape(element));
+            continue;
+        };
+        match groups.iter_mut().find(|(m, _)| *m == member) {
+            Some((_, g)) => *g = std::mem::take(g).add(element),
+            None => {
+                let g = Group::new()
+                    .set("id", element_id(&name.name))
+                    .set("class", "member")
+                    .set("data-member", name.name.as_str())
+                    .set("data-group", name.group.as_str())
+                    .add(element);
+                order.push(Slot::Member(groups.len()));
+                groups.push((member, g));
             }
-            _ => order.push(Slot::Shape(element)),
         }
     }
     let mut groups: Vec<Option<Group>> = groups.into_iter().map(|(_, g)| Some(g)).collect();

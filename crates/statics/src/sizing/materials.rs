@@ -265,18 +265,33 @@ fn glulam(name: &str, f_m: f64, f_t0: f64, f_c0: f64, e_mean: f64, e_05: f64, rh
     })
 }
 
+/// The `s355` preset (structural steel S355), as `material_presets` lists it.
+pub(crate) fn s355() -> Material {
+    steel("S355", 355.0)
+}
+
+/// The `c40-50` preset (concrete C40/50), as `material_presets` lists it.
+pub(crate) fn c40_50() -> Material {
+    concrete("C40/50", 40.0, 35.0)
+}
+
+/// The `gl24h` preset (glulam GL24h), as `material_presets` lists it.
+pub(crate) fn gl24h() -> Material {
+    glulam("GL24h", 24.0, 19.2, 24.0, 11_500.0, 9_600.0, 420.0)
+}
+
 /// The material presets: (key, material, the source of its values). Keys are ours, lower
 /// case: steel `s235`, `s355`, `s460`; concrete `c30-37`, `c40-50`, `c50-60`; glulam
 /// `gl24h`, `gl28h`, `gl32h`. Values quoted from memory are marked so in the source text.
 pub fn material_presets() -> Vec<(&'static str, Material, &'static str)> {
     vec![
         ("s235", steel("S235", 235.0), STEEL_SOURCE),
-        ("s355", steel("S355", 355.0), STEEL_SOURCE),
+        ("s355", s355(), STEEL_SOURCE),
         ("s460", steel("S460", 460.0), STEEL_SOURCE),
         ("c30-37", concrete("C30/37", 30.0, 33.0), CONCRETE_SOURCE),
-        ("c40-50", concrete("C40/50", 40.0, 35.0), CONCRETE_SOURCE),
+        ("c40-50", c40_50(), CONCRETE_SOURCE),
         ("c50-60", concrete("C50/60", 50.0, 37.0), CONCRETE_SOURCE),
-        ("gl24h", glulam("GL24h", 24.0, 19.2, 24.0, 11_500.0, 9_600.0, 420.0), GLULAM_SOURCE),
+        ("gl24h", gl24h(), GLULAM_SOURCE),
         ("gl28h", glulam("GL28h", 28.0, 22.3, 28.0, 12_600.0, 10_500.0, 460.0), GLULAM_SOURCE),
         ("gl32h", glulam("GL32h", 32.0, 25.6, 32.0, 14_200.0, 11_800.0, 490.0), GLULAM_SOURCE),
     ]

@@ -200,6 +200,14 @@ pub const MIN_REINFORCEMENT_RATIO: f64 = 0.002;
 pub const MAX_REINFORCEMENT_RATIO: f64 = 0.04;
 
 impl Family {
+    /// The `chs` preset (see `family_presets`).
+    pub(crate) const CHS: Family = Family::Chs { d_over_t: 40.0 };
+    /// The `shs` preset (see `family_presets`).
+    pub(crate) const SHS: Family = Family::Shs { b_over_t: 25.0 };
+    /// The `box` preset (see `family_presets`).
+    pub(crate) const BOX: Family =
+        Family::WeldedBox { width_over_depth: 0.6, flange_ratio: 30.0, web_ratio: 30.0 };
+
     /// The section of this family at `size`, m (outer diameter, outer width or depth).
     ///
     /// - CHS: t = D / (D/t) rounded up to whole mm; A = pi/4 (D^2 - d^2), I = pi/64 (D^4 -
@@ -462,9 +470,9 @@ impl Family {
     /// c/t below 42 eps = 30.0 for S460).
     pub fn family_presets() -> Vec<(&'static str, Family)> {
         vec![
-            ("chs", Family::Chs { d_over_t: 40.0 }),
-            ("shs", Family::Shs { b_over_t: 25.0 }),
-            ("box", Family::WeldedBox { width_over_depth: 0.6, flange_ratio: 30.0, web_ratio: 30.0 }),
+            ("chs", Family::CHS),
+            ("shs", Family::SHS),
+            ("box", Family::BOX),
             (
                 "concrete",
                 Family::ConcreteRect { width_over_depth: 1.0, reinforcement_ratio: 0.02, cover: 0.06 },

@@ -146,7 +146,8 @@ pub fn lever(positions: &[f64], i: usize, y: f64) -> f64 {
         Some(k) => k - 1,
         None => n - 2,
     };
-    let (a, b) = (positions[k], positions[k + 1]);
+    // k + 1 < n: the segment's two ribs exist
+    let Some(&[a, b]) = positions.get(k..k + 2) else { return 0.0 };
     let t = (y - a) / (b - a);
     if i == k {
         1.0 - t
@@ -182,9 +183,9 @@ impl Across<'_> {
             cuts.extend(p.iter().copied().filter(|&y| y > a && y < b));
         }
         cuts.push(b);
-        cuts.windows(2)
-            .map(|w| {
-                let (ya, yb) = (w[0], w[1]);
+        cuts.iter()
+            .zip(cuts.iter().skip(1))
+            .map(|(&ya, &yb)| {
                 let (ra, rb) = (self.at(ya), self.at(yb));
                 let len = yb - ya;
                 if ra >= 0.0 && rb >= 0.0 {
@@ -312,11 +313,12 @@ fn best(
     let full = states - 1;
     let step = |s: usize, g: usize| -> Option<usize> {
         let mut place = 1;
-        for r in &radix[..g] {
+        for r in radix.iter().take(g) {
             place *= r;
         }
-        let count = (s / place) % radix[g];
-        (count + 1 < radix[g]).then_some(s + place)
+        let size = *radix.get(g)?;
+        let count = (s / place) % size;
+        (count + 1 < size).then_some(s + place)
     };
     const NONE: f64 = f64::NEG_INFINITY;
     // the best net gain of lanes starting on the grid start + i grid
@@ -334,27 +336,37 @@ fn best(
             })
             .collect();
         // f[i][s]: best (lane value - lost remaining) from cell i on, with state s so far
+        // (NONE: no way to place every lane from there)
         let mut f = vec![vec![NONE; states]; cells + 1];
-        f[cells][full] = 0.0;
+        let at =
+            |f: &[Vec<f64>], i: usize, s: usize| f.get(i).and_then(|row| row.get(s)).copied().unwrap_or(NONE);
+        if let Some(last) = f.get_mut(cells).and_then(|row| row.get_mut(full)) {
+            *last = 0.0;
+        }
         for i in (0..cells).rev() {
-            for s in 0..states {
-                let mut v = f[i + 1][s];
-                for g in 0..groups.len() {
-                    let end = i + lane_cells[g];
-                    if end > cells {
-                        continue;
-                    }
-                    if let Some(next) = step(s, g) {
-                        let tail = f[end][next];
-                        if tail > NONE {
-                            v = v.max(gains[g][i] + tail);
+            let row: Vec<f64> = (0..states)
+                .map(|s| {
+                    let mut v = at(&f, i + 1, s);
+                    for (g, (&lane_len, lane_gains)) in lane_cells.iter().zip(&gains).enumerate() {
+                        let end = i + lane_len;
+                        if end > cells {
+                            continue;
+                        }
+                        if let (Some(next), Some(&gain)) = (step(s, g), lane_gains.get(i)) {
+                            let tail = at(&f, end, next);
+                            if tail > NONE {
+                                v = v.max(gain + tail);
+                            }
                         }
                     }
-                }
-                f[i][s] = v;
+                    v
+                })
+                .collect();
+            if let Some(slot) = f.get_mut(i) {
+                *slot = row;
             }
         }
-        f[0][0]
+        at(&f, 0, 0)
     };
     // the grid from the left kerb, and shifted to end at the right kerb (the width need
     // not be a whole number of cells), so a mirrored deck gets mirrored shares
@@ -398,7 +410,8 @@ fn line_traffic(layout: &LaneLayout, strip: Strip, across: Across) -> LineTraffi
     for k in 1..=lane_count {
         let m =
             layout.multiple_presence.get(k - 1).or(layout.multiple_presence.last()).copied().unwrap_or(1.0);
-        let loaded = lane_groups(&layout.lanes[..k]);
+        let Some(first_lanes) = layout.lanes.get(..k) else { continue };
+        let loaded = lane_groups(first_lanes);
         let (u, r) = best(&loaded, strip, across, layout.remaining, layout.wheel_gauge, Part::Uniform);
         let (v, _) = best(&loaded, strip, across, 0.0, layout.wheel_gauge, Part::Vehicle);
         lanes_u = lanes_u.max(m * u);
@@ -420,11 +433,13 @@ pub fn share(layout: &LaneLayout, deck_width: f64, carriageway_width: f64, posit
         Strip { deck_half: deck_width / 2.0, carriageway_half: carriageway_width.min(deck_width) / 2.0 };
     let whole = line_traffic(layout, strip, Across::Whole);
     let fraction = |part: f64, all: f64| if all > 0.0 { part / all } else { 0.0 };
-    let ribs: Vec<RibShare> = (0..positions.len())
-        .map(|i| {
+    let ribs: Vec<RibShare> = positions
+        .iter()
+        .enumerate()
+        .map(|(i, &position)| {
             let traffic = line_traffic(layout, strip, Across::Rib(positions, i));
             RibShare {
-                position: positions[i],
+                position,
                 uniform_fraction: fraction(traffic.uniform(), whole.uniform()),
                 vehicle_fraction: fraction(traffic.vehicle_weight, whole.vehicle_weight),
                 traffic,
