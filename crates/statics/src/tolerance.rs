@@ -45,6 +45,19 @@ pub const NONSINGULAR_MARGIN: f64 = 1e2;
 /// Pinned by `frame::solver`'s tests.
 pub const REFINED: f64 = 1e3 * f64::EPSILON;
 
+/// A solved case whose equilibrium residual (largest node residual over the reference
+/// force, `EquilibriumCheck::relative`) passes this is reported as ill-conditioned. The
+/// refined solve keeps it near 1e-13 on every test model, so 1e-9 means stiffnesses
+/// many orders apart have eaten most of the digits.
+pub const ILL_CONDITIONED: f64 = 1e-9;
+
+/// Greatest ratio of the largest to the smallest axial stiffness E A of the design's
+/// member groups before it is reported as ill-conditioned. Real deck arches stay within
+/// about 1e3 (a 10 m2 concrete rib against a 1e-3 m2 steel brace); beyond 1e6 the
+/// softest group carries nothing to the digits the solver keeps and the stiffness matrix
+/// nears a mechanism.
+pub const STIFFNESS_CONTRAST: f64 = 1e6;
+
 /// Reactions of a case without net load count as vanished below this fraction of
 /// E A times the largest imposed strain (they are then rounding noise).
 pub const VANISHING_REACTION: f64 = 1e-6;

@@ -17,6 +17,7 @@ use crate::arch::generate::{
 use crate::arch::summary::{SpringingForce, Summary};
 use crate::arch::validate::ValidDesign;
 use crate::error::StaticsError;
+use crate::error::{Field, GroupName, Location, Problem, SectionProperty};
 use crate::frame::determinacy::{truss_determinacy, Determinacy, DeterminacyReport};
 use crate::frame::model::Model;
 use crate::frame::results::CaseResult;
@@ -24,7 +25,7 @@ use crate::frame::solver::{solve, Solution};
 use crate::graphic::funicular::{rib_funicular, RibFunicular};
 use crate::graphic::reciprocal::{force_diagram, ForceDiagram};
 use crate::graphic::thrust_line::{thrust_line, ThrustLine};
-use crate::tolerance::ZERO_FORCE;
+use crate::tolerance::{ILL_CONDITIONED, STIFFNESS_CONTRAST, ZERO_FORCE};
 use serde::Serialize;
 use std::fmt;
 
@@ -430,7 +431,16 @@ pub fn analyze_reusing(
     let rs = restraint(valid);
     // the standard cases once (they share the traffic across the deck), then the extra
     let specs: Vec<CaseSpec> = standard_cases(valid).into_iter().chain(extra.iter().cloned()).collect();
-    let Solved { frame, frame_solution, rib, rib_solution, truss } = solve_models(valid, &specs, previous)?;
+    let contrast = stiffness_contrast(design);
+    let Solved { frame, frame_solution, rib, rib_solution, truss } = solve_models(valid, &specs, previous)
+        .map_err(|e| match (&e, &contrast) {
+            // a near-mechanism caused by the contrast: say so beside the sections
+            (StaticsError::Mechanism { .. }, Some(problem)) => StaticsError::Invalid(vec![Problem {
+                message: format!("{}; the frame model cannot be solved ({e})", problem.message),
+                ..problem.clone()
+            }]),
+            _ => e,
+        })?;
     let mut frame_notes = vec![ModelNote::Restraint { held_by: rs.held_by }];
     if design.rib_system == RibSystem::ThreeHinged {
         frame_notes.push(ModelNote::DropIn);
@@ -512,7 +522,13 @@ pub fn analyze_reusing(
         sign_convention: SIGN_CONVENTION.into(),
         caution: CAUTION.into(),
         summary,
-        warnings: valid.warnings().to_vec(),
+        warnings: valid
+            .warnings()
+            .iter()
+            .cloned()
+            .chain(contrast)
+            .chain([&frame, &bare_rib].into_iter().filter_map(conditioning_warning))
+            .collect(),
         form: form.clone(),
         restraint: rs,
         frame,
@@ -692,14 +708,14 @@ pub fn rib_moments(model: &Model, map: &ModelMap, solution: &Solution, form: &Fo
         let rib = &map.rib_members;
         for (r, &node) in map.rib_nodes.iter().enumerate() {
             // member r - 1 ends at rib node r, member r starts there
-            let left = r.checked_sub(1).and_then(|k| rib.get(k)).map(|&k| case.members[k].end.m);
-            let right = rib.get(r).map(|&k| case.members[k].start.m);
-            let p = &model.nodes[node];
+            let member = |k: Option<&usize>| k.and_then(|&k| case.members.get(k));
+            let left = member(r.checked_sub(1).and_then(|k| rib.get(k))).map(|m| m.end.m);
+            let right = member(rib.get(r)).map(|m| m.start.m);
+            let Some(p) = model.nodes.get(node) else { continue };
             let m = governing(left.unwrap_or(0.0), right.unwrap_or(0.0));
             nodes.push(RibMoment { x: p.x, y: p.y, left, right, m });
         }
-        for &k in rib {
-            let mf = &case.members[k];
+        for mf in rib.iter().filter_map(|&k| case.members.get(k)) {
             max_abs = max_abs.max(mf.max_abs_moment()).max(mf.start.m.abs()).max(mf.end.m.abs());
         }
     }
@@ -714,9 +730,119 @@ pub fn rib_moments(model: &Model, map: &ModelMap, solution: &Solution, form: &Fo
     }
 }
 
+/// A warning when a case of `result` balances only loosely (equilibrium residual above
+/// [`ILL_CONDITIONED`] of its reference force), with its cause: the stiffest and the
+/// softest member stiffness terms of the model (E A / L, and 12 E I / L^3 of members
+/// that bend; stiffness method, any structural analysis text) and their ratio. `None`
+/// when every case balances to rounding.
+fn conditioning_warning(result: &ModelResult) -> Option<Warning> {
+    // a residual that is not a number counts as the worst
+    let loose = |r: f64| if r.is_nan() { f64::INFINITY } else { r };
+    let worst = result
+        .solution
+        .cases
+        .iter()
+        .max_by(|a, b| loose(a.equilibrium.relative).total_cmp(&loose(b.equilibrium.relative)))?;
+    let residual = worst.equilibrium.relative;
+    if residual.is_finite() && residual <= ILL_CONDITIONED {
+        return None;
+    }
+    let mut terms: Vec<(f64, &str, String)> = Vec::new();
+    for (k, member) in result.model.members.iter().enumerate() {
+        let Some((a, b)) = result.model.ends(member) else { continue };
+        let length = (b.x - a.x).hypot(b.y - a.y);
+        if length > 0.0 {
+            terms.push((member.e * member.a / length, "E A / L", result.model.member_label(k)));
+            if member.i > 0.0 && !(member.release_start && member.release_end) {
+                terms.push((
+                    12.0 * member.e * member.i / length.powi(3),
+                    "12 E I / L^3",
+                    result.model.member_label(k),
+                ));
+            }
+        }
+    }
+    let stiffest = terms.iter().max_by(|a, b| a.0.total_cmp(&b.0))?;
+    let softest = terms.iter().min_by(|a, b| a.0.total_cmp(&b.0))?;
+    Some(Problem::new(
+        Location::Part(result.kind.to_string()),
+        format!(
+            "the {} is ill-conditioned: in case '{}' equilibrium holds only to {residual:.1e} of the \
+             loads; its stiffest term ({} of {}, {:.2e} kN/m) is {:.1e} times its softest ({} of {}, {:.2e} \
+             kN/m); bring the sections' stiffnesses closer together",
+            result.kind,
+            worst.name,
+            stiffest.1,
+            stiffest.2,
+            stiffest.0,
+            stiffest.0 / softest.0,
+            softest.1,
+            softest.2,
+            softest.0,
+        ),
+    ))
+}
+
+/// A warning when the axial stiffnesses E A of the design's member groups (those the
+/// design uses: bracing when braced, piers when there are approach piers) lie more than
+/// [`STIFFNESS_CONTRAST`] apart, naming the stiffest and the softest group: the model is
+/// ill-conditioned. It stands beside the softest group's E and A.
+fn stiffness_contrast(design: &Design) -> Option<Warning> {
+    let g = &design.groups;
+    let used = [
+        (GroupName::Rib, &g.rib, true),
+        (GroupName::Deck, &g.deck, true),
+        (GroupName::Posts, &g.posts, true),
+        (GroupName::Piers, &g.piers, design.approach_piers_left + design.approach_piers_right > 0),
+        (GroupName::Bracing, &g.bracing, design.bracing.is_braced()),
+    ];
+    let axial: Vec<(GroupName, f64)> =
+        used.iter().filter(|(_, _, used)| *used).map(|(name, s, _)| (*name, s.e * s.a)).collect();
+    let (stiff, high) = axial.iter().copied().max_by(|a, b| a.1.total_cmp(&b.1))?;
+    let (soft, low) = axial.iter().copied().min_by(|a, b| a.1.total_cmp(&b.1))?;
+    (low > 0.0 && high / low > STIFFNESS_CONTRAST).then(|| {
+        Problem::new(
+            Field::Section(soft, SectionProperty::A),
+            format!(
+                "the model is ill-conditioned: the {} section's E A ({high:.2e} kN) is {:.1e} times the {} \
+                 section's ({low:.2e} kN), beyond {STIFFNESS_CONTRAST:.0e}; results lose digits and the \
+                 structure nears a mechanism: bring the sections' stiffnesses closer together",
+                stiff.key(),
+                high / low,
+                soft.key(),
+            ),
+        )
+        .involving([Field::Section(soft, SectionProperty::E), Field::Section(stiff, SectionProperty::A)])
+    })
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    /// A case that balances only loosely (or not at all: NaN) is reported with the
+    /// model's stiffest and softest terms; the demo's own cases balance to rounding.
+    #[test]
+    fn a_loose_equilibrium_is_reported_with_its_cause() {
+        let analysis = analyze(&Design::demo()).expect("the demo analyses");
+        assert_eq!(conditioning_warning(&analysis.frame), None);
+        for residual in [1e-6, f64::NAN] {
+            let mut frame = analysis.frame.clone();
+            if let Some(case) = frame.solution.cases.get_mut(1) {
+                case.equilibrium.relative = residual;
+            }
+            let warned = conditioning_warning(&frame).expect("a warning");
+            assert_eq!(warned.location.path(), "frame model");
+            let m = &warned.message;
+            assert!(m.starts_with("the frame model is ill-conditioned: in case '"), "{m}");
+            assert!(m.contains(&format!("holds only to {residual:.1e} of the loads")), "{m}");
+            // the rib's E A / L is the stiffest term; the softest is a bending term
+            assert!(
+                m.contains("its stiffest term (E A / L of rib") && m.contains("softest (12 E I / L^3 of"),
+                "{m}"
+            );
+        }
+    }
     use crate::arch::design::{Bracing, Crown, RibSystem};
     use crate::arch::validate::VALIDATIONS;
     use crate::frame::model::{LoadDirection, MemberLoad};

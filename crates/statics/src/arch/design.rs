@@ -61,6 +61,26 @@ pub const MIN_FORM_TOLERANCE: f64 = 1e-14;
 /// Most form-finding iterations accepted.
 pub const MAX_FORM_ITERATIONS: usize = 10_000;
 
+/// Largest coordinate or level accepted, m: 100 km from the origin. Larger numbers are a
+/// units slip (millimetres typed as metres) and, near 1e308, overflow the arithmetic.
+pub const MAX_COORDINATE: f64 = 1e5;
+/// Largest Young's modulus accepted, kN/m2: 1e10 (10,000 GPa), some eight times that of
+/// diamond; structural steel is about 2.1e8 and concrete about 3.5e7 (any materials
+/// handbook). Above it the number is a units slip.
+pub const MAX_MODULUS: f64 = 1e10;
+/// Largest section area per rib line accepted, m2 (the largest concrete arch ribs are some
+/// 10 to 20 m2; common practice, from memory).
+pub const MAX_AREA: f64 = 100.0;
+/// Largest second moment of area accepted, m4.
+pub const MAX_SECOND_MOMENT: f64 = 1e4;
+/// Largest section depth accepted, m.
+pub const MAX_DEPTH: f64 = 50.0;
+/// Largest unit weight accepted, kN/m3 (lead is about 111).
+pub const MAX_UNIT_WEIGHT: f64 = 1000.0;
+/// Largest deck dead load or surfacing accepted, kN/m2 (a heavy concrete deck is some 10
+/// to 20; common practice).
+pub const MAX_DECK_LOAD: f64 = 1000.0;
+
 /// A complete design: the valley, the deck, the arch and its members.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct Design {
@@ -391,8 +411,7 @@ fn ground_at(valley: &[GroundPoint], x: f64) -> Option<f64> {
     if !x.is_finite() {
         return None;
     }
-    for w in valley.windows(2) {
-        let (a, b) = (w[0], w[1]);
+    for (a, b) in valley.iter().zip(valley.iter().skip(1)) {
         if a.x <= x && x <= b.x && b.x > a.x {
             return Some(a.y + (b.y - a.y) * (x - a.x) / (b.x - a.x));
         }
@@ -417,12 +436,12 @@ fn wall_crossing(valley: &[GroundPoint], level: f64, left: bool) -> Option<f64> 
         return None;
     }
     let k = lowest_index(valley, left)?;
-    if level < valley[k].y {
+    if level < valley.get(k)?.y {
         return None;
     }
     let segments: Vec<usize> = if left { (0..k).rev().collect() } else { (k..valley.len() - 1).collect() };
     for s in segments {
-        let (a, b) = (valley[s], valley[s + 1]);
+        let (Some(a), Some(b)) = (valley.get(s), valley.get(s + 1)) else { continue };
         let (lo, hi) = (a.y.min(b.y), a.y.max(b.y));
         if lo <= level && level <= hi && b.x > a.x {
             if hi == lo {
@@ -448,7 +467,9 @@ fn wall_crossing(valley: &[GroundPoint], level: f64, left: bool) -> Option<f64> 
 pub(crate) fn check_inputs(d: &Design, problems: &mut Vec<Problem>, warnings: &mut Vec<Warning>) {
     // the first field is where the problem is; the others are involved too
     let mut add = |fields: &[Field], msg: String| {
-        problems.push(Problem::new(fields[0], msg).involving(fields[1..].iter().copied()))
+        if let Some((&first, others)) = fields.split_first() {
+            problems.push(Problem::new(first, msg).involving(others.iter().copied()))
+        }
     };
     let finite = |v: f64| v.is_finite();
     // a design in memory is always of the current version: only the design-file and
@@ -482,24 +503,41 @@ pub(crate) fn check_inputs(d: &Design, problems: &mut Vec<Problem>, warnings: &m
                 format!("ground point {} has a coordinate that is not a finite number (m)", i + 1),
             );
             valley_ok = false;
+        } else if p.x.abs() > MAX_COORDINATE || p.y.abs() > MAX_COORDINATE {
+            add(
+                &[Field::Valley],
+                format!(
+                    "ground point {} (x = {:e} m, y = {:e} m) lies more than {MAX_COORDINATE:e} m \
+                     from the origin; coordinates are in metres: check the units",
+                    i + 1,
+                    p.x,
+                    p.y
+                ),
+            );
+            valley_ok = false;
         }
     }
-    for (i, w) in d.valley.windows(2).enumerate() {
-        if finite(w[0].x) && finite(w[1].x) && w[1].x <= w[0].x {
-            add(&[Field::Valley], format!("ground point {} (x = {} m) is not to the right of point {} (x = {} m); list points with increasing x", i + 2, w[1].x, i + 1, w[0].x));
+    for (i, (a, b)) in d.valley.iter().zip(d.valley.iter().skip(1)).enumerate() {
+        if finite(a.x) && finite(b.x) && b.x <= a.x {
+            add(&[Field::Valley], format!("ground point {} (x = {} m) is not to the right of point {} (x = {} m); list points with increasing x", i + 2, b.x, i + 1, a.x));
             valley_ok = false;
         }
     }
     // deck
-    let deck_level_ok = finite(d.deck.level);
+    let in_reach = |v: f64| finite(v) && v.abs() <= MAX_COORDINATE;
+    let reach = format!("a finite number (m) within {MAX_COORDINATE:e} m of the origin");
+    let deck_level_ok = in_reach(d.deck.level);
     if !deck_level_ok {
-        add(&[Field::DeckLevel], "the deck level must be a finite number (m)".into());
+        add(&[Field::DeckLevel], format!("the deck level {} must be {reach}", d.deck.level));
     }
-    if !finite(d.deck.left_seat_x) {
-        add(&[Field::LeftSeatX], "the left abutment seat x must be a finite number (m)".into());
+    if !in_reach(d.deck.left_seat_x) {
+        add(&[Field::LeftSeatX], format!("the left abutment seat x {} must be {reach}", d.deck.left_seat_x));
     }
-    if !finite(d.deck.right_seat_x) {
-        add(&[Field::RightSeatX], "the right abutment seat x must be a finite number (m)".into());
+    if !in_reach(d.deck.right_seat_x) {
+        add(
+            &[Field::RightSeatX],
+            format!("the right abutment seat x {} must be {reach}", d.deck.right_seat_x),
+        );
     }
     if !(finite(d.deck.width) && d.deck.width > 0.0) {
         add(&[Field::DeckWidth], format!("the deck width {} m must be a positive number", d.deck.width));
@@ -527,11 +565,28 @@ pub(crate) fn check_inputs(d: &Design, problems: &mut Vec<Problem>, warnings: &m
             &[Field::DeadLoad],
             format!("the deck dead load {} kN/m2 must be zero or positive", d.deck.dead_load),
         );
+    } else if d.deck.dead_load > MAX_DECK_LOAD {
+        add(
+            &[Field::DeadLoad],
+            format!(
+                "the deck dead load {} kN/m2 is above {MAX_DECK_LOAD} kN/m2, far more than any deck \
+                 weighs (a heavy concrete deck is some 10 to 20); check the units",
+                d.deck.dead_load
+            ),
+        );
     }
     if !(finite(d.deck.surfacing) && d.deck.surfacing >= 0.0) {
         add(
             &[Field::Surfacing],
             format!("the surfacing load {} kN/m2 must be zero or positive", d.deck.surfacing),
+        );
+    } else if d.deck.surfacing > MAX_DECK_LOAD {
+        add(
+            &[Field::Surfacing],
+            format!(
+                "the surfacing load {} kN/m2 is above {MAX_DECK_LOAD} kN/m2; check the units",
+                d.deck.surfacing
+            ),
         );
     }
     // springings
@@ -544,8 +599,8 @@ pub(crate) fn check_inputs(d: &Design, problems: &mut Vec<Problem>, warnings: &m
     .enumerate()
     {
         let side = if left { "left" } else { "right" };
-        if !finite(level) {
-            add(&[field], format!("the {side} springing level must be a finite number (m)"));
+        if !in_reach(level) {
+            add(&[field], format!("the {side} springing level {level} must be {reach}"));
             continue;
         }
         if deck_level_ok && level >= d.deck.level {
@@ -564,7 +619,11 @@ pub(crate) fn check_inputs(d: &Design, problems: &mut Vec<Problem>, warnings: &m
         }
         if valley_ok {
             match wall_crossing(&d.valley, level, left) {
-                Some(x) => springs[k] = Some(x),
+                Some(x) => {
+                    if let Some(slot) = springs.get_mut(k) {
+                        *slot = Some(x);
+                    }
+                }
                 None => add(&[field, Field::Valley], format!("the {side} springing level {level} m does not meet the {side} valley wall (it is below the valley floor or above the {side} rim of the profile); choose a level the wall passes through")),
             }
         }
@@ -745,9 +804,48 @@ pub(crate) fn check_inputs(d: &Design, problems: &mut Vec<Problem>, warnings: &m
                 &[name(SectionProperty::E)],
                 format!("Young's modulus E = {} kN/m2 must be a positive number", s.e),
             );
+        } else if s.e > MAX_MODULUS {
+            add(
+                &[name(SectionProperty::E)],
+                format!(
+                    "Young's modulus E = {} kN/m2 is beyond any structural material (steel is about \
+                     2.1e8 kN/m2, concrete about 3.5e7); check the units",
+                    s.e
+                ),
+            );
         }
         if !(finite(s.a) && s.a > 0.0) {
             add(&[name(SectionProperty::A)], format!("area A = {} m2 must be a positive number", s.a));
+        } else if s.a > MAX_AREA {
+            add(
+                &[name(SectionProperty::A)],
+                format!("area A = {} m2 is more than {MAX_AREA} m2 per rib line; check the units", s.a),
+            );
+        }
+        if finite(s.i) && s.i > MAX_SECOND_MOMENT {
+            add(
+                &[name(SectionProperty::I)],
+                format!(
+                    "second moment of area I = {} m4 is more than {MAX_SECOND_MOMENT:e} m4; check the units",
+                    s.i
+                ),
+            );
+        }
+        if finite(s.depth) && s.depth > MAX_DEPTH {
+            add(
+                &[name(SectionProperty::Depth)],
+                format!("section depth {} m is more than {MAX_DEPTH} m; check the units", s.depth),
+            );
+        }
+        if finite(s.unit_weight) && s.unit_weight > MAX_UNIT_WEIGHT {
+            add(
+                &[name(SectionProperty::UnitWeight)],
+                format!(
+                    "unit weight {} kN/m3 is more than {MAX_UNIT_WEIGHT} kN/m3 (steel is about 78.5); \
+                     check the units",
+                    s.unit_weight
+                ),
+            );
         }
         if needs_i && !(finite(s.i) && s.i > 0.0) {
             add(

@@ -81,7 +81,8 @@ pub struct RibMemberStability {
     pub moment_case: Option<usize>,
     /// Its compression per rib line in the compression case, kN (>= 0).
     pub n_ed: f64,
-    /// The arch's critical axial force of it, alpha_cr N_Ed, kN (per rib line).
+    /// The arch's critical axial force of it, alpha_cr N_Ed, kN (per rib line); infinite
+    /// when it has no compression case (nothing buckles it).
     pub n_cr: f64,
     /// The buckling length in the arch plane from it, m (`None`: not compressed in its
     /// case; the arch table's length is kept).
@@ -169,7 +170,9 @@ pub fn rib_stability(
                 }
                 None => (0.0, f64::INFINITY),
             };
-            let n_cr = alpha * n_ed;
+            // not compressed and no buckling case: nothing to buckle (0 times infinity
+            // would be NaN)
+            let n_cr = if n_ed > 0.0 || alpha.is_finite() { alpha * n_ed } else { f64::INFINITY };
             let length = (n_cr.is_finite() && n_cr > 0.0 && analysed_ei > 0.0)
                 .then(|| std::f64::consts::PI * (analysed_ei / n_cr).sqrt());
             RibMemberStability {
@@ -187,8 +190,12 @@ pub fn rib_stability(
     let alpha_cr = analysed.iter().map(|c| c.arch.alpha_cr).fold(f64::INFINITY, f64::min);
     let least = if design.sizing.rib_for_first_order { LEAST_FIRST_ORDER } else { LEAST_AMPLIFIED };
     let rib_nodes = &valid.form().rib;
-    let half_length =
-        0.5 * rib_nodes.windows(2).map(|w| (w[1].x - w[0].x).hypot(w[1].y - w[0].y)).sum::<f64>();
+    let half_length = 0.5
+        * rib_nodes
+            .iter()
+            .zip(rib_nodes.iter().skip(1))
+            .map(|(a, b)| (b.x - a.x).hypot(b.y - a.y))
+            .sum::<f64>();
     Ok(RibStability { cases: analysed, alpha_cr, least, analysed_ei, half_length, members })
 }
 

@@ -106,7 +106,7 @@ impl TrafficDesign {
                     )
                     .involving([Field::DeckWidth]),
                 );
-            } else if p.windows(2).any(|s| s[1] <= s[0]) {
+            } else if p.iter().zip(p.iter().skip(1)).any(|(a, b)| b <= a) {
                 out.push(Problem::new(
                     Field::RibPositions,
                     "list the rib positions from left to right, each further right than the one before",
@@ -123,7 +123,15 @@ impl TrafficDesign {
         }
         out.extend(self.model_shape_problems());
         for (i, c) in self.combinations.iter().enumerate() {
-            let factors = [c.permanent_unfavourable, c.permanent_favourable, c.uniform, c.vehicle];
+            let factors = [
+                c.permanent_unfavourable,
+                c.permanent_favourable,
+                c.uniform,
+                c.vehicle,
+                c.temperature,
+                c.settlement,
+                c.braking,
+            ];
             if factors.iter().any(|f| !(f.is_finite() && *f >= 0.0)) {
                 out.push(Problem::new(
                     Field::Combinations,
