@@ -61,6 +61,12 @@ impl Driver {
             self.port,
             Instant::now().elapsed().as_nanos() ^ rand_seed()
         ));
+        self.session_in(width, height, scale, profile, false)
+    }
+
+    /// [`Driver::session`] in the browser profile folder `profile`, kept when the session
+    /// ends if `keep` (so a later session starts the browser again on the same storage).
+    pub fn session_in(&self, width: u32, height: u32, scale: f64, profile: PathBuf, keep: bool) -> Session {
         std::fs::create_dir_all(&profile).expect("profile folder");
         let args = vec![
             "--headless".to_string(),
@@ -86,7 +92,7 @@ impl Driver {
         let v = http(self.port, "POST", "/session", Some(&caps)).expect("new session");
         let id =
             v["value"]["sessionId"].as_str().unwrap_or_else(|| panic!("no session id in {v}")).to_string();
-        let s = Session { port: self.port, id, profile };
+        let s = Session { port: self.port, id, profile, keep };
         s.set_window(width, height);
         s
     }
@@ -104,6 +110,7 @@ pub struct Session {
     port: u16,
     id: String,
     profile: PathBuf,
+    keep: bool,
 }
 
 impl Session {
@@ -215,7 +222,9 @@ impl Session {
 impl Drop for Session {
     fn drop(&mut self) {
         let _ = http(self.port, "DELETE", &format!("/session/{}", self.id), None);
-        let _ = std::fs::remove_dir_all(&self.profile);
+        if !self.keep {
+            let _ = std::fs::remove_dir_all(&self.profile);
+        }
     }
 }
 
