@@ -88,3 +88,21 @@ ensure_web_tools() {
 build_app() {
     trunk build --release --offline
 }
+
+# The nightly toolchain and cargo-fuzz, for scripts/fuzz (libFuzzer needs nightly's
+# sanitizer flags).
+CARGO_FUZZ_VERSION="0.13.2"
+ensure_fuzz_tools() {
+    if rustup toolchain list 2>/dev/null | grep -q '^nightly'; then
+        note "nightly toolchain: present"
+    else
+        note "installing the nightly toolchain (rustup, minimal profile)"
+        rustup toolchain install nightly --profile minimal
+    fi
+    if cargo fuzz --version 2>/dev/null | grep -q "$CARGO_FUZZ_VERSION"; then
+        note "cargo-fuzz $CARGO_FUZZ_VERSION: present"
+    else
+        note "installing cargo-fuzz $CARGO_FUZZ_VERSION (cargo install, about 2 minutes)"
+        cargo install cargo-fuzz --locked --version "$CARGO_FUZZ_VERSION"
+    fi
+}
