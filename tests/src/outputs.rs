@@ -49,8 +49,9 @@ fn without_strings(dump: &str) -> String {
     let (mut inside, mut escaped) = (false, false);
     dump.chars()
         .map(|c| {
-            let blank = inside && !(c == '"' && !escaped);
-            if inside && c == '"' && !escaped {
+            let closing = inside && c == '"' && !escaped;
+            let blank = inside && !closing;
+            if closing {
                 inside = false;
             } else if !inside && c == '"' {
                 inside = true;

@@ -64,10 +64,11 @@ pub const MAX_FORM_ITERATIONS: usize = 10_000;
 /// Largest coordinate or level accepted, m: 100 km from the origin. Larger numbers are a
 /// units slip (millimetres typed as metres) and, near 1e308, overflow the arithmetic.
 pub const MAX_COORDINATE: f64 = 1e5;
-/// Largest Young's modulus accepted, kN/m2: 1e10 (10,000 GPa), some eight times that of
-/// diamond; structural steel is about 2.1e8 and concrete about 3.5e7 (any materials
-/// handbook). Above it the number is a units slip.
-pub const MAX_MODULUS: f64 = 1e10;
+/// Largest Young's modulus accepted, kN/m2: 1e12, some five thousand times structural
+/// steel's 2.1e8 (concrete is about 3.5e7; any materials handbook). No material comes
+/// near it; it leaves room for studies of a nearly rigid member (E times 100 or 1000)
+/// and refuses values that only a slip gives (1e308 overflows E A).
+pub const MAX_MODULUS: f64 = 1e12;
 /// Largest section area per rib line accepted, m2 (the largest concrete arch ribs are some
 /// 10 to 20 m2; common practice, from memory).
 pub const MAX_AREA: f64 = 100.0;
