@@ -76,7 +76,8 @@ fn the_actions_block_shows_the_engines_numbers_and_follows_an_edit() {
     // the deflection check, once the traffic report is in
     s.wait_for("the deflection check", "return document.getElementById('deflection-check') !== null", WAIT);
     assert!(text_of(&s, "deflection-check").contains("span / 800"));
-    assert!(severe(&s).is_empty(), "{:?}", severe(&s));
+    let errors = severe(&s);
+    assert!(errors.is_empty(), "{errors:?}");
 }
 
 /// Each action has its button in the load picker: choosing one shows that action alone
@@ -144,5 +145,6 @@ fn the_load_picker_shows_each_action_alone() {
         "const c = document.getElementById('elevation'); return c.dataset.vehicleX !== undefined && Math.abs(+c.dataset.vehicleX - 80) < 1e-9",
         WAIT,
     );
-    assert!(severe(&s).is_empty(), "{:?}", severe(&s));
+    let errors = severe(&s);
+    assert!(errors.is_empty(), "{errors:?}");
 }

@@ -171,7 +171,8 @@ fn a_crown_dragged_over_the_deck_stops_at_the_largest_rise_says_why_and_moves_no
     let (message, _) = status(&s);
     assert_eq!(message, idle);
     assert!(same_boxes(&boxes(&s), &before), "after dragging back: {} != {before}", boxes(&s));
-    assert!(severe(&s).is_empty(), "{:?}", severe(&s));
+    let errors = severe(&s);
+    assert!(errors.is_empty(), "{errors:?}");
 }
 
 #[test]
@@ -205,7 +206,8 @@ fn a_rise_typed_over_the_largest_is_refused_and_told_the_largest_rise() {
     set_field(&s, "rise", "21");
     s.wait_for("the hint to go", "return document.getElementById('rise-limit').textContent === ''", WAIT);
     assert_eq!(rise_field(&s), 21.0);
-    assert!(severe(&s).is_empty(), "{:?}", severe(&s));
+    let errors = severe(&s);
+    assert!(errors.is_empty(), "{errors:?}");
 }
 
 /// `#forces`'s published scale, CSS px per kN.
@@ -264,5 +266,6 @@ fn the_force_scale_is_held_while_the_crown_is_dragged_and_refits_after() {
     let after = force_scale(&s);
     // a harder thrust draws wider at the held scale: the refit draws it smaller
     assert!(after < before, "force scale {after} after, {before} before");
-    assert!(severe(&s).is_empty(), "{:?}", severe(&s));
+    let errors = severe(&s);
+    assert!(errors.is_empty(), "{errors:?}");
 }

@@ -79,6 +79,7 @@ fn the_as_built_basis_is_chosen_shown_linked_and_undone() {
     wait_value(&s, "result-thrust-left", form.reaction_left.fx);
     wait_value(&s, "result-thrust-right", -form.reaction_right.fx);
     wait_value(&s, "result-thrust", form.thrust);
-    assert!(severe(&s).is_empty(), "{:?}", severe(&s));
+    let errors = severe(&s);
+    assert!(errors.is_empty(), "{errors:?}");
     assert!(severe(&fresh).is_empty(), "{:?}", severe(&fresh));
 }

@@ -165,7 +165,8 @@ fn saved_options_compare_with_the_cli_survive_a_reload_and_travel_in_one_link() 
         "const v = JSON.parse(localStorage.getItem('springline.options') || '{}'); return v.options && v.options.length === 2;",
         WAIT,
     );
-    assert!(severe(&s).is_empty(), "{:?}", severe(&s));
+    let errors = severe(&s);
+    assert!(errors.is_empty(), "{errors:?}");
     assert!(severe(&fresh).is_empty(), "{:?}", severe(&fresh));
 }
 
@@ -216,7 +217,8 @@ fn unreadable_stored_options_are_set_aside_with_a_message_and_the_app_goes_on() 
     wait_value(&s, "result-thrust", analyze(&higher()).expect("analyses").form.thrust);
     click_id(&s, "save-option");
     wait_comparison(&s, 2);
-    assert!(severe(&s).is_empty(), "{:?}", severe(&s));
+    let errors = severe(&s);
+    assert!(errors.is_empty(), "{errors:?}");
 }
 
 /// Presses a key on the page (a keydown on the body, as a keyboard gives it).
@@ -269,5 +271,6 @@ fn the_keyboard_saves_and_opens_options_and_lists_the_shortcuts() {
     for key in ["Alt+S", "Alt+N / Alt+P", "Alt+L", "Alt+A", "Alt+W", "Escape", "Ctrl+Z"] {
         assert!(list.contains(key), "{key} missing from the list: {list}");
     }
-    assert!(severe(&s).is_empty(), "{:?}", severe(&s));
+    let errors = severe(&s);
+    assert!(errors.is_empty(), "{errors:?}");
 }

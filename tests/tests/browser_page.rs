@@ -118,7 +118,8 @@ fn a_phone_shows_the_drawings_first_with_the_header_whole() {
     std::fs::write(screenshots_dir().join("page-390x844-inputs.png"), s.screenshot()).expect("screenshot");
     click(&s, "#inputs-toggle");
     s.exec("window.scrollTo(0, 0);", vec![]);
-    assert!(severe(&s).is_empty(), "{:?}", severe(&s));
+    let errors = severe(&s);
+    assert!(errors.is_empty(), "{errors:?}");
     std::fs::write(screenshots_dir().join("page-390x844.png"), s.screenshot()).expect("screenshot");
 }
 

@@ -203,5 +203,6 @@ fn the_keyboard_steps_through_members_on_both_drawings() {
         WAIT,
     );
     assert!(readout_lines(&s)[2].starts_with("truss idealisation: N = "), "{:?}", readout_lines(&s));
-    assert!(severe(&s).is_empty(), "{:?}", severe(&s));
+    let errors = severe(&s);
+    assert!(errors.is_empty(), "{errors:?}");
 }

@@ -54,5 +54,6 @@ fn a_thrust_goal_is_found_applied_linked_and_undone() {
         WAIT,
     );
     wait_value(&s, "result-thrust", demo_thrust);
-    assert!(severe(&s).is_empty(), "{:?}", severe(&s));
+    let errors = severe(&s);
+    assert!(errors.is_empty(), "{errors:?}");
 }

@@ -120,7 +120,8 @@ fn the_sizes_view_shows_the_engines_report_and_its_sizes_can_be_used_and_undone(
     );
     click_id(&s, "undo");
     wait_input(&s, "section-rib-a", demo.groups.rib.a);
-    assert!(severe(&s).is_empty(), "{:?}", severe(&s));
+    let errors = severe(&s);
+    assert!(errors.is_empty(), "{errors:?}");
 }
 
 /// The four-figure comparison itself: within half a unit of the fourth figure only.

@@ -147,6 +147,7 @@ fn sizing_inputs_reach_the_link_are_checked_and_the_deck_weight_moves_the_thrust
         WAIT,
     );
     std::fs::write(screenshots_dir().join("sizing-inputs.png"), s.screenshot()).expect("screenshot");
-    assert!(severe(&s).is_empty(), "{:?}", severe(&s));
+    let errors = severe(&s);
+    assert!(errors.is_empty(), "{errors:?}");
     assert!(severe(&fresh).is_empty(), "{:?}", severe(&fresh));
 }

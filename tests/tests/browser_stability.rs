@@ -139,5 +139,6 @@ fn the_sizing_view_shows_alpha_cr_and_the_first_order_option_stiffens_the_rib() 
         s.exec("return document.getElementById('sizing-rib-first-order').checked;", vec![]),
         json!(false)
     );
-    assert!(severe(&s).is_empty(), "{:?}", severe(&s));
+    let errors = severe(&s);
+    assert!(errors.is_empty(), "{errors:?}");
 }

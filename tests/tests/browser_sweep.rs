@@ -101,7 +101,8 @@ fn a_sized_sweep_keeps_the_page_answering_and_a_click_opens_the_option() {
     // one undo step back to the demo
     click_id(&s, "undo");
     wait_value(&s, "result-thrust", analyze(&Design::demo()).expect("analyses").form.thrust);
-    assert!(severe(&s).is_empty(), "{:?}", severe(&s));
+    let errors = severe(&s);
+    assert!(errors.is_empty(), "{errors:?}");
 }
 
 #[test]
@@ -140,5 +141,6 @@ fn cancel_stops_the_sweep_and_keeps_what_it_found() {
         "const p = document.getElementById('sweep-progress'); return !!p && +p.max === 2 && +p.value === 2;",
         Duration::from_secs(60),
     );
-    assert!(severe(&s).is_empty(), "{:?}", severe(&s));
+    let errors = severe(&s);
+    assert!(errors.is_empty(), "{errors:?}");
 }

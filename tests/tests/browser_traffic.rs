@@ -134,7 +134,8 @@ fn choosing_hl93_brings_its_combinations_and_undo_takes_them_back() {
     wait_model_title(&s, &en.load_model);
     assert_eq!(s.exec("return document.getElementById('load-model').value", vec![]), json!("en-lm1"));
     assert_thrust_table(&s, &en);
-    assert!(severe(&s).is_empty(), "{:?}", severe(&s));
+    let errors = severe(&s);
+    assert!(errors.is_empty(), "{errors:?}");
 }
 
 #[test]
@@ -193,7 +194,8 @@ fn a_carriageway_wider_than_the_deck_is_refused_beside_the_field() {
     );
     assert_eq!(text_of(&s, "rib-positions-error"), "");
     assert_eq!(s.exec("return document.getElementById('undo').disabled", vec![]), json!(false));
-    assert!(severe(&s).is_empty(), "{:?}", severe(&s));
+    let errors = severe(&s);
+    assert!(errors.is_empty(), "{errors:?}");
     // the inputs column scrolled to the Traffic panel, the page to the Traffic block
     s.exec(
         "document.getElementById('traffic-results').scrollIntoView();
@@ -232,7 +234,8 @@ fn the_traffic_panel_and_block_fit_a_phone() {
     std::fs::write(screenshots_dir().join("traffic-390x844-inputs.png"), s.screenshot()).expect("screenshot");
     s.exec("document.getElementById('traffic-results').scrollIntoView();", vec![]);
     std::fs::write(screenshots_dir().join("traffic-390x844.png"), s.screenshot()).expect("screenshot");
-    assert!(severe(&s).is_empty(), "{:?}", severe(&s));
+    let errors = severe(&s);
+    assert!(errors.is_empty(), "{errors:?}");
 }
 
 /// While the crown is dragged the results follow the pointer but the traffic block
@@ -287,7 +290,8 @@ fn the_traffic_block_waits_for_the_end_of_a_drag() {
     let permanent1 = data_value(&s, "traffic-permanent");
     let thrust1 = data_value(&s, "result-left-h");
     assert!((permanent1 - thrust1).abs() <= 1e-6 * thrust1, "{permanent1} vs {thrust1}");
-    assert!(severe(&s).is_empty(), "{:?}", severe(&s));
+    let errors = severe(&s);
+    assert!(errors.is_empty(), "{errors:?}");
 }
 
 /// A preset's own values are fields: a national annex's alpha_Q1 = 0.8 (EN 1991-2
@@ -336,5 +340,6 @@ fn a_model_value_is_edited_in_its_field() {
         "return document.getElementById('model-alpha-tandem-0').value === '1'",
         WAIT,
     );
-    assert!(severe(&s).is_empty(), "{:?}", severe(&s));
+    let errors = severe(&s);
+    assert!(errors.is_empty(), "{errors:?}");
 }

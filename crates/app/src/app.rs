@@ -35,7 +35,7 @@ pub fn App() -> impl IntoView {
     view! {
         <header class="top">
             <h1 class="brand">"Springline"</h1>
-            <div class="design-name">{name}</div>
+            <div class="design-name" id="design-name">{name}</div>
             <Toolbar />
             <crate::components::shortcuts::ShortcutList />
             <crate::components::shortcuts::ProjectorToggle />

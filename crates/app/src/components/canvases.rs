@@ -625,7 +625,7 @@ pub fn ForceCanvas() -> impl IntoView {
         zoom_at((-dy * 0.0015).exp(), at);
     };
     view! {
-        <div class="force-canvas" style="position: relative; min-width: 0;">
+        <div class="force-canvas">
             <canvas
                 id="forces"
                 class="drawing"
@@ -646,17 +646,11 @@ pub fn ForceCanvas() -> impl IntoView {
                 class="force-zoom"
                 role="toolbar"
                 aria-label="Force diagram view"
-                style="position: absolute; top: 5px; right: 6px; display: flex; gap: 3px;"
             >
-                <button id="forces-zoom-in" type="button" aria-label="Zoom the force diagram in" title="Zoom in" style=BUTTON_STYLE on:click=move |_| zoom_all(BUTTON_ZOOM)>"+"</button>
-                <button id="forces-zoom-out" type="button" aria-label="Zoom the force diagram out" title="Zoom out" style=BUTTON_STYLE on:click=move |_| zoom_all(1.0 / BUTTON_ZOOM)>"−"</button>
-                <button id="forces-fit" type="button" aria-label="Fit the force diagram to the canvas" title="Fit" style=BUTTON_STYLE on:click=move |_| views.set([AreaView::FIT; 2])>"fit"</button>
+                <button id="forces-zoom-in" type="button" aria-label="Zoom the force diagram in" title="Zoom in" class="force-zoom-button" on:click=move |_| zoom_all(BUTTON_ZOOM)>"+"</button>
+                <button id="forces-zoom-out" type="button" aria-label="Zoom the force diagram out" title="Zoom out" class="force-zoom-button" on:click=move |_| zoom_all(1.0 / BUTTON_ZOOM)>"−"</button>
+                <button id="forces-fit" type="button" aria-label="Fit the force diagram to the canvas" title="Fit" class="force-zoom-button" on:click=move |_| views.set([AreaView::FIT; 2])>"fit"</button>
             </div>
         </div>
     }
 }
-
-/// The zoom buttons' look, kept here until the page's style sheet takes them.
-const BUTTON_STYLE: &str =
-    "min-width: 28px; height: 24px; padding: 0 6px; font: 13px system-ui, sans-serif; \
-     background: #ffffff; color: #1f2a33; border: 1px solid #b9b4aa; border-radius: 4px; cursor: pointer;";

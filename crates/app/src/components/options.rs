@@ -351,7 +351,7 @@ fn Thumb(index: usize, option: NamedDesign, transform: Transform, from_link: boo
             </figcaption>
             <canvas class="option-elevation" node_ref=node role="img"
                 aria-label=format!("Elevation of option {}, at the comparison's common scale", index + 1)
-                style=format!("width:{}px;height:{}px", THUMB.0, THUMB.1)></canvas>
+                style:width=format!("{}px", THUMB.0) style:height=format!("{}px", THUMB.1)></canvas>
         </figure>
     }
 }

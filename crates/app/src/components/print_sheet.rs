@@ -157,7 +157,7 @@ pub fn PrintSheet() -> impl IntoView {
                     <p class="print-caution">"Concept design only: these are first numbers for choosing between options. Local codes and a licensed engineer govern every design decision."</p>
                 </div>
                 <figure class="print-qr" style:background=Ink::Background.css()>
-                    <canvas id="print-qr" node_ref=node style="width:150px;height:150px"></canvas>
+                    <canvas id="print-qr" node_ref=node></canvas>
                     <figcaption>{move || if fits.get() { "the design's link" } else { "the link is too long for a QR code" }}</figcaption>
                 </figure>
             </div>

@@ -44,8 +44,6 @@ pub fn MemberReadout() -> impl IntoView {
             class="member-readout"
             role="status"
             aria-live="polite"
-            style="height: 5.2em; overflow-y: auto; margin-top: 8px; padding: 4px 10px; font-size: 13px; \
-                   line-height: 1.35; border: 1px solid #d9d4c8; border-radius: 5px; background: #fff;"
         >
             {move || match lines.get() {
                 Some(lines) => {
@@ -53,15 +51,14 @@ pub fn MemberReadout() -> impl IntoView {
                         .into_iter()
                         .enumerate()
                         .map(|(i, l)| {
-                            let weight = if i == 0 { "font-weight: 600;" } else { "" };
-                            view! { <div class="readout-line" data-line=i style=weight>{l}</div> }
+                            view! { <div class="readout-line" class:readout-first=i == 0 data-line=i>{l}</div> }
                         })
                         .collect_view()
                         .into_any()
                 }
                 None => {
                     view! {
-                        <div class="hint" style="color: #4f5b64;">
+                        <div class="hint dim-text">
                             "Point at a member, or focus a drawing and use the arrow keys, to read its forces in each model (Escape clears)."
                         </div>
                     }
@@ -85,9 +82,8 @@ pub fn ModelSwitch() -> impl IntoView {
             class="model-switch"
             role="radiogroup"
             aria-label="Model the elevation draws"
-            style="display: flex; flex-wrap: wrap; gap: 2px 12px; font-size: 13px; margin: 4px 0 0;"
         >
-            <span style="color: #4f5b64;">"Elevation draws"</span>
+            <span class="dim-text">"Elevation draws"</span>
             <label>
                 <input
                     type="radio"

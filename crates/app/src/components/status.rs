@@ -11,13 +11,7 @@ use leptos::prelude::*;
 use springline_statics::arch::edit::largest_rise;
 use springline_statics::error::Field;
 
-/// Height of the status line: three lines of text, so the longest messages (a largest
-/// rise with where the rib meets the deck) fit at 1024 px without the line growing; on
-/// narrower screens the line scrolls rather than grows or cuts the text off.
-const STATUS_STYLE: &str = "height: 4.5em; line-height: 1.5em; overflow-y: auto; margin: 6px 0 0; \
-                            padding: 0 10px; border-radius: 4px; font-size: 13px; box-sizing: border-box;";
-
-/// The fixed-height status line, with the pointer readout.
+/// The fixed-height status line (three lines of text, style.css), with the pointer readout.
 #[component]
 pub fn StatusLine() -> impl IntoView {
     let state = expect_context::<AppState>();
@@ -29,16 +23,8 @@ pub fn StatusLine() -> impl IntoView {
             None => drag_hint(state.units.get()),
         })
     };
-    let style = move || {
-        let tone = if stopped() {
-            "background: #fdecea; color: var(--warn); border: 1px solid #f3c1bb;"
-        } else {
-            "background: transparent; color: var(--dim); border: 1px solid transparent;"
-        };
-        format!("{STATUS_STYLE} {tone}")
-    };
     view! {
-        <p id="drag-status" class="status-line" role="status" aria-live="polite" data-stopped=move || stopped().to_string() style=style>
+        <p id="drag-status" class="status-line" role="status" aria-live="polite" data-stopped=move || stopped().to_string() class:stopped=stopped>
             {text}
         </p>
         <PointerReadout />
@@ -69,26 +55,33 @@ fn PointerReadout() -> impl IntoView {
         let units = state.units.get();
         state.drag_reading.with(|r| r.map(|r| r.reading.describe(units)).unwrap_or_default())
     };
-    let style = move || {
-        let base = "position: fixed; pointer-events: none; z-index: 5; white-space: nowrap; \
-                    padding: 2px 7px; border-radius: 3px; font-size: 12.5px; \
-                    background: rgba(31, 42, 51, 0.88); color: #fff;";
-        match state.drag_reading.get() {
-            Some(r) => {
-                let width = window().inner_width().ok().and_then(|w| w.as_f64()).unwrap_or(f64::INFINITY);
-                let (x, y) = r.client;
-                // near the right edge the readout goes left of the pointer
-                let left = if x + READOUT_ROOM > width {
-                    format!("right: {}px;", (width - x + READOUT_OFFSET.0).max(0.0))
-                } else {
-                    format!("left: {}px;", x + READOUT_OFFSET.0)
-                };
-                format!("{base} {left} top: {}px;", (y + READOUT_OFFSET.1).max(0.0))
-            }
-            None => format!("{base} display: none;"),
-        }
+    // placed through the element's style properties (the page's Content Security Policy
+    // refuses style attributes); its look is in style.css
+    let reading = move || {
+        state.drag_reading.get().map(|r| {
+            let width = window().inner_width().ok().and_then(|w| w.as_f64()).unwrap_or(f64::INFINITY);
+            let (x, y) = r.client;
+            // near the right edge the readout goes left of the pointer
+            let flipped = x + READOUT_ROOM > width;
+            (flipped, x, y, width)
+        })
     };
-    view! { <div id="drag-value" class="drag-value" aria-hidden="true" style=style>{text}</div> }
+    let left = move || match reading() {
+        Some((false, x, _, _)) => format!("{}px", x + READOUT_OFFSET.0),
+        _ => "auto".to_string(),
+    };
+    let right = move || match reading() {
+        Some((true, x, _, width)) => format!("{}px", (width - x + READOUT_OFFSET.0).max(0.0)),
+        _ => "auto".to_string(),
+    };
+    let top = move || {
+        reading().map_or("0px".to_string(), |(_, _, y, _)| format!("{}px", (y + READOUT_OFFSET.1).max(0.0)))
+    };
+    let display = move || if reading().is_some() { "block" } else { "none" };
+    view! {
+        <div id="drag-value" class="drag-value" aria-hidden="true"
+            style:left=left style:right=right style:top=top style:display=display>{text}</div>
+    }
 }
 
 /// Beside the rise: when an edit of the rise or the crown level was refused for a rise
@@ -114,7 +107,7 @@ pub fn RiseLimitHint() -> impl IntoView {
     });
     view! {
         // the look of the advice inside a field (it stands between two fields)
-        <div class="advice" id="rise-limit" style="font-size: 12px; color: #7a4b00; margin: 0 0 4px;">
+        <div class="advice rise-limit" id="rise-limit">
             {move || hint.get().map(|h| view! { <p>{h}</p> })}
         </div>
     }
