@@ -708,3 +708,17 @@ fn fuzz_regression_a_rib_member_never_compressed_has_no_nan_critical_force() {
     );
     assert!(non_finite_in(&outputs).is_empty(), "{:#?}", non_finite_in(&outputs));
 }
+
+/// Found by the design-file fuzz target: a version-1 file whose update computed a
+/// combination factor of 1.1125000000000003 wrote it exactly, but JSON's default number
+/// reader read it back one unit in the last place off (1.1125000000000005), so a design
+/// file did not reopen to the same design. The reader now reads every number exactly.
+#[test]
+fn fuzz_regression_design_file_numbers_read_back_bit_for_bit() {
+    let text = include_str!("../../fuzz/corpus/design_file/regression-float-roundtrip.json");
+    let design = read_design_json(text).expect("reads");
+    let again = read_design_json(&write_design_json(&design)).expect("reads back");
+    assert_eq!(again, design);
+    let factor: f64 = serde_json::from_str("1.1125000000000003").expect("a number");
+    assert_eq!(factor.to_bits(), 1.1125000000000003f64.to_bits());
+}
