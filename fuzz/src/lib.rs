@@ -5,9 +5,10 @@ use base64::engine::general_purpose::URL_SAFE_NO_PAD;
 use base64::Engine;
 use springline_statics::arch::design::{Bracing, Crown, RibSystem};
 use springline_statics::arch::form::Basis;
-use springline_statics::traffic::TrafficDesign;
 use springline_statics::traffic::models::ModelFamily;
+use springline_statics::traffic::TrafficDesign;
 use springline_statics::Design;
+use springline_tests::family::family;
 
 /// A link payload `tag.data` of arbitrary `bytes`, packed as the encoder packs a design
 /// (zlib, then base64url), so the fuzzer reaches the design reader behind the checksum.
@@ -54,47 +55,39 @@ impl<'a> Bytes<'a> {
     }
 }
 
-/// A design of the demo's family made from fuzz bytes: span 12 to 400 m, the valley's
-/// depth, springing levels, rise (as a rise or a crown level), 2 to `max_panels` panels,
-/// 1 to 8 ribs, every rib system, bracing and form basis, every traffic model, member
-/// sections scaled by up to 1000 either way, deck loads, approach piers, shortest post.
-/// Most such designs are valid; the rest test the refusals.
+/// A design of the demo's family made from fuzz bytes (`springline_tests::family`: span
+/// 12 to 400 m, rise/span 0.02 to 0.7, 2 to `max_panels` panels, 1 to 8 ribs, every rib
+/// system and bracing), then moved off it: springings up or down, the crown by its level,
+/// deck width and loads, shortest post, approach piers, form basis, every traffic model,
+/// member sections scaled by up to 1000 either way. Most such designs are valid; the rest
+/// test the refusals.
 pub fn design_from(bytes: &mut Bytes, max_panels: usize) -> Design {
-    let mut d = Design::demo();
-    let demo_span = d.deck.right_seat_x - d.deck.left_seat_x;
-    let sx = bytes.within(12.0, 400.0) / demo_span;
-    let sy = sx * bytes.factor(3.0);
-    let deck = d.deck.level;
-    let depth = |y: f64| deck - (deck - y) * sy;
-    for p in &mut d.valley {
-        p.x *= sx;
-        p.y = depth(p.y);
+    let span = bytes.within(12.0, 400.0);
+    let ratio = bytes.within(0.02, 0.7);
+    let panels = bytes.count(2, max_panels);
+    let ribs = bytes.count(1, 8);
+    let system = [RibSystem::ThreeHinged, RibSystem::TwoHinged, RibSystem::Fixed][bytes.count(0, 2)];
+    let bracing = [
+        Bracing::None,
+        Bracing::Single { flipped: false },
+        Bracing::Single { flipped: true },
+        Bracing::Crossed,
+    ][bytes.count(0, 3)];
+    let mut d = family(span, ratio, panels, ribs, system, bracing);
+    d.springing_left_level += span * bytes.within(-0.1, 0.1);
+    d.springing_right_level += span * bytes.within(-0.1, 0.1);
+    if bytes.byte() % 2 == 1 {
+        d.crown = Crown::Level { level: d.crown_level() + span * bytes.within(-0.05, 0.05) };
     }
-    d.deck.left_seat_x *= sx;
-    d.deck.right_seat_x *= sx;
-    d.deck.abutment_height *= sy;
-    d.springing_left_level = depth(d.springing_left_level + bytes.within(-20.0, 20.0));
-    d.springing_right_level = depth(d.springing_right_level + bytes.within(-20.0, 20.0));
-    let span = d.deck.right_seat_x - d.deck.left_seat_x;
-    d.crown = if bytes.byte() % 2 == 0 {
-        Crown::Rise { rise: span * bytes.within(0.02, 0.7) }
-    } else {
-        Crown::Level { level: depth(bytes.within(60.0, 100.0)) }
-    };
-    d.panels = bytes.count(2, max_panels);
-    d.deck.ribs = bytes.count(1, 8);
     d.deck.width = bytes.within(2.5, 30.0);
     d.deck.dead_load *= bytes.factor(5.0);
     d.deck.surfacing = bytes.within(0.0, 5.0);
     d.min_post_length = bytes.within(0.0, 4.0);
     d.approach_piers_left = bytes.count(0, 4);
     d.approach_piers_right = bytes.count(0, 4);
-    d.rib_system = [RibSystem::ThreeHinged, RibSystem::TwoHinged, RibSystem::Fixed][bytes.count(0, 2)];
-    d.bracing = [Bracing::None, Bracing::Single { flipped: false }, Bracing::Single { flipped: true }, Bracing::Crossed]
-        [bytes.count(0, 3)];
     d.form.basis = if bytes.byte() % 3 == 0 { Basis::AsBuilt } else { Basis::PanelLoads };
-    let family = ModelFamily::ALL[bytes.count(0, ModelFamily::ALL.len() - 1)];
-    d.traffic = TrafficDesign::preset(family, (d.deck.width - 2.0).max(1.0));
+    let family_key = ModelFamily::ALL[bytes.count(0, ModelFamily::ALL.len() - 1)];
+    d.traffic = TrafficDesign::preset(family_key, (d.deck.width - 2.0).max(1.0));
     for section in [
         &mut d.groups.rib,
         &mut d.groups.deck,

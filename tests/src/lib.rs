@@ -2,6 +2,7 @@
 //! live in `tests/tests/*.rs`): a minimal WebDriver client and a static file server.
 
 pub mod cli;
+pub mod family;
 pub mod outputs;
 pub mod page;
 pub mod serve;

@@ -47,6 +47,10 @@ struct Case {
     expect: Expect,
 }
 
+fn case(what: &'static str, input: Input, expect: Expect) -> Case {
+    Case { what, input, expect }
+}
+
 fn refused(field: &'static str, says: &'static str) -> Expect {
     Expect::Refused { field: Some(field), says }
 }
@@ -96,7 +100,7 @@ fn saved_with(version: u32, link: &str) -> String {
 
 fn catalogue() -> Vec<Case> {
     use Input::{Comparison, DesignFile, Link, Saved};
-    let design = |what, change: fn(&mut Design), expect| Case { what, input: Input::Design(change), expect };
+    let design = |what, change: fn(&mut Design), expect| case(what, Input::Design(change), expect);
     let link = demo_link();
     let cases = vec![
         // geometry
@@ -227,147 +231,127 @@ fn catalogue() -> Vec<Case> {
             Expect::Warned { field: "deck.ribs", says: "closer than about 2 m" },
         ),
         // links
-        Case { what: "an empty link", input: Link(String::new()), expect: refused_whole("holds no design") },
-        Case {
-            what: "a link of plain words",
-            input: Link("hello there".into()),
-            expect: refused_whole("not a Springline design link"),
-        },
-        Case {
-            what: "a link of a future format",
-            input: Link(format!("s9.{}", &link[3..])),
-            expect: refused_whole("format 's9'"),
-        },
-        Case {
-            what: "a link of a future design version",
-            input: Link(with_first_byte(&link, 99)),
-            expect: refused_whole("newer version"),
-        },
-        Case {
-            what: "an oversized link",
-            input: Link(format!("s2.{}", "A".repeat(20_000))),
-            expect: refused_whole("characters long"),
-        },
-        Case {
-            what: "a deflate bomb",
-            input: Link(format!(
+        case("an empty link", Link(String::new()), refused_whole("holds no design")),
+        case(
+            "a link of plain words",
+            Link("hello there".into()),
+            refused_whole("not a Springline design link"),
+        ),
+        case("a link of a future format", Link(format!("s9.{}", &link[3..])), refused_whole("format 's9'")),
+        case(
+            "a link of a future design version",
+            Link(with_first_byte(&link, 99)),
+            refused_whole("newer version"),
+        ),
+        case(
+            "an oversized link",
+            Link(format!("s2.{}", "A".repeat(20_000))),
+            refused_whole("characters long"),
+        ),
+        case(
+            "a deflate bomb",
+            Link(format!(
                 "s2.{}",
                 URL_SAFE_NO_PAD.encode(miniz_oxide::deflate::compress_to_vec_zlib(&vec![0u8; 2_000_000], 10))
             )),
-            expect: refused_whole("expand beyond"),
-        },
-        Case {
-            what: "a link with a character changed",
-            input: Link(corrupt(&link)),
-            expect: refused_whole("damaged"),
-        },
-        Case {
-            what: "a link with a stray character",
-            input: Link(format!("{}*{}", &link[..20], &link[20..])),
-            expect: refused_whole("is not allowed there"),
-        },
-        Case {
-            what: "a link with data added",
-            input: Link(format!("{link}AAAA")),
-            expect: refused_whole("extra data after the design"),
-        },
-        Case {
-            what: "a comparison link opened as a design",
-            input: Link(comparison_link()),
-            expect: refused_whole("comparison of design options"),
-        },
-        Case {
-            what: "a design link opened as a comparison",
-            input: Comparison(link.clone()),
-            expect: refused_whole("format 's2'"),
-        },
-        Case {
-            what: "a comparison cut short",
-            input: Comparison(comparison_link()[..40].to_string()),
-            expect: refused_whole("cut short"),
-        },
-        Case {
-            what: "a comparison of no option",
-            input: Comparison(packed("o1", &[0, 0])),
-            expect: refused_whole("holds 0 design options"),
-        },
+            refused_whole("expand beyond"),
+        ),
+        case("a link with a character changed", Link(corrupt(&link)), refused_whole("damaged")),
+        case(
+            "a link with a stray character",
+            Link(format!("{}*{}", &link[..20], &link[20..])),
+            refused_whole("is not allowed there"),
+        ),
+        case(
+            "a link with data added",
+            Link(format!("{link}AAAA")),
+            refused_whole("extra data after the design"),
+        ),
+        case(
+            "a comparison link opened as a design",
+            Link(comparison_link()),
+            refused_whole("comparison of design options"),
+        ),
+        case("a design link opened as a comparison", Comparison(link.clone()), refused_whole("format 's2'")),
+        case(
+            "a comparison cut short",
+            Comparison(comparison_link()[..40].to_string()),
+            refused_whole("cut short"),
+        ),
+        case(
+            "a comparison of no option",
+            Comparison(packed("o1", &[0, 0])),
+            refused_whole("holds 0 design options"),
+        ),
         // design files
-        Case {
-            what: "a design file that is not JSON",
-            input: DesignFile("version 7, rise 20".into()),
-            expect: refused_whole("not valid JSON at line 1"),
-        },
-        Case {
-            what: "a design file cut short",
-            input: DesignFile(demo_file()[..300].to_string()),
-            expect: refused_whole("not valid JSON"),
-        },
-        Case {
-            what: "a design file without a version",
-            input: DesignFile("{\"name\": \"x\"}".into()),
-            expect: refused_whole("no design format version"),
-        },
-        Case {
-            what: "a design file of a future version",
-            input: DesignFile(file_with("version", "99")),
-            expect: refused_whole("newer version"),
-        },
-        Case {
-            what: "a design file of version 0",
-            input: DesignFile(file_with("version", "0")),
-            expect: refused_whole("never written by Springline"),
-        },
-        Case {
-            what: "a design file with text for a number",
-            input: DesignFile(file_with("panels", "\"twelve\"")),
-            expect: refused_whole("invalid type: string \"twelve\", expected usize"),
-        },
-        Case {
-            what: "a design file with a number beyond floating point",
-            input: DesignFile(file_with("min_post_length", "1e999")),
-            expect: refused_whole("number out of range"),
-        },
-        Case {
-            what: "a design file with a negative panel count",
-            input: DesignFile(file_with("panels", "-3")),
-            expect: refused_whole("expected usize"),
-        },
-        Case {
-            what: "a design file of an invalid design",
-            input: DesignFile(file_with("panels", "1")),
-            expect: refused("panels", "between 2 and 200"),
-        },
-        Case {
-            what: "an empty design file",
-            input: DesignFile(String::new()),
-            expect: refused_whole("not valid JSON"),
-        },
+        case(
+            "a design file that is not JSON",
+            DesignFile("version 7, rise 20".into()),
+            refused_whole("not valid JSON at line 1"),
+        ),
+        case(
+            "a design file cut short",
+            DesignFile(demo_file()[..300].to_string()),
+            refused_whole("not valid JSON"),
+        ),
+        case(
+            "a design file without a version",
+            DesignFile("{\"name\": \"x\"}".into()),
+            refused_whole("no design format version"),
+        ),
+        case(
+            "a design file of a future version",
+            DesignFile(file_with("version", "99")),
+            refused_whole("newer version"),
+        ),
+        case(
+            "a design file of version 0",
+            DesignFile(file_with("version", "0")),
+            refused_whole("never written by Springline"),
+        ),
+        case(
+            "a design file with text for a number",
+            DesignFile(file_with("panels", "\"twelve\"")),
+            refused_whole("invalid type: string \"twelve\", expected usize"),
+        ),
+        case(
+            "a design file with a number beyond floating point",
+            DesignFile(file_with("min_post_length", "1e999")),
+            refused_whole("number out of range"),
+        ),
+        case(
+            "a design file with a negative panel count",
+            DesignFile(file_with("panels", "-3")),
+            refused_whole("expected usize"),
+        ),
+        case(
+            "a design file of an invalid design",
+            DesignFile(file_with("panels", "1")),
+            refused("panels", "between 2 and 200"),
+        ),
+        case("an empty design file", DesignFile(String::new()), refused_whole("not valid JSON")),
         // the browser's storage
-        Case {
-            what: "stored options that are not JSON",
-            input: Saved("{{{".into()),
-            expect: refused_whole("not valid JSON"),
-        },
-        Case {
-            what: "stored options of another version",
-            input: Saved(saved_with(2, &link)),
-            expect: refused_whole("another version of Springline"),
-        },
-        Case {
-            what: "stored content of another kind",
-            input: Saved("{\"kind\":\"notes\",\"version\":1}".into()),
-            expect: refused_whole("not a list of Springline options"),
-        },
-        Case {
-            what: "stored options without a version",
-            input: Saved("{\"kind\":\"springline-options\"}".into()),
-            expect: refused_whole("no format version"),
-        },
-        Case {
-            what: "stored options with a damaged option",
-            input: Saved(saved_with(1, &link[..60])),
-            expect: Expect::SetAside { says: "cut short" },
-        },
+        case("stored options that are not JSON", Saved("{{{".into()), refused_whole("not valid JSON")),
+        case(
+            "stored options of another version",
+            Saved(saved_with(2, &link)),
+            refused_whole("another version of Springline"),
+        ),
+        case(
+            "stored content of another kind",
+            Saved("{\"kind\":\"notes\",\"version\":1}".into()),
+            refused_whole("not a list of Springline options"),
+        ),
+        case(
+            "stored options without a version",
+            Saved("{\"kind\":\"springline-options\"}".into()),
+            refused_whole("no format version"),
+        ),
+        case(
+            "stored options with a damaged option",
+            Saved(saved_with(1, &link[..60])),
+            Expect::SetAside { says: "cut short" },
+        ),
     ];
     cases
 }

@@ -55,29 +55,26 @@ fn PointerReadout() -> impl IntoView {
         let units = state.units.get();
         state.drag_reading.with(|r| r.map(|r| r.reading.describe(units)).unwrap_or_default())
     };
-    // placed through the element's style properties (the page's Content Security Policy
-    // refuses style attributes); its look is in style.css
-    let reading = move || {
-        state.drag_reading.get().map(|r| {
+    // placed through the element's style properties, its look in style.css; worked out
+    // once per pointer move: (left, right, top, display)
+    let place = Memo::new(move |_| match state.drag_reading.get() {
+        Some(r) => {
             let width = window().inner_width().ok().and_then(|w| w.as_f64()).unwrap_or(f64::INFINITY);
             let (x, y) = r.client;
+            let top = format!("{}px", (y + READOUT_OFFSET.1).max(0.0));
             // near the right edge the readout goes left of the pointer
-            let flipped = x + READOUT_ROOM > width;
-            (flipped, x, y, width)
-        })
-    };
-    let left = move || match reading() {
-        Some((false, x, _, _)) => format!("{}px", x + READOUT_OFFSET.0),
-        _ => "auto".to_string(),
-    };
-    let right = move || match reading() {
-        Some((true, x, _, width)) => format!("{}px", (width - x + READOUT_OFFSET.0).max(0.0)),
-        _ => "auto".to_string(),
-    };
-    let top = move || {
-        reading().map_or("0px".to_string(), |(_, _, y, _)| format!("{}px", (y + READOUT_OFFSET.1).max(0.0)))
-    };
-    let display = move || if reading().is_some() { "block" } else { "none" };
+            if x + READOUT_ROOM > width {
+                ("auto".to_string(), format!("{}px", (width - x + READOUT_OFFSET.0).max(0.0)), top, "block")
+            } else {
+                (format!("{}px", x + READOUT_OFFSET.0), "auto".to_string(), top, "block")
+            }
+        }
+        None => ("auto".to_string(), "auto".to_string(), "0px".to_string(), "none"),
+    });
+    let left = move || place.with(|p| p.0.clone());
+    let right = move || place.with(|p| p.1.clone());
+    let top = move || place.with(|p| p.2.clone());
+    let display = move || place.with(|p| p.3);
     view! {
         <div id="drag-value" class="drag-value" aria-hidden="true"
             style:left=left style:right=right style:top=top style:display=display>{text}</div>
