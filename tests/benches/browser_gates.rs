@@ -262,6 +262,40 @@ fn fresh_page(s: &Session, server: &StaticServer) -> f64 {
     first.as_f64().unwrap_or(f64::NAN)
 }
 
+/// The value after `flag` among the arguments.
+fn option_after(flag: &str) -> Option<String> {
+    let args: Vec<String> = std::env::args().collect();
+    args.iter().position(|a| a == flag).and_then(|i| args.get(i + 1).cloned())
+}
+
+/// A measured run: its samples.
+type Run = fn(&Session) -> Vec<Sample>;
+
+/// `--profile DIR`: each run once under Chromium's sampling profiler (0.1 ms), written to
+/// DIR as `.cpuprofile` files (DevTools opens them; `scripts/profile-summary` tallies
+/// them by function). Nothing is gated.
+fn profiles(s: &Session, server: &StaticServer, dir: &std::path::Path) {
+    let _ = std::fs::create_dir_all(dir);
+    let runs: [(&str, Run); 3] = [("crown", crown_drag), ("vehicle", vehicle_drag), ("panels", panel_edits)];
+    for (name, run) in runs {
+        fresh_page(s, server);
+        s.cdp("Profiler.enable", json!({}));
+        s.cdp("Profiler.setSamplingInterval", json!({ "interval": 100 }));
+        s.cdp("Profiler.start", json!({}));
+        let samples = run(s);
+        let profile = s.cdp("Profiler.stop", json!({}));
+        let path = dir.join(format!("{name}.cpuprofile"));
+        let _ = std::fs::write(&path, profile["profile"].to_string());
+        let summary = Summary::of(name, &samples);
+        println!(
+            "{name}: {} steps, p95 {:.2} ms, written to {}",
+            samples.len(),
+            summary.main_p95(),
+            path.display()
+        );
+    }
+}
+
 fn best<T>(runs: Vec<T>, key: impl Fn(&T) -> f64) -> T {
     runs.into_iter().min_by(|a, b| key(a).total_cmp(&key(b))).expect("at least one run")
 }
@@ -270,9 +304,15 @@ fn main() {
     if std::env::args().any(|a| a == "--list") {
         return;
     }
-    let server = StaticServer::start(&dist());
+    // another build may stand in for dist/ (a build with function names, for profiles)
+    let site = std::env::var_os("SPRINGLINE_DIST").map_or_else(dist, std::path::PathBuf::from);
+    let server = StaticServer::start(&site);
     let driver = Driver::start();
     let s = driver.session(1500, 1000, 1.0);
+    if let Some(dir) = option_after("--profile") {
+        profiles(&s, &server, std::path::Path::new(&dir));
+        return;
+    }
 
     let first_drawing = best((0..ATTEMPTS).map(|_| fresh_page(&s, &server)).collect(), |v| *v);
     // the floor: the read of the counter and the harness's own script, nothing moved

@@ -31,7 +31,8 @@ fn boxes(s: &Session) -> Value {
 }
 
 /// Records, at every pointer move from now on, the parts' boxes, the status line and the
-/// readout beside the pointer (the page has updated for the previous move by then).
+/// readout the elevation draws beside the pointer (its words are published as
+/// `data-readout`; the page has updated for the previous move by then).
 fn record_during_drag(s: &Session) {
     s.exec(
         &format!(
@@ -40,10 +41,9 @@ fn record_during_drag(s: &Session) {
                const boxes = {PARTS}.map(q => {{ const e = document.querySelector(q); if (!e) return null;
                  const r = e.getBoundingClientRect(); return [r.left, r.top, r.width, q === '.results-panel' ? 0 : r.height]; }});
                const st = document.getElementById('drag-status');
-               const rd = document.getElementById('drag-value');
+               const rd = document.getElementById('elevation').dataset.readout;
                window.__drag.push({{ boxes, status: st ? st.textContent : null,
-                 stopped: st ? st.dataset.stopped : null,
-                 readout: rd && getComputedStyle(rd).display !== 'none' ? rd.textContent : null }});
+                 stopped: st ? st.dataset.stopped : null, readout: rd === undefined ? null : rd }});
              }}, true);"
         ),
         vec![],
@@ -148,8 +148,8 @@ fn a_crown_dragged_over_the_deck_stops_at_the_largest_rise_says_why_and_moves_no
     let readouts: Vec<&str> = during.iter().filter_map(|r| r["readout"].as_str()).collect();
     assert!(readouts.iter().any(|r| r.starts_with("rise ") && r.ends_with("\u{a0}m")), "{readouts:?}");
     std::fs::write(screenshots_dir().join("drag-stopped.png"), s.screenshot()).expect("screenshot");
-    let hidden = s.exec("return getComputedStyle(document.getElementById('drag-value')).display;", vec![]);
-    assert_eq!(hidden, json!("none"), "the readout hides when the drag ends");
+    let hidden = s.exec("return document.getElementById('elevation').dataset.readout === undefined;", vec![]);
+    assert_eq!(hidden, json!(true), "the readout goes when the drag ends");
 
     // back down 3 m into the valid range: the message clears, the rise is on the grid
     let mut held = demo.clone();
@@ -232,23 +232,33 @@ fn the_force_scale_is_held_while_the_crown_is_dragged_and_refits_after() {
         "window.__scales = [];
          document.addEventListener('pointermove', () => {
            window.__scales.push([+document.getElementById('forces').dataset.scale,
-                                 document.getElementById('rise').value]);
+                                 document.getElementById('rise').value,
+                                 document.getElementById('elevation').dataset.readout]);
          }, true);",
         vec![],
     );
     s.drag(from, (from.0, from.1 + 4.0 * t.0), 10);
     let during = s.exec("return window.__scales;", vec![]).as_array().cloned().unwrap_or_default();
     assert!(during.len() >= 8, "pointer moves recorded: {}", during.len());
-    // the design changed during the drag (the rise field followed) ...
-    let rises: Vec<&str> = during.iter().filter_map(|r| r[1].as_str()).collect();
-    assert!(rises.first() != rises.last(), "the rise did not change while dragging: {rises:?}");
+    // the design changed during the drag (the readout beside the pointer followed) while
+    // the panels held the design from before it (the rise field among them) ...
+    let readouts: Vec<&str> = during.iter().filter_map(|r| r[2].as_str()).collect();
+    assert!(readouts.len() >= 8 && readouts.iter().all(|r| r.starts_with("rise ")), "{readouts:?}");
+    assert!(readouts.first() != readouts.last(), "the rise did not change while dragging: {readouts:?}");
+    let fields: Vec<&str> = during.iter().filter_map(|r| r[1].as_str()).collect();
+    assert!(fields.iter().all(|f| *f == fields[0]), "the rise field moved during the drag: {fields:?}");
     // ... and the force diagram kept the scale it had when the drag started
     for (k, r) in during.iter().enumerate() {
         let scale = r[0].as_f64().unwrap_or(f64::NAN);
         assert!((scale - before).abs() <= 1e-9 * before, "move {k}: force scale {scale}, before {before}");
     }
-    // released: the thrust changed, so the diagram refits to a new scale
+    // released: the panels follow (the rise field shows the new rise) and the thrust
+    // changed, so the diagram refits to a new scale
     let rise = rise_field(&s);
+    assert!(
+        fields[0].parse::<f64>().is_ok_and(|held| held != rise),
+        "rise field {rise} after, {fields:?} during"
+    );
     assert!((rise - 15.5).abs() <= 1.0 / t.0 + SNAP_STEP, "rise {rise} m after 4 m down from 19.5 m");
     // the thrust of the form (H, kN), from the engine
     let h = |d: &Design| analyze(d).expect("analyses").form.thrust;

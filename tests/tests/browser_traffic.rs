@@ -238,10 +238,11 @@ fn the_traffic_panel_and_block_fit_a_phone() {
     assert!(errors.is_empty(), "{errors:?}");
 }
 
-/// While the crown is dragged the results follow the pointer but the traffic block
-/// holds its last report and says it updates on release; letting go brings the report
-/// of the dragged design, whose permanent thrust is the frame model's dead-load thrust
-/// the results table shows (one solve of the same model).
+/// While the crown is dragged the drawings follow the pointer, the results table and the
+/// traffic block hold the design from before the drag, and the block says it updates on
+/// release; letting go brings the report of the dragged design, whose permanent thrust is
+/// the frame model's dead-load thrust the results table shows (one solve of the same
+/// model).
 #[test]
 fn the_traffic_block_waits_for_the_end_of_a_drag() {
     let server = StaticServer::start(&dist());
@@ -271,12 +272,14 @@ fn the_traffic_block_waits_for_the_end_of_a_drag() {
     pointer("pointermove", y + 20.0);
     pointer("pointermove", y + 40.0);
     s.wait_for(
-        "the results to follow the drag",
-        &format!("return Math.abs(+document.getElementById('result-left-h').dataset.value - {thrust0}) > 1"),
+        "the drawing to follow the drag",
+        "return (document.getElementById('elevation').dataset.readout || '').startsWith('rise ')",
         WAIT,
     );
     assert!(text_of(&s, "traffic-pending").contains("updates when you let go"));
+    // the panels hold the design from before the drag until it ends
     assert_eq!(data_value(&s, "traffic-permanent"), permanent0, "held during the drag");
+    assert_eq!(data_value(&s, "result-left-h"), thrust0, "held during the drag");
     pointer("pointerup", y + 40.0);
     s.wait_for(
         "the traffic block to update",
@@ -290,6 +293,7 @@ fn the_traffic_block_waits_for_the_end_of_a_drag() {
     let permanent1 = data_value(&s, "traffic-permanent");
     let thrust1 = data_value(&s, "result-left-h");
     assert!((permanent1 - thrust1).abs() <= 1e-6 * thrust1, "{permanent1} vs {thrust1}");
+    assert!((thrust1 - thrust0).abs() > 1.0, "the results followed the drag's end: {thrust1} vs {thrust0}");
     let errors = severe(&s);
     assert!(errors.is_empty(), "{errors:?}");
 }

@@ -181,13 +181,15 @@ fn dragging_the_vehicle_across_the_span_turns_a_diagonal_from_tension_to_compres
     assert!(close(cell(&s, "result-left-h"), h0));
 
     // dragged with the pointer to x = 110 m (three quarters of the span, near enough),
-    // the status line saying where it is on the way
+    // the readout the elevation draws beside the pointer saying where it is on the way
+    // (the status line holds until the drag ends)
     let scale = transform(&s, "elevation").0;
     let from = vehicle_centre(&s);
     let to = (from.0 + (110.0 - x0) * scale, from.1);
     s.exec(
         "window.__status = [];
-         document.addEventListener('pointermove', () => window.__status.push(document.getElementById('drag-status').textContent), true);",
+         document.addEventListener('pointermove', () => window.__status.push(
+           [document.getElementById('elevation').dataset.readout || null, document.getElementById('drag-status').textContent]), true);",
         vec![],
     );
     s.drag(from, to, 16);
@@ -195,9 +197,21 @@ fn dragging_the_vehicle_across_the_span_turns_a_diagonal_from_tension_to_compres
     assert!((x1 - 110.0).abs() < 1.0, "dragged to {x1}");
     assert!(((x1 * 10.0).round() - x1 * 10.0).abs() < 1e-6, "on the 0.1 m grid: {x1}");
     let during = s.exec("return window.__status;", vec![]);
-    let distinct: std::collections::BTreeSet<&str> =
-        during.as_array().map(|a| a.iter().filter_map(|v| v.as_str()).collect()).unwrap_or_default();
-    assert!(distinct.len() >= 4, "the status line followed the drag: {distinct:?}");
+    let during = during.as_array().cloned().unwrap_or_default();
+    let readouts: std::collections::BTreeSet<&str> = during.iter().filter_map(|v| v[0].as_str()).collect();
+    assert!(readouts.len() >= 4, "the readout followed the drag: {readouts:?}");
+    assert!(readouts.iter().all(|r| r.starts_with("leading axle x = ")), "{readouts:?}");
+    let statuses: std::collections::BTreeSet<&str> = during.iter().filter_map(|v| v[1].as_str()).collect();
+    assert_eq!(statuses.len(), 1, "the status line held during the drag: {statuses:?}");
+    // and says where the vehicle stands once it ends
+    s.wait_for(
+        "the status line to follow the drag's end",
+        &format!(
+            "return document.getElementById('drag-status').textContent.includes({:?});",
+            Units::Si.show(Quantity::Length, x1)
+        ),
+        WAIT,
+    );
 
     // the same diagonal is now in compression: on screen, and the table follows the case
     let a1 = engine_at(&valid, x1);

@@ -31,7 +31,7 @@ pub fn App() -> impl IntoView {
     let handle =
         window_event_listener(leptos::ev::resize, move |_| state.resized.update(|n| *n = n.wrapping_add(1)));
     on_cleanup(move || handle.remove());
-    let name = move || state.design.with(|d| d.name.clone());
+    let name = move || state.settled_design.with(|d| d.name.clone());
     view! {
         <header class="top">
             <h1 class="brand">"Springline"</h1>

@@ -187,7 +187,7 @@ pub fn install(state: AppState, options: OptionsState, view: ViewState) {
     // design and view -> fragment, debounced
     let generation = StoredValue::new(0u64);
     Effect::new(move |_| {
-        state.design.track();
+        state.settled_design.track();
         options.shared.track();
         state.case.track();
         state.units.track();

@@ -7,7 +7,7 @@ use crate::timing::{timed, Step};
 use leptos::prelude::*;
 use springline_statics::arch::analysis::analyze_reusing;
 use springline_statics::arch::cases::{standard_cases, CaseSpec, Pattern};
-use springline_statics::arch::edit::{Drag, DragStop, Reading, Snapping};
+use springline_statics::arch::edit::{Drag, DragStop, Snapping};
 use springline_statics::arch::readout::MemberKey;
 use springline_statics::arch::sizing::{size_design, SizeReport};
 use springline_statics::arch::stability::ArchStability;
@@ -76,13 +76,15 @@ fn shown(location: &Location, message: &str) -> String {
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub struct Hovered(pub Option<usize>);
 
-/// The value being dragged and where the pointer is, for the readout beside it.
-#[derive(Debug, Clone, Copy, PartialEq)]
+/// The value being dragged and where the pointer is, for the readout the elevation draws
+/// beside it.
+#[derive(Debug, Clone, PartialEq)]
 pub struct DragReading {
-    /// What the drag sets (field and value, SI).
-    pub reading: Reading,
-    /// The pointer, CSS pixels from the top left of the viewport.
-    pub client: (f64, f64),
+    /// What the drag sets, in words and display units ("rise 19.50 m", "leading axle
+    /// x = 42.0 m").
+    pub text: String,
+    /// The pointer, CSS pixels of the elevation canvas.
+    pub at: (f64, f64),
 }
 
 /// The validated design, or the engine's error when the design does not validate.
@@ -208,9 +210,47 @@ pub struct AppState {
     /// governing placements of the picked line): the analysis includes them while that
     /// design is shown (`components::envelope::install`).
     pub extra: RwSignal<Option<Arc<ExtraCases>>>,
+    /// True while the load model's vehicle is dragged along the deck (not a design edit:
+    /// `dragging` stays false, so nothing says the results are for an earlier design).
+    pub vehicle_dragging: RwSignal<bool>,
+    /// The design the panels show: `design`, except that while a point or the vehicle is
+    /// dragged it holds the design from before the drag and follows when the drag ends.
+    /// The drawings, the status line and the value beside the pointer follow every move;
+    /// the panels' many elements, redrawn per move, took most of a move's time.
+    pub settled_design: Memo<Design>,
+    /// `valid` as the panels show it, held like `settled_design`.
+    pub settled_valid: Memo<Validated>,
+    /// `analysis` as the panels show it, held like `settled_design`.
+    pub settled_analysis: Memo<Outcome>,
     /// The analysis just computed for a design about to be set, so the memo does not
     /// compute it a second time.
     checked: StoredValue<Option<Checked>>,
+}
+
+/// `source`'s value, except while `moving` is true: then the value from before stays (and
+/// `source` is not even read, so its changes wake nothing). `changed` tells a new value
+/// from the last.
+fn held<T: Clone + Send + Sync + 'static>(
+    moving: impl Fn() -> bool + Send + Sync + 'static,
+    source: impl Fn() -> T + Send + Sync + 'static,
+    changed: fn(Option<&T>, Option<&T>) -> bool,
+) -> Memo<T> {
+    Memo::new_with_compare(
+        move |previous: Option<&T>| match previous {
+            Some(p) if moving() => p.clone(),
+            _ => source(),
+        },
+        changed,
+    )
+}
+
+/// Whether a validation differs from the last: another `Arc`, or another error.
+fn validation_changed(old: Option<&Validated>, new: Option<&Validated>) -> bool {
+    match (old, new) {
+        (Some(Ok(a)), Some(Ok(b))) => !Arc::ptr_eq(a, b),
+        (Some(Err(a)), Some(Err(b))) => a != b,
+        _ => true,
+    }
 }
 
 /// The sizing view's report.
@@ -312,6 +352,12 @@ impl AppState {
             },
             analysis_changed,
         );
+        let dragging = RwSignal::new(false);
+        let vehicle_dragging = RwSignal::new(false);
+        let moving = move || dragging.get() || vehicle_dragging.get();
+        let settled_design = held(moving, move || design.get(), |old, new| old != new);
+        let settled_valid = held(moving, move || valid.get(), validation_changed);
+        let settled_analysis = held(moving, move || analysis.get(), analysis_changed);
         let traffic = RwSignal::new(None::<Arc<(Design, TrafficOutcome)>>);
         let sizes = RwSignal::new(false);
         let size_report = Memo::new(move |_| {
@@ -339,7 +385,7 @@ impl AppState {
             future: RwSignal::new(Vec::new()),
             notice: RwSignal::new(None),
             case: RwSignal::new(0),
-            dragging: RwSignal::new(false),
+            dragging,
             refused: RwSignal::new(None),
             drag_stop: RwSignal::new(None),
             drag_reading: RwSignal::new(None),
@@ -355,6 +401,10 @@ impl AppState {
             pattern: RwSignal::new(None),
             action: RwSignal::new(None),
             extra,
+            vehicle_dragging,
+            settled_design,
+            settled_valid,
+            settled_analysis,
             checked,
         }
     }

@@ -48,7 +48,7 @@ fn action_field(
     range: (f64, f64),
 ) -> impl IntoView {
     let state = expect_context::<AppState>();
-    let value = Signal::derive(move || state.design.with(get) * scale);
+    let value = Signal::derive(move || state.settled_design.with(get) * scale);
     let on_commit = Callback::new(move |v: f64| state.try_edit(field, |d| set(d, v / scale)));
     view! { <NumberField label id field quantity value on_commit min=range.0 max=range.1 shared_field=true /> }
 }
@@ -73,7 +73,7 @@ pub fn ActionsPanel() -> impl IntoView {
         .into_iter()
         .map(|p| view! { <option value=p.key() selected=move || chosen() == p.key()>{preset_words(p)}</option> })
         .collect_view();
-    let clause = move || state.design.with(|d| d.actions.temperature.clause.clone());
+    let clause = move || state.settled_design.with(|d| d.actions.temperature.clause.clone());
     view! {
         <details class="panel" id="actions-panel">
             <summary><h3>"Temperature and other actions"</h3></summary>
@@ -159,10 +159,11 @@ pub fn ActionsResults() -> impl IntoView {
     let state = expect_context::<AppState>();
     // the actions depend on the design alone: a vehicle move or another case shown does
     // not rebuild the block
-    let report = Memo::new(move |_| state.analysis.with(|a| a.as_ref().ok().map(|a| a.actions.clone())));
+    let report =
+        Memo::new(move |_| state.settled_analysis.with(|a| a.as_ref().ok().map(|a| a.actions.clone())));
     let body = move || {
         let units = state.units.get();
-        let fixed = state.design.with(|d| d.rib_system == RibSystem::Fixed);
+        let fixed = state.settled_design.with(|d| d.rib_system == RibSystem::Fixed);
         let Some(r) = report.get() else {
             return view! { <p class="hint">"No results for actions while the design is refused."</p> }
                 .into_any();

@@ -17,6 +17,7 @@ use springline_statics::scene::elevation::{elevation, ElevationOptions};
 use springline_statics::scene::envelope::{envelope_elevation, EnvelopeOptions};
 use springline_statics::scene::force::{AreaKind, AreaView, FixedScale, ForceDrawing, ForceOptions};
 use springline_statics::scene::modes::{mode_elevation, ModeOptions};
+use springline_statics::scene::readout::add_pointer_readout;
 use springline_statics::scene::sizing::{sizing_elevation, SizingOptions};
 use springline_statics::scene::vehicle::{add_vehicle, VehicleGlyph};
 use springline_statics::scene::{Px, Scene, Transform, Viewport};
@@ -34,6 +35,9 @@ fn pointer_in(canvas: &web_sys::HtmlCanvasElement, ev: &web_sys::PointerEvent) -
 /// the left and right arrow keys (with Shift: one panel).
 const VEHICLE_SNAP: f64 = 0.1;
 const VEHICLE_KEY_STEP: f64 = 0.5;
+/// Share of the sharp backing store's pixels along each side the drawings are painted at
+/// while a drag is on (`drag_resolution`).
+const DRAG_RESOLUTION: f64 = 0.5;
 
 /// The elevation canvas: the engine's elevation scene painted, the model switch under it,
 /// hover and keyboard stepping through members, the drag of handles, and the vehicle on
@@ -130,7 +134,18 @@ pub fn ElevationCanvas() -> impl IntoView {
         let car = if enveloped { None } else { state.vehicle_on_deck() };
         let deck_level = state.design.with(|d| d.deck.level);
         let drawn_car = car.as_ref().and_then(|c| add_vehicle(&mut scene, c, deck_level, units));
-        timed(Step::Paint("elevation"), || paint::paint(&el, &scene));
+        // the value being dragged beside the pointer, last so it is drawn over the rest
+        let readout = state.drag_reading.get();
+        if let Some(r) = &readout {
+            add_pointer_readout(&mut scene, r.text.clone(), Px::new(r.at.0, r.at.1));
+        }
+        let fraction = drag_resolution(state);
+        timed(Step::Paint("elevation"), || paint::paint_scaled(&el, &scene, fraction));
+        // the readout's words, for tests and assistive tools
+        let _ = match &readout {
+            Some(r) => el.set_attribute("data-readout", &r.text),
+            None => el.remove_attribute("data-readout"),
+        };
         // the vehicle's leading axle and grab box, for tests and assistive tools
         match (&car, &drawn_car) {
             (Some(c), Some(g)) => {
@@ -181,6 +196,8 @@ pub fn ElevationCanvas() -> impl IntoView {
             ev.prevent_default();
             let grab = x - t.world(Px::new(at.0, at.1)).0;
             vehicle_drag.set_value(Some(VehicleDrag { pointer: ev.pointer_id(), grab, transform: t }));
+            state.vehicle_dragging.set(true);
+            state.drag_reading.set(Some(vehicle_reading(state, x, at)));
             return;
         }
         let design = state.design.get_untracked();
@@ -198,10 +215,8 @@ pub fn ElevationCanvas() -> impl IntoView {
             ev.prevent_default();
             state.drag_stop.set(None);
             state.dragging.set(true);
-            state.drag_reading.set(h.reading(&design).map(|reading| DragReading {
-                reading,
-                client: (ev.client_x() as f64, ev.client_y() as f64),
-            }));
+            let units = state.units.get_untracked();
+            state.drag_reading.set(h.reading(&design).map(|r| DragReading { text: r.describe(units), at }));
             dragging.set_value(Some(HandleDrag {
                 pointer: ev.pointer_id(),
                 drag: Drag::new(h),
@@ -217,6 +232,8 @@ pub fn ElevationCanvas() -> impl IntoView {
     let on_up = move |ev: web_sys::PointerEvent| {
         if vehicle_drag.with_value(|d| d.as_ref().is_some_and(|d| d.pointer == ev.pointer_id())) {
             vehicle_drag.set_value(None);
+            state.vehicle_dragging.set(false);
+            state.drag_reading.set(None);
             if let Some(el) = node.get() {
                 let _ = el.release_pointer_capture(ev.pointer_id());
             }
@@ -253,7 +270,9 @@ pub fn ElevationCanvas() -> impl IntoView {
             }
             let x = d.transform.world(Px::new(at.0, at.1)).0 + d.grab;
             let x = if ev.shift_key() { x } else { (x / VEHICLE_SNAP).round() * VEHICLE_SNAP };
-            state.move_vehicle(x);
+            if let Some(x) = state.move_vehicle(x) {
+                state.drag_reading.set(Some(vehicle_reading(state, x, at)));
+            }
             return;
         }
         // dragging: map with the transform the drag started in, snap unless Shift is held,
@@ -271,8 +290,7 @@ pub fn ElevationCanvas() -> impl IntoView {
                 if let Some(stop) = stop {
                     state.drag_stop.set(Some(drag::stop_message(h, d, &stop, units)));
                 }
-                let client = (ev.client_x() as f64, ev.client_y() as f64);
-                state.drag_reading.set(h.reading(d).map(|reading| DragReading { reading, client }));
+                state.drag_reading.set(h.reading(d).map(|r| DragReading { text: r.describe(units), at }));
             });
             return;
         }
@@ -443,7 +461,8 @@ pub fn ForceCanvas() -> impl IntoView {
         };
         let opts = ForceOptions { units, highlight, views, fixed_scale: held.get_value() };
         let d = timed(Step::Scene, || forces::drawing(&a, case, &opts, viewport));
-        timed(Step::Paint("forces"), || paint::paint(&el, &d.scene));
+        let fraction = drag_resolution(state);
+        timed(Step::Paint("forces"), || paint::paint_scaled(&el, &d.scene, fraction));
         // the pole one can drag, for tests and assistive tools
         match pole_on_canvas(&a, case, &d) {
             Some((p, t)) => {
@@ -653,4 +672,22 @@ pub fn ForceCanvas() -> impl IntoView {
             </div>
         </div>
     }
+}
+
+/// The share of the sharp backing store's pixels along each side the drawings are painted
+/// at: [`DRAG_RESOLUTION`] while a point or the vehicle is dragged, whole otherwise. Read
+/// tracked, so a drawing is painted sharp again when the drag ends.
+fn drag_resolution(state: AppState) -> f64 {
+    if state.dragging.get() || state.vehicle_dragging.get() {
+        DRAG_RESOLUTION
+    } else {
+        1.0
+    }
+}
+
+/// The readout of a vehicle drag: where the leading axle stands (`x`, m), beside the
+/// pointer at `at` (CSS pixels of the elevation).
+fn vehicle_reading(state: AppState, x: f64, at: (f64, f64)) -> DragReading {
+    let units = state.units.get_untracked();
+    DragReading { text: format!("leading axle x = {}", units.show(crate::format::Quantity::Length, x)), at }
 }

@@ -63,7 +63,7 @@ pub fn FieldProblems(
         if input_only {
             return Vec::new();
         }
-        state.valid.with(|v| match v {
+        state.settled_valid.with(|v| match v {
             Ok(v) => v.warnings().iter().filter(|w| w.involves(field)).map(|w| w.message.clone()).collect(),
             Err(_) => Vec::new(),
         })
@@ -225,7 +225,7 @@ pub(crate) fn design_field(
     integer: bool,
 ) -> impl IntoView {
     let state = expect_context::<AppState>();
-    let value = Signal::derive(move || state.design.with(get));
+    let value = Signal::derive(move || state.settled_design.with(get));
     let on_commit = Callback::new(move |v: f64| state.try_edit(field, |d| set(d, v)));
     view! { <NumberField label id field quantity value on_commit min=range.0 max=range.1 integer /> }
 }
@@ -234,12 +234,12 @@ pub(crate) fn design_field(
 #[component]
 pub fn GroundPanel() -> impl IntoView {
     let state = expect_context::<AppState>();
-    let count = Memo::new(move |_| state.design.with(|d| d.valley.len()));
+    let count = Memo::new(move |_| state.settled_design.with(|d| d.valley.len()));
     let rows = move || {
         (0..count.get())
             .map(|i| {
-                let x = Signal::derive(move || state.design.with(|d| d.valley.get(i).map(|p| p.x).unwrap_or(0.0)));
-                let y = Signal::derive(move || state.design.with(|d| d.valley.get(i).map(|p| p.y).unwrap_or(0.0)));
+                let x = Signal::derive(move || state.settled_design.with(|d| d.valley.get(i).map(|p| p.x).unwrap_or(0.0)));
+                let y = Signal::derive(move || state.settled_design.with(|d| d.valley.get(i).map(|p| p.y).unwrap_or(0.0)));
                 let set_x = Callback::new(move |v: f64| {
                     state.try_edit(Field::ValleyPoint(i), |d| {
                         if let Some(p) = d.valley.get_mut(i) {
@@ -383,7 +383,7 @@ fn basis_key(basis: Basis) -> &'static str {
 pub fn ArchPanel() -> impl IntoView {
     let state = expect_context::<AppState>();
     let rib = move || {
-        state.design.with(|d| match d.rib_system {
+        state.settled_design.with(|d| match d.rib_system {
             RibSystem::ThreeHinged => "three",
             RibSystem::TwoHinged => "two",
             RibSystem::Fixed => "fixed",
@@ -400,7 +400,7 @@ pub fn ArchPanel() -> impl IntoView {
         let _ = state.try_edit(Field::RibSystem, |d| d.rib_system = sys);
     };
     let bracing = move || {
-        state.design.with(|d| match d.bracing {
+        state.settled_design.with(|d| match d.bracing {
             Bracing::None => "none",
             Bracing::Single { flipped: false } => "single",
             Bracing::Single { flipped: true } => "flipped",
@@ -416,14 +416,14 @@ pub fn ArchPanel() -> impl IntoView {
         };
         let _ = state.try_edit(Field::Bracing, |d| d.bracing = b);
     };
-    let basis = move || state.design.with(|d| basis_key(d.form.basis));
+    let basis = move || state.settled_design.with(|d| basis_key(d.form.basis));
     let set_basis = move |ev: leptos::ev::Event| {
         let key = event_target_value(&ev);
         let chosen = Basis::ALL.into_iter().find(|b| basis_key(*b) == key).unwrap_or_default();
         let _ = state.try_edit(Field::FormBasis, |d| d.form.basis = chosen);
     };
     let basis_words = move || {
-        state.design.with(|d| {
+        state.settled_design.with(|d| {
             let name = d.form.basis.name();
             let mut words = format!("{}{}: {}.", name[..1].to_uppercase(), &name[1..], d.form.basis.describe());
             if d.form.basis == Basis::AsBuilt && d.bracing.is_braced() {
@@ -436,7 +436,7 @@ pub fn ArchPanel() -> impl IntoView {
             words
         })
     };
-    let crown_value = Signal::derive(move || state.design.with(|d| d.rise()));
+    let crown_value = Signal::derive(move || state.settled_design.with(|d| d.rise()));
     let set_rise = Callback::new(move |v: f64| {
         // keeps the user's choice of how the crown is given
         state.try_edit(Field::CrownRise, |d| d.set_rise(v))
@@ -569,7 +569,7 @@ pub fn SectionsPanel() -> impl IntoView {
                 .into_iter()
                 .map(|(label, what, pkey, property, q, pget, pset, range)| {
                     let field = Field::Section(group, property);
-                    let value = Signal::derive(move || state.design.with(|d| pget(get(d))));
+                    let value = Signal::derive(move || state.settled_design.with(|d| pget(get(d))));
                     let on_commit = Callback::new(move |v: f64| state.try_edit(field, |d| pset(set(d), v)));
                     view! {
                         <NumberField label spoken=format!("{name}, {what} (per rib line)") id=format!("section-{key}-{pkey}") field quantity=q value on_commit min=range.0 max=range.1 />
@@ -788,13 +788,13 @@ fn GroupSizingFields(
     let key = group.key();
     // keys only: a ratio edited keeps the same fields (and focus) on screen
     let chosen_family = Memo::new(move |_| {
-        state.design.with(|d| d.sizing.group(group).family.as_ref().map_or(AS_TYPED, family_key))
+        state.settled_design.with(|d| d.sizing.group(group).family.as_ref().map_or(AS_TYPED, family_key))
     });
     let chosen_material =
-        Memo::new(move |_| state.design.with(|d| material_key(&d.sizing.group(group).material)));
+        Memo::new(move |_| state.settled_design.with(|d| material_key(&d.sizing.group(group).material)));
     // the name of a material that is no preset (a design file's own values)
     let own_name =
-        Memo::new(move |_| state.design.with(|d| d.sizing.group(group).material.name().to_string()));
+        Memo::new(move |_| state.settled_design.with(|d| d.sizing.group(group).material.name().to_string()));
     // where the group's refusals show: under the input last edited ("select", a ratio's
     // key, or END_SLOT), so a message stands beside what caused it
     let edited_at = RwSignal::new(END_SLOT);
@@ -852,7 +852,7 @@ fn GroupSizingFields(
             .map(|r| {
                 let (get, set, slot) = (r.get, r.set, r.key);
                 let value = Signal::derive(move || {
-                    state.design.with(|d| d.sizing.group(group).family.as_ref().and_then(get).unwrap_or(f64::NAN))
+                    state.settled_design.with(|d| d.sizing.group(group).family.as_ref().and_then(get).unwrap_or(f64::NAN))
                 });
                 let on_commit = Callback::new(move |v: f64| {
                     edited_at.set(slot);
@@ -878,7 +878,8 @@ fn GroupSizingFields(
         }
         .into_any()
     } else {
-        let value = Signal::derive(move || state.design.with(|d| d.sizing.group(group).length_factor));
+        let value =
+            Signal::derive(move || state.settled_design.with(|d| d.sizing.group(group).length_factor));
         let on_commit = Callback::new(move |v: f64| {
             edited_at.set(END_SLOT);
             state.try_edit(field, |d| d.sizing.group_mut(group).length_factor = v)
@@ -942,7 +943,7 @@ fn RibOutOfPlaneField(
     let input_error = RwSignal::new(None::<String>);
     let shown = move || {
         let units = state.units.get();
-        state.design.with(|d| {
+        state.settled_design.with(|d| {
             d.sizing.rib_out_of_plane.map_or(String::new(), |l| input_text(units, Quantity::Length, l, false))
         })
     };
@@ -994,7 +995,7 @@ fn FirstOrderRibField(
 ) -> impl IntoView {
     let state = expect_context::<AppState>();
     let id = "sizing-rib-first-order";
-    let checked = move || state.design.with(|d| d.sizing.rib_for_first_order);
+    let checked = move || state.settled_design.with(|d| d.sizing.rib_for_first_order);
     let toggle = move |ev: leptos::ev::Event| {
         let on = event_target_checked(&ev);
         edited_at.set(END_SLOT);

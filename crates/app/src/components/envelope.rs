@@ -137,7 +137,7 @@ pub fn EnvelopePanel() -> impl IntoView {
                 .into_any();
         };
         let r = &report.1;
-        let Ok(a) = state.analysis.get() else { return ().into_any() };
+        let Ok(a) = state.settled_analysis.get() else { return ().into_any() };
         let ranges = member_ranges(&a, r, basis);
         let name = |k: usize| a.frame.model.member_label(k);
         let extreme = |tension: bool, id: &'static str, words: &'static str| {

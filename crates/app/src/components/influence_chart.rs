@@ -197,7 +197,7 @@ pub fn InfluenceChart() -> impl IntoView {
         if !active.get() {
             return None;
         }
-        let design = state.design.get();
+        let design = state.settled_design.get();
         let valid = ValidDesign::new(&design).ok()?;
         let generated = springline_statics::frame_model(&valid);
         let inf = influence_of(generated, Some(TRAFFIC_STEP)).ok()?;
@@ -252,7 +252,7 @@ pub fn InfluenceChart() -> impl IntoView {
         }
     });
     let fixed = Memo::new(move |_| {
-        state.analysis.with(|a| {
+        state.settled_analysis.with(|a| {
             a.as_ref().ok().is_some_and(|a| {
                 a.frame.model.supports.iter().any(|s| s.rz && a.frame.map.springings.contains(&s.node))
             })

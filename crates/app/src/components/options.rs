@@ -96,7 +96,7 @@ pub fn OptionsPanel() -> impl IntoView {
     };
     // encoded once a drag ends, not on every pointer move
     let meeting_link = crate::pause::held_while_dragging(state, move || {
-        state.design.track();
+        state.settled_design.track();
         options.saved.track();
         options.shared.track();
         link_to_comparison(state, options).unwrap_or_default()
@@ -227,8 +227,9 @@ fn Comparison(shown: Memo<Vec<NamedDesign>>) -> impl IntoView {
             })
             .collect_view()
     };
-    let open_index =
-        Memo::new(move |_| state.design.with(|d| shown.with(|s| s.iter().position(|o| o.design == *d))));
+    let open_index = Memo::new(move |_| {
+        state.settled_design.with(|d| shown.with(|s| s.iter().position(|o| o.design == *d)))
+    });
     let header = move || {
         shown
             .get()
@@ -329,7 +330,7 @@ fn Thumb(index: usize, option: NamedDesign, transform: Transform, from_link: boo
     let open = move |_| open_option(state, options, &opened);
     let is_open = {
         let d = option.design.clone();
-        Memo::new(move |_| state.design.with(|current| *current == d))
+        Memo::new(move |_| state.settled_design.with(|current| *current == d))
     };
     let remove = move |_| {
         options.saved.update(|s| {

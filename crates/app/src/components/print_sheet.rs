@@ -27,7 +27,7 @@ pub fn PrintSheet() -> impl IntoView {
     let node: NodeRef<Canvas> = NodeRef::new();
     // the link once a drag ends (not on every pointer move)
     let link = crate::pause::held_while_dragging(state, move || {
-        state.design.track();
+        state.settled_design.track();
         state.units.track();
         link_to_open_design(state).unwrap_or_default()
     });
@@ -97,7 +97,7 @@ pub fn PrintSheet() -> impl IntoView {
         });
     on_cleanup(move || before_print.remove());
     let warnings = move || {
-        state.analysis.with(|a| {
+        state.settled_analysis.with(|a| {
             let a = a.as_ref().ok()?;
             (!a.warnings.is_empty()).then(|| {
                 let items = a.warnings.iter().map(|w| view! { <li>{w.to_string()}</li> }).collect_view();
@@ -107,7 +107,7 @@ pub fn PrintSheet() -> impl IntoView {
     };
     let numbers = move || {
         let units = state.units.get();
-        state.analysis.with(|a| {
+        state.settled_analysis.with(|a| {
             let a = a.as_ref().ok()?;
             let s = &a.summary;
             let [left, right] = s.form_reactions;
@@ -136,7 +136,11 @@ pub fn PrintSheet() -> impl IntoView {
                 ),
                 (
                     "panels, ribs",
-                    format!("{}, {}", state.design.with(|d| d.panels), state.design.with(|d| d.deck.ribs)),
+                    format!(
+                        "{}, {}",
+                        state.settled_design.with(|d| d.panels),
+                        state.settled_design.with(|d| d.deck.ribs)
+                    ),
                 ),
             ];
             Some(
@@ -150,7 +154,7 @@ pub fn PrintSheet() -> impl IntoView {
         <section class="print-sheet" id="print-sheet" aria-hidden="true">
             <div class="print-columns">
                 <div>
-                    <h2>{move || state.design.with(|d| d.name.clone())}</h2>
+                    <h2>{move || state.settled_design.with(|d| d.name.clone())}</h2>
                     <p>{move || format!("Springline concept design sheet, printed {}", printed.get())}</p>
                     <table class="print-numbers"><tbody>{numbers}</tbody></table>
                     {warnings}

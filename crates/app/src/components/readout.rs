@@ -31,9 +31,9 @@ pub fn MemberReadout() -> impl IntoView {
         let key = state.focus.get()?;
         let case = state.case.get();
         let units = state.units.get();
-        let ribs = state.design.with(|d| d.deck.ribs);
+        let ribs = state.settled_design.with(|d| d.deck.ribs);
         // a member the current layout no longer has reads as nothing pointed at
-        state.analysis.with(|o| {
+        state.settled_analysis.with(|o| {
             let r = readout(o.as_ref().ok()?, ribs, &key, case);
             (!r.in_no_model()).then(|| r.lines(units))
         })
@@ -75,7 +75,7 @@ pub fn MemberReadout() -> impl IntoView {
 pub fn ModelSwitch() -> impl IntoView {
     let state = expect_context::<AppState>();
     let has_truss =
-        Memo::new(move |_| state.analysis.with(|o| o.as_ref().is_ok_and(|a| has_solved_truss(a))));
+        Memo::new(move |_| state.settled_analysis.with(|o| o.as_ref().is_ok_and(|a| has_solved_truss(a))));
     let truss_drawn = move || has_truss.get() && state.elevation_model.get() == ModelKind::Truss;
     view! {
         <div

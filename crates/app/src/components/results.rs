@@ -265,12 +265,12 @@ pub fn ResultsPanel() -> impl IntoView {
     let shown_rows = Memo::new(move |_| {
         let units: Units = state.units.get();
         let case = state.case.get();
-        let ribs = state.design.with(|d| d.deck.ribs);
+        let ribs = state.settled_design.with(|d| d.deck.ribs);
         // the member in focus gets its row while the vehicle is on the deck: the row
         // shows it change as the vehicle moves (elsewhere the readout does, and a table
         // that changed under a passing pointer would only distract)
         let focus = if state.vehicle.with(Option::is_some) { state.focus.get() } else { None };
-        state.analysis.with(|a| {
+        state.settled_analysis.with(|a| {
             let Ok(a) = a else { return Vec::new() };
             rows(a, case, ribs, units, focus)
                 .into_iter()
@@ -286,18 +286,20 @@ pub fn ResultsPanel() -> impl IntoView {
     });
     let caption = Memo::new(move |_| {
         let case = state.case.get();
-        state.analysis.with(|a| {
+        state.settled_analysis.with(|a| {
             a.as_ref().ok().map(|a| a.load_cases.get(case).map(|c| c.description.title()).unwrap_or_default())
         })
     });
     let note = Memo::new(move |_| {
         let (case, units) = (state.case.get(), state.units.get());
-        state.analysis.with(|a| a.as_ref().ok().and_then(|a| thrust_note(a, case, units)))
+        state.settled_analysis.with(|a| a.as_ref().ok().and_then(|a| thrust_note(a, case, units)))
     });
     // the warnings are the validation's: a move of the vehicle leaves them be
-    let warnings =
-        Memo::new(move |_| state.valid.with(|v| v.as_ref().map(|v| warning_lines(v.warnings())).ok()));
-    let failure = Memo::new(move |_| state.analysis.with(|a| a.as_ref().err().map(|e| e.to_string())));
+    let warnings = Memo::new(move |_| {
+        state.settled_valid.with(|v| v.as_ref().map(|v| warning_lines(v.warnings())).ok())
+    });
+    let failure =
+        Memo::new(move |_| state.settled_analysis.with(|a| a.as_ref().err().map(|e| e.to_string())));
     let table = move || {
         caption.get().map(|title| {
             view! {

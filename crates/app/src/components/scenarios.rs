@@ -281,7 +281,7 @@ pub fn ScenarioButtons() -> impl IntoView {
     let state = expect_context::<AppState>();
     // the analysis's own cases (the extra cases a pattern or a placement adds come after)
     let kinds = Memo::new(move |_| {
-        let own = state.valid.with(|v| v.as_ref().map_or(0, |v| standard_cases(v).len() + 1));
+        let own = state.settled_valid.with(|v| v.as_ref().map_or(0, |v| standard_cases(v).len() + 1));
         state
             .analysis
             .with(|a| {
@@ -300,7 +300,7 @@ pub fn ScenarioButtons() -> impl IntoView {
             && state.mode_view.get() == ModeView::Off
             && !vehicle_chosen.get()
     };
-    let panels = Memo::new(move |_| state.design.with(|d| d.panels));
+    let panels = Memo::new(move |_| state.settled_design.with(|d| d.panels));
     let buttons = move || {
         let units: Units = state.units.get();
         kinds
@@ -404,7 +404,7 @@ pub fn ScenarioButtons() -> impl IntoView {
             "The first mode of free vibration with the dead load's masses, with its frequency")}
     };
     let action_kinds = Memo::new(move |_| {
-        state.design.with(|d| action_cases(d).into_iter().map(|c| c.kind).collect::<Vec<_>>())
+        state.settled_design.with(|d| action_cases(d).into_iter().map(|c| c.kind).collect::<Vec<_>>())
     });
     let action_buttons = move || {
         let units = state.units.get();

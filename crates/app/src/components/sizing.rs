@@ -295,7 +295,9 @@ fn AdoptButton() -> impl IntoView {
     let refusal = RwSignal::new(None::<String>);
     // the design with the sizes adopted, when it differs from the design on screen
     let adopted = move || match state.size_report.get() {
-        SizeView::Ready(r) => state.design.with(|d| Some(adopt_sizes(d, &r.sizing)).filter(|a| a != d)),
+        SizeView::Ready(r) => {
+            state.settled_design.with(|d| Some(adopt_sizes(d, &r.sizing)).filter(|a| a != d))
+        }
         _ => None,
     };
     let adopt = move |_| {

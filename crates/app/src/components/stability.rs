@@ -35,7 +35,7 @@ pub fn install(state: AppState) {
 
 /// The results of the design on screen, when they are for it.
 pub fn current(state: AppState) -> Option<Arc<(springline_statics::Design, crate::state::StabilityOutcome)>> {
-    state.stability.get().filter(|s| state.design.with(|d| *d == s.0))
+    state.stability.get().filter(|s| state.settled_design.with(|d| *d == s.0))
 }
 
 /// The lines of the block: alpha_cr, the verdict, the lowest local mode, frequencies.

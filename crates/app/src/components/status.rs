@@ -1,9 +1,9 @@
-//! The status line under the drawings (why a drag stopped, else how to drag), the value
-//! being dragged beside the pointer, and the largest-rise hint beside the rise field.
+//! The status line under the drawings (why a drag stopped, else how to drag) and the
+//! largest-rise hint beside the rise field. (The value being dragged is drawn on the
+//! elevation beside the pointer: `scene::readout`.)
 //!
-//! None of them moves anything on the page: the status line keeps one fixed height
-//! whatever it says, the readout floats over the page (fixed position, no pointer
-//! events), and the hint sits in the rise field's own message area.
+//! Neither moves anything on the page: the status line keeps one fixed height whatever
+//! it says, and the hint sits in the rise field's own message area.
 
 use crate::drag::drag_hint;
 use crate::state::AppState;
@@ -11,14 +11,20 @@ use leptos::prelude::*;
 use springline_statics::arch::edit::largest_rise;
 use springline_statics::error::Field;
 
-/// The fixed-height status line (three lines of text, style.css), with the pointer readout.
+/// The fixed-height status line (three lines of text, style.css).
 #[component]
 pub fn StatusLine() -> impl IntoView {
     let state = expect_context::<AppState>();
     let stopped = move || state.drag_stop.with(Option::is_some);
-    // with the vehicle on the deck: where its leading axle stands (it follows every move)
+    // with the vehicle on the deck: where its leading axle stands, held while it is dragged
+    // (the readout beside the pointer follows every move; a line of the page rewritten per
+    // move would have the browser lay out and repaint the page each time)
+    let vehicle = Memo::new(move |shown: Option<&Option<f64>>| match shown {
+        Some(x) if state.vehicle_dragging.get() => *x,
+        _ => state.vehicle.get(),
+    });
     let text = move || {
-        state.drag_stop.get().unwrap_or_else(|| match state.vehicle.get() {
+        state.drag_stop.get().unwrap_or_else(|| match vehicle.get() {
             Some(x) => vehicle_words(x, state.units.get()),
             None => drag_hint(state.units.get()),
         })
@@ -27,7 +33,6 @@ pub fn StatusLine() -> impl IntoView {
         <p id="drag-status" class="status-line" role="status" aria-live="polite" data-stopped=move || stopped().to_string() class:stopped=stopped>
             {text}
         </p>
-        <PointerReadout />
     }
 }
 
@@ -39,46 +44,6 @@ fn vehicle_words(x: f64, units: crate::format::Units) -> String {
          right arrow keys (Shift: one panel); the crown, springings, deck and ground points drag as before.",
         units.show(crate::format::Quantity::Length, x)
     )
-}
-
-/// Distance of the readout from the pointer, CSS pixels (right of and above it).
-const READOUT_OFFSET: (f64, f64) = (16.0, -30.0);
-/// Room the readout needs to the right of the pointer before it flips to the left, CSS
-/// pixels.
-const READOUT_ROOM: f64 = 240.0;
-
-/// The value being dragged, beside the pointer; hidden when not dragging.
-#[component]
-fn PointerReadout() -> impl IntoView {
-    let state = expect_context::<AppState>();
-    let text = move || {
-        let units = state.units.get();
-        state.drag_reading.with(|r| r.map(|r| r.reading.describe(units)).unwrap_or_default())
-    };
-    // placed through the element's style properties, its look in style.css; worked out
-    // once per pointer move: (left, right, top, display)
-    let place = Memo::new(move |_| match state.drag_reading.get() {
-        Some(r) => {
-            let width = window().inner_width().ok().and_then(|w| w.as_f64()).unwrap_or(f64::INFINITY);
-            let (x, y) = r.client;
-            let top = format!("{}px", (y + READOUT_OFFSET.1).max(0.0));
-            // near the right edge the readout goes left of the pointer
-            if x + READOUT_ROOM > width {
-                ("auto".to_string(), format!("{}px", (width - x + READOUT_OFFSET.0).max(0.0)), top, "block")
-            } else {
-                (format!("{}px", x + READOUT_OFFSET.0), "auto".to_string(), top, "block")
-            }
-        }
-        None => ("auto".to_string(), "auto".to_string(), "0px".to_string(), "none"),
-    });
-    let left = move || place.with(|p| p.0.clone());
-    let right = move || place.with(|p| p.1.clone());
-    let top = move || place.with(|p| p.2.clone());
-    let display = move || place.with(|p| p.3);
-    view! {
-        <div id="drag-value" class="drag-value" aria-hidden="true"
-            style:left=left style:right=right style:top=top style:display=display>{text}</div>
-    }
 }
 
 /// Beside the rise: when an edit of the rise or the crown level was refused for a rise

@@ -457,7 +457,7 @@ fn SweepChart(
     Effect::new(move |_| {
         let _ = state.resized.get();
         let units = state.units.get();
-        let current = state.design.get();
+        let current = state.settled_design.get();
         let Some(el) = node.get() else { return };
         run.with(|r| {
             let Some(r) = r else { return };

@@ -84,7 +84,7 @@ fn ModelValues() -> impl IntoView {
     // which numbers there are: changes with the family (or a vehicle's axle count), not
     // with every edit, so the fields are not rebuilt while a value is typed
     let slots = Memo::new(move |_| {
-        state.design.with(|d| {
+        state.settled_design.with(|d| {
             d.traffic
                 .load_model
                 .values()
@@ -101,7 +101,7 @@ fn ModelValues() -> impl IntoView {
                 let id = format!("model-{}", key.replace(['[', ']', '.', '_'], "-").trim_end_matches('-'));
                 let read = key.clone();
                 let value = Signal::derive(move || {
-                    state.design.with(|d| {
+                    state.settled_design.with(|d| {
                         d.traffic.load_model.values().into_iter().find(|v| v.key == read).map_or(0.0, |v| v.value)
                     })
                 });
@@ -135,7 +135,8 @@ fn RibPositionsField() -> impl IntoView {
     let field = Field::RibPositions;
     // what is wrong with the text typed here; the engine's refusals come from the state
     let input_error = RwSignal::new(None::<String>);
-    let shown = move || state.design.with(|d| positions_text(state.units.get(), &d.traffic.rib_positions));
+    let shown =
+        move || state.settled_design.with(|d| positions_text(state.units.get(), &d.traffic.rib_positions));
     let commit = move |text: String| match parse_positions(&text, state.units.get_untracked()) {
         Ok(positions) => {
             input_error.set(None);
@@ -190,7 +191,7 @@ fn RibPositionsField() -> impl IntoView {
 #[component]
 fn LoadModelField() -> impl IntoView {
     let state = expect_context::<AppState>();
-    let family = move || state.design.with(|d| d.traffic.load_model.family().key());
+    let family = move || state.settled_design.with(|d| d.traffic.load_model.family().key());
     let choose = move |ev: leptos::ev::Event| {
         let Some(family) = ModelFamily::from_key(&event_target_value(&ev)) else { return };
         // a refusal is shown beside the menu (and every field it involves)
@@ -224,16 +225,16 @@ fn LoadModelField() -> impl IntoView {
 fn ModelDescription() -> impl IntoView {
     let state = expect_context::<AppState>();
     // the span the crowd's loaded length needs: the analysed design's
-    let span = Memo::new(move |_| state.analysis.with(|a| a.as_ref().ok().map(|a| a.summary.span)));
+    let span = Memo::new(move |_| state.settled_analysis.with(|a| a.as_ref().ok().map(|a| a.summary.span)));
     let lanes = move || {
         let span = span.get()?;
         let units = state.units.get();
-        Some(state.design.with(|d| {
+        Some(state.settled_design.with(|d| {
             d.traffic.load_model.lane_layout(d.traffic.carriageway_width, span).words.describe(units)
         }))
     };
     let combinations = move || {
-        state.design.with(|d| {
+        state.settled_design.with(|d| {
             d.traffic
                 .combinations
                 .iter()

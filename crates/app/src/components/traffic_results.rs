@@ -155,7 +155,7 @@ pub fn TrafficResults() -> impl IntoView {
     let state = expect_context::<AppState>();
     // whether the report shown is for the design on screen
     let current =
-        move || state.traffic.with(|t| t.as_ref().is_some_and(|t| state.design.with(|d| *d == t.0)));
+        move || state.traffic.with(|t| t.as_ref().is_some_and(|t| state.settled_design.with(|d| *d == t.0)));
     let body = move || {
         let units = state.units.get();
         let ribs = state.design.with_untracked(|d| d.deck.ribs);

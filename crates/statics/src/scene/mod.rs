@@ -13,6 +13,7 @@ pub mod envelope;
 pub mod force;
 pub mod modes;
 pub mod place;
+pub mod readout;
 pub mod sizing;
 pub mod svg;
 pub mod vehicle;
