@@ -59,7 +59,7 @@ pub fn ActionsPanel() -> impl IntoView {
     let state = expect_context::<AppState>();
     let chosen = move || {
         state
-            .design
+            .settled_design
             .with(|d| preset_of(&d.actions.temperature).map_or("own".to_string(), |p| p.key().to_string()))
     };
     let on_preset = move |ev: leptos::ev::Event| {

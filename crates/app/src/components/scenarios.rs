@@ -283,7 +283,7 @@ pub fn ScenarioButtons() -> impl IntoView {
     let kinds = Memo::new(move |_| {
         let own = state.settled_valid.with(|v| v.as_ref().map_or(0, |v| standard_cases(v).len() + 1));
         state
-            .analysis
+            .settled_analysis
             .with(|a| {
                 a.as_ref()
                     .map(|a| a.load_cases.iter().take(own).map(|c| c.description).collect::<Vec<_>>())
@@ -476,7 +476,7 @@ pub fn ScenarioButtons() -> impl IntoView {
                 .to_string();
         }
         state
-            .analysis
+            .settled_analysis
             .with(|a| {
                 let a = a.as_ref().ok()?;
                 Some(a.load_cases.get(state.case.get())?.description.describe(units))
