@@ -5,7 +5,7 @@
 use crate::format::Units;
 use crate::timing::{timed, Step};
 use leptos::prelude::*;
-use springline_statics::arch::analysis::analyze_reusing;
+use springline_statics::arch::analysis::{analyze_to, Extent};
 use springline_statics::arch::cases::{standard_cases, CaseSpec, Pattern};
 use springline_statics::arch::edit::{Drag, DragStop, Snapping};
 use springline_statics::arch::readout::MemberKey;
@@ -101,17 +101,21 @@ pub type Validated = Result<Arc<ValidDesign>, StaticsError>;
 /// `previous`: the analysis on screen, whose figures of unchanged cases are kept rather
 /// than drawn again (`arch::analysis::analyze_reusing`: a vehicle move draws its own
 /// case's figures only).
+///
+/// `extent`: everything, or while a drag is on the shown case's figures alone
+/// (`arch::analysis::Extent`).
 pub fn analyse(
     valid: &ValidDesign,
     vehicle: Option<f64>,
     extra: &[CaseSpec],
     previous: Option<&Analysis>,
+    extent: Extent,
 ) -> Result<Analysis, StaticsError> {
     let mut cases = extra.to_vec();
     if let Some(x) = vehicle {
         cases.push(vehicle_case(valid, x)?);
     }
-    analyze_reusing(valid, &cases, previous)
+    analyze_to(valid, &cases, previous, extent)
 }
 
 /// Whether a newly computed outcome differs from the last: a different analysis
@@ -125,8 +129,8 @@ fn analysis_changed(old: Option<&Outcome>, new: Option<&Outcome>) -> bool {
 }
 
 /// A design checked by [`AppState::check`]: its validation, and its analysis with the
-/// vehicle where it stood then, kept for the memos.
-type Checked = (Design, Arc<ValidDesign>, Option<f64>, Arc<Analysis>);
+/// vehicle where it stood then and how far it was worked out, kept for the memos.
+type Checked = (Design, Arc<ValidDesign>, Option<f64>, Extent, Arc<Analysis>);
 
 /// Everything the components share.
 #[derive(Clone, Copy)]
@@ -314,6 +318,9 @@ impl AppState {
         let vehicle = RwSignal::new(None::<f64>);
         let extra = RwSignal::new(None::<Arc<ExtraCases>>);
         let checked = StoredValue::new(None::<Checked>);
+        let dragging = RwSignal::new(false);
+        let vehicle_dragging = RwSignal::new(false);
+        let case = RwSignal::new(0usize);
         let valid = Memo::new(move |_| {
             design.with(|d| {
                 let cached =
@@ -331,6 +338,12 @@ impl AppState {
             move |shown: Option<&Outcome>| {
                 let previous = shown.and_then(|o| o.as_ref().ok()).map(|a| &**a);
                 let x = vehicle.get();
+                // while a drag is on, the drawings of the shown case alone
+                let extent = if dragging.get() || vehicle_dragging.get() {
+                    Extent::Drawing { shown: case.get() }
+                } else {
+                    Extent::Whole
+                };
                 let v = valid.get()?;
                 // extra cases built for this very design: analysed with them
                 let extra = extra.get();
@@ -338,22 +351,22 @@ impl AppState {
                     extra.as_ref().filter(|e| e.0 == *d && !e.1.is_empty()).map(|e| e.1.clone())
                 });
                 if let Some(cases) = extra {
-                    return timed(Step::Compute, || analyse(&v, x, &cases, previous).map(Arc::new));
+                    return timed(Step::Compute, || analyse(&v, x, &cases, previous, extent).map(Arc::new));
                 }
                 let cached = design.with_untracked(|d| {
                     checked.with_value(|c| {
-                        c.as_ref().filter(|(cd, _, cx, _)| cd == d && *cx == x).map(|(.., a)| a.clone())
+                        c.as_ref()
+                            .filter(|(cd, _, cx, ce, _)| cd == d && *cx == x && *ce == extent)
+                            .map(|(.., a)| a.clone())
                     })
                 });
                 match cached {
                     Some(a) => Ok(a),
-                    None => timed(Step::Compute, || analyse(&v, x, &[], previous).map(Arc::new)),
+                    None => timed(Step::Compute, || analyse(&v, x, &[], previous, extent).map(Arc::new)),
                 }
             },
             analysis_changed,
         );
-        let dragging = RwSignal::new(false);
-        let vehicle_dragging = RwSignal::new(false);
         let moving = move || dragging.get() || vehicle_dragging.get();
         let settled_design = held(moving, move || design.get(), |old, new| old != new);
         let settled_valid = held(moving, move || valid.get(), validation_changed);
@@ -384,7 +397,7 @@ impl AppState {
             past: RwSignal::new(Vec::new()),
             future: RwSignal::new(Vec::new()),
             notice: RwSignal::new(None),
-            case: RwSignal::new(0),
+            case,
             dragging,
             refused: RwSignal::new(None),
             drag_stop: RwSignal::new(None),
@@ -426,14 +439,22 @@ impl AppState {
 
     /// Analyses `design`, keeping the result for the memo; the engine's error if it does
     /// not analyse.
+    ///
+    /// While a drag is on, only the shown case's figures are worked out (what the memo
+    /// asks for then); the whole analysis follows when the drag ends.
     pub fn check(&self, design: &Design) -> Result<(), StaticsError> {
         let x = self.vehicle.get_untracked();
+        let extent = if self.dragging.get_untracked() || self.vehicle_dragging.get_untracked() {
+            Extent::Drawing { shown: self.case.get_untracked() }
+        } else {
+            Extent::Whole
+        };
         let (valid, analysis) = timed(Step::Compute, || {
             let valid = ValidDesign::new(design)?;
-            let analysis = analyse(&valid, x, &[], None)?;
+            let analysis = analyse(&valid, x, &[], None, extent)?;
             Ok::<_, StaticsError>((valid, analysis))
         })?;
-        self.checked.set_value(Some((design.clone(), Arc::new(valid), x, Arc::new(analysis))));
+        self.checked.set_value(Some((design.clone(), Arc::new(valid), x, extent, Arc::new(analysis))));
         Ok(())
     }
 

@@ -418,7 +418,14 @@ mod tests {
         let v = ValidDesign::new(&Design::demo()).expect("demo");
         let mut d2_r3 = Vec::new();
         for (x, most) in [(start_position(&v), "bracing d2–r3"), (110.0, "bracing d10–r9")] {
-            let a = crate::state::analyse(&v, Some(x), &[], None).expect("analyses");
+            let a = crate::state::analyse(
+                &v,
+                Some(x),
+                &[],
+                None,
+                springline_statics::arch::analysis::Extent::Whole,
+            )
+            .expect("analyses");
             let case = a.load_cases.len() - 1;
             let (n, key) = case_bracing_extreme(&a, case, true).expect("tension");
             assert_eq!(key.to_string(), most);

@@ -6,7 +6,7 @@
 //!
 //! Results are for concept design only; local codes and a licensed engineer govern.
 
-use crate::arch::actions::{action_results, ActionsReport, ERECTION};
+use crate::arch::actions::{action_results, braking, ActionsReport, ERECTION};
 use crate::arch::cases::{add_cases, standard_cases, CaseKind, CaseSpec};
 use crate::arch::design::{Design, RibSystem, Warning};
 use crate::arch::form::{Basis, Form};
@@ -138,6 +138,25 @@ pub enum FigureNote {
         /// Why.
         reason: String,
     },
+    /// No figures: the analysis was worked out for the drawings of another case alone
+    /// ([`Extent::Drawing`]).
+    NotDrawn,
+}
+
+/// How much of an analysis [`analyze_to`] works out beyond the solved models.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Extent {
+    /// Everything: every case's figures and the other actions' report.
+    Whole,
+    /// What the drawings of one case need, for a drag that redraws on every pointer move:
+    /// the figures of load case `shown` (index into `Analysis::load_cases`) alone, every
+    /// other case's marked [`FigureNote::NotDrawn`], and the actions report without its
+    /// cases (`ActionsReport::cases` empty; the action cases are solved apart, about a
+    /// fifth of an analysis). Every model is solved for every case as in `Whole`.
+    Drawing {
+        /// The case drawn.
+        shown: usize,
+    },
 }
 
 impl fmt::Display for FigureNote {
@@ -167,6 +186,7 @@ impl fmt::Display for FigureNote {
                  at the rib nodes with the rib depth {depth} m"
             ),
             FigureNote::NoThrustLine { reason } => write!(f, "no thrust line: {reason}"),
+            FigureNote::NotDrawn => f.write_str("no figures: only the case on screen was drawn during a drag"),
         }
     }
 }
@@ -426,6 +446,22 @@ pub fn analyze_reusing(
     extra: &[CaseSpec],
     previous: Option<&Analysis>,
 ) -> Result<Analysis, StaticsError> {
+    analyze_to(valid, extra, previous, Extent::Whole)
+}
+
+/// [`analyze_reusing`] worked out to `extent`: with [`Extent::Whole`] the same; with
+/// [`Extent::Drawing`] the figures of the shown case alone and no action cases (what a
+/// drag redraws on every pointer move; the panels read a whole analysis). Figures marked
+/// [`FigureNote::NotDrawn`] in `previous` are never reused.
+///
+/// Errors: those of [`analyze_with`] (with `Drawing`, not those of the action cases'
+/// separate solve: the same models, already solved for the standard cases).
+pub fn analyze_to(
+    valid: &ValidDesign,
+    extra: &[CaseSpec],
+    previous: Option<&Analysis>,
+    extent: Extent,
+) -> Result<Analysis, StaticsError> {
     let design = valid.design();
     let form = valid.form();
     let rs = restraint(valid);
@@ -474,9 +510,24 @@ pub fn analyze_reusing(
     let previous = previous.filter(|p| same_models(p, &figures));
     let load_cases = cases
         .into_iter()
-        .map(|(name, kind)| {
+        .enumerate()
+        .map(|(index, (name, kind))| {
+            if matches!(extent, Extent::Drawing { shown } if shown != index) {
+                return CaseFigures {
+                    case: name,
+                    description: kind,
+                    force_diagram: None,
+                    rib_funicular: None,
+                    form_pole: None,
+                    thrust_line: None,
+                    notes: vec![FigureNote::NotDrawn],
+                };
+            }
             let kept = previous.and_then(|p| {
                 let old = p.load_cases.iter().find(|c| c.case == name && c.description == kind)?;
+                if old.notes.contains(&FigureNote::NotDrawn) {
+                    return None;
+                }
                 // the thrust line is drawn against the rib's depth, which no model holds
                 let depth_alike = old.notes.iter().all(|n| match n {
                     FigureNote::ThrustLine { depth } => *depth == design.groups.rib.depth,
@@ -536,7 +587,14 @@ pub fn analyze_reusing(
         bare_rib,
         residual_rib_moments: residual,
         load_cases,
-        actions: action_results(valid)?,
+        actions: match extent {
+            Extent::Whole => action_results(valid)?,
+            Extent::Drawing { .. } => ActionsReport {
+                temperature: design.actions.temperature.clone(),
+                braking: braking(design),
+                cases: Vec::new(),
+            },
+        },
     })
 }
 
@@ -886,6 +944,39 @@ mod tests {
             let reused = analyze_reusing(&valid, &[at(&valid, 51.5)], Some(&previous)).expect("solves");
             assert_eq!(reused, fresh, "{:?} {:?}", other.panels, other.rib_system);
         }
+    }
+
+    /// A drawing's extent works out the shown case's figures exactly as a whole analysis
+    /// does (and every model's solution, summary and warnings), leaves the others undrawn
+    /// and the action cases out; a whole analysis after it, reusing it, equals one
+    /// computed afresh (nothing undrawn is kept).
+    #[test]
+    fn a_drawings_extent_draws_the_shown_case_alone_and_is_never_reused_for_the_others() {
+        use crate::arch::cases::{pattern_case, Pattern};
+        let valid = ValidDesign::new(&Design::demo()).expect("demo");
+        let vehicle = [pattern_case(&valid, Pattern::Vehicle(50.0)).expect("on the deck")];
+        let whole = analyze_with(&valid, &vehicle).expect("solves");
+        let shown = whole.load_cases.len() - 1;
+        let drawn = analyze_to(&valid, &vehicle, None, Extent::Drawing { shown }).expect("solves");
+        assert_eq!(drawn.load_cases.get(shown), whole.load_cases.get(shown));
+        assert!(drawn
+            .load_cases
+            .get(shown)
+            .is_some_and(|c| c.force_diagram.is_some() && c.thrust_line.is_some()));
+        for (k, c) in drawn.load_cases.iter().enumerate().filter(|(k, _)| *k != shown) {
+            assert_eq!(c.notes, vec![FigureNote::NotDrawn], "case {k}");
+            assert!(c.force_diagram.is_none() && c.thrust_line.is_none() && c.rib_funicular.is_none());
+            assert_eq!(c.case, whole.load_cases[k].case);
+        }
+        assert_eq!(
+            (&drawn.frame, &drawn.truss, &drawn.bare_rib),
+            (&whole.frame, &whole.truss, &whole.bare_rib)
+        );
+        assert_eq!((&drawn.summary, &drawn.warnings), (&whole.summary, &whole.warnings));
+        assert!(drawn.actions.cases.is_empty() && !whole.actions.cases.is_empty());
+        assert_eq!(drawn.actions.braking, whole.actions.braking);
+        let after = analyze_to(&valid, &vehicle, Some(&drawn), Extent::Whole).expect("solves");
+        assert_eq!(after, whole);
     }
 
     #[test]
