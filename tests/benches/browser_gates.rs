@@ -14,7 +14,7 @@
 //! of each move was the engine's computation (validation and analysis), the building of
 //! the two drawings' scenes, and their painting (`crates/app/src/timing.rs`).
 //!
-//! Each gate is measured three times and the best run kept: a shared machine only ever
+//! Each gate is measured five times and the best run kept: a shared machine only ever
 //! adds time. The report goes to standard output and to `target/springline-perf/browser.md`
 //! and `.json`; the harness exits with status 1 when a gate fails, unless it is given
 //! `--report-only` (what CI runs while the gates are not yet met: it reports them).
@@ -39,7 +39,7 @@ const FIRST_DRAWING_MS: f64 = 1000.0;
 const MOVES: usize = 80;
 const EDITS: usize = 12;
 /// Attempts per gate (the best is kept).
-const ATTEMPTS: usize = 3;
+const ATTEMPTS: usize = 5;
 
 /// In the page: empty the timings, run `arguments[0]` (a step of a drag or an edit, or
 /// nothing), and resolve after the next animation frame and a task behind it (so the
