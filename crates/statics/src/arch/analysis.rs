@@ -154,7 +154,8 @@ pub enum Extent {
     /// cases (`ActionsReport::cases` empty; the action cases are solved apart, about a
     /// fifth of an analysis). Every model is solved for every case as in `Whole`.
     Drawing {
-        /// The case drawn.
+        /// The case drawn; past the last case, the dead load (the first), as the
+        /// elevation draws then.
         shown: usize,
     },
 }
@@ -508,6 +509,13 @@ pub fn analyze_to(
         rib: (&rib.model, &rib.map, &rib_solution),
     };
     let previous = previous.filter(|p| same_models(p, &figures));
+    // a case index past the cases (extra cases not built for a dragged design) draws the
+    // dead load, as the elevation does
+    let case_count = cases.len();
+    let extent = match extent {
+        Extent::Drawing { shown } if shown >= case_count => Extent::Drawing { shown: 0 },
+        other => other,
+    };
     let load_cases = cases
         .into_iter()
         .enumerate()
@@ -977,6 +985,10 @@ mod tests {
         assert_eq!(drawn.actions.braking, whole.actions.braking);
         let after = analyze_to(&valid, &vehicle, Some(&drawn), Extent::Whole).expect("solves");
         assert_eq!(after, whole);
+        // a case past the last draws the dead load's figures
+        let past = analyze_to(&valid, &vehicle, None, Extent::Drawing { shown: shown + 5 }).expect("solves");
+        assert_eq!(past.load_cases.first(), whole.load_cases.first());
+        assert_eq!(past.load_cases.get(shown).map(|c| c.notes.clone()), Some(vec![FigureNote::NotDrawn]));
     }
 
     #[test]
