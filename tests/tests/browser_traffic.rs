@@ -269,11 +269,16 @@ fn the_traffic_block_waits_for_the_end_of_a_drag() {
         );
     };
     pointer("pointerdown", y);
+    let grabbed = s.exec("return document.getElementById('elevation').dataset.readout;", vec![]);
+    assert!(grabbed.as_str().is_some_and(|r| r.starts_with("rise ")), "{grabbed}");
     pointer("pointermove", y + 20.0);
     pointer("pointermove", y + 40.0);
     s.wait_for(
         "the drawing to follow the drag",
-        "return (document.getElementById('elevation').dataset.readout || '').startsWith('rise ')",
+        &format!(
+            "const r = document.getElementById('elevation').dataset.readout || '';
+             return r.startsWith('rise ') && r !== {grabbed};"
+        ),
         WAIT,
     );
     assert!(text_of(&s, "traffic-pending").contains("updates when you let go"));
@@ -294,6 +299,13 @@ fn the_traffic_block_waits_for_the_end_of_a_drag() {
     let thrust1 = data_value(&s, "result-left-h");
     assert!((permanent1 - thrust1).abs() <= 1e-6 * thrust1, "{permanent1} vs {thrust1}");
     assert!((thrust1 - thrust0).abs() > 1.0, "the results followed the drag's end: {thrust1} vs {thrust0}");
+    // the analysis after the drag is whole: the other actions' table has its cases (a
+    // drag's own analysis leaves them out)
+    let action_rows = s.exec(
+        "const t = document.getElementById('actions-table'); return t ? t.tBodies[0].rows.length : 0;",
+        vec![],
+    );
+    assert!(action_rows.as_u64().is_some_and(|n| n >= 4), "actions table rows after the drag: {action_rows}");
     let errors = severe(&s);
     assert!(errors.is_empty(), "{errors:?}");
 }

@@ -200,7 +200,7 @@ fn dragging_the_vehicle_across_the_span_turns_a_diagonal_from_tension_to_compres
     let during = during.as_array().cloned().unwrap_or_default();
     let readouts: std::collections::BTreeSet<&str> = during.iter().filter_map(|v| v[0].as_str()).collect();
     assert!(readouts.len() >= 4, "the readout followed the drag: {readouts:?}");
-    assert!(readouts.iter().all(|r| r.starts_with("leading axle x = ")), "{readouts:?}");
+    assert!(readouts.iter().all(|r| r.starts_with("leading axle at x = ")), "{readouts:?}");
     let statuses: std::collections::BTreeSet<&str> = during.iter().filter_map(|v| v[1].as_str()).collect();
     assert_eq!(statuses.len(), 1, "the status line held during the drag: {statuses:?}");
     // and says where the vehicle stands once it ends

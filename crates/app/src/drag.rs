@@ -36,6 +36,12 @@ pub fn drag_hint(units: Units) -> String {
     )
 }
 
+/// Where the vehicle's leading axle stands, `x` m, in words and `units`: "leading axle at
+/// x = 56.61 m" (the status line and the readout beside a dragging pointer).
+pub fn leading_axle(x: f64, units: Units) -> String {
+    format!("leading axle at x = {}", units.show(Quantity::Length, x))
+}
+
 /// The handle under CSS pixel `at`, points first (nearest wins), then the deck line.
 pub fn handle_at(design: &Design, a: &Analysis, transform: &Transform, at: Px) -> Option<Handle> {
     let best = point_handles(design, &a.form)

@@ -38,20 +38,3 @@ pub fn when_rested<T: 'static>(
         );
     });
 }
-
-/// `make`'s value, recomputed when what it reads changes except while a point is
-/// dragged: then the value from before the drag stays (a link, say, is encoded once the
-/// drag ends rather than on every pointer move).
-pub fn held_while_dragging<T: Clone + PartialEq + Send + Sync + 'static>(
-    state: AppState,
-    make: impl Fn() -> T + Send + Sync + 'static,
-) -> Memo<T> {
-    Memo::new(move |previous: Option<&T>| {
-        if state.dragging.get() {
-            if let Some(p) = previous {
-                return p.clone();
-            }
-        }
-        make()
-    })
-}

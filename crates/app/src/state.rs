@@ -219,13 +219,16 @@ pub struct AppState {
     pub vehicle_dragging: RwSignal<bool>,
     /// The design the panels show: `design`, except that while a point or the vehicle is
     /// dragged it holds the design from before the drag and follows when the drag ends.
-    /// The drawings, the status line and the value beside the pointer follow every move;
-    /// the panels' many elements, redrawn per move, took most of a move's time.
+    /// The drawings and the value drawn beside the pointer follow every move (the status
+    /// line too, except for the vehicle's position); the panels' many elements, redrawn per
+    /// move, took most of a move's time.
     pub settled_design: Memo<Design>,
     /// `valid` as the panels show it, held like `settled_design`.
     pub settled_valid: Memo<Validated>,
     /// `analysis` as the panels show it, held like `settled_design`.
     pub settled_analysis: Memo<Outcome>,
+    /// `size_report` as the sizing panel shows it, held like `settled_design`.
+    pub settled_size_report: Memo<SizeView>,
     /// The analysis just computed for a design about to be set, so the memo does not
     /// compute it a second time.
     checked: StoredValue<Option<Checked>>,
@@ -234,7 +237,7 @@ pub struct AppState {
 /// `source`'s value, except while `moving` is true: then the value from before stays (and
 /// `source` is not even read, so its changes wake nothing). `changed` tells a new value
 /// from the last.
-fn held<T: Clone + Send + Sync + 'static>(
+pub(crate) fn held<T: Clone + Send + Sync + 'static>(
     moving: impl Fn() -> bool + Send + Sync + 'static,
     source: impl Fn() -> T + Send + Sync + 'static,
     changed: fn(Option<&T>, Option<&T>) -> bool,
@@ -246,6 +249,16 @@ fn held<T: Clone + Send + Sync + 'static>(
         },
         changed,
     )
+}
+
+/// How far an analysis is worked out: while a drag is on, the drawings of case `shown`
+/// alone; otherwise everything.
+fn extent_of(moving: bool, shown: usize) -> Extent {
+    if moving {
+        Extent::Drawing { shown }
+    } else {
+        Extent::Whole
+    }
 }
 
 /// Whether a validation differs from the last: another `Arc`, or another error.
@@ -318,6 +331,9 @@ impl AppState {
         let vehicle = RwSignal::new(None::<f64>);
         let extra = RwSignal::new(None::<Arc<ExtraCases>>);
         let checked = StoredValue::new(None::<Checked>);
+        // the design and vehicle of the analysis on screen (plain, without extra cases) and
+        // how far it was worked out
+        let last = StoredValue::new(None::<((Design, Option<f64>), Extent)>);
         let dragging = RwSignal::new(false);
         let vehicle_dragging = RwSignal::new(false);
         let case = RwSignal::new(0usize);
@@ -339,11 +355,7 @@ impl AppState {
                 let previous = shown.and_then(|o| o.as_ref().ok()).map(|a| &**a);
                 let x = vehicle.get();
                 // while a drag is on, the drawings of the shown case alone
-                let extent = if dragging.get() || vehicle_dragging.get() {
-                    Extent::Drawing { shown: case.get() }
-                } else {
-                    Extent::Whole
-                };
+                let extent = extent_of(dragging.get() || vehicle_dragging.get(), case.get());
                 let v = valid.get()?;
                 // extra cases built for this very design: analysed with them
                 let extra = extra.get();
@@ -351,19 +363,33 @@ impl AppState {
                     extra.as_ref().filter(|e| e.0 == *d && !e.1.is_empty()).map(|e| e.1.clone())
                 });
                 if let Some(cases) = extra {
+                    last.set_value(None);
                     return timed(Step::Compute, || analyse(&v, x, &cases, previous, extent).map(Arc::new));
                 }
-                let cached = design.with_untracked(|d| {
+                // the analysis on screen when it is of this design and vehicle and worked out
+                // far enough (a press and release that moved nothing keeps it, and so the
+                // panels), else the one `check` just computed, else a new one
+                let key = design.with_untracked(|d| (d.clone(), x));
+                let serves = |e: Extent| e == extent || e == Extent::Whole;
+                let kept = last.with_value(|l| {
+                    l.as_ref().filter(|(k, e)| *k == key && serves(*e)).and_then(|_| shown.cloned())
+                });
+                let cached = || {
                     checked.with_value(|c| {
                         c.as_ref()
-                            .filter(|(cd, _, cx, ce, _)| cd == d && *cx == x && *ce == extent)
-                            .map(|(.., a)| a.clone())
+                            .filter(|(cd, _, cx, ce, _)| *cd == key.0 && *cx == x && serves(*ce))
+                            .map(|(.., ce, a)| (a.clone(), *ce))
                     })
-                });
-                match cached {
-                    Some(a) => Ok(a),
-                    None => timed(Step::Compute, || analyse(&v, x, &[], previous, extent).map(Arc::new)),
-                }
+                };
+                let (outcome, worked_out) = match (kept, cached()) {
+                    (Some(Ok(a)), _) => (Ok(a), last.with_value(|l| l.as_ref().map_or(extent, |l| l.1))),
+                    (_, Some((a, e))) => (Ok(a), e),
+                    _ => {
+                        (timed(Step::Compute, || analyse(&v, x, &[], previous, extent).map(Arc::new)), extent)
+                    }
+                };
+                last.set_value(Some((key, worked_out)));
+                outcome
             },
             analysis_changed,
         );
@@ -384,6 +410,7 @@ impl AppState {
             }
             size_view(&valid.get(), &t.1)
         });
+        let settled_size_report = held(moving, move || size_report.get(), |old, new| old != new);
         AppState {
             design,
             valid,
@@ -418,6 +445,7 @@ impl AppState {
             settled_design,
             settled_valid,
             settled_analysis,
+            settled_size_report,
             checked,
         }
     }
@@ -444,11 +472,7 @@ impl AppState {
     /// asks for then); the whole analysis follows when the drag ends.
     pub fn check(&self, design: &Design) -> Result<(), StaticsError> {
         let x = self.vehicle.get_untracked();
-        let extent = if self.dragging.get_untracked() || self.vehicle_dragging.get_untracked() {
-            Extent::Drawing { shown: self.case.get_untracked() }
-        } else {
-            Extent::Whole
-        };
+        let extent = extent_of(self.moving_untracked(), self.case.get_untracked());
         let (valid, analysis) = timed(Step::Compute, || {
             let valid = ValidDesign::new(design)?;
             let analysis = analyse(&valid, x, &[], None, extent)?;
@@ -456,6 +480,16 @@ impl AppState {
         })?;
         self.checked.set_value(Some((design.clone(), Arc::new(valid), x, extent, Arc::new(analysis))));
         Ok(())
+    }
+
+    /// Whether a point or the vehicle is being dragged (tracked).
+    pub fn moving(&self) -> bool {
+        self.dragging.get() || self.vehicle_dragging.get()
+    }
+
+    /// Whether a point or the vehicle is being dragged (not tracked).
+    pub fn moving_untracked(&self) -> bool {
+        self.dragging.get_untracked() || self.vehicle_dragging.get_untracked()
     }
 
     /// The vehicle on the deck (its axles and total), when one is chosen and the design
@@ -601,6 +635,27 @@ impl AppState {
             self.design.set(step.design);
         }
         step.stop
+    }
+
+    /// Ends a drag of a point (or of the force diagram's pole) that began on `before`: the
+    /// drag's design is analysed whole (during the drag only the drawings' part was worked
+    /// out, `Extent::Drawing`) and kept as one undo step; should the whole analysis refuse
+    /// it (the action cases are solved apart), the design goes back to `before` and the
+    /// status line says why. The panels then follow.
+    pub fn end_drag(&self, before: Design) {
+        self.dragging.set(false);
+        self.drag_reading.set(None);
+        let now = self.design.get_untracked();
+        if now == before {
+            return;
+        }
+        match self.check(&now) {
+            Ok(()) => self.remember(before),
+            Err(e) => {
+                self.design.set(before);
+                self.drag_stop.set(Some(format!("The drag was taken back: {e}.")));
+            }
+        }
     }
 
     /// Shows `design` during a drag without recording a step (the drag records one when

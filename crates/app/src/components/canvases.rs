@@ -21,7 +21,7 @@ use springline_statics::scene::readout::add_pointer_readout;
 use springline_statics::scene::sizing::{sizing_elevation, SizingOptions};
 use springline_statics::scene::vehicle::{add_vehicle, VehicleGlyph};
 use springline_statics::scene::{Px, Scene, Transform, Viewport};
-use springline_statics::ModelKind;
+use springline_statics::{Design, ModelKind};
 
 /// Pixels within which the pointer picks a member.
 const PICK_TOLERANCE: f64 = 8.0;
@@ -86,7 +86,7 @@ pub fn ElevationCanvas() -> impl IntoView {
         let mode_view = state.mode_view.get();
         let mode = match mode_view {
             ModeView::Off => None,
-            _ => crate::components::stability::current(state).and_then(|s| {
+            _ => crate::components::stability::drawn(state).and_then(|s| {
                 let r = s.1.as_ref().ok()?;
                 let drawing =
                     if mode_view == ModeView::Buckled { &r.buckled_shape } else { &r.vibration_shape };
@@ -215,8 +215,7 @@ pub fn ElevationCanvas() -> impl IntoView {
             ev.prevent_default();
             state.drag_stop.set(None);
             state.dragging.set(true);
-            let units = state.units.get_untracked();
-            state.drag_reading.set(h.reading(&design).map(|r| DragReading { text: r.describe(units), at }));
+            state.drag_reading.set(handle_reading(state, h, &design, at));
             dragging.set_value(Some(HandleDrag {
                 pointer: ev.pointer_id(),
                 drag: Drag::new(h),
@@ -242,14 +241,10 @@ pub fn ElevationCanvas() -> impl IntoView {
         let ours = dragging.with_value(|d| d.as_ref().is_some_and(|d| d.pointer == ev.pointer_id()));
         if let Some(HandleDrag { before, .. }) = dragging.get_value().filter(|_| ours) {
             dragging.set_value(None);
-            state.dragging.set(false);
-            state.drag_reading.set(None);
             if let Some(el) = node.get() {
                 let _ = el.release_pointer_capture(ev.pointer_id());
             }
-            if state.design.with_untracked(|d| *d != before) {
-                state.remember(before);
-            }
+            state.end_drag(before);
             // refit now the drag is over
             state.resized.update(|n| *n = n.wrapping_add(1));
         }
@@ -290,7 +285,7 @@ pub fn ElevationCanvas() -> impl IntoView {
                 if let Some(stop) = stop {
                     state.drag_stop.set(Some(drag::stop_message(h, d, &stop, units)));
                 }
-                state.drag_reading.set(h.reading(d).map(|r| DragReading { text: r.describe(units), at }));
+                state.drag_reading.set(handle_reading(state, h, d, at));
             });
             return;
         }
@@ -539,10 +534,7 @@ pub fn ForceCanvas() -> impl IntoView {
     let on_up = move |ev: web_sys::PointerEvent| {
         if let Some(d) = pole_drag.get_value().filter(|d| d.pointer == ev.pointer_id()) {
             pole_drag.set_value(None);
-            state.dragging.set(false);
-            if state.design.with_untracked(|now| *now != d.before) {
-                state.remember(d.before);
-            }
+            state.end_drag(d.before);
             state.resized.update(|n| *n = n.wrapping_add(1));
         }
         pointers.update_value(|p| p.retain(|(id, _)| *id != ev.pointer_id()));
@@ -678,7 +670,7 @@ pub fn ForceCanvas() -> impl IntoView {
 /// at: [`DRAG_RESOLUTION`] while a point or the vehicle is dragged, whole otherwise. Read
 /// tracked, so a drawing is painted sharp again when the drag ends.
 fn drag_resolution(state: AppState) -> f64 {
-    if state.dragging.get() || state.vehicle_dragging.get() {
+    if state.moving() {
         DRAG_RESOLUTION
     } else {
         1.0
@@ -688,6 +680,12 @@ fn drag_resolution(state: AppState) -> f64 {
 /// The readout of a vehicle drag: where the leading axle stands (`x`, m), beside the
 /// pointer at `at` (CSS pixels of the elevation).
 fn vehicle_reading(state: AppState, x: f64, at: (f64, f64)) -> DragReading {
+    DragReading { text: drag::leading_axle(x, state.units.get_untracked()), at }
+}
+
+/// The readout of a drag of `handle` on `design`: the value it sets, beside the pointer at
+/// `at` (CSS pixels of the elevation); `None` for a handle with no value of its own.
+fn handle_reading(state: AppState, handle: Handle, design: &Design, at: (f64, f64)) -> Option<DragReading> {
     let units = state.units.get_untracked();
-    DragReading { text: format!("leading axle x = {}", units.show(crate::format::Quantity::Length, x)), at }
+    handle.reading(design).map(|r| DragReading { text: r.describe(units), at })
 }

@@ -19,10 +19,23 @@ use springline_statics::scene::envelope::{extreme_member, member_ranges, range_o
 use springline_statics::{Analysis, ModelKind};
 use std::sync::Arc;
 
-/// The traffic report of the design on screen, if it is ready and the engine has one.
+/// The traffic report of the design the drawings show (`design`, which a drag moves), if
+/// it is ready and the engine has one.
 pub fn current_report(state: AppState) -> Option<Arc<(springline_statics::Design, TrafficReport)>> {
+    report_for(state, state.design.get())
+}
+
+/// The traffic report of the design the panels show (`settled_design`, held during a
+/// drag), if it is ready and the engine has one.
+pub fn settled_report(state: AppState) -> Option<Arc<(springline_statics::Design, TrafficReport)>> {
+    report_for(state, state.settled_design.get())
+}
+
+fn report_for(
+    state: AppState,
+    design: springline_statics::Design,
+) -> Option<Arc<(springline_statics::Design, TrafficReport)>> {
     let traffic = state.traffic.get()?;
-    let design = state.design.get();
     if traffic.0 != design {
         return None;
     }
@@ -132,7 +145,7 @@ pub fn EnvelopePanel() -> impl IntoView {
     let body = move || {
         let units = state.units.get();
         let basis = state.basis.get();
-        let Some(report) = current_report(state) else {
+        let Some(report) = settled_report(state) else {
             return view! { <p class="hint" id="envelope-waiting">"Computing the traffic envelopes..."</p> }
                 .into_any();
         };

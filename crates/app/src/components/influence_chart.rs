@@ -12,7 +12,7 @@
 //! as `data-peak-value` and `data-peak-x`, the line as `data-line`, for tests.
 
 use crate::canvas;
-use crate::components::envelope::current_report;
+use crate::components::envelope::settled_report;
 use crate::format::{Quantity, Units};
 use crate::state::AppState;
 use leptos::html::Canvas;
@@ -211,7 +211,7 @@ pub fn InfluenceChart() -> impl IntoView {
         let line = ArchLine::parse(&name, &inf.generated).ok()?;
         let eta = inf.ordinates(&line).ok()?;
         let (mut loaded, mut axles) = (Vec::new(), Vec::new());
-        if let (Some(report), Ok(valid)) = (current_report(state), ValidDesign::new(design)) {
+        if let (Some(report), Ok(valid)) = (settled_report(state), ValidDesign::new(design)) {
             if let Some(l) = report.1.line(&name) {
                 for load in placement_case(&valid, l, largest).loads {
                     match load {
@@ -288,7 +288,7 @@ pub fn InfluenceChart() -> impl IntoView {
     let extremes = move || {
         let units = state.units.get();
         let name = state.picked.get()?;
-        let report = current_report(state)?;
+        let report = settled_report(state)?;
         let l = report.1.line(&name)?;
         let q =
             if name.contains("/m-") || name.starts_with("m-") { Quantity::Moment } else { Quantity::Force };

@@ -94,8 +94,8 @@ pub fn OptionsPanel() -> impl IntoView {
             Err(e) => options.message.set(Some(e)),
         }
     };
-    // encoded once a drag ends, not on every pointer move
-    let meeting_link = crate::pause::held_while_dragging(state, move || {
+    // encoded once a drag ends, not on every pointer move (the settled design holds)
+    let meeting_link = Memo::new(move |_| {
         state.settled_design.track();
         options.saved.track();
         options.shared.track();

@@ -25,8 +25,8 @@ const QR_DELAY: std::time::Duration = std::time::Duration::from_millis(400);
 pub fn PrintSheet() -> impl IntoView {
     let state = expect_context::<AppState>();
     let node: NodeRef<Canvas> = NodeRef::new();
-    // the link once a drag ends (not on every pointer move)
-    let link = crate::pause::held_while_dragging(state, move || {
+    // the link once a drag ends (not on every pointer move: the settled design holds)
+    let link = Memo::new(move |_| {
         state.settled_design.track();
         state.units.track();
         link_to_open_design(state).unwrap_or_default()

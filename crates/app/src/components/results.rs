@@ -267,8 +267,9 @@ pub fn ResultsPanel() -> impl IntoView {
         let case = state.case.get();
         let ribs = state.settled_design.with(|d| d.deck.ribs);
         // the member in focus gets its row while the vehicle is on the deck: the row
-        // shows it change as the vehicle moves (elsewhere the readout does, and a table
-        // that changed under a passing pointer would only distract)
+        // shows it change as the vehicle is moved with the keys, or when a drag of it ends
+        // (elsewhere the readout does, and a table that changed under a passing pointer
+        // would only distract)
         let focus = if state.vehicle.with(Option::is_some) { state.focus.get() } else { None };
         state.settled_analysis.with(|a| {
             let Ok(a) = a else { return Vec::new() };

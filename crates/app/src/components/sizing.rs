@@ -294,7 +294,7 @@ fn AdoptButton() -> impl IntoView {
     let state = expect_context::<AppState>();
     let refusal = RwSignal::new(None::<String>);
     // the design with the sizes adopted, when it differs from the design on screen
-    let adopted = move || match state.size_report.get() {
+    let adopted = move || match state.settled_size_report.get() {
         SizeView::Ready(r) => {
             state.settled_design.with(|d| Some(adopt_sizes(d, &r.sizing)).filter(|a| a != d))
         }
@@ -379,7 +379,7 @@ pub fn SizingPanel() -> impl IntoView {
     let state = expect_context::<AppState>();
     let body = move || {
         let units = state.units.get();
-        match state.size_report.get() {
+        match state.settled_size_report.get() {
             SizeView::Off => ().into_any(),
             SizeView::Waiting => {
                 view! { <p class="hint" id="sizes-waiting">"Computing the traffic envelopes and sizes..."</p> }

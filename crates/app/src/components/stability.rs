@@ -33,9 +33,15 @@ pub fn install(state: AppState) {
     });
 }
 
-/// The results of the design on screen, when they are for it.
+/// The results of the design the panels show (`settled_design`), when they are for it.
 pub fn current(state: AppState) -> Option<Arc<(springline_statics::Design, crate::state::StabilityOutcome)>> {
     state.stability.get().filter(|s| state.settled_design.with(|d| *d == s.0))
+}
+
+/// The results of the design the drawings show (`design`, which a drag moves), when they
+/// are for it: none while a drag has moved it (a mode shape's nodes are where they were).
+pub fn drawn(state: AppState) -> Option<Arc<(springline_statics::Design, crate::state::StabilityOutcome)>> {
+    state.stability.get().filter(|s| state.design.with(|d| *d == s.0))
 }
 
 /// The lines of the block: alpha_cr, the verdict, the lowest local mode, frequencies.

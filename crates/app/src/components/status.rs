@@ -19,10 +19,8 @@ pub fn StatusLine() -> impl IntoView {
     // with the vehicle on the deck: where its leading axle stands, held while it is dragged
     // (the readout beside the pointer follows every move; a line of the page rewritten per
     // move would have the browser lay out and repaint the page each time)
-    let vehicle = Memo::new(move |shown: Option<&Option<f64>>| match shown {
-        Some(x) if state.vehicle_dragging.get() => *x,
-        _ => state.vehicle.get(),
-    });
+    let vehicle =
+        crate::state::held(move || state.vehicle_dragging.get(), move || state.vehicle.get(), |a, b| a != b);
     let text = move || {
         state.drag_stop.get().unwrap_or_else(|| match vehicle.get() {
             Some(x) => vehicle_words(x, state.units.get()),
@@ -40,9 +38,9 @@ pub fn StatusLine() -> impl IntoView {
 /// to move it.
 fn vehicle_words(x: f64, units: crate::format::Units) -> String {
     format!(
-        "Vehicle: leading axle at x = {}. Drag it along the deck, or focus the elevation and use the left and \
-         right arrow keys (Shift: one panel); the crown, springings, deck and ground points drag as before.",
-        units.show(crate::format::Quantity::Length, x)
+        "Vehicle: {}. Drag it along the deck, or focus the elevation and use the left and right arrow keys \
+         (Shift: one panel); the crown, springings, deck and ground points drag as before.",
+        crate::drag::leading_axle(x, units)
     )
 }
 
