@@ -30,18 +30,10 @@ pub fn prepare(canvas: &HtmlCanvasElement) -> Option<Surface> {
 /// changed forces the browser to lay the page out there and then, which took most of a
 /// vehicle move's time.
 pub fn prepare_for(canvas: &HtmlCanvasElement, width: f64, height: f64) -> Option<Surface> {
-    prepare_scaled(canvas, width, height, 1.0)
-}
-
-/// [`prepare_for`] with a backing store of `fraction` of the sharp one's pixels along
-/// each side (the browser stretches it to the element's size): fewer pixels to fill
-/// while a drag redraws on every pointer move.
-pub fn prepare_scaled(canvas: &HtmlCanvasElement, width: f64, height: f64, fraction: f64) -> Option<Surface> {
     if width <= 0.0 || height <= 0.0 {
         return None;
     }
-    let dpr =
-        web_sys::window().map(|w| w.device_pixel_ratio()).unwrap_or(1.0).max(0.5) * fraction.clamp(0.25, 1.0);
+    let dpr = web_sys::window().map(|w| w.device_pixel_ratio()).unwrap_or(1.0).max(0.5);
     let bw = (width * dpr).round() as u32;
     let bh = (height * dpr).round() as u32;
     if canvas.width() != bw {

@@ -14,14 +14,7 @@ use web_sys::{CanvasRenderingContext2d, HtmlCanvasElement};
 /// Paints `scene` on `canvas` (sharp at the device pixel ratio) and publishes its
 /// transform and labels on the element. Does nothing while the canvas has no size.
 pub fn paint(canvas: &HtmlCanvasElement, scene: &Scene) {
-    paint_scaled(canvas, scene, 1.0);
-}
-
-/// [`paint`] into a backing store of `fraction` of the sharp one's pixels along each side
-/// (`canvas::prepare_scaled`).
-pub fn paint_scaled(canvas: &HtmlCanvasElement, scene: &Scene, fraction: f64) {
-    let Some(surface) = canvas::prepare_scaled(canvas, scene.viewport.width, scene.viewport.height, fraction)
-    else {
+    let Some(surface) = canvas::prepare_for(canvas, scene.viewport.width, scene.viewport.height) else {
         return;
     };
     let Surface { ctx, width, height } = &surface;

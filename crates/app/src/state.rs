@@ -251,11 +251,13 @@ pub(crate) fn held<T: Clone + Send + Sync + 'static>(
     )
 }
 
-/// How far an analysis is worked out: while a drag is on, the drawings of case `shown`
-/// alone; otherwise everything.
-fn extent_of(moving: bool, shown: usize) -> Extent {
+/// How far an analysis is worked out: while a drag is on, the drawings of case `shown()`
+/// alone; otherwise everything. The shown case is read only while a drag is on, so a memo
+/// calling this follows the case only then (the case is set in effects that follow the
+/// analysis: read always, the two would wake each other).
+fn extent_of(moving: bool, shown: impl FnOnce() -> usize) -> Extent {
     if moving {
-        Extent::Drawing { shown }
+        Extent::Drawing { shown: shown() }
     } else {
         Extent::Whole
     }
@@ -355,7 +357,7 @@ impl AppState {
                 let previous = shown.and_then(|o| o.as_ref().ok()).map(|a| &**a);
                 let x = vehicle.get();
                 // while a drag is on, the drawings of the shown case alone
-                let extent = extent_of(dragging.get() || vehicle_dragging.get(), case.get());
+                let extent = extent_of(dragging.get() || vehicle_dragging.get(), || case.get());
                 let v = valid.get()?;
                 // extra cases built for this very design: analysed with them
                 let extra = extra.get();
@@ -472,7 +474,7 @@ impl AppState {
     /// asks for then); the whole analysis follows when the drag ends.
     pub fn check(&self, design: &Design) -> Result<(), StaticsError> {
         let x = self.vehicle.get_untracked();
-        let extent = extent_of(self.moving_untracked(), self.case.get_untracked());
+        let extent = extent_of(self.moving_untracked(), || self.case.get_untracked());
         let (valid, analysis) = timed(Step::Compute, || {
             let valid = ValidDesign::new(design)?;
             let analysis = analyse(&valid, x, &[], None, extent)?;
@@ -480,11 +482,6 @@ impl AppState {
         })?;
         self.checked.set_value(Some((design.clone(), Arc::new(valid), x, extent, Arc::new(analysis))));
         Ok(())
-    }
-
-    /// Whether a point or the vehicle is being dragged (tracked).
-    pub fn moving(&self) -> bool {
-        self.dragging.get() || self.vehicle_dragging.get()
     }
 
     /// Whether a point or the vehicle is being dragged (not tracked).

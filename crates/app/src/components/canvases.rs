@@ -35,9 +35,6 @@ fn pointer_in(canvas: &web_sys::HtmlCanvasElement, ev: &web_sys::PointerEvent) -
 /// the left and right arrow keys (with Shift: one panel).
 const VEHICLE_SNAP: f64 = 0.1;
 const VEHICLE_KEY_STEP: f64 = 0.5;
-/// Share of the sharp backing store's pixels along each side the drawings are painted at
-/// while a drag is on (`drag_resolution`).
-const DRAG_RESOLUTION: f64 = 0.5;
 
 /// The elevation canvas: the engine's elevation scene painted, the model switch under it,
 /// hover and keyboard stepping through members, the drag of handles, and the vehicle on
@@ -139,8 +136,7 @@ pub fn ElevationCanvas() -> impl IntoView {
         if let Some(r) = &readout {
             add_pointer_readout(&mut scene, r.text.clone(), Px::new(r.at.0, r.at.1));
         }
-        let fraction = drag_resolution(state);
-        timed(Step::Paint("elevation"), || paint::paint_scaled(&el, &scene, fraction));
+        timed(Step::Paint("elevation"), || paint::paint(&el, &scene));
         // the readout's words, for tests and assistive tools
         let _ = match &readout {
             Some(r) => el.set_attribute("data-readout", &r.text),
@@ -456,8 +452,7 @@ pub fn ForceCanvas() -> impl IntoView {
         };
         let opts = ForceOptions { units, highlight, views, fixed_scale: held.get_value() };
         let d = timed(Step::Scene, || forces::drawing(&a, case, &opts, viewport));
-        let fraction = drag_resolution(state);
-        timed(Step::Paint("forces"), || paint::paint_scaled(&el, &d.scene, fraction));
+        timed(Step::Paint("forces"), || paint::paint(&el, &d.scene));
         // the pole one can drag, for tests and assistive tools
         match pole_on_canvas(&a, case, &d) {
             Some((p, t)) => {
@@ -663,17 +658,6 @@ pub fn ForceCanvas() -> impl IntoView {
                 <button id="forces-fit" type="button" aria-label="Fit the force diagram to the canvas" title="Fit" class="force-zoom-button" on:click=move |_| views.set([AreaView::FIT; 2])>"fit"</button>
             </div>
         </div>
-    }
-}
-
-/// The share of the sharp backing store's pixels along each side the drawings are painted
-/// at: [`DRAG_RESOLUTION`] while a point or the vehicle is dragged, whole otherwise. Read
-/// tracked, so a drawing is painted sharp again when the drag ends.
-fn drag_resolution(state: AppState) -> f64 {
-    if state.moving() {
-        DRAG_RESOLUTION
-    } else {
-        1.0
     }
 }
 
