@@ -80,8 +80,8 @@ pub struct Hovered(pub Option<usize>);
 /// beside it.
 #[derive(Debug, Clone, PartialEq)]
 pub struct DragReading {
-    /// What the drag sets, in words and display units ("rise 19.50 m", "leading axle
-    /// x = 42.0 m").
+    /// What the drag sets, in words and display units ("rise 19.50 m", "leading axle at
+    /// x = 42.00 m").
     pub text: String,
     /// The pointer, CSS pixels of the elevation canvas.
     pub at: (f64, f64),
