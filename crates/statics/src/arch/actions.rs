@@ -477,6 +477,27 @@ mod tests {
     use super::*;
     use crate::traffic::TrafficDesign;
 
+    /// A range of 0 K is a valid input (the page's fields take 0 to 200 K): its case is
+    /// still the fall (or the cooler deck), told apart from the rise by the sign of its 0
+    /// (the ids name the rows of the actions table and the page's buttons, so two alike
+    /// would collide). Check values: the ids' own definition, a fall is the negative
+    /// change (no outside value applies).
+    #[test]
+    fn a_zero_fall_is_still_the_fall_and_every_action_id_is_its_own() {
+        let mut d = Design::demo();
+        d.actions.temperature.expansion = 0.0;
+        d.actions.temperature.contraction = 0.0;
+        let ids: Vec<String> = action_cases(&d).iter().map(|c| c.kind.id()).collect();
+        assert!(
+            ids.contains(&"temperature-rise".to_string()) && ids.contains(&"temperature-fall".to_string())
+        );
+        let titles: Vec<String> = action_cases(&d).iter().map(|c| c.kind.title()).collect();
+        for (k, id) in ids.iter().enumerate() {
+            assert!(!ids[k + 1..].contains(id), "{id} twice in {ids:?}");
+            assert!(!titles[k + 1..].contains(&titles[k]), "{} twice", titles[k]);
+        }
+    }
+
     #[test]
     fn en_braking_of_the_demo_worked_by_hand() {
         // EN 1991-2 4.4.1(2) eq. 4.6 on the demo: deck from seat x = 2 m to 166 m, L = 164 m;

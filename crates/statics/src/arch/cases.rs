@@ -265,14 +265,14 @@ impl fmt::Display for CaseKind {
             CaseKind::Temperature { delta_t } => write!(
                 f,
                 "uniform temperature {} of every member by {:.1} K (alone, no dead load)",
-                if delta_t >= 0.0 { "rise" } else { "fall" },
+                if delta_t.is_sign_negative() { "fall" } else { "rise" },
                 delta_t.abs()
             ),
             CaseKind::DeckTemperature { delta_t } => write!(
                 f,
                 "the deck {:.1} K {} than the rib (alone, no dead load)",
                 delta_t.abs(),
-                if delta_t >= 0.0 { "warmer" } else { "cooler" }
+                if delta_t.is_sign_negative() { "cooler" } else { "warmer" }
             ),
             CaseKind::SpringingMovement { spread, settlement_left, settlement_right } => write!(
                 f,
@@ -310,10 +310,10 @@ impl CaseKind {
             CaseKind::Vehicle { first_axle, .. } => format!("vehicle-{}", first_axle.round().max(0.0) as u64),
             CaseKind::Placement { max } => if max { "placement-max" } else { "placement-min" }.into(),
             CaseKind::Temperature { delta_t } => {
-                if delta_t >= 0.0 { "temperature-rise" } else { "temperature-fall" }.into()
+                if delta_t.is_sign_negative() { "temperature-fall" } else { "temperature-rise" }.into()
             }
             CaseKind::DeckTemperature { delta_t } => {
-                if delta_t >= 0.0 { "deck-warmer" } else { "deck-cooler" }.into()
+                if delta_t.is_sign_negative() { "deck-cooler" } else { "deck-warmer" }.into()
             }
             CaseKind::SpringingMovement { .. } => "springing-movement".into(),
             CaseKind::Braking { .. } => "braking".into(),
@@ -345,10 +345,10 @@ impl CaseKind {
             CaseKind::Placement { max: true } => "Worst placement, largest".into(),
             CaseKind::Placement { max: false } => "Worst placement, smallest".into(),
             CaseKind::Temperature { delta_t } => {
-                if delta_t >= 0.0 { "Temperature rise" } else { "Temperature fall" }.into()
+                if delta_t.is_sign_negative() { "Temperature fall" } else { "Temperature rise" }.into()
             }
             CaseKind::DeckTemperature { delta_t } => {
-                if delta_t >= 0.0 { "Deck warmer" } else { "Deck cooler" }.into()
+                if delta_t.is_sign_negative() { "Deck cooler" } else { "Deck warmer" }.into()
             }
             CaseKind::SpringingMovement { .. } => "Springing movement".into(),
             CaseKind::Braking { .. } => "Braking".into(),
