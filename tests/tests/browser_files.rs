@@ -182,6 +182,25 @@ fn exports_are_complete_and_the_design_file_comes_back() {
         WAIT,
     );
     wait_value(&s, "result-thrust", thrust);
+    // a well-formed file whose design does not validate: refused with the field's words
+    // (check values: the engine's validation, a negative deck width, as the panels name it)
+    let mut invalid = higher();
+    invalid.deck.width = -1.0;
+    drop_file(&s, "invalid.json", &springline_statics::arch::design_file::write_design_json(&invalid));
+    s.wait_for(
+        "the invalid design's refusal",
+        "const e = document.getElementById('files-message'); \
+         return !!e && e.textContent.includes('invalid.json') && !e.textContent.startsWith('Opening');",
+        WAIT,
+    );
+    let refusal = text_of(&s, "files-message");
+    assert!(
+        refusal.contains("cannot be analysed")
+            && refusal.contains("deck width")
+            && refusal.contains("unchanged"),
+        "{refusal}"
+    );
+    wait_value(&s, "result-thrust", thrust);
     let errors = severe(&s);
     assert!(errors.is_empty(), "{errors:?}");
 }

@@ -11,6 +11,11 @@ use web_sys::{MessageEvent, Worker};
 /// The worker's loader script, written by trunk next to the page (`web/index.html`).
 const WORKER_SCRIPT: &str = "./springline-worker_loader.js";
 
+/// The words of the `Reply::Failed` a job gives when its worker stops with an error (they
+/// say the design stays, so a caller need not).
+pub const WORKER_STOPPED: &str =
+    "the background worker stopped with an error (see the browser console); the design on screen is unchanged";
+
 /// A running job; ends its worker when dropped.
 pub struct Job {
     worker: Worker,
@@ -24,8 +29,10 @@ impl Job {
     /// load or stops with an error gives one `Reply::Failed`).
     pub fn start(request: &Request, on_reply: impl Fn(Reply) + Clone + 'static) -> Result<Job, String> {
         let text = serde_json::to_string(request).map_err(|e| e.to_string())?;
-        let worker =
-            Worker::new(WORKER_SCRIPT).map_err(|e| format!("the browser refused a worker ({e:?})"))?;
+        let worker = Worker::new(WORKER_SCRIPT).map_err(|_| {
+            "the browser did not start the page's background worker; reload the page and try again"
+                .to_string()
+        })?;
         let poster = worker.clone();
         let reply = on_reply.clone();
         let on_message = Closure::<dyn FnMut(MessageEvent)>::new(move |event: MessageEvent| {
@@ -41,11 +48,7 @@ impl Job {
             }
         });
         let on_error = Closure::<dyn FnMut(web_sys::Event)>::new(move |_event: web_sys::Event| {
-            on_reply(Reply::Failed {
-                message: "the background worker stopped with an error (see the browser console); the design \
-                          on screen is unchanged"
-                    .into(),
-            })
+            on_reply(Reply::Failed { message: WORKER_STOPPED.into() })
         });
         worker.set_onmessage(Some(on_message.as_ref().unchecked_ref()));
         worker.set_onerror(Some(on_error.as_ref().unchecked_ref()));

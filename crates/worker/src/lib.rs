@@ -1,15 +1,21 @@
 //! Long engine work for the browser, run off the page's thread in a web worker: an option
 //! sweep (one row at a time, each row posted as it is made, so the page shows progress),
 //! the key numbers of saved options (each sized, `arch::options::key_numbers`), and goal
-//! seek on the rise (`arch::seek`; the least-cost goal sizes every rise it tries).
+//! seek on the rise (`arch::seek`; the least-cost goal sizes every rise it tries), the
+//! files made of a design (`export`), and the reading of a design file
+//! (`arch::design_file`; the page carries no reader of its own, which would be about a
+//! ninth of its bundle).
 //!
 //! The page and the worker talk in JSON text: the page posts one [`Request`], the worker
-//! posts [`Reply`] values back (first [`Reply::Ready`] once loaded). Designs travel as
-//! their design links (`link::permalink`), so the worker reads them with the same
-//! checks as a pasted link. Cancelling is the page's: it ends the worker and starts a new
-//! one for the next request. This crate only translates; the mathematics is the engine's.
+//! posts [`Reply`] values back (first [`Reply::Ready`] once loaded). Designs travel to the
+//! worker as their design links (`link::permalink`), so the worker reads them with the
+//! same checks as a pasted link; a design file's design comes back as transfer text
+//! (`permalink::to_transfer`: a file may hold more than a link's caps allow). Cancelling
+//! is the page's: it ends the worker and starts a new one for the next request. This
+//! crate only translates; the mathematics is the engine's.
 
 use serde::{Deserialize, Serialize};
+use springline_statics::arch::design_file::read_design_json;
 use springline_statics::arch::options::{key_numbers, KeyNumbers};
 use springline_statics::arch::seek::{seek, Goal};
 use springline_statics::arch::sweep::{sweep_each, Axis, Sweep, SweepRow};
@@ -39,6 +45,11 @@ pub enum Request {
         link: String,
         /// Which file.
         export: Export,
+    },
+    /// A design file's text read into its design, sent back as transfer text.
+    Open {
+        /// The file's text (JSON, any design-file version).
+        text: String,
     },
     /// The rise of a design that meets one goal.
     Seek {
@@ -94,6 +105,13 @@ pub enum Reply {
         /// The file's text.
         text: String,
     },
+    /// A design file read: the design it holds (not validated: the page checks it as an
+    /// edit).
+    Opened {
+        /// The design as `permalink::to_transfer` text (every field kept bit for bit, no
+        /// link's caps on its size).
+        design: String,
+    },
     /// The request could not be carried out; the words say why.
     Failed {
         /// Why, for the user.
@@ -142,6 +160,10 @@ pub fn run(request: Request, post: &mut dyn FnMut(Reply)) {
                 Err(e) => post(Reply::Failed { message: e.to_string() }),
             }
         }
+        Request::Open { text } => match read_design_json(&text) {
+            Ok(design) => post(Reply::Opened { design: permalink::to_transfer(&design) }),
+            Err(e) => post(Reply::Failed { message: e.to_string() }),
+        },
         Request::Seek { link, goal } => {
             let design = match permalink::decode(&link) {
                 Ok(design) => design,
@@ -247,6 +269,25 @@ mod tests {
         assert_eq!(
             out,
             [Reply::Exported { file_name: "tarnvale-gorge-road-bridge-members.csv".into(), text }]
+        );
+    }
+
+    /// A design file comes back as its design, every field kept (the page reads the
+    /// transfer text); a file that is not a design says why, as the engine's reader does.
+    #[test]
+    fn a_design_file_comes_back_as_its_designs_link_or_the_readers_reason() {
+        let mut design = Design::demo();
+        design.panels = 14;
+        design.name = "Tamsin Fold footbridge".into();
+        let text = springline_statics::arch::design_file::write_design_json(&design);
+        let out = replies(&Request::Open { text });
+        let [Reply::Opened { design: text }] = out.as_slice() else { panic!("{out:?}") };
+        assert_eq!(permalink::from_transfer(text), Ok(design));
+        let broken = "{\"version\": 7, \"name\": ";
+        let expected = read_design_json(broken).expect_err("not a design").to_string();
+        assert_eq!(
+            replies(&Request::Open { text: broken.into() }),
+            vec![Reply::Failed { message: expected }]
         );
     }
 

@@ -4,14 +4,14 @@
 //! design file with its summary (JSON): the table, the design file and the drawings are
 //! made in the background worker by `springline_statics::export`, the same function
 //! `springline export` runs, so the files are the same bytes. A design file of any
-//! version opens from the file button or dropped anywhere on the page; a file that does
-//! not open says why and the design on screen stays.
+//! version opens from the file button or dropped anywhere on the page (read in the worker,
+//! which sends the design back); a file that does not open says why and the design on
+//! screen stays.
 
 use crate::options::OptionsState;
 use crate::state::AppState;
-use crate::worker_job::Job;
+use crate::worker_job::{Job, WORKER_STOPPED};
 use leptos::prelude::*;
-use springline_statics::arch::design_file::read_design_json;
 use springline_statics::arch::tables::comparison_csv;
 use springline_statics::export::Export;
 use springline_statics::link::permalink;
@@ -79,19 +79,57 @@ fn canvas_size(id: &str) -> (f64, f64) {
         .unwrap_or(springline_statics::export::DRAWING_SIZE)
 }
 
-/// Opens the design file `text` as one undo step, or says why not (the design stays).
-pub fn open_design_text(state: AppState, text: &str, source: &str) -> Result<(), String> {
-    let design = read_design_json(text).map_err(|e| format!("{source} could not be opened ({e})"))?;
+/// What the Files panel says (`true`: done; `false`: refused, in the error style).
+type Message = RwSignal<Option<(bool, String)>>;
+
+/// Opens the design the worker read from the file `source` (`permalink::to_transfer`
+/// text) as one undo step, or says why not (the design stays).
+fn open_read_design(state: AppState, text: &str, source: &str) -> Result<(), String> {
+    let design = permalink::from_transfer(text).map_err(|e| format!("{source} could not be opened ({e})"))?;
     state.check(&design).map_err(|e| format!("{source} holds a design that cannot be analysed ({e})"))?;
     state.commit(design);
     Ok(())
 }
 
+/// Opens the design file `text` (named `source` in the words): the background worker
+/// reads it (the page carries no design-file reader: about a ninth of its bundle) and
+/// sends the design back, which opens as one undo step. The outcome goes to `message`;
+/// `job` keeps the worker until it replies.
+fn open_design_text(state: AppState, text: String, source: String, message: Message, job: OpenJob) {
+    message.set(Some((true, format!("Opening {source}..."))));
+    let say = move |result: Result<String, String>| match result {
+        Ok(done) => message.set(Some((true, done))),
+        Err(e) => message.set(Some((false, format!("{e}. The design on screen is unchanged.")))),
+    };
+    let named = source.clone();
+    let started = Job::start(&Request::Open { text }, move |reply| {
+        let result = match reply {
+            Reply::Opened { design } => open_read_design(state, &design, &named),
+            // a worker that stopped says itself that the design stays
+            Reply::Failed { message: why } if why == WORKER_STOPPED => {
+                job.set_value(None);
+                return message.set(Some((false, format!("{named} could not be opened ({why})"))));
+            }
+            Reply::Failed { message: why } => Err(format!("{named} could not be opened ({why})")),
+            _ => return,
+        };
+        job.set_value(None);
+        say(result.map(|()| format!("Opened {named}.")));
+    });
+    match started {
+        Ok(started) => job.set_value(Some(started)),
+        Err(e) => say(Err(format!("{source} could not be opened: {e}"))),
+    }
+}
+
 /// The callbacks of the last file read (kept alive until the next).
 type Held = StoredValue<Option<(Closure<dyn FnMut(JsValue)>, Closure<dyn FnMut(JsValue)>)>, LocalStorage>;
 
+/// The worker reading the last design file, until it replies.
+type OpenJob = StoredValue<Option<Job>, LocalStorage>;
+
 /// Reads `file` and opens it; the outcome goes to `message`.
-fn open_file(state: AppState, file: web_sys::File, message: RwSignal<Option<(bool, String)>>, held: Held) {
+fn open_file(state: AppState, file: web_sys::File, message: Message, held: Held, opening: OpenJob) {
     let name = file.name();
     if file.size() > 4.0 * 1024.0 * 1024.0 {
         message.set(Some((
@@ -102,11 +140,7 @@ fn open_file(state: AppState, file: web_sys::File, message: RwSignal<Option<(boo
     }
     let source = format!("'{name}'");
     let done = Closure::once(move |value: JsValue| {
-        let text = value.as_string().unwrap_or_default();
-        match open_design_text(state, &text, &source) {
-            Ok(()) => message.set(Some((true, format!("Opened {source}.")))),
-            Err(e) => message.set(Some((false, format!("{e}. The design on screen is unchanged.")))),
-        }
+        open_design_text(state, value.as_string().unwrap_or_default(), source, message, opening);
     });
     let failed = Closure::once(move |_: JsValue| {
         message.set(Some((false, "The file could not be read. The design on screen is unchanged.".into())))
@@ -121,9 +155,10 @@ fn open_file(state: AppState, file: web_sys::File, message: RwSignal<Option<(boo
 pub fn FilesPanel() -> impl IntoView {
     let state = expect_context::<AppState>();
     let options = expect_context::<OptionsState>();
-    let message = RwSignal::new(None::<(bool, String)>);
+    let message: Message = RwSignal::new(None);
     let job = StoredValue::new_local(None::<Job>);
     let held: Held = StoredValue::new_local(None);
+    let opening: OpenJob = StoredValue::new_local(None);
     let working = RwSignal::new(false);
     let make = move |what: Export| {
         let link = state.design.with_untracked(permalink::encode);
@@ -204,7 +239,7 @@ pub fn FilesPanel() -> impl IntoView {
     let on_file = move |ev: leptos::ev::Event| {
         let input = ev.target().and_then(|t| t.dyn_into::<web_sys::HtmlInputElement>().ok());
         if let Some(file) = input.as_ref().and_then(|i| i.files()).and_then(|f| f.get(0)) {
-            open_file(state, file, message, held);
+            open_file(state, file, message, held, opening);
         }
         if let Some(i) = input {
             // the same file can be chosen again
@@ -228,7 +263,7 @@ pub fn FilesPanel() -> impl IntoView {
         ev.prevent_default();
         let Some(files) = ev.data_transfer().and_then(|d| d.files()) else { return };
         if let Some(file) = files.get(0) {
-            open_file(state, file, message, held);
+            open_file(state, file, message, held, opening);
             if files.length() > 1 {
                 message.set(Some((true, "Several files were dropped: the first one is opened.".into())));
             }

@@ -170,6 +170,24 @@ fn decode_unchecked(link: &str) -> Result<Design, LinkError> {
     }
 }
 
+/// A design as text for the app's own background worker to hand back to its page (the
+/// design file the worker read): the link's wire data, base64url but not compressed, and
+/// without the caps that guard a pasted link ([`MAX_LINK_LEN`], [`MAX_INFLATED_BYTES`]): a
+/// design file may hold a longer ground profile than a link can. Every field is kept bit
+/// for bit; read it with [`from_transfer`]. Not for sharing: a link is [`encode`]'s.
+pub fn to_transfer(design: &Design) -> String {
+    B64.encode(postcard_bytes(&WireS2::of(design)))
+}
+
+/// Reads [`to_transfer`]'s text back into its design, which is not validated: the reader
+/// checks it as it checks any edit, with the words of the field each problem is in.
+///
+/// Errors (never a panic): `StaticsError::Link` when the text is not such a design (a
+/// character outside base64url, cut short, damaged design data, a newer version).
+pub fn from_transfer(text: &str) -> Result<Design, StaticsError> {
+    Ok(read_s2(&unbase64(text.trim())?, DESIGN_VERSION, SECTIONS, |design| design)?)
+}
+
 /// What a link says about the screen, apart from the design: the load case shown and the
 /// display units. Each is `None` when the link does not say (or says it in a way this
 /// reader does not understand): the app keeps its own choice then.
@@ -724,6 +742,34 @@ mod tests {
         // a raw deflate stream without the zlib checksum
         let raw = miniz_oxide::deflate::compress_to_vec(&s2_bytes_with_version(&Design::demo(), 2), 6);
         kind(decode(&format!("s2.{}", B64.encode(raw))));
+    }
+
+    /// The worker's hand-back of a design file: exact for the demo, for a design beyond
+    /// a link's caps (a ground profile of 3,000 points: its link is refused as too long)
+    /// and for an invalid design (not validated here: the page checks it as an edit);
+    /// damaged text is an error, not a panic. Check values: the design itself, which the
+    /// transfer must give back bit for bit (no outside value applies); the caps are the
+    /// link's own (`MAX_LINK_LEN`).
+    #[test]
+    fn a_transfer_keeps_every_field_without_a_links_caps_or_its_validation() {
+        let demo = Design::demo();
+        assert_eq!(from_transfer(&to_transfer(&demo)), Ok(demo.clone()));
+        let mut surveyed = demo.clone();
+        surveyed.valley = (0..3000)
+            .map(|k| {
+                let x = -10.0 + 190.0 * k as f64 / 2999.0;
+                let y = 101.0 - 45.0 * (std::f64::consts::PI * (x + 10.0) / 190.0).sin();
+                crate::arch::design::GroundPoint { x, y }
+            })
+            .collect();
+        assert!(matches!(kind(decode(&encode(&surveyed))), LinkError::TooLong { .. }));
+        assert_eq!(from_transfer(&to_transfer(&surveyed)), Ok(surveyed));
+        let mut invalid = demo;
+        invalid.panels = 1;
+        assert_eq!(from_transfer(&to_transfer(&invalid)), Ok(invalid));
+        for damaged in ["", "not base64!", "AAAA"] {
+            assert!(from_transfer(damaged).is_err(), "{damaged:?}");
+        }
     }
 
     #[test]
