@@ -338,6 +338,8 @@ impl AppState {
         let last = StoredValue::new(None::<((Design, Option<f64>), Extent)>);
         let dragging = RwSignal::new(false);
         let vehicle_dragging = RwSignal::new(false);
+        // a point or the vehicle is being dragged (tracked)
+        let moving = move || dragging.get() || vehicle_dragging.get();
         let case = RwSignal::new(0usize);
         let valid = Memo::new(move |_| {
             design.with(|d| {
@@ -357,7 +359,7 @@ impl AppState {
                 let previous = shown.and_then(|o| o.as_ref().ok()).map(|a| &**a);
                 let x = vehicle.get();
                 // while a drag is on, the drawings of the shown case alone
-                let extent = extent_of(dragging.get() || vehicle_dragging.get(), || case.get());
+                let extent = extent_of(moving(), || case.get());
                 let v = valid.get()?;
                 // extra cases built for this very design: analysed with them
                 let extra = extra.get();
@@ -395,7 +397,6 @@ impl AppState {
             },
             analysis_changed,
         );
-        let moving = move || dragging.get() || vehicle_dragging.get();
         let settled_design = held(moving, move || design.get(), |old, new| old != new);
         let settled_valid = held(moving, move || valid.get(), validation_changed);
         let settled_analysis = held(moving, move || analysis.get(), analysis_changed);

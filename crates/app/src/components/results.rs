@@ -260,8 +260,9 @@ struct ShownRow {
 #[component]
 pub fn ResultsPanel() -> impl IntoView {
     let state = expect_context::<AppState>();
-    // the rows as shown, memoised: a move of the vehicle re-creates only the rows whose
-    // text changed (the keyed list below), not the whole table
+    // the rows as shown, memoised: the keyed list below keeps each row while its id
+    // stays and rewrites only the texts that changed (rows come and go only with their
+    // ids: the focused member's, a springing's own thrust)
     let shown_rows = Memo::new(move |_| {
         let units: Units = state.units.get();
         let case = state.case.get();
@@ -310,13 +311,26 @@ pub fn ResultsPanel() -> impl IntoView {
                     </caption>
                     <tbody>
                         <For
-                            each=move || shown_rows.get()
-                            key=|r| r.clone()
-                            children=|r| {
+                            each=move || shown_rows.with(|rows| rows.iter().map(|r| r.id).collect::<Vec<_>>())
+                            key=|id| *id
+                            children=move |id| {
+                                // a row stays while its id does; its words and number follow
+                                let row = Memo::new(move |_| {
+                                    shown_rows.with(|rows| rows.iter().find(|r| r.id == id).cloned())
+                                });
+                                let part = move |f: fn(&ShownRow) -> String| {
+                                    move || row.with(|r| r.as_ref().map(f).unwrap_or_default())
+                                };
                                 view! {
                                     <tr>
-                                        <th scope="row">{r.label}</th>
-                                        <td id=r.id data-value=r.data data-quantity=r.kind>{r.shown}</td>
+                                        <th scope="row">{part(|r| r.label.clone())}</th>
+                                        <td
+                                            id=id
+                                            data-value=part(|r| r.data.clone())
+                                            data-quantity=part(|r| r.kind.to_string())
+                                        >
+                                            {part(|r| r.shown.clone())}
+                                        </td>
                                     </tr>
                                 }
                             }

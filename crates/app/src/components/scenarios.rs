@@ -40,11 +40,15 @@ fn spread(k: usize, n: usize, from: f64, to: f64) -> f64 {
     ARCH_X0 + (ARCH_X1 - ARCH_X0) * (from + (to - from) * t)
 }
 
-/// The pictogram's light arrows (the dead load, in every case) and heavy arrows (what
-/// the case adds), as SVG path data. `panels` places a heavier panel point.
-fn arrows(kind: &CaseKind, panels: usize) -> (String, String) {
-    let light: String = (0..LIGHT_ARROWS).map(|k| arrow(spread(k, LIGHT_ARROWS, 0.0, 1.0), 6.0)).collect();
-    let heavy: String = match *kind {
+/// The dead load's light arrows, as SVG path data.
+fn light_arrows() -> String {
+    (0..LIGHT_ARROWS).map(|k| arrow(spread(k, LIGHT_ARROWS, 0.0, 1.0), 6.0)).collect()
+}
+
+/// What `kind` adds to the dead load, as the pictogram's heavy arrows (SVG path data).
+/// `panels` places a heavier panel point.
+fn heavy_arrows(kind: &CaseKind, panels: usize) -> String {
+    match *kind {
         CaseKind::Dead
         | CaseKind::Other
         | CaseKind::Temperature { .. }
@@ -71,8 +75,7 @@ fn arrows(kind: &CaseKind, panels: usize) -> (String, String) {
             let t = if panels == 0 { 0.5 } else { panel as f64 / panels as f64 };
             arrow(ARCH_X0 + (ARCH_X1 - ARCH_X0) * t, 0.5)
         }
-    };
-    (light, heavy)
+    }
 }
 
 /// SVG path data of the pictograms' arch, raised by `lift` (an envelope band beside it).
@@ -88,9 +91,10 @@ fn arch_path(lift: f64) -> String {
 
 /// The small drawing of a case's load pattern: deck, arch, light dead-load arrows and
 /// the case's heavier arrows. Decorative: the button's words say the same.
+/// `heavy`: the case's heavier arrows (`heavy_arrows`).
 #[component]
-fn Pictogram(kind: CaseKind, panels: usize) -> impl IntoView {
-    let (light, heavy) = arrows(&kind, panels);
+fn Pictogram(heavy: String) -> impl IntoView {
+    let light = light_arrows();
     let arch = arch_path(0.0);
     view! {
         <svg class="picto" aria-hidden="true" focusable="false" width=PICTO_W height=PICTO_H
@@ -121,6 +125,17 @@ fn patterns() -> Vec<(Pattern, CaseKind)> {
         }),
     );
     out
+}
+
+/// Everything a case button shows except its tooltip: the row's `<For>` is keyed on it,
+/// so a button's index, id, words and pictogram never go stale.
+#[derive(Clone, PartialEq, Eq, Hash)]
+struct CaseButton {
+    index: usize,
+    id: String,
+    title: String,
+    /// The pictogram's heavier arrows (`heavy_arrows`).
+    heavy: String,
 }
 
 /// The envelope's pictogram: deck and arch with a band either side of the rib.
@@ -196,7 +211,7 @@ fn ModePictogram(buckled: bool) -> impl IntoView {
 /// dead-load arrows as in the other pictograms.
 #[component]
 fn VehiclePictogram() -> impl IntoView {
-    let (light, _) = arrows(&CaseKind::Dead, 0);
+    let light = light_arrows();
     let arch = arch_path(0.0);
     // body with its front (right) corner cut, wheels on the deck line
     let (x0, x1, top, bottom) = (12.0, 25.0, DECK_Y - 9.5, DECK_Y - 3.5);
@@ -243,10 +258,10 @@ fn ActionPictogram(kind: CaseKind) -> impl IntoView {
     };
     let extra = match kind {
         CaseKind::Temperature { delta_t } => {
-            view! { <path class="picto-structure" d=deck.clone() />{thermometer(delta_t >= 0.0)} }.into_any()
+            view! { <path class="picto-structure" d=deck.clone() />{thermometer(!delta_t.is_sign_negative())} }.into_any()
         }
         CaseKind::DeckTemperature { delta_t } => {
-            view! { <path class="picto-heavy" d=deck.clone() />{thermometer(delta_t >= 0.0)} }.into_any()
+            view! { <path class="picto-heavy" d=deck.clone() />{thermometer(!delta_t.is_sign_negative())} }.into_any()
         }
         CaseKind::SpringingMovement { .. } => view! {
             <path class="picto-structure" d=deck.clone() />
@@ -301,55 +316,74 @@ pub fn ScenarioButtons() -> impl IntoView {
             && !vehicle_chosen.get()
     };
     let panels = Memo::new(move |_| state.settled_design.with(|d| d.panels));
-    let buttons = move || {
-        let units: Units = state.units.get();
-        kinds
-            .get()
-            .into_iter()
-            .enumerate()
-            .map(|(i, kind)| {
+    // the row is keyed on what each button shows but its tooltip (the case's numbers):
+    // an edit that changes only numbers rebuilds no button, and a panel-count edit only
+    // the heavier panel's
+    let own_buttons = Memo::new(move |_| {
+        let panels = panels.get();
+        kinds.with(|kinds| {
+            kinds
+                .iter()
+                .enumerate()
+                .map(|(index, kind)| CaseButton {
+                    index,
+                    id: kind.id(),
+                    title: kind.title(),
+                    heavy: heavy_arrows(kind, panels),
+                })
+                .collect::<Vec<_>>()
+        })
+    });
+    let buttons = view! {
+        <For
+            each=move || own_buttons.get()
+            key=CaseButton::clone
+            children=move |button| {
+                let i = button.index;
                 let pressed = move || (plain() && state.case.get() == i).to_string();
+                let described = move || {
+                    let units: Units = state.units.get();
+                    kinds.with(|kinds| kinds.get(i).map(|k| k.describe(units)).unwrap_or_default())
+                };
                 view! {
                     <button
                         type="button"
                         class="scenario"
-                        id=format!("case-{}", kind.id())
+                        id=format!("case-{}", button.id)
                         data-case-index=i.to_string()
                         aria-pressed=pressed
-                        title=kind.describe(units)
+                        title=described
                         on:click=move |_| state.choose_case(i)
                     >
-                        <Pictogram kind panels=panels.get() />
-                        <span>{kind.title()}</span>
+                        <Pictogram heavy=button.heavy />
+                        <span>{button.title}</span>
                     </button>
                 }
-            })
-            .collect_view()
+            }
+        />
     };
-    let pattern_buttons = move || {
-        patterns()
-            .into_iter()
-            .map(|(pattern, kind)| {
-                let pressed =
-                    move || (!state.envelope.get() && state.pattern.get() == Some(pattern)).to_string();
-                view! {
-                    <button
-                        type="button"
-                        class="scenario"
-                        id=format!("case-{}", kind.id())
-                        aria-pressed=pressed
-                        on:click=move |_| {
-                            state.choose_case(0);
-                            state.pattern.set(Some(pattern));
-                        }
-                    >
-                        <Pictogram kind panels=panels.get() />
-                        <span>{kind.title()}</span>
-                    </button>
-                }
-            })
-            .collect_view()
-    };
+    // the patterns' pictograms place no panel: built once
+    let pattern_buttons = patterns()
+        .into_iter()
+        .map(|(pattern, kind)| {
+            let pressed = move || (!state.envelope.get() && state.pattern.get() == Some(pattern)).to_string();
+            view! {
+                <button
+                    type="button"
+                    class="scenario"
+                    id=format!("case-{}", kind.id())
+                    aria-pressed=pressed
+                    on:click=move |_| {
+                        state.choose_case(0);
+                        state.pattern.set(Some(pattern));
+                    }
+                >
+                    <Pictogram heavy=heavy_arrows(&kind, 0) />
+                    <span>{kind.title()}</span>
+                </button>
+            }
+        })
+        .collect_view();
     let envelope_button = view! {
         <button
             type="button"
@@ -406,34 +440,46 @@ pub fn ScenarioButtons() -> impl IntoView {
     let action_kinds = Memo::new(move |_| {
         state.settled_design.with(|d| action_cases(d).into_iter().map(|c| c.kind).collect::<Vec<_>>())
     });
-    let action_buttons = move || {
-        let units = state.units.get();
-        action_kinds
-            .get()
-            .into_iter()
-            .map(|kind| {
-                let id = kind.id();
+    // keyed on place, id and words as the case buttons are (a pictogram follows from the
+    // id): the tooltips follow the numbers without rebuilding a button
+    let action_buttons = view! {
+        <For
+            each=move || {
+                action_kinds.with(|kinds| {
+                    kinds.iter().enumerate().map(|(i, k)| (i, k.id(), k.title())).collect::<Vec<_>>()
+                })
+            }
+            key=Clone::clone
+            children=move |(i, id, title)| {
+                let kind_of = move || action_kinds.with(|kinds| kinds.get(i).copied());
+                let picto = kind_of().map(|kind| view! { <ActionPictogram kind /> });
+                let described = move || {
+                    let units = state.units.get();
+                    kind_of().map(|k| k.describe(units)).unwrap_or_default()
+                };
                 let chosen = id.clone();
-                let pressed =
-                    move || (!state.envelope.get() && state.action.get() == Some(chosen.clone())).to_string();
+                let pressed = move || {
+                    (!state.envelope.get() && state.action.with(|a| a.as_deref() == Some(chosen.as_str())))
+                        .to_string()
+                };
                 view! {
                     <button
                         type="button"
                         class="scenario action"
                         id=format!("case-{id}")
                         aria-pressed=pressed
-                        title=kind.describe(units)
+                        title=described
                         on:click=move |_| {
                             state.choose_case(0);
                             state.action.set(Some(id.clone()));
                         }
                     >
-                        <ActionPictogram kind />
-                        <span>{kind.title()}</span>
+                        {picto}
+                        <span>{title}</span>
                     </button>
                 }
-            })
-            .collect_view()
+            }
+        />
     };
     let vehicle_button = move || {
         view! {
@@ -502,13 +548,14 @@ mod tests {
     /// of the way along the arch (5 + 38 / 4 = 14.5 in the pictogram).
     #[test]
     fn the_heavier_panel_arrow_stands_over_its_panel_point() {
-        let (light, heavy) = arrows(&CaseKind::DoubledPanel { panel: 3, load: 900.0, x: 56.6 }, 12);
+        let (light, heavy) =
+            (light_arrows(), heavy_arrows(&CaseKind::DoubledPanel { panel: 3, load: 900.0, x: 56.6 }, 12));
         assert!(heavy.starts_with("M14.5 "), "{heavy}");
         assert_eq!(light.matches('M').count(), 2 * LIGHT_ARROWS, "two strokes per arrow: shaft, head");
-        let (_, none) = arrows(&CaseKind::Dead, 12);
+        let none = heavy_arrows(&CaseKind::Dead, 12);
         assert!(none.is_empty());
         // a left half load: four arrows, all left of mid-span (x = 24)
-        let (_, left) = arrows(
+        let left = heavy_arrows(
             &CaseKind::HalfSpan { half: Half::Left, intensity: 5.0, line_load: 55.0, x0: 30.0, x1: 83.2 },
             12,
         );
