@@ -224,7 +224,7 @@ impl ActionsDesign {
 }
 
 /// The braking force of a design's load model along the deck, with its working.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct Braking {
     /// Total characteristic braking force, kN (0 where the model has none).
     pub force: f64,

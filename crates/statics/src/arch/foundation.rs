@@ -29,10 +29,10 @@
 use crate::arch::traffic::{LineEnvelope, TrafficReport};
 use crate::arch::validate::ValidDesign;
 use crate::traffic::combination::Combination;
-use serde::Serialize;
+use serde::{Deserialize, Serialize};
 
 /// The springing forces of one combination's extremes.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct AngleRange {
     /// Smallest angle of the resultant below the horizontal, degrees.
     pub min: f64,
@@ -41,7 +41,7 @@ pub struct AngleRange {
 }
 
 /// A thrust block.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct ThrustBlock {
     /// Bearing area needed, m2.
     pub bearing_area: f64,
@@ -60,7 +60,7 @@ pub struct ThrustBlock {
 }
 
 /// The demand at one springing, whole cross-section.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct SpringingDemand {
     /// `left` or `right`.
     pub side: String,
@@ -90,7 +90,7 @@ pub struct SpringingDemand {
 }
 
 /// Foundation demand at both springings.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct Foundations {
     /// The combination taken as characteristic.
     pub characteristic: String,

@@ -17,13 +17,13 @@ use crate::arch::sizing::{group_of, typed_section, MemberSizingReport};
 use crate::arch::validate::ValidDesign;
 use crate::error::GroupName;
 use crate::sizing::materials::Material;
-use serde::Serialize;
+use serde::{Deserialize, Serialize};
 
 /// Standard gravity, m/s2 (kN to tonnes), ISO 80000-3.
 pub const GRAVITY: f64 = 9.80665;
 
 /// What a quantity is made of.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
 #[serde(rename_all = "snake_case")]
 pub enum Stuff {
     /// Structural steel.
@@ -47,7 +47,7 @@ impl Stuff {
 }
 
 /// One line of the quantities.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct QuantityLine {
     /// What it is (`rib`, `deck`, `posts`, `piers`, `bracing`, `deck slab`, `cross-girders`,
     /// `thrust blocks`).
@@ -67,7 +67,7 @@ pub struct QuantityLine {
 }
 
 /// The quantities of a design.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct Quantities {
     /// Per item.
     pub lines: Vec<QuantityLine>,

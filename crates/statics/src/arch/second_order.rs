@@ -51,7 +51,7 @@ use crate::sizing::materials::Material;
 use crate::sizing::resistance::{check, steel_section_utilisation, Check, Demand, Lengths, Mode};
 use crate::sizing::sections::{Family, SectionProps};
 use crate::traffic::combination::Combination;
-use serde::Serialize;
+use serde::{Deserialize, Serialize};
 
 /// The least alpha_cr for amplified first-order moments (EN 1993-1-1 5.2.2, from memory).
 pub const LEAST_AMPLIFIED: f64 = crate::arch::stability::AMPLIFICATION_LEAST_ALPHA;
@@ -71,7 +71,7 @@ pub struct RibSources {
 }
 
 /// The second-order numbers of one rib member at the analysed section.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct RibMemberStability {
     /// The member's name.
     pub member: String,
@@ -94,7 +94,7 @@ pub struct RibMemberStability {
 }
 
 /// The rib's in-plane stability for sizing (module doc).
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct RibStability {
     /// The cases analysed: the factored dead load alone first, then each governing
     /// placement once.
@@ -232,7 +232,7 @@ pub fn imperfection(curve: Curve, s: f64) -> f64 {
 }
 
 /// What a trial rib section changes (module doc).
-#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
 pub struct RibTrial {
     /// The arch's least alpha_cr with this section.
     pub alpha_cr: f64,

@@ -375,7 +375,7 @@ const FIXED: [f64; 5] = [60.7, 101.0, 115.0, 111.0, 97.4];
 const THREE_HINGED: [f64; 5] = [22.5, 39.6, 46.5, 43.9, 38.4];
 
 /// The rib's in-plane buckling length as a whole arch.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct ArchBuckling {
     /// Span between the springings, m.
     pub span: f64,
@@ -458,7 +458,7 @@ pub fn arch_buckling(valid: &ValidDesign) -> ArchBuckling {
 }
 
 /// One member's sizing.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct MemberSizing {
     /// The member's name in the frame model.
     pub member: String,
@@ -486,7 +486,7 @@ pub struct MemberSizing {
 }
 
 /// How a group came out.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 #[serde(tag = "outcome", rename_all = "snake_case")]
 pub enum GroupOutcome {
     /// Sized in its family: the section every member of the group gets.
@@ -510,7 +510,7 @@ pub enum GroupOutcome {
 }
 
 /// One group's sizing.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct GroupReport {
     /// The group (`rib`, ...).
     pub group: String,
@@ -532,7 +532,7 @@ pub struct GroupReport {
 }
 
 /// The sizing of every group.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct MemberSizingReport {
     /// The ultimate combinations used.
     pub combinations: Vec<String>,
@@ -984,7 +984,7 @@ pub fn adopt_sizes(design: &Design, report: &MemberSizingReport) -> Design {
 
 /// Everything `springline size` reports: member sizes and utilisations, quantities and
 /// cost index, foundation demand and thrust blocks.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct SizeReport {
     /// The design's name.
     pub design: String,

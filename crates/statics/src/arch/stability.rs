@@ -30,7 +30,7 @@ use crate::frame::stability::{
 };
 use crate::traffic::combination::Combination;
 use crate::traffic::models::ModelFamily;
-use serde::Serialize;
+use serde::{Deserialize, Serialize};
 
 /// How many buckling modes of the arch are found per load case (posts and diagonals
 /// kept whole, [`arch_only`]): enough that the arch's own mode shows above a pier or the
@@ -61,7 +61,7 @@ pub const FOOTBRIDGE_COMFORT_HZ: f64 = 5.0;
 pub const WALKING_RANGE_HZ: [f64; 2] = [1.6, 2.4];
 
 /// What the stability analysis says, in words for the screen and the CLI.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct ArchStability {
     /// The dead load's buckling: alpha_cr of each mode and its shape (original and
     /// refined nodes).
@@ -98,7 +98,7 @@ pub struct ArchStability {
 }
 
 /// The arch's lowest buckling mode among those found (module doc).
-#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
 pub struct ArchMode {
     /// Its alpha_cr; when no mode found is the arch's, the highest found (a lower bound).
     pub alpha_cr: f64,
@@ -137,7 +137,7 @@ pub fn mode_words(generated: &Generated, mode: &BucklingMode) -> String {
 }
 
 /// A mode shape along the members of the frame model, to draw over the elevation.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct ModeDrawing {
     /// What it is, in words, with its factor or frequency (`buckled shape: alpha_cr
     /// 17.40, dead load`).
@@ -180,7 +180,7 @@ fn mode_drawing(
 }
 
 /// One natural frequency, for summaries.
-#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
 pub struct Frequency {
     /// Hz.
     pub hz: f64,
@@ -189,7 +189,7 @@ pub struct Frequency {
 }
 
 /// [`ArchStability`] without its shapes: what the size report carries.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct StabilitySummary {
     /// The arch's alpha_cr under the (unfactored) dead load.
     pub dead_alpha_cr: f64,
@@ -469,7 +469,7 @@ fn scaled(case: &LoadCase, factor: f64) -> LoadCase {
 }
 
 /// The buckling of one factored case, summarised.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct CaseStability {
     /// The combination's name.
     pub combination: String,

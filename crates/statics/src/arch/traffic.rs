@@ -39,13 +39,13 @@ use crate::frame::solver::solve;
 use crate::traffic::combination::Combination;
 use crate::traffic::models::{Applies, Crowd, LaneLayout, LaneWords, LoadModel};
 use crate::traffic::sharing::{rib_positions, share, Alternative, LineTraffic, Sharing};
-use serde::Serialize;
+use serde::{Deserialize, Serialize};
 
 /// Step of the unit load along the deck for the envelopes, m (and at every node).
 pub const TRAFFIC_STEP: f64 = 1.0;
 
 /// Whom a value is for.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
 #[serde(rename_all = "snake_case")]
 pub enum Per {
     /// Every rib line together (springing forces, foundations).
@@ -55,7 +55,7 @@ pub enum Per {
 }
 
 /// One extreme of the characteristic traffic and what produces it.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct Governing {
     /// The traffic effect (uniform part + vehicle part), kN or kNm.
     pub value: f64,
@@ -78,7 +78,7 @@ pub struct Governing {
 }
 
 /// The design extremes of one combination.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct DesignRange {
     /// The combination's name.
     pub combination: String,
@@ -89,7 +89,7 @@ pub struct DesignRange {
 }
 
 /// The envelope of one line.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct LineEnvelope {
     /// The line's name (what `springline influence --of` takes).
     pub line: String,
@@ -111,7 +111,7 @@ pub struct LineEnvelope {
 }
 
 /// The effect of one other action on a line, kN or kNm, signs those of the line.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct ActionEffect {
     /// The action case's name (`arch::actions`).
     pub case: String,
@@ -157,7 +157,7 @@ pub fn action_parts(combination: &Combination, effects: &[ActionEffect]) -> (f64
 }
 
 /// The traffic report of one model of a design.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct TrafficReport {
     /// Which model.
     pub model: ModelKind,
@@ -418,7 +418,7 @@ fn fixed_cases(
 }
 
 /// Live-load deflection of the deck over the arch.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct Deflection {
     /// The limit as span / `ratio`.
     pub ratio: f64,

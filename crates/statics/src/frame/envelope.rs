@@ -38,10 +38,10 @@
 //! times m) gives kN (or kNm).
 
 use crate::error::{Location, Problem, StaticsError};
-use serde::Serialize;
+use serde::{Deserialize, Serialize};
 
 /// One variable spacing of an axle group, searched between its bounds.
-#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
 pub struct VariableSpacing {
     /// Which spacing of [`AxleGroup::spacings`] varies (0: between the first and second axle).
     pub index: usize,
@@ -52,7 +52,7 @@ pub struct VariableSpacing {
 }
 
 /// A group of axles that moves as one.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct AxleGroup {
     /// Axle loads, kN (downward positive), from the first (leading) axle to the last.
     pub loads: Vec<f64>,
@@ -68,7 +68,7 @@ pub struct AxleGroup {
 }
 
 /// A traffic action: a uniform line load and an optional axle group, applied together.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct Traffic {
     /// Uniform line load, kN/m (downward positive, >= 0).
     pub uniform: f64,
@@ -77,7 +77,7 @@ pub struct Traffic {
 }
 
 /// Direction of travel of the axle group along the line.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
 #[serde(rename_all = "snake_case")]
 pub enum Travel {
     /// Towards larger x: the first axle is the rightmost, the others follow to its left.
@@ -87,7 +87,7 @@ pub enum Travel {
 }
 
 /// Where the axle group stands for an extreme.
-#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
 pub struct AxlePlacement {
     /// x of the first (leading) axle, m.
     pub first_axle: f64,
@@ -98,7 +98,7 @@ pub struct AxlePlacement {
 }
 
 /// One extreme effect of the traffic and what produces it.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct Extreme {
     /// The total effect: `uniform_part + axle_part` (kN or kNm as the line's units).
     pub value: f64,
@@ -114,7 +114,7 @@ pub struct Extreme {
 }
 
 /// The largest and smallest effect of a traffic action on one influence line.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct Envelope {
     /// Largest effect (>= 0).
     pub max: Extreme,

@@ -458,7 +458,7 @@ pub enum Applies {
 }
 
 /// One vehicle arrangement a lane carries (the model's effect is the worst of them).
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct Vehicle {
     /// Name for reports (`tandem`, `truck`, `two trucks`).
     pub name: String,
@@ -472,7 +472,7 @@ pub struct Vehicle {
 }
 
 /// One lane of a carriageway as a model loads it.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct Lane {
     /// Lane width, m (the strip it may stand in).
     pub width: f64,
@@ -490,7 +490,7 @@ pub struct Lane {
 }
 
 /// How a model loads a carriageway across its width.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct LaneLayout {
     /// The lanes, lane 1 first. Each may stand anywhere in the carriageway, lanes not
     /// overlapping (EN 1991-2 4.2.4: numbered and placed for the most adverse effect).
@@ -513,7 +513,7 @@ pub struct LaneLayout {
 }
 
 /// The numbers of a lane rule, to say it in any units.
-#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
 #[serde(tag = "kind", rename_all = "snake_case")]
 pub enum LaneWords {
     /// EN 1991-2 notional lanes.

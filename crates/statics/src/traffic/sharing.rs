@@ -32,7 +32,7 @@ use crate::error::counted;
 use crate::frame::envelope::{AxleGroup, Traffic};
 use crate::traffic::models::{Applies, Lane, LaneLayout};
 use crate::units::{Quantity, Units};
-use serde::Serialize;
+use serde::{Deserialize, Serialize};
 
 /// Grid of lane positions across the carriageway, m (the largest step; `best` takes the
 /// one that fits the lanes' width).
@@ -50,7 +50,7 @@ pub struct Alternative {
 }
 
 /// The traffic one line of the plane model receives.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct LineTraffic {
     /// Uniform load the lanes add to the remaining area's, kN/m (before a vehicle's
     /// uniform factor; the lanes' own load where the remaining area carries none).
@@ -97,7 +97,7 @@ impl LineTraffic {
 }
 
 /// The share of one rib line.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct RibShare {
     /// Position of the rib across the deck, m from the deck centreline.
     pub position: f64,
@@ -110,7 +110,7 @@ pub struct RibShare {
 }
 
 /// How traffic is shared across the deck.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct Sharing {
     /// The whole cross-section's traffic (every lane loaded at full share).
     pub whole: LineTraffic,
