@@ -24,8 +24,7 @@ pub fn App() -> impl IntoView {
     let options = crate::options::OptionsState::install(opening.shared);
     provide_context(options);
     permalink_sync::install(state, options, opening.view);
-    crate::components::traffic_results::install(state);
-    crate::components::stability::install(state);
+    crate::settled::install(state);
     crate::components::envelope::install(state);
     // canvases follow the window size
     let handle =

@@ -11,6 +11,7 @@ mod options;
 mod paint;
 mod pause;
 mod permalink_sync;
+mod settled;
 mod state;
 mod timing;
 mod worker_job;

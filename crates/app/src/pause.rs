@@ -1,19 +1,9 @@
-//! Work that waits for the edits to pause: results that take longer than an edit's
-//! redraw (the traffic envelopes, the buckling and vibration modes) are computed in a
-//! task of their own once the design has rested, never while a point is dragged.
+//! Work that waits for the edits to pause: what takes longer than an edit's redraw (the
+//! results asked of the background worker, `crate::settled`; the print sheet's QR code)
+//! is started once the value it follows has rested.
 
-use crate::state::AppState;
 use leptos::prelude::*;
-use springline_statics::Design;
 use std::time::Duration;
-
-/// Runs `task` with the design on screen once it has rested for `delay`: an effect
-/// schedules it on every edit, and a newer edit makes an older pending run skip. While
-/// dragging nothing is scheduled (the design is not even read), so the last results
-/// stay. Installed once, with the state, so the results outlive any redraw.
-pub fn when_edits_pause(state: AppState, delay: Duration, task: impl Fn(Design) + Copy + 'static) {
-    when_rested(move || (!state.dragging.get()).then(|| state.design.get()), delay, task);
-}
 
 /// Runs `task` with the value `watch` gives once that value has rested for `delay`: an
 /// effect reads it on every change it tracks and schedules the run, and a newer change

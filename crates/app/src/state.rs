@@ -9,9 +9,7 @@ use springline_statics::arch::analysis::{analyze_to, Extent};
 use springline_statics::arch::cases::{standard_cases, CaseSpec, Pattern};
 use springline_statics::arch::edit::{Drag, DragStop, Snapping};
 use springline_statics::arch::readout::MemberKey;
-use springline_statics::arch::sizing::{size_design, SizeReport};
-use springline_statics::arch::stability::ArchStability;
-use springline_statics::arch::traffic::TrafficReport;
+use springline_statics::arch::sizing::SizeReport;
 use springline_statics::error::{Field, Location, StaticsError};
 use springline_statics::scene::envelope::Basis;
 use springline_statics::scene::vehicle::{start_position, travel, vehicle_case, VehicleOnDeck};
@@ -192,9 +190,12 @@ pub struct AppState {
     /// The sizing view is shown (the load picker's "Sizes"): member utilisations and
     /// thrust blocks on the elevation, the sizing panel under the drawings.
     pub sizes: RwSignal<bool>,
-    /// The engine's size report of the design on screen while the sizing view is on
-    /// (`arch::sizing::size_design` on the validation and the traffic report of that
-    /// design), memoised: computed once per design and traffic report.
+    /// The size report (`arch::sizing::size_design`) with the design it is for, worked
+    /// out with the traffic report once edits pause while the sizing view is on
+    /// (`crate::settled`); `None` until the first.
+    pub sized: RwSignal<Option<Arc<(Design, SizedOutcome)>>>,
+    /// The sizing view's report of the design on screen: `sized` when it is for that
+    /// design, waiting otherwise, off while the view is off.
     pub size_report: Memo<SizeView>,
     /// What the envelope shows: characteristic traffic or a combination's design values.
     pub basis: RwSignal<Basis>,
@@ -285,24 +286,19 @@ pub enum SizeView {
     Failed(String),
 }
 
-/// The size report of `valid` from the traffic outcome of the same design.
-pub fn size_view(valid: &Validated, traffic: &TrafficOutcome) -> SizeView {
-    let valid = match valid {
-        Ok(v) => v,
-        Err(e) => return SizeView::Failed(e.to_string()),
-    };
-    match traffic {
-        Ok(Some(report)) => match size_design(valid, report) {
-            Ok(r) => SizeView::Ready(Arc::new(r)),
-            Err(e) => SizeView::Failed(e.to_string()),
-        },
-        Ok(None) => SizeView::Failed("the frame model has no traffic envelopes to size with".into()),
-        Err(e) => SizeView::Failed(e.to_string()),
+pub use springline_worker::{StabilityOutcome, TrafficOutcome};
+
+/// A size report as the page keeps it (shared, not copied, by every view of it), or the
+/// engine's error in words.
+pub type SizedOutcome = Result<Arc<SizeReport>, String>;
+
+/// The sizing view of a size report, or of the reason there is none.
+pub fn size_view(outcome: &SizedOutcome) -> SizeView {
+    match outcome {
+        Ok(r) => SizeView::Ready(r.clone()),
+        Err(e) => SizeView::Failed(e.clone()),
     }
 }
-
-/// The stability results of a design, or the engine's error in words.
-pub type StabilityOutcome = Result<ArchStability, String>;
 
 /// Which mode shape the elevation shows over the members.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
@@ -318,10 +314,6 @@ pub enum ModeView {
 
 /// Extra load cases and the design they were built for.
 pub type ExtraCases = (Design, Vec<CaseSpec>);
-
-/// The traffic report of a design's frame model, `Ok(None)` when the engine has none,
-/// or the engine's error.
-pub type TrafficOutcome = Result<Option<TrafficReport>, StaticsError>;
 
 /// How many steps undo keeps.
 pub const HISTORY_LIMIT: usize = 200;
@@ -402,16 +394,17 @@ impl AppState {
         let settled_analysis = held(moving, move || analysis.get(), analysis_changed);
         let traffic = RwSignal::new(None::<Arc<(Design, TrafficOutcome)>>);
         let sizes = RwSignal::new(false);
+        let sized = RwSignal::new(None::<Arc<(Design, SizedOutcome)>>);
         let size_report = Memo::new(move |_| {
             if !sizes.get() {
                 return SizeView::Off;
             }
-            let Some(t) = traffic.get() else { return SizeView::Waiting };
+            let Some(s) = sized.get() else { return SizeView::Waiting };
             // the report of the design on screen only
-            if design.with(|d| *d != t.0) {
+            if design.with(|d| *d != s.0) {
                 return SizeView::Waiting;
             }
-            size_view(&valid.get(), &t.1)
+            size_view(&s.1)
         });
         let settled_size_report = held(moving, move || size_report.get(), |old, new| old != new);
         AppState {
@@ -437,6 +430,7 @@ impl AppState {
             mode_view: RwSignal::new(ModeView::Off),
             envelope: RwSignal::new(false),
             sizes,
+            sized,
             size_report,
             basis: RwSignal::new(Basis::Design(0)),
             picked: RwSignal::new(None),

@@ -11,11 +11,14 @@
 
 use crate::format::{Quantity, Units};
 use crate::state::{AppState, SizeView};
+use crate::worker_job::Job;
 use leptos::prelude::*;
 use springline_statics::arch::foundation::SpringingDemand;
-use springline_statics::arch::massing::{massing_loop, DEFAULT_MASSING_PASSES};
+use springline_statics::arch::massing::DEFAULT_MASSING_PASSES;
 use springline_statics::arch::sizing::{adopt_sizes, GroupOutcome, SizeReport};
 use springline_statics::error::{Field, GroupName};
+use springline_statics::link::permalink;
+use springline_worker::{Reply, Request};
 
 /// A table cell with `si` shown in `units` as quantity `q`, the SI value in
 /// `data-value`, id `id`.
@@ -326,45 +329,89 @@ fn AdoptButton() -> impl IntoView {
     }
 }
 
+/// What the massing loop did, in words: the passes, the form thrust (kN) and the steel
+/// (t) it settled at, or why it stopped.
+fn massed_words(converged: bool, passes: usize, form_thrust: f64, steel: f64, last_change: &str) -> String {
+    if converged {
+        format!(
+            "Settled after {passes} pass{}: form thrust {form_thrust:.0} kN, steel {steel:.1} t.",
+            if passes == 1 { "" } else { "es" }
+        )
+    } else {
+        format!("Not settled: {last_change}")
+    }
+}
+
 /// The "Settle the sizes" button: the massing loop (`arch::massing`: size, adopt,
 /// analyse and size again until the sections stop changing) from the design on screen,
-/// its result put into the design as one undo step, with what the loop did in words.
+/// run in the background worker (seconds with many panels), its result put into the
+/// design as one undo step, with what the loop did in words. An edit made meanwhile is
+/// kept: the loop's design replaces only the design it started from.
 #[component]
 fn SettleButton() -> impl IntoView {
     let state = expect_context::<AppState>();
     let outcome = RwSignal::new(None::<(bool, String)>);
+    let job = StoredValue::new_local(None::<Job>);
+    let working = RwSignal::new(false);
     let settle = move |_| {
-        let design = state.design.get_untracked();
-        match massing_loop(&design, DEFAULT_MASSING_PASSES) {
-            Ok(m) => {
-                let words = if m.converged {
-                    format!(
-                        "Settled after {} pass{}: form thrust {:.0} kN, steel {:.1} t.",
-                        m.passes,
-                        if m.passes == 1 { "" } else { "es" },
-                        m.history.last().map_or(0.0, |h| h.form_thrust),
-                        m.report.quantities.steel
-                    )
-                } else {
-                    format!("Not settled: {}", m.last_change)
-                };
-                if m.design != design {
-                    if let Err(e) = state.try_edit(Field::Sizing(GroupName::Rib), |d| *d = m.design.clone()) {
-                        outcome.set(Some((false, format!("The settled design is refused: {e}"))));
-                        return;
-                    }
+        let start = state.design.get_untracked();
+        let request =
+            Request::Massing { design: permalink::to_transfer(&start), passes: DEFAULT_MASSING_PASSES };
+        let started = Job::start(&request, move |reply| {
+            working.set(false);
+            job.set_value(None);
+            let (converged, passes, form_thrust, steel, last_change, text) = match reply {
+                Reply::Massed { converged, passes, form_thrust, steel, last_change, design } => {
+                    (converged, passes, form_thrust, steel, last_change, design)
                 }
-                outcome.set(Some((m.converged, words)));
+                Reply::Failed { message } => {
+                    outcome.set(Some((false, format!("The sizes cannot be settled: {message}"))));
+                    return;
+                }
+                _ => return,
+            };
+            if state.design.with_untracked(|d| *d != start) {
+                outcome.set(Some((
+                    false,
+                    "The design changed while the sizes were settling; settle again.".into(),
+                )));
+                return;
             }
-            Err(e) => outcome.set(Some((false, format!("The sizes cannot be settled: {e}")))),
+            let design = match permalink::from_transfer(&text) {
+                Ok(design) => design,
+                Err(e) => {
+                    outcome.set(Some((false, format!("The sizes cannot be settled: {e}"))));
+                    return;
+                }
+            };
+            if design != start {
+                if let Err(e) = state.try_edit(Field::Sizing(GroupName::Rib), |d| *d = design) {
+                    outcome.set(Some((false, format!("The settled design is refused: {e}"))));
+                    return;
+                }
+            }
+            outcome.set(Some((converged, massed_words(converged, passes, form_thrust, steel, &last_change))));
+        });
+        match started {
+            Ok(started) => {
+                job.set_value(Some(started));
+                working.set(true);
+                outcome.set(None);
+            }
+            Err(message) => outcome.set(Some((false, format!("The sizes cannot be settled: {message}")))),
         }
     };
     view! {
         <div class="sizing-adopt">
-            <button type="button" id="sizes-settle" on:click=settle>"Settle the sizes"</button>
+            <button type="button" id="sizes-settle" on:click=settle disabled=move || working.get()>
+                "Settle the sizes"
+            </button>
             <span class="hint">
                 "Sizes, adopts and sizes again until no section changes (their weight changes the form and the forces); one undo step."
             </span>
+            <Show when=move || working.get()>
+                <p class="hint" id="sizes-settling" role="status">"Settling the sizes..."</p>
+            </Show>
             {move || outcome.get().map(|(ok, words)| {
                 let class = if ok { "hint" } else { "error" };
                 view! { <p class=class id="sizes-settle-note" role="status">{words}</p> }
@@ -415,8 +462,7 @@ pub fn SizingPanel() -> impl IntoView {
 mod tests {
     use super::*;
     use crate::state::size_view;
-    use springline_statics::arch::traffic::traffic_envelopes;
-    use springline_statics::{Design, ModelKind, ValidDesign};
+    use springline_statics::Design;
     use std::sync::Arc;
 
     /// The demo sizes (every group sized in steel, `SizingDesign::steel`): the view
@@ -424,24 +470,37 @@ mod tests {
     /// engine's error in words, never a panic.
     #[test]
     fn the_size_view_is_the_engines_report_or_its_error() {
+        // what the worker sends the page for a design (`springline_worker::sized`)
+        let view_of = |d: &Design| {
+            let valid = springline_worker::validated(d);
+            let traffic = springline_worker::traffic_report(&valid);
+            size_view(&springline_worker::sized(&valid, &traffic).map(Arc::new))
+        };
         let d = Design::demo();
-        let valid = ValidDesign::new(&d).map(Arc::new);
-        let traffic =
-            valid.as_ref().map_err(Clone::clone).and_then(|v| traffic_envelopes(v, ModelKind::Frame));
-        let SizeView::Ready(r) = size_view(&valid, &traffic) else { panic!("the demo sizes") };
+        let SizeView::Ready(r) = view_of(&d) else { panic!("the demo sizes") };
         let rib = r.sizing.groups.iter().find(|g| g.group == "rib").expect("rib");
         assert!(matches!(rib.outcome, GroupOutcome::Sized { .. }), "{:?}", rib.outcome);
         assert!(!section_words(&rib.outcome).is_empty());
         // no ultimate combination: the engine says what to do
         let mut none = d.clone();
         none.traffic.combinations.retain(|c| c.permanent_unfavourable <= 1.0);
-        let valid = ValidDesign::new(&none).map(Arc::new);
-        let traffic =
-            valid.as_ref().map_err(Clone::clone).and_then(|v| traffic_envelopes(v, ModelKind::Frame));
-        match size_view(&valid, &traffic) {
+        match view_of(&none) {
             SizeView::Failed(e) => assert!(e.contains("no ultimate combination"), "{e}"),
             other => panic!("expected the engine's error, got {other:?}"),
         }
+        // what the massing loop did, as the Settle button says it
+        assert_eq!(
+            massed_words(true, 1, 8140.4, 558.16, ""),
+            "Settled after 1 pass: form thrust 8140 kN, steel 558.2 t."
+        );
+        assert_eq!(
+            massed_words(true, 3, 8140.6, 558.0, ""),
+            "Settled after 3 passes: form thrust 8141 kN, steel 558.0 t."
+        );
+        assert_eq!(
+            massed_words(false, 12, 1.0, 1.0, "rib keeps changing"),
+            "Not settled: rib keeps changing"
+        );
         assert_eq!(
             section_words(&GroupOutcome::NotSized { reason: "member rib 1-2: too slender".into() }),
             "not sized: member rib 1-2: too slender"

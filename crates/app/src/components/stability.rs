@@ -4,34 +4,18 @@
 //! flag; and the choice of drawing the buckled shape or the first vibration mode over
 //! the elevation (`scene::modes`).
 //!
-//! The numbers are the engine's (`arch::stability::arch_stability`), computed in a task
-//! of their own once the edits pause (as the traffic envelopes are), never while
-//! dragging: the last results stay on screen, marked as for the design before the edit.
+//! The numbers are the engine's (`arch::stability::arch_stability`), worked out in the
+//! background worker once the edits pause (`crate::settled`), never while dragging: the
+//! last results stay on screen, marked as for the design before the edit.
 
 use crate::format::{Quantity, Units};
 use crate::state::{AppState, ModeView};
 use leptos::prelude::*;
-use springline_statics::arch::stability::{arch_stability, ArchStability};
+use springline_statics::arch::stability::ArchStability;
 use std::sync::Arc;
-
-/// How long the edits must pause before the stability is found.
-const STABILITY_DELAY: std::time::Duration = std::time::Duration::from_millis(300);
 
 /// How many modes of each kind are found.
 pub const SHOWN_MODES: usize = 3;
-
-/// Keeps `state.stability` for the design on screen (module doc): computed once the
-/// edits pause (`pause::when_edits_pause`). Installed once, with the state.
-pub fn install(state: AppState) {
-    crate::pause::when_edits_pause(state, STABILITY_DELAY, move |design| {
-        // the validation on screen is the design's (no edit since the task was scheduled)
-        let outcome = match state.valid.get_untracked() {
-            Ok(valid) => arch_stability(&valid, SHOWN_MODES).map_err(|e| e.to_string()),
-            Err(e) => Err(e.to_string()),
-        };
-        state.stability.set(Some(Arc::new((design, outcome))));
-    });
-}
 
 /// The results of the design the panels show (`settled_design`), when they are for it.
 pub fn current(state: AppState) -> Option<Arc<(springline_statics::Design, crate::state::StabilityOutcome)>> {

@@ -1,28 +1,14 @@
 //! The Traffic block of the results: the load model, how the traffic is shared between
 //! the ribs, and the range of the arch's thrust (left springing, whole cross-section):
 //! permanent, characteristic traffic and each combination's design values, from the
-//! engine's traffic envelopes of the frame model. They are computed after an edit is
-//! painted, and not while a point is being dragged: the block shows the last report and
-//! says it updates when the pointer lets go.
+//! engine's traffic envelopes of the frame model. They are worked out in the background
+//! worker once the edits pause (`crate::settled`), not while a point is being dragged: the
+//! block shows the last report and says it updates when the pointer lets go.
 
 use crate::format::{Quantity, Units};
 use crate::state::AppState;
 use leptos::prelude::*;
-use springline_statics::arch::traffic::{traffic_envelopes, TrafficReport};
-use springline_statics::arch::validate::ValidDesign;
-use springline_statics::{Design, ModelKind};
-use std::sync::Arc;
-
-/// How long the design must rest before its traffic envelopes are computed: longer
-/// than an edit takes to paint, short enough to feel immediate.
-const TRAFFIC_DELAY: std::time::Duration = std::time::Duration::from_millis(250);
-
-pub use crate::state::TrafficOutcome;
-
-/// The traffic envelopes of `design`'s frame model (`arch::traffic::traffic_envelopes`).
-pub fn traffic_of(design: &Design) -> TrafficOutcome {
-    ValidDesign::new(design).and_then(|valid| traffic_envelopes(&valid, ModelKind::Frame))
-}
+use springline_statics::arch::traffic::TrafficReport;
 
 /// One row of the thrust table: a label and the largest and smallest values, kN (SI);
 /// `min` is `None` for a single value (the permanent thrust, one cell with id `id`).
@@ -139,16 +125,6 @@ fn thrust_table(report: &TrafficReport, ribs: usize, units: Units) -> impl IntoV
     }
 }
 
-/// Keeps `state.traffic` for the design. The envelopes take longer than an edit's redraw
-/// (tens of ms, more with many panels), so they are computed once the edits pause
-/// (`TRAFFIC_DELAY`, `pause::when_edits_pause`); while dragging, the last report stays.
-pub fn install(state: AppState) {
-    crate::pause::when_edits_pause(state, TRAFFIC_DELAY, move |design| {
-        let outcome = traffic_of(&design);
-        state.traffic.set(Some(Arc::new((design, outcome))));
-    });
-}
-
 /// The Traffic block of the results panel.
 #[component]
 pub fn TrafficResults() -> impl IntoView {
@@ -196,6 +172,13 @@ mod tests {
     use super::*;
     use springline_statics::traffic::models::ModelFamily;
     use springline_statics::traffic::TrafficDesign;
+    use springline_statics::Design;
+    use springline_worker::TrafficOutcome;
+
+    /// The report the worker gives the page for `design`.
+    fn traffic_of(design: &Design) -> TrafficOutcome {
+        springline_worker::traffic_report(&springline_worker::validated(design))
+    }
 
     /// The demo (EN 1991-2 LM1, three combinations): the table lists permanent,
     /// characteristic traffic and one row per combination, each value the engine's
