@@ -462,6 +462,46 @@ mod tests {
         );
     }
 
+    /// Every kind of design the engine reports on comes back whole: each report read back
+    /// from JSON equals the engine's (a number JSON cannot carry, an infinity, would come
+    /// back as null and the page could not read the reply).
+    #[test]
+    fn settled_results_travel_for_every_rib_system_and_load_model() {
+        use springline_statics::arch::design::RibSystem;
+        use springline_statics::traffic::models::ModelFamily;
+        use springline_statics::traffic::TrafficDesign;
+        let mut designs = Vec::new();
+        for (system, family, panels) in [
+            (RibSystem::ThreeHinged, ModelFamily::EnLm1, 8),
+            (RibSystem::TwoHinged, ModelFamily::Hl93, 10),
+            (RibSystem::Fixed, ModelFamily::Crowd, 16),
+            (RibSystem::TwoHinged, ModelFamily::UserDefined, 24),
+        ] {
+            let mut d = Design::demo();
+            d.rib_system = system;
+            d.panels = panels;
+            d.traffic = TrafficDesign::preset(family, d.traffic.carriageway_width);
+            designs.push((format!("{system:?} {family:?}"), d));
+        }
+        for (what, design) in designs {
+            let out =
+                replies(&Request::Settled { design: permalink::to_transfer(&design), modes: 3, size: true });
+            let valid = ValidDesign::new(&design).expect("valid");
+            let report = traffic_envelopes(&valid, ModelKind::Frame).expect("solves");
+            assert_eq!(out[0], Reply::Traffic { outcome: Ok(report) }, "{what}");
+            assert_eq!(
+                out[1],
+                Reply::Stability { outcome: arch_stability(&valid, 3).map_err(|e| e.to_string()) },
+                "{what}"
+            );
+            assert!(
+                matches!(&out[2], Reply::Sized { outcome: Ok(r) } if r.quantities.steel > 0.0),
+                "{what}: {:?}",
+                out.get(2).map(|_| ())
+            );
+        }
+    }
+
     /// The massing loop's outcome and design are the engine's; a design the engine
     /// refuses gives its reason.
     #[test]
