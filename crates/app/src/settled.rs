@@ -2,9 +2,9 @@
 //! stability under the dead load and, while the sizing view is on, the size report. They
 //! are worked out in the background worker (`springline_worker`, `Request::Settled`), not
 //! on the page's thread: about 0.1 s at 16 panels and seconds at 64 with the sizing,
-//! which on the page's thread were a pause a click or a key press could fall into. Nothing is asked while a point is dragged;
-//! the last results stay on screen, marked as for the design before the edit, until the
-//! new ones come.
+//! which on the page's thread were a pause a click or a key press could fall into.
+//! Nothing is asked while a point is dragged; the last results stay on screen, marked as
+//! for the design before the edit, until the new ones come.
 
 use crate::components::stability::SHOWN_MODES;
 use crate::state::AppState;

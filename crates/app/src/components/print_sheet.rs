@@ -25,16 +25,24 @@ const QR_DELAY: std::time::Duration = std::time::Duration::from_millis(400);
 pub fn PrintSheet() -> impl IntoView {
     let state = expect_context::<AppState>();
     let node: NodeRef<Canvas> = NodeRef::new();
-    // the link once a drag ends (not on every pointer move: the settled design holds)
-    let link = Memo::new(move |_| {
+    // The sheet's link and its code follow the design once it has rested (not on every
+    // pointer move: the settled design holds while a drag is on), and again just before
+    // printing: the sheet is hidden on screen, so neither the link's encoding (a few
+    // tenths of a millisecond) nor the code's mask (about 10 ms) need be in an edit's
+    // frame.
+    let link = move || link_to_open_design(state).unwrap_or_default();
+    let coded = RwSignal::new(String::new());
+    // the sheet's numbers likewise: they are read when this changes
+    let rested = RwSignal::new(0u32);
+    let design_and_units = move || {
         state.settled_design.track();
         state.units.track();
-        link_to_open_design(state).unwrap_or_default()
+        Some(())
+    };
+    crate::pause::when_rested(design_and_units, QR_DELAY, move |()| {
+        coded.set(link());
+        rested.update(|n| *n = n.wrapping_add(1));
     });
-    // The code is drawn once the link has rested (choosing its mask takes about 10 ms
-    // for a design link, too long for every edit's frame) and again just before printing.
-    let coded = RwSignal::new(String::new());
-    crate::pause::when_rested(move || Some(link.get()), QR_DELAY, move |text| coded.set(text));
     let fits = RwSignal::new(true);
     // the text of the code on the canvas (none until the link first rests)
     let drawn = StoredValue::new(String::new());
@@ -92,12 +100,14 @@ pub fn PrintSheet() -> impl IntoView {
     let before_print =
         window_event_listener(leptos::ev::Custom::new("beforeprint"), move |_: web_sys::Event| {
             printed.set(today());
-            // the code of the design as printed, without waiting for the rest
-            coded.set(link.get_untracked());
+            // the code and numbers of the design as printed, without waiting for the rest
+            coded.set(link());
+            rested.update(|n| *n = n.wrapping_add(1));
         });
     on_cleanup(move || before_print.remove());
     let warnings = move || {
-        state.settled_analysis.with(|a| {
+        rested.track();
+        state.settled_analysis.with_untracked(|a| {
             let a = a.as_ref().ok()?;
             (!a.warnings.is_empty()).then(|| {
                 let items = a.warnings.iter().map(|w| view! { <li>{w.to_string()}</li> }).collect_view();
@@ -106,8 +116,9 @@ pub fn PrintSheet() -> impl IntoView {
         })
     };
     let numbers = move || {
-        let units = state.units.get();
-        state.settled_analysis.with(|a| {
+        rested.track();
+        let units = state.units.get_untracked();
+        state.settled_analysis.with_untracked(|a| {
             let a = a.as_ref().ok()?;
             let s = &a.summary;
             let [left, right] = s.form_reactions;
@@ -138,8 +149,8 @@ pub fn PrintSheet() -> impl IntoView {
                     "panels, ribs",
                     format!(
                         "{}, {}",
-                        state.settled_design.with(|d| d.panels),
-                        state.settled_design.with(|d| d.deck.ribs)
+                        state.settled_design.with_untracked(|d| d.panels),
+                        state.settled_design.with_untracked(|d| d.deck.ribs)
                     ),
                 ),
             ];
@@ -154,7 +165,7 @@ pub fn PrintSheet() -> impl IntoView {
         <section class="print-sheet" id="print-sheet" aria-hidden="true">
             <div class="print-columns">
                 <div>
-                    <h2>{move || state.settled_design.with(|d| d.name.clone())}</h2>
+                    <h2>{move || { rested.track(); state.settled_design.with_untracked(|d| d.name.clone()) }}</h2>
                     <p>{move || format!("Springline concept design sheet, printed {}", printed.get())}</p>
                     <table class="print-numbers"><tbody>{numbers}</tbody></table>
                     {warnings}
@@ -165,7 +176,7 @@ pub fn PrintSheet() -> impl IntoView {
                     <figcaption>{move || if fits.get() { "the design's link" } else { "the link is too long for a QR code" }}</figcaption>
                 </figure>
             </div>
-            <p class="print-link" id="print-link">{move || link.get()}</p>
+            <p class="print-link" id="print-link">{move || coded.get()}</p>
         </section>
     }
 }
