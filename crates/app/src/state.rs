@@ -175,13 +175,13 @@ pub struct AppState {
     pub drag_stop: RwSignal<Option<String>>,
     /// While dragging: the value being set and where the pointer is.
     pub drag_reading: RwSignal<Option<DragReading>>,
-    /// The traffic envelopes of the frame model with the design they are for, computed
-    /// once edits pause and not while dragging (`components::traffic_results::install`);
-    /// `None` until the first.
+    /// The traffic envelopes of the frame model with the design they are for, worked out
+    /// in the background worker once edits pause and not while dragging
+    /// (`crate::settled`); `None` until the first.
     pub traffic: RwSignal<Option<Arc<(Design, TrafficOutcome)>>>,
     /// The dead load's buckling and natural frequencies (`arch::stability::arch_stability`)
-    /// with the design they are for, computed once edits pause and not while dragging
-    /// (`components::stability::install`); `None` until the first.
+    /// with the design they are for, worked out with the traffic envelopes
+    /// (`crate::settled`); `None` until the first.
     pub stability: RwSignal<Option<Arc<(Design, StabilityOutcome)>>>,
     /// Which mode shape is drawn over the elevation, on request.
     pub mode_view: RwSignal<ModeView>,
