@@ -8,7 +8,7 @@
 
 use crate::components::stability::SHOWN_MODES;
 use crate::state::AppState;
-use crate::worker_job::Job;
+use crate::worker_job::{Job, WORKER_STOPPED};
 use leptos::prelude::*;
 use springline_statics::link::permalink;
 use springline_statics::Design;
@@ -34,6 +34,9 @@ pub fn install(state: AppState) {
         let shown = state.traffic.with_untracked(|t| has(t.as_ref().map(|t| &t.0)))
             && state.stability.with_untracked(|s| has(s.as_ref().map(|s| &s.0)));
         if shown && (!size || state.sized.with_untracked(|s| has(s.as_ref().map(|s| &s.0)))) {
+            // back to a design whose results are here (an undo): a job still at work on
+            // another design ends, so its replies cannot replace these
+            job.set_value(None);
             return;
         }
         let request = Request::Settled { design: permalink::to_transfer(&design), modes: SHOWN_MODES, size };
@@ -51,7 +54,7 @@ pub fn install(state: AppState) {
                 job.set_value(None);
             }
             Reply::Failed { message } => {
-                failed(state, &asked, size, &message);
+                failed(state, &asked, size, &worker_words(&message));
                 job.set_value(None);
             }
             _ => {}
@@ -59,9 +62,20 @@ pub fn install(state: AppState) {
         match started {
             // an older job still at work ends as it is dropped
             Ok(started) => job.set_value(Some(started)),
-            Err(message) => failed(state, &design, size, &message),
+            Err(message) => failed(state, &design, size, &worker_words(&message)),
         }
     });
+}
+
+/// Why the worker gave no results, as the blocks that wait for them say it, with what to
+/// do about it.
+fn worker_words(message: &str) -> String {
+    let why = if message == WORKER_STOPPED {
+        "the background worker stopped with an error (see the browser console)"
+    } else {
+        message
+    };
+    format!("{why}; edit the design or reload the page to try again")
 }
 
 /// The results of `design` the worker did not give are `message` (a traffic report that

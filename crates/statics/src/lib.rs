@@ -31,6 +31,7 @@
 
 pub mod error;
 pub mod geom;
+pub mod json;
 pub mod tolerance;
 pub mod units;
 

@@ -460,6 +460,19 @@ mod tests {
         assert!(
             matches!(&bad[..], [Reply::Failed { message }] if message.starts_with("cannot read the design"))
         );
+        // "nothing buckles it" is infinite: JSON carries it as null, and it comes back
+        let mut unbounded = stability_of_demo();
+        unbounded.arch.alpha_cr = f64::INFINITY;
+        unbounded.alpha_cr = f64::INFINITY;
+        let text = serde_json::to_string(&Reply::Stability { outcome: Ok(unbounded.clone()) }).expect("json");
+        assert_eq!(
+            serde_json::from_str::<Reply>(&text).expect("a reply"),
+            Reply::Stability { outcome: Ok(unbounded) }
+        );
+    }
+
+    fn stability_of_demo() -> ArchStability {
+        arch_stability(&ValidDesign::new(&Design::demo()).expect("valid"), 3).expect("stability")
     }
 
     /// Every kind of design the engine reports on comes back whole: each report read back

@@ -6,11 +6,12 @@
 
 use crate::components::controls::{FieldProblems, NumberField};
 use crate::format::{Quantity, Units};
-use crate::state::AppState;
+use crate::state::{AppState, TrafficOutcome};
 use leptos::prelude::*;
 use springline_statics::arch::actions::{ActionResult, ActionsReport, Temperature, TemperaturePreset};
 use springline_statics::arch::design::{Design, RibSystem};
 use springline_statics::error::Field;
+use std::sync::Arc;
 
 /// The words of a temperature preset.
 pub fn preset_words(preset: TemperaturePreset) -> &'static str {
@@ -220,7 +221,9 @@ pub fn ActionsResults() -> impl IntoView {
     };
     let deflection = move || {
         let units = state.units.get();
-        state.traffic.with(|t| match t.as_ref().map(|t| &t.1) {
+        // the report of the design the panels show only (an older one waits for its own)
+        let current = |t: &&Arc<(Design, TrafficOutcome)>| state.settled_design.with(|d| *d == t.0);
+        state.traffic.with(|t| match t.as_ref().filter(current).map(|t| &t.1) {
             Some(Ok(Some(report))) => report.deflection.as_ref().map(|d| {
                 let verdict = if d.within { "within" } else { "beyond" };
                 let text = format!(

@@ -5,8 +5,8 @@
 //! sized group's section into the design as one undoable edit.
 //!
 //! The numbers are the engine's size report (`arch::sizing::size_design`) of the design
-//! on screen, memoised in the state (`AppState::size_report`) once its traffic report
-//! is ready. Every value is shown in the chosen units and carries its SI value in
+//! on screen, worked out with its traffic report in the background worker once edits
+//! pause (`crate::settled`, `AppState::sized`; the view reads `AppState::size_report`). Every value is shown in the chosen units and carries its SI value in
 //! `data-value`.
 
 use crate::format::{Quantity, Units};

@@ -83,13 +83,16 @@ pub struct RibMemberStability {
     pub n_ed: f64,
     /// The arch's critical axial force of it, alpha_cr N_Ed, kN (per rib line); infinite
     /// when it has no compression case (nothing buckles it).
+    #[serde(deserialize_with = "crate::json::infinity_if_null")]
     pub n_cr: f64,
     /// The buckling length in the arch plane from it, m (`None`: not compressed in its
     /// case; the arch table's length is kept).
     pub length: Option<f64>,
     /// The arch's alpha_cr in the moment case (infinite without one).
+    #[serde(deserialize_with = "crate::json::infinity_if_null")]
     pub alpha_moment: f64,
     /// The arch's alpha_cr in the compression case (infinite without one).
+    #[serde(deserialize_with = "crate::json::infinity_if_null")]
     pub alpha_compression: f64,
 }
 
@@ -100,6 +103,7 @@ pub struct RibStability {
     /// placement once.
     pub cases: Vec<CaseStability>,
     /// The arch's least alpha_cr over the cases, at the analysed sections.
+    #[serde(deserialize_with = "crate::json::infinity_if_null")]
     pub alpha_cr: f64,
     /// The least alpha_cr the sizing accepts: 3, or 10 when the design asks for a
     /// first-order rib.
@@ -235,10 +239,13 @@ pub fn imperfection(curve: Curve, s: f64) -> f64 {
 #[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
 pub struct RibTrial {
     /// The arch's least alpha_cr with this section.
+    #[serde(deserialize_with = "crate::json::infinity_if_null")]
     pub alpha_cr: f64,
     /// The moment case's alpha_cr with this section.
+    #[serde(deserialize_with = "crate::json::infinity_if_null")]
     pub alpha_moment: f64,
     /// The compression case's alpha_cr with this section.
+    #[serde(deserialize_with = "crate::json::infinity_if_null")]
     pub alpha_compression: f64,
     /// The factor on the first-order moment (1 for concrete).
     pub amplification: f64,

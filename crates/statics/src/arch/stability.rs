@@ -67,6 +67,7 @@ pub struct ArchStability {
     /// refined nodes).
     pub dead: CaseBuckling,
     /// alpha_cr of the dead load (the lowest mode, local or not).
+    #[serde(deserialize_with = "crate::json::infinity_if_null")]
     pub alpha_cr: f64,
     /// The arch's alpha_cr under the dead load: its lowest mode that is not a member
     /// buckling on its own (module doc); what the verdict takes.
@@ -101,6 +102,7 @@ pub struct ArchStability {
 #[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
 pub struct ArchMode {
     /// Its alpha_cr; when no mode found is the arch's, the highest found (a lower bound).
+    #[serde(deserialize_with = "crate::json::infinity_if_null")]
     pub alpha_cr: f64,
     /// Its index among the modes found (`None`: not among them).
     pub mode: Option<usize>,
@@ -192,10 +194,12 @@ pub struct Frequency {
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct StabilitySummary {
     /// The arch's alpha_cr under the (unfactored) dead load.
+    #[serde(deserialize_with = "crate::json::infinity_if_null")]
     pub dead_alpha_cr: f64,
     /// The lowest dead-load mode (local or not) and what buckles in it.
     pub first_mode: String,
     /// Its alpha_cr.
+    #[serde(deserialize_with = "crate::json::infinity_if_null")]
     pub first_alpha_cr: f64,
     /// The verdict on the arch's alpha_cr.
     pub verdict: String,
@@ -476,6 +480,7 @@ pub struct CaseStability {
     /// Where the traffic stands, in words.
     pub placement: String,
     /// The lowest critical load factor, local or not.
+    #[serde(deserialize_with = "crate::json::infinity_if_null")]
     pub alpha_cr: f64,
     /// The lowest mode in words (`the arch`, or the member buckling on its own).
     pub first_mode: String,
