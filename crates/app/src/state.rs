@@ -7,6 +7,7 @@ use crate::timing::{timed, Step};
 use leptos::prelude::*;
 use springline_statics::arch::analysis::{analyze_to, Extent};
 use springline_statics::arch::cases::{standard_cases, CaseSpec, Pattern};
+use springline_statics::arch::design::Warning;
 use springline_statics::arch::edit::{Drag, DragStop, Snapping};
 use springline_statics::arch::readout::MemberKey;
 use springline_statics::arch::sizing::SizeReport;
@@ -230,6 +231,11 @@ pub struct AppState {
     pub settled_analysis: Memo<Outcome>,
     /// `size_report` as the sizing panel shows it, held like `settled_design`.
     pub settled_size_report: Memo<SizeView>,
+    /// The warnings of `settled_valid` (none when it failed), set only when they change:
+    /// the many fields that show the warnings about them are not woken by every edit.
+    pub settled_warnings: RwSignal<Vec<Warning>>,
+    /// What follows `settled_design` on its own signal ([`AppState::design_value`]).
+    followers: StoredValue<Followers>,
     /// The analysis just computed for a design about to be set, so the memo does not
     /// compute it a second time.
     checked: StoredValue<Option<Checked>>,
@@ -392,6 +398,16 @@ impl AppState {
         let settled_design = held(moving, move || design.get(), |old, new| old != new);
         let settled_valid = held(moving, move || valid.get(), validation_changed);
         let settled_analysis = held(moving, move || analysis.get(), analysis_changed);
+        let settled_warnings = RwSignal::new(Vec::new());
+        Effect::new(move |_| {
+            let now =
+                settled_valid.with(|v| v.as_ref().map_or_else(|_| Vec::new(), |v| v.warnings().to_vec()));
+            if settled_warnings.with_untracked(|w| *w != now) {
+                settled_warnings.set(now);
+            }
+        });
+        let followers = StoredValue::new(Followers::default());
+        Effect::new(move |_| settled_design.with(|d| followers.with_value(|f| f.follow(d))));
         let traffic = RwSignal::new(None::<Arc<(Design, TrafficOutcome)>>);
         let sizes = RwSignal::new(false);
         let sized = RwSignal::new(None::<Arc<(Design, SizedOutcome)>>);
@@ -443,8 +459,53 @@ impl AppState {
             settled_valid,
             settled_analysis,
             settled_size_report,
+            settled_warnings,
+            followers,
             checked,
         }
+    }
+
+    /// A number of the design as the panels show it (`settled_design`), for an input box:
+    /// a signal set only when that number changes (a NaN stays a NaN without a set). See
+    /// [`AppState::design_value`].
+    pub fn design_number(&self, get: impl Fn(&Design) -> f64 + Send + Sync + 'static) -> Signal<f64> {
+        let value = RwSignal::new(self.settled_design.with_untracked(&get));
+        self.follow_design(move |d| {
+            let now = get(d);
+            if value.try_with_untracked(|v| *v != now && !(v.is_nan() && now.is_nan())) == Some(true) {
+                value.set(now);
+            }
+        });
+        value.into()
+    }
+
+    /// A part of the design as the panels show it (`settled_design`): a signal set only
+    /// when that part changes. An edit wakes one effect that reads every registered part,
+    /// not one effect per input box or option (a panel-count edit woke some 400 of them,
+    /// most to find their part unchanged). The registration ends with the calling
+    /// component.
+    pub fn design_value<T: PartialEq + Send + Sync + 'static>(
+        &self,
+        get: impl Fn(&Design) -> T + Send + Sync + 'static,
+    ) -> Signal<T> {
+        let value = RwSignal::new(self.settled_design.with_untracked(&get));
+        self.follow_design(move |d| {
+            let now = get(d);
+            if value.try_with_untracked(|v| *v != now) == Some(true) {
+                value.set(now);
+            }
+        });
+        value.into()
+    }
+
+    /// Registers `follow`, run with each new `settled_design`, until the calling
+    /// component ends.
+    fn follow_design(&self, follow: impl Fn(&Design) + Send + Sync + 'static) {
+        let followers = self.followers;
+        let id = followers.try_update_value(|f| f.add(Box::new(follow))).unwrap_or(0);
+        on_cleanup(move || {
+            let _ = followers.try_update_value(|f| f.remove(id));
+        });
     }
 
     /// Applies `edit` (a change of design field `field`) to a copy of the design and keeps
@@ -829,5 +890,31 @@ mod tests {
         assert_eq!(parse_number("1 200"), Ok(1200.0));
         assert!(parse_number("abc").is_err());
         assert!(parse_number("inf").is_err());
+    }
+}
+
+/// The registered followers of [`AppState::design_value`], each setting its own signal.
+#[derive(Default)]
+struct Followers {
+    next: u64,
+    entries: Vec<(u64, Follower)>,
+}
+
+/// Reads a part of a design and sets its signal when the part changed.
+type Follower = Box<dyn Fn(&Design) + Send + Sync>;
+
+impl Followers {
+    fn add(&mut self, follow: Follower) -> u64 {
+        self.next += 1;
+        self.entries.push((self.next, follow));
+        self.next
+    }
+    fn remove(&mut self, id: u64) {
+        self.entries.retain(|(k, _)| *k != id);
+    }
+    fn follow(&self, design: &Design) {
+        for (_, follow) in &self.entries {
+            follow(design);
+        }
     }
 }

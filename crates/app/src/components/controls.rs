@@ -63,10 +63,9 @@ pub fn FieldProblems(
         if input_only {
             return Vec::new();
         }
-        state.settled_valid.with(|v| match v {
-            Ok(v) => v.warnings().iter().filter(|w| w.involves(field)).map(|w| w.message.clone()).collect(),
-            Err(_) => Vec::new(),
-        })
+        state
+            .settled_warnings
+            .with(|w| w.iter().filter(|w| w.involves(field)).map(|w| w.message.clone()).collect())
     });
     let caution_id = format!("{}-caution", id.strip_suffix("-error").unwrap_or(&id));
     view! {
@@ -225,7 +224,7 @@ pub(crate) fn design_field(
     integer: bool,
 ) -> impl IntoView {
     let state = expect_context::<AppState>();
-    let value = Signal::derive(move || state.settled_design.with(get));
+    let value = state.design_number(get);
     let on_commit = Callback::new(move |v: f64| state.try_edit(field, |d| set(d, v)));
     view! { <NumberField label id field quantity value on_commit min=range.0 max=range.1 integer /> }
 }
@@ -234,12 +233,12 @@ pub(crate) fn design_field(
 #[component]
 pub fn GroundPanel() -> impl IntoView {
     let state = expect_context::<AppState>();
-    let count = Memo::new(move |_| state.settled_design.with(|d| d.valley.len()));
+    let count = state.design_value(|d| d.valley.len());
     let rows = move || {
         (0..count.get())
             .map(|i| {
-                let x = Signal::derive(move || state.settled_design.with(|d| d.valley.get(i).map(|p| p.x).unwrap_or(0.0)));
-                let y = Signal::derive(move || state.settled_design.with(|d| d.valley.get(i).map(|p| p.y).unwrap_or(0.0)));
+                let x = state.design_number(move |d| d.valley.get(i).map(|p| p.x).unwrap_or(0.0));
+                let y = state.design_number(move |d| d.valley.get(i).map(|p| p.y).unwrap_or(0.0));
                 let set_x = Callback::new(move |v: f64| {
                     state.try_edit(Field::ValleyPoint(i), |d| {
                         if let Some(p) = d.valley.get_mut(i) {
@@ -382,13 +381,12 @@ fn basis_key(basis: Basis) -> &'static str {
 #[component]
 pub fn ArchPanel() -> impl IntoView {
     let state = expect_context::<AppState>();
-    let rib = move || {
-        state.settled_design.with(|d| match d.rib_system {
-            RibSystem::ThreeHinged => "three",
-            RibSystem::TwoHinged => "two",
-            RibSystem::Fixed => "fixed",
-        })
-    };
+    let rib = state.design_value(|d| match d.rib_system {
+        RibSystem::ThreeHinged => "three",
+        RibSystem::TwoHinged => "two",
+        RibSystem::Fixed => "fixed",
+    });
+    let rib = move || rib.get();
     let set_rib = move |ev: leptos::ev::Event| {
         let v = event_target_value(&ev);
         let sys = match v.as_str() {
@@ -399,14 +397,13 @@ pub fn ArchPanel() -> impl IntoView {
         // a refusal is shown beside the select (and every field it involves)
         let _ = state.try_edit(Field::RibSystem, |d| d.rib_system = sys);
     };
-    let bracing = move || {
-        state.settled_design.with(|d| match d.bracing {
-            Bracing::None => "none",
-            Bracing::Single { flipped: false } => "single",
-            Bracing::Single { flipped: true } => "flipped",
-            Bracing::Crossed => "crossed",
-        })
-    };
+    let bracing = state.design_value(|d| match d.bracing {
+        Bracing::None => "none",
+        Bracing::Single { flipped: false } => "single",
+        Bracing::Single { flipped: true } => "flipped",
+        Bracing::Crossed => "crossed",
+    });
+    let bracing = move || bracing.get();
     let set_bracing = move |ev: leptos::ev::Event| {
         let b = match event_target_value(&ev).as_str() {
             "none" => Bracing::None,
@@ -416,27 +413,27 @@ pub fn ArchPanel() -> impl IntoView {
         };
         let _ = state.try_edit(Field::Bracing, |d| d.bracing = b);
     };
-    let basis = move || state.settled_design.with(|d| basis_key(d.form.basis));
+    let basis = state.design_value(|d| basis_key(d.form.basis));
+    let basis = move || basis.get();
     let set_basis = move |ev: leptos::ev::Event| {
         let key = event_target_value(&ev);
         let chosen = Basis::ALL.into_iter().find(|b| basis_key(*b) == key).unwrap_or_default();
         let _ = state.try_edit(Field::FormBasis, |d| d.form.basis = chosen);
     };
-    let basis_words = move || {
-        state.settled_design.with(|d| {
-            let name = d.form.basis.name();
-            let mut words = format!("{}{}: {}.", name[..1].to_uppercase(), &name[1..], d.form.basis.describe());
-            if d.form.basis == Basis::AsBuilt && d.bracing.is_braced() {
-                words.push_str(
-                    " With braced spandrels the rib is freed of dead-load bending at its nodes, but the bracing, \
-                     deck and rib then share the dead load: the diagonals may carry more of it than on panel loads \
-                     (see the elevation).",
-                );
-            }
+    let basis_words = state.design_value(|d| {
+        let name = d.form.basis.name();
+        let mut words = format!("{}{}: {}.", name[..1].to_uppercase(), &name[1..], d.form.basis.describe());
+        if d.form.basis == Basis::AsBuilt && d.bracing.is_braced() {
+            words.push_str(
+                " With braced spandrels the rib is freed of dead-load bending at its nodes, but the bracing, \
+                 deck and rib then share the dead load: the diagonals may carry more of it than on panel loads \
+                 (see the elevation).",
+            );
+        }
             words
-        })
-    };
-    let crown_value = Signal::derive(move || state.settled_design.with(|d| d.rise()));
+    });
+    let basis_words = move || basis_words.get();
+    let crown_value = state.design_number(|d| d.rise());
     let set_rise = Callback::new(move |v: f64| {
         // keeps the user's choice of how the crown is given
         state.try_edit(Field::CrownRise, |d| d.set_rise(v))
@@ -569,7 +566,7 @@ pub fn SectionsPanel() -> impl IntoView {
                 .into_iter()
                 .map(|(label, what, pkey, property, q, pget, pset, range)| {
                     let field = Field::Section(group, property);
-                    let value = Signal::derive(move || state.settled_design.with(|d| pget(get(d))));
+                    let value = state.design_number(move |d| pget(get(d)));
                     let on_commit = Callback::new(move |v: f64| state.try_edit(field, |d| pset(set(d), v)));
                     view! {
                         <NumberField label spoken=format!("{name}, {what} (per rib line)") id=format!("section-{key}-{pkey}") field quantity=q value on_commit min=range.0 max=range.1 />
@@ -787,14 +784,11 @@ fn GroupSizingFields(
     let field = Field::Sizing(group);
     let key = group.key();
     // keys only: a ratio edited keeps the same fields (and focus) on screen
-    let chosen_family = Memo::new(move |_| {
-        state.settled_design.with(|d| d.sizing.group(group).family.as_ref().map_or(AS_TYPED, family_key))
-    });
-    let chosen_material =
-        Memo::new(move |_| state.settled_design.with(|d| material_key(&d.sizing.group(group).material)));
+    let chosen_family =
+        state.design_value(move |d| d.sizing.group(group).family.as_ref().map_or(AS_TYPED, family_key));
+    let chosen_material = state.design_value(move |d| material_key(&d.sizing.group(group).material));
     // the name of a material that is no preset (a design file's own values)
-    let own_name =
-        Memo::new(move |_| state.settled_design.with(|d| d.sizing.group(group).material.name().to_string()));
+    let own_name = state.design_value(move |d| d.sizing.group(group).material.name().to_string());
     // where the group's refusals show: under the input last edited ("select", a ratio's
     // key, or END_SLOT), so a message stands beside what caused it
     let edited_at = RwSignal::new(END_SLOT);
@@ -851,9 +845,8 @@ fn GroupSizingFields(
             .filter(|r| (r.get)(&family).is_some())
             .map(|r| {
                 let (get, set, slot) = (r.get, r.set, r.key);
-                let value = Signal::derive(move || {
-                    state.settled_design.with(|d| d.sizing.group(group).family.as_ref().and_then(get).unwrap_or(f64::NAN))
-                });
+                let value = state
+                    .design_number(move |d| d.sizing.group(group).family.as_ref().and_then(get).unwrap_or(f64::NAN));
                 let on_commit = Callback::new(move |v: f64| {
                     edited_at.set(slot);
                     state.try_edit(field, |d| {
@@ -878,8 +871,7 @@ fn GroupSizingFields(
         }
         .into_any()
     } else {
-        let value =
-            Signal::derive(move || state.settled_design.with(|d| d.sizing.group(group).length_factor));
+        let value = state.design_number(move |d| d.sizing.group(group).length_factor);
         let on_commit = Callback::new(move |v: f64| {
             edited_at.set(END_SLOT);
             state.try_edit(field, |d| d.sizing.group_mut(group).length_factor = v)
@@ -941,11 +933,10 @@ fn RibOutOfPlaneField(
     let field = Field::Sizing(GroupName::Rib);
     let id = "sizing-rib-out-of-plane";
     let input_error = RwSignal::new(None::<String>);
+    let length = state.design_value(|d| d.sizing.rib_out_of_plane);
     let shown = move || {
         let units = state.units.get();
-        state.settled_design.with(|d| {
-            d.sizing.rib_out_of_plane.map_or(String::new(), |l| input_text(units, Quantity::Length, l, false))
-        })
+        length.get().map_or(String::new(), |l| input_text(units, Quantity::Length, l, false))
     };
     let commit = move |text: String| {
         let length = if text.trim().is_empty() {
@@ -995,7 +986,8 @@ fn FirstOrderRibField(
 ) -> impl IntoView {
     let state = expect_context::<AppState>();
     let id = "sizing-rib-first-order";
-    let checked = move || state.settled_design.with(|d| d.sizing.rib_for_first_order);
+    let checked = state.design_value(|d| d.sizing.rib_for_first_order);
+    let checked = move || checked.get();
     let toggle = move |ev: leptos::ev::Event| {
         let on = event_target_checked(&ev);
         edited_at.set(END_SLOT);

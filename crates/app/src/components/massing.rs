@@ -25,7 +25,7 @@ fn massing_field(
     range: (f64, f64),
 ) -> impl IntoView {
     let state = expect_context::<AppState>();
-    let value = Signal::derive(move || state.settled_design.with(get));
+    let value = state.design_number(get);
     let on_commit = Callback::new(move |v: f64| state.try_edit(field, |d| set(d, v)));
     view! { <NumberField label id field quantity value on_commit min=range.0 max=range.1 shared_field=true /> }
 }
@@ -42,7 +42,7 @@ fn weight_key(weight: DeckWeight) -> &'static str {
 #[component]
 fn DeckWeightChoice() -> impl IntoView {
     let state = expect_context::<AppState>();
-    let chosen = Memo::new(move |_| state.settled_design.with(|d| weight_key(d.sizing.deck_section.weight)));
+    let chosen = state.design_value(|d| weight_key(d.sizing.deck_section.weight));
     let on_change = move |ev: leptos::ev::Event| {
         let weight = match event_target_value(&ev).as_str() {
             "cross-section" => DeckWeight::CrossSection,

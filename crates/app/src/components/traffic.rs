@@ -83,15 +83,8 @@ fn ModelValues() -> impl IntoView {
     let state = expect_context::<AppState>();
     // which numbers there are: changes with the family (or a vehicle's axle count), not
     // with every edit, so the fields are not rebuilt while a value is typed
-    let slots = Memo::new(move |_| {
-        state.settled_design.with(|d| {
-            d.traffic
-                .load_model
-                .values()
-                .into_iter()
-                .map(|v| (v.key, v.label, v.quantity))
-                .collect::<Vec<_>>()
-        })
+    let slots = state.design_value(|d| {
+        d.traffic.load_model.values().into_iter().map(|v| (v.key, v.label, v.quantity)).collect::<Vec<_>>()
     });
     let fields = move || {
         slots
@@ -100,10 +93,8 @@ fn ModelValues() -> impl IntoView {
             .map(|(key, label, quantity)| {
                 let id = format!("model-{}", key.replace(['[', ']', '.', '_'], "-").trim_end_matches('-'));
                 let read = key.clone();
-                let value = Signal::derive(move || {
-                    state.settled_design.with(|d| {
-                        d.traffic.load_model.values().into_iter().find(|v| v.key == read).map_or(0.0, |v| v.value)
-                    })
+                let value = state.design_number(move |d| {
+                    d.traffic.load_model.values().into_iter().find(|v| v.key == read).map_or(0.0, |v| v.value)
                 });
                 let on_commit = Callback::new(move |v: f64| {
                     state.try_edit(Field::LoadModel, |d| {
@@ -135,8 +126,8 @@ fn RibPositionsField() -> impl IntoView {
     let field = Field::RibPositions;
     // what is wrong with the text typed here; the engine's refusals come from the state
     let input_error = RwSignal::new(None::<String>);
-    let shown =
-        move || state.settled_design.with(|d| positions_text(state.units.get(), &d.traffic.rib_positions));
+    let positions = state.design_value(|d| d.traffic.rib_positions.clone());
+    let shown = move || positions.with(|p| positions_text(state.units.get(), p));
     let commit = move |text: String| match parse_positions(&text, state.units.get_untracked()) {
         Ok(positions) => {
             input_error.set(None);
@@ -191,7 +182,8 @@ fn RibPositionsField() -> impl IntoView {
 #[component]
 fn LoadModelField() -> impl IntoView {
     let state = expect_context::<AppState>();
-    let family = move || state.settled_design.with(|d| d.traffic.load_model.family().key());
+    let family = state.design_value(|d| d.traffic.load_model.family().key());
+    let family = move || family.get();
     let choose = move |ev: leptos::ev::Event| {
         let Some(family) = ModelFamily::from_key(&event_target_value(&ev)) else { return };
         // a refusal is shown beside the menu (and every field it involves)
@@ -233,11 +225,10 @@ fn ModelDescription() -> impl IntoView {
             d.traffic.load_model.lane_layout(d.traffic.carriageway_width, span).words.describe(units)
         }))
     };
+    let combinations = state.design_value(|d| d.traffic.combinations.clone());
     let combinations = move || {
-        state.settled_design.with(|d| {
-            d.traffic
-                .combinations
-                .iter()
+        combinations.with(|all| {
+            all.iter()
                 .map(|c| view! { <li><span class="combination-name">{c.name.clone()}</span>" — "{c.clause.clone()}</li> })
                 .collect_view()
         })
