@@ -8,7 +8,9 @@ use crate::components::controls::{FieldProblems, NumberField};
 use crate::format::{Quantity, Units};
 use crate::state::{AppState, TrafficOutcome};
 use leptos::prelude::*;
-use springline_statics::arch::actions::{ActionResult, ActionsReport, Temperature, TemperaturePreset};
+use springline_statics::arch::actions::{
+    ActionResult, ActionsReport, Braking, Temperature, TemperaturePreset,
+};
 use springline_statics::arch::design::{Design, RibSystem};
 use springline_statics::error::Field;
 use std::sync::Arc;
@@ -49,7 +51,7 @@ fn action_field(
     range: (f64, f64),
 ) -> impl IntoView {
     let state = expect_context::<AppState>();
-    let value = Signal::derive(move || state.settled_design.with(get) * scale);
+    let value = state.design_number(move |d| get(d) * scale);
     let on_commit = Callback::new(move |v: f64| state.try_edit(field, |d| set(d, v / scale)));
     view! { <NumberField label id field quantity value on_commit min=range.0 max=range.1 shared_field=true /> }
 }
@@ -148,10 +150,37 @@ pub fn action_rows(report: &ActionsReport) -> Vec<ActionRow> {
         .collect()
 }
 
-/// A value cell: the number in `units`, its SI value in `data-value`.
-fn cell(id: String, units: Units, quantity: Quantity, si: f64) -> impl IntoView {
-    let shown = units.show(quantity, if si.abs() < 1e-6 { 0.0 } else { si });
-    view! { <td class="num" id=id data-value=si.to_string()>{shown}</td> }
+/// The value cells of a row: each cell's id, quantity and SI value, in column order
+/// (the springing moments only for a fixed rib).
+fn row_cells(row: &ActionRow, fixed: bool) -> Vec<(String, Quantity, f64)> {
+    let id = &row.id;
+    let mut cells = vec![
+        (format!("action-{id}-h-left"), Quantity::Force, row.thrust.0),
+        (format!("action-{id}-h-right"), Quantity::Force, row.thrust.1),
+    ];
+    if fixed {
+        cells.push((format!("action-{id}-m-left"), Quantity::Moment, row.moment.0));
+        cells.push((format!("action-{id}-m-right"), Quantity::Moment, row.moment.1));
+    }
+    cells.push((format!("action-{id}-rib-m"), Quantity::Moment, row.rib_moment));
+    cells.push((format!("action-{id}-compression"), Quantity::Force, row.compression));
+    cells
+}
+
+/// A cell's text and `data-value`: the number in `units` (a round-off below 1e-6 shows
+/// as 0), its SI value.
+fn cell_texts(units: Units, quantity: Quantity, si: f64) -> (String, String) {
+    (units.show(quantity, if si.abs() < 1e-6 { 0.0 } else { si }), si.to_string())
+}
+
+/// The braking line: the force, its clause and its working.
+fn braking_text(units: Units, braking: &Braking) -> String {
+    format!(
+        "Braking: {} ({}). {}",
+        units.show(Quantity::Force, braking.force),
+        braking.clause,
+        braking.working
+    )
 }
 
 /// The Actions block of the results panel.
@@ -162,46 +191,50 @@ pub fn ActionsResults() -> impl IntoView {
     // not rebuild the block
     let report =
         Memo::new(move |_| state.settled_analysis.with(|a| a.as_ref().ok().map(|a| a.actions.clone())));
+    // what the table's elements depend on: whether the moments have columns and which rows
+    // there are; an edit that only changes the numbers keeps the elements, and one effect
+    // below writes the numbers that changed (rebuilding the table set every cell's
+    // attributes again, some 200 of them an edit)
+    let fixed = state.design_value(|d| d.rib_system == RibSystem::Fixed);
+    let shape = Memo::new(move |_| {
+        report.with(|r| {
+            r.as_ref().map(|r| action_rows(r).into_iter().map(|row| (row.id, row.title)).collect::<Vec<_>>())
+        })
+    });
     let body = move || {
         let units = state.units.get();
-        let fixed = state.settled_design.with(|d| d.rib_system == RibSystem::Fixed);
-        let Some(r) = report.get() else {
+        let fixed = fixed.get();
+        shape.track();
+        // the numbers as they are now; later ones come from the effect below
+        let numbers = report.with_untracked(|r| {
+            r.as_ref().map(|r| (action_rows(r), braking_text(units, &r.braking), r.braking.force))
+        });
+        let Some((rows, braking_line, braking_force)) = numbers else {
             return view! { <p class="hint">"No results for actions while the design is refused."</p> }
                 .into_any();
         };
-        let r = &r;
-        let rows = action_rows(r)
+        let rows = rows
             .into_iter()
             .map(|row| {
-                let id = row.id.clone();
-                let moments = fixed.then(|| {
-                    view! {
-                        {cell(format!("action-{id}-m-left"), units, Quantity::Moment, row.moment.0)}
-                        {cell(format!("action-{id}-m-right"), units, Quantity::Moment, row.moment.1)}
-                    }
-                });
+                let cells = row_cells(&row, fixed)
+                    .into_iter()
+                    .map(|(id, q, si)| {
+                        let (shown, data) = cell_texts(units, q, si);
+                        view! { <td class="num" id=id data-value=data>{shown}</td> }
+                    })
+                    .collect_view();
                 view! {
-                    <tr id=format!("action-{id}")>
+                    <tr id=format!("action-{}", row.id)>
                         <th scope="row">{row.title}</th>
-                        {cell(format!("action-{id}-h-left"), units, Quantity::Force, row.thrust.0)}
-                        {cell(format!("action-{id}-h-right"), units, Quantity::Force, row.thrust.1)}
-                        {moments}
-                        {cell(format!("action-{id}-rib-m"), units, Quantity::Moment, row.rib_moment)}
-                        {cell(format!("action-{id}-compression"), units, Quantity::Force, row.compression)}
+                        {cells}
                     </tr>
                 }
             })
             .collect_view();
         let moment_heads =
             fixed.then(|| view! { <th scope="col">"M left"</th><th scope="col">"M right"</th> });
-        let braking = format!(
-            "Braking: {} ({}). {}",
-            units.show(Quantity::Force, r.braking.force),
-            r.braking.clause,
-            r.braking.working
-        );
         view! {
-            <p class="hint" id="actions-braking" data-value=r.braking.force.to_string()>{braking}</p>
+            <p class="hint" id="actions-braking" data-value=braking_force.to_string()>{braking_line}</p>
             <div class="table-scroll">
             <table class="results actions" id="actions-table">
                 <thead><tr>
@@ -219,6 +252,47 @@ pub fn ActionsResults() -> impl IntoView {
         }
         .into_any()
     };
+    // the numbers of a report whose table keeps its elements: each cell's text and
+    // data-value set when they differ from what this effect wrote last (a rebuilt table
+    // holds the numbers it was built with, so writing them again is harmless)
+    // (it reads the report alone, not `shape` too: a memo read beside the memo it derives
+    // from can hide the change from the effect when the derived one stays the same)
+    Effect::new(move |written: Option<Vec<(String, String, String)>>| {
+        let units = state.units.get();
+        let fixed = fixed.get();
+        let Some(document) = web_sys::window().and_then(|w| w.document()) else { return Vec::new() };
+        report.with(|r| {
+            let Some(r) = r else { return Vec::new() };
+            let mut now: Vec<(String, String, String)> = action_rows(r)
+                .iter()
+                .flat_map(|row| row_cells(row, fixed))
+                .map(|(id, q, si)| {
+                    let (shown, data) = cell_texts(units, q, si);
+                    (id, shown, data)
+                })
+                .collect();
+            now.push((
+                "actions-braking".into(),
+                braking_text(units, &r.braking),
+                r.braking.force.to_string(),
+            ));
+            for (k, (id, shown, data)) in now.iter().enumerate() {
+                let before = written.as_ref().and_then(|w| w.get(k)).filter(|w| w.0 == *id);
+                let element = || document.get_element_by_id(id);
+                if before.is_none_or(|b| b.1 != *shown) {
+                    if let Some(el) = element() {
+                        el.set_text_content(Some(shown));
+                    }
+                }
+                if before.is_none_or(|b| b.2 != *data) {
+                    if let Some(el) = element() {
+                        let _ = el.set_attribute("data-value", data);
+                    }
+                }
+            }
+            now
+        })
+    });
     let deflection = move || {
         let units = state.units.get();
         // the report of the design the panels show only (an older one waits for its own)
