@@ -233,7 +233,7 @@ pub struct AppState {
     pub settled_size_report: Memo<SizeView>,
     /// The warnings of `settled_valid` (none when it failed), set only when they change:
     /// the many fields that show the warnings about them are not woken by every edit.
-    pub settled_warnings: RwSignal<Vec<Warning>>,
+    pub settled_warnings: Signal<Vec<Warning>>,
     /// What follows `settled_design` on its own signal ([`AppState::design_value`]).
     followers: StoredValue<Followers>,
     /// The analysis just computed for a design about to be set, so the memo does not
@@ -459,24 +459,16 @@ impl AppState {
             settled_valid,
             settled_analysis,
             settled_size_report,
-            settled_warnings,
+            settled_warnings: settled_warnings.into(),
             followers,
             checked,
         }
     }
 
     /// A number of the design as the panels show it (`settled_design`), for an input box:
-    /// a signal set only when that number changes (a NaN stays a NaN without a set). See
-    /// [`AppState::design_value`].
+    /// [`AppState::design_value`] for a number, where a NaN stays a NaN without a set.
     pub fn design_number(&self, get: impl Fn(&Design) -> f64 + Send + Sync + 'static) -> Signal<f64> {
-        let value = RwSignal::new(self.settled_design.with_untracked(&get));
-        self.follow_design(move |d| {
-            let now = get(d);
-            if value.try_with_untracked(|v| *v != now && !(v.is_nan() && now.is_nan())) == Some(true) {
-                value.set(now);
-            }
-        });
-        value.into()
+        self.design_part(get, |a, b| a == b || (a.is_nan() && b.is_nan()))
     }
 
     /// A part of the design as the panels show it (`settled_design`): a signal set only
@@ -488,10 +480,19 @@ impl AppState {
         &self,
         get: impl Fn(&Design) -> T + Send + Sync + 'static,
     ) -> Signal<T> {
+        self.design_part(get, T::eq)
+    }
+
+    /// [`AppState::design_value`] with `same` telling a part unchanged.
+    fn design_part<T: Send + Sync + 'static>(
+        &self,
+        get: impl Fn(&Design) -> T + Send + Sync + 'static,
+        same: fn(&T, &T) -> bool,
+    ) -> Signal<T> {
         let value = RwSignal::new(self.settled_design.with_untracked(&get));
         self.follow_design(move |d| {
             let now = get(d);
-            if value.try_with_untracked(|v| *v != now) == Some(true) {
+            if value.try_with_untracked(|v| !same(v, &now)) == Some(true) {
                 value.set(now);
             }
         });

@@ -278,16 +278,17 @@ pub fn ActionsResults() -> impl IntoView {
             ));
             for (k, (id, shown, data)) in now.iter().enumerate() {
                 let before = written.as_ref().and_then(|w| w.get(k)).filter(|w| w.0 == *id);
-                let element = || document.get_element_by_id(id);
-                if before.is_none_or(|b| b.1 != *shown) {
-                    if let Some(el) = element() {
-                        el.set_text_content(Some(shown));
-                    }
+                let text_changed = before.is_none_or(|b| b.1 != *shown);
+                let data_changed = before.is_none_or(|b| b.2 != *data);
+                if !(text_changed || data_changed) {
+                    continue;
                 }
-                if before.is_none_or(|b| b.2 != *data) {
-                    if let Some(el) = element() {
-                        let _ = el.set_attribute("data-value", data);
-                    }
+                let Some(el) = document.get_element_by_id(id) else { continue };
+                if text_changed {
+                    el.set_text_content(Some(shown));
+                }
+                if data_changed {
+                    let _ = el.set_attribute("data-value", data);
                 }
             }
             now
