@@ -32,6 +32,7 @@
 pub mod error;
 pub mod geom;
 pub mod json;
+pub mod order;
 pub mod tolerance;
 pub mod units;
 

@@ -138,7 +138,7 @@ fn members_in_order(a: &Analysis, kind: ModelKind) -> Vec<MemberKey> {
             (role, 0.5 * (model.nodes[m.start].x + model.nodes[m.end].x), k)
         })
         .collect();
-    order.sort_by(|p, q| p.0.cmp(&q.0).then(p.1.total_cmp(&q.1)));
+    springline_statics::order::sort_by(&mut order, |p, q| p.0.cmp(&q.0).then(p.1.total_cmp(&q.1)));
     order.into_iter().filter_map(|(_, _, k)| MemberKey::of(map, kind, k)).collect()
 }
 

@@ -615,7 +615,7 @@ pub fn pattern_case(valid: &ValidDesign, pattern: Pattern) -> Result<CaseSpec, S
 /// The joint loads (joint, kN down) of one deck load: panel reactions of the deck spans.
 fn joint_loads(f: &Layout, topo: &Topology, rib_y: &[f64], load: &DeckLoad) -> Vec<(Joint, f64)> {
     let mut spans: Vec<(Joint, Joint)> = topo.deck.iter().chain(topo.drop_in.iter()).copied().collect();
-    spans.sort_by(|p, q| position(f, rib_y, p.0).x.total_cmp(&position(f, rib_y, q.0).x));
+    crate::order::sort_by(&mut spans, |p, q| position(f, rib_y, p.0).x.total_cmp(&position(f, rib_y, q.0).x));
     let mut out = Vec::new();
     match *load {
         DeckLoad::Strip { w, x0, x1 } => {

@@ -251,12 +251,12 @@ pub fn load_path(generated: &Generated) -> Vec<usize> {
             .filter(|(_, r)| on_deck(r))
             .flat_map(|(m, _)| [m.start, m.end])
             .collect();
-        n.sort_unstable();
+        crate::order::sort_by(&mut n, Ord::cmp);
         n.dedup();
         n
     };
     let x = |node: &usize| model.nodes.get(*node).map_or(f64::NAN, |n| n.x);
-    nodes.sort_by(|a, b| x(a).total_cmp(&x(b)));
+    crate::order::sort_by(&mut nodes, |a, b| x(a).total_cmp(&x(b)));
     nodes
 }
 

@@ -257,7 +257,7 @@ fn rayleigh_ritz(
     let projected = symmetric_part(&(to_basis.tr_mul(&ars) * &to_basis));
     let ritz = eigen(projected, what)?;
     let mut order: Vec<usize> = (0..r).collect();
-    order.sort_by(|&a, &b| ritz.eigenvalues[b].total_cmp(&ritz.eigenvalues[a]));
+    crate::order::sort_by(&mut order, |&a, &b| ritz.eigenvalues[b].total_cmp(&ritz.eigenvalues[a]));
     let values: Vec<f64> = order.iter().map(|&i| ritz.eigenvalues[i]).collect();
     let q = DMatrix::from_fn(r, r, |row, c| ritz.eigenvectors[(row, order[c])]);
     // map from the kept columns of xbar to the Ritz vectors
@@ -555,7 +555,9 @@ pub(crate) fn dense(
     let decomposition = eigen(symmetric_part(&c), what)?;
     let scale = decomposition.eigenvalues.iter().fold(0.0f64, |m, v| m.max(v.abs()));
     let mut order: Vec<usize> = (0..n).collect();
-    order.sort_by(|&x, &y| decomposition.eigenvalues[y].total_cmp(&decomposition.eigenvalues[x]));
+    crate::order::sort_by(&mut order, |&x, &y| {
+        decomposition.eigenvalues[y].total_cmp(&decomposition.eigenvalues[x])
+    });
     let chosen: Vec<usize> = order
         .into_iter()
         .take_while(|&i| decomposition.eigenvalues[i] > EIGENVALUE_NOISE * scale)

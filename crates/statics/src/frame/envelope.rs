@@ -343,7 +343,7 @@ fn search_axles(x: &[f64], eta: &[f64], group: &AxleGroup, seen: &mut dyn FnMut(
             stops.push(x[k - 1] + (x[k] - x[k - 1]) * a / (a - b));
         }
     }
-    stops.sort_by(f64::total_cmp);
+    crate::order::sort_numbers(&mut stops);
     // the max with the adding axles only, then the min likewise (a clamped effect of one
     // sign never moves the other extreme)
     search_clamped(x, eta, group, &stops, Clamp::Adding, seen);
@@ -421,7 +421,7 @@ fn search_clamped(
         let mut rear_breaks: Vec<f64> = (split..group.loads.len())
             .flat_map(|j| stops.iter().map(move |&xv| xv - sense * base[j]))
             .collect();
-        rear_breaks.sort_by(f64::total_cmp);
+        crate::order::sort_numbers(&mut rear_breaks);
         rear_breaks.dedup();
         let rear_values: Vec<f64> = rear_breaks.iter().map(|&w| rear(w)).collect();
         let table = RangeExtremes::new(&rear_values);

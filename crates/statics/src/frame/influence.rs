@@ -221,7 +221,7 @@ pub fn influence_lines(
         }
         positions.extend((0..=count as usize).map(|k| x0 + k as f64 * step).filter(|&x| x <= x1 + tol));
     }
-    positions.sort_by(f64::total_cmp);
+    crate::order::sort_numbers(&mut positions);
     positions.dedup_by(|b, a| (*b - *a).abs() <= tol);
 
     let mut unit = model.clone();

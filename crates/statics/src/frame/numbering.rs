@@ -67,7 +67,7 @@ pub(crate) fn node_order(model: &Model) -> Vec<usize> {
         adj[m.end].push(m.start);
     }
     for a in &mut adj {
-        a.sort_unstable();
+        crate::order::sort_by(a, Ord::cmp);
         a.dedup();
     }
     let mut visited = vec![false; nn];
@@ -87,7 +87,7 @@ pub(crate) fn node_order(model: &Model) -> Vec<usize> {
         while let Some(v) = queue.pop_front() {
             order.push(v);
             let mut next: Vec<usize> = adj[v].iter().copied().filter(|&w| !visited[w]).collect();
-            next.sort_by_key(|&w| adj[w].len());
+            crate::order::sort_by_key(&mut next, |&w| adj[w].len());
             for w in next {
                 visited[w] = true;
                 queue.push_back(w);

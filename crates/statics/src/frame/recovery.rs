@@ -134,7 +134,7 @@ fn stations(start_actions: [f64; 3], loads: &[LocalLoad], l: f64) -> Vec<Station
         return equal.map(at).collect();
     }
     let mut positions: Vec<f64> = equal.chain(points).collect();
-    positions.sort_by(|a, b| a.total_cmp(b));
+    crate::order::sort_numbers(&mut positions);
     // a point load at a station is one station (closer than rounding of the length)
     positions.dedup_by(|a, b| (*a - *b).abs() < 1e-12 * l.max(1.0));
     positions.into_iter().map(at).collect()

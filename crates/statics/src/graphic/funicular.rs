@@ -108,7 +108,7 @@ pub fn simple_beam_moments(xa: f64, xb: f64, loads: &[VerticalLoad], at: &[f64])
         return vec![0.0; at.len()];
     }
     let mut sorted: Vec<(f64, f64)> = loads.iter().map(|q| (q.x.clamp(xa, xb), q.p)).collect();
-    sorted.sort_by(|a, b| a.0.total_cmp(&b.0));
+    crate::order::sort_by(&mut sorted, |a, b| a.0.total_cmp(&b.0));
     // before[k]: sum of P_i (x_i - x_A) over the first k loads; after[k]: of P_i (x_B - x_i)
     // over the loads from k on
     let mut before = vec![0.0; sorted.len() + 1];
@@ -254,7 +254,7 @@ pub fn three_point_inclined(
     let guess = three_point(a, b, crown_x, rise, &vertical)?;
     let l = b.x - a.x;
     let mut order: Vec<usize> = (0..loads.len()).collect();
-    order.sort_by(|&i, &j| loads[i].x.total_cmp(&loads[j].x));
+    crate::order::sort_by(&mut order, |&i, &j| loads[i].x.total_cmp(&loads[j].x));
     let sorted: Vec<NodeLoad> = order.iter().map(|&i| loads[i]).collect();
     // x at the start of each segment (A, then each load) and its length
     let xs: Vec<f64> = std::iter::once(a.x).chain(sorted.iter().map(|q| q.x)).collect();
@@ -440,7 +440,7 @@ pub fn pole_construction_inclined(
         return Err(invalid("pole", "pole height must be finite".into()));
     }
     let mut sorted: Vec<NodeLoad> = loads.to_vec();
-    sorted.sort_by(|p, q| p.x.total_cmp(&q.x));
+    crate::order::sort_by(&mut sorted, |p, q| p.x.total_cmp(&q.x));
     let mut load_line = vec![Point { x: 0.0, y: 0.0 }];
     let (mut across, mut acc) = (0.0, 0.0);
     for q in &sorted {
@@ -602,7 +602,7 @@ pub fn node_loads(model: &Model, case_name: &str) -> Result<Vec<NodeLoad>, Stati
             loads.push(NodeLoad { x: n.x, px: l.fx, p: -l.fy });
         }
     }
-    loads.sort_by(|p, q| p.x.total_cmp(&q.x));
+    crate::order::sort_by(&mut loads, |p, q| p.x.total_cmp(&q.x));
     Ok(loads)
 }
 

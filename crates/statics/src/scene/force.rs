@@ -783,7 +783,7 @@ fn signed(units: Units, n: f64) -> String {
 /// Runs of consecutive keys written "first–last": A, B, C, D -> "A–D"; 3, 4 -> "3, 4".
 /// Returns each run's text and how many names it holds.
 fn runs(mut items: Vec<(usize, String)>) -> Vec<(String, usize)> {
-    items.sort_by_key(|i| i.0);
+    crate::order::sort_by_key(&mut items, |i| i.0);
     // each run: its first and last item and how many it holds
     type Keyed = (usize, String);
     let mut found: Vec<(&Keyed, &Keyed, usize)> = Vec::new();

@@ -62,7 +62,7 @@ pub(super) fn outside_spaces(
             .map(|k| (sector_param(a_out, a_in, ray[k].1.atan2(ray[k].0)), k))
             .collect();
         // clockwise from the incoming side: decreasing anticlockwise parameter
-        here.sort_by(|x, y| y.0.total_cmp(&x.0).then(x.1.cmp(&y.1)));
+        crate::order::sort_by(&mut here, |x, y| y.0.total_cmp(&x.0).then(x.1.cmp(&y.1)));
         for (_, k) in here {
             left[k] = space_count;
             space_count += 1;
@@ -85,7 +85,7 @@ pub(super) fn outside_spaces(
 /// 3 ...: left to right by centroid; ties: higher first, then by face.
 pub(super) fn inside_faces(map: &PlanarMap) -> Vec<usize> {
     let mut inside: Vec<usize> = (0..map.faces.len()).filter(|&f| f != map.outer).collect();
-    inside.sort_by(|&a, &b| {
+    crate::order::sort_by(&mut inside, |&a, &b| {
         let (ca, cb) = (map.centroid(a), map.centroid(b));
         ca.0.total_cmp(&cb.0).then(cb.1.total_cmp(&ca.1)).then(a.cmp(&b))
     });

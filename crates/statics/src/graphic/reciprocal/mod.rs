@@ -568,7 +568,7 @@ mod tests {
                 }
             }
             // clockwise: decreasing direction angle
-            around.sort_by(|p, q| q.0.total_cmp(&p.0));
+            crate::order::sort_by(&mut around, |p, q| q.0.total_cmp(&p.0));
             for (i, this) in around.iter().enumerate() {
                 let next = &around[(i + 1) % around.len()];
                 assert_eq!(

@@ -50,7 +50,7 @@ impl PlanarMap {
             around[b].push((angle(pos[b], pos[a]), 2 * p + 1));
         }
         for list in &mut around {
-            list.sort_by(|x, y| x.0.total_cmp(&y.0));
+            crate::order::sort_by(list, |x, y| x.0.total_cmp(&y.0));
         }
         for list in &around {
             if list.windows(2).any(|w| w[1].0 - w[0].0 <= PARALLEL) {
@@ -284,7 +284,7 @@ fn cut_crossings(model: &Model, pos: &mut Vec<(f64, f64)>) -> (Vec<(usize, usize
     let mut pieces = Vec::new();
     for (m, mem) in model.members.iter().enumerate() {
         let mut c = cuts[m].clone();
-        c.sort_by(|x, y| x.0.total_cmp(&y.0));
+        crate::order::sort_by(&mut c, |x, y| x.0.total_cmp(&y.0));
         let mut prev = mem.start;
         for (_, v) in c {
             pieces.push((prev, v, m));
