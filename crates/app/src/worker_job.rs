@@ -36,7 +36,11 @@ impl Job {
         let poster = worker.clone();
         let reply = on_reply.clone();
         let on_message = Closure::<dyn FnMut(MessageEvent)>::new(move |event: MessageEvent| {
-            let parsed = event.data().as_string().and_then(|t| serde_json::from_str::<Reply>(&t).ok());
+            let parsed = event
+                .data()
+                .dyn_into::<js_sys::Uint8Array>()
+                .ok()
+                .and_then(|bytes| springline_worker::read_reply(&bytes.to_vec()));
             match parsed {
                 Some(Reply::Ready) => {
                     let _ = poster.post_message(&JsValue::from_str(&text));

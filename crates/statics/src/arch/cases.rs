@@ -136,96 +136,98 @@ pub enum Half {
     Right,
 }
 
-/// What a load case is, with the numbers that say it.
-#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
-#[serde(tag = "kind", rename_all = "snake_case")]
-pub enum CaseKind {
-    /// The dead load, which is also the form-finding load.
-    Dead,
-    /// Dead load plus a uniform traffic load on one half of the arch span.
-    HalfSpan {
-        /// Which half.
-        half: Half,
-        /// Intensity, kN/m2 over the deck width.
-        intensity: f64,
-        /// The same as a line load, kN/m.
-        line_load: f64,
-        /// Loaded from, m.
-        x0: f64,
-        /// Loaded to, m.
-        x1: f64,
-    },
-    /// Dead load plus the deck panel load again at one panel point.
-    DoubledPanel {
-        /// Panel point index.
-        panel: usize,
-        /// The extra load, kN.
-        load: f64,
-        /// Its x, m.
-        x: f64,
-    },
-    /// Dead load plus the traffic's uniform load over the whole arch span.
-    FullSpan {
-        /// The whole cross-section's uniform traffic load, kN/m.
-        line_load: f64,
-        /// Loaded from, m.
-        x0: f64,
-        /// Loaded to, m.
-        x1: f64,
-    },
-    /// Dead load plus the traffic's uniform load over one quarter of the arch span.
-    Quarter {
-        /// Which quarter, 1 (left) to 4.
-        quarter: usize,
-        /// The whole cross-section's uniform traffic load, kN/m.
-        line_load: f64,
-        /// Loaded from, m.
-        x0: f64,
-        /// Loaded to, m.
-        x1: f64,
-    },
-    /// Dead load plus the load model's vehicle (all lanes' vehicles side by side).
-    Vehicle {
-        /// x of the leading axle, m (the vehicle travels to the right, the others behind).
-        first_axle: f64,
-        /// The vehicle's total load across the section, kN.
-        total: f64,
-        /// Where the leading axle stands along the arch span, 0 (left springing) to 1.
-        along: f64,
-    },
-    /// Dead load plus the traffic placed where it gives one extreme of an envelope.
-    Placement {
-        /// The largest (true) or the smallest effect.
-        max: bool,
-    },
-    /// A uniform temperature change of every member (no dead load).
-    Temperature {
-        /// Change, K (positive warmer).
-        delta_t: f64,
-    },
-    /// The deck warmer (positive) or cooler than the rib (no dead load).
-    DeckTemperature {
-        /// The deck's change, K.
-        delta_t: f64,
-    },
-    /// The springings spread and settle (no dead load).
-    SpringingMovement {
-        /// Spread, m.
-        spread: f64,
-        /// Left settlement, m, down.
-        settlement_left: f64,
-        /// Right settlement, m, down.
-        settlement_right: f64,
-    },
-    /// Braking along the deck, to the right (no dead load).
-    Braking {
-        /// Total force, kN.
-        force: f64,
-    },
-    /// The bare rib under its own weight before posts and deck (erection stage).
-    Erection,
-    /// Any other case, built from deck loads.
-    Other,
+crate::json::tagged_in_json! {
+    tag = "kind", remote = "CaseKind";
+    /// What a load case is, with the numbers that say it.
+    #[derive(Debug, Clone, Copy, PartialEq)]
+    pub enum CaseKind {
+        /// The dead load, which is also the form-finding load.
+        Dead,
+        /// Dead load plus a uniform traffic load on one half of the arch span.
+        HalfSpan {
+            /// Which half.
+            half: Half,
+            /// Intensity, kN/m2 over the deck width.
+            intensity: f64,
+            /// The same as a line load, kN/m.
+            line_load: f64,
+            /// Loaded from, m.
+            x0: f64,
+            /// Loaded to, m.
+            x1: f64,
+        },
+        /// Dead load plus the deck panel load again at one panel point.
+        DoubledPanel {
+            /// Panel point index.
+            panel: usize,
+            /// The extra load, kN.
+            load: f64,
+            /// Its x, m.
+            x: f64,
+        },
+        /// Dead load plus the traffic's uniform load over the whole arch span.
+        FullSpan {
+            /// The whole cross-section's uniform traffic load, kN/m.
+            line_load: f64,
+            /// Loaded from, m.
+            x0: f64,
+            /// Loaded to, m.
+            x1: f64,
+        },
+        /// Dead load plus the traffic's uniform load over one quarter of the arch span.
+        Quarter {
+            /// Which quarter, 1 (left) to 4.
+            quarter: usize,
+            /// The whole cross-section's uniform traffic load, kN/m.
+            line_load: f64,
+            /// Loaded from, m.
+            x0: f64,
+            /// Loaded to, m.
+            x1: f64,
+        },
+        /// Dead load plus the load model's vehicle (all lanes' vehicles side by side).
+        Vehicle {
+            /// x of the leading axle, m (the vehicle travels to the right, the others behind).
+            first_axle: f64,
+            /// The vehicle's total load across the section, kN.
+            total: f64,
+            /// Where the leading axle stands along the arch span, 0 (left springing) to 1.
+            along: f64,
+        },
+        /// Dead load plus the traffic placed where it gives one extreme of an envelope.
+        Placement {
+            /// The largest (true) or the smallest effect.
+            max: bool,
+        },
+        /// A uniform temperature change of every member (no dead load).
+        Temperature {
+            /// Change, K (positive warmer).
+            delta_t: f64,
+        },
+        /// The deck warmer (positive) or cooler than the rib (no dead load).
+        DeckTemperature {
+            /// The deck's change, K.
+            delta_t: f64,
+        },
+        /// The springings spread and settle (no dead load).
+        SpringingMovement {
+            /// Spread, m.
+            spread: f64,
+            /// Left settlement, m, down.
+            settlement_left: f64,
+            /// Right settlement, m, down.
+            settlement_right: f64,
+        },
+        /// Braking along the deck, to the right (no dead load).
+        Braking {
+            /// Total force, kN.
+            force: f64,
+        },
+        /// The bare rib under its own weight before posts and deck (erection stage).
+        Erection,
+        /// Any other case, built from deck loads.
+        Other,
+    }
 }
 
 impl fmt::Display for CaseKind {

@@ -485,28 +485,30 @@ pub struct MemberSizing {
     pub second_order: Option<RibTrial>,
 }
 
-/// How a group came out.
-#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
-#[serde(tag = "outcome", rename_all = "snake_case")]
-pub enum GroupOutcome {
-    /// Sized in its family: the section every member of the group gets.
-    Sized {
-        /// The section in words.
-        label: String,
-        /// The family's size, m.
-        size: f64,
-        /// The section's properties.
-        props: SectionProps,
-    },
-    /// The typed section, checked.
-    AsTyped,
-    /// The design has no member of this group (no bracing, no approach piers).
-    NoMembers,
-    /// No size of the family works, or the family cannot be used: why, in words.
-    NotSized {
-        /// The reason (naming the member that cannot be sized).
-        reason: String,
-    },
+crate::json::tagged_in_json! {
+    tag = "outcome", remote = "GroupOutcome";
+    /// How a group came out.
+    #[derive(Debug, Clone, PartialEq)]
+    pub enum GroupOutcome {
+        /// Sized in its family: the section every member of the group gets.
+        Sized {
+            /// The section in words.
+            label: String,
+            /// The family's size, m.
+            size: f64,
+            /// The section's properties.
+            props: SectionProps,
+        },
+        /// The typed section, checked.
+        AsTyped,
+        /// The design has no member of this group (no bracing, no approach piers).
+        NoMembers,
+        /// No size of the family works, or the family cannot be used: why, in words.
+        NotSized {
+            /// The reason (naming the member that cannot be sized).
+            reason: String,
+        },
+    }
 }
 
 /// One group's sizing.

@@ -512,44 +512,46 @@ pub struct LaneLayout {
     pub words: LaneWords,
 }
 
-/// The numbers of a lane rule, to say it in any units.
-#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
-#[serde(tag = "kind", rename_all = "snake_case")]
-pub enum LaneWords {
-    /// EN 1991-2 notional lanes.
-    En {
-        /// Number of lanes.
-        count: usize,
-        /// Lane width, m.
-        lane_width: f64,
-        /// Carriageway width, m.
-        carriageway: f64,
-        /// Remaining area width, m.
-        remaining: f64,
-    },
-    /// AASHTO design lanes.
-    Aashto {
-        /// Number of lanes.
-        count: usize,
-        /// Carriageway width, m.
-        carriageway: f64,
-        /// Design lane width, m.
-        lane_width: f64,
-        /// Dynamic load allowance (fraction).
-        impact: f64,
-    },
-    /// A crowd.
-    Crowd {
-        /// Its intensity, kN/m2.
-        intensity: f64,
-        /// The loaded length, m (`None`: a fixed intensity).
-        loaded_length: Option<f64>,
-    },
-    /// The user's own.
-    User {
-        /// Uniform load, kN/m2.
-        uniform: f64,
-    },
+crate::json::tagged_in_json! {
+    tag = "kind", remote = "LaneWords";
+    /// The numbers of a lane rule, to say it in any units.
+    #[derive(Debug, Clone, Copy, PartialEq)]
+    pub enum LaneWords {
+        /// EN 1991-2 notional lanes.
+        En {
+            /// Number of lanes.
+            count: usize,
+            /// Lane width, m.
+            lane_width: f64,
+            /// Carriageway width, m.
+            carriageway: f64,
+            /// Remaining area width, m.
+            remaining: f64,
+        },
+        /// AASHTO design lanes.
+        Aashto {
+            /// Number of lanes.
+            count: usize,
+            /// Carriageway width, m.
+            carriageway: f64,
+            /// Design lane width, m.
+            lane_width: f64,
+            /// Dynamic load allowance (fraction).
+            impact: f64,
+        },
+        /// A crowd.
+        Crowd {
+            /// Its intensity, kN/m2.
+            intensity: f64,
+            /// The loaded length, m (`None`: a fixed intensity).
+            loaded_length: Option<f64>,
+        },
+        /// The user's own.
+        User {
+            /// Uniform load, kN/m2.
+            uniform: f64,
+        },
+    }
 }
 
 impl LaneWords {
