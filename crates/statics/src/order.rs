@@ -11,7 +11,11 @@ use std::cmp::Ordering;
 /// Sorts `items` in place by `compare`, keeping equal items in their order (a stable
 /// sort, as `slice::sort_by`). O(n log n) comparisons, one extra list of positions.
 pub fn sort_by<T>(items: &mut [T], mut compare: impl FnMut(&T, &T) -> Ordering) {
-    let order = sorted_positions(items.len(), &mut |a, b| compare(&items[a], &items[b]));
+    let order = sorted_positions(items.len(), &mut |a, b| match (items.get(a), items.get(b)) {
+        (Some(x), Some(y)) => compare(x, y),
+        // positions are 0..len: never
+        _ => Ordering::Equal,
+    });
     place(items, order);
 }
 
@@ -38,11 +42,12 @@ fn place<T>(items: &mut [T], order: Vec<usize>) {
     // destination of the item now at each position
     let mut destination = vec![0; order.len()];
     for (p, &from) in order.iter().enumerate() {
-        destination[from] = p;
+        if let Some(slot) = destination.get_mut(from) {
+            *slot = p;
+        }
     }
     for i in 0..items.len() {
-        while destination[i] != i {
-            let d = destination[i];
+        while let Some(&d) = destination.get(i).filter(|&&d| d != i) {
             items.swap(i, d);
             destination.swap(i, d);
         }
@@ -65,7 +70,7 @@ mod tests {
                 })
                 .collect();
             let mut expected = items.clone();
-            expected.sort_by(|a, b| a.0.cmp(&b.0));
+            expected.sort_by_key(|a| a.0);
             sort_by(&mut items, |a, b| a.0.cmp(&b.0));
             assert_eq!(items, expected, "n = {n}");
         }
