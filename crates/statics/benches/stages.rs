@@ -4,8 +4,12 @@
 //!
 //! - `validate_and_form`: validation, layout and form finding with the rib's self-weight
 //!   (`ValidDesign::new`);
+//! - `edit_validate_and_analyse`: what an edit on the page works out: the design
+//!   validated anew and analysed whole, the other actions' cases included (solved with the
+//!   standard cases in one factorisation of each model);
 //! - `static_cases`: every standard load case of the three models, with their figures
-//!   (`arch::analysis::analyze_valid`);
+//!   (`arch::analysis::analyze_valid`; the other actions' report is kept with the
+//!   validated design, so after the first run this is the standard cases alone);
 //! - `influence_and_envelopes`: every influence line of the frame model and its envelopes
 //!   under the design's load model and combinations (`arch::sizing::frame_traffic`);
 //! - `sizing`: every group sized from that report, with the rib's stability under its
@@ -78,6 +82,11 @@ fn stages(c: &mut Criterion) {
         let d = demo(panels);
         group.bench_function(BenchmarkId::new("validate_and_form", panels), |b| {
             b.iter(|| ValidDesign::new(black_box(&d)).expect("valid"))
+        });
+        // what an edit on the page works out: a design validated anew, then analysed whole
+        // (the action cases included)
+        group.bench_function(BenchmarkId::new("edit_validate_and_analyse", panels), |b| {
+            b.iter(|| analyze_valid(&ValidDesign::new(black_box(&d)).expect("valid")).expect("analyses"))
         });
         let (valid, generated, report, sources) = demo_sources(panels);
         group.bench_function(BenchmarkId::new("static_cases", panels), |b| {

@@ -22,10 +22,11 @@
 
 use crate::arch::cases::{add_cases, CaseKind, CaseSpec, Imposed};
 use crate::arch::design::Design;
-use crate::arch::generate::{bare_rib_model, frame_model, ModelKind};
+use crate::arch::generate::{bare_rib_model, frame_model, ModelKind, ModelMap};
 use crate::arch::summary::SpringingForce;
 use crate::arch::validate::ValidDesign;
 use crate::error::{Field, Problem, StaticsError};
+use crate::frame::results::CaseResult;
 use crate::frame::solver::solve;
 use crate::traffic::models::{LoadModel, ModelFamily};
 use serde::{Deserialize, Serialize};
@@ -422,30 +423,43 @@ pub fn action_results(valid: &ValidDesign) -> Result<ActionsReport, StaticsError
 }
 
 fn solve_actions(valid: &ValidDesign) -> Result<ActionsReport, StaticsError> {
-    let design = valid.design();
-    let specs = action_cases(design);
-    let mut out = Vec::new();
+    let specs = action_cases(valid.design());
+    let mut solved = Vec::new();
     for (kind, mut generated) in
         [(ModelKind::Frame, frame_model(valid)), (ModelKind::BareRib, bare_rib_model(valid))]
     {
-        let mine: Vec<CaseSpec> = specs
-            .iter()
-            .filter(|s| (s.kind == CaseKind::Erection) == (kind == ModelKind::BareRib))
-            .cloned()
-            .collect();
+        let mine = specs_in(&specs, kind);
         generated.model.load_cases.clear();
         add_cases(valid, &mut generated, &mine)?;
         let solution = solve(&generated.model)?;
-        for spec in &mine {
-            let Some(case) = solution.case(&spec.name) else { continue };
+        solved.push((kind, generated.map, mine, solution.cases));
+    }
+    Ok(actions_report(valid.design(), solved.iter().map(|(k, m, s, c)| (*k, m, s.as_slice(), c.as_slice()))))
+}
+
+/// The action cases of `specs` that model `kind` takes: erection in the bare rib, the
+/// others in the frame model.
+pub(crate) fn specs_in(specs: &[CaseSpec], kind: ModelKind) -> Vec<CaseSpec> {
+    specs.iter().filter(|s| (s.kind == CaseKind::Erection) == (kind == ModelKind::BareRib)).cloned().collect()
+}
+
+/// The report of the action cases solved in each model: per model its kind, its map, the
+/// cases' specs and their results (found by name; a spec without a result is left out).
+pub(crate) fn actions_report<'a>(
+    design: &Design,
+    solved: impl IntoIterator<Item = (ModelKind, &'a ModelMap, &'a [CaseSpec], &'a [CaseResult])>,
+) -> ActionsReport {
+    let mut out = Vec::new();
+    for (kind, map, specs, results) in solved {
+        for spec in specs {
+            let Some(case) = results.iter().find(|c| c.name == spec.name) else { continue };
             let side = |node: usize, left: bool| {
                 let r = case.reaction(node);
                 let (fx, fy, mz) = r.map_or((0.0, 0.0, 0.0), |r| (r.fx, r.fy, r.mz));
                 SpringingForce::from_reaction(fx, fy, mz, left)
             };
-            let [l, r] = generated.map.springings;
-            let rib_moment = generated
-                .map
+            let [l, r] = map.springings;
+            let rib_moment = map
                 .rib_members
                 .iter()
                 .filter_map(|&k| case.members.get(k))
@@ -465,11 +479,7 @@ fn solve_actions(valid: &ValidDesign) -> Result<ActionsReport, StaticsError> {
             });
         }
     }
-    Ok(ActionsReport {
-        temperature: design.actions.temperature.clone(),
-        braking: braking(design),
-        cases: out,
-    })
+    ActionsReport { temperature: design.actions.temperature.clone(), braking: braking(design), cases: out }
 }
 
 #[cfg(test)]

@@ -6,7 +6,9 @@
 //!
 //! Results are for concept design only; local codes and a licensed engineer govern.
 
-use crate::arch::actions::{action_results, braking, ActionsReport, ERECTION};
+use crate::arch::actions::{
+    action_cases, action_results, actions_report, braking, specs_in, ActionsReport, ERECTION,
+};
 use crate::arch::cases::{add_cases, standard_cases, CaseKind, CaseSpec};
 use crate::arch::design::{Design, RibSystem, Warning};
 use crate::arch::form::{Basis, Form};
@@ -341,22 +343,47 @@ struct Solved {
     rib: Generated,
     rib_solution: Solution,
     truss: Option<(Generated, DeterminacyReport, Option<Solution>)>,
+    /// The action cases' report, when they were asked for.
+    actions: Option<ActionsReport>,
 }
 
 /// `previous`: an analysis whose load cases, where the same model has them with the same
-/// loads, keep their results (`solve_reusing`).
+/// loads, keep their results (`solve_reusing`). `actions`: the action cases
+/// (`arch::actions::action_cases`), solved with the standard cases in one factorisation
+/// of each model and reported apart (the models and solutions keep the standard cases).
 fn solve_models(
     valid: &ValidDesign,
     specs: &[CaseSpec],
+    actions: Option<&[CaseSpec]>,
     previous: Option<&Analysis>,
 ) -> Result<Solved, StaticsError> {
     let mut frame = frame_model(valid);
     add_cases(valid, &mut frame, specs)?;
-    let frame_solution = solve_reusing(&frame.model, previous.map(|p| (&p.frame.model, &p.frame.solution)))?;
+    let frame_actions = actions.map(|a| specs_in(a, ModelKind::Frame)).unwrap_or_default();
+    let (frame_solution, frame_action_results) = solve_with_actions(
+        valid,
+        &mut frame,
+        &frame_actions,
+        previous.map(|p| (&p.frame.model, &p.frame.solution)),
+    )?;
     let mut rib = bare_rib_model(valid);
     add_cases(valid, &mut rib, specs)?;
-    let rib_solution =
-        solve_reusing(&rib.model, previous.map(|p| (&p.bare_rib.model, &p.bare_rib.solution)))?;
+    let rib_actions = actions.map(|a| specs_in(a, ModelKind::BareRib)).unwrap_or_default();
+    let (rib_solution, rib_action_results) = solve_with_actions(
+        valid,
+        &mut rib,
+        &rib_actions,
+        previous.map(|p| (&p.bare_rib.model, &p.bare_rib.solution)),
+    )?;
+    let actions = actions.map(|_| {
+        actions_report(
+            valid.design(),
+            [
+                (ModelKind::Frame, &frame.map, frame_actions.as_slice(), frame_action_results.as_slice()),
+                (ModelKind::BareRib, &rib.map, rib_actions.as_slice(), rib_action_results.as_slice()),
+            ],
+        )
+    });
     let truss = match truss_model(valid) {
         Some(mut truss) => {
             add_cases(valid, &mut truss, specs)?;
@@ -374,7 +401,25 @@ fn solve_models(
         }
         None => None,
     };
-    Ok(Solved { frame, frame_solution, rib, rib_solution, truss })
+    Ok(Solved { frame, frame_solution, rib, rib_solution, truss, actions })
+}
+
+/// Solves `generated`'s cases with `actions` added after them, in one factorisation
+/// (`solve_reusing`), then takes the action cases out of the model again: the solution
+/// of its own cases, and the action cases' results in `actions`' order.
+fn solve_with_actions(
+    valid: &ValidDesign,
+    generated: &mut Generated,
+    actions: &[CaseSpec],
+    previous: Option<(&Model, &Solution)>,
+) -> Result<(Solution, Vec<CaseResult>), StaticsError> {
+    let own = generated.model.load_cases.len();
+    add_cases(valid, generated, actions)?;
+    let solved = solve_reusing(&generated.model, previous);
+    generated.model.load_cases.truncate(own);
+    let mut solution = solved?;
+    let action_results = solution.cases.split_off(own.min(solution.cases.len()));
+    Ok((solution, action_results))
 }
 
 /// Solves `model`, taking the result of each load case that `previous` (a model and its
@@ -469,14 +514,21 @@ pub fn analyze_to(
     // the standard cases once (they share the traffic across the deck), then the extra
     let specs: Vec<CaseSpec> = standard_cases(valid).into_iter().chain(extra.iter().cloned()).collect();
     let contrast = stiffness_contrast(design);
-    let Solved { frame, frame_solution, rib, rib_solution, truss } = solve_models(valid, &specs, previous)
-        .map_err(|e| match (&e, &contrast) {
-            // a near-mechanism caused by the contrast: say so beside the sections
-            (StaticsError::Mechanism { .. }, Some(problem)) => StaticsError::Invalid(vec![Problem {
-                message: format!("{}; the frame model cannot be solved ({e})", problem.message),
-                ..problem.clone()
-            }]),
-            _ => e,
+    // the action cases with the standard ones, unless this validated design has them
+    let action_specs = match extent {
+        Extent::Whole if valid.actions_known().is_none() => Some(action_cases(design)),
+        Extent::Whole | Extent::Drawing { .. } => None,
+    };
+    let Solved { frame, frame_solution, rib, rib_solution, truss, actions } =
+        solve_models(valid, &specs, action_specs.as_deref(), previous).map_err(|e| {
+            match (&e, &contrast) {
+                // a near-mechanism caused by the contrast: say so beside the sections
+                (StaticsError::Mechanism { .. }, Some(problem)) => StaticsError::Invalid(vec![Problem {
+                    message: format!("{}; the frame model cannot be solved ({e})", problem.message),
+                    ..problem.clone()
+                }]),
+                _ => e,
+            }
         })?;
     let mut frame_notes = vec![ModelNote::Restraint { held_by: rs.held_by }];
     if design.rib_system == RibSystem::ThreeHinged {
@@ -595,9 +647,11 @@ pub fn analyze_to(
         bare_rib,
         residual_rib_moments: residual,
         load_cases,
-        actions: match extent {
-            Extent::Whole => action_results(valid)?,
-            Extent::Drawing { .. } => ActionsReport {
+        actions: match (actions, extent) {
+            // kept with the validated design, as `action_results` would
+            (Some(report), _) => valid.actions_or_init(|| Ok(report)).clone()?,
+            (None, Extent::Whole) => action_results(valid)?,
+            (None, Extent::Drawing { .. }) => ActionsReport {
                 temperature: design.actions.temperature.clone(),
                 braking: braking(design),
                 cases: Vec::new(),
@@ -989,6 +1043,37 @@ mod tests {
         let past = analyze_to(&valid, &vehicle, None, Extent::Drawing { shown: shown + 5 }).expect("solves");
         assert_eq!(past.load_cases.first(), whole.load_cases.first());
         assert_eq!(past.load_cases.get(shown).map(|c| c.notes.clone()), Some(vec![FigureNote::NotDrawn]));
+    }
+
+    /// The action cases solved with the standard ones (one factorisation per model) give
+    /// the report of their own separate solve, bit for bit, and the models and solutions
+    /// keep the standard cases only (check value: the engine's separate solve,
+    /// `arch::actions::action_results` on a design validated anew).
+    #[test]
+    fn action_cases_solved_with_the_standard_ones_match_their_own_solve() {
+        use crate::arch::actions::action_results;
+        use crate::arch::design::{Bracing, RibSystem};
+        for (system, bracing, panels) in [
+            (RibSystem::ThreeHinged, Bracing::Single { flipped: false }, 8),
+            (RibSystem::TwoHinged, Bracing::Crossed, 12),
+            (RibSystem::Fixed, Bracing::None, 16),
+        ] {
+            let mut d = Design::demo();
+            d.rib_system = system;
+            d.bracing = bracing;
+            d.panels = panels;
+            let shared = analyze(&d).expect("solves");
+            let separate = action_results(&ValidDesign::new(&d).expect("valid")).expect("solves");
+            assert!(separate.cases.len() >= 5, "{system:?}: {:?}", separate.cases.len());
+            assert_eq!(shared.actions, separate, "{system:?}");
+            let names: Vec<&str> = shared.load_cases.iter().map(|c| c.case.as_str()).collect();
+            for model in [&shared.frame, &shared.bare_rib] {
+                let own: Vec<&str> = model.model.load_cases.iter().map(|c| c.name.as_str()).collect();
+                let solved: Vec<&str> = model.solution.cases.iter().map(|c| c.name.as_str()).collect();
+                assert_eq!(own, solved, "{system:?}");
+                assert!(own.iter().all(|n| names.contains(n)), "{system:?}: {own:?}");
+            }
+        }
     }
 
     #[test]

@@ -66,6 +66,11 @@ impl ValidDesign {
         self.actions.0.get_or_init(compute)
     }
 
+    /// What the other actions do, if already worked out.
+    pub(crate) fn actions_known(&self) -> Option<&Result<ActionsReport, StaticsError>> {
+        self.actions.0.get()
+    }
+
     /// The design's lanes and sharing, computed by `compute` the first time only.
     pub(crate) fn lanes_or_init(
         &self,
