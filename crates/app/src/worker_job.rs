@@ -36,19 +36,18 @@ impl Job {
         let poster = worker.clone();
         let reply = on_reply.clone();
         let on_message = Closure::<dyn FnMut(MessageEvent)>::new(move |event: MessageEvent| {
-            let parsed = event
-                .data()
-                .dyn_into::<js_sys::Uint8Array>()
-                .ok()
-                .and_then(|bytes| springline_worker::read_reply(&bytes.to_vec()));
+            let parsed = match event.data().dyn_into::<js_sys::Uint8Array>() {
+                Ok(bytes) => springline_worker::read_reply(&bytes.to_vec()),
+                Err(_) => {
+                    Err("the background worker sent a reply the page cannot read; reload the page".into())
+                }
+            };
             match parsed {
-                Some(Reply::Ready) => {
+                Ok(Reply::Ready) => {
                     let _ = poster.post_message(&JsValue::from_str(&text));
                 }
-                Some(other) => reply(other),
-                None => {
-                    reply(Reply::Failed { message: "the worker sent a reply the page cannot read".into() })
-                }
+                Ok(other) => reply(other),
+                Err(message) => reply(Reply::Failed { message }),
             }
         });
         let on_error = Closure::<dyn FnMut(web_sys::Event)>::new(move |_event: web_sys::Event| {

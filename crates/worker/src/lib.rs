@@ -326,19 +326,38 @@ pub fn run_text(request: &str, post: &mut dyn FnMut(Vec<u8>)) {
     }
 }
 
-/// A reply as the bytes the worker posts (postcard; enums that JSON tags internally are
-/// tagged externally here, `springline_statics::json::tagged_in_json`).
+/// The fingerprint of this build's replies (`build.rs`: a hash of the worker's and the
+/// engine's sources): the first bytes of every reply.
+pub const WIRE: &str = env!("SPRINGLINE_WIRE");
+
+/// A reply as the bytes the worker posts: [`WIRE`], then the reply in postcard (enums
+/// that JSON tags internally are tagged externally here,
+/// `springline_statics::json::tagged_in_json`).
 pub fn reply_bytes(reply: &Reply) -> Vec<u8> {
+    let start = || WIRE.as_bytes().to_vec();
     // writing into a growable vector fails only for a sequence of unknown length, which
-    // no reply has
-    postcard::to_allocvec(reply).unwrap_or_default()
+    // no reply has; should one, the page hears why
+    postcard::to_extend(reply, start()).unwrap_or_else(|e| {
+        let failed =
+            Reply::Failed { message: format!("the background worker could not write its reply ({e})") };
+        postcard::to_extend(&failed, start()).unwrap_or_default()
+    })
 }
 
-/// A reply from the bytes the worker posted; `None` when they are not one whole reply.
-pub fn read_reply(bytes: &[u8]) -> Option<Reply> {
-    match postcard::take_from_bytes::<Reply>(bytes) {
-        Ok((reply, [])) => Some(reply),
-        _ => None,
+/// A reply from the bytes the worker posted.
+///
+/// Errors, in words for the page: bytes of another build's worker (a worker cached from
+/// before an update: postcard would misread them, so they are refused), or bytes that
+/// are not one whole reply.
+pub fn read_reply(bytes: &[u8]) -> Result<Reply, String> {
+    let Some(body) = bytes.strip_prefix(WIRE.as_bytes()) else {
+        return Err("the page's background worker is from another version of Springline (the browser kept \
+                    an old copy); reload the page"
+            .into());
+    };
+    match postcard::take_from_bytes::<Reply>(body) {
+        Ok((reply, [])) => Ok(reply),
+        _ => Err("the background worker sent a reply the page cannot read; reload the page".into()),
     }
 }
 
@@ -485,10 +504,16 @@ mod tests {
         unbounded.arch.alpha_cr = f64::INFINITY;
         unbounded.alpha_cr = f64::INFINITY;
         let bytes = reply_bytes(&Reply::Stability { outcome: Ok(unbounded.clone()) });
-        assert_eq!(read_reply(&bytes), Some(Reply::Stability { outcome: Ok(unbounded) }));
+        assert_eq!(read_reply(&bytes), Ok(Reply::Stability { outcome: Ok(unbounded) }));
         // cut short or with bytes left over: no reply
-        assert_eq!(read_reply(&bytes[..bytes.len() - 1]), None);
-        assert_eq!(read_reply(&[bytes.as_slice(), &[0]].concat()), None);
+        assert!(read_reply(&bytes[..bytes.len() - 1]).is_err_and(|e| e.contains("cannot read")));
+        assert!(read_reply(&[bytes.as_slice(), &[0]].concat()).is_err_and(|e| e.contains("cannot read")));
+        // another build's worker: refused, whatever follows
+        let mut other = bytes.clone();
+        other[0] = if other[0] == b'0' { b'1' } else { b'0' };
+        assert!(read_reply(&other).is_err_and(|e| e.contains("another version")));
+        assert_eq!(WIRE.len(), 16);
+        assert!(bytes.starts_with(WIRE.as_bytes()));
     }
 
     fn stability_of_demo() -> ArchStability {
@@ -566,7 +591,7 @@ mod tests {
         let mut out = Vec::new();
         run_text("{\"Sweep\": 3}", &mut |bytes| out.push(read_reply(&bytes)));
         assert!(
-            matches!(&out[..], [Some(Reply::Failed { message })] if message.contains("cannot read")),
+            matches!(&out[..], [Ok(Reply::Failed { message })] if message.contains("cannot read")),
             "{out:?}"
         );
         let bad = replies(&Request::Sweep { link: "nonsense".into(), axes: vec![], size: false });
