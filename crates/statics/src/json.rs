@@ -4,7 +4,7 @@
 //! `f64::INFINITY`; fields that may hold one read `null` back as it, so a report that
 //! travels as JSON comes back whole.
 //!
-//! Also [`tagged_in_json!`]: an enum internally tagged in JSON (`{"kind": "en", ...}`)
+//! Also `tagged_in_json!`: an enum internally tagged in JSON (`{"kind": "en", ...}`)
 //! and externally tagged in binary formats, which cannot read an internal tag (the
 //! background worker's replies to the page travel as postcard bytes).
 
@@ -14,7 +14,10 @@ use serde::{Deserialize, Deserializer};
 /// write internally tagged (`#[serde(tag = TAG, rename_all = "snake_case")]`) and binary
 /// formats externally tagged: a binary format (postcard) cannot read an internal tag,
 /// which needs a self-describing format. Give `tag` and `remote` (the enum's name as a
-/// string), then the enum without serde derives:
+/// string), then the enum without serde derives. Limits: unit and struct variants only
+/// (no tuple variants), names in `snake_case`, and no serde attributes on the enum, its
+/// variants or fields (they would land on the declared enum, which derives neither; and
+/// a field skipped when empty would break a binary format's positional layout):
 ///
 /// ```ignore
 /// tagged_in_json! {
@@ -43,13 +46,13 @@ macro_rules! tagged_in_json {
             use serde::{Deserialize, Deserializer, Serialize, Serializer};
 
             #[derive(Serialize, Deserialize)]
-            #[serde(remote = $remote, tag = $tag, rename_all = "snake_case")]
+            #[serde(remote = $remote, rename = $remote, tag = $tag, rename_all = "snake_case")]
             enum InJson {
                 $( $variant $({ $( $(#[$fmeta])* $field : $fty ),* })? ),*
             }
 
             #[derive(Serialize, Deserialize)]
-            #[serde(remote = $remote, rename_all = "snake_case")]
+            #[serde(remote = $remote, rename = $remote, rename_all = "snake_case")]
             enum InBinary {
                 $( $variant $({ $( $(#[$fmeta])* $field : $fty ),* })? ),*
             }
@@ -107,6 +110,33 @@ mod tests {
         assert_eq!(bytes[0], 2);
         assert!(!bytes.windows(5).any(|w| w == b"crowd"));
         assert_eq!(postcard::from_bytes::<LaneWords>(&bytes).expect("reads"), crowd);
+    }
+
+    /// The other enums declared so keep their JSON too: a case kind with and without
+    /// numbers, a group's outcome with and without fields (the command line's output).
+    #[test]
+    fn case_kinds_and_group_outcomes_keep_their_json() {
+        use crate::arch::cases::CaseKind;
+        use crate::arch::sizing::GroupOutcome;
+        let dead = serde_json::to_string(&CaseKind::Dead).expect("writes");
+        assert_eq!(dead, r#"{"kind":"dead"}"#);
+        let braking = CaseKind::Braking { force: 802.8 };
+        let text = serde_json::to_string(&braking).expect("writes");
+        assert_eq!(text, r#"{"kind":"braking","force":802.8}"#);
+        assert_eq!(serde_json::from_str::<CaseKind>(&text).expect("reads"), braking);
+        let typed = serde_json::to_string(&GroupOutcome::AsTyped).expect("writes");
+        assert_eq!(typed, r#"{"outcome":"as_typed"}"#);
+        let not = GroupOutcome::NotSized { reason: "too slender".into() };
+        let text = serde_json::to_string(&not).expect("writes");
+        assert_eq!(text, r#"{"outcome":"not_sized","reason":"too slender"}"#);
+        assert_eq!(serde_json::from_str::<GroupOutcome>(&text).expect("reads"), not);
+        // a wrong tag names the type, not the macro's helper
+        let wrong = serde_json::from_str::<CaseKind>(r#"{"force":1.0}"#).expect_err("no tag");
+        assert!(wrong.to_string().contains("kind"), "{wrong}");
+        for kind in [CaseKind::Dead, braking] {
+            let bytes = postcard::to_allocvec(&kind).expect("writes");
+            assert_eq!(postcard::from_bytes::<CaseKind>(&bytes).expect("reads"), kind);
+        }
     }
 
     /// In a binary format an infinity is itself (postcard writes every f64 bit for bit).

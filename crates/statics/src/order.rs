@@ -9,7 +9,7 @@
 use std::cmp::Ordering;
 
 /// Sorts `items` in place by `compare`, keeping equal items in their order (a stable
-/// sort, as `slice::sort_by`). O(n log n) comparisons, one extra list of positions.
+/// sort, as `slice::sort_by`). O(n log n) comparisons and one list of positions.
 pub fn sort_by<T>(items: &mut [T], mut compare: impl FnMut(&T, &T) -> Ordering) {
     let order = sorted_positions(items.len(), &mut |a, b| match (items.get(a), items.get(b)) {
         (Some(x), Some(y)) => compare(x, y),
@@ -24,7 +24,8 @@ pub fn sort_by_key<T, K: Ord>(items: &mut [T], mut key: impl FnMut(&T) -> K) {
     sort_by(items, |a, b| key(a).cmp(&key(b)));
 }
 
-/// Sorts numbers ascending by `f64::total_cmp` (NaN last, -0 before +0).
+/// Sorts numbers ascending by `f64::total_cmp` (-0 before +0; a NaN of positive sign
+/// last, of negative sign first).
 pub fn sort_numbers(values: &mut [f64]) {
     sort_by(values, f64::total_cmp);
 }
@@ -36,20 +37,25 @@ fn sorted_positions(n: usize, compare: &mut dyn FnMut(usize, usize) -> Ordering)
     order
 }
 
-/// Moves the item at `order[p]` to position `p` for every `p`, by following each cycle of
-/// the permutation with swaps (no copies of the items).
-fn place<T>(items: &mut [T], order: Vec<usize>) {
-    // destination of the item now at each position
-    let mut destination = vec![0; order.len()];
-    for (p, &from) in order.iter().enumerate() {
-        if let Some(slot) = destination.get_mut(from) {
-            *slot = p;
-        }
-    }
-    for i in 0..items.len() {
-        while let Some(&d) = destination.get(i).filter(|&&d| d != i) {
-            items.swap(i, d);
-            destination.swap(i, d);
+/// Moves the item at `order[p]` to position `p` for every `p`, one cycle of the
+/// permutation at a time with swaps (no copies of the items; `order` is used up).
+fn place<T>(items: &mut [T], mut order: Vec<usize>) {
+    for start in 0..order.len() {
+        let mut at = start;
+        // `order[at] == at` marks a position done (or an item already in place)
+        while let Some(&from) = order.get(at).filter(|&&from| from != at) {
+            if from == start {
+                // the cycle closes: the item that started it is here already
+                if let Some(slot) = order.get_mut(at) {
+                    *slot = at;
+                }
+                break;
+            }
+            items.swap(at, from);
+            if let Some(slot) = order.get_mut(at) {
+                *slot = at;
+            }
+            at = from;
         }
     }
 }
@@ -77,7 +83,7 @@ mod tests {
     }
 
     #[test]
-    fn moves_items_without_copying_them() {
+    fn sorts_items_that_are_not_copy() {
         let mut words: Vec<String> = ["pier", "arch", "deck", "post", "arch"].map(String::from).to_vec();
         sort_by_key(&mut words, |w| w.clone());
         assert_eq!(words, ["arch", "arch", "deck", "pier", "post"]);

@@ -417,7 +417,9 @@ pub struct ActionsReport {
 /// Errors: those of the solver (a model that cannot stand) and of a case that cannot be
 /// built (a value that is not finite).
 ///
-/// Worked out once per validated design and kept with it (a clone is returned).
+/// Worked out once per validated design and kept with it (a clone is returned); a whole
+/// analysis of the design (`arch::analysis::analyze_to`) works it out with its own cases
+/// and keeps it likewise.
 pub fn action_results(valid: &ValidDesign) -> Result<ActionsReport, StaticsError> {
     valid.actions_or_init(|| solve_actions(valid)).clone()
 }

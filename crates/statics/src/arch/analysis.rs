@@ -406,7 +406,9 @@ fn solve_models(
 
 /// Solves `generated`'s cases with `actions` added after them, in one factorisation
 /// (`solve_reusing`), then takes the action cases out of the model again: the solution
-/// of its own cases, and the action cases' results in `actions`' order.
+/// of its own cases, and the action cases' results in `actions`' order. An action case
+/// the model already has (one picked to be shown, an extra case of the analysis) is not
+/// added again: its result is the model's own.
 fn solve_with_actions(
     valid: &ValidDesign,
     generated: &mut Generated,
@@ -414,11 +416,20 @@ fn solve_with_actions(
     previous: Option<(&Model, &Solution)>,
 ) -> Result<(Solution, Vec<CaseResult>), StaticsError> {
     let own = generated.model.load_cases.len();
-    add_cases(valid, generated, actions)?;
+    let new: Vec<CaseSpec> = actions
+        .iter()
+        .filter(|a| !generated.model.load_cases.iter().any(|c| c.name == a.name))
+        .cloned()
+        .collect();
+    add_cases(valid, generated, &new)?;
     let solved = solve_reusing(&generated.model, previous);
     generated.model.load_cases.truncate(own);
     let mut solution = solved?;
-    let action_results = solution.cases.split_off(own.min(solution.cases.len()));
+    let added = solution.cases.split_off(own.min(solution.cases.len()));
+    let action_results = actions
+        .iter()
+        .filter_map(|a| added.iter().chain(&solution.cases).find(|c| c.name == a.name).cloned())
+        .collect();
     Ok((solution, action_results))
 }
 
@@ -500,8 +511,10 @@ pub fn analyze_reusing(
 /// drag redraws on every pointer move; the panels read a whole analysis). Figures marked
 /// [`FigureNote::NotDrawn`] in `previous` are never reused.
 ///
-/// Errors: those of [`analyze_with`] (with `Drawing`, not those of the action cases'
-/// separate solve: the same models, already solved for the standard cases).
+/// Errors: those of [`analyze_with`]. With `Whole` the action cases are solved with the
+/// standard ones (one factorisation per model) unless `valid` already holds their report,
+/// so a problem in one of them (a load that is not finite) is reported with the standard
+/// cases' problems; with `Drawing` they are not solved and never fail.
 pub fn analyze_to(
     valid: &ValidDesign,
     extra: &[CaseSpec],
@@ -1074,6 +1087,25 @@ mod tests {
                 assert!(own.iter().all(|n| names.contains(n)), "{system:?}: {own:?}");
             }
         }
+        // the report is kept with the validated design: a second analysis solves no
+        // action case again and reports the same
+        let d = Design::demo();
+        let valid = ValidDesign::new(&d).expect("valid");
+        assert!(valid.actions_known().is_none());
+        let whole = analyze_valid(&valid).expect("solves");
+        assert_eq!(valid.actions_known(), Some(&Ok(whole.actions.clone())));
+        assert_eq!(analyze_valid(&valid).expect("solves"), whole);
+        // with a previous analysis of the same design (its cases reused), the same
+        let fresh = ValidDesign::new(&d).expect("valid");
+        assert_eq!(analyze_reusing(&fresh, &[], Some(&whole)).expect("solves"), whole);
+        // an action case picked to be shown is in the model once, and the report is as
+        // without it
+        let picked = action_cases(&d).into_iter().next().expect("an action case");
+        let fresh = ValidDesign::new(&d).expect("valid");
+        let shown = analyze_with(&fresh, std::slice::from_ref(&picked)).expect("solves");
+        assert_eq!(shown.actions, whole.actions);
+        let times = shown.frame.model.load_cases.iter().filter(|c| c.name == picked.name).count();
+        assert_eq!(times, 1, "{}", picked.name);
     }
 
     #[test]

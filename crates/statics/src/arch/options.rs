@@ -132,7 +132,9 @@ fn fill(design: &Design, size: bool, n: &mut KeyNumbers) -> Result<(), StaticsEr
         n.steel = Some(quantities.steel);
         n.concrete = Some(quantities.concrete);
         n.cost_index = Some(quantities.cost_index);
-        n.alpha_cr = sizing.rib_alpha_cr;
+        // nothing bounds it (infinite): none found, as the field says (a sweep's chart and
+        // tables take only numbers)
+        n.alpha_cr = sizing.rib_alpha_cr.filter(|a| a.is_finite());
         let not_sized = sizing.not_sized();
         if !not_sized.is_empty() {
             return Err(StaticsError::Invalid(vec![Problem::new(

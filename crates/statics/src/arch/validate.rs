@@ -29,8 +29,9 @@ pub struct ValidDesign {
     /// use (`arch::traffic::traffic_of`): every traffic case and envelope of the design
     /// needs them, and a vehicle dragged along the deck asks on every move.
     lanes: Derived<(LaneLayout, Sharing)>,
-    /// What each of the other actions does alone (`arch::actions::action_results`), worked
-    /// out once: it depends on the design alone, not on the cases an analysis adds.
+    /// What each of the other actions does alone (`arch::actions::action_results`, or a
+    /// whole analysis, which solves their cases with its own), worked out once: it depends
+    /// on the design alone, not on the cases an analysis adds.
     actions: Derived<Result<ActionsReport, StaticsError>>,
 }
 
