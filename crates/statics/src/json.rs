@@ -98,7 +98,10 @@ mod tests {
 
     /// An enum declared with `tagged_in_json!` keeps its JSON form (the command line's
     /// output and the design file do not change) and travels through postcard, which
-    /// cannot read an internal tag, whole.
+    /// cannot read an internal tag, whole. Check values: the JSON the derive with
+    /// `#[serde(tag = "kind")]` wrote before (serde's internally tagged representation),
+    /// and postcard's wire format (specification: an enum is its variant index as a
+    /// varint, then its fields).
     #[test]
     fn tagged_in_json_is_internally_tagged_in_json_only() {
         let crowd = LaneWords::Crowd { intensity: 5.0, loaded_length: Some(152.5) };
@@ -113,7 +116,8 @@ mod tests {
     }
 
     /// The other enums declared so keep their JSON too: a case kind with and without
-    /// numbers, a group's outcome with and without fields (the command line's output).
+    /// numbers, a group's outcome with and without fields (check values: the command
+    /// line's output before the change, serde's internally tagged representation).
     #[test]
     fn case_kinds_and_group_outcomes_keep_their_json() {
         use crate::arch::cases::CaseKind;

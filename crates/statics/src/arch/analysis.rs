@@ -358,21 +358,19 @@ fn solve_models(
     previous: Option<&Analysis>,
 ) -> Result<Solved, StaticsError> {
     let mut frame = frame_model(valid);
-    add_cases(valid, &mut frame, specs)?;
-    let frame_actions = actions.map(|a| specs_in(a, ModelKind::Frame)).unwrap_or_default();
-    let (frame_solution, frame_action_results) = solve_with_actions(
+    let (frame_solution, frame_actions, frame_action_results) = solve_with_actions(
         valid,
         &mut frame,
-        &frame_actions,
+        specs,
+        actions,
         previous.map(|p| (&p.frame.model, &p.frame.solution)),
     )?;
     let mut rib = bare_rib_model(valid);
-    add_cases(valid, &mut rib, specs)?;
-    let rib_actions = actions.map(|a| specs_in(a, ModelKind::BareRib)).unwrap_or_default();
-    let (rib_solution, rib_action_results) = solve_with_actions(
+    let (rib_solution, rib_actions, rib_action_results) = solve_with_actions(
         valid,
         &mut rib,
-        &rib_actions,
+        specs,
+        actions,
         previous.map(|p| (&p.bare_rib.model, &p.bare_rib.solution)),
     )?;
     let actions = actions.map(|_| {
@@ -404,17 +402,21 @@ fn solve_models(
     Ok(Solved { frame, frame_solution, rib, rib_solution, truss, actions })
 }
 
-/// Solves `generated`'s cases with `actions` added after them, in one factorisation
-/// (`solve_reusing`), then takes the action cases out of the model again: the solution
-/// of its own cases, and the action cases' results in `actions`' order. An action case
-/// the model already has (one picked to be shown, an extra case of the analysis) is not
-/// added again: its result is the model's own.
+/// Adds `specs` to `generated` and solves them with the action cases this model takes
+/// (`arch::actions::specs_in`) added after them, in one factorisation (`solve_reusing`),
+/// then takes the action cases out of the model again: the solution of its own cases,
+/// the action cases it took and their results, in that order. An action case the model
+/// already has (one picked to be shown, an extra case of the analysis) is not added
+/// again: its result is the model's own.
 fn solve_with_actions(
     valid: &ValidDesign,
     generated: &mut Generated,
-    actions: &[CaseSpec],
+    specs: &[CaseSpec],
+    actions: Option<&[CaseSpec]>,
     previous: Option<(&Model, &Solution)>,
-) -> Result<(Solution, Vec<CaseResult>), StaticsError> {
+) -> Result<(Solution, Vec<CaseSpec>, Vec<CaseResult>), StaticsError> {
+    add_cases(valid, generated, specs)?;
+    let actions = actions.map(|a| specs_in(a, generated.kind)).unwrap_or_default();
     let own = generated.model.load_cases.len();
     let new: Vec<CaseSpec> = actions
         .iter()
@@ -430,7 +432,7 @@ fn solve_with_actions(
         .iter()
         .filter_map(|a| added.iter().chain(&solution.cases).find(|c| c.name == a.name).cloned())
         .collect();
-    Ok((solution, action_results))
+    Ok((solution, actions, action_results))
 }
 
 /// Solves `model`, taking the result of each load case that `previous` (a model and its

@@ -404,7 +404,7 @@ pub(crate) fn iterate(
                     Some(k) if k + 1 == seen.len() => topo,
                     Some(k) => {
                         let mut union: Vec<usize> = seen.iter().skip(k).flatten().copied().collect();
-                        crate::order::sort_by(&mut union, Ord::cmp);
+                        union.sort_unstable();
                         union.dedup();
                         frozen = Some(union.clone());
                         Topology::with_shared(frame, union)

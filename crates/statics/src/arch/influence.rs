@@ -251,7 +251,7 @@ pub fn load_path(generated: &Generated) -> Vec<usize> {
             .filter(|(_, r)| on_deck(r))
             .flat_map(|(m, _)| [m.start, m.end])
             .collect();
-        crate::order::sort_by(&mut n, Ord::cmp);
+        n.sort_unstable();
         n.dedup();
         n
     };

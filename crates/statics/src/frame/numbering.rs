@@ -67,7 +67,7 @@ pub(crate) fn node_order(model: &Model) -> Vec<usize> {
         adj[m.end].push(m.start);
     }
     for a in &mut adj {
-        crate::order::sort_by(a, Ord::cmp);
+        a.sort_unstable();
         a.dedup();
     }
     let mut visited = vec![false; nn];
