@@ -120,14 +120,14 @@ fn dragging_the_figure_pans_it() {
 }
 
 /// Resting the pointer on a space label shows its full list (the canvas's title): the
-/// labels and their hover texts are published in `data-labels`.
+/// labels and their hover texts are published (`window.springlineLabels`).
 #[test]
 fn a_space_label_shows_its_full_list_on_hover() {
     let server = StaticServer::start(&dist());
     let driver = Driver::start();
     let s = driver.session(1500, 1000, 1.0);
     open(&s, &server);
-    let labels = s.exec("return JSON.parse(document.getElementById('forces').dataset.labels);", vec![]);
+    let labels = s.exec("return JSON.parse(window.springlineLabels('forces'));", vec![]);
     let label = labels
         .as_array()
         .cloned()
@@ -194,7 +194,7 @@ fn every_force_label_fits_its_box_as_the_browser_measures_it() {
     let s = driver.session(1500, 1000, 1.0);
     open(&s, &server);
     let measure = "const c = document.getElementById('forces'); const ctx = c.getContext('2d');
-         return JSON.parse(c.dataset.labels).map(l => { ctx.font = l.font; return [l.text, ctx.measureText(l.text).width, l.w, l.pad]; });";
+         return JSON.parse(window.springlineLabels('forces')).map(l => { ctx.font = l.font; return [l.text, ctx.measureText(l.text).width, l.w, l.pad]; });";
     let check = |s: &Session| {
         let rows = s.exec(measure, vec![]);
         let rows = rows.as_array().cloned().unwrap_or_default();
@@ -218,14 +218,14 @@ fn every_force_label_fits_its_box_as_the_browser_measures_it() {
         assert!(too_wide.is_empty(), "labels wider than their boxes: {too_wide:#?}");
     };
     check(&s);
-    let before = s.exec("return document.getElementById('forces').dataset.labels;", vec![]);
+    let before = s.exec("return window.springlineLabels('forces');", vec![]);
     s.exec(
         "[...document.querySelectorAll('button')].find(b => b.textContent.includes('units')).click();",
         vec![],
     );
     s.wait_for(
         "the labels in the other units",
-        &format!("return document.getElementById('forces').dataset.labels !== {};", before),
+        &format!("return window.springlineLabels('forces') !== {};", before),
         WAIT,
     );
     check(&s);

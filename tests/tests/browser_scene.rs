@@ -20,8 +20,9 @@ use springline_tests::webdriver::{Driver, Session};
 fn label_faults(s: &Session, id: &str) -> (Option<usize>, Vec<String>) {
     let v = s.exec(
         "const c = document.getElementById(arguments[0]);
-         if (!c || !c.dataset.labels) return null;
-         const labels = JSON.parse(c.dataset.labels);
+         const published = window.springlineLabels && window.springlineLabels(arguments[0]);
+         if (!c || !published) return null;
+         const labels = JSON.parse(published);
          const ctx = c.getContext('2d');
          const faults = [];
          const W = c.clientWidth, H = c.clientHeight;
@@ -62,7 +63,7 @@ fn every_label_fits_the_box_the_scene_gave_it_at_three_window_sizes() {
             s.wait_for(
                 "the elevation redrawn",
                 &format!(
-                    "return (document.getElementById('elevation').dataset.labels || '').includes({});",
+                    "return (window.springlineLabels('elevation') || '').includes({});",
                     json!(if model == "model-frame" { "frame model" } else { "truss idealisation" })
                 ),
                 WAIT,

@@ -90,7 +90,7 @@ fn the_sizes_view_shows_the_engines_report_and_its_sizes_can_be_used_and_undone(
     s.wait_for(
         "the left block's label on the elevation",
         &format!(
-            "const l = JSON.parse(document.getElementById('elevation').dataset.labels || '[]');
+            "const l = JSON.parse(window.springlineLabels('elevation') || '[]');
              return l.some(x => x.text.startsWith({w}) || (x.detail || '').startsWith({w}));",
             w = json!(words)
         ),

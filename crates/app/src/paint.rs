@@ -1,7 +1,8 @@
-//! Paints a [`Scene`] on a canvas and publishes on the element what tests and assistive
-//! tools need: the world transform (`data-scale`, `data-origin-x`, `data-origin-y`,
-//! `data-world-unit`) and every label's text, box and font (`data-labels`, JSON), so a
-//! browser test can measure each text with the canvas and compare it with its box.
+//! Paints a [`Scene`] on a canvas and publishes what tests and assistive tools need: on
+//! the element, the world transform (`data-scale`, `data-origin-x`, `data-origin-y`,
+//! `data-world-unit`); on asking, every label's text, box and font
+//! (`window.springlineLabels(id)`, JSON), so a browser test can measure each text with the
+//! canvas and compare it with its box.
 //!
 //! The scene says everything (geometry, inks, patterns, placed labels); this module only
 //! turns it into canvas calls. Colours come from `Ink::css`.
@@ -9,6 +10,7 @@
 use crate::canvas::{self, Surface};
 use springline_statics::scene::place::PAD_X;
 use springline_statics::scene::{Ink, Item, Label, Pattern, Px, Rect, Scene, Shape, Stroke, TextSize};
+use std::cell::{Cell, RefCell};
 use web_sys::{CanvasRenderingContext2d, HtmlCanvasElement};
 
 /// Paints `scene` on `canvas` (sharp at the device pixel ratio) and publishes its
@@ -65,6 +67,7 @@ pub fn paint(canvas: &HtmlCanvasElement, scene: &Scene) {
         }
     }
     publish(canvas, scene);
+    keep_labels(canvas, scene);
 }
 
 /// Every text size, in the order their labels are painted (a test checks each appears
@@ -252,10 +255,8 @@ fn json_string(s: &str) -> String {
     out
 }
 
-/// Writes the scene's transform and labels on the element: data-scale, data-origin-x,
-/// data-origin-y (CSS px; removed when the scene draws no world), data-world-unit, and
-/// data-labels (JSON: text, hover detail, box, padding and font of every label, so a test
-/// can measure the text against its box).
+/// Writes the scene's transform on the element: data-scale, data-origin-x, data-origin-y
+/// (CSS px; removed when the scene draws no world) and data-world-unit.
 fn publish(canvas: &HtmlCanvasElement, scene: &Scene) {
     match scene.transform {
         Some(t) => {
@@ -270,8 +271,49 @@ fn publish(canvas: &HtmlCanvasElement, scene: &Scene) {
         }
     }
     let _ = canvas.set_attribute("data-world-unit", scene.world_unit);
-    let labels: Vec<String> = scene
-        .labels
+}
+
+thread_local! {
+    /// The labels last painted on each canvas with an id (id, labels). Kept rather than
+    /// written on the element as JSON: writing it out cost about half a millisecond of
+    /// every edit (a Chromium profile of a panel-count edit), and only a test reads it.
+    static PAINTED_LABELS: RefCell<Vec<(String, Vec<Label>)>> = const { RefCell::new(Vec::new()) };
+    /// Whether `window.springlineLabels` is installed.
+    static LABEL_READER: Cell<bool> = const { Cell::new(false) };
+}
+
+/// Keeps `scene`'s labels as the last painted on `canvas` (when it has an id) and, the
+/// first time, installs `window.springlineLabels(id)`: the JSON array of the labels last
+/// painted on the canvas `id` (text, hover detail, box, padding and font of each), or
+/// `undefined` before any.
+fn keep_labels(canvas: &HtmlCanvasElement, scene: &Scene) {
+    let id = canvas.id();
+    if id.is_empty() {
+        return;
+    }
+    PAINTED_LABELS.with(|kept| {
+        let mut kept = kept.borrow_mut();
+        match kept.iter_mut().find(|(k, _)| *k == id) {
+            Some((_, labels)) => labels.clone_from(&scene.labels),
+            None => kept.push((id, scene.labels.clone())),
+        }
+    });
+    if LABEL_READER.with(|installed| installed.replace(true)) {
+        return;
+    }
+    let read = wasm_bindgen::closure::Closure::<dyn Fn(String) -> Option<String>>::new(|id: String| {
+        PAINTED_LABELS.with(|kept| kept.borrow().iter().find(|(k, _)| *k == id).map(|(_, l)| labels_json(l)))
+    });
+    if let Some(w) = web_sys::window() {
+        let _ = js_sys::Reflect::set(&w, &"springlineLabels".into(), read.as_ref());
+    }
+    // the page's canvases live as long as the page: the reader is kept for good
+    read.forget();
+}
+
+/// The JSON array of `labels`: text, hover detail, box (CSS px), padding and font of each.
+fn labels_json(labels: &[Label]) -> String {
+    let labels: Vec<String> = labels
         .iter()
         .map(|l| {
             format!(
@@ -287,7 +329,7 @@ fn publish(canvas: &HtmlCanvasElement, scene: &Scene) {
             )
         })
         .collect();
-    let _ = canvas.set_attribute("data-labels", &format!("[{}]", labels.join(",")));
+    format!("[{}]", labels.join(","))
 }
 
 /// The member (tag) of the scene's member line nearest to `at` (CSS pixels) within
