@@ -81,8 +81,10 @@ struct Pen {
     stroke: Option<&'static str>,
     fill: Option<&'static str>,
     width: Option<f64>,
-    /// The pattern and width the dashes were made for (`None`: unknown).
-    dashes: Option<(Pattern, f64)>,
+    /// The dash pattern set and its lengths (`None`: unknown). Kept by length, not by
+    /// line width: solid lines of every width share one setting, and a line weight that
+    /// follows the force gives nearly every member its own width.
+    dashes: Option<(Pattern, Vec<f64>)>,
     font: Option<&'static str>,
 }
 
@@ -107,17 +109,18 @@ impl Pen {
     }
     /// The dash pattern (and its caps) of `pattern` at `width`.
     fn pattern(&mut self, ctx: &CanvasRenderingContext2d, pattern: Pattern, width: f64) {
-        if self.dashes == Some((pattern, width)) {
+        let lengths = pattern.dashes(width);
+        if self.dashes.as_ref().is_some_and(|(p, l)| *p == pattern && *l == lengths) {
             return;
         }
         let dashes = js_sys::Array::new();
-        for d in pattern.dashes(width) {
-            dashes.push(&d.into());
+        for d in &lengths {
+            dashes.push(&(*d).into());
         }
         let _ = ctx.set_line_dash(&dashes);
         // dots read as dots with round caps; dashes keep square ends
         ctx.set_line_cap(if matches!(pattern, Pattern::Dotted) { "round" } else { "butt" });
-        self.dashes = Some((pattern, width));
+        self.dashes = Some((pattern, lengths));
     }
     fn font(&mut self, ctx: &CanvasRenderingContext2d, font: &'static str) {
         if self.font != Some(font) {

@@ -339,13 +339,16 @@ impl AppState {
         // a point or the vehicle is being dragged (tracked)
         let moving = move || dragging.get() || vehicle_dragging.get();
         let case = RwSignal::new(0usize);
-        let valid = Memo::new(move |_| {
+        let valid = Memo::new(move |shown: Option<&Validated>| {
             design.with(|d| {
                 let cached =
                     checked.with_value(|c| c.as_ref().filter(|(cd, ..)| cd == d).map(|(_, v, ..)| v.clone()));
                 match cached {
                     Some(v) => Ok(v),
-                    None => timed(Step::Compute, || ValidDesign::new(d).map(Arc::new)),
+                    None => {
+                        let previous = shown.and_then(|v| v.as_ref().ok()).map(|v| &**v);
+                        timed(Step::Compute, || ValidDesign::new_after(d, previous).map(Arc::new))
+                    }
                 }
             })
         });
@@ -532,8 +535,10 @@ impl AppState {
     pub fn check(&self, design: &Design) -> Result<(), StaticsError> {
         let x = self.vehicle.get_untracked();
         let extent = extent_of(self.moving_untracked(), || self.case.get_untracked());
+        // the design on screen, whose lanes the new one may share
+        let previous = self.valid.get_untracked().ok();
         let (valid, analysis) = timed(Step::Compute, || {
-            let valid = ValidDesign::new(design)?;
+            let valid = ValidDesign::new_after(design, previous.as_deref())?;
             let analysis = analyse(&valid, x, &[], None, extent)?;
             Ok::<_, StaticsError>((valid, analysis))
         })?;

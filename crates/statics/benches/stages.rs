@@ -5,8 +5,10 @@
 //! - `validate_and_form`: validation, layout and form finding with the rib's self-weight
 //!   (`ValidDesign::new`);
 //! - `edit_validate_and_analyse`: what an edit on the page works out: the design
-//!   validated anew and analysed whole, the other actions' cases included (solved with the
-//!   standard cases in one factorisation of each model);
+//!   validated anew after the one on screen (`ValidDesign::new_after`: the lanes taken
+//!   over when the traffic's inputs are unchanged, as for a panel-count edit) and analysed
+//!   whole, the other actions' cases included (solved with the standard cases in one
+//!   factorisation of each model);
 //! - `static_cases`: every standard load case of the three models, with their figures
 //!   (`arch::analysis::analyze_valid`; the other actions' report is kept with the
 //!   validated design, so after the first run this is the standard cases alone);
@@ -83,10 +85,16 @@ fn stages(c: &mut Criterion) {
         group.bench_function(BenchmarkId::new("validate_and_form", panels), |b| {
             b.iter(|| ValidDesign::new(black_box(&d)).expect("valid"))
         });
-        // what an edit on the page works out: a design validated anew, then analysed whole
+        // what an edit on the page works out: a design validated anew after the one on
+        // screen (two panels more, analysed: its lanes are taken over), then analysed whole
         // (the action cases included)
+        let on_screen = ValidDesign::new(&demo(panels + 2)).expect("valid");
+        analyze_valid(&on_screen).expect("analyses");
         group.bench_function(BenchmarkId::new("edit_validate_and_analyse", panels), |b| {
-            b.iter(|| analyze_valid(&ValidDesign::new(black_box(&d)).expect("valid")).expect("analyses"))
+            b.iter(|| {
+                let valid = ValidDesign::new_after(black_box(&d), Some(&on_screen)).expect("valid");
+                analyze_valid(&valid).expect("analyses")
+            })
         });
         let (valid, generated, report, sources) = demo_sources(panels);
         group.bench_function(BenchmarkId::new("static_cases", panels), |b| {

@@ -25,7 +25,7 @@ use crate::frame::model::Model;
 use crate::frame::results::CaseResult;
 use crate::frame::solver::{solve, Solution};
 use crate::graphic::funicular::{rib_funicular, RibFunicular};
-use crate::graphic::reciprocal::{force_diagram, ForceDiagram};
+use crate::graphic::reciprocal::{ForceDiagram, FormMap};
 use crate::graphic::thrust_line::{thrust_line, ThrustLine};
 use crate::tolerance::{ILL_CONDITIONED, STIFFNESS_CONTRAST, ZERO_FORCE};
 use serde::Serialize;
@@ -572,7 +572,7 @@ pub fn analyze_to(
     cases.extend(specs.into_iter().map(|s| (s.name, s.kind)));
     let figures = Figures {
         frame: (&frame.model, &frame.map, &frame_solution),
-        truss: truss.as_ref().map(|t| (&t.model, t.solution.as_ref())),
+        truss: truss.as_ref().map(|t| (&t.model, t.solution.as_ref(), FormMap::new(&t.model))),
         rib: (&rib.model, &rib.map, &rib_solution),
     };
     let previous = previous.filter(|p| same_models(p, &figures));
@@ -678,7 +678,8 @@ pub fn analyze_to(
 /// The solved models a case's figures are drawn from.
 struct Figures<'a> {
     frame: (&'a Model, &'a ModelMap, &'a Solution),
-    truss: Option<(&'a Model, Option<&'a Solution>)>,
+    /// The truss idealisation: its model, solution and form diagram (shared by its cases).
+    truss: Option<(&'a Model, Option<&'a Solution>, FormMap<'a>)>,
     rib: (&'a Model, &'a ModelMap, &'a Solution),
 }
 
@@ -687,9 +688,9 @@ struct Figures<'a> {
 fn same_models(previous: &Analysis, figures: &Figures) -> bool {
     let same =
         |a: &Model, b: &Model| a.nodes == b.nodes && a.members == b.members && a.supports == b.supports;
-    let truss_same = match (&previous.truss, figures.truss) {
+    let truss_same = match (&previous.truss, &figures.truss) {
         (None, None) => true,
-        (Some(t), Some((model, _))) => same(&t.model, model),
+        (Some(t), Some((model, ..))) => same(&t.model, model),
         _ => false,
     };
     same(&previous.frame.model, figures.frame.0)
@@ -703,10 +704,10 @@ fn same_case(previous: &Analysis, figures: &Figures, name: &str) -> bool {
     let frame = previous.frame.solution.case(name) == figures.frame.2.case(name);
     let rib = previous.bare_rib.solution.case(name) == figures.rib.2.case(name);
     let old_truss = previous.truss.as_ref().and_then(|t| t.solution.as_ref()).map(|s| s.case(name));
-    let new_truss = figures.truss.and_then(|(_, s)| s).map(|s| s.case(name));
+    let new_truss = figures.truss.as_ref().and_then(|(_, s, _)| *s).map(|s| s.case(name));
     // the idle test scales by the dead case: it must be alike too
     let old_dead = previous.truss.as_ref().and_then(|t| t.solution.as_ref()).map(|s| s.case(DEAD));
-    let new_dead = figures.truss.and_then(|(_, s)| s).map(|s| s.case(DEAD));
+    let new_dead = figures.truss.as_ref().and_then(|(_, s, _)| *s).map(|s| s.case(DEAD));
     frame && rib && old_truss == new_truss && old_dead == new_dead
 }
 
@@ -723,18 +724,18 @@ fn idle(solution: &Solution, name: &str) -> bool {
 /// The figures of load case `name` from the solved models of an analysis.
 fn case_figures(design: &Design, models: &Figures, name: &str, kind: CaseKind) -> CaseFigures {
     let mut notes = Vec::new();
-    let force_diagram = match models.truss {
+    let force_diagram = match &models.truss {
         None => {
             notes.push(FigureNote::NotBraced);
             None
         }
-        Some((_, None)) => {
+        Some((_, None, _)) => {
             notes.push(FigureNote::TrussIsMechanism);
             None
         }
         // an action that leaves the truss idealisation unstressed (a determinate truss
         // moved by a temperature or its supports, the bare rib's erection): no figure
-        Some((_, Some(solution))) if idle(solution, name) => {
+        Some((_, Some(solution), _)) if idle(solution, name) => {
             notes.push(FigureNote::NoForceDiagram {
                 reason: "nothing stresses the truss idealisation in this case (it moves freely, or the case is the \
                          bare rib's)"
@@ -742,7 +743,7 @@ fn case_figures(design: &Design, models: &Figures, name: &str, kind: CaseKind) -
             });
             None
         }
-        Some((model, Some(solution))) => match solution.case(name).map(|c| force_diagram(model, c)) {
+        Some((_, Some(solution), form)) => match solution.case(name).map(|c| form.force_diagram(c)) {
             Some(Ok(fd)) => {
                 notes.push(FigureNote::ForceDiagram);
                 Some(fd)

@@ -570,6 +570,20 @@ pub fn traffic_of(valid: &ValidDesign) -> (LaneLayout, Sharing) {
         .clone()
 }
 
+/// Whether [`traffic_of`] gives the same lanes and sharing for `a` as for `b`: the same
+/// load model, carriageway, deck width, ribs, rib positions and span (what it reads).
+pub(crate) fn same_lanes(a: &ValidDesign, b: &ValidDesign) -> bool {
+    let inputs = |v: &ValidDesign| {
+        let d = v.design();
+        let t = &d.traffic;
+        (v.layout().span(), d.deck.width, d.deck.ribs, t.carriageway_width)
+    };
+    let (da, db) = (a.design(), b.design());
+    inputs(a) == inputs(b)
+        && da.traffic.load_model == db.traffic.load_model
+        && da.traffic.rib_positions == db.traffic.rib_positions
+}
+
 fn report(
     valid: &ValidDesign,
     kind: ModelKind,

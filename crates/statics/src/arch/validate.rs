@@ -80,6 +80,29 @@ impl ValidDesign {
         self.lanes.0.get_or_init(compute)
     }
 
+    /// [`ValidDesign::new`], taking over from `previous` (the design validated before it,
+    /// on the page the one on screen) what follows from inputs both share: the lanes of
+    /// the load model and their sharing between the ribs, when the load model, carriageway,
+    /// deck width, ribs, rib positions and span are the same (an edit of the panels or the
+    /// rise, a drag of the crown). The result is the same as `new`'s; less is worked out.
+    ///
+    /// Errors: as [`ValidDesign::new`].
+    pub fn new_after(design: &Design, previous: Option<&ValidDesign>) -> Result<ValidDesign, StaticsError> {
+        let valid = ValidDesign::new(design)?;
+        if let Some((previous, lanes)) = previous.and_then(|p| Some((p, p.lanes.0.get()?))) {
+            if crate::arch::traffic::same_lanes(previous, &valid) {
+                let _ = valid.lanes.0.set(lanes.clone());
+            }
+        }
+        Ok(valid)
+    }
+
+    /// The design's lanes and sharing, if already worked out.
+    #[cfg(test)]
+    pub(crate) fn lanes_known(&self) -> Option<&(LaneLayout, Sharing)> {
+        self.lanes.0.get()
+    }
+
     /// Validates `design` and lists every problem at once.
     ///
     /// First the inputs are checked (numbers finite, springings below the deck and on the
@@ -352,6 +375,37 @@ fn unbraced_truss_warning(valid: &ValidDesign) -> Option<Warning> {
 mod tests {
     use super::*;
     use crate::arch::design::GroundPoint;
+
+    /// An edit that keeps the traffic's inputs (the panel count, say) takes the
+    /// lanes over from the design before it: the same lanes and sharing a fresh
+    /// validation works out (`traffic_of`). One that changes them (the deck's width, or
+    /// the span through a springing) works them out anew.
+    #[test]
+    fn lanes_are_taken_over_only_when_their_inputs_are_the_same() {
+        use crate::arch::traffic::traffic_of;
+        let before = ValidDesign::new(&Design::demo()).expect("demo");
+        let untouched = ValidDesign::new_after(&Design::demo(), Some(&before)).expect("demo");
+        assert!(untouched.lanes_known().is_none(), "nothing to take over before the lanes are worked out");
+        let lanes = traffic_of(&before);
+
+        let mut panels = Design::demo();
+        panels.panels += 2;
+        let after = ValidDesign::new_after(&panels, Some(&before)).expect("valid");
+        assert_eq!(after.lanes_known(), Some(&lanes));
+        assert_eq!(traffic_of(&ValidDesign::new(&panels).expect("valid")), lanes);
+
+        let mut wider = Design::demo();
+        wider.deck.width += 2.0;
+        let after = ValidDesign::new_after(&wider, Some(&before)).expect("valid");
+        assert!(after.lanes_known().is_none());
+        assert_ne!(traffic_of(&after), lanes);
+
+        let mut span = Design::demo();
+        span.springing_left_level -= 2.0;
+        let after = ValidDesign::new_after(&span, Some(&before)).expect("valid");
+        assert_ne!(after.layout().span(), before.layout().span());
+        assert!(after.lanes_known().is_none());
+    }
 
     fn problems(d: &Design) -> Vec<Problem> {
         match ValidDesign::new(d) {

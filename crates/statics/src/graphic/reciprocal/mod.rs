@@ -50,6 +50,7 @@ use crate::tolerance::ZERO_FORCE;
 use labels::{inside_faces, outside_spaces, space_labels};
 use planar::PlanarMap;
 use serde::{Deserialize, Serialize};
+use std::cell::OnceCell;
 use std::collections::VecDeque;
 
 mod labels;
@@ -240,7 +241,46 @@ fn figure_error(message: impl Into<String>) -> StaticsError {
 /// the structure; a form diagram that is not one connected piece or has overlapping
 /// members. Zero-force members become points and are listed in `zero_force_members`.
 pub fn force_diagram(model: &Model, case: &CaseResult) -> Result<ForceDiagram, StaticsError> {
-    validate(model)?;
+    FormMap::new(model).force_diagram(case)
+}
+
+/// A pin-jointed truss's form diagram as a plane map (its joints, member pieces and
+/// faces), shared by the force diagrams of all its load cases: the map follows from the
+/// geometry alone, and building it (every pair of members tried for a crossing) was about
+/// a tenth of an edit's analysis when built again for each case.
+///
+/// The model's checks and the map are made on first use and kept, errors included, so
+/// each case reports the same error in the same order as [`force_diagram`] alone.
+pub struct FormMap<'m> {
+    model: &'m Model,
+    checked: OnceCell<Result<(), StaticsError>>,
+    map: OnceCell<Result<PlanarMap, StaticsError>>,
+}
+
+impl<'m> FormMap<'m> {
+    /// The form diagram of `model` (nothing is worked out yet).
+    pub fn new(model: &'m Model) -> FormMap<'m> {
+        FormMap { model, checked: OnceCell::new(), map: OnceCell::new() }
+    }
+
+    /// The force diagram of `case` on this model: [`force_diagram`], with the model's
+    /// checks and plane map made once for every case.
+    pub fn force_diagram(&self, case: &CaseResult) -> Result<ForceDiagram, StaticsError> {
+        self.checked.get_or_init(|| validate(self.model)).clone()?;
+        let map = || match self.map.get_or_init(|| PlanarMap::build(self.model)) {
+            Ok(map) => Ok(map),
+            Err(e) => Err(e.clone()),
+        };
+        figure_of(self.model, case, map)
+    }
+}
+
+/// The force diagram of `case` on the checked `model`, its plane map from `map`.
+fn figure_of<'a>(
+    model: &Model,
+    case: &CaseResult,
+    map: impl FnOnce() -> Result<&'a PlanarMap, StaticsError>,
+) -> Result<ForceDiagram, StaticsError> {
     let nn = model.nodes.len();
     if case.members.len() != model.members.len() || case.reactions.iter().any(|r| r.node >= nn) {
         return Err(figure_error(format!(
@@ -313,7 +353,7 @@ pub fn force_diagram(model: &Model, case: &CaseResult) -> Result<ForceDiagram, S
     externals.retain(|e| e.fx.hypot(e.fy) > tiny);
 
     // the form diagram as a plane map: nodes (+ pass-through nodes), member pieces, faces
-    let map = PlanarMap::build(model)?;
+    let map = map()?;
     let pos = &map.pos;
     let pieces = &map.pieces;
     // where each external force is drawn: a visit of its joint on the outside boundary
@@ -474,7 +514,7 @@ pub fn force_diagram(model: &Model, case: &CaseResult) -> Result<ForceDiagram, S
         load_line: (0..n_outside).collect(),
         zero_force_members,
         pass_through: !map.crossings.is_empty(),
-        crossings: map.crossings,
+        crossings: map.crossings.clone(),
         closure_error,
         largest_force: largest,
         notes,
@@ -748,6 +788,54 @@ mod tests {
             // drawn on the side the force comes from: above for a downward load (in the
             // notch between the triangles), below for an upward one
             assert!(ray.y * fy < 0.0 && ray.x.abs() < 1e-9, "fy {fy}: ray {ray:?}");
+        }
+    }
+
+    /// One form map serves every load case of a model: each case's figure is the one
+    /// `force_diagram` builds for it alone, field for field; a case of another model is
+    /// refused the same way by both; and a map that cannot be traced (two members along
+    /// one line) gives each case the same error as `force_diagram`.
+    #[test]
+    fn a_shared_form_map_gives_each_case_the_figure_it_has_alone() {
+        let text = include_str!("../../../../../tests/reference/models/braced_truss.json");
+        let m: Model = serde_json::from_str(text).expect("model");
+        let s = solve(&m).expect("stable");
+        assert!(s.cases.len() >= 2, "the reference truss has several cases");
+        let form = FormMap::new(&m);
+        for case in &s.cases {
+            let shared = form.force_diagram(case);
+            assert!(shared.is_ok(), "case {}: {shared:?}", case.name);
+            assert_eq!(shared, force_diagram(&m, case), "case {}", case.name);
+        }
+        let mut fewer = m.clone();
+        fewer.members.pop();
+        let other = FormMap::new(&fewer);
+        assert!(other.force_diagram(&s.cases[0]).is_err());
+        assert_eq!(other.force_diagram(&s.cases[0]), force_diagram(&fewer, &s.cases[0]));
+
+        // a square with one diagonal drawn twice: solvable, but no plane figure
+        let mut twice = Model::default();
+        for (x, y) in [(0.0, 0.0), (4.0, 0.0), (4.0, 3.0), (0.0, 3.0)] {
+            twice.add_node("", x, y);
+        }
+        for (a, b) in [(0, 1), (1, 2), (2, 3), (3, 0), (0, 2), (0, 2)] {
+            twice.add_member(truss("", "", a, b, 2e8, 0.01));
+        }
+        twice.supports = vec![Support::pinned(0), Support::pinned(1)];
+        twice.load_cases = ["one", "two"]
+            .iter()
+            .map(|name| LoadCase {
+                name: (*name).into(),
+                nodal: vec![NodalLoad { node: 2, fx: 10.0, fy: -20.0, mz: 0.0 }],
+                ..Default::default()
+            })
+            .collect();
+        let solved = solve(&twice).expect("stable");
+        let form = FormMap::new(&twice);
+        for case in &solved.cases {
+            let alone = force_diagram(&twice, case);
+            assert!(alone.is_err(), "overlapping members have no figure");
+            assert_eq!(form.force_diagram(case), alone, "case {}", case.name);
         }
     }
 
