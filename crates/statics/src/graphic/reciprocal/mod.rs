@@ -371,9 +371,9 @@ fn figure_of<'a>(
         ray[k] = (dir.cos(), dir.sin());
     }
     // spaces: outside 0..n_outside (Bow's letters in walk order), then the inside faces
-    let outside = outside_spaces(&map, &externals, &visit, &ray);
+    let outside = outside_spaces(map, &externals, &visit, &ray);
     let n_outside = outside.count;
-    let inside = inside_faces(&map);
+    let inside = inside_faces(map);
     let mut space_of_face = vec![usize::MAX; map.faces.len()];
     for (i, &f) in inside.iter().enumerate() {
         space_of_face[f] = n_outside + i;
@@ -432,7 +432,7 @@ fn figure_of<'a>(
         .fold(0.0, f64::max);
 
     // labels: outside A, B, ... in walk order; inside 1, 2, ... left to right
-    let spaces: Vec<Space> = space_labels(model, &map, &externals, &ray, &outside, &inside, extent)
+    let spaces: Vec<Space> = space_labels(model, map, &externals, &ray, &outside, &inside, extent)
         .into_iter()
         .zip(&points)
         .map(|(l, &point)| Space { label: l.label, kind: l.kind, point, label_at: Point::from(l.at) })
