@@ -283,6 +283,51 @@ fn wait_for_span_unit(s: &Session, unit: &str) {
     );
 }
 
+/// A panel-count edit moves the heavier panel in place: its button is the same element
+/// (nothing built again) and now carries the engine's case for the new count: its id,
+/// its words and its pictogram's arrow.
+#[test]
+fn a_panel_count_edit_moves_the_heavier_panel_in_place() {
+    let server = StaticServer::start(&dist());
+    let driver = Driver::start();
+    let s = driver.session(1500, 1000, 1.0);
+    open(&s, &server);
+    let heavier = "button[id^='case-panel-']";
+    let arrow = format!("{heavier} path.picto-heavy");
+    let before = attribute(&s, &arrow, "d");
+    assert!(!before.is_empty(), "the heavier panel's arrow is drawn");
+    s.exec(&format!("window.heavierButton = document.querySelector({});", json!(heavier)), vec![]);
+    let mut design = Design::demo();
+    design.panels += 6;
+    set_field(&s, "panels", &design.panels.to_string());
+    s.wait_for(
+        "the heavier panel's arrow moved",
+        &format!(
+            "const p = document.querySelector({}); return p !== null && p.getAttribute('d') !== {};",
+            json!(arrow),
+            json!(before)
+        ),
+        WAIT,
+    );
+    let a = analyze(&design).expect("the edited demo analyses");
+    let case = a
+        .load_cases
+        .iter()
+        .map(|c| c.description)
+        .find(|k| k.id().starts_with("panel-"))
+        .expect("a heavier panel case");
+    let id = attribute(&s, heavier, "id");
+    assert_eq!(id, format!("case-{}", case.id()));
+    let words = s.exec(&format!("return document.querySelector({}).textContent;", json!(heavier)), vec![]);
+    assert_eq!(words.as_str().map(str::trim), Some(case.title().as_str()));
+    let same = s.exec(
+        &format!("return document.querySelector({}) === window.heavierButton;", json!(heavier)),
+        vec![],
+    );
+    assert_eq!(same, json!(true), "the heavier panel's button was built again");
+    assert!(severe(&s).is_empty());
+}
+
 /// Each scenario button shows its case in the drawings and the table: the springing
 /// forces are the engine's for that case, the caption names it in words, the button is
 /// pressed and the others are not.

@@ -91,9 +91,10 @@ fn arch_path(lift: f64) -> String {
 
 /// The small drawing of a case's load pattern: deck, arch, light dead-load arrows and
 /// the case's heavier arrows. Decorative: the button's words say the same.
-/// `heavy`: the case's heavier arrows (`heavy_arrows`).
+/// `heavy`: the case's heavier arrows (`heavy_arrows`); they follow the signal, so a
+/// heavier panel point moved by a panel-count edit moves its arrow and builds nothing.
 #[component]
-fn Pictogram(heavy: String) -> impl IntoView {
+fn Pictogram(#[prop(into)] heavy: Signal<String>) -> impl IntoView {
     let light = light_arrows();
     let arch = arch_path(0.0);
     view! {
@@ -102,7 +103,7 @@ fn Pictogram(heavy: String) -> impl IntoView {
             <path class="picto-structure" d=format!("M1 {DECK_Y}H{}", PICTO_W - 1.0) />
             <path class="picto-structure" d=arch />
             <path class="picto-light" d=light />
-            <path class="picto-heavy" d=heavy />
+            <path class="picto-heavy" d=move || heavy.get() />
         </svg>
     }
 }
@@ -127,15 +128,14 @@ fn patterns() -> Vec<(Pattern, CaseKind)> {
     out
 }
 
-/// Everything a case button shows except its tooltip: the row's `<For>` is keyed on it,
-/// so a button's index, id, words and pictogram never go stale.
+/// What a case button is built from: the row's `<For>` is keyed on the case's place and
+/// kind; its id, words, tooltip and pictogram's heavier arrows follow the case in place
+/// (a panel-count edit moves the heavier panel, which changes all four, and building
+/// that button again, its pictogram with it, was most of the row's work per edit).
 #[derive(Clone, PartialEq, Eq, Hash)]
 struct CaseButton {
     index: usize,
-    id: String,
-    title: String,
-    /// The pictogram's heavier arrows (`heavy_arrows`).
-    heavy: String,
+    kind: std::mem::Discriminant<CaseKind>,
 }
 
 /// The envelope's pictogram: deck and arch with a band either side of the rib.
@@ -316,21 +316,14 @@ pub fn ScenarioButtons() -> impl IntoView {
             && !vehicle_chosen.get()
     };
     let panels = Memo::new(move |_| state.settled_design.with(|d| d.panels));
-    // the row is keyed on what each button shows but its tooltip (the case's numbers):
-    // an edit that changes only numbers rebuilds no button, and a panel-count edit only
-    // the heavier panel's
+    // the row is keyed on each button's place and kind of case: an edit that changes
+    // only numbers or the panel count rebuilds no button
     let own_buttons = Memo::new(move |_| {
-        let panels = panels.get();
         kinds.with(|kinds| {
             kinds
                 .iter()
                 .enumerate()
-                .map(|(index, kind)| CaseButton {
-                    index,
-                    id: kind.id(),
-                    title: kind.title(),
-                    heavy: heavy_arrows(kind, panels),
-                })
+                .map(|(index, kind)| CaseButton { index, kind: std::mem::discriminant(kind) })
                 .collect::<Vec<_>>()
         })
     });
@@ -340,23 +333,27 @@ pub fn ScenarioButtons() -> impl IntoView {
             key=CaseButton::clone
             children=move |button| {
                 let i = button.index;
+                let kind = Memo::new(move |_| kinds.with(|kinds| kinds.get(i).copied()));
+                let id = move || kind.get().map(|k| format!("case-{}", k.id())).unwrap_or_default();
+                let title = move || kind.get().map(|k| k.title()).unwrap_or_default();
+                let heavy = Memo::new(move |_| kind.get().map(|k| heavy_arrows(&k, panels.get())).unwrap_or_default());
                 let pressed = move || (plain() && state.case.get() == i).to_string();
                 let described = move || {
                     let units: Units = state.units.get();
-                    kinds.with(|kinds| kinds.get(i).map(|k| k.describe(units)).unwrap_or_default())
+                    kind.get().map(|k| k.describe(units)).unwrap_or_default()
                 };
                 view! {
                     <button
                         type="button"
                         class="scenario"
-                        id=format!("case-{}", button.id)
+                        id=id
                         data-case-index=i.to_string()
                         aria-pressed=pressed
                         title=described
                         on:click=move |_| state.choose_case(i)
                     >
-                        <Pictogram heavy=button.heavy />
-                        <span>{button.title}</span>
+                        <Pictogram heavy=heavy />
+                        <span>{title}</span>
                     </button>
                 }
             }
