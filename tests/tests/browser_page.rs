@@ -285,7 +285,8 @@ fn wait_for_span_unit(s: &Session, unit: &str) {
 
 /// A panel-count edit moves the heavier panel in place: its button is the same element
 /// (nothing built again) and now carries the engine's case for the new count: its id,
-/// its words and its pictogram's arrow.
+/// its words and its pictogram's arrow. Check values: the engine's load cases for the
+/// edited demo (`analyze`); no outside value.
 #[test]
 fn a_panel_count_edit_moves_the_heavier_panel_in_place() {
     let server = StaticServer::start(&dist());

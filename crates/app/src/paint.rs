@@ -84,7 +84,7 @@ struct Pen {
     /// The dash pattern set and its lengths (`None`: unknown). Kept by length, not by
     /// line width: solid lines of every width share one setting, and a line weight that
     /// follows the force gives nearly every member its own width.
-    dashes: Option<(Pattern, Vec<f64>)>,
+    dashes: Option<(Pattern, Option<[f64; 2]>)>,
     font: Option<&'static str>,
 }
 
@@ -109,12 +109,12 @@ impl Pen {
     }
     /// The dash pattern (and its caps) of `pattern` at `width`.
     fn pattern(&mut self, ctx: &CanvasRenderingContext2d, pattern: Pattern, width: f64) {
-        let lengths = pattern.dashes(width);
-        if self.dashes.as_ref().is_some_and(|(p, l)| *p == pattern && *l == lengths) {
+        let lengths = pattern.dash_and_gap(width);
+        if self.dashes == Some((pattern, lengths)) {
             return;
         }
         let dashes = js_sys::Array::new();
-        for d in &lengths {
+        for d in lengths.iter().flatten() {
             dashes.push(&(*d).into());
         }
         let _ = ctx.set_line_dash(&dashes);

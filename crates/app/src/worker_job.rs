@@ -38,9 +38,7 @@ impl Job {
         let on_message = Closure::<dyn FnMut(MessageEvent)>::new(move |event: MessageEvent| {
             let parsed = match event.data().dyn_into::<js_sys::Uint8Array>() {
                 Ok(bytes) => springline_worker::read_reply(&bytes.to_vec()),
-                Err(_) => {
-                    Err("the background worker sent a reply the page cannot read; reload the page".into())
-                }
+                Err(_) => Err(springline_worker::UNREADABLE_REPLY.into()),
             };
             match parsed {
                 Ok(Reply::Ready) => {

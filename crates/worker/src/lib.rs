@@ -326,6 +326,9 @@ pub fn run_text(request: &str, post: &mut dyn FnMut(Vec<u8>)) {
     }
 }
 
+/// What the page says of bytes from the worker that are not one whole reply.
+pub const UNREADABLE_REPLY: &str = "the background worker sent a reply the page cannot read; reload the page";
+
 /// The fingerprint of this build's replies (`build.rs`: a hash of the worker's and the
 /// engine's sources): the first bytes of every reply.
 pub const WIRE: &str = env!("SPRINGLINE_WIRE");
@@ -357,7 +360,7 @@ pub fn read_reply(bytes: &[u8]) -> Result<Reply, String> {
     };
     match postcard::take_from_bytes::<Reply>(body) {
         Ok((reply, [])) => Ok(reply),
-        _ => Err("the background worker sent a reply the page cannot read; reload the page".into()),
+        _ => Err(UNREADABLE_REPLY.into()),
     }
 }
 

@@ -379,7 +379,8 @@ mod tests {
     /// An edit that keeps the traffic's inputs (the panel count, say) takes the
     /// lanes over from the design before it: the same lanes and sharing a fresh
     /// validation works out (`traffic_of`). One that changes them (the deck's width, or
-    /// the span through a springing) works them out anew.
+    /// the span through a springing) works them out anew. Check values: the engine's own
+    /// unshared path (a fresh `ValidDesign::new` and `traffic_of`); no outside value.
     #[test]
     fn lanes_are_taken_over_only_when_their_inputs_are_the_same() {
         use crate::arch::traffic::traffic_of;

@@ -227,10 +227,16 @@ pub enum Pattern {
 impl Pattern {
     /// Dash and gap lengths in CSS pixels for a line `width` pixels wide; empty for solid.
     pub fn dashes(self, width: f64) -> Vec<f64> {
+        self.dash_and_gap(width).map_or_else(Vec::new, Vec::from)
+    }
+
+    /// [`Pattern::dashes`] without a list: the dash and the gap, `None` for solid (for a
+    /// painter that compares them on every line).
+    pub fn dash_and_gap(self, width: f64) -> Option<[f64; 2]> {
         match self {
-            Pattern::Solid => Vec::new(),
-            Pattern::Dashed => vec![(3.0 * width).max(6.0), (1.6 * width).max(3.0)],
-            Pattern::Dotted => vec![width.max(1.5), (1.5 * width).max(3.0)],
+            Pattern::Solid => None,
+            Pattern::Dashed => Some([(3.0 * width).max(6.0), (1.6 * width).max(3.0)]),
+            Pattern::Dotted => Some([width.max(1.5), (1.5 * width).max(3.0)]),
         }
     }
 }

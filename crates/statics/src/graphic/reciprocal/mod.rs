@@ -794,7 +794,9 @@ mod tests {
     /// One form map serves every load case of a model: each case's figure is the one
     /// `force_diagram` builds for it alone, field for field; a case of another model is
     /// refused the same way by both; and a map that cannot be traced (two members along
-    /// one line) gives each case the same error as `force_diagram`.
+    /// one line) gives each case the same error as `force_diagram`. Check values: the
+    /// unshared `force_diagram` of each case (itself checked against statics by hand in
+    /// the tests above); no outside value.
     #[test]
     fn a_shared_form_map_gives_each_case_the_figure_it_has_alone() {
         let text = include_str!("../../../../../tests/reference/models/braced_truss.json");
