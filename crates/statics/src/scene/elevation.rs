@@ -7,7 +7,7 @@
 //!
 //! Member styles (tension dashed, compression solid, zero dotted, so that sign reads
 //! without colour; colour by [`Ink`]): line width 1.2 px + 6 px x sqrt(|N| / largest
-//! |N| drawn), N the mean of the end forces; |N| at or below the solver's zero
+//! |N| drawn) to the nearest half pixel, N the mean of the end forces; |N| at or below the solver's zero
 //! (`ZERO_FORCE` of the case's largest force) counts as no force.
 //!
 //! Springing forces are [`SpringingForce`] values of the model drawn (the frame model's
@@ -18,7 +18,10 @@
 //! drawn is that push, from the springing into the abutment.
 
 use super::place::{self, Placer, Request, Side, PAD_X};
-use super::{Ink, Item, Label, Pattern, Px, Rect, Scene, Shape, Stroke, Tag, TextSize, Transform, Viewport};
+use super::{
+    group_by_stroke, stepped_width, Ink, Item, Label, Pattern, Px, Rect, Scene, Shape, Stroke, Tag, TextSize,
+    Transform, Viewport,
+};
 use crate::arch::analysis::Analysis;
 use crate::arch::cases::CaseKind;
 use crate::arch::design::{Design, RibSystem};
@@ -429,13 +432,16 @@ fn mean_n(case: &CaseResult, k: usize) -> f64 {
     case.members.get(k).map_or(0.0, |m| 0.5 * (m.start.n + m.end.n))
 }
 
+/// The step of the members' line weights, CSS px (see [`stepped_width`]).
+const WEIGHT_STEP: f64 = 0.5;
+
 /// The stroke of a member with axial force `n` (kN) when the largest drawn is `n_max` and
 /// the solver's zero is `zero`.
 pub fn member_stroke(n: f64, n_max: f64, zero: f64) -> Stroke {
     if n.abs() <= zero || n_max <= 0.0 {
         return Stroke::patterned(Ink::Zero, 1.5, Pattern::Dotted);
     }
-    let width = 1.2 + 6.0 * (n.abs() / n_max).min(1.0).sqrt();
+    let width = stepped_width(1.2 + 6.0 * (n.abs() / n_max).min(1.0).sqrt(), WEIGHT_STEP);
     if n > 0.0 {
         Stroke::patterned(Ink::Tension, width, Pattern::Dashed)
     } else {
@@ -446,14 +452,18 @@ pub fn member_stroke(n: f64, n_max: f64, zero: f64) -> Stroke {
 fn members(scene: &mut Scene, d: &Drawn, t: &Transform, highlight: Option<usize>) {
     let zero = ZERO_FORCE * d.case.equilibrium.reference;
     let n_max = (0..d.model.members.len()).map(|k| mean_n(d.case, k).abs()).fold(0.0, f64::max);
+    let mut lines = Vec::with_capacity(d.model.members.len());
     for (k, m) in d.model.members.iter().enumerate() {
         let Some((na, nb)) = d.model.ends(m) else { continue };
         let stroke = member_stroke(mean_n(d.case, k), n_max, zero);
-        scene.items.push(
+        lines.push(
             Item::stroked(Shape::Line { from: t.px(na.x, na.y), to: t.px(nb.x, nb.y) }, stroke)
                 .tagged(Tag::Member { member: k }),
         );
     }
+    // members meet only at joints: drawn a weight at a time, each weight one path
+    group_by_stroke(&mut lines);
+    scene.items.append(&mut lines);
     let highlighted =
         highlight.and_then(|k| d.model.members.get(k).and_then(|m| d.model.ends(m)).map(|e| (k, e)));
     if let Some((k, (na, nb))) = highlighted {
@@ -788,6 +798,47 @@ pub fn label_starting<'a>(scene: &'a Scene, prefix: &str) -> Option<&'a Label> {
 mod tests {
     use super::*;
     use crate::arch::analysis::analyze;
+
+    /// The demo's members under a half-span load: every member drawn once, in half-pixel
+    /// weights, each stroke's members one after another (so a painter draws a weight as
+    /// one path), in fewer strokes than members.
+    #[test]
+    fn the_members_are_drawn_a_stroke_at_a_time() {
+        let d = Design::demo();
+        let a = analyze(&d).expect("demo");
+        let s = elevation(
+            &a,
+            &d,
+            &ElevationOptions { case: 1, ..Default::default() },
+            Viewport::new(900.0, 440.0),
+        );
+        let members: Vec<&Item> = s
+            .items
+            .iter()
+            .filter(|i| matches!((&i.shape, i.tag), (Shape::Line { .. }, Tag::Member { .. })))
+            .collect();
+        let mut drawn: Vec<usize> = members
+            .iter()
+            .filter_map(|i| if let Tag::Member { member } = i.tag { Some(member) } else { None })
+            .collect();
+        drawn.sort_unstable();
+        drawn.dedup();
+        assert_eq!(drawn.len(), members.len(), "each member once");
+        assert_eq!(drawn.len(), a.frame.model.members.len(), "every member of the frame model");
+        let strokes: Vec<Stroke> = members.iter().filter_map(|i| i.stroke).collect();
+        for s in &strokes {
+            assert_eq!(s.width * 2.0, (s.width * 2.0).round(), "a half-pixel weight: {s:?}");
+        }
+        let runs = 1 + strokes.windows(2).filter(|w| w[0] != w[1]).count();
+        let mut distinct: Vec<Stroke> = Vec::new();
+        for s in &strokes {
+            if !distinct.contains(s) {
+                distinct.push(*s);
+            }
+        }
+        assert_eq!(runs, distinct.len(), "each stroke's members together");
+        assert!(runs < members.len() / 2, "{runs} strokes for {} members", members.len());
+    }
 
     #[test]
     fn the_title_names_the_model_and_the_case_in_words() {

@@ -17,7 +17,10 @@
 //! word no space label can be.
 
 use super::place::{self, Placer, Request, Side, PAD_X};
-use super::{Ink, Item, Label, Pattern, Px, Rect, Scene, Shape, Stroke, Tag, TextSize, Transform, Viewport};
+use super::{
+    group_by_stroke, stepped_width, Ink, Item, Label, Pattern, Px, Rect, Scene, Shape, Stroke, Tag, TextSize,
+    Transform, Viewport,
+};
 use crate::arch::analysis::Analysis;
 use crate::geom::Vector;
 use crate::graphic::funicular::PoleConstruction;
@@ -409,9 +412,10 @@ fn message(viewport: Viewport, title: &str, why: &str) -> ForceDrawing {
 // braced: reciprocal figure and pole construction
 
 /// Member stroke by sign: tension dashed teal, compression solid orange; width grows
-/// with the square root of the force's share of the largest.
+/// with the square root of the force's share of the largest, in quarter-pixel steps (see
+/// [`stepped_width`]).
 fn member_stroke(force: f64, largest: f64) -> Stroke {
-    let width = 1.0 + 1.5 * (force.abs() / largest.max(1e-300)).sqrt();
+    let width = stepped_width(1.0 + 1.5 * (force.abs() / largest.max(1e-300)).sqrt(), 0.25);
     if force > 0.0 {
         Stroke::patterned(Ink::Tension, width, Pattern::Dashed)
     } else {
@@ -678,6 +682,9 @@ fn braced(
     drawing_items.push(frame);
     labels.push(caption);
     let mut pen = Painter { clip: fig_rect, items: Vec::new() };
+    // over the members' lines: the rings of zero-force members, then the highlighted member
+    let mut rings = Painter { clip: fig_rect, items: Vec::new() };
+    let mut highlighted = Painter { clip: fig_rect, items: Vec::new() };
     let at = |p: crate::geom::Point| t.px(p.x, p.y);
     // a segment's two ends on the canvas (its spaces are the figure's own)
     let ends = |seg: &Segment| {
@@ -688,18 +695,28 @@ fn braced(
         let Some((l, r)) = ends(seg) else { continue };
         let tag = Tag::Member { member };
         if opts.highlight == Some(member) {
-            pen.line(l, r, Stroke::solid(Ink::HighlightHalo, 11.0), Tag::None);
-            pen.line(l, r, Stroke::solid(Ink::Highlight, 3.0), tag);
+            highlighted.line(l, r, Stroke::solid(Ink::HighlightHalo, 11.0), Tag::None);
+            highlighted.line(l, r, Stroke::solid(Ink::Highlight, 3.0), tag);
             if seg.zero {
-                pen.circle(l, 5.0, Some(Stroke::solid(Ink::Highlight, 2.0)), Some(Ink::Background), tag);
+                highlighted.circle(
+                    l,
+                    5.0,
+                    Some(Stroke::solid(Ink::Highlight, 2.0)),
+                    Some(Ink::Background),
+                    tag,
+                );
             }
         } else if seg.zero {
             // a zero-force member is a point of the figure: an open ring marks it
-            pen.circle(l, 3.0, Some(Stroke::solid(Ink::Zero, 1.5)), Some(Ink::Background), tag);
+            rings.circle(l, 3.0, Some(Stroke::solid(Ink::Zero, 1.5)), Some(Ink::Background), tag);
         } else {
             pen.line(l, r, member_stroke(seg.force, largest), tag);
         }
     }
+    // the figure's lines meet only at its points: drawn a weight at a time, each one path
+    group_by_stroke(&mut pen.items);
+    pen.items.append(&mut rings.items);
+    pen.items.append(&mut highlighted.items);
     // external forces on top: the load line must stay visible however short
     for seg in &figure.segments {
         let ink = match seg.of {
