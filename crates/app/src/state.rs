@@ -5,7 +5,7 @@
 use crate::format::Units;
 use crate::timing::{timed, Step};
 use leptos::prelude::*;
-use springline_statics::arch::analysis::{analyze_to, Extent};
+use springline_statics::arch::analysis::{analyze_to, figures_of, Extent, FigureNote};
 use springline_statics::arch::cases::{standard_cases, CaseSpec, Pattern};
 use springline_statics::arch::design::Warning;
 use springline_statics::arch::edit::{Drag, DragStop, Snapping};
@@ -101,8 +101,7 @@ pub type Validated = Result<Arc<ValidDesign>, StaticsError>;
 /// than drawn again (`arch::analysis::analyze_reusing`: a vehicle move draws its own
 /// case's figures only).
 ///
-/// `extent`: everything, or while a drag is on the shown case's figures alone
-/// (`arch::analysis::Extent`).
+/// `extent`: how far it is worked out (`arch::analysis::Extent`; see `extent_of`).
 pub fn analyse(
     valid: &ValidDesign,
     vehicle: Option<f64>,
@@ -143,7 +142,13 @@ pub struct AppState {
     /// chosen the vehicle; not part of the design (no undo step, no design link change).
     pub vehicle: RwSignal<Option<f64>>,
     /// Its analysis (with the vehicle's case last when a vehicle is on the deck), memoised.
+    /// After an edit it carries the figures (force diagram, rib funicular, thrust line) of
+    /// the case shown then alone (`Extent::Screen`): what reads the figures reads `drawn`.
+    /// It does not follow the case shown (the effects that choose a case follow it).
     pub analysis: Memo<Outcome>,
+    /// `analysis` with the figures of the case shown (`case`), worked out when they are
+    /// missing (`arch::analysis::figures_of`): the same analysis when they are there.
+    pub drawn: Memo<Outcome>,
     /// The truss member under the pointer.
     pub hovered: RwSignal<Hovered>,
     /// The member under the pointer or the keyboard, in any model (the readout's member);
@@ -229,6 +234,8 @@ pub struct AppState {
     pub settled_valid: Memo<Validated>,
     /// `analysis` as the panels show it, held like `settled_design`.
     pub settled_analysis: Memo<Outcome>,
+    /// `drawn`, held while a drag is on (as `settled_analysis`).
+    pub settled_drawn: Memo<Outcome>,
     /// `size_report` as the sizing panel shows it, held like `settled_design`.
     pub settled_size_report: Memo<SizeView>,
     /// The warnings of `settled_valid` (none when it failed), set only when they change:
@@ -259,14 +266,26 @@ pub(crate) fn held<T: Clone + Send + Sync + 'static>(
 }
 
 /// How far an analysis is worked out: while a drag is on, the drawings of case `shown()`
-/// alone; otherwise everything. The shown case is read only while a drag is on, so a memo
-/// calling this follows the case only then (the case is set in effects that follow the
-/// analysis: read always, the two would wake each other).
-fn extent_of(moving: bool, shown: impl FnOnce() -> usize) -> Extent {
+/// alone; otherwise everything but the other cases' figures (`Extent::Screen`, the case
+/// from `shown_untracked()`). The shown case is tracked only while a drag is on, so a
+/// memo calling this follows the case only then (the case is set in effects that follow
+/// the analysis: tracked always, the two would wake each other); the figures of a case
+/// shown later are worked out by the `drawn` memo.
+fn extent_of(moving: bool, shown: impl FnOnce() -> usize, shown_untracked: impl FnOnce() -> usize) -> Extent {
     if moving {
         Extent::Drawing { shown: shown() }
     } else {
-        Extent::Whole
+        Extent::Screen { shown: shown_untracked() }
+    }
+}
+
+/// Whether an analysis worked out to `had` serves where one to `wanted` is asked: a
+/// whole one serves any; one for the screen serves the screen and a drag (a case's
+/// missing figures are worked out when it is shown); one for a drag only the same drag.
+fn serves(had: Extent, wanted: Extent) -> bool {
+    match (had, wanted) {
+        (Extent::Whole, _) | (Extent::Screen { .. }, Extent::Screen { .. } | Extent::Drawing { .. }) => true,
+        (had, wanted) => had == wanted,
     }
 }
 
@@ -360,7 +379,7 @@ impl AppState {
                 let previous = shown.and_then(|o| o.as_ref().ok()).map(|a| &**a);
                 let x = vehicle.get();
                 // while a drag is on, the drawings of the shown case alone
-                let extent = extent_of(moving(), || case.get());
+                let extent = extent_of(moving(), || case.get(), || case.get_untracked());
                 let v = valid.get()?;
                 // extra cases built for this very design: analysed with them
                 let extra = extra.get();
@@ -375,7 +394,7 @@ impl AppState {
                 // far enough (a press and release that moved nothing keeps it, and so the
                 // panels), else the one `check` just computed, else a new one
                 let key = design.with_untracked(|d| (d.clone(), x));
-                let serves = |e: Extent| e == extent || e == Extent::Whole;
+                let serves = |e: Extent| serves(e, extent);
                 let kept = last.with_value(|l| {
                     l.as_ref().filter(|(k, e)| *k == key && serves(*e)).and_then(|_| shown.cloned())
                 });
@@ -398,9 +417,35 @@ impl AppState {
             },
             analysis_changed,
         );
+        // the figures of the case shown: an edit's analysis has that case's alone
+        // (`Extent::Screen`), and another case's are worked out when it is shown
+        let drawn = Memo::new_with_compare(
+            move |_: Option<&Outcome>| {
+                let shown = case.get();
+                let outcome = analysis.get();
+                let Ok(a) = &outcome else { return outcome };
+                // past the last case the drawings show the dead load's
+                let index = if shown < a.load_cases.len() { shown } else { 0 };
+                let undrawn =
+                    a.load_cases.get(index).is_some_and(|c| c.notes.contains(&FigureNote::NotDrawn));
+                let figures = undrawn
+                    .then(|| timed(Step::Compute, || design.with_untracked(|d| figures_of(a, d, index))))
+                    .flatten();
+                match figures {
+                    Some(figures) => {
+                        let mut filled = (**a).clone();
+                        filled.load_cases[index] = figures;
+                        Ok(Arc::new(filled))
+                    }
+                    None => outcome,
+                }
+            },
+            analysis_changed,
+        );
         let settled_design = held(moving, move || design.get(), |old, new| old != new);
         let settled_valid = held(moving, move || valid.get(), validation_changed);
         let settled_analysis = held(moving, move || analysis.get(), analysis_changed);
+        let settled_drawn = held(moving, move || drawn.get(), analysis_changed);
         let settled_warnings = RwSignal::new(Vec::new());
         Effect::new(move |_| {
             let now =
@@ -431,6 +476,7 @@ impl AppState {
             valid,
             vehicle,
             analysis,
+            drawn,
             hovered: RwSignal::new(Hovered(None)),
             focus: RwSignal::new(None),
             elevation_model: RwSignal::new(ModelKind::Frame),
@@ -461,6 +507,7 @@ impl AppState {
             settled_design,
             settled_valid,
             settled_analysis,
+            settled_drawn,
             settled_size_report,
             settled_warnings: settled_warnings.into(),
             followers,
@@ -531,10 +578,12 @@ impl AppState {
     /// not analyse.
     ///
     /// While a drag is on, only the shown case's figures are worked out (what the memo
-    /// asks for then); the whole analysis follows when the drag ends.
+    /// asks for then); the screen's analysis follows when the drag ends. Otherwise every
+    /// case is solved and the shown case's figures drawn (`Extent::Screen`).
     pub fn check(&self, design: &Design) -> Result<(), StaticsError> {
         let x = self.vehicle.get_untracked();
-        let extent = extent_of(self.moving_untracked(), || self.case.get_untracked());
+        let extent =
+            extent_of(self.moving_untracked(), || self.case.get_untracked(), || self.case.get_untracked());
         // the design on screen, whose lanes the new one may share
         let previous = self.valid.get_untracked().ok();
         let (valid, analysis) = timed(Step::Compute, || {
@@ -801,6 +850,21 @@ mod tests {
     use super::*;
     use springline_statics::analyze;
     use springline_statics::error::{GroupName, SectionProperty};
+
+    /// Which kept analysis serves: a whole one any; a screen's a screen's of any case (the
+    /// `drawn` memo works out the figures of the case shown) and a drag's; a drag's only
+    /// a drag of the same case (it has neither the action cases nor other figures).
+    #[test]
+    fn an_analysis_serves_what_it_has_worked_out() {
+        let (screen, drawing) = (|k| Extent::Screen { shown: k }, |k| Extent::Drawing { shown: k });
+        assert!(serves(Extent::Whole, screen(3)) && serves(Extent::Whole, drawing(3)));
+        assert!(serves(screen(1), screen(3)) && serves(screen(1), drawing(3)));
+        assert!(!serves(screen(1), Extent::Whole));
+        assert!(serves(drawing(2), drawing(2)));
+        assert!(!serves(drawing(2), drawing(3)) && !serves(drawing(2), screen(2)));
+        assert_eq!(extent_of(true, || 4, || 5), drawing(4));
+        assert_eq!(extent_of(false, || 4, || 5), screen(5));
+    }
 
     /// The refusal of a deck at 60 m under the demo's springings at 76 m (left) and 80 m
     /// (right) (the demo scenario; the engine's validation in `arch::design`).

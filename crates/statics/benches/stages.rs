@@ -26,7 +26,7 @@
 //! Run: `cargo bench -p springline-statics --bench stages` (add a stage name to run one).
 
 use criterion::{criterion_group, criterion_main, BenchmarkId, Criterion};
-use springline_statics::arch::analysis::analyze_valid;
+use springline_statics::arch::analysis::{analyze_to, analyze_valid, Extent};
 use springline_statics::arch::design::Design;
 use springline_statics::arch::generate::{frame_model, Generated};
 use springline_statics::arch::influence::{ArchLine, MemberEnd};
@@ -86,14 +86,15 @@ fn stages(c: &mut Criterion) {
             b.iter(|| ValidDesign::new(black_box(&d)).expect("valid"))
         });
         // what an edit on the page works out: a design validated anew after the one on
-        // screen (two panels more, analysed: its lanes are taken over), then analysed whole
-        // (the action cases included)
+        // screen (two panels more, analysed: its lanes are taken over), then analysed for
+        // the screen (every case and the action cases solved, the figures of the case
+        // shown alone)
         let on_screen = ValidDesign::new(&demo(panels + 2)).expect("valid");
         analyze_valid(&on_screen).expect("analyses");
         group.bench_function(BenchmarkId::new("edit_validate_and_analyse", panels), |b| {
             b.iter(|| {
                 let valid = ValidDesign::new_after(black_box(&d), Some(&on_screen)).expect("valid");
-                analyze_valid(&valid).expect("analyses")
+                analyze_to(&valid, &[], None, Extent::Screen { shown: 0 }).expect("analyses")
             })
         });
         let (valid, generated, report, sources) = demo_sources(panels);

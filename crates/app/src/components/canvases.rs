@@ -443,8 +443,8 @@ pub fn ForceCanvas() -> impl IntoView {
             held.set_value(None);
         }
         let Some(el) = node.get() else { return };
-        // an analysis error leaves the last drawing on screen
-        let Ok(a) = state.analysis.get() else { return };
+        // an analysis error leaves the last drawing on screen; the figures are the shown case's
+        let Ok(a) = state.drawn.get() else { return };
         let Some(viewport) =
             size.get().filter(|(w, h)| *w > 0.0 && *h > 0.0).map(|(w, h)| Viewport::new(w, h))
         else {
@@ -493,7 +493,7 @@ pub fn ForceCanvas() -> impl IntoView {
     // the pole of the drawing on screen, if it shows one to drag
     let pole_now = move || {
         let case = state.case.get_untracked();
-        state.analysis.with_untracked(|o| {
+        state.drawn.with_untracked(|o| {
             let a = o.as_ref().ok()?;
             drawn.with_value(|d| d.as_ref().and_then(|d| pole_on_canvas(a, case, d)))
         })

@@ -272,7 +272,7 @@ pub fn ResultsPanel() -> impl IntoView {
         // (elsewhere the readout does, and a table that changed under a passing pointer
         // would only distract)
         let focus = if state.vehicle.with(Option::is_some) { state.focus.get() } else { None };
-        state.settled_analysis.with(|a| {
+        state.settled_drawn.with(|a| {
             let Ok(a) = a else { return Vec::new() };
             rows(a, case, ribs, units, focus)
                 .into_iter()
@@ -294,7 +294,7 @@ pub fn ResultsPanel() -> impl IntoView {
     });
     let note = Memo::new(move |_| {
         let (case, units) = (state.case.get(), state.units.get());
-        state.settled_analysis.with(|a| a.as_ref().ok().and_then(|a| thrust_note(a, case, units)))
+        state.settled_drawn.with(|a| a.as_ref().ok().and_then(|a| thrust_note(a, case, units)))
     });
     // the warnings are the validation's: a move of the vehicle leaves them be
     let warnings = Memo::new(move |_| {

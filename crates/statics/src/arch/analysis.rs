@@ -160,6 +160,30 @@ pub enum Extent {
         /// elevation draws then.
         shown: usize,
     },
+    /// What a page shows after an edit: as [`Extent::Whole`] (every model solved for
+    /// every case, the action cases and their report, what the panels read) but the
+    /// figures of load case `shown` alone, every other case's marked
+    /// [`FigureNote::NotDrawn`]: only the shown case is drawn, and the other cases'
+    /// figures were a third of an edit's analysis. [`figures_of`] works out another
+    /// case's when it is shown.
+    Screen {
+        /// The case drawn; past the last case, the dead load (the first).
+        shown: usize,
+    },
+}
+
+impl Extent {
+    /// Whether the figures of the case at `index` are worked out.
+    fn draws(self, index: usize) -> bool {
+        match self {
+            Extent::Whole => true,
+            Extent::Drawing { shown } | Extent::Screen { shown } => shown == index,
+        }
+    }
+    /// Whether the action cases are solved and reported.
+    fn solves_actions(self) -> bool {
+        !matches!(self, Extent::Drawing { .. })
+    }
 }
 
 impl fmt::Display for FigureNote {
@@ -530,10 +554,8 @@ pub fn analyze_to(
     let specs: Vec<CaseSpec> = standard_cases(valid).into_iter().chain(extra.iter().cloned()).collect();
     let contrast = stiffness_contrast(design);
     // the action cases with the standard ones, unless this validated design has them
-    let action_specs = match extent {
-        Extent::Whole if valid.actions_known().is_none() => Some(action_cases(design)),
-        Extent::Whole | Extent::Drawing { .. } => None,
-    };
+    let action_specs =
+        (extent.solves_actions() && valid.actions_known().is_none()).then(|| action_cases(design));
     let Solved { frame, frame_solution, rib, rib_solution, truss, actions } =
         solve_models(valid, &specs, action_specs.as_deref(), previous).map_err(|e| {
             match (&e, &contrast) {
@@ -581,13 +603,14 @@ pub fn analyze_to(
     let case_count = cases.len();
     let extent = match extent {
         Extent::Drawing { shown } if shown >= case_count => Extent::Drawing { shown: 0 },
+        Extent::Screen { shown } if shown >= case_count => Extent::Screen { shown: 0 },
         other => other,
     };
     let load_cases = cases
         .into_iter()
         .enumerate()
         .map(|(index, (name, kind))| {
-            if matches!(extent, Extent::Drawing { shown } if shown != index) {
+            if !extent.draws(index) {
                 return CaseFigures {
                     case: name,
                     description: kind,
@@ -665,7 +688,7 @@ pub fn analyze_to(
         actions: match (actions, extent) {
             // kept with the validated design, as `action_results` would
             (Some(report), _) => valid.actions_or_init(|| Ok(report)).clone()?,
-            (None, Extent::Whole) => action_results(valid)?,
+            (None, Extent::Whole | Extent::Screen { .. }) => action_results(valid)?,
             (None, Extent::Drawing { .. }) => ActionsReport {
                 temperature: design.actions.temperature.clone(),
                 braking: braking(design),
@@ -673,6 +696,22 @@ pub fn analyze_to(
             },
         },
     })
+}
+
+/// The figures of the load case at `index` of `analysis` (an index into
+/// `Analysis::load_cases`), worked out from its solved models: what
+/// [`Extent::Whole`] would have put there, for a case an analysis to
+/// [`Extent::Screen`] or [`Extent::Drawing`] left undrawn ([`FigureNote::NotDrawn`]).
+/// `design` is the design analysed (its rib system and rib depth). `None` past the last
+/// case.
+pub fn figures_of(analysis: &Analysis, design: &Design, index: usize) -> Option<CaseFigures> {
+    let case = analysis.load_cases.get(index)?;
+    let figures = Figures {
+        frame: (&analysis.frame.model, &analysis.frame.map, &analysis.frame.solution),
+        truss: analysis.truss.as_ref().map(|t| (&t.model, t.solution.as_ref(), FormMap::new(&t.model))),
+        rib: (&analysis.bare_rib.model, &analysis.bare_rib.map, &analysis.bare_rib.solution),
+    };
+    Some(case_figures(design, &figures, &case.case, case.description))
 }
 
 /// The solved models a case's figures are drawn from.
@@ -1059,6 +1098,36 @@ mod tests {
         let past = analyze_to(&valid, &vehicle, None, Extent::Drawing { shown: shown + 5 }).expect("solves");
         assert_eq!(past.load_cases.first(), whole.load_cases.first());
         assert_eq!(past.load_cases.get(shown).map(|c| c.notes.clone()), Some(vec![FigureNote::NotDrawn]));
+    }
+
+    /// A screen's extent is a whole analysis but for the figures of the cases not shown
+    /// (the action cases and their report included), and `figures_of` works out any
+    /// case's figures from it exactly as the whole analysis has them, for each rib
+    /// system (check value: the engine's whole analysis of the same design).
+    #[test]
+    fn a_screens_extent_leaves_out_only_the_other_cases_figures() {
+        use crate::arch::design::RibSystem;
+        for system in [RibSystem::ThreeHinged, RibSystem::TwoHinged, RibSystem::Fixed] {
+            let mut d = Design::demo();
+            d.rib_system = system;
+            let valid = ValidDesign::new(&d).expect("demo");
+            let whole = analyze_to(&valid, &[], None, Extent::Whole).expect("solves");
+            let shown = 2;
+            let screen = analyze_to(&valid, &[], None, Extent::Screen { shown }).expect("solves");
+            assert_eq!(screen.load_cases.get(shown), whole.load_cases.get(shown), "{system:?}");
+            let undrawn = screen.load_cases.iter().filter(|c| c.notes == [FigureNote::NotDrawn]).count();
+            assert_eq!(undrawn, whole.load_cases.len() - 1, "{system:?}");
+            assert!(!screen.actions.cases.is_empty(), "{system:?}");
+            let mut filled = screen.clone();
+            for k in 0..filled.load_cases.len() {
+                filled.load_cases[k] = figures_of(&screen, &d, k).expect("a case");
+            }
+            assert_eq!(filled, whole, "{system:?}");
+            assert!(figures_of(&screen, &d, whole.load_cases.len()).is_none());
+            // past the last case: the dead load's, as a drawing's extent
+            let past = analyze_to(&valid, &[], None, Extent::Screen { shown: 99 }).expect("solves");
+            assert_eq!(past.load_cases.first(), whole.load_cases.first(), "{system:?}");
+        }
     }
 
     /// The action cases solved with the standard ones (one factorisation per model) give
