@@ -258,11 +258,15 @@ impl Placer {
         // rings of growing radius around the point, 16 directions each; the first free box
         // gets a leader back to the point
         let step = h.max(12.0);
+        // the directions once, not per ring: the sines were most of a drawing's placing
+        let directions: [(f64, f64); 16] = std::array::from_fn(|k| {
+            let angle = std::f64::consts::TAU * k as f64 / 16.0;
+            (angle.cos(), angle.sin())
+        });
         for ring in 1..=12 {
             let radius = req.gap + step * ring as f64;
-            for k in 0..16 {
-                let angle = std::f64::consts::TAU * k as f64 / 16.0;
-                let c = Px::new(req.at.x + radius * angle.cos(), req.at.y - radius * angle.sin());
+            for (cos, sin) in directions {
+                let c = Px::new(req.at.x + radius * cos, req.at.y - radius * sin);
                 let r = Rect::new(c.x - w / 2.0, c.y - h / 2.0, w, h);
                 if self.is_free(&r) {
                     return Some((r, Some(req.at)));
