@@ -141,7 +141,7 @@ pub enum FigureNote {
         reason: String,
     },
     /// No figures: the analysis was worked out for the drawings of another case alone
-    /// ([`Extent::Drawing`]).
+    /// ([`Extent::Drawing`], [`Extent::Screen`]).
     NotDrawn,
 }
 
@@ -164,8 +164,8 @@ pub enum Extent {
     /// every case, the action cases and their report, what the panels read) but the
     /// figures of load case `shown` alone, every other case's marked
     /// [`FigureNote::NotDrawn`]: only the shown case is drawn, and the other cases'
-    /// figures were a third of an edit's analysis. [`figures_of`] works out another
-    /// case's when it is shown.
+    /// figures were about a seventh of an edit's analysis. [`figures_of`] works out
+    /// another case's when it is shown.
     Screen {
         /// The case drawn; past the last case, the dead load (the first).
         shown: usize,
@@ -213,7 +213,7 @@ impl fmt::Display for FigureNote {
                  at the rib nodes with the rib depth {depth} m"
             ),
             FigureNote::NoThrustLine { reason } => write!(f, "no thrust line: {reason}"),
-            FigureNote::NotDrawn => f.write_str("no figures: only the case on screen was drawn during a drag"),
+            FigureNote::NotDrawn => f.write_str("no figures: only the case on screen was drawn"),
         }
     }
 }

@@ -7,8 +7,8 @@
 //!
 //! Member styles (tension dashed, compression solid, zero dotted, so that sign reads
 //! without colour; colour by [`Ink`]): line width 1.2 px + 6 px x sqrt(|N| / largest
-//! |N| drawn) to the nearest half pixel, N the mean of the end forces; |N| at or below the solver's zero
-//! (`ZERO_FORCE` of the case's largest force) counts as no force.
+//! |N| drawn) to the nearest half pixel, N the mean of the end forces; |N| at or below
+//! the solver's zero (`ZERO_FORCE` of the case's largest force) counts as no force.
 //!
 //! Springing forces are [`SpringingForce`] values of the model drawn (the frame model's
 //! are the numbers of the results table; with the truss idealisation drawn, its own

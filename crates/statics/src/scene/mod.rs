@@ -265,9 +265,10 @@ impl Stroke {
 
 /// `width` (CSS px) to the nearest multiple of `step` (px): a line weight graded by force
 /// in steps, so members of like force share one stroke and a painter draws each step's
-/// members as one path (a 16-panel elevation drew about a hundred lines, each in its own
-/// width, one stroke call apiece). A step of a quarter or half pixel is finer than the
-/// eye reads a line's weight. A `step` of zero or less leaves the width as it is.
+/// members as one path (the demo's elevation drew its 52 members in 52 stroke calls, each
+/// in its own width; in steps and grouped, 11). A step of a quarter or half pixel is
+/// finer than the eye reads a line's weight. A `step` of zero or less leaves the width as
+/// it is.
 pub fn stepped_width(width: f64, step: f64) -> f64 {
     if step > 0.0 {
         (width / step).round() * step
