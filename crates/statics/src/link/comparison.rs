@@ -178,7 +178,9 @@ pub fn decode_comparison(link: &str) -> Result<Comparison, StaticsError> {
             Err(StaticsError::Invalid(problems)) => return Err(refused(LinkError::Invalid(problems)).into()),
             Err(other) => return Err(refused(LinkError::Unusable(Box::new(other))).into()),
         }
-        options.push(NamedDesign { name: option.name, design });
+        // as the encoder writes it (white space at the ends trimmed): what opens reopens
+        // from its own link as it was
+        options.push(NamedDesign { name: tidy_name(&option.name), design });
     }
     Ok(Comparison { options, open })
 }
@@ -269,7 +271,7 @@ pub fn read_saved(text: &str) -> Result<SavedOptions, StaticsError> {
             None => permalink::decode(&entry.link).map_err(|e| e.to_string()),
         };
         match opened {
-            Ok(design) => saved.options.push(NamedDesign { name: entry.name, design }),
+            Ok(design) => saved.options.push(NamedDesign { name: tidy_name(&entry.name), design }),
             Err(reason) => {
                 saved.set_aside.push(SetAside { index: k + 1, name: entry.name, link: entry.link, reason })
             }
@@ -363,6 +365,13 @@ mod tests {
         );
         let kind = refused(decode_comparison(&wire(0, vec![option(" ", 19.5)])));
         assert_eq!(kind.to_string(), "the name of option 1 is empty");
+        // a name with spaces at its ends (written past the encoder, which trims) opens
+        // trimmed, as the encoder writes it, so it reopens from its own link unchanged
+        // (the comparison fuzz target found this)
+        let opened = decode_comparison(&wire(0, vec![option(" Base, rise 19.5 m ", 19.5)])).expect("opens");
+        assert_eq!(opened.options[0].name, "Base, rise 19.5 m");
+        let again = decode_comparison(&encode_comparison(&opened).expect("encodes")).expect("reopens");
+        assert_eq!(again, opened);
         let long = "x".repeat(61);
         let kind = refused(decode_comparison(&wire(0, vec![option(&long, 19.5)])));
         assert_eq!(kind.to_string(), "the name of option 1 has 61 characters; at most 60");
@@ -405,6 +414,12 @@ mod tests {
         assert_eq!(read.set_aside.len(), 1);
         assert_eq!((read.set_aside[0].index, read.set_aside[0].name.as_str()), (2, "higher"));
         assert!(!read.set_aside[0].reason.is_empty());
+        // a name stored with spaces at its ends reads trimmed, as it is written back
+        let mut value: serde_json::Value = serde_json::from_str(&text).expect("json");
+        value["options"][0]["name"] = serde_json::Value::String("  base ".into());
+        let read = read_saved(&value.to_string()).expect("reads");
+        assert_eq!(read.options[0].name, "base");
+        assert!(read_saved(&write_saved(&read.options)).expect("reads back").options == read.options);
         // content of another kind, version or not JSON is refused whole
         for (content, words) in [
             ("{not json", "not valid JSON"),
