@@ -801,7 +801,9 @@ mod tests {
 
     /// The demo's members under a half-span load: every member drawn once, in half-pixel
     /// weights, each stroke's members one after another (so a painter draws a weight as
-    /// one path), in fewer strokes than members.
+    /// one path), in fewer strokes than members. Check values: the frame model's own
+    /// member count and the drawing's own strokes (a property of the scene, no outside
+    /// value).
     #[test]
     fn the_members_are_drawn_a_stroke_at_a_time() {
         let d = Design::demo();

@@ -282,44 +282,15 @@ pub fn stepped_width(width: f64, step: f64) -> f64 {
 /// order (a stable grouping). For a layer whose items may overlap in any order (the
 /// members of a drawing, which meet only at their joints): consecutive lines in one
 /// stroke are one path and one stroke call for a painter. Other layers keep their order.
-pub fn group_by_stroke(items: &mut Vec<Item>) {
+pub fn group_by_stroke(items: &mut [Item]) {
     let mut strokes: Vec<Option<Stroke>> = Vec::new();
-    let groups: Vec<usize> = items
-        .iter()
-        .map(|item| match strokes.iter().position(|s| *s == item.stroke) {
-            Some(g) => g,
-            None => {
-                strokes.push(item.stroke);
-                strokes.len() - 1
-            }
-        })
-        .collect();
-    if strokes.len() <= 1 || groups.is_sorted() {
-        return;
-    }
-    // a counting sort on the group: each group's count, then where its items start
-    let mut next = vec![0usize; strokes.len()];
-    for &g in &groups {
-        if let Some(count) = next.get_mut(g) {
-            *count += 1;
+    for item in items.iter() {
+        if !strokes.contains(&item.stroke) {
+            strokes.push(item.stroke);
         }
     }
-    let mut start = 0;
-    for at in next.iter_mut() {
-        let count = *at;
-        *at = start;
-        start += count;
-    }
-    let mut slots: Vec<Option<Item>> = (0..items.len()).map(|_| None).collect();
-    for (item, g) in items.drain(..).zip(groups) {
-        if let Some(at) = next.get_mut(g) {
-            if let Some(slot) = slots.get_mut(*at) {
-                *slot = Some(item);
-            }
-            *at += 1;
-        }
-    }
-    items.extend(slots.into_iter().flatten());
+    // the engine's one stable sort, keyed on the order each stroke first appears in
+    crate::order::sort_by_key(items, |item| strokes.iter().position(|s| *s == item.stroke));
 }
 
 /// A geometric shape in CSS pixels.
