@@ -4,6 +4,7 @@
 mod app;
 mod canvas;
 mod components;
+mod dom;
 mod drag;
 mod forces;
 mod format;

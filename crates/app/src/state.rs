@@ -5,7 +5,7 @@
 use crate::format::Units;
 use crate::timing::{timed, Step};
 use leptos::prelude::*;
-use springline_statics::arch::analysis::{analyze_to, figures_of, Extent, FigureNote};
+use springline_statics::arch::analysis::{analyze_to, drawn_case, figures_of, Extent, FigureNote};
 use springline_statics::arch::cases::{standard_cases, CaseSpec, Pattern};
 use springline_statics::arch::design::Warning;
 use springline_statics::arch::edit::{Drag, DragStop, Snapping};
@@ -424,8 +424,7 @@ impl AppState {
                 let shown = case.get();
                 let outcome = analysis.get();
                 let Ok(a) = &outcome else { return outcome };
-                // past the last case the drawings show the dead load's
-                let index = if shown < a.load_cases.len() { shown } else { 0 };
+                let index = drawn_case(shown, a.load_cases.len());
                 let undrawn =
                     a.load_cases.get(index).is_some_and(|c| c.notes.contains(&FigureNote::NotDrawn));
                 let figures = undrawn

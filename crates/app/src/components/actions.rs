@@ -285,7 +285,7 @@ pub fn ActionsResults() -> impl IntoView {
                 }
                 let Some(el) = document.get_element_by_id(id) else { continue };
                 if text_changed {
-                    el.set_text_content(Some(shown));
+                    crate::dom::write_text(&el, shown);
                 }
                 if data_changed {
                     let _ = el.set_attribute("data-value", data);

@@ -286,9 +286,10 @@ pub fn ResultsPanel() -> impl IntoView {
                 .collect::<Vec<_>>()
         })
     });
+    // every part of the table reads the one analysis, the shown case's figures worked out
     let caption = Memo::new(move |_| {
         let case = state.case.get();
-        state.settled_analysis.with(|a| {
+        state.settled_drawn.with(|a| {
             a.as_ref().ok().map(|a| a.load_cases.get(case).map(|c| c.description.title()).unwrap_or_default())
         })
     });
@@ -300,8 +301,7 @@ pub fn ResultsPanel() -> impl IntoView {
     let warnings = Memo::new(move |_| {
         state.settled_valid.with(|v| v.as_ref().map(|v| warning_lines(v.warnings())).ok())
     });
-    let failure =
-        Memo::new(move |_| state.settled_analysis.with(|a| a.as_ref().err().map(|e| e.to_string())));
+    let failure = Memo::new(move |_| state.settled_drawn.with(|a| a.as_ref().err().map(|e| e.to_string())));
     let table = move || {
         caption.get().map(|title| {
             view! {
@@ -331,7 +331,7 @@ pub fn ResultsPanel() -> impl IntoView {
                                         return was;
                                     };
                                     if row.label != was.label {
-                                        th.set_text_content(Some(&row.label));
+                                        crate::dom::write_text(&th, &row.label);
                                     }
                                     if row.data != was.data {
                                         let _ = td.set_attribute("data-value", &row.data);
@@ -340,7 +340,7 @@ pub fn ResultsPanel() -> impl IntoView {
                                         let _ = td.set_attribute("data-quantity", row.kind);
                                     }
                                     if row.shown != was.shown {
-                                        td.set_text_content(Some(&row.shown));
+                                        crate::dom::write_text(&td, &row.shown);
                                     }
                                     row
                                 });

@@ -602,9 +602,9 @@ pub fn analyze_to(
     // dead load, as the elevation does
     let case_count = cases.len();
     let extent = match extent {
-        Extent::Drawing { shown } if shown >= case_count => Extent::Drawing { shown: 0 },
-        Extent::Screen { shown } if shown >= case_count => Extent::Screen { shown: 0 },
-        other => other,
+        Extent::Drawing { shown } => Extent::Drawing { shown: drawn_case(shown, case_count) },
+        Extent::Screen { shown } => Extent::Screen { shown: drawn_case(shown, case_count) },
+        Extent::Whole => Extent::Whole,
     };
     let load_cases = cases
         .into_iter()
@@ -696,6 +696,18 @@ pub fn analyze_to(
             },
         },
     })
+}
+
+/// The index of the load case the drawings show when case `shown` is chosen from
+/// `case_count` cases: `shown` itself, or past the last case the dead load (index 0).
+/// A case index can outlive its case: extra cases are built for one design, and a drag
+/// or an edit may change it before they are built again. `case_count` 0 gives 0.
+pub fn drawn_case(shown: usize, case_count: usize) -> usize {
+    if shown < case_count {
+        shown
+    } else {
+        0
+    }
 }
 
 /// The figures of the load case at `index` of `analysis` (an index into

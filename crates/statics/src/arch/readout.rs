@@ -16,7 +16,7 @@
 //! (start to end) is in tension. Values below the solver's zero (`ZERO_FORCE` of the
 //! case's largest force) are reported as exactly 0.
 
-use crate::arch::analysis::Analysis;
+use crate::arch::analysis::{drawn_case, Analysis};
 use crate::arch::cases::CaseKind;
 use crate::arch::generate::{MemberRole, ModelKind, ModelMap};
 use crate::arch::layout::Joint;
@@ -195,7 +195,7 @@ fn forces_in(kind: ModelKind, member: usize, case: &CaseResult, role: MemberRole
 /// range reads the dead load (case 0).
 pub fn readout(analysis: &Analysis, ribs: usize, key: &MemberKey, case: usize) -> Readout {
     let frame_cases = &analysis.frame.solution.cases;
-    let case = if case < frame_cases.len() { case } else { 0 };
+    let case = drawn_case(case, frame_cases.len());
     let role = key.role();
     let frame = match (key.member_in(&analysis.frame.map, ModelKind::Frame), frame_cases.get(case)) {
         (Some(k), Some(c)) => {

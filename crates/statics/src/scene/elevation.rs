@@ -22,7 +22,7 @@ use super::{
     group_by_stroke, stepped_width, Ink, Item, Label, Pattern, Px, Rect, Scene, Shape, Stroke, Tag, TextSize,
     Transform, Viewport,
 };
-use crate::arch::analysis::Analysis;
+use crate::arch::analysis::{drawn_case, Analysis};
 use crate::arch::cases::CaseKind;
 use crate::arch::design::{Design, RibSystem};
 use crate::arch::generate::{MemberRole, ModelKind, ModelMap};
@@ -177,7 +177,7 @@ pub fn elevation_with_overlay(
 ) -> (Scene, Vec<String>) {
     let a = analysis;
     let units = opts.units;
-    let case_index = if opts.case < a.frame.solution.cases.len() { opts.case } else { 0 };
+    let case_index = drawn_case(opts.case, a.frame.solution.cases.len());
     let Some(frame_case) = a.frame.solution.cases.get(case_index) else {
         // an analysis always solves the dead load; without any case there is nothing to draw
         let mut scene = Scene::new(viewport);
