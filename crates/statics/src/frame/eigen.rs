@@ -160,22 +160,23 @@ impl Modes {
     }
 }
 
+/// A times every column of `x`, the columns taken together (`BandMatrix::mul_rows_into`,
+/// on the transpose: a column-major matrix's transpose holds its rows one after another).
 fn band_times(b: &BandMatrix, x: &DMatrix<f64>) -> Result<DMatrix<f64>, StaticsError> {
     let (n, p) = x.shape();
-    let mut y = DMatrix::zeros(n, p);
-    for j in 0..p {
-        b.mul_into(&x.as_slice()[j * n..(j + 1) * n], &mut y.as_mut_slice()[j * n..(j + 1) * n])?;
-    }
-    Ok(y)
+    let rows = x.transpose();
+    let mut y = DMatrix::zeros(p, n);
+    b.mul_rows_into(rows.as_slice(), y.as_mut_slice(), p)?;
+    Ok(y.transpose())
 }
 
-/// K^-1 y for every column of `y`, in place.
-fn solve_columns(factor: &LdlFactor, mut y: DMatrix<f64>) -> Result<DMatrix<f64>, StaticsError> {
-    let n = y.nrows();
-    for j in 0..y.ncols() {
-        factor.solve_in_place(&mut y.as_mut_slice()[j * n..(j + 1) * n])?;
-    }
-    Ok(y)
+/// K^-1 y for every column of `y`, the columns solved together
+/// (`LdlFactor::solve_rows_in_place`, on the transpose as in `band_times`).
+fn solve_columns(factor: &LdlFactor, y: DMatrix<f64>) -> Result<DMatrix<f64>, StaticsError> {
+    let p = y.ncols();
+    let mut rows = y.transpose();
+    factor.solve_rows_in_place(rows.as_mut_slice(), p)?;
+    Ok(rows.transpose())
 }
 
 /// The Rayleigh-Ritz solution in the span of a subspace: Ritz values descending, the
