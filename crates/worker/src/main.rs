@@ -2,6 +2,11 @@
 //! replies out as bytes, a `Uint8Array` each; `springline_worker::run_text`). A panic is logged to the
 //! console; the page sees the worker's error event and says so.
 
+/// The worker's allocator, as the page's (`crates/app/Cargo.toml` says why).
+#[cfg(target_arch = "wasm32")]
+#[global_allocator]
+static ALLOCATOR: talc::wasm::WasmDynamicTalc = talc::wasm::new_wasm_dynamic_allocator();
+
 #[cfg(target_arch = "wasm32")]
 fn main() {
     use wasm_bindgen::closure::Closure;
