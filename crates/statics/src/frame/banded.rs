@@ -370,8 +370,9 @@ impl LdlFactor {
         let data = &self.l.data;
         // The loops below run over slices (no index arithmetic or bounds check per term)
         // and sum in the same order as the textbook's loops over k, so the results are
-        // the same to the last bit; this solve is the inner loop of every eigenvalue
-        // iteration and influence line.
+        // the same to the last bit; this solve is the inner loop of every static solve
+        // and influence line (the eigenvalue iteration takes its vectors together:
+        // `solve_rows_in_place`).
         // L y = b: row i of the band holds L_ik at offset i - k, the terms k = lo..i taken
         // in increasing k
         for i in 0..n {
