@@ -372,7 +372,8 @@ impl LdlFactor {
         // and sum in the same order as the textbook's loops over k, so the results are
         // the same to the last bit; this solve is the inner loop of every static solve
         // and influence line (the eigenvalue iteration takes its vectors together:
-        // `solve_rows_in_place`).
+        // `solve_rows_in_place`). It is not that block solve with one column: measured,
+        // an edit's analysis took 18% longer so (0.431 -> 0.510 ms at 16 panels).
         // L y = b: row i of the band holds L_ik at offset i - k, the terms k = lo..i taken
         // in increasing k
         for i in 0..n {
