@@ -97,8 +97,8 @@ fn counters(s: &Session) -> [f64; 4] {
 
 /// Waits until the page is quiet (less than 2 ms of main-thread work in 0.4 s, at most
 /// 8 s): the work it defers until edits pause (the background worker's results, asked
-/// after 0.25 s, read and shown; the address bar after 0.3 s; the print sheet's QR code
-/// after 0.4 s) is done.
+/// after 0.25 s, read and shown; the address bar after 0.3 s; the print sheet's link and
+/// numbers after 0.4 s) is done.
 /// Returns the main-thread work done meanwhile, ms.
 fn settle(s: &Session) -> f64 {
     let start = counters(s)[0];
@@ -173,7 +173,9 @@ impl Summary {
         };
         let mut parts = vec![
             part("main thread (task time)", |s| s.main),
-            part("then, once edits pause (the worker's results shown, QR code, address bar)", |s| s.deferred),
+            part("then, once edits pause (the worker's results shown, address bar, print sheet)", |s| {
+                s.deferred
+            }),
             part("of which script (all of the page's code)", |s| s.script),
             part("of which style and layout", |s| s.style_layout),
             part("of which compute (validation, analysis)", |s| s.compute),

@@ -239,13 +239,24 @@ fn projector_mode_enlarges_and_hides_and_the_sheet_prints_on_one_page() {
     assert_eq!(s.exec(style, vec![])[1], before[1]);
     assert!(text_of(&s, "shortcuts").contains("Alt+B"));
 
-    // an image of the sheet as printed (print media, the A4 width at 96 px per inch), its
-    // QR code drawn once the link has rested
+    // the sheet's link follows the design once it rests; its QR code is worked out only
+    // when the page prints (scoring the code's masks is tens of milliseconds of the page's
+    // thread), and printing draws the code of the link printed
     s.wait_for(
-        "the QR code drawn",
-        "return document.getElementById('print-qr').dataset.modules !== undefined;",
+        "the sheet's link",
+        "return document.getElementById('print-link').textContent.includes('#');",
         WAIT,
     );
+    let modules = "return document.getElementById('print-qr').dataset.modules ?? null;";
+    assert_eq!(s.exec(modules, vec![]), Value::Null, "no code before the page prints");
+    assert!(s.print_pdf(21.0, 29.7).starts_with(b"%PDF"));
+    let width = s.exec(modules, vec![]);
+    let link = text_of(&s, "print-link");
+    let (version, read) = read_qr(&canvas_data_url(&s, "print-qr"));
+    assert_eq!(read, link, "the code reads back as the link printed beside it");
+    assert_eq!(width, json!((17 + 4 * version).to_string()), "data-modules: the code's width in modules");
+
+    // an image of the sheet as printed (print media, the A4 width at 96 px per inch)
     s.set_window(794, 1123);
     s.cdp("Emulation.setEmulatedMedia", json!({ "media": "print" }));
     std::thread::sleep(std::time::Duration::from_millis(500));
@@ -264,4 +275,21 @@ fn projector_mode_enlarges_and_hides_and_the_sheet_prints_on_one_page() {
     }
     let errors = severe(&s);
     assert!(errors.is_empty(), "{errors:?}");
+}
+
+/// The text and version of the one QR code in a PNG given as a data URL, read by rqrr (an
+/// independent QR reader from the crate registry, which finds the code in the image
+/// itself).
+fn read_qr(url: &str) -> (usize, String) {
+    let bytes = base64_decode(url.trim_start_matches("data:image/png;base64,"));
+    let mut reader = png::Decoder::new(std::io::Cursor::new(bytes)).read_info().expect("a PNG");
+    let mut pixels = vec![0; reader.output_buffer_size()];
+    let frame = reader.next_frame(&mut pixels).expect("it decodes");
+    let (w, h) = (frame.width as usize, frame.height as usize);
+    let channels = frame.line_size / w;
+    let mut image = rqrr::PreparedImage::prepare_from_greyscale(w, h, |x, y| pixels[(y * w + x) * channels]);
+    let grids = image.detect_grids();
+    assert_eq!(grids.len(), 1, "one QR code in the canvas");
+    let (meta, text) = grids[0].decode().expect("the QR code decodes");
+    (meta.version.0, text)
 }

@@ -1,6 +1,6 @@
 //! Work that waits for the edits to pause: what takes longer than an edit's redraw (the
-//! results asked of the background worker, `crate::settled`; the print sheet's QR code)
-//! is started once the value it follows has rested.
+//! results asked of the background worker, `crate::settled`; the print sheet's link and
+//! numbers) is started once the value it follows has rested.
 
 use leptos::prelude::*;
 use std::time::Duration;

@@ -14,7 +14,7 @@ thread_local! {
 }
 
 /// What a timed step is: the engine's computation (validation, analysis), the building of
-/// a drawing's scene, or painting it on a canvas.
+/// a drawing's scene, painting it on a canvas, or the print sheet's QR code.
 #[derive(Debug, Clone, Copy)]
 pub enum Step {
     /// Validation and analysis (`ValidDesign::new`, `analyze_reusing`).
@@ -23,6 +23,8 @@ pub enum Step {
     Scene,
     /// A scene painted on its canvas (the canvas's id).
     Paint(&'static str),
+    /// The print sheet's QR code worked out and drawn (as the page prints).
+    Code,
 }
 
 impl Step {
@@ -33,6 +35,7 @@ impl Step {
             Step::Paint("elevation") => "paint-elevation",
             Step::Paint("forces") => "paint-forces",
             Step::Paint(_) => "paint",
+            Step::Code => "code",
         }
     }
 }

@@ -8,6 +8,7 @@
 use crate::format::Quantity;
 use crate::permalink_sync::link_to_open_design;
 use crate::state::AppState;
+use crate::timing::{timed, Step};
 use leptos::html::Canvas;
 use leptos::prelude::*;
 use qrcode::{Color, EcLevel, QrCode};
@@ -17,19 +18,20 @@ use springline_statics::scene::Ink;
 /// canvas is printed at 40 mm (`web/style.css`).
 const QR_MODULE_PX: u32 = 6;
 
-/// How long the link rests before its QR code is drawn.
-const QR_DELAY: std::time::Duration = std::time::Duration::from_millis(400);
+/// How long the design rests before the sheet's link and numbers follow it.
+const REST_DELAY: std::time::Duration = std::time::Duration::from_millis(400);
 
 /// The sheet.
 #[component]
 pub fn PrintSheet() -> impl IntoView {
     let state = expect_context::<AppState>();
     let node: NodeRef<Canvas> = NodeRef::new();
-    // The sheet's link and its code follow the design once it has rested (not on every
+    // The sheet's link and numbers follow the design once it has rested (not on every
     // pointer move: the settled design holds while a drag is on), and again just before
-    // printing: the sheet is hidden on screen, so neither the link's encoding (a few
-    // tenths of a millisecond) nor the code's mask (about 10 ms) need be in an edit's
-    // frame.
+    // printing: the sheet is hidden on screen, so the link's encoding (a few tenths of a
+    // millisecond) need not be in an edit's frame. Its QR code is worked out only when
+    // the page prints: choosing the code's mask (all eight scored, ISO/IEC 18004) took
+    // 20-65 ms of the page's thread each time the link rested.
     let link = move || link_to_open_design(state).unwrap_or_default();
     let coded = RwSignal::new(String::new());
     // the sheet's numbers likewise: they are read when this changes
@@ -39,58 +41,24 @@ pub fn PrintSheet() -> impl IntoView {
         state.units.track();
         Some(())
     };
-    crate::pause::when_rested(design_and_units, QR_DELAY, move |()| {
+    crate::pause::when_rested(design_and_units, REST_DELAY, move |()| {
         coded.set(link());
         rested.update(|n| *n = n.wrapping_add(1));
     });
     let fits = RwSignal::new(true);
-    // the text of the code on the canvas (none until the link first rests)
+    // the text of the code on the canvas (none until the page first prints)
     let drawn = StoredValue::new(String::new());
-    Effect::new(move |_| {
-        let text = coded.get();
-        let Some(el) = node.get() else { return };
-        // the same text is not coded twice (the link at rest again, or a print)
-        if drawn.with_value(|d| *d == text) {
+    // called in the `beforeprint` handler itself: the print's layout follows it
+    let draw_for_print = move |text: &str| {
+        let Some(el) = node.get_untracked() else { return };
+        // the same text is not coded twice (a second print of the same link)
+        if drawn.with_value(|d| d == text) {
             return;
         }
-        drawn.set_value(text.clone());
-        // no link (yet) draws no code, as a link too long for one
-        let code = (!text.is_empty())
-            .then(|| QrCode::with_error_correction_level(text.as_bytes(), EcLevel::L).ok())
-            .flatten();
-        fits.set(text.is_empty() || code.is_some());
-        let Some(ctx) = el
-            .get_context("2d")
-            .ok()
-            .flatten()
-            .and_then(|c| wasm_bindgen::JsCast::dyn_into::<web_sys::CanvasRenderingContext2d>(c).ok())
-        else {
-            return;
-        };
-        let Some(code) = code else {
-            // a link too long for a code: no code at all, never the last design's
-            el.set_width(1);
-            el.set_height(1);
-            let _ = el.remove_attribute("data-modules");
-            return;
-        };
-        let n = code.width() as u32;
-        // a quiet zone of four modules all round (ISO/IEC 18004)
-        let side = (n + 8) * QR_MODULE_PX;
-        el.set_width(side);
-        el.set_height(side);
-        ctx.set_fill_style_str("#ffffff");
-        ctx.fill_rect(0.0, 0.0, side as f64, side as f64);
-        ctx.set_fill_style_str("#000000");
-        let m = QR_MODULE_PX as f64;
-        for (k, color) in code.to_colors().into_iter().enumerate() {
-            if color == Color::Dark {
-                let (x, y) = ((k as u32 % n + 4) as f64, (k as u32 / n + 4) as f64);
-                ctx.fill_rect(x * m, y * m, m, m);
-            }
-        }
-        let _ = el.set_attribute("data-modules", &n.to_string());
-    });
+        drawn.set_value(text.to_string());
+        let fitted = timed(Step::Code, || draw_code(&el, text));
+        fits.set(text.is_empty() || fitted);
+    };
     // the date the sheet is printed (not when the page was opened)
     let today = || {
         let d = js_sys::Date::new_0();
@@ -101,7 +69,11 @@ pub fn PrintSheet() -> impl IntoView {
         window_event_listener(leptos::ev::Custom::new("beforeprint"), move |_: web_sys::Event| {
             printed.set(today());
             // the code and numbers of the design as printed, without waiting for the rest
-            coded.set(link());
+            // (the numbers and the link's text follow in the effects that run as this
+            // handler returns, before the print is laid out)
+            let text = link();
+            draw_for_print(&text);
+            coded.set(text);
             rested.update(|n| *n = n.wrapping_add(1));
         });
     on_cleanup(move || before_print.remove());
@@ -179,4 +151,49 @@ pub fn PrintSheet() -> impl IntoView {
             <p class="print-link" id="print-link">{move || coded.get()}</p>
         </section>
     }
+}
+
+/// Draws `text` as a QR code (low error correction, ISO/IEC 18004; `QR_MODULE_PX` pixels a
+/// module, a quiet zone of four modules all round) on `el`, sized to it. No text, or a
+/// text too long for one code, leaves the canvas at one blank pixel (never the last
+/// design's code). Returns whether the text fitted in a code.
+fn draw_code(el: &web_sys::HtmlCanvasElement, text: &str) -> bool {
+    // no link (yet) draws no code, as a link too long for one
+    let code =
+        (!text.is_empty()).then(|| QrCode::with_error_correction_level(text.as_bytes(), EcLevel::L).ok());
+    let fitted = !matches!(code, Some(None));
+    let Some(ctx) = el
+        .get_context("2d")
+        .ok()
+        .flatten()
+        .and_then(|c| wasm_bindgen::JsCast::dyn_into::<web_sys::CanvasRenderingContext2d>(c).ok())
+    else {
+        return fitted;
+    };
+    let Some(Some(code)) = code else {
+        el.set_width(1);
+        el.set_height(1);
+        let _ = el.remove_attribute("data-modules");
+        return fitted;
+    };
+    let n = code.width() as u32;
+    let side = (n + 8) * QR_MODULE_PX;
+    el.set_width(side);
+    el.set_height(side);
+    ctx.set_fill_style_str("#ffffff");
+    ctx.fill_rect(0.0, 0.0, side as f64, side as f64);
+    // the dark modules as one path, filled once (a fill per module was some thousands of
+    // calls out of wasm)
+    ctx.set_fill_style_str("#000000");
+    ctx.begin_path();
+    let m = QR_MODULE_PX as f64;
+    for (k, color) in code.to_colors().into_iter().enumerate() {
+        if color == Color::Dark {
+            let (x, y) = ((k as u32 % n + 4) as f64, (k as u32 / n + 4) as f64);
+            ctx.rect(x * m, y * m, m, m);
+        }
+    }
+    ctx.fill();
+    let _ = el.set_attribute("data-modules", &n.to_string());
+    true
 }
