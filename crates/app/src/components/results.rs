@@ -317,10 +317,20 @@ pub fn ResultsPanel() -> impl IntoView {
                                 // a row stays while its id does; its words and number follow,
                                 // written by one effect per row (four reactive parts per row
                                 // woke some eighty effects an edit)
+                                // where the row stood last time is tried first: rows keep their
+                                // places between edits, and a search of every row for every row
+                                // compared some thousands of ids an edit
+                                let at = std::cell::Cell::new(0);
                                 let now = move || {
-                                    shown_rows.with(|rows| rows.iter().find(|r| r.id == id).cloned())
+                                    shown_rows.with(|rows| {
+                                        let k = Some(at.get())
+                                            .filter(|&k| rows.get(k).is_some_and(|r| r.id == id))
+                                            .or_else(|| rows.iter().position(|r| r.id == id))?;
+                                        at.set(k);
+                                        Some(rows[k].clone())
+                                    })
                                 };
-                                let first = untrack(now).unwrap_or_default();
+                                let first = untrack(&now).unwrap_or_default();
                                 let (head, cell) = (NodeRef::<leptos::html::Th>::new(), NodeRef::<leptos::html::Td>::new());
                                 let written = first.clone();
                                 Effect::new(move |shown: Option<ShownRow>| {

@@ -818,6 +818,12 @@ mod tests {
         assert_eq!((empty.max.value, empty.min.value), (0.0, 0.0));
     }
 
+    /// `n` positions along a line at a k + b k^2, m (k = 0..n): the gaps widen along it,
+    /// no two alike, so no search can lean on a regular grid.
+    fn uneven_positions(n: usize, a: f64, b: f64) -> Vec<f64> {
+        (0..n).map(|k| a * k as f64 + b * (k * k) as f64).collect()
+    }
+
     proptest::proptest! {
         /// On any line, the searched extremes are reached by their placements and no
         /// placement on a fine grid of positions and spacings does better (a brute-force
@@ -830,7 +836,7 @@ mod tests {
             front in 0.5f64..3.0,
             (lo, width) in (0.5f64..3.0, 0.0f64..4.0),
         ) {
-            let x: Vec<f64> = (0..eta.len()).map(|k| 1.7 * k as f64 + 0.13 * (k * k) as f64).collect();
+            let x = uneven_positions(eta.len(), 1.7, 0.13);
             let group = AxleGroup {
                 loads,
                 spacings: vec![front, lo],
@@ -858,7 +864,7 @@ mod tests {
             min in 0.5f64..6.0,
             width in 0.0f64..40.0,
         ) {
-            let x: Vec<f64> = (0..eta.len()).map(|k| 1.3 * k as f64 + 0.11 * (k * k) as f64).collect();
+            let x = uneven_positions(eta.len(), 1.3, 0.11);
             let group = AxleGroup {
                 loads,
                 spacings: vec![0.9, min, 1.1, 0.7],
@@ -880,7 +886,7 @@ mod tests {
             min in 0.5f64..4.0,
             width in 0.0f64..20.0,
         ) {
-            let x: Vec<f64> = (0..eta.len()).map(|k| 1.5 * k as f64 + 0.09 * (k * k) as f64).collect();
+            let x = uneven_positions(eta.len(), 1.5, 0.09);
             let group = AxleGroup {
                 loads,
                 spacings: vec![1.1, min, 0.8],
@@ -901,7 +907,7 @@ mod tests {
             steps in proptest::collection::vec(-3.0f64..4.0, 1..60),
             start in -2.0f64..2.0,
         ) {
-            let x: Vec<f64> = (0..eta.len()).map(|k| 1.4 * k as f64 + 0.07 * (k * k) as f64).collect();
+            let x = uneven_positions(eta.len(), 1.4, 0.07);
             let mut cursor = Cursor::default();
             let mut at = start;
             for (i, step) in steps.iter().enumerate() {
@@ -929,7 +935,7 @@ mod tests {
             spacing in 0.2f64..6.0,
             neglect_relieving in proptest::bool::ANY,
         ) {
-            let x: Vec<f64> = (0..eta.len()).map(|k| 1.2 * k as f64 + 0.1 * (k * k) as f64).collect();
+            let x = uneven_positions(eta.len(), 1.2, 0.1);
             let spacings = vec![spacing; loads.len() - 1];
             let group = AxleGroup { loads, spacings, variable: None, neglect_relieving };
             let clamps: &[Clamp] =
@@ -937,8 +943,7 @@ mod tests {
             let mut tried = 0;
             for &clamp in clamps {
                 let mut wrong = None;
-                let stops: Vec<f64> = x.clone();
-                search_clamped(&x, &eta, &group, &stops, clamp, &mut |value, p| {
+                search_clamped(&x, &eta, &group, &x, clamp, &mut |value, p| {
                     tried += 1;
                     let alone = replay_clamped(&x, &eta, &group, &p, clamp);
                     if value.to_bits() != alone.to_bits() && wrong.is_none() {
