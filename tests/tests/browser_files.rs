@@ -255,6 +255,13 @@ fn projector_mode_enlarges_and_hides_and_the_sheet_prints_on_one_page() {
     let (version, read) = read_qr(&canvas_data_url(&s, "print-qr"));
     assert_eq!(read, link, "the code reads back as the link printed beside it");
     assert_eq!(width, json!((17 + 4 * version).to_string()), "data-modules: the code's width in modules");
+    // an edit printed at once, before its link has rested: the code is drawn anew for
+    // the link printed beside it, the edited design's
+    set_field(&s, "panels", "14");
+    assert!(s.print_pdf(21.0, 29.7).starts_with(b"%PDF"));
+    let edited = text_of(&s, "print-link");
+    assert_ne!(edited, link, "the sheet's link follows the edit as the page prints");
+    assert_eq!(read_qr(&canvas_data_url(&s, "print-qr")).1, edited, "the code is the edited design's link");
 
     // an image of the sheet as printed (print media, the A4 width at 96 px per inch)
     s.set_window(794, 1123);

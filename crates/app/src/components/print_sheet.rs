@@ -31,7 +31,7 @@ pub fn PrintSheet() -> impl IntoView {
     // printing: the sheet is hidden on screen, so the link's encoding (a few tenths of a
     // millisecond) need not be in an edit's frame. Its QR code is worked out only when
     // the page prints: choosing the code's mask (all eight scored, ISO/IEC 18004) took
-    // 20-65 ms of the page's thread each time the link rested.
+    // 22-66 ms of the page's thread each time the link rested.
     let link = move || link_to_open_design(state).unwrap_or_default();
     let coded = RwSignal::new(String::new());
     // the sheet's numbers likewise: they are read when this changes
@@ -55,9 +55,11 @@ pub fn PrintSheet() -> impl IntoView {
         if drawn.with_value(|d| d == text) {
             return;
         }
-        drawn.set_value(text.to_string());
-        let fitted = timed(Step::Code, || draw_code(&el, text));
-        fits.set(text.is_empty() || fitted);
+        // a canvas without a context keeps nothing drawn, and is tried again next print
+        if let Some(fitted) = timed(Step::Code, || draw_code(&el, text)) {
+            drawn.set_value(text.to_string());
+            fits.set(fitted);
+        }
     };
     // the date the sheet is printed (not when the page was opened)
     let today = || {
@@ -70,7 +72,8 @@ pub fn PrintSheet() -> impl IntoView {
             printed.set(today());
             // the code and numbers of the design as printed, without waiting for the rest
             // (the numbers and the link's text follow in the effects that run as this
-            // handler returns, before the print is laid out)
+            // handler returns, before a print the browser started is laid out; a print
+            // the page itself started with `window.print()` would need them set first)
             let text = link();
             draw_for_print(&text);
             coded.set(text);
@@ -156,25 +159,23 @@ pub fn PrintSheet() -> impl IntoView {
 /// Draws `text` as a QR code (low error correction, ISO/IEC 18004; `QR_MODULE_PX` pixels a
 /// module, a quiet zone of four modules all round) on `el`, sized to it. No text, or a
 /// text too long for one code, leaves the canvas at one blank pixel (never the last
-/// design's code). Returns whether the text fitted in a code.
-fn draw_code(el: &web_sys::HtmlCanvasElement, text: &str) -> bool {
-    // no link (yet) draws no code, as a link too long for one
-    let code =
-        (!text.is_empty()).then(|| QrCode::with_error_correction_level(text.as_bytes(), EcLevel::L).ok());
-    let fitted = !matches!(code, Some(None));
-    let Some(ctx) = el
+/// design's code). Returns whether the text fitted in a code (an empty text counts as
+/// fitting: there is nothing to say about it), or `None` when the canvas gave no 2-d
+/// context and nothing was drawn.
+fn draw_code(el: &web_sys::HtmlCanvasElement, text: &str) -> Option<bool> {
+    let ctx = el
         .get_context("2d")
         .ok()
         .flatten()
-        .and_then(|c| wasm_bindgen::JsCast::dyn_into::<web_sys::CanvasRenderingContext2d>(c).ok())
-    else {
-        return fitted;
-    };
+        .and_then(|c| wasm_bindgen::JsCast::dyn_into::<web_sys::CanvasRenderingContext2d>(c).ok())?;
+    // no link (yet) draws no code, as a link too long for one
+    let code =
+        (!text.is_empty()).then(|| QrCode::with_error_correction_level(text.as_bytes(), EcLevel::L).ok());
     let Some(Some(code)) = code else {
         el.set_width(1);
         el.set_height(1);
         let _ = el.remove_attribute("data-modules");
-        return fitted;
+        return Some(code.is_none());
     };
     let n = code.width() as u32;
     let side = (n + 8) * QR_MODULE_PX;
@@ -182,8 +183,7 @@ fn draw_code(el: &web_sys::HtmlCanvasElement, text: &str) -> bool {
     el.set_height(side);
     ctx.set_fill_style_str("#ffffff");
     ctx.fill_rect(0.0, 0.0, side as f64, side as f64);
-    // the dark modules as one path, filled once (a fill per module was some thousands of
-    // calls out of wasm)
+    // the dark modules as one path, filled once (rather than a fill per module)
     ctx.set_fill_style_str("#000000");
     ctx.begin_path();
     let m = QR_MODULE_PX as f64;
@@ -195,5 +195,5 @@ fn draw_code(el: &web_sys::HtmlCanvasElement, text: &str) -> bool {
     }
     ctx.fill();
     let _ = el.set_attribute("data-modules", &n.to_string());
-    true
+    Some(true)
 }

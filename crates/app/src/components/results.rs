@@ -319,7 +319,7 @@ pub fn ResultsPanel() -> impl IntoView {
                                 // woke some eighty effects an edit)
                                 // where the row stood last time is tried first: rows keep their
                                 // places between edits, and a search of every row for every row
-                                // compared some thousands of ids an edit
+                                // compared some hundreds of ids an edit
                                 let at = std::cell::Cell::new(0);
                                 let now = move || {
                                     shown_rows.with(|rows| {
