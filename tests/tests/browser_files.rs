@@ -96,10 +96,7 @@ fn exports_are_complete_and_the_design_file_comes_back() {
     // PNG: decodes (its header) to the canvas's backing-store size
     let (name, url) = download(&s, "export-elevation-png");
     assert!(name.ends_with("-elevation.png"), "{name}");
-    let bytes = base64_decode(url.trim_start_matches("data:image/png;base64,"));
-    let mut reader = png::Decoder::new(std::io::Cursor::new(bytes)).read_info().expect("a PNG");
-    let mut pixels = vec![0; reader.output_buffer_size()];
-    let frame = reader.next_frame(&mut pixels).expect("it decodes");
+    let (frame, pixels) = png_pixels(&url);
     let canvas =
         s.exec("const c = document.getElementById('elevation'); return [c.width, c.height];", vec![]);
     assert_eq!(
@@ -254,6 +251,8 @@ fn projector_mode_enlarges_and_hides_and_the_sheet_prints_on_one_page() {
     let link = text_of(&s, "print-link");
     let (version, read) = read_qr(&canvas_data_url(&s, "print-qr"));
     assert_eq!(read, link, "the code reads back as the link printed beside it");
+    // a symbol of version V is 17 + 4 V modules a side (ISO/IEC 18004, symbol versions
+    // and sizes: 21 at version 1, 177 at version 40; from memory of the standard)
     assert_eq!(width, json!((17 + 4 * version).to_string()), "data-modules: the code's width in modules");
     // an edit printed at once, before its link has rested: the code is drawn anew for
     // the link printed beside it, the edited design's
@@ -288,10 +287,7 @@ fn projector_mode_enlarges_and_hides_and_the_sheet_prints_on_one_page() {
 /// independent QR reader from the crate registry, which finds the code in the image
 /// itself).
 fn read_qr(url: &str) -> (usize, String) {
-    let bytes = base64_decode(url.trim_start_matches("data:image/png;base64,"));
-    let mut reader = png::Decoder::new(std::io::Cursor::new(bytes)).read_info().expect("a PNG");
-    let mut pixels = vec![0; reader.output_buffer_size()];
-    let frame = reader.next_frame(&mut pixels).expect("it decodes");
+    let (frame, pixels) = png_pixels(url);
     let (w, h) = (frame.width as usize, frame.height as usize);
     let channels = frame.line_size / w;
     let mut image = rqrr::PreparedImage::prepare_from_greyscale(w, h, |x, y| pixels[(y * w + x) * channels]);
@@ -299,4 +295,13 @@ fn read_qr(url: &str) -> (usize, String) {
     assert_eq!(grids.len(), 1, "one QR code in the canvas");
     let (meta, text) = grids[0].decode().expect("the QR code decodes");
     (meta.version.0, text)
+}
+
+/// A PNG given as a data URL, decoded: its frame (size, line length) and its pixels.
+fn png_pixels(url: &str) -> (png::OutputInfo, Vec<u8>) {
+    let bytes = base64_decode(url.trim_start_matches("data:image/png;base64,"));
+    let mut reader = png::Decoder::new(std::io::Cursor::new(bytes)).read_info().expect("a PNG");
+    let mut pixels = vec![0; reader.output_buffer_size()];
+    let frame = reader.next_frame(&mut pixels).expect("it decodes");
+    (frame, pixels)
 }

@@ -316,10 +316,9 @@ pub fn ResultsPanel() -> impl IntoView {
                             children=move |id| {
                                 // a row stays while its id does; its words and number follow,
                                 // written by one effect per row (four reactive parts per row
-                                // woke some eighty effects an edit)
-                                // where the row stood last time is tried first: rows keep their
-                                // places between edits, and a search of every row for every row
-                                // compared some hundreds of ids an edit
+                                // woke some eighty effects an edit), which looks first where
+                                // its row stood last (rows keep their places between edits; a
+                                // search of every row for every row was hundreds of compares)
                                 let at = std::cell::Cell::new(0);
                                 let now = move || {
                                     shown_rows.with(|rows| {
