@@ -310,6 +310,51 @@ fn the_traffic_block_waits_for_the_end_of_a_drag() {
     assert!(errors.is_empty(), "{errors:?}");
 }
 
+/// The results shown once edits pause come from one background worker kept between
+/// pauses (`crates/app/src/worker_job.rs`: a fresh worker's first answer costs about three
+/// times a warm one's): after the pause that follows the page's load, three panel-count
+/// edits, each left to rest, start no new worker, and each time the traffic block shows
+/// the engine's permanent thrust of the design on screen, not an earlier one's.
+#[test]
+fn the_results_of_each_pause_come_from_the_one_kept_worker() {
+    let server = StaticServer::start(&dist());
+    let driver = Driver::start();
+    let s = driver.session(1500, 1000, 1.0);
+    open(&s, &server);
+    let mut design = Design::demo();
+    let both_current = "return ['traffic-results', 'stability-results'].every(id => {
+             const e = document.getElementById(id); return e && e.dataset.current === 'true'; });";
+    s.wait_for("the results of the design on load", both_current, WAIT);
+    // every worker the page starts from now on is counted
+    s.exec(
+        "window.springlineWorkersStarted = 0;
+         const Plain = window.Worker;
+         window.Worker = class extends Plain {
+             constructor(...args) { super(...args); window.springlineWorkersStarted += 1; }
+         };",
+        vec![],
+    );
+    for panels in [14, 18, 16] {
+        design.panels = panels;
+        let expected = report_of(&design).thrust.permanent;
+        set_field(&s, "panels", &panels.to_string());
+        s.wait_for(
+            &format!("the traffic block of {panels} panels"),
+            &format!(
+                "const p = document.getElementById('traffic-permanent');
+                 return document.getElementById('traffic-results').dataset.current === 'true'
+                     && p !== null && Math.abs(+p.dataset.value - {expected}) <= 1e-9 * Math.abs({expected})"
+            ),
+            WAIT,
+        );
+        s.wait_for(&format!("the stability of {panels} panels"), both_current, WAIT);
+    }
+    let started = s.exec("return window.springlineWorkersStarted;", vec![]);
+    assert_eq!(started, json!(0), "workers started for the three pauses");
+    let errors = severe(&s);
+    assert!(errors.is_empty(), "{errors:?}");
+}
+
 /// A preset's own values are fields: a national annex's alpha_Q1 = 0.8 (EN 1991-2
 /// 4.3.2(3) allows national choices) lowers the characteristic thrust to the engine's
 /// value for that model, and undo brings the published value back.

@@ -9,7 +9,7 @@
 //! page says so; single options whose link no longer opens are set aside the same way
 //! and the others kept.
 
-use crate::worker_job::Job;
+use crate::worker_job::{finish, Job};
 use leptos::prelude::*;
 use springline_statics::arch::options::{KeyNumbers, MAX_COMPARED};
 use springline_statics::link::comparison::{
@@ -90,9 +90,9 @@ impl OptionsState {
                             n.insert(link.clone(), numbers);
                         });
                     }
-                    // the last answer ends the worker (dropping the job)
+                    // the last answer ends the job; its worker waits for the next
                     if index + 1 == asked.len() {
-                        options.job.set_value(None);
+                        finish(options.job);
                     }
                 }
                 Reply::Failed { message } => {

@@ -8,7 +8,7 @@
 
 use crate::components::stability::SHOWN_MODES;
 use crate::state::AppState;
-use crate::worker_job::{Job, WORKER_STOPPED};
+use crate::worker_job::{finish, Job, WORKER_STOPPED};
 use leptos::prelude::*;
 use springline_statics::link::permalink;
 use springline_statics::Design;
@@ -46,12 +46,12 @@ pub fn install(state: AppState) {
             Reply::Stability { outcome } => {
                 state.stability.set(Some(Arc::new((asked.clone(), outcome))));
                 if !size {
-                    job.set_value(None);
+                    finish(job);
                 }
             }
             Reply::Sized { outcome } => {
                 state.sized.set(Some(Arc::new((asked.clone(), outcome.map(Arc::new)))));
-                job.set_value(None);
+                finish(job);
             }
             Reply::Failed { message } => {
                 failed(state, &asked, size, &worker_words(&message));

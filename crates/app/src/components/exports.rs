@@ -10,7 +10,7 @@
 
 use crate::options::OptionsState;
 use crate::state::AppState;
-use crate::worker_job::{Job, WORKER_STOPPED};
+use crate::worker_job::{finish, Job, WORKER_STOPPED};
 use leptos::prelude::*;
 use springline_statics::arch::tables::comparison_csv;
 use springline_statics::export::Export;
@@ -107,13 +107,13 @@ fn open_design_text(state: AppState, text: String, source: String, message: Mess
             Reply::Opened { design } => open_read_design(state, &design, &named),
             // a worker that stopped says itself that the design stays
             Reply::Failed { message: why } if why == WORKER_STOPPED => {
-                job.set_value(None);
+                finish(job);
                 return message.set(Some((false, format!("{named} could not be opened ({why})"))));
             }
             Reply::Failed { message: why } => Err(format!("{named} could not be opened ({why})")),
             _ => return,
         };
-        job.set_value(None);
+        finish(job);
         say(result.map(|()| format!("Opened {named}.")));
     });
     match started {
@@ -166,7 +166,7 @@ pub fn FilesPanel() -> impl IntoView {
         message.set(None);
         let started = Job::start(&Request::Export { link, export: what }, move |reply| {
             working.set(false);
-            job.set_value(None);
+            finish(job);
             match reply {
                 Reply::Exported { file_name, text } => {
                     let mime = match what {

@@ -9,7 +9,7 @@
 
 use crate::format::{Quantity, Units};
 use crate::state::{parse_number, AppState};
-use crate::worker_job::Job;
+use crate::worker_job::{finish, Job};
 use leptos::prelude::*;
 use springline_statics::arch::seek::{Goal, Measure, Side};
 use springline_statics::error::Field;
@@ -71,7 +71,7 @@ pub fn SeekPanel() -> impl IntoView {
         let request = Request::Seek { link: permalink::encode(&design), goal };
         let started = Job::start(&request, move |reply| {
             working.set(false);
-            job.set_value(None);
+            finish(job);
             match reply {
                 Reply::Sought { met, message, evaluations, link } => {
                     if state.design.with_untracked(|d| *d != design) {

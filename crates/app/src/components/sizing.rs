@@ -11,7 +11,7 @@
 
 use crate::format::{Quantity, Units};
 use crate::state::{AppState, SizeView};
-use crate::worker_job::Job;
+use crate::worker_job::{finish, Job};
 use leptos::prelude::*;
 use springline_statics::arch::foundation::SpringingDemand;
 use springline_statics::arch::massing::DEFAULT_MASSING_PASSES;
@@ -359,7 +359,7 @@ fn SettleButton() -> impl IntoView {
             Request::Massing { design: permalink::to_transfer(&start), passes: DEFAULT_MASSING_PASSES };
         let started = Job::start(&request, move |reply| {
             working.set(false);
-            job.set_value(None);
+            finish(job);
             let (converged, passes, form_thrust, steel, last_change, text) = match reply {
                 Reply::Massed { converged, passes, form_thrust, steel, last_change, design } => {
                     (converged, passes, form_thrust, steel, last_change, design)

@@ -14,7 +14,7 @@ use crate::canvas;
 use crate::components::influence_chart::rgb;
 use crate::format::{Quantity, Units};
 use crate::state::{parse_number, AppState};
-use crate::worker_job::Job;
+use crate::worker_job::{finish, Job};
 use leptos::html::Canvas;
 use leptos::prelude::*;
 use plotters::prelude::*;
@@ -262,7 +262,7 @@ pub fn SweepPanel() -> impl IntoView {
                         r.finished = true;
                     }
                 });
-                job.set_value(None);
+                finish(job);
             }
             Reply::Failed { message } => {
                 error.set(Some(message));
