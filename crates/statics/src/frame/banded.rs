@@ -132,17 +132,11 @@ impl BandMatrix {
     /// when a pivot vanishes or is not finite (sigma on an eigenvalue of a leading
     /// block): the caller moves sigma a little and asks again. O(n b^2).
     pub(crate) fn negative_pivots(&self) -> Option<usize> {
-        let (n, bw) = (self.n, self.bandwidth);
         let mut l = self.clone();
-        let mut d = vec![0.0; n];
+        let mut d = vec![0.0; self.n];
         let mut negative = 0;
-        for j in 0..n {
-            let lo = j.saturating_sub(bw);
-            let mut dj = self.data[self.idx(j, j)];
-            for k in lo..j {
-                let ljk = l.data[l.idx(j, k)];
-                dj -= ljk * ljk * d[k];
-            }
+        for j in 0..self.n {
+            let dj = l.pivot(j, &d, |_, _| ());
             if dj == 0.0 || !dj.is_finite() {
                 return None;
             }
@@ -150,16 +144,55 @@ impl BandMatrix {
                 negative += 1;
             }
             d[j] = dj;
-            for i in (j + 1)..=(j + bw).min(n.saturating_sub(1)) {
-                let mut v = self.data[self.idx(i, j)];
-                for k in i.saturating_sub(bw).max(lo)..j {
-                    v -= l.data[l.idx(i, k)] * l.data[l.idx(j, k)] * d[k];
-                }
-                let idx = l.idx(i, j);
-                l.data[idx] = v / dj;
-            }
+            l.eliminate_below(j, &d);
         }
         Some(negative)
+    }
+    /// Step j of the LDL^T factorisation on a matrix whose columns before j already hold
+    /// L and whose later columns still hold A: the pivot d_j = A_jj - sum_k L_jk^2 d_k,
+    /// k = j - b..j in increasing k (`d` holds the pivots before j). `each` sees every
+    /// term's L_jk and k. Shared by the factorisation and the Sturm count, so both run
+    /// the same sums in the same order.
+    fn pivot(&self, j: usize, d: &[f64], mut each: impl FnMut(f64, usize)) -> f64 {
+        let stride = self.bandwidth + 1;
+        let lo = j.saturating_sub(self.bandwidth);
+        // row j holds L_jk at offset j - k: offsets j - lo down to 1 are k = lo..j
+        let count = j - lo;
+        let row = &self.data[j * stride..j * stride + count + 1];
+        let pivots = &d[lo..j];
+        let mut dj = row[0];
+        for t in 0..count {
+            let ljk = row[count - t];
+            dj -= ljk * ljk * pivots[t];
+            each(ljk, lo + t);
+        }
+        dj
+    }
+    /// Step j of the LDL^T factorisation below the diagonal, after `pivot` (d_j in
+    /// `d[j]`): L_ij = (A_ij - sum_k L_ik L_jk d_k) / d_j for i = j + 1..=j + b, k in
+    /// increasing order from the first column both rows reach, and L_jj = 1.
+    fn eliminate_below(&mut self, j: usize, d: &[f64]) {
+        let n = self.n;
+        let bw = self.bandwidth;
+        let stride = bw + 1;
+        let dj = d[j];
+        let (head, tail) = self.data.split_at_mut((j + 1) * stride);
+        head[j * stride] = 1.0;
+        let row_j = &head[j * stride..];
+        let hi = (j + bw).min(n.saturating_sub(1));
+        for (i, row_i) in ((j + 1)..=hi).zip(tail.chunks_exact_mut(stride)) {
+            let first = i.saturating_sub(bw);
+            let count = j - first;
+            // row i holds L_ik at offset i - k, row j L_jk at j - k: k = first..j is
+            // offsets i - first down to i - j + 1, and j - first down to 1
+            let off = i - j;
+            let (li, lj, pivots) = (&row_i[off + 1..=off + count], &row_j[1..=count], &d[first..j]);
+            let mut v = row_i[off];
+            for t in 0..count {
+                v -= li[count - 1 - t] * lj[count - 1 - t] * pivots[t];
+            }
+            row_i[off] = v / dj;
+        }
     }
     /// The first stored entry (i, j), by rows, that is not a finite number.
     pub(crate) fn first_non_finite(&self) -> Option<(usize, usize)> {
@@ -207,39 +240,20 @@ impl LdlFactor {
     pub(crate) fn new(a: &BandMatrix) -> Result<Self, SingularPivot> {
         #[cfg(test)]
         FACTORISATIONS.with(|c| c.set(c.get() + 1));
-        let n = a.n;
-        let bw = a.bandwidth;
         let mut l = a.clone();
-        let mut d = vec![0.0; n];
-        for j in 0..n {
-            let lo = j.saturating_sub(bw);
-            let mut dj = a.get(j, j);
+        let mut d = vec![0.0; a.n];
+        for j in 0..a.n {
+            let diag = a.get(j, j).abs();
             // rounding carried into this pivot: each term's multiplier L_jk was divided by
             // d_k, so its error grows with K_kk / d_k (see ROUNDING_MARGIN)
-            let mut carried = a.get(j, j).abs();
-            for k in lo..j {
-                let ljk = l.data[l.idx(j, k)];
-                dj -= ljk * ljk * d[k];
-                carried += ljk * ljk * a.get(k, k).abs();
-            }
-            let diag = a.get(j, j).abs();
+            let mut carried = diag;
+            let dj = l.pivot(j, &d, |ljk, k| carried += ljk * ljk * a.get(k, k).abs());
             let noise = ROUNDING_MARGIN * f64::EPSILON * carried;
             if dj.is_nan() || dj <= PIVOT_TOLERANCE * diag || dj <= noise || !dj.is_finite() {
                 return Err(SingularPivot { null_vector: null_vector(&l, &d, j) });
             }
             d[j] = dj;
-            let idx = l.idx(j, j);
-            l.data[idx] = 1.0;
-            let hi = (j + bw).min(n.saturating_sub(1));
-            for i in (j + 1)..=hi {
-                let lo_i = i.saturating_sub(bw);
-                let mut v = a.get(i, j);
-                for k in lo_i.max(lo)..j {
-                    v -= l.data[l.idx(i, k)] * l.data[l.idx(j, k)] * d[k];
-                }
-                let idx = l.idx(i, j);
-                l.data[idx] = v / dj;
-            }
+            l.eliminate_below(j, &d);
         }
         Ok(LdlFactor { l, d })
     }
