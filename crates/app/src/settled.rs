@@ -22,8 +22,9 @@ const SETTLE_DELAY: Duration = Duration::from_millis(250);
 
 /// Keeps `state.traffic`, `state.stability` and (while the sizing view is on)
 /// `state.sized` for the design on screen: once the design and the view have rested for
-/// `SETTLE_DELAY` (`pause::when_rested`; nothing while a point is dragged) a worker is
-/// started for the design, and its replies set them; a newer pause ends a worker still at
+/// `SETTLE_DELAY` (`pause::when_rested`; nothing while a point is dragged) a job is
+/// started for the design (in the worker the last job left waiting, if any:
+/// `worker_job::finish`), and its replies set them; a newer pause ends a worker still at
 /// work on an older design. Turning the sizing view off asks nothing when the other two
 /// are there. Installed once, with the state.
 pub fn install(state: AppState) {
