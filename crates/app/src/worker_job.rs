@@ -40,7 +40,8 @@ thread_local! {
 /// A running job; ends its worker when dropped.
 pub struct Job {
     worker: Worker,
-    /// Set when the worker stopped with an error: it is ended, never kept.
+    /// Set when the worker stopped with an error or sent a reply that cannot be read: it
+    /// is ended, never kept.
     stopped: Rc<Cell<bool>>,
     /// Set by `release`: the worker is kept idle, not ended, as the job drops.
     kept: bool,
@@ -67,6 +68,8 @@ impl Job {
         let at_once = ready.then(|| JsValue::from_str(&text));
         let poster = worker.clone();
         let reply = on_reply.clone();
+        let stopped = Rc::new(Cell::new(false));
+        let unreadable = stopped.clone();
         let on_message = Closure::<dyn FnMut(MessageEvent)>::new(move |event: MessageEvent| {
             let parsed = match event.data().dyn_into::<js_sys::Uint8Array>() {
                 Ok(bytes) => springline_worker::read_reply(&bytes.to_vec()),
@@ -77,10 +80,13 @@ impl Job {
                     let _ = poster.post_message(&JsValue::from_str(&text));
                 }
                 Ok(other) => reply(other),
-                Err(message) => reply(Reply::Failed { message }),
+                Err(message) => {
+                    // a worker whose replies cannot be read (another build's) is not kept
+                    unreadable.set(true);
+                    reply(Reply::Failed { message })
+                }
             }
         });
-        let stopped = Rc::new(Cell::new(false));
         let marked = stopped.clone();
         let on_error = Closure::<dyn FnMut(web_sys::Event)>::new(move |_event: web_sys::Event| {
             marked.set(true);
