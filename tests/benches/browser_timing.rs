@@ -1,6 +1,7 @@
 //! Browser timing harness: how long the app takes, in headless Chromium, from an edit to
-//! the next painted frame, from page load to the first drawing, and the main-thread work
-//! of one move of a dragged vehicle. Needs the release
+//! the next painted frame and to the results its pause brings from the background worker,
+//! from page load to the first drawing, and the main-thread work of one move of a dragged
+//! vehicle. Needs the release
 //! build in `dist/` (`scripts/serve` or `trunk build --release`).
 //!
 //! Run: `cargo bench -p springline-tests --bench browser_timing`. Prints a table; it
@@ -22,6 +23,29 @@ const EDIT_TO_FRAME: &str = "
     e.value = arguments[1];
     e.dispatchEvent(new Event('change', { bubbles: true }));
     requestAnimationFrame(() => requestAnimationFrame(() => done(performance.now() - t0)));
+";
+
+/// In the page: set a field, commit it, and resolve with the milliseconds until the
+/// results the page asks of its background worker once edits pause (after 250 ms of
+/// rest) are on screen: the traffic block's, then the stability block's (each block's
+/// `data-current`, polled every 2 ms).
+const EDIT_TO_RESULTS: &str = "
+    const done = arguments[arguments.length - 1];
+    const e = document.getElementById(arguments[0]);
+    const t0 = performance.now();
+    e.value = arguments[1];
+    e.dispatchEvent(new Event('change', { bubbles: true }));
+    const current = (id) => { const b = document.getElementById(id); return b && b.dataset.current === 'true'; };
+    let traffic = null;
+    const poll = () => {
+        const now = performance.now() - t0;
+        if (traffic === null && current('traffic-results')) { traffic = now; }
+        if (traffic !== null && current('stability-results')) { done([traffic, now]); }
+        else if (now > 20000) { done([traffic, null]); }
+        else { setTimeout(poll, 2); }
+    };
+    // the blocks turn stale with the edit's own frame
+    requestAnimationFrame(() => setTimeout(poll, 0));
 ";
 
 /// In the page: grab the vehicle on the elevation with a synthetic pointer, then move it
@@ -117,6 +141,20 @@ fn main() {
             times.push(ms.as_f64().unwrap_or(f64::NAN));
         }
         println!("{panels:>8} {:>10.1}", median(times));
+    }
+
+    // the results of a pause, 16 <-> 18 panels, each edit left to rest until they are shown
+    let (mut traffic, mut stability) = (Vec::new(), Vec::new());
+    for k in 0..8 {
+        let v = if k % 2 == 0 { "18" } else { "16" };
+        let r = s.exec_async(EDIT_TO_RESULTS, vec![json!("panels"), json!(v)]);
+        traffic.push(r[0].as_f64().unwrap_or(f64::NAN));
+        stability.push(r[1].as_f64().unwrap_or(f64::NAN));
+    }
+    println!("\nedit -> the pause's results on screen, 16 <-> 18 panels (8 edits; 250 ms of rest included):");
+    println!("{:>44} {:>8} {:>8}", "", "median", "p95");
+    for (what, times) in [("traffic block (ms)", traffic), ("stability block (ms)", stability)] {
+        println!("{what:>44} {:>8.0} {:>8.0}", median(times.clone()), percentile(times, 95.0));
     }
 
     // the vehicle dragged along the deck of a 16-panel design
