@@ -14,27 +14,37 @@ use springline_tests::stats::percentile;
 use springline_tests::webdriver::Driver;
 use std::time::Instant;
 
-/// In the page: set a field, commit it, and resolve after the second animation frame
-/// (the frame that shows the change), with the elapsed milliseconds.
-const EDIT_TO_FRAME: &str = "
+/// In the page, the start of each timed edit: the field `arguments[0]` set to
+/// `arguments[1]` and committed (a change event), `t0` the time just before, `done` the
+/// script's callback.
+macro_rules! commit_field {
+    () => {
+        "
     const done = arguments[arguments.length - 1];
     const e = document.getElementById(arguments[0]);
     const t0 = performance.now();
     e.value = arguments[1];
     e.dispatchEvent(new Event('change', { bubbles: true }));
+"
+    };
+}
+
+/// In the page: set a field, commit it, and resolve after the second animation frame
+/// (the frame that shows the change), with the elapsed milliseconds.
+const EDIT_TO_FRAME: &str = concat!(
+    commit_field!(),
+    "
     requestAnimationFrame(() => requestAnimationFrame(() => done(performance.now() - t0)));
-";
+"
+);
 
 /// In the page: set a field, commit it, and resolve with the milliseconds until the
 /// results the page asks of its background worker once edits pause (after 250 ms of
 /// rest) are on screen: the traffic block's, then the stability block's (each block's
 /// `data-current`, polled every 2 ms).
-const EDIT_TO_RESULTS: &str = "
-    const done = arguments[arguments.length - 1];
-    const e = document.getElementById(arguments[0]);
-    const t0 = performance.now();
-    e.value = arguments[1];
-    e.dispatchEvent(new Event('change', { bubbles: true }));
+const EDIT_TO_RESULTS: &str = concat!(
+    commit_field!(),
+    "
     const current = (id) => { const b = document.getElementById(id); return b && b.dataset.current === 'true'; };
     let traffic = null;
     const poll = () => {
@@ -46,7 +56,8 @@ const EDIT_TO_RESULTS: &str = "
     };
     // the blocks turn stale with the edit's own frame
     requestAnimationFrame(() => setTimeout(poll, 0));
-";
+"
+);
 
 /// In the page: grab the vehicle on the elevation with a synthetic pointer, then move it
 /// 0.5 m to the right `arguments[0]` times, one move per frame. For each move: the time
