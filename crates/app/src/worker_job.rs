@@ -125,6 +125,14 @@ pub fn finish(slot: StoredValue<Option<Job>, LocalStorage>) {
     }
 }
 
+/// [`finish`] for the job at `index` of jobs running side by side (the shares of a
+/// sweep): the others run on.
+pub fn finish_one(slots: StoredValue<Vec<Option<Job>>, LocalStorage>, index: usize) {
+    if let Some(job) = slots.try_update_value(|jobs| jobs.get_mut(index).and_then(Option::take)).flatten() {
+        job.release();
+    }
+}
+
 impl Drop for Job {
     fn drop(&mut self) {
         self.worker.set_onmessage(None);

@@ -439,8 +439,8 @@ fn size_settle_runs_the_massing_loop() {
 }
 
 /// `sweep` prints CSV with unit-named columns, one line per option (a failing option with
-/// its reason), JSON with `--json`; a bad range is refused (exit 1) and `--vary` is
-/// required (exit 2).
+/// its reason), JSON with `--json`, the same rows whatever `--jobs` says; a bad range is
+/// refused (exit 1) and `--vary` is required (exit 2).
 #[test]
 fn sweep_prints_one_row_per_option() {
     let out = run(&["sweep", "-", "--vary", "rise-ratio=0.12,0.18,0.6"], &demo_json());
@@ -489,6 +489,15 @@ fn sweep_prints_one_row_per_option() {
     let basis = ["sweep", "-", "--vary", "form-basis=as-built", "--chart", &path];
     let err = failed(&run(&basis, &demo_json()), 1);
     assert!(err.contains("one numeric parameter"), "{err}");
+    // on one thread or several, the same rows to the byte; no thread at all is refused
+    let grid = |jobs: &str| {
+        run(&["sweep", "-", "--vary", "panels=10:14:3", "--vary", "ribs=1,2", "--jobs", jobs], &demo_json())
+    };
+    let (one, three) = (grid("1"), grid("3"));
+    assert_eq!(one.status.code(), Some(0), "{}", text(&one.stderr));
+    assert_eq!(text(&one.stdout).lines().count(), 7);
+    assert_eq!(text(&one.stdout), text(&three.stdout));
+    usage_error(&["sweep", "-", "--vary", "ribs=1,2", "--jobs", "0"]);
 }
 
 /// `modes` prints alpha_cr and frequencies with their shapes (JSON) or a text summary

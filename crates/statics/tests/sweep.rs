@@ -134,3 +134,67 @@ fn bad_ranges_are_refused() {
     let two = [parse_axis("panels=8,10").expect("ok"), parse_axis("panels=12").expect("ok")];
     assert!(sweep(&Design::demo(), &two, false).is_err());
 }
+
+/// Shares of a sweep (threads or web workers sweeping at once) hold every option once:
+/// put back together they are the whole sweep's rows bit for bit, on a grid of 3 x 2
+/// split two, four and seven ways (the seventh share holds no option) and
+/// on a sized one-parameter sweep split two ways; `on_row` gets each option's place in
+/// the whole sweep. A share that does not exist, and shares of different sweeps or with
+/// rows missing, are refused.
+#[test]
+fn shares_of_a_sweep_put_together_are_the_whole_sweep() {
+    use springline_statics::arch::sweep::{interleave, sweep_share, Share};
+    let demo = Design::demo();
+    let grid = [
+        parse_axis("panels=10:14:3").expect("parses"),
+        parse_axis("rib-system=three-hinged,fixed").expect("parses"),
+    ];
+    let whole = sweep(&demo, &grid, false).expect("sweeps");
+    for parts in [2, 4, 7] {
+        let mut seen = Vec::new();
+        let shares: Vec<_> = (0..parts)
+            .map(|part| {
+                sweep_share(&demo, &grid, false, Share { part, parts }, |index, total, _| {
+                    assert_eq!(total, 6);
+                    seen.push(index);
+                    true
+                })
+                .expect("sweeps its share")
+            })
+            .collect();
+        seen.sort_unstable();
+        assert_eq!(seen, (0..6).collect::<Vec<_>>(), "{parts} parts");
+        assert_eq!(
+            shares[1].rows.len(),
+            match parts {
+                2 => 3,
+                4 => 2,
+                _ => 1,
+            }
+        );
+        assert!(shares.iter().all(|s| s.axes == whole.axes && s.held == whole.held));
+        assert_eq!(interleave(shares).expect("puts together"), whole, "{parts} parts");
+    }
+    let rise = [parse_axis("rise-ratio=0.12,0.15,0.18").expect("parses")];
+    let sized = sweep(&demo, &rise, true).expect("sweeps");
+    let halves: Vec<_> = (0..2)
+        .map(|part| {
+            sweep_share(&demo, &rise, true, Share { part, parts: 2 }, |_, _, _| true).expect("sweeps")
+        })
+        .collect();
+    assert_eq!(halves[0].rows.len(), 2);
+    assert_eq!(interleave(halves.clone()).expect("puts together"), sized);
+
+    let e =
+        sweep_share(&demo, &rise, false, Share { part: 2, parts: 2 }, |_, _, _| true).expect_err("refused");
+    assert!(e.to_string().contains("share 2 of 2"), "{e}");
+    assert!(sweep_share(&demo, &rise, false, Share { part: 0, parts: 0 }, |_, _, _| true).is_err());
+    let mut short = halves.clone();
+    short[1].rows.clear();
+    let e = interleave(short).expect_err("refused").to_string();
+    assert!(e.contains("share 1 of 2 holds 0 options where its sweep gives it 1"), "{e}");
+    let other =
+        sweep_share(&demo, &rise, false, Share { part: 1, parts: 2 }, |_, _, _| true).expect("sweeps");
+    assert!(interleave(vec![halves[0].clone(), other]).is_err(), "a sized share and an unsized one");
+    assert!(interleave(Vec::new()).is_err());
+}

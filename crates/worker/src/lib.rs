@@ -1,5 +1,6 @@
 //! Long engine work for the browser, run off the page's thread in a web worker: an option
-//! sweep (one row at a time, each row posted as it is made, so the page shows progress),
+//! sweep or one share of it (one row at a time, each row posted as it is made, so the page
+//! shows progress; the page gives each of several workers a share),
 //! the key numbers of saved options (each sized, `arch::options::key_numbers`), and goal
 //! seek on the rise (`arch::seek`; the least-cost goal sizes every rise it tries), the
 //! files made of a design (`export`), the reading of a design file
@@ -27,7 +28,7 @@ use springline_statics::arch::options::{key_numbers, KeyNumbers};
 use springline_statics::arch::seek::{seek, Goal};
 use springline_statics::arch::sizing::{size_design, SizeReport};
 use springline_statics::arch::stability::{arch_stability, ArchStability};
-use springline_statics::arch::sweep::{sweep_each, Axis, Sweep, SweepRow};
+use springline_statics::arch::sweep::{sweep_share, Axis, Share, Sweep, SweepRow};
 use springline_statics::arch::traffic::{traffic_envelopes, TrafficReport};
 use springline_statics::export::{export, Export};
 use springline_statics::link::permalink;
@@ -41,7 +42,8 @@ pub enum Request {
         /// Design links (`s2.xxxx`).
         links: Vec<String>,
     },
-    /// An option sweep of one design (sized when `size`).
+    /// An option sweep of one design (sized when `size`), or the share of it one of
+    /// several workers sweeping at once takes.
     Sweep {
         /// The design's link.
         link: String,
@@ -49,6 +51,8 @@ pub enum Request {
         axes: Vec<Axis>,
         /// Size every option.
         size: bool,
+        /// Which options (every one: `Share::WHOLE`).
+        share: Share,
     },
     /// A file of the design (`springline_statics::export`).
     Export {
@@ -101,16 +105,18 @@ pub enum Reply {
         /// Its key numbers.
         numbers: KeyNumbers,
     },
-    /// One option of a sweep is done (`done` of `total`, counting from 1).
+    /// One option of a sweep is done.
     Row {
-        /// Options done.
-        done: usize,
-        /// Options in all.
+        /// Its place among the whole sweep's rows, from 0 (a share's rows skip the other
+        /// shares').
+        index: usize,
+        /// Options in the whole sweep.
         total: usize,
         /// The option's row.
         row: SweepRow,
     },
-    /// The whole sweep (its rows, axes and what stayed fixed).
+    /// The sweep done (its rows, axes and what stayed fixed): the share's rows alone
+    /// when the request asked for a share.
     Swept {
         /// The sweep.
         sweep: Sweep,
@@ -236,13 +242,13 @@ pub fn run(request: Request, post: &mut dyn FnMut(Reply)) {
                 post(Reply::Numbers { index, numbers });
             }
         }
-        Request::Sweep { link, axes, size } => {
+        Request::Sweep { link, axes, size, share } => {
             let design = match permalink::decode(&link) {
                 Ok(design) => design,
                 Err(e) => return post(Reply::Failed { message: format!("cannot read the design: {e}") }),
             };
-            let swept = sweep_each(&design, &axes, size, |done, total, row| {
-                post(Reply::Row { done, total, row: row.clone() });
+            let swept = sweep_share(&design, &axes, size, share, |index, total, row| {
+                post(Reply::Row { index, total, row: row.clone() });
                 true
             });
             match swept {
@@ -382,14 +388,24 @@ mod tests {
     fn a_sweep_posts_every_row_then_the_same_sweep_the_engine_makes() {
         let design = Design::demo();
         let axes = vec![parse_axis("rise-ratio=0.12:0.2:3").expect("axis")];
-        let out =
-            replies(&Request::Sweep { link: permalink::encode(&design), axes: axes.clone(), size: false });
+        let link = permalink::encode(&design);
+        let out = replies(&Request::Sweep {
+            link: link.clone(),
+            axes: axes.clone(),
+            size: false,
+            share: Share::WHOLE,
+        });
         assert_eq!(out.len(), 4);
         let expected = sweep(&design, &axes, false).expect("sweeps");
         for (k, reply) in out[..3].iter().enumerate() {
-            assert_eq!(*reply, Reply::Row { done: k + 1, total: 3, row: expected.rows[k].clone() });
+            assert_eq!(*reply, Reply::Row { index: k, total: 3, row: expected.rows[k].clone() });
         }
-        assert_eq!(out[3], Reply::Swept { sweep: expected });
+        assert_eq!(out[3], Reply::Swept { sweep: expected.clone() });
+        // the second of two shares: the middle option alone, at its place in the whole
+        let share = Share { part: 1, parts: 2 };
+        let out = replies(&Request::Sweep { link, axes, size: false, share });
+        assert_eq!(out[0], Reply::Row { index: 1, total: 3, row: expected.rows[1].clone() });
+        assert!(matches!(&out[1], Reply::Swept { sweep } if sweep.rows == expected.rows[1..2]), "{out:?}");
     }
 
     #[test]
@@ -597,12 +613,25 @@ mod tests {
             matches!(&out[..], [Ok(Reply::Failed { message })] if message.contains("cannot read")),
             "{out:?}"
         );
-        let bad = replies(&Request::Sweep { link: "nonsense".into(), axes: vec![], size: false });
+        let bad = replies(&Request::Sweep {
+            link: "nonsense".into(),
+            axes: vec![],
+            size: false,
+            share: Share::WHOLE,
+        });
         assert!(
             matches!(&bad[0], Reply::Failed { message } if message.starts_with("cannot read the design"))
         );
+        let demo = permalink::encode(&Design::demo());
         let no_axis =
-            replies(&Request::Sweep { link: permalink::encode(&Design::demo()), axes: vec![], size: false });
+            replies(&Request::Sweep { link: demo.clone(), axes: vec![], size: false, share: Share::WHOLE });
         assert!(matches!(&no_axis[0], Reply::Failed { message } if message.contains("varies one parameter")));
+        let axes = vec![parse_axis("rise-ratio=0.12:0.2:3").expect("axis")];
+        let no_share =
+            replies(&Request::Sweep { link: demo, axes, size: false, share: Share { part: 3, parts: 2 } });
+        assert!(
+            matches!(&no_share[0], Reply::Failed { message } if message.contains("share 3 of 2")),
+            "{no_share:?}"
+        );
     }
 }

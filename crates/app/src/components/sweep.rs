@@ -1,10 +1,10 @@
 //! "Sweep": one parameter of the design on screen over a range (or two as a grid), each
-//! option analysed and (by default) sized in the background worker, the rows drawn as
-//! they come: thrust, total steel, cost index and alpha_cr against the parameter (a pair
+//! option analysed and (by default) sized in background workers (one per processor core,
+//! each taking every n-th option), the rows drawn as they come: thrust, total steel, cost index and alpha_cr against the parameter (a pair
 //! as a shaded grid per quantity), the design on screen marked, options that fail shown
 //! as gaps (their reason on hover), what stays fixed stated under the charts. A click on
 //! a chart (or Enter on the focused chart, arrows to move) adopts that option as one undo
-//! step. A progress bar follows the worker; Cancel ends it at once.
+//! step. A progress bar follows the workers; Cancel ends them at once.
 //!
 //! Each chart publishes its plotting area (CSS pixels) and axis range as `data-plot-*`
 //! and `data-x-*` / `data-y-*` attributes, and the options it draws as `data-count`, for
@@ -14,13 +14,13 @@ use crate::canvas;
 use crate::components::influence_chart::rgb;
 use crate::format::{Quantity, Units};
 use crate::state::{parse_number, AppState};
-use crate::worker_job::{finish, Job};
+use crate::worker_job::{finish_one, Job};
 use leptos::html::Canvas;
 use leptos::prelude::*;
 use plotters::prelude::*;
 use plotters_canvas::CanvasBackend;
 use springline_statics::arch::sweep::{
-    apply, category_names, current_value, held, parse_axis, Axis, Parameter, SweepRow,
+    apply, category_names, current_value, held, parse_axis, Axis, Parameter, Share, SweepRow,
 };
 use springline_statics::link::permalink;
 use springline_statics::scene::Ink;
@@ -128,14 +128,52 @@ impl AxisInputs {
     }
 }
 
-/// A sweep on the page: the design it varies, its axes, the rows so far.
+/// At most this many workers share a sweep: one per processor core the browser reports,
+/// each taking every n-th option (`arch::sweep::Share`). More would each load the engine
+/// for a smaller share and hold its memory.
+const MOST_SHARES: usize = 4;
+
+/// How often the charts follow a running sweep's rows.
+const CHART_EVERY: std::time::Duration = std::time::Duration::from_millis(250);
+
+/// A sweep on the page: the design it varies, its axes, the rows so far (in row order,
+/// with no gap: a row that comes ahead of one still being worked out waits).
 #[derive(Clone, PartialEq)]
 struct Run {
     base: Design,
     axes: Vec<Axis>,
     rows: Vec<SweepRow>,
+    /// Rows that came before a row ahead of them: (index, row).
+    waiting: Vec<(usize, SweepRow)>,
     total: usize,
+    /// Shares (workers) in all, and those done.
+    shares: usize,
+    shares_done: usize,
     finished: bool,
+}
+
+impl Run {
+    /// Takes the row at `index` of the whole sweep: after the rows before it, or to wait
+    /// for them.
+    fn place(&mut self, index: usize, row: SweepRow) {
+        if index != self.rows.len() {
+            self.waiting.push((index, row));
+            return;
+        }
+        self.rows.push(row);
+        while let Some(k) = self.waiting.iter().position(|(i, _)| *i == self.rows.len()) {
+            let (_, next) = self.waiting.swap_remove(k);
+            self.rows.push(next);
+        }
+    }
+}
+
+/// How many workers share a sweep of `options` options: one per core the browser
+/// reports, at least one, at most [`MOST_SHARES`] and one per option.
+fn shares_for(options: usize) -> usize {
+    let cores = web_sys::window().map_or(1.0, |w| w.navigator().hardware_concurrency());
+    let cores = if cores.is_finite() && cores >= 1.0 { cores as usize } else { 1 };
+    cores.clamp(1, MOST_SHARES).min(options.max(1))
 }
 
 /// Where a chart drew its plotting area (CSS pixels) and its axis ranges.
@@ -196,7 +234,7 @@ pub fn SweepPanel() -> impl IntoView {
     let run = RwSignal::new(None::<Run>);
     let error = RwSignal::new(None::<String>);
     let pointed = RwSignal::new(None::<usize>);
-    let job = StoredValue::new_local(None::<Job>);
+    let jobs = StoredValue::new_local(Vec::<Option<Job>>::new());
     // the ranges start from the design on screen, and again when a parameter changes
     Effect::new(move |_| {
         first.key.track();
@@ -206,19 +244,33 @@ pub fn SweepPanel() -> impl IntoView {
         second.key.track();
         second.reset(&state.design.get_untracked(), state.units.get_untracked());
     });
-    // the charts draw what has arrived at most once an animation frame, however fast the
-    // rows come: the page's thread stays free for the user between frames
+    // While rows come, the charts draw what has arrived at most every CHART_EVERY (then in
+    // an animation frame); a sweep done or cancelled is drawn at the next frame. Drawn at
+    // every frame, the four charts took the page's thread about twice as long over a sweep,
+    // time the workers on a small machine's other cores need.
     let drawn = RwSignal::new(None::<Run>);
-    let frame_pending = StoredValue::new(false);
+    let draw_pending = StoredValue::new(false);
+    let ended = move || run.with_untracked(|r| r.as_ref().is_none_or(|r| r.finished));
     Effect::new(move |_| {
         run.track();
-        if !frame_pending.get_value() {
-            frame_pending.set_value(true);
-            request_animation_frame(move || {
-                frame_pending.set_value(false);
-                drawn.set(run.get_untracked());
-            });
+        if ended() {
+            request_animation_frame(move || drawn.set(run.get_untracked()));
+            return;
         }
+        if draw_pending.get_value() {
+            return;
+        }
+        draw_pending.set_value(true);
+        set_timeout(
+            move || {
+                draw_pending.set_value(false);
+                // an ended sweep was drawn as it ended
+                if !ended() {
+                    request_animation_frame(move || drawn.set(run.get_untracked()));
+                }
+            },
+            CHART_EVERY,
+        );
     });
     let running = move || run.with(|r| r.as_ref().is_some_and(|r| !r.finished));
     let start = move || {
@@ -240,50 +292,60 @@ pub fn SweepPanel() -> impl IntoView {
         }
         let base = state.design.get_untracked();
         let total = axes.iter().map(|a| a.values.len()).product();
+        let parts = shares_for(total);
         error.set(None);
         pointed.set(None);
         run.set(Some(Run {
             base: base.clone(),
             axes: axes.clone(),
             rows: Vec::new(),
+            waiting: Vec::new(),
             total,
+            shares: parts,
+            shares_done: 0,
             finished: false,
         }));
-        let request = Request::Sweep { link: permalink::encode(&base), axes, size: size.get_untracked() };
-        let started = Job::start(&request, move |reply| match reply {
-            Reply::Row { row, .. } => run.update(|r| {
+        let link = permalink::encode(&base);
+        let size = size.get_untracked();
+        let stop = move |message: String| {
+            error.set(Some(message));
+            run.update(|r| {
                 if let Some(r) = r {
-                    r.rows.push(row);
+                    r.finished = true;
                 }
-            }),
-            Reply::Swept { .. } => {
-                run.update(|r| {
+            });
+            // every share's worker ends: a sweep with a share missing is not one
+            jobs.set_value(Vec::new());
+        };
+        jobs.set_value((0..parts).map(|_| None).collect());
+        for part in 0..parts {
+            let request =
+                Request::Sweep { link: link.clone(), axes: axes.clone(), size, share: Share { part, parts } };
+            let started = Job::start(&request, move |reply| match reply {
+                Reply::Row { index, row, .. } => run.update(|r| {
                     if let Some(r) = r {
-                        r.finished = true;
+                        r.place(index, row);
                     }
-                });
-                finish(job);
-            }
-            Reply::Failed { message } => {
-                error.set(Some(message));
-                run.update(|r| {
-                    if let Some(r) = r {
-                        r.finished = true;
+                }),
+                Reply::Swept { .. } => {
+                    run.update(|r| {
+                        if let Some(r) = r {
+                            r.shares_done += 1;
+                            r.finished = r.shares_done == r.shares;
+                        }
+                    });
+                    finish_one(jobs, part);
+                }
+                Reply::Failed { message } => stop(message),
+                _ => {}
+            });
+            match started {
+                Ok(j) => jobs.update_value(|js| {
+                    if let Some(slot) = js.get_mut(part) {
+                        *slot = Some(j);
                     }
-                });
-                job.set_value(None);
-            }
-            _ => {}
-        });
-        match started {
-            Ok(j) => job.set_value(Some(j)),
-            Err(e) => {
-                error.set(Some(format!("The sweep cannot start: {e}")));
-                run.update(|r| {
-                    if let Some(r) = r {
-                        r.finished = true;
-                    }
-                });
+                }),
+                Err(e) => return stop(format!("The sweep cannot start: {e}")),
             }
         }
     };
@@ -291,11 +353,12 @@ pub fn SweepPanel() -> impl IntoView {
         if !running() {
             return;
         }
-        job.set_value(None);
+        jobs.set_value(Vec::new());
         run.update(|r| {
             if let Some(r) = r {
                 r.finished = true;
                 r.total = r.rows.len();
+                r.waiting.clear();
             }
         });
         error.set(Some("Cancelled; the options found so far stay on the charts.".into()));

@@ -3,7 +3,9 @@
 
 use super::{print_json, print_line, read_design};
 use crate::failure::Failure;
-use springline_statics::arch::sweep::{parse_axis, sweep, to_csv, Axis, Sweep, SweepRow};
+use springline_statics::arch::sweep::{
+    interleave, parse_axis, sweep_share, to_csv, Axis, Share, Sweep, SweepRow,
+};
 use std::path::PathBuf;
 
 /// Sweep one parameter of a design (or two as a grid) and print each option's key numbers.
@@ -46,6 +48,11 @@ pub struct Args {
     /// and steel with --size).
     #[arg(long, value_name = "FILE.svg")]
     chart: Option<PathBuf>,
+
+    /// Work out the options on this many threads at once (default: one per processor
+    /// core). The rows are the same whatever the count.
+    #[arg(long, value_name = "N", value_parser = clap::value_parser!(u16).range(1..=256))]
+    jobs: Option<u16>,
 }
 
 /// Reads the design and the ranges, sweeps and prints.
@@ -57,7 +64,9 @@ pub fn run(args: Args) -> Result<(), Failure> {
             "a chart takes one numeric parameter (not a grid, not the rib system or form basis)"
         )));
     }
-    let result = sweep(&design, &axes, args.size)?;
+    let cores = std::thread::available_parallelism().map_or(1, usize::from);
+    let jobs = args.jobs.map_or(cores, usize::from);
+    let result = sweep_on_threads(&design, &axes, args.size, jobs)?;
     if let Some(path) = &args.chart {
         chart(&result, path).map_err(|e| {
             Failure::Io(anyhow::anyhow!("cannot draw the chart at '{}': {e}", path.display()))
@@ -68,6 +77,29 @@ pub fn run(args: Args) -> Result<(), Failure> {
     } else {
         print_line(&to_csv(&result))
     }
+}
+
+/// The sweep on `jobs` threads (at most one per option): each thread takes one share of
+/// the options (`arch::sweep::Share`), and the shares are put back in row order.
+fn sweep_on_threads(
+    design: &springline_statics::Design,
+    axes: &[Axis],
+    size: bool,
+    jobs: usize,
+) -> Result<Sweep, springline_statics::StaticsError> {
+    let options: usize = axes.iter().map(|a| a.values.len()).product();
+    let parts = jobs.clamp(1, options.max(1));
+    let shares: Vec<_> = std::thread::scope(|scope| {
+        let threads: Vec<_> = (0..parts)
+            .map(|part| {
+                let share = Share { part, parts };
+                scope.spawn(move || sweep_share(design, axes, size, share, |_, _, _| true))
+            })
+            .collect();
+        // a thread that panicked is a defect of the engine: let it surface as one
+        threads.into_iter().map(|t| t.join().unwrap_or_else(|e| std::panic::resume_unwind(e))).collect()
+    });
+    interleave(shares.into_iter().collect::<Result<Vec<_>, _>>()?)
 }
 
 /// Draws the sweep of one numeric parameter as an SVG chart at `path`: the form thrust and

@@ -347,35 +347,121 @@ pub fn sweep_each(
     size: bool,
     mut on_row: impl FnMut(usize, usize, &SweepRow) -> bool,
 ) -> Result<Sweep, StaticsError> {
-    let first = match axes {
-        [first] => first,
+    sweep_share(design, axes, size, Share::WHOLE, |index, total, row| on_row(index + 1, total, row))
+}
+
+/// One share of a sweep's options, so several threads or web workers can sweep at once:
+/// the options whose index (their place in the sweep's rows, counting from 0) leaves the
+/// remainder `part` when divided by `parts`. Options taken in turn like this share the
+/// work about evenly, since neighbouring options cost about the same.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+pub struct Share {
+    /// Which share, from 0.
+    pub part: usize,
+    /// How many shares in all (at least 1).
+    pub parts: usize,
+}
+
+impl Share {
+    /// Every option: the one share of a sweep run alone.
+    pub const WHOLE: Share = Share { part: 0, parts: 1 };
+
+    /// Whether the option at `index` is this share's.
+    pub fn holds(self, index: usize) -> bool {
+        index % self.parts == self.part
+    }
+}
+
+/// The option at `index` (row order, the last axis fastest) of a sweep over `first` and
+/// `second`: its design and the varied values; `None` past the last option.
+fn option_at(
+    design: &Design,
+    first: &Axis,
+    second: Option<&Axis>,
+    index: usize,
+) -> Option<(Design, Vec<f64>)> {
+    let inner = second.map_or(1, |a| a.values.len()).max(1);
+    let a = *first.values.get(index / inner)?;
+    let d = apply(design, first.parameter, a);
+    match second {
+        None => Some((d, vec![a])),
+        Some(second) => {
+            let b = *second.values.get(index % inner)?;
+            Some((apply(&d, second.parameter, b), vec![a, b]))
+        }
+    }
+}
+
+/// The options of `share` of the sweep [`sweep`] would make, in row order: the returned
+/// sweep holds that share's rows only (its axes, words and caution as the whole sweep's).
+/// `on_row(index, total, row)` follows each option, `index` its place among all the
+/// sweep's rows (from 0) and `total` the number of options in the whole sweep; when it
+/// returns `false` the share stops there. [`interleave`] puts the shares of one sweep back
+/// together into the rows [`sweep`] gives, bit for bit (each option is worked out alone).
+///
+/// Errors: as [`sweep`], and `Invalid` for a share with no parts or a part beyond them.
+pub fn sweep_share(
+    design: &Design,
+    axes: &[Axis],
+    size: bool,
+    share: Share,
+    mut on_row: impl FnMut(usize, usize, &SweepRow) -> bool,
+) -> Result<Sweep, StaticsError> {
+    let (first, second) = match axes {
+        [first] => (first, None),
         [first, second] if first.parameter == second.parameter => {
             return Err(refuse(format!("{} is varied twice", first.parameter.key())));
         }
-        [first, _] => first,
+        [first, second] => (first, Some(second)),
         _ => return Err(refuse("a sweep varies one parameter, or two as a grid".into())),
     };
+    if share.parts == 0 || share.part >= share.parts {
+        return Err(refuse(format!("share {} of {} of a sweep does not exist", share.part, share.parts)));
+    }
     let count: usize = axes.iter().map(|a| a.values.len()).product();
     if count > MAX_VALUES {
         return Err(refuse(format!("{count} options: a sweep takes at most {MAX_VALUES}")));
     }
-    let mut rows = Vec::with_capacity(count);
-    'options: for &a in &first.values {
-        let d = apply(design, first.parameter, a);
-        let options: Vec<(Design, Vec<f64>)> = match axes.get(1) {
-            None => vec![(d, vec![a])],
-            Some(second) => {
-                second.values.iter().map(|&b| (apply(&d, second.parameter, b), vec![a, b])).collect()
-            }
-        };
-        for (option, values) in options {
-            rows.push(option_row(&option, values, size));
-            if !rows.last().is_some_and(|row| on_row(rows.len(), count, row)) {
-                break 'options;
-            }
+    let mut rows = Vec::with_capacity(count.div_ceil(share.parts));
+    for index in (0..count).filter(|&i| share.holds(i)) {
+        let Some((option, values)) = option_at(design, first, second, index) else { break };
+        let row = option_row(&option, values, size);
+        let more = on_row(index, count, &row);
+        rows.push(row);
+        if !more {
+            break;
         }
     }
     Ok(Sweep { held: held(axes), axes: axes.to_vec(), rows, sized: size, caution: CAUTION.into() })
+}
+
+/// The whole sweep from its shares (`shares[k]` the share `Share { part: k, parts:
+/// shares.len() }` of one sweep, every one complete): their rows back in row order.
+///
+/// Errors: `Invalid` for no shares, shares of different sweeps (axes or sizing), or a
+/// share with a row too many or too few.
+pub fn interleave(shares: Vec<Sweep>) -> Result<Sweep, StaticsError> {
+    let parts = shares.len();
+    let Some(first) = shares.first() else {
+        return Err(refuse("no share of a sweep to put together".into()));
+    };
+    if shares.iter().any(|s| s.axes != first.axes || s.sized != first.sized) {
+        return Err(refuse("the shares are of different sweeps".into()));
+    }
+    let count: usize = first.axes.iter().map(|a| a.values.len()).product();
+    let expected = |part: usize| (count + parts - 1 - part) / parts;
+    if let Some((part, s)) = shares.iter().enumerate().find(|(part, s)| s.rows.len() != expected(*part)) {
+        return Err(refuse(format!(
+            "share {part} of {parts} holds {} options where its sweep gives it {}",
+            s.rows.len(),
+            expected(part)
+        )));
+    }
+    let (axes, held, sized, caution) =
+        (first.axes.clone(), first.held.clone(), first.sized, first.caution.clone());
+    let mut iters: Vec<_> = shares.into_iter().map(|s| s.rows.into_iter()).collect();
+    let rows = (0..count).filter_map(|index| iters.get_mut(index % parts).and_then(Iterator::next)).collect();
+    Ok(Sweep { axes, held, rows, sized, caution })
 }
 
 /// The sweep as CSV: a header with every column's unit, then one line per option
