@@ -3,7 +3,8 @@
 //! buckling length from alpha_cr.
 //!
 //! Each rib member's compression and moment come from an envelope extreme under one
-//! ultimate combination (`arch::sizing`). Each such placement (deduplicated), and the
+//! ultimate combination (`arch::sizing`). Each such placement (once: two equal to
+//! rounding are one, [`same_placement`]), and the
 //! factored dead load alone, is a load case of the frame model
 //! (`arch::stability::factored_placement`); its linear buckling gives the arch's alpha_cr
 //! for it (local buckling of posts and diagonals set aside: their member checks cover it,
@@ -46,6 +47,7 @@ use crate::arch::stability::{
 use crate::arch::traffic::TrafficReport;
 use crate::arch::validate::ValidDesign;
 use crate::error::StaticsError;
+use crate::frame::model::LoadCase;
 use crate::sizing::buckling::{curve_for, Curve};
 use crate::sizing::materials::Material;
 use crate::sizing::resistance::{check, steel_section_utilisation, Check, Demand, Lengths, Mode};
@@ -147,8 +149,7 @@ pub fn rib_stability(
         let Some((name, line_name, max)) = source else { return Ok(None) };
         let (Some(c), Some(line)) = (combination(name), report.line(line_name)) else { return Ok(None) };
         let case = factored_placement(valid, generated, line, *max, c)?;
-        let same = |f: &FactoredCase| f.case.nodal == case.nodal && f.case.member == case.member;
-        if let Some(i) = cases.iter().position(same) {
+        if let Some(i) = cases.iter().position(|f| same_placement(&f.case, &case)) {
             return Ok(Some(i));
         }
         let extreme = if *max { &line.traffic_max } else { &line.traffic_min };
@@ -201,6 +202,51 @@ pub fn rib_stability(
             .map(|(a, b)| (b.x - a.x).hypot(b.y - a.y))
             .sum::<f64>();
     Ok(RibStability { cases: analysed, alpha_cr, least, analysed_ei, half_length, members })
+}
+
+/// Whether two factored load cases are the same loads to rounding: the same nodes and
+/// members loaded in the same order and directions, every force within
+/// `tolerance::SAME_PLACEMENT` of the larger case's largest load, every position along a
+/// member within it of the larger position (at least 1 m); temperature changes and
+/// imposed displacements equal.
+pub fn same_placement(a: &LoadCase, b: &LoadCase) -> bool {
+    use crate::frame::model::MemberLoad;
+    use crate::tolerance::SAME_PLACEMENT;
+    if a.nodal.len() != b.nodal.len()
+        || a.member.len() != b.member.len()
+        || a.temperature != b.temperature
+        || a.prescribed != b.prescribed
+    {
+        return false;
+    }
+    let largest = |c: &LoadCase| {
+        let nodal = c.nodal.iter().map(|l| l.fx.abs().max(l.fy.abs()).max(l.mz.abs()));
+        let member = c.member.iter().map(|l| match *l {
+            MemberLoad::Uniform { w, .. } => w.abs(),
+            MemberLoad::Point { p, .. } => p.abs(),
+        });
+        nodal.chain(member).fold(0.0f64, f64::max)
+    };
+    let force_tolerance = SAME_PLACEMENT * largest(a).max(largest(b));
+    let force = |x: f64, y: f64| (x - y).abs() <= force_tolerance;
+    let position = |x: f64, y: f64| (x - y).abs() <= SAME_PLACEMENT * x.abs().max(y.abs()).max(1.0);
+    let nodal = a
+        .nodal
+        .iter()
+        .zip(&b.nodal)
+        .all(|(p, q)| p.node == q.node && force(p.fx, q.fx) && force(p.fy, q.fy) && force(p.mz, q.mz));
+    let member = a.member.iter().zip(&b.member).all(|(p, q)| match (*p, *q) {
+        (
+            MemberLoad::Uniform { member: m, w, direction: d, projected: j },
+            MemberLoad::Uniform { member: n, w: v, direction: e, projected: k },
+        ) => m == n && d == e && j == k && force(w, v),
+        (
+            MemberLoad::Point { member: m, p, a: s, direction: d },
+            MemberLoad::Point { member: n, p: q, a: t, direction: e },
+        ) => m == n && d == e && force(p, q) && position(s, t),
+        _ => false,
+    });
+    nodal && member
 }
 
 /// The rib members of `generated`, in model order.
