@@ -91,10 +91,12 @@ pub const SUBSPACE_RANK: f64 = 1e-10;
 pub const COMPRESSED_MEMBER: f64 = 1e-9;
 
 // arch layer: second order
-/// Two governing placements are one (`arch::second_order::same_placement`) when every
-/// load of one is within this fraction of the largest load of the two cases of the
-/// other's (positions along a member within this fraction of the larger position, at
-/// least 1 m). A placement found from two envelope lines meets their zero crossings
+/// Two governing placements are one (`arch::second_order::same_placement`) when each load
+/// of one differs from the other's by at most this fraction of the larger of the two
+/// cases' largest loads (forces, line loads and moments alike: a scale of rounding, not
+/// of units), and each position along a member by at most this fraction of the larger
+/// position (at least 1 m). Equal loads listed in another order, or a near-zero load one
+/// case has and the other lacks, are not merged: a case buckled twice, on the safe side. A placement found from two envelope lines meets their zero crossings
 /// computed from different lines, so the same patch of lane load can come twice,
 /// differing in its last bits: measured on the demo at 16, 32 and 64 panels, 1e-16 to
 /// 4e-14 of the largest load. The critical load factors of two cases that close differ

@@ -1,7 +1,8 @@
 //! "Sweep": one parameter of the design on screen over a range (or two as a grid), each
 //! option analysed and (by default) sized in background workers (one per processor core,
-//! each taking every n-th option), the rows drawn as they come: thrust, total steel, cost index and alpha_cr against the parameter (a pair
-//! as a shaded grid per quantity), the design on screen marked, options that fail shown
+//! each taking every n-th option), the rows drawn as they come: thrust, total steel,
+//! cost index and alpha_cr against the parameter (a pair as a shaded grid per
+//! quantity), the design on screen marked, options that fail shown
 //! as gaps (their reason on hover), what stays fixed stated under the charts. A click on
 //! a chart (or Enter on the focused chart, arrows to move) adopts that option as one undo
 //! step. A progress bar follows the workers; Cancel ends them at once.
@@ -143,7 +144,7 @@ struct Run {
     base: Design,
     axes: Vec<Axis>,
     rows: Vec<SweepRow>,
-    /// Rows that came before a row ahead of them: (index, row).
+    /// Rows that came ahead of a row still missing before them: (index, row).
     waiting: Vec<(usize, SweepRow)>,
     total: usize,
     /// Shares (workers) in all, and those done.
@@ -245,7 +246,8 @@ pub fn SweepPanel() -> impl IntoView {
         second.reset(&state.design.get_untracked(), state.units.get_untracked());
     });
     // While rows come, the charts draw what has arrived at most every CHART_EVERY (then in
-    // an animation frame); a sweep done or cancelled is drawn at the next frame. Drawn at
+    // an animation frame); a sweep just started (no row yet: the last sweep's charts go),
+    // done or cancelled is drawn at the next frame. Drawn at
     // every frame, the four charts took the page's thread about twice as long over a sweep,
     // time the workers on a small machine's other cores need.
     let drawn = RwSignal::new(None::<Run>);
@@ -253,7 +255,7 @@ pub fn SweepPanel() -> impl IntoView {
     let ended = move || run.with_untracked(|r| r.as_ref().is_none_or(|r| r.finished));
     Effect::new(move |_| {
         run.track();
-        if ended() {
+        if ended() || run.with_untracked(|r| r.as_ref().is_some_and(|r| r.rows.is_empty())) {
             request_animation_frame(move || drawn.set(run.get_untracked()));
             return;
         }
@@ -312,6 +314,7 @@ pub fn SweepPanel() -> impl IntoView {
             run.update(|r| {
                 if let Some(r) = r {
                     r.finished = true;
+                    r.waiting.clear();
                 }
             });
             // every share's worker ends: a sweep with a share missing is not one
@@ -373,8 +376,9 @@ pub fn SweepPanel() -> impl IntoView {
         ev.prevent_default();
     });
     on_cleanup(move || keys.remove());
+    // the option as drawn: a click maps through the charts on screen
     let adopt = move |k: usize| {
-        let Some((base, axes, values)) = run.with_untracked(|r| {
+        let Some((base, axes, values)) = drawn.with_untracked(|r| {
             r.as_ref().and_then(|r| Some((r.base.clone(), r.axes.clone(), r.rows.get(k)?.values.clone())))
         }) else {
             return;
@@ -436,7 +440,7 @@ pub fn SweepPanel() -> impl IntoView {
     };
     let readout = move || {
         let units = state.units.get();
-        run.with(|r| {
+        drawn.with(|r| {
             let r = r.as_ref()?;
             let k = pointed.get()?;
             let row = r.rows.get(k)?;

@@ -79,8 +79,9 @@ pub fn run(args: Args) -> Result<(), Failure> {
     }
 }
 
-/// The sweep on `jobs` threads (at most one per option): each thread takes one share of
-/// the options (`arch::sweep::Share`), and the shares are put back in row order.
+/// The sweep on `jobs` threads (at most one per option; the first is this one): each takes
+/// one share of the options (`arch::sweep::Share`), and the shares are put back in row
+/// order.
 fn sweep_on_threads(
     design: &springline_statics::Design,
     axes: &[Axis],
@@ -89,15 +90,15 @@ fn sweep_on_threads(
 ) -> Result<Sweep, springline_statics::StaticsError> {
     let options: usize = axes.iter().map(|a| a.values.len()).product();
     let parts = jobs.clamp(1, options.max(1));
+    let share = |part| sweep_share(design, axes, size, Share { part, parts }, |_, _, _| true);
+    // the first share on this thread (its stack as before), the others on threads of their own
     let shares: Vec<_> = std::thread::scope(|scope| {
-        let threads: Vec<_> = (0..parts)
-            .map(|part| {
-                let share = Share { part, parts };
-                scope.spawn(move || sweep_share(design, axes, size, share, |_, _, _| true))
-            })
-            .collect();
+        let others: Vec<_> = (1..parts).map(|part| scope.spawn(move || share(part))).collect();
+        let first = share(0);
         // a thread that panicked is a defect of the engine: let it surface as one
-        threads.into_iter().map(|t| t.join().unwrap_or_else(|e| std::panic::resume_unwind(e))).collect()
+        std::iter::once(first)
+            .chain(others.into_iter().map(|t| t.join().unwrap_or_else(|e| std::panic::resume_unwind(e))))
+            .collect()
     });
     interleave(shares.into_iter().collect::<Result<Vec<_>, _>>()?)
 }

@@ -368,7 +368,7 @@ impl Share {
 
     /// Whether the option at `index` is this share's.
     pub fn holds(self, index: usize) -> bool {
-        index % self.parts == self.part
+        index.checked_rem(self.parts) == Some(self.part)
     }
 }
 
@@ -436,7 +436,9 @@ pub fn sweep_share(
 }
 
 /// The whole sweep from its shares (`shares[k]` the share `Share { part: k, parts:
-/// shares.len() }` of one sweep, every one complete): their rows back in row order.
+/// shares.len() }` of one sweep, every one complete): their rows back in row order. A
+/// sweep does not record which share it is, so the caller keeps them in order: shares
+/// of one length given in another order would interleave without complaint.
 ///
 /// Errors: `Invalid` for no shares, shares of different sweeps (axes or sizing), or a
 /// share with a row too many or too few.
