@@ -95,12 +95,13 @@ pub const COMPRESSED_MEMBER: f64 = 1e-9;
 /// of one differs from the other's by at most this fraction of the larger of the two
 /// cases' largest loads (forces, line loads and moments alike: a scale of rounding, not
 /// of units), and each position along a member by at most this fraction of the larger
-/// position (at least 1 m). Equal loads listed in another order, or a near-zero load one
-/// case has and the other lacks, are not merged: a case buckled twice, on the safe side. A placement found from two envelope lines meets their zero crossings
-/// computed from different lines, so the same patch of lane load can come twice,
-/// differing in its last bits: measured on the demo at 16, 32 and 64 panels, 1e-16 to
-/// 4e-14 of the largest load. The critical load factors of two cases that close differ
-/// by about as much, far below the eigen solution's own tolerance (`EIGEN_RESIDUAL`).
+/// position (at least 1 m). A placement found from two envelope lines meets their zero
+/// crossings computed from different lines, so the same patch of lane load can come
+/// twice, differing in its last bits: measured on the demo at 16, 32 and 64 panels,
+/// 1e-16 to 4e-14 of the largest load. The critical load factors of two cases that close
+/// differ by about as much, far below the eigen solution's own tolerance
+/// (`EIGEN_RESIDUAL`). Equal loads listed in another order, or a near-zero load one case
+/// has and the other lacks, are not merged: a case buckled twice, on the safe side.
 pub const SAME_PLACEMENT: f64 = 1e-10;
 
 // graphic layer: reciprocal

@@ -268,8 +268,8 @@ fn the_arch_modes_agree_with_the_dense_oracle() {
 }
 
 /// One placement is buckled once, even when two envelope lines find it with their zero
-/// crossings differing in the last bits (measured on the demo as typed at 16 panels: three such
-/// pairs, 1e-16 to 6e-15 of the largest load apart, were three cases more). So no two
+/// crossings differing in the last bits (measured on the demo as typed at 16 panels:
+/// three such pairs, 1e-16 to 6e-15 of the largest load apart, were three cases more). So no two
 /// cases of the demo's rib stability have the same placement in words and the same
 /// alpha_cr to 1e-9; `same_placement` takes loads equal to rounding as one and tells
 /// apart a load moved by a millimetre or changed by a part in a million.

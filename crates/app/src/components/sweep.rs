@@ -247,9 +247,9 @@ pub fn SweepPanel() -> impl IntoView {
     });
     // While rows come, the charts draw what has arrived at most every CHART_EVERY (then in
     // an animation frame); a sweep just started (no row yet: the last sweep's charts go),
-    // done or cancelled is drawn at the next frame. Drawn at
-    // every frame, the four charts took the page's thread about twice as long over a sweep,
-    // time the workers on a small machine's other cores need.
+    // done or cancelled is drawn at the next frame. Drawn at every frame, the four charts
+    // took the page's thread about twice as long over a sweep, time the workers on a
+    // small machine's other cores need.
     let drawn = RwSignal::new(None::<Run>);
     let draw_pending = StoredValue::new(false);
     let ended = move || run.with_untracked(|r| r.as_ref().is_none_or(|r| r.finished));
