@@ -304,3 +304,65 @@ fn a_placement_found_twice_is_buckled_once() {
     longer.nodal.push(NodalLoad { node: 4, fx: 0.0, fy: -1.0, mz: 0.0 });
     assert!(!same_placement(&base, &longer));
 }
+
+/// Each placement is buckled for its lowest mode first, and again for `ARCH_MODES` modes
+/// only when that mode is not the arch's: the lowest alpha_cr, the arch's alpha_cr,
+/// which mode is the arch's and the first mode's words are then what `ARCH_MODES` modes
+/// from the start give (to 1e-9, the eigen solution's tolerance). On the demo the lowest
+/// mode is the arch's in every case; on the fixed, cross-braced fixture with piers on
+/// one side only a pier buckles first in every case, so each is buckled again.
+#[test]
+fn one_mode_first_gives_what_three_modes_give() {
+    use springline_statics::arch::design_file::read_design_json;
+    use springline_statics::arch::generate::frame_model;
+    use springline_statics::arch::influence::ArchLine;
+    use springline_statics::arch::second_order::rib_members;
+    use springline_statics::arch::sizing::{frame_traffic, is_ultimate};
+    use springline_statics::arch::stability::{
+        arch_mode, arch_only, factored_dead, factored_placement, mode_words, placement_stability,
+        FactoredCase, ARCH_MODES, ARCH_SETTINGS,
+    };
+    use springline_statics::frame::stability::Stability;
+    let fixed = read_design_json(include_str!("../../../tests/fixtures/designs/v2-fixed-crossed.json"))
+        .expect("the fixture reads");
+    for (d, arch_first) in [(Design::demo(), true), (fixed, false)] {
+        let valid = ValidDesign::new(&d).expect("valid");
+        let generated = frame_model(&valid);
+        let report = frame_traffic(&valid).expect("traffic");
+        let uls = d.traffic.combinations.iter().find(|c| is_ultimate(c)).expect("an ultimate combination");
+        let mut cases = vec![FactoredCase {
+            combination: uls.name.clone(),
+            placement: "dead load alone".into(),
+            case: factored_dead(&generated, uls).expect("dead"),
+        }];
+        for k in rib_members(&generated).into_iter().step_by(3) {
+            let line = report.line(&ArchLine::Axial(k).name(&generated)).expect("the rib member's line");
+            let case = factored_placement(&valid, &generated, line, false, uls).expect("placed");
+            cases.push(FactoredCase {
+                combination: uls.name.clone(),
+                placement: format!("member {k}"),
+                case,
+            });
+        }
+        let found = placement_stability(&generated, &cases).expect("prepared");
+        let prepared = Stability::new(&arch_only(&generated), ARCH_SETTINGS).expect("prepared");
+        for (f, c) in found.iter().zip(&cases) {
+            let f = f.as_ref().expect("buckles");
+            let three = prepared.buckling(&c.case, ARCH_MODES).expect("buckles");
+            let arch = arch_mode(&generated, &three).expect("modes");
+            let close = |a: f64, b: f64| (a / b - 1.0).abs() < 1e-9;
+            let lowest = three.critical().expect("a mode");
+            assert!(close(f.alpha_cr, lowest), "{}: {} vs {lowest}", d.name, f.alpha_cr);
+            assert!(
+                close(f.arch.alpha_cr, arch.alpha_cr),
+                "{}: {} vs {}",
+                d.name,
+                f.arch.alpha_cr,
+                arch.alpha_cr
+            );
+            assert_eq!(f.arch.mode, arch.mode, "{}", d.name);
+            assert_eq!(f.first_mode, mode_words(&generated, &three.modes[0]), "{}", d.name);
+            assert_eq!(arch.mode == Some(0), arch_first, "{}: the arch's mode is {:?}", d.name, arch.mode);
+        }
+    }
+}
