@@ -21,7 +21,7 @@ use leptos::prelude::*;
 use plotters::prelude::*;
 use plotters_canvas::CanvasBackend;
 use springline_statics::arch::sweep::{
-    apply, category_names, current_value, held, parse_axis, Axis, Parameter, Share, SweepRow,
+    apply, category_names, current_value, held, option_count, parse_axis, Axis, Parameter, Share, SweepRow,
 };
 use springline_statics::link::permalink;
 use springline_statics::scene::Ink;
@@ -293,7 +293,7 @@ pub fn SweepPanel() -> impl IntoView {
             return error.set(Some("Vary two different parameters, or only one.".into()));
         }
         let base = state.design.get_untracked();
-        let total = axes.iter().map(|a| a.values.len()).product();
+        let total = option_count(&axes);
         let parts = shares_for(total);
         error.set(None);
         pointed.set(None);

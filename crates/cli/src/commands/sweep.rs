@@ -4,7 +4,7 @@
 use super::{print_json, print_line, read_design};
 use crate::failure::Failure;
 use springline_statics::arch::sweep::{
-    interleave, parse_axis, sweep_share, to_csv, Axis, Share, Sweep, SweepRow,
+    interleave, option_count, parse_axis, sweep_share, to_csv, Axis, Share, Sweep, SweepRow,
 };
 use std::path::PathBuf;
 
@@ -88,7 +88,7 @@ fn sweep_on_threads(
     size: bool,
     jobs: usize,
 ) -> Result<Sweep, springline_statics::StaticsError> {
-    let options: usize = axes.iter().map(|a| a.values.len()).product();
+    let options = option_count(axes);
     let parts = jobs.clamp(1, options.max(1));
     let share = |part| sweep_share(design, axes, size, Share { part, parts }, |_, _, _| true);
     // the first share on this thread (its stack as before), the others on threads of their own

@@ -372,6 +372,11 @@ impl Share {
     }
 }
 
+/// The number of options of a sweep over `axes`: the product of their values' counts.
+pub fn option_count(axes: &[Axis]) -> usize {
+    axes.iter().map(|a| a.values.len()).product()
+}
+
 /// The option at `index` (row order, the last axis fastest) of a sweep over `first` and
 /// `second`: its design and the varied values; `None` past the last option.
 fn option_at(
@@ -418,7 +423,7 @@ pub fn sweep_share(
     if share.parts == 0 || share.part >= share.parts {
         return Err(refuse(format!("share {} of {} of a sweep does not exist", share.part, share.parts)));
     }
-    let count: usize = axes.iter().map(|a| a.values.len()).product();
+    let count = option_count(axes);
     if count > MAX_VALUES {
         return Err(refuse(format!("{count} options: a sweep takes at most {MAX_VALUES}")));
     }
@@ -450,7 +455,7 @@ pub fn interleave(shares: Vec<Sweep>) -> Result<Sweep, StaticsError> {
     if shares.iter().any(|s| s.axes != first.axes || s.sized != first.sized) {
         return Err(refuse("the shares are of different sweeps".into()));
     }
-    let count: usize = first.axes.iter().map(|a| a.values.len()).product();
+    let count = option_count(&first.axes);
     let expected = |part: usize| (count + parts - 1 - part) / parts;
     if let Some((part, s)) = shares.iter().enumerate().find(|(part, s)| s.rows.len() != expected(*part)) {
         return Err(refuse(format!(
