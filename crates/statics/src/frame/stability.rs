@@ -524,11 +524,34 @@ impl Stability {
         cases: &[LoadCase],
         modes: usize,
     ) -> Vec<Result<CaseBuckling, StaticsError>> {
+        self.buckling_cases_widening(cases, modes, modes, |_| true)
+    }
+
+    /// [`Stability::buckling_cases`] finding `few` modes of each case while `enough` says
+    /// they suffice (the mode sought is among them); a case whose modes do not is
+    /// buckled again for `more` modes, started from the subspace of its first try, and
+    /// every later case takes `more` at once (neighbouring cases tend to need the same).
+    /// Why: the subspace iteration converges at the ratio of the last wanted mode to the
+    /// first one it does not hold, so fewer modes cost fewer and smaller iterations. A
+    /// case's result is the one `more` modes would give whenever `enough` refused `few`.
+    pub fn buckling_cases_widening(
+        &self,
+        cases: &[LoadCase],
+        few: usize,
+        more: usize,
+        enough: impl Fn(&CaseBuckling) -> bool,
+    ) -> Vec<Result<CaseBuckling, StaticsError>> {
         let mut warm: Option<DMatrix<f64>> = None;
+        let mut modes = few;
         cases
             .iter()
             .map(|c| {
-                let (result, subspace) = self.buckling_from(c, modes, warm.as_ref())?;
+                let (mut result, mut subspace) = self.buckling_from(c, modes, warm.as_ref())?;
+                if modes < more && !enough(&result) {
+                    modes = more;
+                    let started = (subspace.ncols() > 0).then_some(&subspace).or(warm.as_ref());
+                    (result, subspace) = self.buckling_from(c, modes, started)?;
+                }
                 if subspace.ncols() > 0 {
                     warm = Some(subspace);
                 }
